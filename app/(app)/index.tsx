@@ -1,0 +1,3 @@
+import { HomeScreen } from '../../components/screens/HomeScreen';
+
+export default HomeScreen;

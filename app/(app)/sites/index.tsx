@@ -1,0 +1,3 @@
+import { SitesScreen } from '../../../components/screens/SitesScreen';
+
+export default SitesScreen;

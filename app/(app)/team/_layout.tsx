@@ -1,0 +1,10 @@
+import { Redirect, Slot } from 'expo-router';
+import React from 'react';
+import { useUser } from '../../../hooks/session';
+
+/** Guard: team management is for admins. */
+export default function TeamLayout() {
+  const user = useUser();
+  if (user.role !== 'admin') return <Redirect href="/" />;
+  return <Slot />;
+}

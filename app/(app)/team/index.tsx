@@ -1,0 +1,3 @@
+import { TeamScreen } from '../../../components/screens/TeamScreen';
+
+export default TeamScreen;

@@ -1,0 +1,3 @@
+import { SignInScreen } from '../components/screens/SignInScreen';
+
+export default SignInScreen;

@@ -1,0 +1,119 @@
+import { Link, usePathname } from 'expo-router';
+import React from 'react';
+import { Pressable, View } from 'react-native';
+import { useSafeAreaInsets } from 'react-native-safe-area-context';
+import { ROLE_LABELS } from '../shared/schemas/common';
+import { useSession, useUser } from '../hooks/session';
+import { useLayout } from '../hooks/useLayout';
+import { isActive, navFor } from './nav';
+import { colors, fonts, space, touch } from './theme';
+import { T } from './ui';
+
+function Wordmark({ light }: { light?: boolean }) {
+  return (
+    <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
+      <View style={{ width: 12, height: 28, borderRadius: 6, backgroundColor: colors.accent }} />
+      <T style={{ fontFamily: fonts.textBold, fontSize: 20, color: light ? colors.navInk : colors.ink, letterSpacing: 0.5 }}>Emberline</T>
+    </View>
+  );
+}
+
+/** Phone: a top bar and bottom tabs. From 1024 px: a side navigation. */
+export function AppShell({ children }: { children: React.ReactNode }) {
+  const { wide } = useLayout();
+  const user = useUser();
+  const { signOut } = useSession();
+  const pathname = usePathname();
+  const insets = useSafeAreaInsets();
+  const items = navFor(user.role);
+
+  if (wide) {
+    return (
+      <View style={{ flex: 1, flexDirection: 'row', backgroundColor: colors.canvas }}>
+        <View testID="side-nav" style={{ width: 248, backgroundColor: colors.nav, paddingVertical: space.xl, paddingHorizontal: space.md, gap: space.xs }}>
+          <View style={{ paddingHorizontal: space.sm, marginBottom: space.xl }}>
+            <Wordmark light />
+          </View>
+          {items.map((item) => {
+            const on = isActive(item.href, pathname);
+            return (
+              <Link key={item.href} href={item.href as never} asChild>
+                <Pressable
+                  accessibilityRole="link"
+                  accessibilityState={{ selected: on }}
+                  style={{
+                    minHeight: touch.min,
+                    flexDirection: 'row',
+                    alignItems: 'center',
+                    gap: space.md,
+                    paddingHorizontal: space.md,
+                    borderRadius: 8,
+                    backgroundColor: on ? 'rgba(255,255,255,0.12)' : 'transparent',
+                  }}
+                >
+                  <T style={{ color: on ? colors.navInk : colors.navMuted, fontSize: 18, width: 22, textAlign: 'center' }}>{item.glyph}</T>
+                  <T style={{ color: on ? colors.navInk : colors.navMuted, fontFamily: on ? fonts.textBold : fonts.textMedium }}>{item.label}</T>
+                </Pressable>
+              </Link>
+            );
+          })}
+          <View style={{ flex: 1 }} />
+          <View style={{ paddingHorizontal: space.sm, gap: 2 }}>
+            <T style={{ color: colors.navInk, fontFamily: fonts.textMedium }} testID="shell-user">
+              {user.name}
+            </T>
+            <T style={{ color: colors.navMuted, fontSize: 13 }}>{ROLE_LABELS[user.role]}</T>
+          </View>
+          <Pressable accessibilityRole="button" onPress={() => void signOut()} style={{ minHeight: touch.min, justifyContent: 'center', paddingHorizontal: space.sm }}>
+            <T style={{ color: colors.navMuted, textDecorationLine: 'underline' }}>Sign out</T>
+          </Pressable>
+        </View>
+        <View style={{ flex: 1 }}>{children}</View>
+      </View>
+    );
+  }
+
+  return (
+    <View style={{ flex: 1, backgroundColor: colors.canvas }}>
+      <View
+        style={{
+          paddingTop: insets.top + space.sm,
+          paddingBottom: space.sm,
+          paddingHorizontal: space.lg,
+          backgroundColor: colors.nav,
+          flexDirection: 'row',
+          alignItems: 'center',
+          justifyContent: 'space-between',
+        }}
+      >
+        <Wordmark light />
+        <Pressable accessibilityRole="button" onPress={() => void signOut()} style={{ minHeight: touch.min, justifyContent: 'center', paddingLeft: space.md }}>
+          <T style={{ color: colors.navMuted, fontSize: 14 }}>
+            {ROLE_LABELS[user.role]} · Sign out
+          </T>
+        </Pressable>
+      </View>
+      <View style={{ flex: 1 }}>{children}</View>
+      <View
+        testID="bottom-tabs"
+        style={{ flexDirection: 'row', backgroundColor: colors.surface, borderTopWidth: 1, borderTopColor: colors.line, paddingBottom: insets.bottom }}
+      >
+        {items.map((item) => {
+          const on = isActive(item.href, pathname);
+          return (
+            <Link key={item.href} href={item.href as never} asChild>
+              <Pressable
+                accessibilityRole="tab"
+                accessibilityState={{ selected: on }}
+                style={{ flex: 1, minHeight: 60, alignItems: 'center', justifyContent: 'center', gap: 2, borderTopWidth: 3, borderTopColor: on ? colors.accent : 'transparent' }}
+              >
+                <T style={{ fontSize: 20, color: on ? colors.accent : colors.muted }}>{item.glyph}</T>
+                <T style={{ fontSize: 12, fontFamily: on ? fonts.textBold : fonts.textMedium, color: on ? colors.ink : colors.muted }}>{item.label}</T>
+              </Pressable>
+            </Link>
+          );
+        })}
+      </View>
+    </View>
+  );
+}

@@ -1,0 +1,123 @@
+import { Link } from 'expo-router';
+import React from 'react';
+import { Pressable, View } from 'react-native';
+import type { Role } from '../../shared/schemas/common';
+import { ROLE_LABELS } from '../../shared/schemas/common';
+import { useMe, useSites, useUsers } from '../../hooks/queries';
+import { useUser } from '../../hooks/session';
+import { useLayout } from '../../hooks/useLayout';
+import { colors, radius, space, touch } from '../theme';
+import { Card, Num, Screen, T } from '../ui';
+
+interface Step {
+  title: string;
+  detail: string;
+  href: string;
+}
+
+/** What each role does, and where it goes next. */
+const ROLE_HOME: Record<Role, { duty: string; steps: Step[] }> = {
+  engineer: {
+    duty: 'Model each site, compute fault and arcing currents, read clearing times from the trip bands, and approve the labels.',
+    steps: [
+      { title: 'Open a site', detail: 'Its equipment, studies and revisions', href: '/sites' },
+      { title: 'Add a site', detail: 'Start the model of a new facility', href: '/sites?new=1' },
+    ],
+  },
+  electrician: {
+    duty: 'Print approved labels, put them on the equipment, check them in the field and report what does not match.',
+    steps: [{ title: 'Sites', detail: 'Approved studies and their equipment', href: '/sites' }],
+  },
+  safety: {
+    duty: 'Audit: studies nearing review, labels superseded but still installed, labels not yet installed, open field reports.',
+    steps: [{ title: 'Sites', detail: 'Every site of the organization, read-only', href: '/sites' }],
+  },
+  admin: {
+    duty: 'Manage the organization: people, roles and settings.',
+    steps: [
+      { title: 'Team', detail: 'Add people, change roles, deactivate', href: '/team' },
+      { title: 'Sites', detail: 'Sites of the organization', href: '/sites' },
+    ],
+  },
+};
+
+function StepCard({ step, inRow }: { step: Step; inRow: boolean }) {
+  return (
+    <Link href={step.href as never} asChild>
+      <Pressable
+        accessibilityRole="link"
+        style={{
+          minHeight: touch.min + 16,
+          flexGrow: inRow ? 1 : 0,
+          flexBasis: inRow ? 260 : 'auto',
+          backgroundColor: colors.surface,
+          borderRadius: radius.lg,
+          borderWidth: 1,
+          borderColor: colors.line,
+          padding: space.lg,
+          gap: 4,
+        }}
+      >
+        <T variant="subheading">{step.title} →</T>
+        <T variant="small">{step.detail}</T>
+      </Pressable>
+    </Link>
+  );
+}
+
+function TeamSummary() {
+  const users = useUsers();
+  if (!users.data) return null;
+  const counts = users.data.reduce<Record<string, number>>((acc, u) => {
+    if (u.active) acc[u.role] = (acc[u.role] ?? 0) + 1;
+    return acc;
+  }, {});
+  return (
+    <Card testID="team-summary">
+      <T variant="subheading">Active people by role</T>
+      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.xl }}>
+        {(Object.keys(ROLE_LABELS) as Role[]).map((r) => (
+          <View key={r} style={{ gap: 2 }}>
+            <Num value={String(counts[r] ?? 0)} size={28} bold />
+            <T variant="small">{ROLE_LABELS[r]}</T>
+          </View>
+        ))}
+      </View>
+    </Card>
+  );
+}
+
+export function HomeScreen() {
+  const user = useUser();
+  const me = useMe();
+  const sites = useSites();
+  const { wide } = useLayout();
+  const home = ROLE_HOME[user.role];
+  return (
+    <Screen title={`Hello, ${user.name.split(' ')[0]}`} subtitle={`${ROLE_LABELS[user.role]}${me.data ? ` · ${me.data.organization.name}` : ''}`}>
+      <Card testID={`home-${user.role}`} style={{ backgroundColor: colors.nav, borderColor: colors.nav }}>
+        <T variant="label" style={{ color: colors.navMuted }}>
+          YOUR ROLE: {ROLE_LABELS[user.role].toUpperCase()}
+        </T>
+        <T style={{ color: colors.navInk, fontSize: 18, lineHeight: 26 }}>{home.duty}</T>
+      </Card>
+      <T variant="heading">Next</T>
+      <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap', gap: space.md }}>
+        {home.steps.map((s) => (
+          <StepCard key={s.title} step={s} inRow={wide} />
+        ))}
+      </View>
+      {user.role === 'admin' ? <TeamSummary /> : null}
+      <Card>
+        <T variant="subheading">Sites</T>
+        {sites.isLoading ? <T variant="small">Loading…</T> : null}
+        {sites.data?.length === 0 ? <T variant="small">No sites yet.</T> : null}
+        {sites.data?.slice(0, 5).map((s) => (
+          <Link key={s.id} href={`/sites/${s.id}` as never} style={{ color: colors.accent, fontSize: 16, paddingVertical: 6 }}>
+            {s.name}
+          </Link>
+        ))}
+      </Card>
+    </Screen>
+  );
+}

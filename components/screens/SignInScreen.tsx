@@ -1,0 +1,89 @@
+import { Redirect } from 'expo-router';
+import React, { useState } from 'react';
+import { KeyboardAvoidingView, ScrollView, View } from 'react-native';
+import { signInRequestSchema } from '../../shared/schemas/auth';
+import { serverErrors, validate } from '../../hooks/forms';
+import { useSession } from '../../hooks/session';
+import { colors, fonts, radius, space } from '../theme';
+import { Button, Field, Notice, T } from '../ui';
+
+export function SignInScreen() {
+  const { user, signIn } = useSession();
+  const [email, setEmail] = useState('');
+  const [password, setPassword] = useState('');
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [message, setMessage] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  if (user) return <Redirect href="/" />;
+
+  const submit = async () => {
+    setMessage(null);
+    const v = validate(signInRequestSchema, { email, password });
+    if (!v.ok) {
+      setErrors(v.errors);
+      return;
+    }
+    setErrors({});
+    setBusy(true);
+    try {
+      await signIn(v.data.email, v.data.password);
+    } catch (e) {
+      const s = serverErrors(e);
+      setMessage(s.message);
+      setErrors(s.fields);
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  return (
+    <KeyboardAvoidingView style={{ flex: 1, backgroundColor: colors.nav }}>
+      <ScrollView contentContainerStyle={{ flexGrow: 1, justifyContent: 'center', padding: space.lg }}>
+        <View style={{ width: '100%', maxWidth: 420, alignSelf: 'center', gap: space.xl }}>
+          <View style={{ gap: space.sm }}>
+            <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
+              <View style={{ width: 14, height: 34, borderRadius: 7, backgroundColor: colors.accent }} />
+              <T style={{ fontFamily: fonts.textBold, fontSize: 30, color: colors.navInk }}>Emberline</T>
+            </View>
+            <T style={{ color: colors.navMuted }}>Arc-flash studies, clearing times and equipment labels.</T>
+          </View>
+          <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, padding: space.xl, gap: space.lg }}>
+            <T variant="heading" accessibilityRole="header">
+              Sign in
+            </T>
+            {message ? (
+              <Notice tone="error" testID="sign-in-error">
+                {message}
+              </Notice>
+            ) : null}
+            <Field
+              label="E-mail"
+              testID="email"
+              value={email}
+              onChangeText={setEmail}
+              autoCapitalize="none"
+              autoComplete="email"
+              inputMode="email"
+              error={errors.email}
+            />
+            <Field
+              label="Password"
+              testID="password"
+              value={password}
+              onChangeText={setPassword}
+              secureTextEntry
+              autoComplete="current-password"
+              error={errors.password}
+              onSubmitEditing={() => void submit()}
+            />
+            <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={() => void submit()} />
+          </View>
+          <T variant="small" style={{ color: colors.navMuted }}>
+            Results in Emberline come from a model and are not final until a qualified, licensed engineer approves them.
+          </T>
+        </View>
+      </ScrollView>
+    </KeyboardAvoidingView>
+  );
+}

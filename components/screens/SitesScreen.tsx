@@ -1,0 +1,76 @@
+import { Link, useLocalSearchParams, useRouter } from 'expo-router';
+import React, { useState } from 'react';
+import { Pressable, View } from 'react-native';
+import { useSites } from '../../hooks/queries';
+import { useUser } from '../../hooks/session';
+import { useLayout } from '../../hooks/useLayout';
+import { SiteForm } from '../SiteForm';
+import { colors, fonts, radius, space, touch } from '../theme';
+import { Button, Card, Notice, Screen, T } from '../ui';
+
+export function SitesScreen() {
+  const user = useUser();
+  const { wide } = useLayout();
+  const router = useRouter();
+  const params = useLocalSearchParams<{ new?: string }>();
+  const sites = useSites();
+  const canEdit = user.role === 'engineer' || user.role === 'admin';
+  const [creating, setCreating] = useState(params.new === '1' && canEdit);
+
+  return (
+    <Screen
+      title="Sites"
+      subtitle="Facilities whose electrical equipment carries arc-flash labels."
+      actions={canEdit && !creating ? <Button title="New site" testID="new-site" onPress={() => setCreating(true)} /> : null}
+    >
+      {creating ? (
+        <Card>
+          <T variant="subheading">New site</T>
+          <SiteForm onDone={(s) => router.push(`/sites/${s.id}` as never)} onCancel={() => setCreating(false)} />
+        </Card>
+      ) : null}
+      {sites.error ? <Notice tone="error">{sites.error.message}</Notice> : null}
+      {sites.isLoading ? <T variant="small">Loading sites…</T> : null}
+      {sites.data && sites.data.length === 0 ? <Notice>No sites yet.{canEdit ? ' Create the first one.' : ''}</Notice> : null}
+      {sites.data && wide ? (
+        <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }} testID="sites-table">
+          <View style={{ flexDirection: 'row', paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.line }}>
+            <T variant="label" style={{ flex: 2 }}>SITE</T>
+            <T variant="label" style={{ flex: 2 }}>ADDRESS</T>
+            <T variant="label" style={{ flex: 1 }}>UPDATED</T>
+          </View>
+          {sites.data.map((s) => (
+            <Link key={s.id} href={`/sites/${s.id}` as never} asChild>
+              <Pressable
+                accessibilityRole="link"
+                style={{
+                  flexDirection: 'row',
+                  minHeight: touch.min,
+                  alignItems: 'center',
+                  paddingHorizontal: space.lg,
+                  borderBottomWidth: 1,
+                  borderBottomColor: colors.lineSoft,
+                }}
+              >
+                <T style={{ flex: 2, fontFamily: fonts.textMedium }}>{s.name}</T>
+                <T variant="small" style={{ flex: 2 }}>{s.address || '—'}</T>
+                <T variant="small" style={{ flex: 1, fontFamily: fonts.numbers }}>{s.updatedAt.slice(0, 10)}</T>
+              </Pressable>
+            </Link>
+          ))}
+        </View>
+      ) : (
+        sites.data?.map((s) => (
+          <Link key={s.id} href={`/sites/${s.id}` as never} asChild>
+            <Pressable accessibilityRole="link">
+              <Card>
+                <T variant="subheading">{s.name}</T>
+                {s.address ? <T variant="small">{s.address}</T> : null}
+              </Card>
+            </Pressable>
+          </Link>
+        ))
+      )}
+    </Screen>
+  );
+}

@@ -1,0 +1,7 @@
+export { Button } from './Button';
+export { Card } from './Card';
+export { Choice } from './Choice';
+export { Field } from './Field';
+export { Notice } from './Notice';
+export { Screen } from './Screen';
+export { Num, T } from './Text';

@@ -1,0 +1,78 @@
+import { useQueryClient } from '@tanstack/react-query';
+import React, { createContext, useCallback, useContext, useEffect, useMemo, useState } from 'react';
+import type { SignInResponse, User } from '../shared/schemas/auth';
+import { apiFetch, onUnauthorized, TOKEN_KEY } from './api';
+import { storage } from './storage';
+
+const USER_KEY = 'emberline.user';
+
+interface SessionValue {
+  user: User | null;
+  ready: boolean;
+  signIn(email: string, password: string): Promise<User>;
+  signOut(): Promise<void>;
+}
+
+const SessionContext = createContext<SessionValue | null>(null);
+
+/** Keeps the signed-in user across reloads (token in storage), and drops it when the server says 401. */
+export function SessionProvider({ children }: { children: React.ReactNode }) {
+  const queryClient = useQueryClient();
+  const [user, setUser] = useState<User | null>(null);
+  const [ready, setReady] = useState(false);
+
+  const clear = useCallback(() => {
+    storage.remove(TOKEN_KEY);
+    storage.remove(USER_KEY);
+    setUser(null);
+    queryClient.clear();
+  }, [queryClient]);
+
+  useEffect(() => {
+    const saved = storage.get(USER_KEY);
+    if (saved && storage.get(TOKEN_KEY)) {
+      try {
+        setUser(JSON.parse(saved) as User);
+      } catch {
+        clear();
+      }
+    }
+    setReady(true);
+    // Check the stored token once: a deactivated user or an expired token signs out.
+    if (storage.get(TOKEN_KEY)) apiFetch<User>('/auth/me').catch(() => undefined);
+    return onUnauthorized(clear);
+  }, [clear]);
+
+  const signIn = useCallback(async (email: string, password: string) => {
+    const res = await apiFetch<SignInResponse>('/auth/sign-in', { method: 'POST', body: { email, password } });
+    storage.set(TOKEN_KEY, res.token);
+    storage.set(USER_KEY, JSON.stringify(res.user));
+    setUser(res.user);
+    return res.user;
+  }, []);
+
+  const signOut = useCallback(async () => {
+    try {
+      await apiFetch('/auth/sign-out', { method: 'POST' });
+    } catch {
+      /* the token is dropped either way */
+    }
+    clear();
+  }, [clear]);
+
+  const value = useMemo(() => ({ user, ready, signIn, signOut }), [user, ready, signIn, signOut]);
+  return <SessionContext.Provider value={value}>{children}</SessionContext.Provider>;
+}
+
+export function useSession(): SessionValue {
+  const v = useContext(SessionContext);
+  if (!v) throw new Error('useSession outside SessionProvider');
+  return v;
+}
+
+/** The signed-in user; only for screens inside the guarded (app) group. */
+export function useUser(): User {
+  const { user } = useSession();
+  if (!user) throw new Error('useUser without a signed-in user');
+  return user;
+}

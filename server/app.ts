@@ -1,0 +1,79 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { authenticate } from './auth/middleware';
+import type { Config } from './config';
+import type { Db } from './db';
+import type { AppContext } from './http/context';
+import { ApiError, errorMiddleware } from './http/errors';
+import { buildOpenApi } from './http/openapi';
+import { mountRoutes, type AnyRoute } from './http/route';
+import { allRoutes } from './routes';
+
+export const API_VERSION = '0.1.0';
+
+export interface CreateAppOptions {
+  config: Config;
+  db: Db;
+  now?: () => Date;
+  signInLimitPerMinute?: number;
+}
+
+/** Builds the Express app (no listening): /api plus the exported web build on the same origin. */
+export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppContext; routes: AnyRoute[] } {
+  const ctx: AppContext = { config: opts.config, db: opts.db, now: opts.now ?? (() => new Date()) };
+  const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? 20 });
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          mediaSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+  if (opts.config.logRequests) {
+    app.use((req, res, next) => {
+      const start = process.hrtime.bigint();
+      res.on('finish', () => console.log(`${req.method} ${req.originalUrl} ${res.statusCode} ${Number(process.hrtime.bigint() - start) / 1e6}ms`));
+      next();
+    });
+  }
+
+  const api = express.Router();
+  api.use(express.json({ limit: opts.config.jsonLimit }));
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  const openapi = buildOpenApi(routes, API_VERSION);
+  api.get('/openapi.json', (_req, res) => res.json(openapi));
+  mountRoutes(api, ctx, routes, authenticate(ctx));
+  api.use((req, _res, next) => next(ApiError.notFound(`No API route ${req.method} ${req.path}`)));
+  api.use(errorMiddleware);
+  app.use('/api', api);
+
+  // The exported web app: static files, then the single-page fallback for client routes.
+  const webDir = opts.config.webDir;
+  app.use(express.static(webDir, { index: false, maxAge: '1h' }));
+  app.get('/{*splat}', (_req, res) => {
+    const index = path.join(webDir, 'index.html');
+    if (fs.existsSync(index)) res.sendFile(index);
+    else res.status(503).type('text').send('The web app is not built yet: run `npm run build:web` (npm start does it for you).');
+  });
+  app.use(errorMiddleware);
+  return { app, ctx, routes };
+}

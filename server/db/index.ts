@@ -1,0 +1,56 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { Sequelize } from 'sequelize';
+import { SequelizeStorage, Umzug } from 'umzug';
+import * as m001 from './migrations/001-initial';
+import { initModels } from './models';
+
+/** Migrations in order. Add new ones at the end; never edit one that has shipped. */
+const MIGRATIONS = [{ name: '001-initial', ...m001 }];
+
+export interface Db {
+  sequelize: Sequelize;
+  dialect: 'sqlite' | 'postgres';
+  close(): Promise<void>;
+}
+
+/** Opens the database (SQLite by default, PostgreSQL through a postgres:// URL), applies pragmas and models. */
+export async function openDb(databaseUrl: string): Promise<Db> {
+  const isSqlite = databaseUrl.startsWith('sqlite:');
+  let sequelize: Sequelize;
+  if (isSqlite) {
+    const storage = databaseUrl.slice('sqlite:'.length) || ':memory:';
+    if (storage !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(storage)), { recursive: true });
+    sequelize = new Sequelize({ dialect: 'sqlite', storage, logging: false, pool: { max: 1, min: 0 } });
+    await sequelize.query('PRAGMA foreign_keys = ON');
+    if (storage !== ':memory:') await sequelize.query('PRAGMA journal_mode = WAL');
+    await sequelize.query('PRAGMA busy_timeout = 5000');
+    await sequelize.query('PRAGMA synchronous = NORMAL');
+  } else {
+    sequelize = new Sequelize(databaseUrl, { logging: false, pool: { max: 10 } });
+  }
+  initModels(sequelize);
+  return {
+    sequelize,
+    dialect: isSqlite ? 'sqlite' : 'postgres',
+    close: () => sequelize.close(),
+  };
+}
+
+export function migrator(sequelize: Sequelize): Umzug<ReturnType<Sequelize['getQueryInterface']>> {
+  return new Umzug({
+    migrations: MIGRATIONS.map((mig) => ({
+      name: mig.name,
+      up: ({ context }) => mig.up({ context }),
+      down: ({ context }) => mig.down({ context }),
+    })),
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  });
+}
+
+export async function migrate(db: Db): Promise<string[]> {
+  const done = await migrator(db.sequelize).up();
+  return done.map((d) => d.name);
+}

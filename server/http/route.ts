@@ -1,0 +1,105 @@
+import type { Request, RequestHandler, Response, Router } from 'express';
+import type { z } from 'zod';
+import type { Role } from '../../shared/schemas/common';
+import type { AppContext, AuthUser } from './context';
+import { ApiError, validationError } from './errors';
+
+/** Who may call a route: nobody signed in, any signed-in user, or the listed roles. */
+export type Access = 'public' | 'signed-in' | readonly Role[];
+
+export interface HandlerArgs<B, Q> {
+  req: Request;
+  res: Response;
+  ctx: AppContext;
+  body: B;
+  query: Q;
+  params: Record<string, string>;
+  user: AuthUser;
+}
+
+type HttpMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+/**
+ * One route: method, path, who may call it, its zod schemas and its handler.
+ * The router, the OpenAPI document and the access-control test are all generated from these definitions.
+ */
+export interface RouteDef<B = unknown, Q = unknown> {
+  method: HttpMethod;
+  path: string;
+  summary: string;
+  tag: string;
+  access: Access;
+  body?: z.ZodType<B>;
+  query?: z.ZodType<Q>;
+  response?: z.ZodType;
+  /** Content type of a non-JSON success response (e.g. application/pdf). */
+  produces?: string;
+  /** Multipart or other pre-handler middleware (runs after auth). */
+  middleware?: RequestHandler[];
+  /** Extra middleware that runs before auth (e.g. rate limiting). */
+  before?: RequestHandler[];
+  status?: number;
+  handler: (args: HandlerArgs<B, Q>) => unknown | Promise<unknown>;
+}
+
+export function defineRoute<B = undefined, Q = undefined>(def: RouteDef<B, Q>): RouteDef<B, Q> {
+  return def;
+}
+
+export type AnyRoute = RouteDef<any, any>;
+
+export function mountRoutes(
+  router: Router,
+  ctx: AppContext,
+  routes: AnyRoute[],
+  authenticate: RequestHandler,
+): void {
+  for (const def of routes) {
+    const chain: RequestHandler[] = [...(def.before ?? [])];
+    if (def.access !== 'public') {
+      chain.push(authenticate);
+      if (def.access !== 'signed-in') {
+        const roles = def.access;
+        chain.push((req, _res, next) => {
+          const user = req.user as AuthUser;
+          if (!roles.includes(user.role)) return next(ApiError.forbidden());
+          next();
+        });
+      }
+    }
+    chain.push(...(def.middleware ?? []));
+    chain.push(async (req, res) => {
+      let body: unknown = undefined;
+      let query: unknown = undefined;
+      if (def.body) {
+        const parsed = def.body.safeParse(req.body ?? {});
+        if (!parsed.success) throw validationError(parsed.error);
+        body = parsed.data;
+      }
+      if (def.query) {
+        const parsed = def.query.safeParse(req.query ?? {});
+        if (!parsed.success) throw validationError(parsed.error);
+        query = parsed.data;
+      }
+      const result = await def.handler({
+        req,
+        res,
+        ctx,
+        body,
+        query,
+        params: req.params as Record<string, string>,
+        user: req.user as AuthUser,
+      });
+      if (res.headersSent) return;
+      if (result === undefined) res.status(def.status ?? 204).end();
+      else res.status(def.status ?? 200).json(result);
+    });
+    router[def.method](def.path, ...chain);
+  }
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    user?: AuthUser;
+  }
+}

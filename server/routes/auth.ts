@@ -1,0 +1,77 @@
+import rateLimit from 'express-rate-limit';
+import { z } from 'zod';
+import { meSchema, signInRequestSchema, signInResponseSchema } from '../../shared/schemas/auth';
+import { dummyPasswordHash, verifyPassword } from '../auth/passwords';
+import { signToken } from '../auth/tokens';
+import { Organization, RevokedToken, User } from '../db/models';
+import { ApiError } from '../http/errors';
+import { defineRoute, type AnyRoute } from '../http/route';
+import { recordAudit } from '../services/audit';
+
+/** The same message for an unknown e-mail and a wrong password: sign-in never tells which. */
+const BAD_CREDENTIALS = 'E-mail or password is not right';
+
+export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
+  const signInLimiter = rateLimit({
+    windowMs: 60_000,
+    limit: opts.signInLimitPerMinute,
+    standardHeaders: 'draft-7',
+    legacyHeaders: false,
+    handler: (_req, res) =>
+      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many sign-in attempts; wait a minute and try again' } }),
+  });
+
+  return [
+    defineRoute({
+      method: 'post',
+      path: '/auth/sign-in',
+      summary: 'Sign in with e-mail and password; returns a bearer token (at most 12 h).',
+      tag: 'auth',
+      access: 'public',
+      before: [signInLimiter],
+      body: signInRequestSchema,
+      response: signInResponseSchema,
+      handler: async ({ ctx, body }) => {
+        const user = await User.findOne({ where: { email: body.email } });
+        if (!user) {
+          await verifyPassword(await dummyPasswordHash(), body.password);
+          throw new ApiError('unauthorized', BAD_CREDENTIALS);
+        }
+        const ok = await verifyPassword(user.passwordHash, body.password);
+        if (!ok || !user.active) throw new ApiError('unauthorized', BAD_CREDENTIALS);
+        const { token, expiresAt } = signToken(ctx.config.jwtSecret, ctx.config.jwtTtlHours, user);
+        await recordAudit({ organizationId: user.organizationId, actorId: user.id, action: 'auth.signed-in', entityType: 'user', entityId: user.id });
+        return {
+          token,
+          expiresAt: expiresAt.toISOString(),
+          user: { id: user.id, email: user.email, name: user.name, role: user.role },
+        };
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/auth/me',
+      summary: 'The signed-in user and organization.',
+      tag: 'auth',
+      access: 'signed-in',
+      response: meSchema,
+      handler: async ({ user }) => {
+        const org = await Organization.findByPk(user.organizationId);
+        if (!org) throw ApiError.unauthorized();
+        return { id: user.id, email: user.email, name: user.name, role: user.role, organization: { id: org.id, name: org.name } };
+      },
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/auth/sign-out',
+      summary: 'Revoke the token used for this request.',
+      tag: 'auth',
+      access: 'signed-in',
+      response: z.object({ ok: z.literal(true) }),
+      handler: async ({ user }) => {
+        await RevokedToken.findOrCreate({ where: { jti: user.jti }, defaults: { jti: user.jti, expiresAt: user.tokenExpiresAt } });
+        return { ok: true as const };
+      },
+    }),
+  ];
+}

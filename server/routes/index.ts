@@ -1,0 +1,30 @@
+import { z } from 'zod';
+import { defineRoute, type AnyRoute } from '../http/route';
+import { authRoutes } from './auth';
+import { siteRoutes } from './sites';
+import { userRoutes } from './users';
+
+export interface RouteOptions {
+  signInLimitPerMinute: number;
+}
+
+/** Every API route, in one table: the router, the OpenAPI document and the access tests read it. */
+export function allRoutes(opts: RouteOptions): AnyRoute[] {
+  return [
+    defineRoute({
+      method: 'get',
+      path: '/health',
+      summary: 'Liveness and database check.',
+      tag: 'system',
+      access: 'public',
+      response: z.object({ ok: z.boolean(), database: z.string() }),
+      handler: async ({ ctx }) => {
+        await ctx.db.sequelize.query('SELECT 1');
+        return { ok: true, database: ctx.db.dialect };
+      },
+    }),
+    ...authRoutes(opts),
+    ...userRoutes,
+    ...siteRoutes,
+  ];
+}

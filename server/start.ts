@@ -1,0 +1,46 @@
+import { createServer } from 'node:http';
+import { createApp } from './app';
+import { buildWeb, webBuildIsStale } from './cli/webBuild';
+import { ConfigError, loadConfig } from './config';
+import { migrate, openDb } from './db';
+import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
+
+/** `npm start`: migrate, seed the demo when the database is empty, build the web app when stale, serve. */
+async function main(): Promise<void> {
+  let config;
+  try {
+    config = loadConfig();
+  } catch (e) {
+    if (e instanceof ConfigError) {
+      console.error(e.message);
+      process.exit(2);
+    }
+    throw e;
+  }
+  const db = await openDb(config.databaseUrl);
+  const applied = await migrate(db);
+  if (applied.length) console.log(`Migrations applied: ${applied.join(', ')}`);
+  if (await isEmpty()) {
+    await seedDemo(db, config.demoPassword);
+    console.log('Seeded the invented demo organization.');
+  }
+  if (process.env.SKIP_WEB_BUILD !== '1' && webBuildIsStale(process.cwd(), config.webDir)) buildWeb(process.cwd(), config.webDir);
+  const { app } = createApp({ config, db });
+  const server = createServer(app);
+  server.listen(config.port, config.host, () => {
+    console.log(`\nEmberline is serving http://localhost:${config.port}`);
+    console.log(`Demo accounts (password: ${config.demoPassword}):`);
+    for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(12)} ${u.email}`);
+  });
+  const stop = (): void => {
+    server.close(() => void db.close().then(() => process.exit(0)));
+    setTimeout(() => process.exit(0), 3000).unref();
+  };
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+}
+
+void main().catch((e: unknown) => {
+  console.error(e);
+  process.exit(1);
+});

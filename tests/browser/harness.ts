@@ -1,0 +1,103 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import fs from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+
+export const ROOT = path.resolve(__dirname, '../..');
+export const SHOTS = path.join(ROOT, 'tests/screenshots');
+export const DEMO_PASSWORD = 'browser-demo-password';
+export const PHONE = { width: 390, height: 844 };
+export const DESKTOP = { width: 1280, height: 800 };
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = net.createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as net.AddressInfo;
+      srv.close(() => resolve(port));
+    });
+    srv.on('error', reject);
+  });
+}
+
+export interface Harness {
+  baseUrl: string;
+  context: BrowserContext;
+  newPage(viewport: { width: number; height: number }): Promise<Page>;
+  signIn(page: Page, email: string): Promise<void>;
+  shot(page: Page, name: string): Promise<string>;
+  stop(): Promise<void>;
+}
+
+/** Starts the real server (`npm start` path: migrate, seed, build web when stale) on a fresh database, and Chromium. */
+export async function startHarness(): Promise<Harness> {
+  const port = await freePort();
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-browser-'));
+  const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, 'node_modules/tsx/dist/cli.mjs'), 'server/start.ts'], {
+    cwd: ROOT,
+    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', DATA_DIR: dataDir, DEMO_PASSWORD, NODE_ENV: 'development' },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let log = '';
+  server.stdout?.on('data', (d) => (log += d));
+  server.stderr?.on('data', (d) => (log += d));
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const deadline = Date.now() + 5 * 60_000;
+  for (;;) {
+    if (server.exitCode !== null) throw new Error(`server exited:\n${log}`);
+    try {
+      const res = await fetch(`${baseUrl}/api/health`);
+      if (res.ok && log.includes('is serving')) break;
+    } catch {
+      /* not up yet */
+    }
+    if (Date.now() > deadline) throw new Error(`server did not start:\n${log}`);
+    await new Promise((r) => setTimeout(r, 500));
+  }
+  fs.mkdirSync(SHOTS, { recursive: true });
+  const context = await chromium.launchPersistentContext(fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-chrome-')), {
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  });
+  return {
+    baseUrl,
+    context,
+    async newPage(viewport) {
+      const page = await context.newPage();
+      await page.setViewportSize(viewport);
+      page.setDefaultTimeout(20_000);
+      return page;
+    },
+    async signIn(page, email) {
+      // One browser profile is shared by all specs: start every sign-in from a clean session.
+      await page.goto(`${baseUrl}/sign-in`);
+      await page.evaluate('window.localStorage.clear()');
+      await page.goto(`${baseUrl}/sign-in`);
+      await page.getByTestId('email').fill(email);
+      await page.getByTestId('password').fill(DEMO_PASSWORD);
+      await page.getByTestId('sign-in-submit').click();
+    },
+    async shot(page, name) {
+      const file = path.join(SHOTS, `${name}.png`);
+      await page.screenshot({ path: file, fullPage: true });
+      return file;
+    },
+    async stop() {
+      await context.close().catch(() => undefined);
+      server.kill('SIGTERM');
+      await new Promise((r) => setTimeout(r, 300));
+      if (server.exitCode === null) server.kill('SIGKILL');
+    },
+  };
+}

@@ -1,0 +1,37 @@
+/**
+ * Browser tests: the real app, built and served by the real server, in headless Chromium (playwright-core).
+ * Each spec is a named async function; the runner prints a closing "N passed, N failed" line and exits non-zero on failure.
+ */
+import { startHarness, type Harness } from './harness';
+import { specs as signInSpecs } from './specs/signIn';
+import { specs as adminSpecs } from './specs/admin';
+
+export type Spec = { name: string; run: (h: Harness) => Promise<void> };
+
+async function main(): Promise<void> {
+  const all: Spec[] = [...signInSpecs, ...adminSpecs];
+  const only = process.argv[2];
+  const selected = only ? all.filter((s) => s.name.includes(only)) : all;
+  const h = await startHarness();
+  let passed = 0;
+  let failed = 0;
+  for (const spec of selected) {
+    const start = Date.now();
+    try {
+      await spec.run(h);
+      passed++;
+      console.log(`  ✓ ${spec.name} (${Date.now() - start} ms)`);
+    } catch (e) {
+      failed++;
+      console.log(`  ✗ ${spec.name}\n    ${(e as Error).stack?.split('\n').slice(0, 6).join('\n    ')}`);
+    }
+  }
+  await h.stop();
+  console.log(`\nbrowser: ${passed} passed, ${failed} failed`);
+  process.exit(failed ? 1 : 0);
+}
+
+void main().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});

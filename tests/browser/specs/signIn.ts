@@ -1,0 +1,59 @@
+import type { Harness } from '../harness';
+import { DESKTOP, PHONE } from '../harness';
+
+type Spec = { name: string; run: (h: Harness) => Promise<void> };
+
+function assert(cond: unknown, message: string): asserts cond {
+  if (!cond) throw new Error(message);
+}
+
+const ROLES = ['engineer', 'electrician', 'safety', 'admin'] as const;
+
+export const specs: Spec[] = [
+  ...ROLES.flatMap((role) =>
+    ([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+      name: `${role} signs in and sees the ${role} home (${label})`,
+      run: async (h: Harness) => {
+        const page = await h.newPage(viewport);
+        await h.signIn(page, `${role}@larkspur.example`);
+        await page.getByTestId(`home-${role}`).waitFor();
+        // Phone: bottom tabs; desktop: side navigation.
+        await page.getByTestId(label === 'phone' ? 'bottom-tabs' : 'side-nav').waitFor();
+        await h.shot(page, `home-${role}-${label}`);
+        // The session survives a reload.
+        await page.reload();
+        await page.getByTestId(`home-${role}`).waitFor();
+        await page.close();
+      },
+    })),
+  ),
+  {
+    name: 'a wrong password shows the error and stays on sign-in (phone)',
+    run: async (h) => {
+      const page = await h.newPage(PHONE);
+      await page.goto(`${h.baseUrl}/sign-in`);
+      await page.evaluate('window.localStorage.clear()');
+      await page.goto(`${h.baseUrl}/sign-in`);
+      await page.getByTestId('email').fill('engineer@larkspur.example');
+      await page.getByTestId('password').fill('wrong-password');
+      await page.getByTestId('sign-in-submit').click();
+      const error = page.getByTestId('sign-in-error');
+      await error.waitFor();
+      assert((await error.innerText()).includes('not right'), 'error message shown');
+      await h.shot(page, 'sign-in-error-phone');
+      await page.close();
+    },
+  },
+  {
+    name: 'a guarded page redirects to sign-in when signed out (desktop)',
+    run: async (h) => {
+      const page = await h.context.newPage();
+      await page.goto(`${h.baseUrl}/sites`);
+      await page.evaluate('window.localStorage.clear()');
+      await page.goto(`${h.baseUrl}/sites`);
+      await page.getByTestId('sign-in-submit').waitFor();
+      await h.shot(page, 'sign-in-desktop');
+      await page.close();
+    },
+  },
+];
