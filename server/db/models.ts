@@ -57,6 +57,19 @@ export class RevokedToken extends Model<InferAttributes<RevokedToken>, InferCrea
   declare expiresAt: Date;
 }
 
+export class DeviceType extends Model<InferAttributes<DeviceType>, InferCreationAttributes<DeviceType>> {
+  declare id: string;
+  declare organizationId: string;
+  declare name: string;
+  declare kind: string;
+  declare description: CreationOptional<string>;
+  declare source: CreationOptional<string>;
+  /** JSON text of the DeviceDefinition (shared/schemas/deviceLibrary.ts). */
+  declare definition: string;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
 export function initModels(sequelize: Sequelize): void {
   const id = { type: DataTypes.STRING(36), primaryKey: true };
   const orgId = { type: DataTypes.STRING(36), allowNull: false };
@@ -105,6 +118,19 @@ export function initModels(sequelize: Sequelize): void {
       createdAt: { type: DataTypes.DATE, allowNull: false },
     },
     { sequelize, tableName: 'audit_events', updatedAt: false },
+  );
+  DeviceType.init(
+    {
+      id,
+      organizationId: orgId,
+      name: { type: DataTypes.STRING(160), allowNull: false },
+      kind: { type: DataTypes.STRING(20), allowNull: false },
+      description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+      source: { type: DataTypes.STRING(400), allowNull: false, defaultValue: '' },
+      definition: { type: DataTypes.TEXT, allowNull: false },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'device_types' },
   );
   RevokedToken.init(
     { jti: { type: DataTypes.STRING(64), primaryKey: true }, expiresAt: { type: DataTypes.DATE, allowNull: false } },

@@ -64,6 +64,15 @@ export function validationError(error: z.ZodError, prefix = ''): ApiError {
   return new ApiError('bad_request', message, fields);
 }
 
+/** A model with several problems: 400 naming every element and field (`prefix` places them in the request body). */
+export function modelIssuesError(issues: { path: string; message: string; elementId?: string }[], prefix = ''): ApiError {
+  const fields: Record<string, string> = {};
+  for (const i of issues) fields[`${prefix}${i.path}`] ??= i.elementId ? `${i.elementId}: ${i.message}` : i.message;
+  const first = issues[0];
+  const more = issues.length > 1 ? ` (and ${issues.length - 1} more)` : '';
+  return new ApiError('bad_request', `${first.elementId ? `${first.elementId} ` : ''}${prefix}${first.path}: ${first.message}${more}`, fields);
+}
+
 export function fromEngineError(e: EngineError): ApiError {
   const code: ErrorCode = e.kind === 'out-of-range' ? 'unprocessable' : 'bad_request';
   return new ApiError(code, e.message, e.field ? { [e.field]: e.message } : undefined);

@@ -1,6 +1,9 @@
 import { z } from 'zod';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { authRoutes } from './auth';
+import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
+import { organizationRoutes } from './organization';
+import { deviceRoutes } from './devices';
 import { siteRoutes } from './sites';
 import { userRoutes } from './users';
 
@@ -26,5 +29,10 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...authRoutes(opts),
     ...userRoutes,
     ...siteRoutes,
+    ...organizationRoutes,
+    incidentEnergyRoute,
+    shortCircuitRoute,
+    ...calcRoutes,
+    ...deviceRoutes,
   ];
 }

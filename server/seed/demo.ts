@@ -4,6 +4,7 @@ import { hashPassword } from '../auth/passwords';
 import type { Db } from '../db';
 import { Organization, Site, User } from '../db/models';
 import { recordAudit } from '../services/audit';
+import { seedGenericLibrary } from '../services/deviceTypes';
 
 /** The invented demo scenario (DESIGN.md §9). Every name here is fictional. */
 export const DEMO_ORGANIZATION = 'Larkspur Valley Utility District';
@@ -33,6 +34,7 @@ export async function seedDemo(db: Db, password: string): Promise<{ organization
     for (const u of DEMO_USERS) {
       await User.create({ id: randomUUID(), organizationId: org.id, passwordHash: hash, ...u }, { transaction });
     }
+    await seedGenericLibrary(org.id, transaction);
     const site = await Site.create({ id: randomUUID(), organizationId: org.id, ...DEMO_SITE }, { transaction });
     await recordAudit({ organizationId: org.id, actorId: null, action: 'demo.seeded', entityType: 'organization', entityId: org.id }, transaction);
     return { organizationId: org.id, siteId: site.id };

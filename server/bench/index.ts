@@ -1,0 +1,30 @@
+/**
+ * `npm run bench`: performance figures, printed (never asserted in tests). Optional filter: `npm run bench -- trip`.
+ */
+import { benchIncidentEnergy } from './incidentEnergy';
+import { benchShortCircuit } from './shortCircuit';
+import { benchTrip } from './trip';
+
+interface BenchResult {
+  name: string;
+  opsPerSecond: number;
+  detail: string;
+}
+
+const BENCHES: [string, () => Promise<BenchResult>][] = [
+  ['incident-energy', benchIncidentEnergy],
+  ['trip', benchTrip],
+  ['short-circuit', benchShortCircuit],
+];
+
+async function main(): Promise<void> {
+  const filter = process.argv[2];
+  console.log(`Emberline benchmarks (node ${process.version})\n`);
+  for (const [key, run] of BENCHES) {
+    if (filter && !key.includes(filter)) continue;
+    const r = await run();
+    console.log(`${r.name}\n  ${r.opsPerSecond.toFixed(0)} per second\n  ${r.detail.split('\n').join('\n  ')}\n`);
+  }
+}
+
+void main();

@@ -1,0 +1,100 @@
+import { z } from 'zod';
+import {
+  bandDeviceSchema,
+  deviceSchema,
+  electronicPositionsSchema,
+  electronicTripTypeSchema,
+  fuseDeviceSchema,
+  relayDeviceSchema,
+  thermalMagneticDeviceSchema,
+} from './device';
+
+/**
+ * A device type of the organization's library. Electronic trip units are stored as their type (switches with
+ * named positions) plus the chosen positions; every other kind is stored as its settings.
+ */
+export const electronicDefinitionSchema = z
+  .object({
+    kind: z.literal('electronic'),
+    tripType: electronicTripTypeSchema,
+    positions: electronicPositionsSchema.describe('The chosen position of each switch'),
+  })
+  .meta({ id: 'ElectronicDefinition' });
+
+export const deviceDefinitionSchema = z
+  .discriminatedUnion('kind', [
+    relayDeviceSchema,
+    fuseDeviceSchema,
+    bandDeviceSchema,
+    thermalMagneticDeviceSchema,
+    electronicDefinitionSchema,
+  ])
+  .meta({ id: 'DeviceDefinition' });
+export type DeviceDefinition = z.infer<typeof deviceDefinitionSchema>;
+
+export const DEVICE_KIND_LABELS = {
+  'thermal-magnetic': 'Thermal-magnetic breaker',
+  electronic: 'Electronic trip unit',
+  fuse: 'Fuse',
+  relay: 'Relay with breaker',
+  band: 'Digitized band',
+} as const;
+
+export const deviceTypeInputSchema = z
+  .object({
+    name: z.string().trim().min(1, 'Enter a name').max(160),
+    description: z.string().trim().max(2000).default(''),
+    source: z.string().trim().max(400).default('').describe('Where the curve data came from (e.g. a published curve and its date)'),
+    definition: deviceDefinitionSchema,
+  })
+  .meta({ id: 'DeviceTypeInput' });
+export type DeviceTypeInput = z.input<typeof deviceTypeInputSchema>;
+
+export const deviceTypeSchema = z
+  .object({
+    id: z.string(),
+    name: z.string(),
+    description: z.string(),
+    source: z.string(),
+    kind: z.enum(['thermal-magnetic', 'electronic', 'fuse', 'relay', 'band']),
+    definition: deviceDefinitionSchema,
+    /** The device with every setting as a number, ready for the engine. */
+    device: deviceSchema,
+    createdAt: z.string(),
+    updatedAt: z.string(),
+  })
+  .meta({ id: 'DeviceType' });
+export type DeviceType = z.infer<typeof deviceTypeSchema>;
+
+export const deviceTypeListSchema = z.object({ deviceTypes: z.array(deviceTypeSchema) });
+
+export const bandCurvesRequestSchema = z
+  .object({
+    device: deviceSchema,
+    fromA: z.number().positive().optional(),
+    toA: z.number().positive().optional(),
+  })
+  .meta({ id: 'BandCurvesRequest' });
+
+export const bandCurvesResponseSchema = z
+  .object({
+    fromA: z.number(),
+    toA: z.number(),
+    min: z.array(z.tuple([z.number(), z.number()])),
+    max: z.array(z.tuple([z.number(), z.number()])),
+    featuresA: z.array(z.number()),
+  })
+  .meta({ id: 'BandCurves' });
+export type BandCurvesResponse = z.infer<typeof bandCurvesResponseSchema>;
+
+export const resolveTripUnitRequestSchema = z
+  .object({ tripType: electronicTripTypeSchema, positions: electronicPositionsSchema })
+  .meta({ id: 'ResolveTripUnitRequest' });
+
+export const bandCsvResponseSchema = z
+  .object({
+    currentUnit: z.enum(['multiple', 'ampere']),
+    min: z.array(z.tuple([z.number(), z.number()])),
+    max: z.array(z.tuple([z.number(), z.number()])),
+  })
+  .meta({ id: 'BandCsv' });
