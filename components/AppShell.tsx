@@ -5,7 +5,7 @@ import { useSafeAreaInsets } from 'react-native-safe-area-context';
 import { ROLE_LABELS } from '../shared/schemas/common';
 import { useSession, useUser } from '../hooks/session';
 import { useLayout } from '../hooks/useLayout';
-import { isActive, navFor } from './nav';
+import { isActive, MORE_ITEM, navFor } from './nav';
 import { colors, fonts, space, touch } from './theme';
 import { T } from './ui';
 
@@ -26,6 +26,8 @@ export function AppShell({ children }: { children: React.ReactNode }) {
   const pathname = usePathname();
   const insets = useSafeAreaInsets();
   const items = navFor(user.role);
+  // A phone has room for five tabs: beyond that the last one opens the full menu.
+  const tabs = items.length > 5 ? [...items.slice(0, 4), MORE_ITEM] : items;
 
   if (wide) {
     return (
@@ -98,8 +100,8 @@ export function AppShell({ children }: { children: React.ReactNode }) {
         testID="bottom-tabs"
         style={{ flexDirection: 'row', backgroundColor: colors.surface, borderTopWidth: 1, borderTopColor: colors.line, paddingBottom: insets.bottom }}
       >
-        {items.map((item) => {
-          const on = isActive(item.href, pathname);
+        {tabs.map((item) => {
+          const on = item === MORE_ITEM ? !items.slice(0, 4).some((i) => isActive(i.href, pathname)) : isActive(item.href, pathname);
           return (
             <Link key={item.href} href={item.href as never} asChild>
               <Pressable

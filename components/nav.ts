@@ -12,7 +12,10 @@ export interface NavItem {
 export const NAV_ITEMS: NavItem[] = [
   { href: '/', label: 'Home', glyph: '⌂', roles: 'all' },
   { href: '/sites', label: 'Sites', glyph: '▦', roles: 'all' },
+  { href: '/spot-check', label: 'Spot check', glyph: '◇', roles: 'all' },
+  { href: '/devices', label: 'Devices', glyph: '◔', roles: 'all' },
   { href: '/team', label: 'Team', glyph: '◎', roles: ['admin'] },
+  { href: '/settings', label: 'Settings', glyph: '≡', roles: ['admin'] },
 ];
 
 export function navFor(role: Role): NavItem[] {
@@ -22,3 +25,6 @@ export function navFor(role: Role): NavItem[] {
 export function isActive(href: string, pathname: string): boolean {
   return href === '/' ? pathname === '/' : pathname === href || pathname.startsWith(`${href}/`);
 }
+
+/** The phone's last tab when there are more items than tabs. */
+export const MORE_ITEM: NavItem = { href: '/more', label: 'More', glyph: '☰', roles: 'all' };

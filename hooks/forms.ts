@@ -1,4 +1,5 @@
 import type { z } from 'zod';
+import { fieldPath } from '../shared/fieldPath';
 import { ApiClientError } from './api';
 
 /** Pre-validates a form with the shared zod schema: field → first message. */
@@ -10,7 +11,7 @@ export function validate<S extends z.ZodType>(
   if (r.success) return { ok: true, data: r.data };
   const errors: Record<string, string> = {};
   for (const issue of r.error.issues) {
-    const key = issue.path.map(String).join('.') || '(form)';
+    const key = fieldPath(issue.path);
     errors[key] ??= issue.message;
   }
   return { ok: false, errors };

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler } from 'express';
 import { z } from 'zod';
+import { fieldPath } from '../../shared/fieldPath';
 import type { ErrorCode } from '../../shared/schemas/common';
 import { EngineError } from '../engine/errors';
 
@@ -46,11 +47,7 @@ export class ApiError extends Error {
 export function fieldsFromZod(error: z.ZodError, prefix = ''): Record<string, string> {
   const fields: Record<string, string> = {};
   for (const issue of error.issues) {
-    let key = prefix;
-    for (const part of issue.path) {
-      key += typeof part === 'number' ? `[${part}]` : key ? `.${String(part)}` : String(part);
-    }
-    key = key || '(body)';
+    const key = fieldPath(issue.path, prefix);
     if (!(key in fields)) fields[key] = issue.message;
   }
   return fields;

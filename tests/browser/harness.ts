@@ -89,8 +89,17 @@ export async function startHarness(): Promise<Harness> {
       await page.getByTestId('sign-in-submit').click();
     },
     async shot(page, name) {
+      // The app scrolls inside its own views: grow the viewport to the tallest scroll content for a whole-page picture.
       const file = path.join(SHOTS, `${name}.png`);
-      await page.screenshot({ path: file, fullPage: true });
+      const viewport = page.viewportSize() ?? DESKTOP;
+      const tallest = (await page.evaluate(
+        'Math.max(...Array.from(document.querySelectorAll("div")).map((d) => d.scrollHeight - d.clientHeight))',
+      )) as number;
+      const height = Math.min(6000, viewport.height + Math.max(0, tallest));
+      await page.setViewportSize({ width: viewport.width, height });
+      await page.waitForTimeout(150);
+      await page.screenshot({ path: file });
+      await page.setViewportSize(viewport);
       return file;
     },
     async stop() {

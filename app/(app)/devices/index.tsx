@@ -1,0 +1,3 @@
+import { DevicesScreen } from '../../../components/screens/DevicesScreen';
+
+export default DevicesScreen;

@@ -1,0 +1,3 @@
+import { MoreScreen } from '../../components/screens/MoreScreen';
+
+export default MoreScreen;

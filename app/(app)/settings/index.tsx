@@ -1,0 +1,3 @@
+import { SettingsScreen } from '../../../components/screens/SettingsScreen';
+
+export default SettingsScreen;

@@ -1,0 +1,3 @@
+import { SpotCheckScreen } from '../../components/screens/SpotCheckScreen';
+
+export default SpotCheckScreen;

@@ -1,0 +1,161 @@
+import React from 'react';
+import { View } from 'react-native';
+import type { IncidentEnergyResult } from '../../hooks/queries';
+import { fmt, fmtLength, type LengthUnit } from '../../hooks/units';
+import { HazardMark } from '../Cautions';
+import { signalPanelColors } from '../hazard';
+import { colors, fonts, radius, space } from '../theme';
+import { Card, Notice, Num, T } from '../ui';
+
+function Row({ label, children, testID }: { label: string; children: React.ReactNode; testID?: string }) {
+  return (
+    <View
+      testID={testID}
+      style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.md, paddingVertical: 6, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
+    >
+      <T variant="small" style={{ flexShrink: 1, color: colors.inkSoft }}>
+        {label}
+      </T>
+      <View style={{ alignItems: 'flex-end', flexShrink: 1 }}>{children}</View>
+    </View>
+  );
+}
+
+/** Why the governing case governs, in one sentence. */
+function governingSentence(r: IncidentEnergyResult): string {
+  const g = r.cases[r.governingCase];
+  const o = r.cases[r.governingCase === 'full' ? 'reduced' : 'full'];
+  const name = (c: 'full' | 'reduced') => (c === 'full' ? 'full arcing current' : 'reduced arcing current');
+  return (
+    `The ${name(r.governingCase)} case governs: ${fmt(g.incidentEnergyCalPerCm2)} cal/cm² at ${fmt(g.arcingCurrentKa)} kA for ` +
+    `${fmt(g.arcDurationMs)} ms, against ${fmt(o.incidentEnergyCalPerCm2)} cal/cm² at ${fmt(o.arcingCurrentKa)} kA for ${fmt(o.arcDurationMs)} ms.`
+  );
+}
+
+/** The full result of one incident-energy calculation: both cases, the governing one, label values and warnings. */
+export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; unit: LengthUnit }) {
+  const lv = result.labelValues;
+  const panel = signalPanelColors(lv.signalWord);
+  return (
+    <View style={{ gap: space.md }} testID="energy-result">
+      <View style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }}>
+        <View style={{ backgroundColor: panel.background, flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.md }}>
+          <HazardMark size={26} />
+          <T style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 22, letterSpacing: 1 }} testID="signal-word">
+            {lv.signalWord}
+          </T>
+          <T style={{ color: panel.text, fontFamily: fonts.textMedium, fontSize: 13, marginLeft: 'auto' }}>PRELIMINARY</T>
+        </View>
+        <View style={{ backgroundColor: colors.surface, padding: space.md, gap: space.xs }}>
+          <T variant="label">INCIDENT ENERGY AT {fmtLength(result.workingDistanceMm, unit).toUpperCase()}</T>
+          <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' }}>
+            <Num value={fmt(result.incidentEnergyCalPerCm2)} unit="cal/cm²" size={34} bold testID="energy-cal" />
+            <Num value={fmt(result.incidentEnergyJPerCm2)} unit="J/cm²" size={18} />
+          </View>
+          <T variant="small">{governingSentence(result)}</T>
+        </View>
+      </View>
+
+      {lv.noAdequatePpe ? (
+        <Notice tone="error" title="No arc-rated PPE is adequate">
+          Above 40 cal/cm² energized work should not be done: de-energize the equipment (common practice).
+        </Notice>
+      ) : null}
+      {result.warnings.length ? (
+        <Notice tone="warning" title={`${result.warnings.length} warning${result.warnings.length > 1 ? 's' : ''}`} testID="energy-warnings">
+          <View style={{ gap: 4 }}>
+            {result.warnings.map((w) => (
+              <T key={w.code + w.message} style={{ color: colors.caution }}>
+                <T style={{ fontFamily: fonts.numbersBold, color: colors.caution, fontSize: 13 }}>{w.code}</T> {w.message}
+              </T>
+            ))}
+          </View>
+        </Notice>
+      ) : null}
+
+      <Card>
+        <T variant="subheading">Label values</T>
+        <Row label="Arc-flash boundary" testID="row-boundary">
+          <Num value={fmtLength(result.arcFlashBoundaryMm, unit)} />
+        </Row>
+        <Row label="Minimum arc rating of clothing">
+          <Num value={String(lv.minimumArcRatingCalPerCm2)} unit="cal/cm²" />
+        </Row>
+        <Row label="PPE level (organization)">
+          <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel ? lv.ppeLevel.name : 'Above every level'}</T>
+        </Row>
+        <Row label="Nominal voltage">
+          <Num value={lv.nominalVoltageV.toLocaleString('en-US')} unit="V" />
+        </Row>
+        {lv.shockApproach ? (
+          <>
+            <Row label="Limited approach, movable conductor">
+              <T>{lv.shockApproach.limitedApproachMovable.text}</T>
+            </Row>
+            <Row label="Limited approach, fixed part">
+              <T>{lv.shockApproach.limitedApproachFixed.text}</T>
+            </Row>
+            <Row label="Restricted approach">
+              <T>{lv.shockApproach.restrictedApproach.text}</T>
+            </Row>
+          </>
+        ) : null}
+        <Row label="Voltage-rated gloves">
+          <T>{lv.gloveClass ? `Class ${lv.gloveClass.class}` : '—'}</T>
+        </Row>
+        <T variant="small">{lv.signalWordBasis}</T>
+      </Card>
+
+      <Card>
+        <T variant="subheading">Both cases (IEEE 1584-2018)</T>
+        <View style={{ flexDirection: 'row', gap: space.md, flexWrap: 'wrap' }}>
+          {(['full', 'reduced'] as const).map((c) => {
+            const k = result.cases[c];
+            const gov = result.governingCase === c;
+            return (
+              <View
+                key={c}
+                testID={`case-${c}`}
+                style={{
+                  flexGrow: 1,
+                  flexBasis: 200,
+                  padding: space.md,
+                  borderRadius: radius.sm,
+                  borderWidth: gov ? 2 : 1,
+                  borderColor: gov ? colors.ink : colors.line,
+                  gap: 4,
+                }}
+              >
+                <T variant="label">
+                  {c === 'full' ? 'FULL ARCING CURRENT' : 'REDUCED ARCING CURRENT'}
+                  {gov ? ' · GOVERNS' : ''}
+                </T>
+                <Num value={fmt(k.arcingCurrentKa)} unit="kA" size={20} bold />
+                <T variant="small">
+                  Arc duration <T style={{ fontFamily: fonts.numbers }}>{fmt(k.arcDurationMs)} ms</T>
+                  {k.arcDurationCapped ? ` (capped from ${fmt(k.requestedArcDurationMs)} ms)` : ''}
+                </T>
+                <T variant="small">
+                  Energy <T style={{ fontFamily: fonts.numbers }}>{fmt(k.incidentEnergyCalPerCm2)} cal/cm²</T> · boundary{' '}
+                  <T style={{ fontFamily: fonts.numbers }}>{fmtLength(k.arcFlashBoundaryMm, unit)}</T>
+                </T>
+              </View>
+            );
+          })}
+        </View>
+        <Row label="Arcing-current variation factor (VarCf)">
+          <Num value={fmt(result.varCf, 4)} />
+        </Row>
+        <Row label="Enclosure correction factor (CF)">
+          <Num value={fmt(result.enclosureCorrectionFactor, 4)} />
+        </Row>
+        <Row label="Enclosure type">
+          <T>{result.enclosure.enclosureType}</T>
+        </Row>
+        <Row label="Bolted fault current">
+          <Num value={fmt(result.boltedFaultKa)} unit="kA" />
+        </Row>
+      </Card>
+    </View>
+  );
+}

@@ -1,0 +1,245 @@
+import { useQuery } from '@tanstack/react-query';
+import { useRouter } from 'expo-router';
+import React, { useEffect, useMemo, useState } from 'react';
+import { View } from 'react-native';
+import type { Device, DeviceKind } from '../../shared/schemas/device';
+import { DEVICE_KIND_LABELS, deviceDefinitionSchema, type DeviceDefinition } from '../../shared/schemas/deviceLibrary';
+import { apiFetch } from '../../hooks/api';
+import { serverErrors, validate } from '../../hooks/forms';
+import { useBandCurves, useClearingTime, useDeleteDeviceType, useDeviceType, useSaveDeviceType } from '../../hooks/queries';
+import { useUser } from '../../hooks/session';
+import { useDebounced } from '../../hooks/useDebounced';
+import { useLayout } from '../../hooks/useLayout';
+import { fmt } from '../../hooks/units';
+import { DefinitionEditor } from '../devices/DefinitionEditor';
+import { FilePicker, NumberInput } from '../devices/inputs';
+import { REGION_LABELS } from '../../shared/tripRegions';
+import { newDefinition } from '../devices/templates';
+import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
+import { colors, fonts, space } from '../theme';
+import { Button, Card, Field, Notice, Screen, T } from '../ui';
+
+/** The device with numbers only: electronic trip units are resolved from their switch positions by the server. */
+function useResolvedDevice(def: DeviceDefinition | null): { device: Device | null; error: string | null } {
+  const key = def ? JSON.stringify(def) : '';
+  const resolved = useQuery({
+    queryKey: ['resolve-trip-unit', key],
+    queryFn: () =>
+      apiFetch<{ device: Device }>('/calc/resolve-trip-unit', {
+        method: 'POST',
+        body: def && def.kind === 'electronic' ? { tripType: def.tripType, positions: def.positions } : {},
+      }),
+    enabled: !!def && def.kind === 'electronic',
+    retry: false,
+    placeholderData: (p) => p,
+  });
+  if (!def) return { device: null, error: null };
+  if (def.kind !== 'electronic') return { device: def, error: null };
+  return { device: resolved.data?.device ?? null, error: resolved.error ? resolved.error.message : null };
+}
+
+function BandReader({ device, onRead }: { device: Device | null; onRead: (r: { currentA: number; timeS: number | null }) => void }) {
+  const [currentA, setCurrentA] = useState<number | undefined>(undefined);
+  const read = useClearingTime();
+  const go = () => {
+    if (!device || !currentA || !(currentA > 0)) return;
+    read.mutate(
+      { device, currentA },
+      { onSuccess: (r) => onRead({ currentA, timeS: r.clearingTimeS }) },
+    );
+  };
+  const r = read.data;
+  return (
+    <Card testID="band-reader">
+      <T variant="subheading">Read the band</T>
+      <T variant="small">Enter the current the device sees; the clearing time is read on the maximum (total clearing) curve.</T>
+      <View style={{ flexDirection: 'row', gap: space.md, alignItems: 'flex-end', flexWrap: 'wrap' }}>
+        <NumberInput label="Current" unit="A" value={currentA} onChange={setCurrentA} testID="read-current" />
+        <Button title="Read" testID="read-band" busy={read.isPending} disabled={!device} onPress={go} />
+      </View>
+      {read.error ? <Notice tone="error">{read.error.message}</Notice> : null}
+      {r ? (
+        <View style={{ gap: space.xs }} testID="band-reading">
+          <T style={{ fontSize: 18 }}>
+            {r.clearingTimeS === null ? (
+              <T style={{ fontFamily: fonts.textBold, fontSize: 18 }}>Does not clear at this current</T>
+            ) : (
+              <>
+                Clears in <T style={{ fontFamily: fonts.numbersBold, fontSize: 20 }}>{fmt(r.clearingTimeS)} s</T>
+              </>
+            )}
+          </T>
+          <T variant="small">
+            Region: <T style={{ fontFamily: fonts.textBold }}>{REGION_LABELS[r.region]}</T> · minimum curve{' '}
+            <T style={{ fontFamily: fonts.numbers }}>{r.minimumTimeS === null ? '—' : `${fmt(r.minimumTimeS)} s`}</T>
+          </T>
+          {r.warnings.map((w) => (
+            <Notice key={w.code + w.message} tone="warning">
+              {`${w.code}: ${w.message}`}
+            </Notice>
+          ))}
+        </View>
+      ) : null}
+    </Card>
+  );
+}
+
+export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: DeviceKind; justSaved?: boolean }) {
+  const user = useUser();
+  const canEdit = user.role === 'engineer';
+  const router = useRouter();
+  const { wide } = useLayout();
+  const existing = useDeviceType(id);
+  const save = useSaveDeviceType(id);
+  const remove = useDeleteDeviceType();
+  const [name, setName] = useState('');
+  const [description, setDescription] = useState('');
+  const [source, setSource] = useState('');
+  const [def, setDef] = useState<DeviceDefinition | null>(id ? null : newDefinition(kind ?? 'thermal-magnetic'));
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(
+    justSaved ? { tone: 'ok', text: 'Saved to the device library.' } : null,
+  );
+  const [reading, setReading] = useState<{ currentA: number; timeS: number | null } | null>(null);
+
+  useEffect(() => {
+    if (existing.data) {
+      setName(existing.data.name);
+      setDescription(existing.data.description);
+      setSource(existing.data.source);
+      setDef(existing.data.definition);
+    }
+  }, [existing.data]);
+
+  // Only a definition that passes the shared schema is plotted; the form shows what is wrong otherwise.
+  const check = useMemo(() => (def ? validate(deviceDefinitionSchema, def) : null), [def]);
+  const validDef = check && check.ok ? (check.data as DeviceDefinition) : null;
+  const debouncedDef = useDebounced(validDef, 300);
+  const { device, error: resolveError } = useResolvedDevice(debouncedDef);
+  const curves = useBandCurves(device);
+  const fieldErrors = { ...(check && !check.ok ? check.errors : {}), ...errors };
+
+  const onSave = () => {
+    setMessage(null);
+    if (!def) return;
+    if (!name.trim()) return setErrors({ name: 'Enter a name' });
+    save.mutate(
+      { name, description, source, definition: def },
+      {
+        onSuccess: (saved) => {
+          setErrors({});
+          setMessage({ tone: 'ok', text: 'Saved to the device library.' });
+          if (!id) router.replace(`/devices/${saved.id}?saved=1` as never);
+        },
+        onError: (e) => {
+          const s = serverErrors(e);
+          const fields: Record<string, string> = {};
+          for (const [k, v] of Object.entries(s.fields)) fields[k.replace(/^definition\./, '')] = v;
+          setErrors(fields);
+          setMessage({ tone: 'error', text: s.message });
+        },
+      },
+    );
+  };
+
+  const onCsv = async (file: File) => {
+    setMessage(null);
+    const form = new FormData();
+    form.append('file', file);
+    try {
+      const r = await apiFetch<{ currentUnit: 'multiple' | 'ampere'; min: [number, number][]; max: [number, number][] }>(
+        '/device-types/parse-band-csv',
+        { method: 'POST', formData: form },
+      );
+      setDef((d) => (d && d.kind === 'band' ? { ...d, currentUnit: r.currentUnit, min: r.min, max: r.max } : d));
+      setMessage({ tone: 'ok', text: `Read ${r.max.length} maximum and ${r.min.length} minimum points from ${file.name}.` });
+    } catch (e) {
+      const s = serverErrors(e);
+      const lines = Object.entries(s.fields).map(([k, v]) => `${k}: ${v}`);
+      setMessage({ tone: 'error', text: [s.message, ...lines.slice(0, 8)].join('\n') });
+    }
+  };
+
+  if (id && existing.error) {
+    return (
+      <Screen title="Device type">
+        <Notice tone="error">{existing.error.message}</Notice>
+      </Screen>
+    );
+  }
+  if (!def) return <Screen title="Device type"><T variant="small">Loading…</T></Screen>;
+
+  const plot = (
+    <Card testID="device-plot">
+      <T variant="subheading">Time-current band</T>
+      {resolveError ? <Notice tone="error">{resolveError}</Notice> : null}
+      {curves.error ? <Notice tone="error">{curves.error.message}</Notice> : null}
+      <TimeCurrentPlot
+        testID="tcc"
+        currentUnit="A"
+        series={curves.data ? [{ id: 'dev', label: name || DEVICE_KIND_LABELS[def.kind], min: curves.data.min, max: curves.data.max }] : []}
+        verticals={reading ? [{ currentA: reading.currentA, label: 'Read at', tone: 'full' }] : []}
+        marks={reading && reading.timeS !== null ? [{ currentA: reading.currentA, timeS: reading.timeS, label: 'clears', seriesId: 'dev' }] : []}
+        emptyMessage={check && !check.ok ? 'Fix the settings to see the band.' : 'Loading the band…'}
+      />
+    </Card>
+  );
+
+  const form = (
+    <View style={{ gap: space.lg }}>
+      {message ? (
+        <Notice tone={message.tone} testID="device-message">
+          {message.text}
+        </Notice>
+      ) : null}
+      <Card>
+        <T variant="label">{DEVICE_KIND_LABELS[def.kind].toUpperCase()}</T>
+        <Field label="Name" testID="device-name" value={name} onChangeText={setName} error={errors.name} editable={canEdit} />
+        <Field label="Description" value={description} onChangeText={setDescription} editable={canEdit} />
+        <Field label="Source of the data" value={source} onChangeText={setSource} editable={canEdit} hint="e.g. the published curve it was read from, with its date" />
+      </Card>
+      <Card>
+        <T variant="subheading">Settings</T>
+        {def.kind === 'band' && canEdit ? (
+          <View style={{ gap: space.xs, padding: space.md, backgroundColor: colors.canvas, borderRadius: 8 }}>
+            <FilePicker accept=".csv,text/csv,text/plain" label="Upload a digitized band (CSV: current or multiple, min_s, max_s)" onFile={(f) => void onCsv(f)} />
+          </View>
+        ) : null}
+        <DefinitionEditor def={def} onChange={setDef} errors={fieldErrors} editable={canEdit} />
+      </Card>
+      {canEdit ? (
+        <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+          <Button title={id ? 'Save changes' : 'Add to library'} testID="save-device" busy={save.isPending} onPress={onSave} />
+          {id ? (
+            <Button
+              title="Remove from library"
+              kind="secondary"
+              busy={remove.isPending}
+              onPress={() => remove.mutate(id, { onSuccess: () => router.replace('/devices' as never) })}
+            />
+          ) : null}
+        </View>
+      ) : null}
+    </View>
+  );
+
+  return (
+    <Screen title={id ? name || 'Device type' : `New ${DEVICE_KIND_LABELS[def.kind].toLowerCase()}`} subtitle="Device library">
+      {wide ? (
+        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
+          <View style={{ flex: 1 }}>{form}</View>
+          <View style={{ flex: 1, gap: space.lg }}>
+            {plot}
+            <BandReader device={device} onRead={setReading} />
+          </View>
+        </View>
+      ) : (
+        <>
+          {plot}
+          <BandReader device={device} onRead={setReading} />
+          {form}
+        </>
+      )}
+    </Screen>
+  );
+}

@@ -1,0 +1,89 @@
+import { Link, useRouter } from 'expo-router';
+import React, { useState } from 'react';
+import { Pressable, View } from 'react-native';
+import type { Device, DeviceKind } from '../../shared/schemas/device';
+import { DEVICE_KIND_LABELS } from '../../shared/schemas/deviceLibrary';
+import { useDeviceTypes } from '../../hooks/queries';
+import { useUser } from '../../hooks/session';
+import { useLayout } from '../../hooks/useLayout';
+import { colors, fonts, radius, space } from '../theme';
+import { Button, Card, Choice, Notice, Screen, T } from '../ui';
+
+const KINDS = Object.keys(DEVICE_KIND_LABELS) as DeviceKind[];
+
+/** A one-line summary of the settings that matter most. */
+function summary(d: Device): string {
+  switch (d.kind) {
+    case 'thermal-magnetic':
+      return `${d.ratingA} A · instantaneous ${d.instantaneous?.pickupMultiple ?? `${d.instantaneous?.lowMultiple}–${d.instantaneous?.highMultiple}`} × rating`;
+    case 'electronic':
+      return `In ${d.sensorA} A · Ir ${d.longTime.pickup} × In · LTD ${d.longTime.delayS} s${d.shortTime ? ` · ST ${d.shortTime.pickup} × Ir ${d.shortTime.delayS} s` : ''}${d.instantaneous ? ` · INST ${d.instantaneous.pickup} × In` : ''}`;
+    case 'fuse':
+      return `${d.ratingA} A · ${d.totalClearing?.length ?? 0} total-clearing points`;
+    case 'relay':
+      return `${d.curve} · pickup ${d.pickupA ?? '—'} A · TD ${d.timeDial} · ${d.breakerCycles}-cycle breaker`;
+    case 'band':
+      return `${d.ratingA} A · ${d.max.length} points (${d.currentUnit === 'multiple' ? 'multiples of rating' : 'amperes'})`;
+  }
+}
+
+export function DevicesScreen() {
+  const user = useUser();
+  const canEdit = user.role === 'engineer';
+  const router = useRouter();
+  const { wide } = useLayout();
+  const types = useDeviceTypes();
+  const [filter, setFilter] = useState<DeviceKind | 'all'>('all');
+  const [choosing, setChoosing] = useState(false);
+  const shown = types.data?.filter((t) => filter === 'all' || t.kind === filter) ?? [];
+
+  return (
+    <Screen
+      title="Device library"
+      subtitle="Protective devices and their trip bands: the clearing time of every label is read from one of these."
+      actions={canEdit ? <Button title="New device type" testID="new-device" onPress={() => setChoosing((c) => !c)} /> : null}
+    >
+      {choosing ? (
+        <Card testID="choose-kind">
+          <T variant="subheading">What kind of device?</T>
+          <View style={{ flexDirection: wide ? 'row' : 'column', gap: space.sm, flexWrap: 'wrap' }}>
+            {KINDS.map((k) => (
+              <Button key={k} title={DEVICE_KIND_LABELS[k]} kind="secondary" testID={`new-${k}`} onPress={() => router.push(`/devices/new?kind=${k}` as never)} />
+            ))}
+          </View>
+        </Card>
+      ) : null}
+      <Choice
+        value={filter}
+        options={[{ value: 'all', label: 'All' }, ...KINDS.map((k) => ({ value: k, label: DEVICE_KIND_LABELS[k] }))]}
+        onChange={setFilter}
+        testID="kind-filter"
+      />
+      {types.error ? <Notice tone="error">{types.error.message}</Notice> : null}
+      {types.isLoading ? <T variant="small">Loading…</T> : null}
+      {types.data && shown.length === 0 ? <Notice>No device types of this kind yet.</Notice> : null}
+      <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.md }}>
+        {shown.map((t) => (
+          <Link key={t.id} href={`/devices/${t.id}` as never} asChild>
+            <Pressable accessibilityRole="link" style={{ flexBasis: wide ? '48%' : 'auto', flexGrow: 1 }} testID={`device-${t.name}`}>
+              <Card style={{ height: '100%' }}>
+                <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}>
+                  <T variant="subheading" style={{ flexShrink: 1 }}>
+                    {t.name}
+                  </T>
+                  <View style={{ backgroundColor: colors.accentSoft, borderRadius: radius.sm, paddingHorizontal: 8, paddingVertical: 2 }}>
+                    <T style={{ fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink }}>{DEVICE_KIND_LABELS[t.kind]}</T>
+                  </View>
+                </View>
+                <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
+                  {summary(t.device)}
+                </T>
+                {t.description ? <T variant="small">{t.description}</T> : null}
+              </Card>
+            </Pressable>
+          </Link>
+        ))}
+      </View>
+    </Screen>
+  );
+}
