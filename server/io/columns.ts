@@ -1,0 +1,548 @@
+import {
+  MODEL_FORMAT,
+  MODEL_VERSION,
+  type Model,
+  type ModelIssue,
+} from '../../shared/schemas/model';
+
+/**
+ * The system model as flat tables: one table per element type, one column per field. The workbook
+ * (modelWorkbook.ts) and the CSV files (modelCsv.ts) share these tables; this module turns elements into rows and
+ * rows back into elements, and maps a model issue back to the sheet (or file), row and column it came from.
+ *
+ * Headers are the field paths of the JSON format (DESIGN.md §4), nested fields joined by dots
+ * (`equipment.enclosureMm.height`); units are part of the names (`nominalKv`, `gapMm`, `lengthM`).
+ * Device settings are too deep for flat columns: a device row carries its device object as JSON.
+ */
+
+// ---------------------------------------------------------------------------------------------
+// Errors
+
+/** One problem in an uploaded file, located as precisely as the format allows. */
+export interface ImportError {
+  /** File name as uploaded. */
+  file: string;
+  /** Workbook sheet name (workbooks only). */
+  sheet?: string;
+  /** 1-based row: the row number Excel shows, or the line number in a CSV file. */
+  row?: number;
+  /** Column header and letter, e.g. `lengthM (D)`; the bare header when the column is missing. */
+  column?: string;
+  /** 1-based line and column of a JSON syntax error. */
+  line?: number;
+  col?: number;
+  /** Model path of the problem, e.g. `cables[2].toBus` (model checks only). */
+  path?: string;
+  /** Id of the element at fault, when known. */
+  elementId?: string;
+  /** Where, in words: `Cables row 5, toBus (C)`, `cables.csv line 5, toBus (C)`, `model.json cables[2].toBus`. */
+  where: string;
+  message: string;
+}
+
+/** The result of reading one upload (one workbook, a set of CSV files, one JSON file), before model checks. */
+export type ParsedModelFile =
+  | {
+      ok: true;
+      /** The model as read: not yet validated, run `parseModel` on it. */
+      input: unknown;
+      /** Where a model issue came from in the upload. */
+      locate: (issue: ModelIssue) => ImportError;
+    }
+  | { ok: false; errors: ImportError[] };
+
+// ---------------------------------------------------------------------------------------------
+// Tables and columns
+
+export const ELEMENT_TABLES = ['buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices'] as const;
+export type ElementTable = (typeof ELEMENT_TABLES)[number];
+/** Every table of the flat format: the `about` table (model-level fields) and one per element type. */
+export const MODEL_TABLES = ['about', ...ELEMENT_TABLES] as const;
+export type ModelTable = (typeof MODEL_TABLES)[number];
+
+/** Sheet names in the workbook (also the display names of the CSV files' tables). */
+export const TABLE_TITLES: Record<ModelTable, string> = {
+  about: 'About',
+  buses: 'Buses',
+  sources: 'Sources',
+  transformers: 'Transformers',
+  cables: 'Cables',
+  motors: 'Motors',
+  ties: 'Ties',
+  devices: 'Devices',
+};
+
+/** How a cell is read: text, number, boolean, a JSON object, or (About `value` only) as it is. */
+export type ColumnType = 'string' | 'number' | 'boolean' | 'json' | 'raw';
+
+export interface Column {
+  /** Header text, the field path joined by dots. */
+  header: string;
+  path: readonly string[];
+  type: ColumnType;
+  /** The header must be present, and every row must give a value. */
+  required?: boolean;
+  /** The column applies only to rows whose `when.column` holds one of `when.values` (e.g. generator fields). */
+  when?: { column: string; values: readonly string[] };
+  /** Short help for the header cell (workbook note). */
+  note?: string;
+}
+
+const col = (header: string, type: ColumnType, extra: Omit<Column, 'header' | 'path' | 'type'> = {}): Column => ({
+  header,
+  path: header.split('.'),
+  type,
+  ...extra,
+});
+const id = col('id', 'string', { required: true });
+const name = col('name', 'string');
+const utilityOnly = { column: 'kind', values: ['utility'] } as const;
+const generatorOnly = { column: 'kind', values: ['generator'] } as const;
+
+export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
+  about: [
+    col('field', 'string', { required: true }),
+    col('value', 'raw'),
+    col('note', 'string', { note: 'Help text, ignored on import' }),
+  ],
+  buses: [
+    id,
+    name,
+    col('nominalKv', 'number', { required: true, note: 'Nominal line-to-line voltage, kV' }),
+    col('equipment.class', 'string', { note: 'Equipment class id, e.g. switchgear-lv' }),
+    col('equipment.electrodeConfig', 'string', { note: 'VCB, VCBB, HCB, VOA or HOA; empty: typical of the class' }),
+    col('equipment.gapMm', 'number', { note: 'Gap between conductors, mm; empty: typical of the class' }),
+    col('equipment.workingDistanceMm', 'number', { note: 'Working distance, mm; empty: typical of the class' }),
+    col('equipment.enclosureMm.height', 'number', { note: 'Enclosure height, mm' }),
+    col('equipment.enclosureMm.width', 'number', { note: 'Enclosure width, mm' }),
+    col('equipment.enclosureMm.depth', 'number', { note: 'Enclosure depth, mm' }),
+    col('equipment.mainIsolated', 'boolean', { note: 'FALSE: the main device shares the enclosure without isolation' }),
+  ],
+  sources: [
+    id,
+    name,
+    col('kind', 'string', { required: true, note: 'utility or generator' }),
+    col('bus', 'string', { required: true }),
+    col('shortCircuitMva', 'number', { when: utilityOnly, note: 'Utility: available three-phase MVA (or kA)' }),
+    col('shortCircuitKa', 'number', { when: utilityOnly, note: 'Utility: available three-phase kA (or MVA)' }),
+    col('xr', 'number', { required: true, note: 'X/R ratio' }),
+    col('kva', 'number', { when: generatorOnly, note: 'Generator: rated kVA' }),
+    col('kv', 'number', { when: generatorOnly, note: 'Generator: rated line-to-line kV' }),
+    col('subtransientPct', 'number', { when: generatorOnly, note: 'Generator: subtransient reactance, % on rating' }),
+  ],
+  transformers: [
+    id,
+    name,
+    col('fromBus', 'string', { required: true, note: 'Primary-side bus' }),
+    col('toBus', 'string', { required: true, note: 'Secondary-side bus' }),
+    col('kva', 'number', { required: true, note: 'Self-cooled rating, kVA' }),
+    col('primaryKv', 'number', { required: true }),
+    col('secondaryKv', 'number', { required: true }),
+    col('impedancePct', 'number', { required: true, note: '%Z on the transformer rating' }),
+    col('xr', 'number', { note: 'X/R ratio; empty: typical by size' }),
+  ],
+  cables: [
+    id,
+    name,
+    col('fromBus', 'string', { required: true }),
+    col('toBus', 'string', { required: true }),
+    col('lengthM', 'number', { required: true, note: 'Route length, m' }),
+    col('sets', 'number', { note: 'Parallel sets per phase; empty: 1' }),
+    col('size', 'string', { note: 'AWG or kcmil, e.g. 4/0 or 500 (or give rOhmPerKm and xOhmPerKm)' }),
+    col('material', 'string', { note: 'Cu or Al' }),
+    col('conduit', 'string', { note: 'steel, pvc or aluminum' }),
+    col('rOhmPerKm', 'number', { note: 'Resistance of one conductor, ohm/km (instead of size)' }),
+    col('xOhmPerKm', 'number', { note: 'Reactance of one conductor, ohm/km (instead of size)' }),
+  ],
+  motors: [
+    id,
+    name,
+    col('bus', 'string', { required: true }),
+    col('hp', 'number', { note: 'Rated horsepower (or kva)' }),
+    col('kva', 'number', { note: 'Rated kVA (or hp)' }),
+    col('kv', 'number', { required: true, note: 'Rated line-to-line kV' }),
+    col('lockedRotorMultiple', 'number', { note: 'Locked-rotor current, multiple of rated' }),
+    col('subtransientPct', 'number', { note: 'Subtransient reactance, % on motor kVA' }),
+    col('firstCycleMultiplier', 'number', { note: 'Multiplier on X" for the first-cycle network' }),
+    col('xr', 'number', { note: 'X/R ratio; empty: typical value' }),
+  ],
+  ties: [
+    id,
+    name,
+    col('fromBus', 'string', { required: true }),
+    col('toBus', 'string', { required: true }),
+    col('closed', 'boolean', { note: 'TRUE or FALSE; empty: TRUE' }),
+  ],
+  devices: [
+    id,
+    name,
+    col('branch', 'string', { note: 'Transformer, cable or tie id (or source)' }),
+    col('end', 'string', { note: 'from or to (with branch)' }),
+    col('source', 'string', { note: 'Source or motor id (instead of branch)' }),
+    col('device.kind', 'string', { note: 'relay, fuse, band, thermal-magnetic or electronic (repeats the device column)' }),
+    col('device', 'json', { required: true, note: 'The device object as JSON' }),
+    col('library', 'json', { note: 'Library device type and switch positions, as JSON' }),
+  ],
+};
+
+/** Model-level fields listed in the About table, with how their value is read. */
+const ABOUT_FIELDS: Record<string, { type: 'string' | 'number'; note: string }> = {
+  format: { type: 'string', note: `Always ${MODEL_FORMAT}` },
+  version: { type: 'number', note: `Format version (${MODEL_VERSION})` },
+  name: { type: 'string', note: 'Model name' },
+  frequencyHz: { type: 'number', note: 'System frequency, Hz: 50 or 60 (empty: 60)' },
+  prefaultPu: { type: 'number', note: 'Pre-fault voltage, per unit (empty: 1.0)' },
+};
+
+/** General notes written below the About fields (field and value left empty, so import skips them). */
+export const ABOUT_NOTES = [
+  `One table per element type: ${ELEMENT_TABLES.map((t) => TABLE_TITLES[t]).join(', ')}. One row per element; empty rows are skipped.`,
+  'Headers are the field names of the JSON model format; nested fields are joined by dots (equipment.enclosureMm.height). Units are part of the names: Kv kV, Mm mm, M metres, Pct percent, OhmPerKm ohm/km.',
+  'Leave a cell empty where the field does not apply or its default is wanted. Booleans: TRUE or FALSE (yes or no).',
+  'Devices: the device column holds the device object (relay, fuse, band, thermal-magnetic or electronic) as JSON, and the library column the library reference as JSON, because device settings are too deep for flat columns. device.kind repeats the kind for sorting and filtering.',
+  'Unknown sheets, files and columns are rejected, so that a misspelt header is not silently ignored.',
+];
+
+/** File name of a table's CSV file: `buses` → buses.csv. */
+export const csvFileName = (table: ModelTable) => `${table}.csv`;
+
+/** Excel column letters: 0 → A, 25 → Z, 26 → AA. */
+export function columnLetter(index0: number): string {
+  let n = index0 + 1;
+  let out = '';
+  while (n > 0) {
+    const rem = (n - 1) % 26;
+    out = String.fromCharCode(65 + rem) + out;
+    n = Math.floor((n - 1) / 26);
+  }
+  return out;
+}
+
+const headerKey = (text: string) => text.trim().toLowerCase();
+
+// ---------------------------------------------------------------------------------------------
+// Model → rows
+
+/** A cell as the workbook and CSV readers hand it over; `{ invalid }` is a cell that cannot be read (a date, #REF!). */
+export type Cell = string | number | boolean | null | { invalid: string };
+
+function getPath(value: unknown, path: readonly string[]): unknown {
+  let v = value;
+  for (const key of path) {
+    if (v === null || typeof v !== 'object') return undefined;
+    v = (v as Record<string, unknown>)[key];
+  }
+  return v;
+}
+
+function toCell(column: Column, value: unknown): string | number | boolean | null {
+  if (value === undefined || value === null) return null;
+  if (column.type === 'json') return JSON.stringify(value);
+  if (typeof value === 'string' || typeof value === 'number' || typeof value === 'boolean') return value;
+  return JSON.stringify(value);
+}
+
+/** The rows of one table (header row not included), in column order. */
+export function tableRows(model: Model, table: ModelTable): (string | number | boolean | null)[][] {
+  if (table === 'about') {
+    const rows: (string | number | boolean | null)[][] = Object.entries(ABOUT_FIELDS).map(([field, spec]) => [
+      field,
+      toCell(TABLE_COLUMNS.about[1], (model as Record<string, unknown>)[field]),
+      spec.note,
+    ]);
+    return [...rows, ...ABOUT_NOTES.map((note) => [null, null, note])];
+  }
+  const columns = TABLE_COLUMNS[table];
+  const elements = (model[table] ?? []) as unknown[];
+  return elements.map((element) => columns.map((c) => toCell(c, getPath(element, c.path))));
+}
+
+// ---------------------------------------------------------------------------------------------
+// Rows → model
+
+/** Where a table was read from. */
+export interface TableSource {
+  table: ModelTable;
+  file: string;
+  /** Workbook sheet name; absent for CSV. */
+  sheet?: string;
+  /** Header cells of row 1, in order. */
+  header: Cell[];
+  /** Data rows with their 1-based row (or line) numbers. */
+  rows: { row: number; cells: Cell[] }[];
+}
+
+/** A problem found while reading a table, before it is given its place in words. */
+type Located = Omit<ImportError, 'where'>;
+
+interface ReadColumn {
+  column: Column;
+  index: number;
+  /** Header as written in the file, with its letter: `lengthM (D)`. */
+  label: string;
+}
+
+interface ReadTable {
+  source: TableSource;
+  columns: ReadColumn[];
+  /** Row number of each element, in element order. */
+  rowOf: number[];
+  /** About table: row number of each field. */
+  fieldRows: Map<string, number>;
+}
+
+const isBlank = (cell: Cell | undefined) => cell === null || cell === undefined || (typeof cell === 'string' && cell.trim() === '');
+const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+const TRUE_WORDS = new Set(['true', 'yes', 'y', '1']);
+const FALSE_WORDS = new Set(['false', 'no', 'n', '0']);
+
+/** Reads one non-blank cell as its column's type; a string result is an error message. */
+function readCell(type: ColumnType, cell: Exclude<Cell, null>): { value: unknown } | string {
+  if (typeof cell === 'object') return cell.invalid;
+  switch (type) {
+    case 'raw':
+      return { value: typeof cell === 'string' ? cell.trim() : cell };
+    case 'string':
+      return { value: typeof cell === 'string' ? cell.trim() : typeof cell === 'boolean' ? String(cell).toUpperCase() : String(cell) };
+    case 'number': {
+      if (typeof cell === 'number') return Number.isFinite(cell) ? { value: cell } : 'Enter a number';
+      if (typeof cell === 'string' && NUMBER.test(cell.trim())) return { value: Number(cell.trim()) };
+      return 'Enter a number';
+    }
+    case 'boolean': {
+      if (typeof cell === 'boolean') return { value: cell };
+      const word = String(cell).trim().toLowerCase();
+      if (TRUE_WORDS.has(word)) return { value: true };
+      if (FALSE_WORDS.has(word)) return { value: false };
+      return 'Enter TRUE or FALSE';
+    }
+    case 'json': {
+      if (typeof cell !== 'string') return 'Enter a JSON object, e.g. {"kind": "fuse", …}';
+      let value: unknown;
+      try {
+        value = JSON.parse(cell);
+      } catch (err) {
+        return `Enter a JSON object: ${(err as Error).message}`;
+      }
+      if (value === null || typeof value !== 'object' || Array.isArray(value)) return 'Enter a JSON object, e.g. {"kind": "fuse", …}';
+      return { value };
+    }
+  }
+}
+
+/** Sets `path` in `target`; false when a different value is already there (e.g. `device.kind` against `device`). */
+function setPath(target: Record<string, unknown>, path: readonly string[], value: unknown): boolean {
+  let obj = target;
+  for (const key of path.slice(0, -1)) {
+    const next = obj[key];
+    if (next === undefined) obj[key] = {};
+    else if (next === null || typeof next !== 'object' || Array.isArray(next)) return false;
+    obj = obj[key] as Record<string, unknown>;
+  }
+  const last = path[path.length - 1];
+  if (obj[last] !== undefined && obj[last] !== value) return false;
+  obj[last] = value;
+  return true;
+}
+
+/** Matches the header row to the table's columns: unknown, duplicate and missing required columns are errors. */
+function readHeader(source: TableSource, errors: Located[]): ReadColumn[] {
+  const specs = TABLE_COLUMNS[source.table];
+  const title = TABLE_TITLES[source.table];
+  const at = { file: source.file, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}), row: 1 };
+  const columns: ReadColumn[] = [];
+  source.header.forEach((cell, index) => {
+    if (isBlank(cell)) return;
+    const text = typeof cell === 'object' && cell !== null ? '' : String(cell).trim();
+    const label = `${text} (${columnLetter(index)})`;
+    const column = specs.find((c) => headerKey(c.header) === headerKey(text));
+    if (!column) {
+      errors.push({ ...at, column: label, message: `Unknown column "${text}": the ${title} columns are ${specs.map((c) => c.header).join(', ')}` });
+    } else if (columns.some((c) => c.column === column)) {
+      errors.push({ ...at, column: label, message: `Column "${column.header}" appears twice` });
+    } else {
+      columns.push({ column, index, label });
+    }
+  });
+  for (const spec of specs) {
+    if (spec.required && !columns.some((c) => c.column === spec)) {
+      errors.push({ ...at, column: spec.header, message: `Missing required column "${spec.header}"` });
+    }
+  }
+  // Values under a blank header would be lost: report them.
+  const lastHeader = Math.max(-1, ...source.header.map((c, i) => (isBlank(c) ? -1 : i)));
+  for (const { row, cells } of source.rows) {
+    cells.forEach((cell, index) => {
+      if (!isBlank(cell) && (index > lastHeader || isBlank(source.header[index]))) {
+        errors.push({ ...at, row, column: `(${columnLetter(index)})`, message: 'Value in a column without a header' });
+      }
+    });
+  }
+  return columns;
+}
+
+/** Reads one table into plain objects (elements, or the About fields); cell problems go to `errors`. */
+function readTable(source: TableSource, errors: Located[]): { read: ReadTable; objects: Record<string, unknown>[] } {
+  const columns = readHeader(source, errors);
+  // JSON columns first, so that a dotted column under them (device.kind) is checked against the JSON.
+  const ordered = [...columns].sort((a, b) => Number(b.column.type === 'json') - Number(a.column.type === 'json'));
+  const read: ReadTable = { source, columns, rowOf: [], fieldRows: new Map() };
+  const objects: Record<string, unknown>[] = [];
+  const where = { file: source.file, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) };
+
+  for (const { row, cells } of source.rows) {
+    if (cells.every(isBlank)) continue;
+    const values = new Map<ReadColumn, unknown>();
+    const object: Record<string, unknown> = {};
+    let rowOk = true;
+    const fail = (c: ReadColumn, message: string) => {
+      errors.push({ ...where, row, column: c.label, message });
+      rowOk = false;
+    };
+    for (const c of ordered) {
+      const cell = cells[c.index];
+      if (isBlank(cell)) {
+        if (c.column.required && source.table !== 'about') fail(c, 'Enter a value');
+        continue;
+      }
+      const result = readCell(c.column.type, cell as Exclude<Cell, null>);
+      if (typeof result === 'string') {
+        fail(c, result);
+        continue;
+      }
+      values.set(c, result.value);
+      if (!setPath(object, c.column.path, result.value)) {
+        const parent = c.column.path.slice(0, -1).join('.');
+        fail(c, `Does not match the ${parent} column`);
+      }
+    }
+    for (const c of values.keys()) {
+      const when = c.column.when;
+      if (!when) continue;
+      const governing = columns.find((g) => g.column.header === when.column);
+      const gv = governing ? values.get(governing) : undefined;
+      if (typeof gv === 'string' && !when.values.includes(gv)) {
+        fail(c, `${c.column.header} applies to ${when.column} ${when.values.join(' or ')} only`);
+      }
+    }
+    if (!rowOk) continue;
+    read.rowOf.push(row);
+    objects.push(object);
+  }
+  return { read, objects };
+}
+
+/** Turns the About table's field/value rows into the model-level fields. */
+function readAbout(table: ReadTable, objects: Record<string, unknown>[], errors: Located[]): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  const { source } = table;
+  const where = { file: source.file, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) };
+  const label = (header: string) => table.columns.find((c) => c.column.header === header)?.label ?? header;
+  objects.forEach((object, i) => {
+    const row = table.rowOf[i];
+    const field = object.field as string | undefined;
+    const value = object.value;
+    if (field === undefined) {
+      if (value !== undefined) errors.push({ ...where, row, column: label('field'), message: 'Give the field name' });
+      return; // a note row
+    }
+    const spec = Object.entries(ABOUT_FIELDS).find(([key]) => headerKey(key) === headerKey(field));
+    if (!spec) {
+      errors.push({ ...where, row, column: label('field'), message: `Unknown field "${field}": use ${Object.keys(ABOUT_FIELDS).join(', ')}` });
+      return;
+    }
+    const [key, { type }] = spec;
+    if (table.fieldRows.has(key)) {
+      errors.push({ ...where, row, column: label('field'), message: `Field "${key}" appears twice` });
+      return;
+    }
+    table.fieldRows.set(key, row);
+    if (value === undefined) return;
+    const result = readCell(type, value as string | number | boolean);
+    if (typeof result === 'string') errors.push({ ...where, row, column: label('value'), message: result });
+    else out[key] = result.value;
+  });
+  return out;
+}
+
+/** Place of a table error in words: `Cables row 5, toBus (C)` (workbook) or `cables.csv line 5, toBus (C)` (CSV). */
+export function describePlace(e: Pick<ImportError, 'file' | 'sheet' | 'row' | 'column'>): string {
+  let place = e.sheet ?? e.file;
+  if (e.row !== undefined) place += e.sheet !== undefined ? ` row ${e.row}` : ` line ${e.row}`;
+  if (e.column !== undefined) place += `, ${e.column}`;
+  return place;
+}
+
+export const withPlace = (e: Omit<ImportError, 'where'>): ImportError => ({ ...e, where: describePlace(e) });
+
+/** Splits a model path `cables[2].equipment.gapMm` into collection, index and the field inside the element. */
+function splitPath(path: string): { collection: string; index?: number; field?: string } {
+  const m = /^([A-Za-z]+)(?:\[(\d+)\])?(?:\.?(.*))?$/.exec(path);
+  if (!m) return { collection: path };
+  return { collection: m[1], index: m[2] !== undefined ? Number(m[2]) : undefined, field: m[3] || undefined };
+}
+
+/**
+ * Assembles the model from the tables read (at most one per table; the caller checks for duplicates) and returns
+ * the model input with a locator for the issues `parseModel` reports, or every cell problem found.
+ * `workbookFile` names the workbook the sheets came from; without it the tables are CSV files.
+ */
+export function readTables(sources: TableSource[], workbookFile?: string): ParsedModelFile {
+  const errors: Located[] = [];
+  const reads = new Map<ModelTable, ReadTable>();
+  const input: Record<string, unknown> = { format: MODEL_FORMAT, version: MODEL_VERSION };
+  for (const source of sources) {
+    // A blank sheet or file stands for an empty table.
+    if (source.header.every(isBlank) && source.rows.every((r) => r.cells.every(isBlank))) continue;
+    const { read, objects } = readTable(source, errors);
+    reads.set(source.table, read);
+    if (source.table === 'about') Object.assign(input, readAbout(read, objects, errors));
+    else input[source.table] = objects;
+  }
+  if (!input.buses) input.buses = [];
+  if (errors.length > 0) return { ok: false, errors: errors.map(withPlace) };
+
+  const locate = (issue: ModelIssue): ImportError => {
+    const { collection, index, field: pathField } = splitPath(issue.path);
+    const isElement = (ELEMENT_TABLES as readonly string[]).includes(collection);
+    const table: ModelTable = isElement ? (collection as ElementTable) : 'about';
+    const read = reads.get(table);
+    const detail = {
+      path: issue.path,
+      ...(issue.elementId !== undefined ? { elementId: issue.elementId } : {}),
+      message: issue.message,
+    };
+    // The table is missing altogether (e.g. no Buses sheet): name the sheet or file it needs.
+    if (!read) {
+      return workbookFile !== undefined
+        ? withPlace({ file: workbookFile, sheet: TABLE_TITLES[table], ...detail })
+        : withPlace({ file: csvFileName(table), ...detail });
+    }
+    const base = { file: read.source.file, ...(read.source.sheet !== undefined ? { sheet: read.source.sheet } : {}), ...detail };
+    if (!isElement) {
+      const row = read.fieldRows.get(collection);
+      const valueLabel = read.columns.find((c) => c.column.header === 'value')?.label ?? 'value';
+      return withPlace({ ...base, ...(row !== undefined ? { row, column: valueLabel } : {}) });
+    }
+    if (index === undefined) return withPlace(base);
+    const row = read.rowOf[index];
+    const field = issue.field ?? pathField;
+    let column: string | undefined;
+    if (field !== undefined) {
+      // The longest column path that is the field or contains it (device.ratingA → the device column).
+      const spec = [...TABLE_COLUMNS[table]]
+        .filter((c) => field === c.header || field.startsWith(`${c.header}.`) || field.startsWith(`${c.header}[`))
+        .sort((a, b) => b.header.length - a.header.length)[0];
+      if (spec) column = read.columns.find((c) => c.column === spec)?.label ?? spec.header;
+      else column = field;
+    }
+    return withPlace({ ...base, ...(row !== undefined ? { row } : {}), ...(column !== undefined ? { column } : {}) });
+  };
+  return { ok: true, input, locate };
+}
+
+/** Which table a sheet or file name stands for (case-insensitive), or undefined. */
+export function tableOfName(name: string): ModelTable | undefined {
+  const key = headerKey(name);
+  return MODEL_TABLES.find((t) => t === key || headerKey(TABLE_TITLES[t]) === key);
+}
