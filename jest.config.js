@@ -1,5 +1,6 @@
 /** Jest projects: `server` covers the engine, the API and the server services (node, ts-jest). */
 module.exports = {
+  testTimeout: 30000,
   projects: [
     {
       displayName: 'server',

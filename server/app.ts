@@ -10,6 +10,7 @@ import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';
 import { mountRoutes, type AnyRoute } from './http/route';
 import { allRoutes } from './routes';
+import { Jobs } from './services/jobs';
 
 export const API_VERSION = '0.1.0';
 
@@ -22,7 +23,7 @@ export interface CreateAppOptions {
 
 /** Builds the Express app (no listening): /api plus the exported web build on the same origin. */
 export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppContext; routes: AnyRoute[] } {
-  const ctx: AppContext = { config: opts.config, db: opts.db, now: opts.now ?? (() => new Date()) };
+  const ctx: AppContext = { config: opts.config, db: opts.db, now: opts.now ?? (() => new Date()), jobs: new Jobs() };
   const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? 20 });
   const app = express();
   app.disable('x-powered-by');

@@ -4,6 +4,7 @@ import { buildWeb, webBuildIsStale } from './cli/webBuild';
 import { ConfigError, loadConfig } from './config';
 import { migrate, openDb } from './db';
 import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
+import { failInterruptedRuns } from './services/runs';
 
 /** `npm start`: migrate, seed the demo when the database is empty, build the web app when stale, serve. */
 async function main(): Promise<void> {
@@ -20,6 +21,8 @@ async function main(): Promise<void> {
   const db = await openDb(config.databaseUrl);
   const applied = await migrate(db);
   if (applied.length) console.log(`Migrations applied: ${applied.join(', ')}`);
+  const interrupted = await failInterruptedRuns(new Date());
+  if (interrupted) console.log(`${interrupted} interrupted study run(s) marked failed.`);
   if (await isEmpty()) {
     await seedDemo(db, config.demoPassword);
     console.log('Seeded the invented demo organization.');

@@ -4,12 +4,14 @@ import { Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import * as m001 from './migrations/001-initial';
 import * as m002 from './migrations/002-device-types';
+import * as m003 from './migrations/003-studies';
 import { initModels } from './models';
 
 /** Migrations in order. Add new ones at the end; never edit one that has shipped. */
 const MIGRATIONS = [
   { name: '001-initial', ...m001 },
   { name: '002-device-types', ...m002 },
+  { name: '003-studies', ...m003 },
 ];
 
 export interface Db {

@@ -1,6 +1,7 @@
 import type { Config } from '../config';
 import type { Db } from '../db';
 import type { Role } from '../../shared/schemas/common';
+import type { Jobs } from '../services/jobs';
 
 /** Everything a service needs, created once by createApp and passed down (no globals). */
 export interface AppContext {
@@ -8,6 +9,8 @@ export interface AppContext {
   db: Db;
   /** Injected clock, so tests can move time. */
   now: () => Date;
+  /** Background jobs (study runs). */
+  jobs: Jobs;
 }
 
 export interface AuthUser {

@@ -5,6 +5,7 @@ import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
 import { siteRoutes } from './sites';
+import { studyRoutes } from './studies';
 import { userRoutes } from './users';
 
 export interface RouteOptions {
@@ -34,5 +35,6 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     shortCircuitRoute,
     ...calcRoutes,
     ...deviceRoutes,
+    ...studyRoutes,
   ];
 }

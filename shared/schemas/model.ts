@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { deviceSchema } from './device';
+import { deviceSchema, electronicPositionsSchema } from './device';
 import { ELECTRODE_CONFIGS, EQUIPMENT_CLASSES, type ElectrodeConfig } from '../equipmentClasses';
 
 /**
@@ -250,6 +250,14 @@ export const placedDeviceSchema = z
     end: z.enum(BRANCH_ENDS).optional().describe('End of the branch the device sits at'),
     source: elementIdSchema.optional().describe('Source or motor id (instead of branch)'),
     device: deviceSchema,
+    library: z
+      .object({
+        deviceTypeId: z.string().max(64),
+        name: z.string().max(160),
+        positions: electronicPositionsSchema.optional(),
+      })
+      .optional()
+      .describe('The library device type this device was taken from, and the switch positions chosen (electronic)'),
   })
   .superRefine((d, ctx) => {
     if ((d.branch === undefined) === (d.source === undefined)) {

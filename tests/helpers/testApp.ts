@@ -9,6 +9,7 @@ import { hashPassword } from '../../server/auth/passwords';
 import { loadConfig, type Config } from '../../server/config';
 import { migrate, openDb, type Db } from '../../server/db';
 import { Organization, User } from '../../server/db/models';
+import type { AppContext } from '../../server/http/context';
 
 export const TEST_PASSWORD = 'correct-horse-battery';
 export const TEST_SECRET = 'test-secret-test-secret-test-secret-0123456789';
@@ -20,11 +21,13 @@ export interface TestOrg {
 
 export interface TestApp {
   app: Express;
+  ctx: AppContext;
   db: Db;
   config: Config;
   orgA: TestOrg;
   orgB: TestOrg;
-  setNow(d: Date): void;
+  /** Fix the server clock (null: the real clock again). */
+  setNow(d: Date | null): void;
   close(): Promise<void>;
 }
 
@@ -44,8 +47,8 @@ export async function makeTestApp(): Promise<TestApp> {
     await db.sequelize.query('DROP SCHEMA public CASCADE; CREATE SCHEMA public;');
   }
   await migrate(db);
-  let now = new Date();
-  const { app } = createApp({ config, db, now: () => now, signInLimitPerMinute: 10_000 });
+  let fixedNow: Date | null = null;
+  const { app, ctx } = createApp({ config, db, now: () => fixedNow ?? new Date(), signInLimitPerMinute: 10_000 });
   const hash = await hashPassword(TEST_PASSWORD);
   const roles: Role[] = ['admin', 'engineer', 'electrician', 'safety'];
 
@@ -66,14 +69,18 @@ export async function makeTestApp(): Promise<TestApp> {
   const orgB = await makeOrg('Test Organization B', 'org-b');
   return {
     app,
+    ctx,
     db,
     config,
     orgA,
     orgB,
     setNow: (d) => {
-      now = d;
+      fixedNow = d;
     },
-    close: () => db.close(),
+    close: async () => {
+      await ctx.jobs.idle();
+      await db.close();
+    },
   };
 }
 

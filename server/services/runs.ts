@@ -1,0 +1,125 @@
+import { randomUUID } from 'node:crypto';
+import { Op } from 'sequelize';
+import { parseModel, type Model } from '../../shared/schemas/model';
+import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
+import type { StudyResults } from '../../shared/schemas/studyResults';
+import { StudyRun } from '../db/models';
+import { createStudyRunner, DEFAULT_MOTOR_DECAY_CYCLES } from '../engine/study';
+import type { AppContext, AuthUser } from '../http/context';
+import { ApiError, modelIssuesError } from '../http/errors';
+import { recordAudit } from './audit';
+import { yieldToLoop } from './jobs';
+import { getSettings, labelSettingsOf } from './organization';
+import { findStudy, toRunDto } from './studies';
+
+interface RunSettings {
+  maxArcDurationMs: number;
+  motorDecayCycles: number;
+  labelSettings: ReturnType<typeof labelSettingsOf>;
+}
+
+/**
+ * Starts a run of a draft's current model as a background job and returns at once (202). The run row holds the
+ * model and settings snapshots, the progress, and at the end the results with their whole trace.
+ */
+export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string): Promise<RunDto> {
+  const study = await findStudy(actor, studyId);
+  if (study.status !== 'draft') throw ApiError.conflict(`Revision ${study.revision} is ${study.status}; only a draft is run`);
+  const parsed = parseModel(JSON.parse(study.model));
+  if (!parsed.success) throw modelIssuesError(parsed.issues, 'model.');
+  if (!parsed.model.buses.some((b) => b.equipment)) {
+    throw new ApiError('bad_request', 'No bus has equipment to label: give at least one bus its equipment class', { 'model.buses': 'No equipment' });
+  }
+  const active = await StudyRun.findOne({ where: { studyId: study.id, status: { [Op.in]: ['queued', 'running'] } } });
+  if (active) return toRunDto(active);
+  const settings = await getSettings(actor.organizationId);
+  const runSettings: RunSettings = {
+    maxArcDurationMs: settings.maxArcDurationMs,
+    motorDecayCycles: DEFAULT_MOTOR_DECAY_CYCLES,
+    labelSettings: labelSettingsOf(settings),
+  };
+  const run = await ctx.db.sequelize.transaction(async (transaction) => {
+    const r = await StudyRun.create(
+      {
+        id: randomUUID(),
+        organizationId: actor.organizationId,
+        studyId: study.id,
+        modelVersion: study.modelVersion,
+        status: 'queued',
+        message: 'Waiting to start',
+        modelSnapshot: JSON.stringify(parsed.model),
+        settingsSnapshot: JSON.stringify(runSettings),
+        startedById: actor.id,
+        startedAt: ctx.now(),
+      },
+      { transaction },
+    );
+    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'study.run-started', entityType: 'study', entityId: study.id, summary: { runId: r.id, modelVersion: study.modelVersion } }, transaction);
+    return r;
+  });
+  ctx.jobs.start(() => executeRun(ctx, run.id));
+  return toRunDto(run);
+}
+
+/** The job: short circuit once, then bus by bus, yielding to the event loop and recording progress as it goes. */
+export async function executeRun(ctx: AppContext, runId: string): Promise<void> {
+  const run = await StudyRun.findByPk(runId);
+  if (!run || run.status !== 'queued') return;
+  try {
+    await run.update({ status: 'running', message: 'Computing short-circuit currents', progress: 0.01 });
+    const model = JSON.parse(run.modelSnapshot) as Model;
+    const settings = JSON.parse(run.settingsSnapshot) as RunSettings;
+    const runner = createStudyRunner(model, settings);
+    const buses = [];
+    let lastWrite = Date.now();
+    for (let i = 0; i < runner.busIds.length; i++) {
+      buses.push(runner.runBus(runner.busIds[i]));
+      if (i % 10 === 9) await yieldToLoop();
+      if (Date.now() - lastWrite > 250) {
+        lastWrite = Date.now();
+        await run.update({ progress: 0.02 + 0.96 * ((i + 1) / runner.busIds.length), message: `Bus ${i + 1} of ${runner.busIds.length}` });
+      }
+    }
+    const results: StudyResults = runner.finish(buses);
+    const failed = buses.filter((b) => b.status === 'error').length;
+    await run.update({
+      status: 'done',
+      progress: 1,
+      message: `${buses.length} buses evaluated${failed ? `, ${failed} with errors` : ''}`,
+      results: JSON.stringify(results),
+      finishedAt: ctx.now(),
+    });
+  } catch (e) {
+    await run.update({ status: 'failed', message: e instanceof Error ? e.message.slice(0, 390) : 'The run failed', finishedAt: ctx.now() });
+  }
+}
+
+/** Runs left queued or running by a stopped server are marked failed at start (they can be run again). */
+export async function failInterruptedRuns(now: Date): Promise<number> {
+  const [count] = await StudyRun.update(
+    { status: 'failed', message: 'Interrupted by a server restart; run the study again', finishedAt: now },
+    { where: { status: { [Op.in]: ['queued', 'running'] } } },
+  );
+  return count;
+}
+
+export async function latestRun(actor: AuthUser, studyId: string): Promise<RunDto> {
+  const study = await findStudy(actor, studyId);
+  const run = await StudyRun.findOne({
+    where: { studyId: study.id },
+    order: [['startedAt', 'DESC']],
+    attributes: ['id', 'status', 'progress', 'message', 'modelVersion', 'startedAt', 'finishedAt'],
+  });
+  if (!run) throw ApiError.notFound('This study has not been run yet');
+  return toRunDto(run);
+}
+
+/** The results the study stands on: for an approved study the approved run; otherwise the latest finished run. */
+export async function getResults(actor: AuthUser, studyId: string): Promise<ResultsResponse> {
+  const study = await findStudy(actor, studyId);
+  const run = study.approvedRunId
+    ? await StudyRun.findByPk(study.approvedRunId)
+    : await StudyRun.findOne({ where: { studyId: study.id, status: 'done' }, order: [['startedAt', 'DESC']] });
+  if (!run || !run.results) throw ApiError.notFound('No results yet: run the study');
+  return { run: toRunDto(run), model: JSON.parse(run.modelSnapshot) as Record<string, unknown>, results: JSON.parse(run.results) as StudyResults };
+}

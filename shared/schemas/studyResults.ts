@@ -1,0 +1,114 @@
+import { z } from 'zod';
+import { tripRegionSchema } from './device';
+import { labelValuesSchema } from './labelValues';
+
+const warning = z.object({ code: z.string(), message: z.string() });
+
+/** One protective device carrying fault current for a fault at the bus, read at the current it sees during the arc. */
+export const deviceReadingSchema = z.object({
+  deviceId: z.string(),
+  name: z.string(),
+  /** Where it sits: a branch end or a source/motor. */
+  location: z.string(),
+  /** Nominal voltage where the device sits, kV (its current is in amperes at this voltage). */
+  kv: z.number(),
+  /** Current the device sees during the arc, amperes at its own voltage. */
+  currentA: z.number(),
+  /** Share of the bolted fault current through this device (current at its voltage referred to the bus voltage / Ibf). */
+  share: z.number(),
+  clearingTimeS: z.number().nullable(),
+  minimumTimeS: z.number().nullable(),
+  region: tripRegionSchema,
+  warnings: z.array(warning),
+});
+export type DeviceReading = z.infer<typeof deviceReadingSchema>;
+
+/** A stretch of the arc during which the same sources feed it (time-stepped energy with several sources). */
+export const arcIntervalSchema = z.object({
+  fromS: z.number(),
+  toS: z.number(),
+  /** Sources and motors still feeding the arc. */
+  sourceIds: z.array(z.string()),
+  boltedFaultKa: z.number(),
+  arcingCurrentKa: z.number(),
+  incidentEnergyJPerCm2: z.number(),
+});
+
+export const sourceCutSchema = z.object({
+  sourceId: z.string(),
+  kind: z.enum(['utility', 'generator', 'motor']),
+  share: z.number(),
+  /** When its contribution stops, s (the cap when nothing stops it). */
+  stopsAtS: z.number(),
+  /** The device whose opening cuts it off; null when none does before the cap (or a motor's decay ends it). */
+  cutByDeviceId: z.string().nullable(),
+  reason: z.enum(['device', 'motor-decay', 'cap']),
+});
+
+export const arcCaseTraceSchema = z.object({
+  arcCase: z.enum(['full', 'reduced']),
+  location: z.enum(['load-side', 'line-side']),
+  arcingCurrentKa: z.number(),
+  devices: z.array(deviceReadingSchema),
+  sources: z.array(sourceCutSchema),
+  intervals: z.array(arcIntervalSchema),
+  /** Arc duration used, s (after the cap). */
+  arcDurationS: z.number(),
+  arcDurationCapped: z.boolean(),
+  /** The device that ends the arc (the last to cut a source off); null when none does before the cap. */
+  clearingDeviceId: z.string().nullable(),
+  clearingRegion: tripRegionSchema.nullable(),
+  incidentEnergyJPerCm2: z.number(),
+  incidentEnergyCalPerCm2: z.number(),
+  arcFlashBoundaryMm: z.number(),
+  sentence: z.string(),
+});
+export type ArcCaseTrace = z.infer<typeof arcCaseTraceSchema>;
+
+export const busResultSchema = z
+  .object({
+    busId: z.string(),
+    busName: z.string(),
+    nominalKv: z.number(),
+    status: z.enum(['ok', 'error']),
+    error: warning.optional(),
+    equipment: z
+      .object({
+        class: z.string(),
+        electrodeConfig: z.string(),
+        gapMm: z.number(),
+        workingDistanceMm: z.number(),
+        enclosureMm: z.object({ height: z.number(), width: z.number(), depth: z.number() }).nullable(),
+        mainIsolated: z.boolean(),
+        /** Fields taken from the class's typical values. */
+        typicalValuesUsed: z.array(z.string()),
+      })
+      .optional(),
+    boltedFaultKa: z.number(),
+    xr: z.number(),
+    arcingCurrentKa: z.object({ full: z.number(), reduced: z.number() }).optional(),
+    varCf: z.number().optional(),
+    enclosureCorrectionFactor: z.number().optional(),
+    cases: z.array(arcCaseTraceSchema),
+    governing: z.object({ arcCase: z.enum(['full', 'reduced']), location: z.enum(['load-side', 'line-side']) }).optional(),
+    incidentEnergyCalPerCm2: z.number().optional(),
+    incidentEnergyJPerCm2: z.number().optional(),
+    arcFlashBoundaryMm: z.number().optional(),
+    arcDurationS: z.number().optional(),
+    clearingDeviceId: z.string().nullable().optional(),
+    labelValues: labelValuesSchema.optional(),
+    warnings: z.array(warning),
+  })
+  .meta({ id: 'BusResult' });
+export type BusResult = z.infer<typeof busResultSchema>;
+
+export const studyResultsSchema = z
+  .object({
+    method: z.string(),
+    maxArcDurationMs: z.number(),
+    motorDecayS: z.number(),
+    buses: z.array(busResultSchema),
+    warnings: z.array(warning),
+  })
+  .meta({ id: 'StudyResults' });
+export type StudyResults = z.infer<typeof studyResultsSchema>;
