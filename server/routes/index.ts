@@ -5,7 +5,7 @@ import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
 import { siteRoutes } from './sites';
-import { studyRoutes } from './studies';
+import { studyIoRoutes, studyRoutes } from './studies';
 import { userRoutes } from './users';
 
 export interface RouteOptions {
@@ -36,5 +36,6 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...calcRoutes,
     ...deviceRoutes,
     ...studyRoutes,
+    ...studyIoRoutes,
   ];
 }

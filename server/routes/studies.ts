@@ -10,7 +10,11 @@ import {
   studyListSchema,
   studySchema,
 } from '../../shared/schemas/studies';
+import { parseModel } from '../../shared/schemas/model';
+import { ApiError, modelIssuesError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
+import { multiFileUpload } from '../http/upload';
+import { exportModel, importModel } from '../io';
 import { getResults, latestRun, startRun } from '../services/runs';
 import {
   approveStudy,
@@ -150,5 +154,62 @@ export const studyRoutes: AnyRoute[] = [
     response: studySchema,
     status: 201,
     handler: ({ ctx, user, params }) => newRevision(ctx, user, params.studyId),
+  }),
+];
+
+const modelFiles = multiFileUpload({
+  field: 'files',
+  maxFiles: 10,
+  maxBytes: 20 * 1024 * 1024,
+  what: 'a workbook (.xlsx), CSV files or a JSON model',
+  accept: (_mime, name) => /\.(xlsx|csv|json)$/i.test(name),
+});
+
+export const studyIoRoutes: AnyRoute[] = [
+  defineRoute({
+    method: 'post',
+    path: '/studies/:studyId/import',
+    summary:
+      'Replace a draft’s model from a workbook (.xlsx, one sheet per element type), CSV files (one per element type) or a JSON model ' +
+      '(multipart field "files"). Nothing is written unless the whole import is valid; errors name the sheet or file, row and column.',
+    tag: 'studies',
+    access: ENGINEER,
+    middleware: [modelFiles],
+    response: modelEnvelopeSchema,
+    handler: async ({ ctx, user, params, req }) => {
+      const files = (req.files as Express.Multer.File[]).map((f) => ({ name: f.originalname, mimeType: f.mimetype, buffer: f.buffer }));
+      const result = await importModel(files);
+      if (!result.ok) {
+        const fields: Record<string, string> = {};
+        for (const e of result.errors) fields[e.where] ??= e.message;
+        const first = result.errors[0];
+        throw new ApiError('bad_request', `The import has ${result.errors.length} problem${result.errors.length === 1 ? '' : 's'}; nothing was changed. ${first.where}: ${first.message}`, fields);
+      }
+      return saveModel(ctx, user, params.studyId, result.model as unknown as Record<string, unknown>, null, 'study.model-imported', {
+        files: files.map((f) => f.name),
+      });
+    },
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/studies/:studyId/export',
+    summary: 'Download the model as JSON, a workbook (.xlsx), or one CSV table (format=csv&element=buses|sources|…).',
+    tag: 'studies',
+    access: ['engineer', 'safety', 'admin'],
+    query: z.object({
+      format: z.enum(['json', 'xlsx', 'csv']).default('json'),
+      element: z.enum(['about', 'buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices']).optional(),
+    }),
+    produces: 'application/octet-stream',
+    handler: async ({ user, params, query, res }) => {
+      const envelope = await getModelEnvelope(user, params.studyId);
+      const parsed = parseModel(envelope.model);
+      if (!parsed.success) throw modelIssuesError(parsed.issues, 'model.');
+      if (query.format === 'csv' && !query.element) throw new ApiError('bad_request', 'Name the table to export as CSV', { element: 'Required with format=csv' });
+      const file = await exportModel(parsed.model, query.format, query.element);
+      res.setHeader('Content-Type', file.mimeType);
+      res.setHeader('Content-Disposition', `attachment; filename="${file.filename}"`);
+      res.send(file.body);
+    },
   }),
 ];
