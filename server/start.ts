@@ -23,12 +23,12 @@ async function main(): Promise<void> {
   if (applied.length) console.log(`Migrations applied: ${applied.join(', ')}`);
   const interrupted = await failInterruptedRuns(new Date());
   if (interrupted) console.log(`${interrupted} interrupted study run(s) marked failed.`);
+  const { app, ctx } = createApp({ config, db });
   if (await isEmpty()) {
-    await seedDemo(db, config.demoPassword);
-    console.log('Seeded the invented demo organization.');
+    await seedDemo(ctx, config.demoPassword);
+    console.log('Seeded the invented demo organization, its site and an approved study.');
   }
   if (process.env.SKIP_WEB_BUILD !== '1' && webBuildIsStale(process.cwd(), config.webDir)) buildWeb(process.cwd(), config.webDir);
-  const { app } = createApp({ config, db });
   const server = createServer(app);
   server.listen(config.port, config.host, () => {
     console.log(`\nEmberline is serving http://localhost:${config.port}`);

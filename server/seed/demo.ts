@@ -1,10 +1,13 @@
 import { randomUUID } from 'node:crypto';
 import type { Role } from '../../shared/schemas/common';
 import { hashPassword } from '../auth/passwords';
-import type { Db } from '../db';
 import { Organization, Site, User } from '../db/models';
+import type { AppContext, AuthUser } from '../http/context';
 import { recordAudit } from '../services/audit';
 import { seedGenericLibrary } from '../services/deviceTypes';
+import { startRun } from '../services/runs';
+import { approveStudy, createStudy, saveModel, submitForReview } from '../services/studies';
+import { larkspurModel } from './larkspurModel';
 
 /** The invented demo scenario (DESIGN.md §9). Every name here is fictional. */
 export const DEMO_ORGANIZATION = 'Larkspur Valley Utility District';
@@ -26,10 +29,13 @@ export async function isEmpty(): Promise<boolean> {
   return (await Organization.count()) === 0;
 }
 
-/** Seeds the demo organization, one user per role, and the site. Runs in one transaction. */
-export async function seedDemo(db: Db, password: string): Promise<{ organizationId: string; siteId: string }> {
+/**
+ * Seeds the demo organization, one user per role, the site and its device library (one transaction), then the
+ * site's study: the model, a run, and one approved revision — through the same services the API uses.
+ */
+export async function seedDemo(ctx: AppContext, password: string): Promise<{ organizationId: string; siteId: string; studyId: string }> {
   const hash = await hashPassword(password);
-  return db.sequelize.transaction(async (transaction) => {
+  const seeded = await ctx.db.sequelize.transaction(async (transaction) => {
     const org = await Organization.create({ id: randomUUID(), name: DEMO_ORGANIZATION }, { transaction });
     for (const u of DEMO_USERS) {
       await User.create({ id: randomUUID(), organizationId: org.id, passwordHash: hash, ...u }, { transaction });
@@ -39,4 +45,27 @@ export async function seedDemo(db: Db, password: string): Promise<{ organization
     await recordAudit({ organizationId: org.id, actorId: null, action: 'demo.seeded', entityType: 'organization', entityId: org.id }, transaction);
     return { organizationId: org.id, siteId: site.id };
   });
+  const engineerRow = await User.findOne({ where: { organizationId: seeded.organizationId, role: 'engineer' } });
+  if (!engineerRow) throw new Error('demo engineer missing');
+  const engineer: AuthUser = {
+    id: engineerRow.id,
+    organizationId: engineerRow.organizationId,
+    role: 'engineer',
+    email: engineerRow.email,
+    name: engineerRow.name,
+    jti: 'seed',
+    tokenExpiresAt: new Date(0),
+  };
+  const study = await createStudy(ctx, engineer, seeded.siteId, { title: 'Arc-flash study, whole facility' });
+  await saveModel(ctx, engineer, study.id, larkspurModel() as Record<string, unknown>, null, 'study.model-imported', { files: ['demo'] });
+  await startRun(ctx, engineer, study.id);
+  await ctx.jobs.idle();
+  await submitForReview(ctx, engineer, study.id);
+  await approveStudy(ctx, engineer, study.id, {
+    approverName: engineerRow.name,
+    licenceNumber: 'PE-DEMO-0417',
+    jurisdiction: 'Larkspur Valley (fictional)',
+    confirm: true,
+  });
+  return { ...seeded, studyId: study.id };
 }

@@ -240,17 +240,22 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
         : boundaryDistanceMm(energyAt);
 
   const arcEnd = times.length ? Math.min(times[times.length - 1], input.maxArcDurationS) : 0;
-  const lastStop = [...stop.entries()].filter(([, s]) => Math.min(s.t, input.maxArcDurationS) === arcEnd);
-  const ender = lastStop.find(([, s]) => s.reason === 'device')?.[1].by ?? null;
+  // The clearing device is the one that cuts off the last utility or generator source; motors on the faulted side
+  // may keep feeding the arc until their contribution decays (stated in the sentence).
+  const stopOf = (c: Contributor) => stop.get(c.id) as { t: number; by: string | null; reason: 'device' | 'motor-decay' | 'cap' };
+  const mains = picture.contributors.filter((c) => c.kind !== 'motor');
+  const lastMain = mains.reduce<Contributor | null>((m, c) => (!m || stopOf(c).t > stopOf(m).t ? c : m), null);
+  const ender = lastMain && stopOf(lastMain).reason === 'device' ? stopOf(lastMain).by : null;
   const capped = [...stop.values()].some((s) => s.reason === 'cap');
   const endReading = readings.find((r) => r.deviceId === ender);
+  const motorTail = picture.contributors.filter((c) => c.kind === 'motor' && stopOf(c).reason === 'motor-decay' && (!lastMain || stopOf(c).t > stopOf(lastMain).t));
   const busLabel = picture.bus.id;
   const caseName = arcCase === 'full' ? 'arcing current' : 'reduced arcing current';
   const side = input.location === 'line-side' ? ' (line side of the main)' : '';
   let sentence: string;
   if (endReading && !capped) {
     const dev = byId.get(endReading.deviceId) as PathDevice;
-    const many = picture.contributors.length > 1 ? `, the last of ${picture.contributors.length} sources cut off` : '';
+    const many = mains.length > 1 ? `; it cuts off the last of ${mains.length} sources` : '';
     sentence =
       `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, ${dev.placed.id} clears in its ${REGION_LABELS[endReading.region]} ` +
       `at ${fmt(endReading.clearingTimeS as number)} s (it sees ${fmt(endReading.currentA / 1000)} kA${dev.kv !== picture.bus.nominalKv ? ` at ${fmt(dev.kv)} kV` : ''}${many}).`;
@@ -262,7 +267,10 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, no protective device clears every source before the ${fmt(input.maxArcDurationS)} s cap; the arc duration is capped` +
       (late ? ` (${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s).` : '.');
   } else {
-    sentence = `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, the arc ends at ${fmt(arcEnd)} s when the last motor contribution decays.`;
+    sentence = `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, only motors feed the arc; it ends at ${fmt(arcEnd)} s as their contribution decays.`;
+  }
+  if (motorTail.length && endReading && !capped) {
+    sentence += ` Motor contribution (${motorTail.map((m) => m.id).join(', ')}) continues until ${fmt(Math.max(...motorTail.map((m) => stopOf(m).t)))} s.`;
   }
   if (capped) {
     warnings.push({
@@ -270,7 +278,11 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       message: `${input.location === 'line-side' ? 'Line side: ' : ''}${arcCase} case: no device clears every source within ${fmt(input.maxArcDurationS)} s; the arc duration is capped there (IEEE 1584 2 s guidance; not valid where the worker cannot move away).`,
     });
   }
+  // Warnings of the devices that decide the arc duration (the others are in the trace, e.g. a feeder that only
+  // carries a little motor current and does not trip).
+  const deciding = new Set([...stop.values()].map((s) => s.by).filter((x): x is string => !!x));
   for (const r of readings) {
+    if (!deciding.has(r.deviceId)) continue;
     for (const w of r.warnings) warnings.push({ code: w.code, message: `${r.deviceId} (${arcCase}${input.location === 'line-side' ? ', line side' : ''}): ${w.message}` });
   }
   return {
