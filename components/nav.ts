@@ -23,7 +23,10 @@ export function navFor(role: Role): NavItem[] {
 }
 
 export function isActive(href: string, pathname: string): boolean {
-  return href === '/' ? pathname === '/' : pathname === href || pathname.startsWith(`${href}/`);
+  if (href === '/') return pathname === '/';
+  // Studies live under their site.
+  if (href === '/sites' && pathname.startsWith('/studies/')) return true;
+  return pathname === href || pathname.startsWith(`${href}/`);
 }
 
 /** The phone's last tab when there are more items than tabs. */

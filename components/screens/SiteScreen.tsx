@@ -1,17 +1,54 @@
-import { Link } from 'expo-router';
+import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
 import { View } from 'react-native';
+import { findEquipmentClass } from '../../shared/equipmentClasses';
+import { createStudySchema } from '../../shared/schemas/studies';
+import { serverErrors, validate } from '../../hooks/forms';
 import { useSite } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
+import { useCreateStudy, useEquipment, useStudies } from '../../hooks/studies';
+import { useLayout } from '../../hooks/useLayout';
 import { SiteForm } from '../SiteForm';
-import { colors, space } from '../theme';
-import { Button, Card, Notice, Screen, T } from '../ui';
+import { StudyList } from '../studies/StudyList';
+import { colors, fonts, space } from '../theme';
+import { Button, Card, Field, Notice, Screen, T } from '../ui';
+
+function NewStudy({ siteId, onCancel }: { siteId: string; onCancel: () => void }) {
+  const router = useRouter();
+  const create = useCreateStudy(siteId);
+  const [title, setTitle] = useState('Arc-flash study');
+  const [error, setError] = useState<string | undefined>();
+  const submit = () => {
+    const v = validate(createStudySchema, { title });
+    if (!v.ok) return setError(v.errors.title);
+    create.mutate(v.data, {
+      onSuccess: (s) => router.push(`/studies/${s.id}?tab=model` as never),
+      onError: (e) => setError(serverErrors(e).message),
+    });
+  };
+  return (
+    <Card testID="new-study">
+      <T variant="subheading">Start a study</T>
+      <T variant="small">A new draft revision with an empty model. Import a workbook, CSV files or a JSON model, or build it in the editor.</T>
+      <Field label="Title" testID="study-title" value={title} onChangeText={setTitle} error={error} />
+      <View style={{ flexDirection: 'row', gap: space.sm }}>
+        <Button title="Start the study" testID="create-study" busy={create.isPending} onPress={submit} />
+        <Button title="Cancel" kind="secondary" onPress={onCancel} />
+      </View>
+    </Card>
+  );
+}
 
 export function SiteScreen({ siteId }: { siteId: string }) {
   const user = useUser();
+  const { wide } = useLayout();
   const site = useSite(siteId);
+  const studies = useStudies(siteId);
+  const equipment = useEquipment(siteId);
   const [editing, setEditing] = useState(false);
+  const [starting, setStarting] = useState(false);
   const canEdit = user.role === 'engineer' || user.role === 'admin';
+  const canStudy = user.role === 'engineer';
 
   if (site.error) {
     return (
@@ -27,27 +64,53 @@ export function SiteScreen({ siteId }: { siteId: string }) {
   }
   if (!site.data) return <Screen title="Site"><T variant="small">Loading…</T></Screen>;
   const s = site.data;
+  const open = studies.data?.find((x) => x.status === 'draft' || x.status === 'in-review');
   return (
     <Screen
       title={s.name}
       subtitle={s.address || undefined}
-      actions={canEdit && !editing ? <Button title="Edit site" kind="secondary" testID="edit-site" onPress={() => setEditing(true)} /> : null}
+      actions={
+        <>
+          {canStudy && !starting && !open ? <Button title="Start a study" testID="start-study" onPress={() => setStarting(true)} /> : null}
+          {canEdit && !editing ? <Button title="Edit site" kind="secondary" testID="edit-site" onPress={() => setEditing(true)} /> : null}
+        </>
+      }
     >
+      {starting ? <NewStudy siteId={siteId} onCancel={() => setStarting(false)} /> : null}
       {editing ? (
         <Card>
           <T variant="subheading">Edit site</T>
           <SiteForm site={s} onDone={() => setEditing(false)} onCancel={() => setEditing(false)} />
         </Card>
-      ) : (
-        <Card>
-          <T variant="label">ABOUT THIS SITE</T>
-          <T>{s.description || 'No description.'}</T>
-          <View style={{ flexDirection: 'row', gap: space.xl, flexWrap: 'wrap' }}>
-            <T variant="small">Created {s.createdAt.slice(0, 10)}</T>
-            <T variant="small">Updated {s.updatedAt.slice(0, 10)}</T>
-          </View>
-        </Card>
-      )}
+      ) : s.description ? (
+        <T style={{ color: colors.inkSoft }}>{s.description}</T>
+      ) : null}
+
+      <View style={{ gap: space.sm }}>
+        <T variant="heading">Studies</T>
+        {studies.error ? <Notice tone="error">{studies.error.message}</Notice> : null}
+        {studies.data && studies.data.length === 0 ? (
+          <Notice>{user.role === 'electrician' ? 'No approved study yet.' : 'No study yet.'}</Notice>
+        ) : null}
+        {studies.data?.length ? <StudyList studies={studies.data} /> : null}
+      </View>
+
+      <View style={{ gap: space.sm }}>
+        <T variant="heading">Equipment</T>
+        <T variant="small">The equipment that carries labels, from the site’s approved studies.</T>
+        {equipment.data && equipment.data.length === 0 ? <Notice>No equipment yet: it appears when a study is approved.</Notice> : null}
+        <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.sm }}>
+          {equipment.data?.map((e) => (
+            <Card key={e.id} style={{ flexBasis: wide ? '31%' : 'auto', flexGrow: 1, gap: 2, padding: space.md }} testID={`equipment-${e.tag}`}>
+              <T style={{ fontFamily: fonts.numbersBold }}>{e.tag}</T>
+              <T>{e.name}</T>
+              <T variant="small">
+                {findEquipmentClass(e.equipmentClass)?.label ?? e.equipmentClass} · {e.nominalKv >= 1 ? `${e.nominalKv} kV` : `${Math.round(e.nominalKv * 1000)} V`}
+              </T>
+            </Card>
+          ))}
+        </View>
+      </View>
     </Screen>
   );
 }

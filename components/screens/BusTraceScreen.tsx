@@ -1,0 +1,251 @@
+import { useQueries } from '@tanstack/react-query';
+import { Link } from 'expo-router';
+import React, { useMemo, useState } from 'react';
+import { View } from 'react-native';
+import type { Device } from '../../shared/schemas/device';
+import type { BandCurvesResponse } from '../../shared/schemas/deviceLibrary';
+import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
+import { REGION_LABELS } from '../../shared/tripRegions';
+import { apiFetch } from '../../hooks/api';
+import { queryKeys } from '../../hooks/queryKeys';
+import { useResults, useStudy } from '../../hooks/studies';
+import { useLayout } from '../../hooks/useLayout';
+import { fmt, fmtLength } from '../../hooks/units';
+import { Cautions, HazardMark } from '../Cautions';
+import { signalPanelColors } from '../hazard';
+import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
+import { colors, fonts, radius, space } from '../theme';
+import { Card, Choice, Notice, Num, Screen, T } from '../ui';
+
+const caseKey = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) => `${c.location}:${c.arcCase}`;
+const caseTitle = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) =>
+  `${c.arcCase === 'full' ? 'Full' : 'Reduced'} arcing current${c.location === 'line-side' ? ', line side of the main' : ''}`;
+
+function Row({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.md, paddingVertical: 5, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
+      <T variant="small" style={{ color: colors.inkSoft, flexShrink: 1 }}>
+        {label}
+      </T>
+      <View style={{ alignItems: 'flex-end', flexShrink: 1 }}>{children}</View>
+    </View>
+  );
+}
+
+function LabelPreview({ b }: { b: BusResult }) {
+  const lv = b.labelValues!;
+  const panel = signalPanelColors(lv.signalWord);
+  return (
+    <View style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }} testID="bus-label-values">
+      <View style={{ backgroundColor: panel.background, flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.md }}>
+        <HazardMark size={24} />
+        <T style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 20, letterSpacing: 1 }}>{lv.signalWord}</T>
+      </View>
+      <View style={{ backgroundColor: colors.surface, padding: space.md, gap: 2 }}>
+        <T variant="label">INCIDENT ENERGY AT {fmtLength(lv.workingDistanceMm, 'in').toUpperCase()}</T>
+        <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' }}>
+          <Num value={fmt(lv.incidentEnergyCalPerCm2)} unit="cal/cm²" size={32} bold testID="trace-energy" />
+          <Num value={fmt(lv.incidentEnergyJPerCm2)} unit="J/cm²" size={16} />
+        </View>
+        <Row label="Arc-flash boundary">
+          <Num value={`${fmtLength(lv.arcFlashBoundaryMm, 'in')} (${fmtLength(lv.arcFlashBoundaryMm, 'mm')})`} size={14} />
+        </Row>
+        <Row label="Minimum arc rating">
+          <Num value={String(lv.minimumArcRatingCalPerCm2)} unit="cal/cm²" size={14} />
+        </Row>
+        <Row label="PPE level">
+          <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel?.name ?? 'None adequate'}</T>
+        </Row>
+        {lv.shockApproach ? (
+          <>
+            <Row label="Limited approach (movable / fixed)">
+              <T>
+                {lv.shockApproach.limitedApproachMovable.text} / {lv.shockApproach.limitedApproachFixed.text}
+              </T>
+            </Row>
+            <Row label="Restricted approach">
+              <T>{lv.shockApproach.restrictedApproach.text}</T>
+            </Row>
+          </>
+        ) : null}
+        <Row label="Gloves">
+          <T>{lv.gloveClass ? `Class ${lv.gloveClass.class}` : '—'}</T>
+        </Row>
+        <Row label="Clearing device">
+          <T style={{ fontFamily: fonts.numbersBold }}>{b.clearingDeviceId ?? 'none before the cap'}</T>
+        </Row>
+      </View>
+    </View>
+  );
+}
+
+function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
+  const sorted = [...c.devices].sort((a, b) => (a.clearingTimeS ?? Infinity) - (b.clearingTimeS ?? Infinity));
+  return (
+    <View style={{ gap: 4 }} testID={`devices-${caseKey(c)}`}>
+      {sorted.map((d) => {
+        const decides = c.sources.some((s) => s.cutByDeviceId === d.deviceId);
+        return (
+          <View
+            key={d.deviceId}
+            style={{ padding: space.sm, borderRadius: radius.sm, borderWidth: d.deviceId === c.clearingDeviceId ? 2 : 1, borderColor: d.deviceId === c.clearingDeviceId ? colors.ink : colors.lineSoft, gap: 2 }}
+          >
+            <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}>
+              <T style={{ fontFamily: fonts.numbersBold }}>
+                {d.deviceId}
+                {d.deviceId === c.clearingDeviceId ? ' · clears the arc' : decides ? ' · cuts off a source' : ''}
+              </T>
+              <T style={{ fontFamily: fonts.numbers }}>{d.clearingTimeS === null ? 'does not clear' : `${fmt(d.clearingTimeS)} s`}</T>
+            </View>
+            <T variant="small">
+              {d.name} · {d.location}
+            </T>
+            <T variant="small">
+              Sees <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(d.currentA / 1000)} kA</T>
+              {d.kv !== busKv ? ` at ${fmt(d.kv)} kV` : ''} ({fmt(d.share * 100)} % of the fault) · {REGION_LABELS[d.region]}
+              {d.minimumTimeS !== null ? ` · minimum ${fmt(d.minimumTimeS)} s` : ''}
+            </T>
+          </View>
+        );
+      })}
+    </View>
+  );
+}
+
+/** The clearing trace of one bus: every number on its label traced to the device, the region of its band and the current. */
+export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: string }) {
+  const { wide } = useLayout();
+  const study = useStudy(studyId);
+  const results = useResults(studyId);
+  const bus = results.data?.results.buses.find((b) => b.busId === busId);
+  const [selected, setSelected] = useState<string | null>(null);
+  const current = bus && bus.governing ? (bus.cases.find((c) => caseKey(c) === (selected ?? caseKey(bus.governing!))) ?? bus.cases[0]) : undefined;
+
+  // Devices of the selected case that clear, fastest first (at most six on the plot).
+  const plotted = useMemo(() => (current ? current.devices.filter((d) => d.clearingTimeS !== null).sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number)).slice(0, 6) : []), [current]);
+  const modelDevices = (results.data?.model.devices ?? []) as { id: string; device: Device }[];
+  const curves = useQueries({
+    queries: plotted.map((d) => {
+      const device = modelDevices.find((m) => m.id === d.deviceId)?.device;
+      const json = JSON.stringify(device ?? null);
+      return {
+        queryKey: queryKeys.bandCurves(json),
+        queryFn: () => apiFetch<BandCurvesResponse>('/calc/band-curves', { method: 'POST', body: { device } }),
+        enabled: !!device,
+        staleTime: Infinity,
+      };
+    }),
+  });
+
+  if (results.isLoading || study.isLoading) return <Screen title={busId}><T variant="small">Loading…</T></Screen>;
+  if (results.error) return <Screen title={busId}><Notice tone="error">{results.error.message}</Notice></Screen>;
+  if (!bus) return <Screen title={busId}><Notice tone="error">This bus has no result in the study.</Notice></Screen>;
+
+  const busKv = bus.nominalKv;
+  const refer = (a: number, kv: number) => (a * kv) / busKv;
+  const reviewed = study.data?.status === 'approved';
+  const iarc = (arcCase: 'full' | 'reduced') => bus.cases.find((c) => c.arcCase === arcCase && c.location === (current?.location ?? 'load-side'))?.arcingCurrentKa;
+
+  const plot = current ? (
+    <Card testID="trace-plot">
+      <T variant="subheading">Trip bands at {fmt(busKv)} kV</T>
+      <T variant="small">Device currents referred to the bus voltage. Vertical lines: the bus arcing currents; dots: where each device clears the current it sees.</T>
+      <TimeCurrentPlot
+        testID="trace-tcc"
+        currentUnit="A"
+        series={plotted.flatMap((d, i) => {
+          const data = curves[i]?.data;
+          return data ? [{ id: d.deviceId, label: `${d.deviceId} (${d.name})`, min: data.min.map(([a, t]) => [refer(a, d.kv), t] as const), max: data.max.map(([a, t]) => [refer(a, d.kv), t] as const) }] : [];
+        })}
+        verticals={[
+          ...(iarc('full') ? [{ currentA: iarc('full')! * 1000, label: 'Full arcing', tone: 'full' as const }] : []),
+          ...(iarc('reduced') ? [{ currentA: iarc('reduced')! * 1000, label: 'Reduced arcing', tone: 'reduced' as const }] : []),
+        ]}
+        marks={plotted.map((d) => ({ currentA: refer(d.currentA, d.kv), timeS: d.clearingTimeS as number, label: d.deviceId, seriesId: d.deviceId }))}
+        emptyMessage={plotted.length ? 'Loading the bands…' : 'No device clears in this case.'}
+      />
+    </Card>
+  ) : null;
+
+  const detail = current ? (
+    <View style={{ gap: space.lg }}>
+      <Card>
+        <T variant="subheading">Cases</T>
+        <Choice value={caseKey(current)} onChange={setSelected} testID="case" options={bus.cases.map((c) => ({ value: caseKey(c), label: `${caseTitle(c)}${bus.governing && caseKey(c) === caseKey(bus.governing) ? ' · governs' : ''}` }))} />
+        <T testID="trace-sentence" style={{ fontSize: 17, lineHeight: 25 }}>
+          {current.sentence}
+        </T>
+        <Row label="Arcing current at the bus">
+          <Num value={fmt(current.arcingCurrentKa)} unit="kA" size={14} />
+        </Row>
+        <Row label="Arc duration">
+          <Num value={`${fmt(current.arcDurationS)} s${current.arcDurationCapped ? ' (capped)' : ''}`} size={14} />
+        </Row>
+        <Row label="Incident energy">
+          <Num value={fmt(current.incidentEnergyCalPerCm2)} unit="cal/cm²" size={14} />
+        </Row>
+        <Row label="Arc-flash boundary">
+          <Num value={fmtLength(current.arcFlashBoundaryMm, 'mm')} size={14} />
+        </Row>
+        {current.intervals.length > 1 ? (
+          <View style={{ gap: 4, marginTop: space.sm }} testID="intervals">
+            <T variant="label">ENERGY BY INTERVAL (SOURCES CUT OFF ONE BY ONE)</T>
+            {current.intervals.map((i) => (
+              <T key={i.fromS} variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
+                {fmt(i.fromS)}–{fmt(i.toS)} s · {i.sourceIds.join(', ')} · Ibf {fmt(i.boltedFaultKa)} kA · Iarc {fmt(i.arcingCurrentKa)} kA · {fmt(i.incidentEnergyJPerCm2 / 4.184)} cal/cm²
+              </T>
+            ))}
+          </View>
+        ) : null}
+      </Card>
+      <Card>
+        <T variant="subheading">Devices carrying fault current</T>
+        <DeviceTable c={current} busKv={busKv} />
+      </Card>
+    </View>
+  ) : null;
+
+  return (
+    <Screen title={`${bus.busId} · ${bus.busName}`} subtitle={`Clearing trace · ${fmt(busKv)} kV · bolted fault ${fmt(bus.boltedFaultKa)} kA (X/R ${fmt(bus.xr)})`}>
+      <Link href={`/studies/${studyId}?tab=results` as never} style={{ color: colors.accent, fontSize: 16 }}>
+        ← All results
+      </Link>
+      {!reviewed ? (
+        <Notice tone="warning" title="Preliminary">
+          Not reviewed or approved: do not use for labels or work planning.
+        </Notice>
+      ) : null}
+      {bus.status === 'error' ? <Notice tone="error" title="This bus could not be evaluated">{bus.error?.message ?? ''}</Notice> : null}
+      {bus.warnings.length ? (
+        <Notice tone="warning" title={`${bus.warnings.length} warning${bus.warnings.length > 1 ? 's' : ''}`} testID="trace-warnings">
+          <View style={{ gap: 3 }}>
+            {bus.warnings.map((w) => (
+              <T key={w.code + w.message} variant="small" style={{ color: colors.caution }}>
+                <T style={{ fontFamily: fonts.numbersBold, fontSize: 12, color: colors.caution }}>{w.code}</T> {w.message}
+              </T>
+            ))}
+          </View>
+        </Notice>
+      ) : null}
+      {wide ? (
+        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
+          <View style={{ flex: 1.3, gap: space.lg }}>
+            {plot}
+            {detail}
+          </View>
+          <View style={{ flex: 1, gap: space.lg }}>
+            {bus.labelValues ? <LabelPreview b={bus} /> : null}
+            <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={bus.incidentEnergyCalPerCm2} />
+          </View>
+        </View>
+      ) : (
+        <>
+          {bus.labelValues ? <LabelPreview b={bus} /> : null}
+          {plot}
+          {detail}
+          <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={bus.incidentEnergyCalPerCm2} />
+        </>
+      )}
+    </Screen>
+  );
+}

@@ -1,0 +1,191 @@
+import React, { useDeferredValue, useEffect, useMemo, useState } from 'react';
+import { Platform, View } from 'react-native';
+import { parseModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
+import type { StudyDto } from '../../shared/schemas/studies';
+import { downloadFile } from '../../hooks/download';
+import { serverErrors } from '../../hooks/forms';
+import { useDeviceTypes } from '../../hooks/queries';
+import { useUser } from '../../hooks/session';
+import { useImportModel, useSaveModel, useStudyModel } from '../../hooks/studies';
+import { ModelEditor } from '../model/ModelEditor';
+import { SystemTree } from '../model/SystemTree';
+import { colors, space } from '../theme';
+import { Button, Card, Choice, Notice, T } from '../ui';
+
+const TABLES = ['buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices'] as const;
+
+function ImportExport({ study, editable, onImported }: { study: StudyDto; editable: boolean; onImported: () => void }) {
+  const imp = useImportModel(study.id);
+  const [table, setTable] = useState<(typeof TABLES)[number]>('buses');
+  const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string; lines?: string[] } | null>(null);
+  const download = (query: string, name: string) =>
+    downloadFile(`/studies/${study.id}/export?${query}`, name).catch((e) => setMessage({ tone: 'error', text: serverErrors(e).message }));
+  const onFiles = (files: File[]) => {
+    setMessage(null);
+    imp.mutate(files, {
+      onSuccess: (env) => {
+        setMessage({ tone: 'ok', text: `Imported ${files.map((f) => f.name).join(', ')}: model version ${env.version}.` });
+        onImported();
+      },
+      onError: (e) => {
+        const s = serverErrors(e);
+        setMessage({ tone: 'error', text: s.message, lines: Object.entries(s.fields).map(([k, v]) => `${k}: ${v}`) });
+      },
+    });
+  };
+  return (
+    <Card testID="import-export">
+      <T variant="subheading">Import and export</T>
+      {message ? (
+        <Notice tone={message.tone} testID="import-message">
+          <View style={{ gap: 2 }}>
+            <T style={{ color: message.tone === 'ok' ? colors.ok : colors.danger }}>{message.text}</T>
+            {message.lines?.slice(0, 12).map((l) => (
+              <T key={l} variant="small" style={{ color: colors.danger }}>
+                • {l}
+              </T>
+            ))}
+          </View>
+        </Notice>
+      ) : null}
+      {editable && Platform.OS === 'web' ? (
+        <View style={{ gap: 4 }}>
+          <T variant="label">IMPORT (REPLACES THE MODEL; NOTHING CHANGES UNLESS THE WHOLE FILE IS VALID)</T>
+          {React.createElement('input', {
+            type: 'file',
+            multiple: true,
+            accept: '.xlsx,.csv,.json',
+            'data-testid': 'model-file-input',
+            onChange: (e: { target: { files?: FileList | null; value: string } }) => {
+              const files = Array.from(e.target.files ?? []);
+              e.target.value = '';
+              if (files.length) onFiles(files);
+            },
+            style: { fontSize: 15, padding: 8 },
+          })}
+          <T variant="small">A workbook (one sheet per element type), CSV files (one per element type, e.g. buses.csv), or a JSON model.</T>
+        </View>
+      ) : null}
+      <T variant="label">EXPORT</T>
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+        <Button title="Workbook (.xlsx)" kind="secondary" testID="export-xlsx" onPress={() => void download('format=xlsx', 'model.xlsx')} />
+        <Button title="JSON" kind="secondary" testID="export-json" onPress={() => void download('format=json', 'model.json')} />
+      </View>
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' }}>
+        <Choice value={table} options={TABLES.map((t) => ({ value: t, label: t }))} onChange={setTable} />
+        <Button title="CSV of this table" kind="secondary" onPress={() => void download(`format=csv&element=${table}`, `${table}.csv`)} />
+      </View>
+    </Card>
+  );
+}
+
+/** The model of a revision: editor (drafts, engineers), system tree, import and export, save with a version check. */
+export function ModelPanel({ study }: { study: StudyDto }) {
+  const user = useUser();
+  const editable = user.role === 'engineer' && study.status === 'draft';
+  const envelope = useStudyModel(study.id);
+  const deviceTypes = useDeviceTypes();
+  const save = useSaveModel(study.id);
+  const [draft, setDraft] = useState<ModelInput | null>(null);
+  const [baseVersion, setBaseVersion] = useState(0);
+  const [dirty, setDirty] = useState(false);
+  const [conflict, setConflict] = useState<string | null>(null);
+  const [saved, setSaved] = useState<string | null>(null);
+  const [focus, setFocus] = useState<{ collection: string; index: number } | null>(null);
+  const [showTree, setShowTree] = useState(true);
+
+  useEffect(() => {
+    // Only a clean editor follows the server; unsaved edits are never overwritten silently.
+    if (envelope.data && !dirty) {
+      setDraft(envelope.data.model as ModelInput);
+      setBaseVersion(envelope.data.version);
+    }
+  }, [envelope.data, dirty]);
+
+  const deferred = useDeferredValue(draft);
+  const issues: ModelIssue[] = useMemo(() => {
+    if (!deferred) return [];
+    const r = parseModel(deferred);
+    return r.success ? [] : r.issues;
+  }, [deferred]);
+
+  if (envelope.error) return <Notice tone="error">{envelope.error.message}</Notice>;
+  if (!draft) return <T variant="small">Loading the model…</T>;
+
+  const onSave = () => {
+    setConflict(null);
+    setSaved(null);
+    save.mutate(
+      { model: draft as Record<string, unknown>, version: baseVersion },
+      {
+        onSuccess: (env) => {
+          setBaseVersion(env.version);
+          setDirty(false);
+          setSaved(`Saved as model version ${env.version}${env.issues.length ? ` — ${env.issues.length} problem(s) to fix before a run` : ''}.`);
+        },
+        onError: (e) => setConflict(serverErrors(e).message),
+      },
+    );
+  };
+
+  const reload = () => {
+    setDirty(false);
+    setConflict(null);
+    void envelope.refetch().then((r) => {
+      if (r.data) {
+        setDraft(r.data.model as ModelInput);
+        setBaseVersion(r.data.version);
+      }
+    });
+  };
+
+  return (
+    <View style={{ gap: space.lg }}>
+      {!editable ? (
+        <Notice>
+          {study.status === 'draft' ? 'Only engineers edit the model.' : `Revision ${study.revision} is ${study.status}: its model is read-only. Start a new revision to change it.`}
+        </Notice>
+      ) : null}
+      {editable ? (
+        <Card style={{ flexDirection: 'row', alignItems: 'center', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm, paddingVertical: space.md }}>
+          <T testID="model-state" style={{ color: dirty ? colors.caution : colors.muted }}>
+            {dirty ? 'Unsaved changes' : `Saved · model version ${baseVersion}`}
+            {issues.length ? ` · ${issues.length} problem${issues.length === 1 ? '' : 's'}` : ' · no problems'}
+          </T>
+          <Button title="Save model" testID="save-model" disabled={!dirty} busy={save.isPending} onPress={onSave} />
+        </Card>
+      ) : null}
+      {saved ? <Notice tone="ok">{saved}</Notice> : null}
+      {conflict ? (
+        <Notice tone="error" title="Not saved">
+          <View style={{ gap: space.sm }}>
+            <T style={{ color: colors.danger }}>{conflict}</T>
+            <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+              <Button title="Reload the saved model (drops my changes)" kind="secondary" onPress={reload} />
+            </View>
+          </View>
+        </Notice>
+      ) : null}
+      <ImportExport study={study} editable={editable} onImported={reload} />
+      <Card>
+        <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' }}>
+          <T variant="subheading">System tree</T>
+          <Button title={showTree ? 'Hide' : 'Show'} kind="quiet" onPress={() => setShowTree((s) => !s)} />
+        </View>
+        {showTree ? <SystemTree model={draft} onSelect={(ref) => setFocus({ ...ref })} /> : null}
+      </Card>
+      <ModelEditor
+        model={draft}
+        onChange={(m) => {
+          setDraft(m);
+          setDirty(true);
+          setSaved(null);
+        }}
+        issues={issues}
+        editable={editable}
+        deviceTypes={deviceTypes.data ?? []}
+        focus={focus}
+      />
+    </View>
+  );
+}

@@ -1,0 +1,17 @@
+import React from 'react';
+import { View } from 'react-native';
+import { colors, radius } from '../theme';
+
+export function ProgressBar({ value, testID }: { value: number; testID?: string }) {
+  const pct = Math.max(0, Math.min(1, value)) * 100;
+  return (
+    <View
+      testID={testID}
+      accessibilityRole="progressbar"
+      accessibilityValue={{ min: 0, max: 100, now: Math.round(pct) }}
+      style={{ height: 12, borderRadius: radius.sm, backgroundColor: colors.lineSoft, overflow: 'hidden' }}
+    >
+      <View style={{ width: `${pct}%`, height: '100%', backgroundColor: colors.accent }} />
+    </View>
+  );
+}

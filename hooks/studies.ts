@@ -1,0 +1,118 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ApproveInput, EquipmentDto, ModelEnvelope, ResultsResponse, RunDto, StudyDto } from '../shared/schemas/studies';
+import { apiFetch } from './api';
+import { queryKeys } from './queryKeys';
+
+const enc = encodeURIComponent;
+
+export function useStudies(siteId: string) {
+  return useQuery({
+    queryKey: queryKeys.studies.bySite(siteId),
+    queryFn: async () => (await apiFetch<{ studies: StudyDto[] }>(`/sites/${enc(siteId)}/studies`)).studies,
+  });
+}
+
+export function useEquipment(siteId: string) {
+  return useQuery({
+    queryKey: queryKeys.equipment(siteId),
+    queryFn: async () => (await apiFetch<{ equipment: EquipmentDto[] }>(`/sites/${enc(siteId)}/equipment`)).equipment,
+  });
+}
+
+export function useStudy(id: string) {
+  return useQuery({ queryKey: queryKeys.studies.detail(id), queryFn: () => apiFetch<StudyDto>(`/studies/${enc(id)}`) });
+}
+
+export function useCreateStudy(siteId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { title: string }) => apiFetch<StudyDto>(`/sites/${enc(siteId)}/studies`, { method: 'POST', body: input }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.studies.all() }),
+  });
+}
+
+export function useStudyModel(id: string, enabled = true) {
+  return useQuery({ queryKey: queryKeys.studies.model(id), queryFn: () => apiFetch<ModelEnvelope>(`/studies/${enc(id)}/model`), enabled });
+}
+
+export function useSaveModel(id: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { model: Record<string, unknown>; version: number }) =>
+      apiFetch<ModelEnvelope>(`/studies/${enc(id)}/model`, { method: 'PUT', body: input }),
+    onSuccess: (env) => {
+      qc.setQueryData(queryKeys.studies.model(id), env);
+      void qc.invalidateQueries({ queryKey: queryKeys.studies.detail(id) });
+    },
+  });
+}
+
+export function useImportModel(id: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (files: File[]) => {
+      const form = new FormData();
+      for (const f of files) form.append('files', f);
+      return apiFetch<ModelEnvelope>(`/studies/${enc(id)}/import`, { method: 'POST', formData: form });
+    },
+    onSuccess: (env) => {
+      qc.setQueryData(queryKeys.studies.model(id), env);
+      void qc.invalidateQueries({ queryKey: queryKeys.studies.detail(id) });
+    },
+  });
+}
+
+/** The latest run; polls every second while it is queued or running. */
+export function useRun(id: string) {
+  return useQuery({
+    queryKey: queryKeys.studies.run(id),
+    queryFn: async () => {
+      try {
+        return await apiFetch<RunDto>(`/studies/${enc(id)}/run`);
+      } catch (e) {
+        if ((e as { status?: number }).status === 404) return null;
+        throw e;
+      }
+    },
+    refetchInterval: (q) => (q.state.data && (q.state.data.status === 'queued' || q.state.data.status === 'running') ? 1000 : false),
+  });
+}
+
+export function useStartRun(id: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => apiFetch<RunDto>(`/studies/${enc(id)}/run`, { method: 'POST' }),
+    onSuccess: (run) => {
+      qc.setQueryData(queryKeys.studies.run(id), run);
+    },
+  });
+}
+
+export function useResults(id: string, enabled = true) {
+  return useQuery({
+    queryKey: queryKeys.studies.results(id),
+    queryFn: async () => {
+      try {
+        return await apiFetch<ResultsResponse>(`/studies/${enc(id)}/results`);
+      } catch (e) {
+        if ((e as { status?: number }).status === 404) return null;
+        throw e;
+      }
+    },
+    enabled,
+    staleTime: 60_000,
+  });
+}
+
+function useStudyAction<I = void>(id: string, path: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: I) => apiFetch<StudyDto>(`/studies/${enc(id)}/${path}`, { method: 'POST', body: body ?? undefined }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.studies.all() }),
+  });
+}
+
+export const useSubmitStudy = (id: string) => useStudyAction(id, 'submit');
+export const useReturnToDraft = (id: string) => useStudyAction(id, 'return-to-draft');
+export const useApproveStudy = (id: string) => useStudyAction<ApproveInput>(id, 'approve');
+export const useReviseStudy = (id: string) => useStudyAction(id, 'revise');
