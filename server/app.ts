@@ -19,12 +19,13 @@ export interface CreateAppOptions {
   db: Db;
   now?: () => Date;
   signInLimitPerMinute?: number;
+  publicCheckPerMinute?: number;
 }
 
 /** Builds the Express app (no listening): /api plus the exported web build on the same origin. */
 export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppContext; routes: AnyRoute[] } {
   const ctx: AppContext = { config: opts.config, db: opts.db, now: opts.now ?? (() => new Date()), jobs: new Jobs() };
-  const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? 20 });
+  const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? 20, publicCheckPerMinute: opts.publicCheckPerMinute ?? 120 });
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

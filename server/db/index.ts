@@ -5,6 +5,7 @@ import { SequelizeStorage, Umzug } from 'umzug';
 import * as m001 from './migrations/001-initial';
 import * as m002 from './migrations/002-device-types';
 import * as m003 from './migrations/003-studies';
+import * as m004 from './migrations/004-labels';
 import { initModels } from './models';
 
 /** Migrations in order. Add new ones at the end; never edit one that has shipped. */
@@ -12,6 +13,7 @@ const MIGRATIONS = [
   { name: '001-initial', ...m001 },
   { name: '002-device-types', ...m002 },
   { name: '003-studies', ...m003 },
+  { name: '004-labels', ...m004 },
 ];
 
 export interface Db {

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { authRoutes } from './auth';
 import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
+import { labelRoutes } from './labels';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
 import { siteRoutes } from './sites';
@@ -10,6 +11,7 @@ import { userRoutes } from './users';
 
 export interface RouteOptions {
   signInLimitPerMinute: number;
+  publicCheckPerMinute: number;
 }
 
 /** Every API route, in one table: the router, the OpenAPI document and the access tests read it. */
@@ -37,5 +39,6 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...deviceRoutes,
     ...studyRoutes,
     ...studyIoRoutes,
+    ...labelRoutes({ publicCheckPerMinute: opts.publicCheckPerMinute }),
   ];
 }

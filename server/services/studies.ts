@@ -5,7 +5,10 @@ import type { ApproveInput, EquipmentDto, ModelEnvelope, RunDto, StudyDto } from
 import { Equipment, Site, Study, StudyRun, User } from '../db/models';
 import type { AppContext, AuthUser } from '../http/context';
 import { ApiError } from '../http/errors';
+import type { StudyResults } from '../../shared/schemas/studyResults';
 import { recordAudit } from './audit';
+import { addMonths } from './dates';
+import { issueLabels } from './labels';
 import { getSettings } from './organization';
 
 /** Electricians see approved work only (and what it superseded); every other role sees every revision. */
@@ -13,12 +16,6 @@ const VISIBLE_TO_ELECTRICIANS = ['approved', 'superseded'];
 
 export function emptyModel(name: string): Record<string, unknown> {
   return { format: MODEL_FORMAT, version: MODEL_VERSION, name, frequencyHz: 60, buses: [], sources: [], transformers: [], cables: [], motors: [], ties: [], devices: [] };
-}
-
-export function addMonths(d: Date, months: number): Date {
-  const out = new Date(d.getTime());
-  out.setUTCMonth(out.getUTCMonth() + months);
-  return out;
 }
 
 export function toRunDto(r: StudyRun): RunDto {
@@ -269,6 +266,7 @@ export async function approveStudy(ctx: AppContext, actor: AuthUser, studyId: st
       { transaction },
     );
     await upsertEquipment(JSON.parse(run.modelSnapshot) as Model, s, transaction);
+    const issued = await issueLabels(s, JSON.parse(run.results ?? '{"buses":[]}') as StudyResults, now, settings.reviewIntervalMonths, transaction);
     await recordAudit(
       {
         organizationId: actor.organizationId,
@@ -276,7 +274,7 @@ export async function approveStudy(ctx: AppContext, actor: AuthUser, studyId: st
         action: 'study.approved',
         entityType: 'study',
         entityId: s.id,
-        summary: { revision: s.revision, approverName: input.approverName, licenceNumber: input.licenceNumber, jurisdiction: input.jurisdiction, runId: run.id },
+        summary: { revision: s.revision, approverName: input.approverName, licenceNumber: input.licenceNumber, jurisdiction: input.jurisdiction, runId: run.id, labelsIssued: issued },
       },
       transaction,
     );

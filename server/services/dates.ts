@@ -1,0 +1,6 @@
+/** Calendar months later, in UTC (review intervals). */
+export function addMonths(d: Date, months: number): Date {
+  const out = new Date(d.getTime());
+  out.setUTCMonth(out.getUTCMonth() + months);
+  return out;
+}

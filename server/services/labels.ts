@@ -1,0 +1,221 @@
+import { randomBytes, randomUUID } from 'node:crypto';
+import { Op, type Transaction } from 'sequelize';
+import type { LabelCheck, LabelContent, LabelDto, LabelStatus } from '../../shared/schemas/labels';
+import type { StudyResults } from '../../shared/schemas/studyResults';
+import { FieldReport, Label, Site, type Study, User } from '../db/models';
+import type { AppContext, AuthUser } from '../http/context';
+import { ApiError } from '../http/errors';
+import { recordAudit } from './audit';
+import { addMonths } from './dates';
+
+/** Crockford base32: no I, L, O, U, so a code read aloud or typed from a label is unambiguous. */
+const ALPHABET = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
+
+/** 80 random bits as 16 base32 characters (DESIGN §7: an unguessable code, at least 64 bits). */
+export function newLabelCode(): string {
+  const bytes = randomBytes(10);
+  let bits = 0;
+  let value = 0;
+  let out = '';
+  for (const b of bytes) {
+    value = (value << 8) | b;
+    bits += 8;
+    while (bits >= 5) {
+      out += ALPHABET[(value >>> (bits - 5)) & 31];
+      bits -= 5;
+    }
+  }
+  return out;
+}
+
+/** Codes are typed by people: accept lower case, spaces and dashes, and the look-alikes O→0, I/L→1. */
+export function normalizeCode(raw: string): string {
+  return raw.toUpperCase().replace(/[\s-]/g, '').replace(/O/g, '0').replace(/[IL]/g, '1');
+}
+
+const day = (d: Date) => d.toISOString().slice(0, 10);
+
+export const LABEL_CAUTION =
+  'Values from an engineering study (IEEE 1584-2018). De-energize where possible; follow the electrical safety program.';
+
+/** Label content of every labelled bus of an approved run (a snapshot: it never changes afterwards). */
+export function labelContents(
+  results: StudyResults,
+  study: Study,
+  site: Site,
+  approvedAt: Date,
+  reviewBy: Date,
+): { tag: string; content: LabelContent }[] {
+  const out: { tag: string; content: LabelContent }[] = [];
+  for (const b of results.buses) {
+    const lv = b.labelValues;
+    if (b.status !== 'ok' || !lv) continue;
+    const governing = b.cases.find((c) => c.arcCase === b.governing?.arcCase && c.location === b.governing?.location);
+    out.push({
+      tag: b.busId,
+      content: {
+        signalWord: lv.signalWord,
+        equipmentTag: b.busId,
+        equipmentName: b.busName,
+        siteName: site.name,
+        nominalVoltageV: lv.nominalVoltageV,
+        incidentEnergyCalPerCm2: lv.incidentEnergyCalPerCm2,
+        incidentEnergyJPerCm2: lv.incidentEnergyJPerCm2,
+        workingDistanceMm: lv.workingDistanceMm,
+        arcFlashBoundaryMm: lv.arcFlashBoundaryMm,
+        minimumArcRatingCalPerCm2: lv.minimumArcRatingCalPerCm2,
+        ppeLevel: lv.noAdequatePpe ? null : (lv.ppeLevel?.name ?? null),
+        noAdequatePpe: lv.noAdequatePpe || !lv.ppeLevel,
+        limitedApproachMovable: lv.shockApproach?.limitedApproachMovable.text ?? null,
+        limitedApproachFixed: lv.shockApproach?.limitedApproachFixed.text ?? null,
+        restrictedApproach: lv.shockApproach?.restrictedApproach.text ?? null,
+        gloveClass: lv.gloveClass ? `Class ${lv.gloveClass.class}` : null,
+        clearingDevice: governing?.clearingDeviceId
+          ? `${governing.clearingDeviceId}${governing.devices.find((d) => d.deviceId === governing.clearingDeviceId)?.name ? ` (${governing.devices.find((d) => d.deviceId === governing.clearingDeviceId)?.name})` : ''}`
+          : null,
+        governingCase: `${b.governing?.arcCase === 'reduced' ? 'reduced' : 'full'} arcing current${b.governing?.location === 'line-side' ? ', line side of the main' : ''}`,
+        studyTitle: study.title,
+        studyRevision: study.revision,
+        studyDate: day(approvedAt),
+        reviewByDate: day(reviewBy),
+        approvedBy: `${study.approverName ?? ''}, licence ${study.licenceNumber ?? ''} (${study.jurisdiction ?? ''})`,
+        caution: LABEL_CAUTION,
+      },
+    });
+  }
+  return out;
+}
+
+/**
+ * Issues the labels of a revision being approved (inside the approval transaction) and supersedes the labels of
+ * the site's earlier revisions.
+ */
+export async function issueLabels(
+  study: Study,
+  results: StudyResults,
+  approvedAt: Date,
+  reviewIntervalMonths: number,
+  transaction: Transaction,
+): Promise<number> {
+  const site = await Site.findByPk(study.siteId, { transaction });
+  if (!site) throw ApiError.notFound('No such site');
+  await Label.update(
+    { supersededAt: approvedAt },
+    { where: { siteId: study.siteId, studyId: { [Op.ne]: study.id }, supersededAt: null }, transaction },
+  );
+  const reviewBy = addMonths(approvedAt, reviewIntervalMonths);
+  const contents = labelContents(results, study, site, approvedAt, reviewBy);
+  for (const c of contents) {
+    await Label.create(
+      {
+        id: randomUUID(),
+        organizationId: study.organizationId,
+        siteId: study.siteId,
+        studyId: study.id,
+        equipmentTag: c.tag,
+        code: newLabelCode(),
+        content: JSON.stringify(c.content),
+        reviewBy,
+        issuedAt: approvedAt,
+      },
+      { transaction },
+    );
+  }
+  return contents.length;
+}
+
+export function labelStatus(label: Pick<Label, 'supersededAt' | 'reviewBy'>, now: Date): LabelStatus {
+  if (label.supersededAt) return 'superseded';
+  if (label.reviewBy < now) return 'past-review';
+  return 'current';
+}
+
+export async function toLabelDtos(labels: Label[], now: Date): Promise<LabelDto[]> {
+  const ids = [...new Set(labels.map((l) => l.installedById).filter((x): x is string => !!x))];
+  const users = new Map((await User.findAll({ where: { id: ids } })).map((u) => [u.id, u.name]));
+  return labels.map((l) => ({
+    id: l.id,
+    code: l.code,
+    siteId: l.siteId,
+    studyId: l.studyId,
+    equipmentTag: l.equipmentTag,
+    status: labelStatus(l, now),
+    content: JSON.parse(l.content) as LabelContent,
+    issuedAt: l.issuedAt.toISOString(),
+    printedAt: l.printedAt ? l.printedAt.toISOString() : null,
+    installedAt: l.installedAt ? l.installedAt.toISOString() : null,
+    installedBy: l.installedById ? (users.get(l.installedById) ?? null) : null,
+    supersededAt: l.supersededAt ? l.supersededAt.toISOString() : null,
+  }));
+}
+
+export async function listLabels(ctx: AppContext, actor: AuthUser, filter: { siteId?: string; studyId?: string; current?: boolean }): Promise<LabelDto[]> {
+  const where: Record<string, unknown> = { organizationId: actor.organizationId };
+  if (filter.siteId) where.siteId = filter.siteId;
+  if (filter.studyId) where.studyId = filter.studyId;
+  if (filter.current) where.supersededAt = null;
+  const rows = await Label.findAll({ where, order: [['equipmentTag', 'ASC'], ['issuedAt', 'DESC']] });
+  return toLabelDtos(rows, ctx.now());
+}
+
+export async function findLabel(actor: AuthUser, labelId: string, transaction?: Transaction): Promise<Label> {
+  const label = await Label.findOne({ where: { id: labelId, organizationId: actor.organizationId }, transaction });
+  if (!label) throw ApiError.notFound('No such label');
+  return label;
+}
+
+/**
+ * The public check of a printed label: exactly what the label says, its status, and when superseded what the
+ * current label of the same equipment says. Nothing else of the organization is revealed.
+ */
+export async function checkLabel(ctx: AppContext, rawCode: string): Promise<LabelCheck> {
+  const code = normalizeCode(rawCode);
+  const label = /^[0-9A-Z]{16}$/.test(code) ? await Label.findOne({ where: { code } }) : null;
+  if (!label) throw ApiError.notFound('No label has this code. Check the code, or report the label as not matching.');
+  const now = ctx.now();
+  const status = labelStatus(label, now);
+  let current: LabelContent | null = null;
+  if (status === 'superseded') {
+    const newer = await Label.findOne({
+      where: { siteId: label.siteId, equipmentTag: label.equipmentTag, supersededAt: null },
+      order: [['issuedAt', 'DESC']],
+    });
+    current = newer ? (JSON.parse(newer.content) as LabelContent) : null;
+  }
+  return { code: label.code, status, content: JSON.parse(label.content) as LabelContent, current, checkedAt: now.toISOString() };
+}
+
+export async function markPrinted(ctx: AppContext, actor: AuthUser, labelIds: string[], transaction?: Transaction): Promise<void> {
+  await Label.update({ printedAt: ctx.now() }, { where: { id: labelIds, organizationId: actor.organizationId }, transaction });
+}
+
+export async function markInstalled(ctx: AppContext, actor: AuthUser, labelId: string, photoKey: string | null): Promise<LabelDto> {
+  const label = await ctx.db.sequelize.transaction(async (transaction) => {
+    const l = await findLabel(actor, labelId, transaction);
+    if (l.supersededAt) throw ApiError.conflict('This label is superseded: install the current label of this equipment instead');
+    await l.update({ installedAt: ctx.now(), installedById: actor.id, installPhotoKey: photoKey }, { transaction });
+    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'label.installed', entityType: 'label', entityId: l.id, summary: { tag: l.equipmentTag, photo: !!photoKey } }, transaction);
+    return l;
+  });
+  return (await toLabelDtos([label], ctx.now()))[0];
+}
+
+export const REPORT_KINDS = ['voltage', 'device', 'setting', 'equipment-changed', 'label-damaged', 'other'] as const;
+
+export async function reportMismatch(
+  ctx: AppContext,
+  actor: AuthUser,
+  labelId: string,
+  input: { kind: (typeof REPORT_KINDS)[number]; text: string },
+  photoKey: string | null,
+): Promise<{ id: string; status: string }> {
+  return ctx.db.sequelize.transaction(async (transaction) => {
+    const l = await findLabel(actor, labelId, transaction);
+    const r = await FieldReport.create(
+      { id: randomUUID(), organizationId: actor.organizationId, siteId: l.siteId, labelId: l.id, reporterId: actor.id, kind: input.kind, text: input.text, photoKey, status: 'open' },
+      { transaction },
+    );
+    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'field-report.opened', entityType: 'field-report', entityId: r.id, summary: { labelId: l.id, tag: l.equipmentTag, kind: input.kind } }, transaction);
+    return { id: r.id, status: r.status };
+  });
+}
