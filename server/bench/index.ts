@@ -3,6 +3,7 @@
  */
 import { benchIncidentEnergy } from './incidentEnergy';
 import { benchShortCircuit } from './shortCircuit';
+import { benchStudyThroughApi } from './study';
 import { benchTrip } from './trip';
 
 interface BenchResult {
@@ -15,6 +16,7 @@ const BENCHES: [string, () => Promise<BenchResult>][] = [
   ['incident-energy', benchIncidentEnergy],
   ['trip', benchTrip],
   ['short-circuit', benchShortCircuit],
+  ['study', benchStudyThroughApi],
 ];
 
 async function main(): Promise<void> {
