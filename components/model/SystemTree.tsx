@@ -1,0 +1,293 @@
+/**
+ * The system as an indented tree, from each source down to the buses it feeds, with motors and protective devices
+ * marked where they sit. Connector lines are plain Views, so rows wrap and stay readable on a 390 px phone.
+ */
+import React, { memo, useCallback, useDeferredValue, useMemo, useRef } from 'react';
+import { Pressable, View } from 'react-native';
+import Svg, { Circle, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
+import type { ModelInput } from '../../shared/schemas/model';
+import { colors, fonts, radius, space } from '../theme';
+import { T } from '../ui';
+import { buildSystemTree, type DeviceMarker, type ElementRef, type TreeRow } from './tree';
+
+export interface SystemTreeProps {
+  model: ModelInput;
+  onSelect?: (ref: { collection: string; index: number }) => void;
+}
+
+/** Width of one level of indentation; the connector of a child runs down its middle. */
+const INDENT = 24;
+/** Vertical position of the connector elbow: the middle of a row's first line. */
+const ANCHOR = 16;
+const LINE = 1.5;
+const LINE_COLOR = '#A9B6C1';
+
+export function SystemTree({ model, onSelect }: SystemTreeProps) {
+  // The tree follows the editor a moment later, so typing in the editor never waits for it.
+  const deferred = useDeferredValue(model);
+  const rows = useMemo(() => buildSystemTree(deferred).map((row) => ({ row, sig: JSON.stringify(row) })), [deferred]);
+  // Rows keep a stable callback, so a parent passing a new arrow function each render does not redraw them all.
+  const onSelectRef = useRef(onSelect);
+  onSelectRef.current = onSelect;
+  const stableSelect = useCallback((ref: { collection: string; index: number }) => onSelectRef.current?.(ref), []);
+  const select = onSelect ? stableSelect : undefined;
+  if (rows.length === 0) {
+    return (
+      <T variant="small" testID="system-tree">
+        No sources or buses yet.
+      </T>
+    );
+  }
+  return (
+    <View testID="system-tree" accessibilityRole="list" style={{ gap: 0 }}>
+      {rows.map(({ row, sig }) => (
+        <TreeRowView key={row.key} row={row} sig={sig} onSelect={select} />
+      ))}
+      <Legend />
+    </View>
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// Glyphs (24 × 20)
+
+type GlyphKind = 'utility' | 'generator' | 'bus' | 'motor' | 'tie' | 'missing' | 'bus-seen';
+
+function Glyph({ kind }: { kind: GlyphKind }) {
+  const c = colors.ink;
+  return (
+    <Svg width={24} height={20} viewBox="0 0 24 20">
+      {kind === 'utility' ? (
+        <>
+          <Circle cx={12} cy={10} r={8.5} stroke={c} strokeWidth={1.6} fill={colors.surface} />
+          <Path d="M6.5 10c1.4-3.2 2.9-3.2 4.3 0s2.9 3.2 4.3 0 2.9-3.2 4.3 0" stroke={c} strokeWidth={1.5} fill="none" transform="translate(-1.6 0)" />
+        </>
+      ) : null}
+      {kind === 'generator' || kind === 'motor' ? (
+        <>
+          <Circle cx={12} cy={10} r={8.5} stroke={c} strokeWidth={1.6} fill={colors.surface} />
+          <SvgText x={12} y={14} fontSize={11} fontWeight="bold" textAnchor="middle" fill={c} fontFamily={fonts.textBold}>
+            {kind === 'generator' ? 'G' : 'M'}
+          </SvgText>
+        </>
+      ) : null}
+      {kind === 'bus' || kind === 'bus-seen' ? <Rect x={1} y={7} width={22} height={6} rx={1.5} fill={kind === 'bus' ? colors.accent : colors.line} /> : null}
+      {kind === 'tie' ? (
+        <>
+          <Line x1={1} y1={13} x2={8} y2={13} stroke={c} strokeWidth={1.6} />
+          <Line x1={8} y1={13} x2={16} y2={5} stroke={c} strokeWidth={1.6} />
+          <Line x1={16} y1={13} x2={23} y2={13} stroke={c} strokeWidth={1.6} />
+          <Circle cx={8} cy={13} r={1.8} fill={c} />
+          <Circle cx={16} cy={13} r={1.8} fill={c} />
+        </>
+      ) : null}
+      {kind === 'missing' ? (
+        <>
+          <Circle cx={12} cy={10} r={8.5} stroke={colors.danger} strokeWidth={1.6} fill={colors.dangerSoft} />
+          <Path d="M12 5.5v5.5M12 14v.01" stroke={colors.danger} strokeWidth={2} strokeLinecap="round" />
+        </>
+      ) : null}
+    </Svg>
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// Rows
+
+function Connectors({ row }: { row: TreeRow }) {
+  if (row.depth === 0) return null;
+  return (
+    <>
+      {row.guides.map((continues, k) => (
+        <View key={k} style={{ width: INDENT }}>
+          {continues ? <View style={{ position: 'absolute', left: INDENT / 2 - LINE / 2, top: 0, bottom: 0, width: LINE, backgroundColor: LINE_COLOR }} /> : null}
+        </View>
+      ))}
+      <View style={{ width: INDENT }}>
+        <View style={{ position: 'absolute', left: INDENT / 2 - LINE / 2, top: 0, width: LINE, backgroundColor: LINE_COLOR, ...(row.last ? { height: ANCHOR + LINE / 2 } : { bottom: 0 }) }} />
+        <View style={{ position: 'absolute', left: INDENT / 2, right: 0, top: ANCHOR - LINE / 2, height: LINE, backgroundColor: LINE_COLOR }} />
+      </View>
+    </>
+  );
+}
+
+function Tap({ target, onSelect, children, label, testID, shrink }: { target?: ElementRef; onSelect?: SystemTreeProps['onSelect']; children: React.ReactNode; label: string; testID?: string; shrink?: boolean }) {
+  if (!onSelect || !target) return shrink ? <View style={{ maxWidth: '100%', flexShrink: 1 }}>{children}</View> : <>{children}</>;
+  return (
+    <Pressable
+      accessibilityRole="link"
+      accessibilityLabel={label}
+      onPress={() => onSelect({ collection: target.collection, index: target.index })}
+      testID={testID}
+      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => ({
+        borderRadius: radius.sm,
+        backgroundColor: pressed || hovered ? colors.accentSoft : 'transparent',
+        ...(shrink ? { maxWidth: '100%' as const, flexShrink: 1 } : {}),
+      })}
+    >
+      {children}
+    </Pressable>
+  );
+}
+
+function DeviceChips({ devices, onSelect }: { devices: DeviceMarker[]; onSelect?: SystemTreeProps['onSelect'] }) {
+  return (
+    <>
+      {devices.map((d) => (
+        <Tap key={`${d.index}`} target={d} onSelect={onSelect} label={`Device ${d.id}`} testID={`tree-device-${d.id}`}>
+          <View style={{ flexDirection: 'row', alignItems: 'center', gap: 4, height: 22, paddingHorizontal: 6, borderRadius: 4, borderWidth: 1, borderColor: colors.line, backgroundColor: colors.surface }}>
+            <View style={{ width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1 }} />
+            <T style={{ fontSize: 12, lineHeight: 16, fontFamily: fonts.textMedium, color: colors.inkSoft }}>{d.id}</T>
+          </View>
+        </Tap>
+      ))}
+    </>
+  );
+}
+
+/** Second-line content of a row: indented past the connector stub that runs down to its children. */
+function Detail({ children }: { children: React.ReactNode }) {
+  return <View style={{ marginLeft: INDENT + space.sm, flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', columnGap: 6, rowGap: 4 }}>{children}</View>;
+}
+
+const TreeRowView = memo(
+  function TreeRowView({ row, onSelect }: { row: TreeRow; sig: string; onSelect?: SystemTreeProps['onSelect'] }) {
+    if (row.kind === 'heading') {
+      return (
+        <View style={{ paddingTop: space.lg, paddingBottom: space.xs, borderTopWidth: 1, borderTopColor: colors.lineSoft, marginTop: space.sm }}>
+          <T variant="label" style={{ textTransform: 'uppercase', color: row.key === 'heading:islands' || row.key === 'heading:unconnected' ? colors.danger : colors.inkSoft }}>
+            {row.text}
+          </T>
+        </View>
+      );
+    }
+    return (
+      <View style={{ flexDirection: 'row', marginTop: row.depth === 0 && row.kind === 'source' ? space.xs : 0 }} testID={`tree-${row.key}`}>
+        <Connectors row={row} />
+        <View style={{ flex: 1, minWidth: 0, paddingTop: 6, paddingBottom: 6, gap: 3 }}>
+          {row.hasChildren ? <View style={{ position: 'absolute', left: INDENT / 2 - LINE / 2, top: ANCHOR + 10, bottom: 0, width: LINE, backgroundColor: LINE_COLOR }} /> : null}
+          <RowContent row={row} onSelect={onSelect} />
+        </View>
+      </View>
+    );
+  },
+  (a, b) => a.sig === b.sig && a.onSelect === b.onSelect,
+);
+
+function Head({ glyph, children }: { glyph: GlyphKind; children: React.ReactNode }) {
+  return (
+    <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.sm, minHeight: 20 }}>
+      <Glyph kind={glyph} />
+      <T style={{ flex: 1, fontSize: 15, lineHeight: 20 }}>{children}</T>
+    </View>
+  );
+}
+
+const idStyle = { fontFamily: fonts.textBold, fontSize: 15, color: colors.ink } as const;
+const mutedStyle = { fontSize: 14, color: colors.muted } as const;
+
+function RowContent({ row, onSelect }: { row: Exclude<TreeRow, { kind: 'heading' }>; onSelect?: SystemTreeProps['onSelect'] }) {
+  switch (row.kind) {
+    case 'source':
+      return (
+        <>
+          <Tap target={row.ref} onSelect={onSelect} label={`Source ${row.id}`} testID={`tree-select-${row.key}`}>
+            <Head glyph={row.label === 'GEN' ? 'generator' : 'utility'}>
+              <T style={idStyle}>{row.id}</T>
+              <T style={mutedStyle}>{`  ${row.text}`}</T>
+            </Head>
+          </Tap>
+          {row.devices.length || row.note ? (
+            <Detail>
+              <DeviceChips devices={row.devices} onSelect={onSelect} />
+              {row.note ? <T style={{ fontSize: 13, color: colors.danger }}>{row.note}</T> : null}
+            </Detail>
+          ) : null}
+        </>
+      );
+    case 'bus':
+      return (
+        <>
+          <Tap target={row.ref} onSelect={onSelect} label={`Bus ${row.id}`} testID={`tree-select-${row.key}`}>
+            <Head glyph="bus">
+              <T style={idStyle}>{row.id}</T>
+              <T style={{ fontFamily: fonts.numbers, fontSize: 14, color: colors.accent }}>{`  ${row.kv}`}</T>
+              {row.name ? <T style={mutedStyle}>{`  ${row.name}`}</T> : null}
+            </Head>
+          </Tap>
+          {row.via ? (
+            <Detail>
+              <DeviceChips devices={row.via.lineSide} onSelect={onSelect} />
+              <Tap target={row.via} onSelect={onSelect} label={`Branch ${row.via.id}`} testID={`tree-select-${row.via.collection}[${row.via.index}]`} shrink>
+                <T style={{ fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 }}>
+                  <T style={{ fontSize: 13, color: colors.muted }}>via </T>
+                  <T style={{ fontSize: 13, fontFamily: fonts.textBold, color: colors.inkSoft }}>{row.via.id}</T>
+                  {`  ${row.via.text}`}
+                </T>
+              </Tap>
+              <DeviceChips devices={row.via.loadSide} onSelect={onSelect} />
+            </Detail>
+          ) : null}
+          {row.notes.map((n, i) => (
+            <Detail key={i}>
+              <T style={{ fontSize: 13, lineHeight: 18, color: colors.caution }}>{`↺ ${n}`}</T>
+            </Detail>
+          ))}
+        </>
+      );
+    case 'seen-bus':
+      return (
+        <Tap target={row.ref} onSelect={onSelect} label={`Bus ${row.id}`}>
+          <Head glyph="bus-seen">
+            <T style={{ ...idStyle, color: colors.inkSoft }}>{row.id}</T>
+            <T style={mutedStyle}>{`  ${row.text}`}</T>
+          </Head>
+        </Tap>
+      );
+    case 'motor':
+    case 'open-tie':
+      return (
+        <>
+          <Tap target={row.ref} onSelect={onSelect} label={`${row.kind === 'motor' ? 'Motor' : 'Tie'} ${row.id}`} testID={`tree-select-${row.key}`}>
+            <Head glyph={row.kind === 'motor' ? 'motor' : 'tie'}>
+              <T style={{ ...idStyle, fontFamily: fonts.textMedium }}>{row.id}</T>
+              <T style={mutedStyle}>{`  ${row.text}`}</T>
+            </Head>
+          </Tap>
+          {row.devices.length ? (
+            <Detail>
+              <DeviceChips devices={row.devices} onSelect={onSelect} />
+            </Detail>
+          ) : null}
+        </>
+      );
+    case 'unconnected':
+      return (
+        <Tap target={row.ref} onSelect={onSelect} label={`${row.id}`} testID={`tree-select-${row.key}`}>
+          <Head glyph="missing">
+            <T style={idStyle}>{row.id}</T>
+            <T style={{ fontSize: 14, color: colors.danger }}>{`  ${row.text}`}</T>
+          </Head>
+        </Tap>
+      );
+  }
+}
+
+function Legend() {
+  const item = (glyph: GlyphKind | 'device', text: string) => (
+    <View key={text} style={{ flexDirection: 'row', alignItems: 'center', gap: 4 }}>
+      {glyph === 'device' ? <View style={{ width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1, marginHorizontal: 4 }} /> : <Glyph kind={glyph} />}
+      <T style={{ fontSize: 12, color: colors.muted }}>{text}</T>
+    </View>
+  );
+  return (
+    <View style={{ flexDirection: 'row', flexWrap: 'wrap', columnGap: space.md, rowGap: 4, marginTop: space.md, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.lineSoft }}>
+      {item('utility', 'Utility')}
+      {item('generator', 'Generator')}
+      {item('bus', 'Bus')}
+      {item('motor', 'Motor')}
+      {item('tie', 'Open tie')}
+      {item('device', 'Protective device')}
+    </View>
+  );
+}

@@ -1,0 +1,620 @@
+/**
+ * Compact inputs of the model editor. Each comes in two sizes: `cell` (a table cell on wide screens) and `form`
+ * (a labelled field on a phone card, with large touch targets). Text and number inputs keep what is typed locally
+ * and report upward, so a keystroke re-renders one row, not the editor.
+ */
+import React, { memo, useEffect, useMemo, useRef, useState } from 'react';
+import { Modal, Platform, Pressable, ScrollView, TextInput, View, type ViewStyle } from 'react-native';
+import Svg, { Circle, Path, Rect } from 'react-native-svg';
+import { useLayout } from '../../hooks/useLayout';
+import { colors, fonts, radius, space, touch } from '../theme';
+import { T } from '../ui';
+
+export type Size = 'cell' | 'form';
+const HEIGHT: Record<Size, number> = { cell: 38, form: touch.min };
+/** Placeholders show typical values: lighter and in italics, so they never read as entered values. */
+export const PLACEHOLDER = '#8C9AA6';
+
+// ---------------------------------------------------------------------------------------------
+// Icons (drawn here, 24-unit grid)
+
+export type IconName = 'plus' | 'copy' | 'trash' | 'chevron-down' | 'chevron-right' | 'check' | 'alert' | 'search' | 'close' | 'undo' | 'link';
+
+export function Icon({ name, size = 18, color = colors.inkSoft }: { name: IconName; size?: number; color?: string }) {
+  const stroke = { stroke: color, strokeWidth: 2, fill: 'none', strokeLinecap: 'round' as const, strokeLinejoin: 'round' as const };
+  return (
+    <Svg width={size} height={size} viewBox="0 0 24 24">
+      {name === 'plus' ? <Path d="M12 5v14M5 12h14" {...stroke} /> : null}
+      {name === 'copy' ? (
+        <>
+          <Rect x={8} y={8} width={12} height={12} rx={2} {...stroke} />
+          <Path d="M16 8V5a1 1 0 0 0-1-1H5a1 1 0 0 0-1 1v10a1 1 0 0 0 1 1h3" {...stroke} />
+        </>
+      ) : null}
+      {name === 'trash' ? <Path d="M4 7h16M10 11v6M14 11v6M6 7l1 13h10l1-13M9 7V4h6v3" {...stroke} /> : null}
+      {name === 'chevron-down' ? <Path d="M6 9l6 6 6-6" {...stroke} /> : null}
+      {name === 'chevron-right' ? <Path d="M9 6l6 6-6 6" {...stroke} /> : null}
+      {name === 'check' ? <Path d="M5 12.5l4.5 4.5L19 7.5" {...stroke} /> : null}
+      {name === 'alert' ? (
+        <>
+          <Circle cx={12} cy={12} r={9} {...stroke} />
+          <Path d="M12 7.5v5.5M12 16.5v.01" {...stroke} />
+        </>
+      ) : null}
+      {name === 'search' ? (
+        <>
+          <Circle cx={11} cy={11} r={6.5} {...stroke} />
+          <Path d="M16 16l4 4" {...stroke} />
+        </>
+      ) : null}
+      {name === 'close' ? <Path d="M6 6l12 12M18 6L6 18" {...stroke} /> : null}
+      {name === 'undo' ? <Path d="M9 14L4 9l5-5M4 9h10a6 6 0 0 1 0 12h-3" {...stroke} /> : null}
+      {name === 'link' ? <Path d="M10 14a4 4 0 0 0 5.7 0l3-3a4 4 0 0 0-5.7-5.7l-1 1M14 10a4 4 0 0 0-5.7 0l-3 3a4 4 0 0 0 5.7 5.7l1-1" {...stroke} /> : null}
+    </Svg>
+  );
+}
+
+export function IconButton({
+  icon,
+  label,
+  onPress,
+  tone = 'plain',
+  size = 40,
+  testID,
+  disabled,
+  color,
+}: {
+  icon: IconName;
+  label: string;
+  onPress: () => void;
+  color?: string;
+  tone?: 'plain' | 'danger';
+  size?: number;
+  testID?: string;
+  disabled?: boolean;
+}) {
+  return (
+    <Pressable
+      accessibilityRole="button"
+      accessibilityLabel={label}
+      onPress={onPress}
+      disabled={disabled}
+      testID={testID}
+      {...(Platform.OS === 'web' ? ({ title: label } as object) : {})}
+      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => ({
+        width: size,
+        height: size,
+        borderRadius: radius.sm,
+        alignItems: 'center',
+        justifyContent: 'center',
+        backgroundColor: pressed || hovered ? (tone === 'danger' ? colors.dangerSoft : colors.lineSoft) : 'transparent',
+        opacity: disabled ? 0.4 : 1,
+      })}
+    >
+      <Icon name={icon} color={color ?? (tone === 'danger' ? colors.danger : colors.inkSoft)} />
+    </Pressable>
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// Shared box style
+
+function boxStyle(size: Size, invalid: boolean | undefined, editable: boolean): ViewStyle {
+  return {
+    height: HEIGHT[size],
+    borderWidth: size === 'cell' ? 1 : 1.5,
+    borderColor: invalid ? colors.danger : editable ? colors.line : colors.lineSoft,
+    borderRadius: radius.sm,
+    backgroundColor: invalid ? '#FFF8F8' : editable ? colors.surface : colors.canvas,
+    paddingHorizontal: size === 'cell' ? space.sm : space.md,
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Text and number inputs
+
+const parseNum = (s: string): number | undefined => {
+  const t = s.trim().replace(',', '.');
+  if (t === '') return undefined;
+  const v = Number(t);
+  return Number.isFinite(v) ? v : NaN;
+};
+
+interface InputCommon {
+  size: Size;
+  invalid?: boolean;
+  editable: boolean;
+  placeholder?: string;
+  testID?: string;
+  accessibilityLabel: string;
+  style?: ViewStyle;
+}
+
+/**
+ * Text input. `commit: 'change'` reports every keystroke; `commit: 'blur'` reports when the field is left or Enter
+ * is pressed (ids: a rename moves references, so it happens once, on the final text).
+ */
+export const TextCell = memo(function TextCell({
+  value,
+  onChange,
+  commit = 'change',
+  mono,
+  size,
+  invalid,
+  editable,
+  placeholder,
+  testID,
+  accessibilityLabel,
+  style,
+}: InputCommon & { value: string | undefined; onChange: (v: string) => void; commit?: 'change' | 'blur'; mono?: boolean }) {
+  const [text, setText] = useState(value ?? '');
+  const last = useRef(value ?? '');
+  useEffect(() => {
+    if ((value ?? '') !== last.current) {
+      last.current = value ?? '';
+      setText(value ?? '');
+    }
+  }, [value]);
+  const flush = () => {
+    if (text !== last.current) {
+      last.current = text;
+      onChange(text);
+    }
+  };
+  return (
+    <TextInput
+      testID={testID}
+      accessibilityLabel={accessibilityLabel}
+      value={text}
+      editable={editable}
+      placeholder={placeholder}
+      placeholderTextColor={PLACEHOLDER}
+      onChangeText={(t) => {
+        setText(t);
+        if (commit === 'change') {
+          last.current = t;
+          onChange(t);
+        }
+      }}
+      onBlur={commit === 'blur' ? flush : undefined}
+      onSubmitEditing={commit === 'blur' ? flush : undefined}
+      autoCapitalize="none"
+      autoCorrect={false}
+      style={[
+        boxStyle(size, invalid, editable),
+        { color: colors.ink, fontFamily: mono ? fonts.textMedium : fonts.text, fontSize: size === 'cell' ? 15 : 16, minWidth: 0, fontStyle: text === '' ? 'italic' : 'normal' },
+        style as object,
+      ]}
+    />
+  );
+});
+
+/** A number input: keeps what is typed; reports a number, undefined when empty, NaN when not a number. */
+export const NumCell = memo(function NumCell({
+  value,
+  onChange,
+  size,
+  invalid,
+  editable,
+  placeholder,
+  testID,
+  accessibilityLabel,
+  style,
+}: InputCommon & { value: number | undefined; onChange: (v: number | undefined) => void }) {
+  const [text, setText] = useState(value === undefined || Number.isNaN(value) ? '' : String(value));
+  const last = useRef<number | undefined>(value);
+  useEffect(() => {
+    if (!Object.is(value, last.current)) {
+      last.current = value;
+      setText(value === undefined || Number.isNaN(value) ? '' : String(value));
+    }
+  }, [value]);
+  const parsed = parseNum(text);
+  const bad = parsed !== undefined && Number.isNaN(parsed);
+  return (
+    <TextInput
+      testID={testID}
+      accessibilityLabel={accessibilityLabel}
+      value={text}
+      editable={editable}
+      inputMode="decimal"
+      placeholder={placeholder}
+      placeholderTextColor={PLACEHOLDER}
+      onChangeText={(t) => {
+        setText(t);
+        const v = parseNum(t);
+        last.current = v;
+        onChange(v);
+      }}
+      style={[
+        boxStyle(size, invalid || bad, editable),
+        {
+          color: colors.ink,
+          fontFamily: text === '' ? fonts.text : fonts.numbers,
+          fontStyle: text === '' ? 'italic' : 'normal',
+          fontSize: size === 'cell' ? 15 : 16,
+          textAlign: size === 'cell' ? 'right' : 'left',
+          minWidth: 0,
+        },
+        style as object,
+      ]}
+    />
+  );
+});
+
+// ---------------------------------------------------------------------------------------------
+// Segmented choice (two or three short options)
+
+export function SegCell<V extends string>({
+  value,
+  options,
+  onChange,
+  size,
+  invalid,
+  editable,
+  testID,
+  accessibilityLabel,
+  style,
+}: {
+  value: V | undefined;
+  options: readonly { value: V; label: string }[];
+  onChange: (v: V) => void;
+  size: Size;
+  invalid?: boolean;
+  editable: boolean;
+  testID?: string;
+  accessibilityLabel: string;
+  style?: ViewStyle;
+}) {
+  return (
+    <View
+      accessibilityRole="radiogroup"
+      accessibilityLabel={accessibilityLabel}
+      testID={testID}
+      style={[
+        {
+          flexDirection: 'row',
+          height: HEIGHT[size],
+          borderWidth: 1,
+          borderColor: invalid ? colors.danger : colors.line,
+          borderRadius: radius.sm,
+          overflow: 'hidden',
+          backgroundColor: colors.surface,
+        },
+        style,
+      ]}
+    >
+      {options.map((o, i) => {
+        const on = o.value === value;
+        return (
+          <Pressable
+            key={o.value}
+            accessibilityRole="radio"
+            accessibilityState={{ checked: on, disabled: !editable }}
+            disabled={!editable}
+            testID={testID ? `${testID}-${o.value}` : undefined}
+            onPress={() => !on && onChange(o.value)}
+            style={{
+              flex: 1,
+              alignItems: 'center',
+              justifyContent: 'center',
+              paddingHorizontal: size === 'cell' ? 4 : space.sm,
+              backgroundColor: on ? colors.accentSoft : 'transparent',
+              borderLeftWidth: i === 0 ? 0 : 1,
+              borderLeftColor: colors.line,
+            }}
+          >
+            <T numberOfLines={1} style={{ fontSize: size === 'cell' ? 14 : 15, fontFamily: on ? fonts.textBold : fonts.text, color: on ? colors.accent : editable ? colors.inkSoft : colors.muted }}>
+              {o.label}
+            </T>
+          </Pressable>
+        );
+      })}
+    </View>
+  );
+}
+
+/** A yes/no switch drawn as a checkbox with its label. */
+export function CheckCell({
+  value,
+  onChange,
+  label,
+  size,
+  editable,
+  testID,
+}: {
+  value: boolean;
+  onChange: (v: boolean) => void;
+  label: string;
+  size: Size;
+  editable: boolean;
+  testID?: string;
+}) {
+  return (
+    <Pressable
+      accessibilityRole="checkbox"
+      accessibilityState={{ checked: value, disabled: !editable }}
+      accessibilityLabel={label}
+      disabled={!editable}
+      testID={testID}
+      onPress={() => onChange(!value)}
+      style={{ height: HEIGHT[size], flexDirection: 'row', alignItems: 'center', gap: space.sm }}
+    >
+      <View
+        style={{
+          width: 22,
+          height: 22,
+          borderRadius: 5,
+          borderWidth: 1.5,
+          borderColor: value ? colors.accent : colors.line,
+          backgroundColor: value ? colors.accent : colors.surface,
+          alignItems: 'center',
+          justifyContent: 'center',
+        }}
+      >
+        {value ? <Icon name="check" size={16} color={colors.accentInk} /> : null}
+      </View>
+      <T style={{ fontSize: 15, color: editable ? colors.ink : colors.muted }}>{label}</T>
+    </Pressable>
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// Picker: a button that opens a searchable list (references, classes, library types)
+
+export interface PickOption {
+  value: string;
+  label: string;
+  /** Shorter text for the button in a table cell. */
+  short?: string;
+  detail?: string;
+  group?: string;
+}
+
+export const PickCell = memo(function PickCell({
+  value,
+  options,
+  onChange,
+  title,
+  placeholder = 'Choose…',
+  emptyLabel,
+  emptyShort,
+  size,
+  invalid,
+  editable,
+  testID,
+  accessibilityLabel,
+  style,
+  unknownHint = 'not found',
+  formatUnknown,
+}: {
+  value: string | undefined;
+  options: readonly PickOption[];
+  onChange: (v: string) => void;
+  title: string;
+  placeholder?: string;
+  /** When given, an extra first option with value '' (e.g. "Typical of the class"). */
+  emptyLabel?: string;
+  /** The button's text for that option, when shorter than the sheet's (shown like a placeholder). */
+  emptyShort?: string;
+  size: Size;
+  invalid?: boolean;
+  editable: boolean;
+  testID?: string;
+  accessibilityLabel: string;
+  style?: ViewStyle;
+  unknownHint?: string;
+  /** How to show a value that is not among the options (e.g. an unknown bus id). */
+  formatUnknown?: (value: string) => string;
+}) {
+  const [open, setOpen] = useState(false);
+  const selected = value === undefined || value === '' ? undefined : options.find((o) => o.value === value);
+  const unknown = value !== undefined && value !== '' && !selected;
+  const shown = selected ? (size === 'cell' && selected.short ? selected.short : selected.label) : unknown ? (formatUnknown ? formatUnknown(value) : value) : emptyShort ?? emptyLabel ?? placeholder;
+  const dim = !selected && !unknown;
+  return (
+    <>
+      <Pressable
+        accessibilityRole="button"
+        accessibilityLabel={`${accessibilityLabel}: ${shown}`}
+        accessibilityState={{ disabled: !editable, expanded: open }}
+        disabled={!editable}
+        testID={testID}
+        onPress={() => setOpen(true)}
+        style={[boxStyle(size, invalid || unknown, editable), { flexDirection: 'row', alignItems: 'center', gap: space.xs }, style]}
+      >
+        <T numberOfLines={1} style={{ flex: 1, fontSize: size === 'cell' ? 15 : 16, color: unknown ? colors.danger : dim ? PLACEHOLDER : colors.ink, fontStyle: dim ? 'italic' : 'normal' }}>
+          {shown}
+          {unknown && size === 'form' ? <T style={{ fontSize: 13, color: colors.danger }}>{`  ${unknownHint}`}</T> : null}
+        </T>
+        {editable ? <Icon name="chevron-down" size={16} color={colors.muted} /> : null}
+      </Pressable>
+      {open ? (
+        <PickSheet
+          title={title}
+          value={value}
+          options={options}
+          emptyLabel={emptyLabel}
+          onClose={() => setOpen(false)}
+          onPick={(v) => {
+            setOpen(false);
+            if (v !== (value ?? '')) onChange(v);
+          }}
+          testID={testID ? `${testID}-sheet` : undefined}
+        />
+      ) : null}
+    </>
+  );
+});
+
+function PickSheet({
+  title,
+  value,
+  options,
+  emptyLabel,
+  onPick,
+  onClose,
+  testID,
+}: {
+  title: string;
+  value: string | undefined;
+  options: readonly PickOption[];
+  emptyLabel?: string;
+  onPick: (v: string) => void;
+  onClose: () => void;
+  testID?: string;
+}) {
+  const { wide, width } = useLayout();
+  const [query, setQuery] = useState('');
+  const searchable = options.length > 8;
+  const rows = useMemo(() => {
+    const q = query.trim().toLowerCase();
+    const list = q ? options.filter((o) => `${o.label} ${o.detail ?? ''} ${o.group ?? ''}`.toLowerCase().includes(q)) : options;
+    const out: ({ type: 'group'; label: string } | { type: 'option'; option: PickOption })[] = [];
+    let group: string | undefined;
+    for (const o of list) {
+      if (o.group && o.group !== group) out.push({ type: 'group', label: o.group });
+      group = o.group;
+      out.push({ type: 'option', option: o });
+    }
+    return out;
+  }, [options, query]);
+  return (
+    <Modal transparent visible animationType="fade" onRequestClose={onClose}>
+      <View style={{ flex: 1, justifyContent: wide ? 'center' : 'flex-end', alignItems: 'center' }}>
+        <Pressable accessibilityLabel="Close" onPress={onClose} style={{ position: 'absolute', top: 0, left: 0, right: 0, bottom: 0, backgroundColor: 'rgba(14,34,48,0.45)' }} />
+        <View
+          testID={testID}
+          accessibilityViewIsModal
+          style={{
+            width: wide ? Math.min(520, width - 64) : '100%',
+            maxHeight: wide ? '75%' : '85%',
+            backgroundColor: colors.surface,
+            borderRadius: radius.lg,
+            borderBottomLeftRadius: wide ? radius.lg : 0,
+            borderBottomRightRadius: wide ? radius.lg : 0,
+            paddingTop: space.lg,
+            paddingBottom: wide ? space.md : space.xl,
+            gap: space.sm,
+          }}
+        >
+          <View style={{ flexDirection: 'row', alignItems: 'center', paddingHorizontal: space.lg, gap: space.sm }}>
+            <T variant="heading" style={{ flex: 1, fontSize: 18 }}>
+              {title}
+            </T>
+            <IconButton icon="close" label="Close" onPress={onClose} size={touch.min} />
+          </View>
+          {searchable ? (
+            <View style={{ paddingHorizontal: space.lg }}>
+              <View style={[boxStyle('form', false, true), { flexDirection: 'row', alignItems: 'center', gap: space.sm }]}>
+                <Icon name="search" size={18} color={colors.muted} />
+                <TextInput
+                  value={query}
+                  onChangeText={setQuery}
+                  placeholder="Search"
+                  placeholderTextColor={colors.muted}
+                  autoFocus={wide}
+                  autoCapitalize="none"
+                  autoCorrect={false}
+                  testID={testID ? `${testID}-search` : undefined}
+                  style={{ flex: 1, height: '100%', fontSize: 16, fontFamily: fonts.text, color: colors.ink, minWidth: 0 }}
+                />
+              </View>
+            </View>
+          ) : null}
+          <ScrollView style={{ flexGrow: 0 }} contentContainerStyle={{ paddingHorizontal: space.sm }} keyboardShouldPersistTaps="handled">
+            {emptyLabel !== undefined && !query ? <OptionRow label={emptyLabel} selected={!value} onPress={() => onPick('')} testID={testID ? `${testID}-opt-` : undefined} /> : null}
+            {rows.map((r, i) =>
+              r.type === 'group' ? (
+                <T key={`g${i}`} variant="label" style={{ paddingHorizontal: space.md, paddingTop: space.md, paddingBottom: space.xs, textTransform: 'uppercase', color: colors.muted }}>
+                  {r.label}
+                </T>
+              ) : (
+                <OptionRow
+                  key={`o${r.option.value}`}
+                  label={r.option.label}
+                  detail={r.option.detail}
+                  selected={r.option.value === value}
+                  onPress={() => onPick(r.option.value)}
+                  testID={testID ? `${testID}-opt-${r.option.value}` : undefined}
+                />
+              ),
+            )}
+            {rows.length === 0 ? (
+              <T variant="small" style={{ padding: space.md }}>
+                {options.length === 0 ? 'Nothing to choose from yet.' : 'No match.'}
+              </T>
+            ) : null}
+          </ScrollView>
+        </View>
+      </View>
+    </Modal>
+  );
+}
+
+function OptionRow({ label, detail, selected, onPress, testID }: { label: string; detail?: string; selected: boolean; onPress: () => void; testID?: string }) {
+  return (
+    <Pressable
+      accessibilityRole="button"
+      accessibilityState={{ selected }}
+      onPress={onPress}
+      testID={testID}
+      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => ({
+        minHeight: touch.min,
+        paddingHorizontal: space.md,
+        paddingVertical: space.xs,
+        borderRadius: radius.sm,
+        flexDirection: 'row',
+        alignItems: 'center',
+        gap: space.md,
+        backgroundColor: selected ? colors.accentSoft : pressed || hovered ? colors.canvas : 'transparent',
+      })}
+    >
+      <View style={{ flex: 1, gap: 1 }}>
+        <T style={{ fontFamily: selected ? fonts.textBold : fonts.textMedium, fontSize: 16 }}>{label}</T>
+        {detail ? (
+          <T variant="small" numberOfLines={2}>
+            {detail}
+          </T>
+        ) : null}
+      </View>
+      {selected ? <Icon name="check" size={18} color={colors.accent} /> : null}
+    </Pressable>
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// Form wrapper (phone cards): label, unit, the control, and the message of the issue on that field
+
+export function FormField({
+  label,
+  unit,
+  error,
+  hint,
+  basis = 150,
+  children,
+}: {
+  label: string;
+  unit?: string;
+  error?: string;
+  hint?: string;
+  basis?: number;
+  children: React.ReactNode;
+}) {
+  return (
+    <View style={{ flexGrow: 1, flexBasis: basis, minWidth: 0, gap: space.xs }}>
+      <T variant="label">
+        {label}
+        {unit ? <T variant="label" style={{ color: colors.muted, fontFamily: fonts.text }}>{` (${unit})`}</T> : null}
+      </T>
+      {children}
+      {error ? (
+        <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+          {error}
+        </T>
+      ) : hint ? (
+        <T variant="small">{hint}</T>
+      ) : null}
+    </View>
+  );
+}
