@@ -12,6 +12,8 @@ export interface NavItem {
 export const NAV_ITEMS: NavItem[] = [
   { href: '/', label: 'Home', glyph: '⌂', roles: 'all' },
   { href: '/sites', label: 'Sites', glyph: '▦', roles: 'all' },
+  { href: '/labels', label: 'Labels', glyph: '▤', roles: 'all' },
+  { href: '/scan', label: 'Scan', glyph: '⌖', roles: ['electrician', 'engineer', 'safety'] },
   { href: '/spot-check', label: 'Spot check', glyph: '◇', roles: 'all' },
   { href: '/devices', label: 'Devices', glyph: '◔', roles: 'all' },
   { href: '/team', label: 'Team', glyph: '◎', roles: ['admin'] },

@@ -11,6 +11,7 @@ import { buildOpenApi } from './http/openapi';
 import { mountRoutes, type AnyRoute } from './http/route';
 import { allRoutes } from './routes';
 import { Jobs } from './services/jobs';
+import { LocalFileStore, type FileStore } from './storage';
 
 export const API_VERSION = '0.1.0';
 
@@ -20,11 +21,19 @@ export interface CreateAppOptions {
   now?: () => Date;
   signInLimitPerMinute?: number;
   publicCheckPerMinute?: number;
+  /** Defaults to a local-disk store under DATA_DIR/uploads. */
+  storage?: FileStore;
 }
 
 /** Builds the Express app (no listening): /api plus the exported web build on the same origin. */
 export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppContext; routes: AnyRoute[] } {
-  const ctx: AppContext = { config: opts.config, db: opts.db, now: opts.now ?? (() => new Date()), jobs: new Jobs() };
+  const ctx: AppContext = {
+    config: opts.config,
+    db: opts.db,
+    now: opts.now ?? (() => new Date()),
+    jobs: new Jobs(),
+    storage: opts.storage ?? new LocalFileStore(path.join(opts.config.dataDir, 'uploads')),
+  };
   const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? 20, publicCheckPerMinute: opts.publicCheckPerMinute ?? 120 });
   const app = express();
   app.disable('x-powered-by');

@@ -5,6 +5,7 @@ import { ConfigError, loadConfig } from './config';
 import { migrate, openDb } from './db';
 import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
 import { failInterruptedRuns } from './services/runs';
+import { openFileStore, storageConfigFromEnv } from './storage';
 
 /** `npm start`: migrate, seed the demo when the database is empty, build the web app when stale, serve. */
 async function main(): Promise<void> {
@@ -23,7 +24,8 @@ async function main(): Promise<void> {
   if (applied.length) console.log(`Migrations applied: ${applied.join(', ')}`);
   const interrupted = await failInterruptedRuns(new Date());
   if (interrupted) console.log(`${interrupted} interrupted study run(s) marked failed.`);
-  const { app, ctx } = createApp({ config, db });
+  const files = await openFileStore(storageConfigFromEnv(process.env, config.dataDir));
+  const { app, ctx } = createApp({ config, db, storage: files.store });
   if (await isEmpty()) {
     await seedDemo(ctx, config.demoPassword);
     console.log('Seeded the invented demo organization, its site and an approved study.');
@@ -36,7 +38,7 @@ async function main(): Promise<void> {
     for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(12)} ${u.email}`);
   });
   const stop = (): void => {
-    server.close(() => void db.close().then(() => process.exit(0)));
+    server.close(() => void Promise.all([db.close(), files.close()]).then(() => process.exit(0)));
     setTimeout(() => process.exit(0), 3000).unref();
   };
   process.on('SIGINT', stop);

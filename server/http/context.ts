@@ -2,6 +2,7 @@ import type { Config } from '../config';
 import type { Db } from '../db';
 import type { Role } from '../../shared/schemas/common';
 import type { Jobs } from '../services/jobs';
+import type { FileStore } from '../storage';
 
 /** Everything a service needs, created once by createApp and passed down (no globals). */
 export interface AppContext {
@@ -9,8 +10,10 @@ export interface AppContext {
   db: Db;
   /** Injected clock, so tests can move time. */
   now: () => Date;
-  /** Background jobs (study runs). */
+  /** Background jobs (study runs, label batches). */
   jobs: Jobs;
+  /** Uploaded photos and generated files: local disk or S3-compatible. */
+  storage: FileStore;
 }
 
 export interface AuthUser {

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { authRoutes } from './auth';
 import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
-import { labelRoutes } from './labels';
+import { labelFieldRoutes, labelRoutes } from './labels';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
 import { siteRoutes } from './sites';
@@ -40,5 +40,6 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...studyRoutes,
     ...studyIoRoutes,
     ...labelRoutes({ publicCheckPerMinute: opts.publicCheckPerMinute }),
+    ...labelFieldRoutes,
   ];
 }

@@ -3,9 +3,11 @@ import { z } from 'zod';
 import { labelCheckSchema, labelSchema } from '../../shared/schemas/labels';
 import { ApiError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
-import { checkLabel, listLabels, normalizeCode, toLabelDtos } from '../services/labels';
+import { checkLabel, listLabels, markInstalled, normalizeCode, REPORT_KINDS, reportMismatch, toLabelDtos } from '../services/labels';
+import { makeFileKey } from '../storage';
+import { imageExtension, imageUpload } from '../storage/imageUpload';
 import { Label } from '../db/models';
-import type { AuthUser } from '../http/context';
+import type { AppContext, AuthUser } from '../http/context';
 
 const labelList = z.object({ labels: z.array(labelSchema) });
 
@@ -64,3 +66,49 @@ export function labelRoutes(opts: { publicCheckPerMinute: number }): AnyRoute[] 
     }),
   ];
 }
+
+const reportSchema = z.object({
+  kind: z.enum(REPORT_KINDS, { error: 'Choose what does not match' }),
+  text: z.string().trim().min(3, 'Say what does not match').max(4000),
+});
+
+async function storePhoto(ctx: AppContext, user: AuthUser, file: Express.Multer.File | undefined): Promise<string | null> {
+  if (!file) return null;
+  const key = makeFileKey(user.organizationId, imageExtension(file.buffer) ?? 'bin');
+  await ctx.storage.put(key, file.buffer, file.mimetype);
+  return key;
+}
+
+/** Field actions on a label, by the code read from it. */
+export const labelFieldRoutes: AnyRoute[] = [
+  defineRoute({
+    method: 'post',
+    path: '/labels/:code/installed',
+    summary: 'Mark a label installed, with a photo of it in place (multipart field "photo": JPEG, PNG, WebP or HEIC, at most 10 MB).',
+    tag: 'labels',
+    access: ['electrician', 'engineer'],
+    middleware: [imageUpload('photo', { required: true })],
+    response: labelSchema,
+    handler: async ({ ctx, user, params, req }) => {
+      const label = await findLabelByCode(user, params.code);
+      const key = await storePhoto(ctx, user, req.file);
+      return markInstalled(ctx, user, label.id, key);
+    },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/labels/:code/reports',
+    summary: 'Report what does not match a label (multipart: kind, text, optional photo).',
+    tag: 'labels',
+    access: ['electrician', 'engineer', 'safety'],
+    middleware: [imageUpload('photo', { required: false })],
+    body: reportSchema,
+    response: z.object({ id: z.string(), status: z.string() }),
+    status: 201,
+    handler: async ({ ctx, user, params, req, body }) => {
+      const label = await findLabelByCode(user, params.code);
+      const key = await storePhoto(ctx, user, req.file);
+      return reportMismatch(ctx, user, label.id, body, key);
+    },
+  }),
+];

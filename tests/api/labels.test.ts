@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { labelContentSchema } from '../../shared/schemas/labels';
+import { Label } from '../../server/db/models';
 import { newLabelCode, normalizeCode } from '../../server/services/labels';
 import { smallModel } from '../fixtures/smallModel';
 import { approveStudy } from '../helpers/flows';
@@ -92,5 +93,46 @@ describe('label codes', () => {
   it('are random: 1000 codes, no repeat', () => {
     const codes = new Set(Array.from({ length: 1000 }, () => newLabelCode()));
     expect(codes.size).toBe(1000);
+  });
+});
+
+describe('field actions', () => {
+  // A 1×1 PNG (PNG signature and IHDR, IDAT, IEND chunks).
+  const png = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64');
+
+  async function currentCode(): Promise<string> {
+    const list = await request(t.app).get(`/api/sites/${siteId}/labels?current=1`).set(...elec());
+    return list.body.labels.find((l: { equipmentTag: string }) => l.equipmentTag === 'PNL').code;
+  }
+
+  it('an electrician marks a label installed with a photo; the photo is stored', async () => {
+    const code = await currentCode();
+    const res = await request(t.app).post(`/api/labels/${code}/installed`).set(...elec()).attach('photo', png, { filename: 'label.png', contentType: 'image/png' });
+    expect(res.status).toBe(200);
+    expect(res.body.installedAt).not.toBeNull();
+    const row = await Label.findOne({ where: { code } });
+    expect(await t.ctx.storage.exists(row!.installPhotoKey!)).toBe(true);
+  });
+
+  it('refuses a missing photo, a wrong type and an oversize file', async () => {
+    const code = await currentCode();
+    expect((await request(t.app).post(`/api/labels/${code}/installed`).set(...elec())).status).toBe(400);
+    const text = await request(t.app).post(`/api/labels/${code}/installed`).set(...elec()).attach('photo', Buffer.from('not an image'), { filename: 'x.png', contentType: 'image/png' });
+    expect(text.status).toBe(415);
+    const big = await request(t.app).post(`/api/labels/${code}/installed`).set(...elec()).attach('photo', Buffer.concat([png, Buffer.alloc(11 * 1024 * 1024)]), { filename: 'big.png', contentType: 'image/png' });
+    expect(big.status).toBe(413);
+  });
+
+  it('an electrician reports a mismatch; bad kinds are refused naming the field', async () => {
+    const code = await currentCode();
+    const ok = await request(t.app).post(`/api/labels/${code}/reports`).set(...elec()).field('kind', 'device').field('text', 'Feeder breaker is a 400 A frame, not 225 A');
+    expect(ok.status).toBe(201);
+    expect(ok.body.status).toBe('open');
+    const bad = await request(t.app).post(`/api/labels/${code}/reports`).set(...elec()).field('kind', 'weather').field('text', 'x');
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toEqual(expect.arrayContaining(['kind', 'text']));
+    // Another organization cannot act on this label.
+    const other = await request(t.app).post(`/api/labels/${code}/reports`).set(...bearer(t.orgB.users.electrician.token)).field('kind', 'device').field('text', 'hello there');
+    expect(other.status).toBe(404);
   });
 });

@@ -1,0 +1,3 @@
+import { LabelsScreen } from '../../../components/screens/LabelsScreen';
+
+export default LabelsScreen;

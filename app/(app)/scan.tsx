@@ -1,0 +1,3 @@
+import { ScanScreen } from '../../components/screens/ScanScreen';
+
+export default ScanScreen;

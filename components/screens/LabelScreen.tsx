@@ -1,0 +1,141 @@
+import React, { useState } from 'react';
+import { Platform, View } from 'react-native';
+import { LABEL_STATUS_LABELS } from '../../shared/schemas/labels';
+import { serverErrors } from '../../hooks/forms';
+import { useLabelCheck, useLabelDetail, useMarkInstalled, useReportMismatch } from '../../hooks/labels';
+import { useUser } from '../../hooks/session';
+import { useLayout } from '../../hooks/useLayout';
+import { Cautions } from '../Cautions';
+import { LabelView } from '../labels/LabelView';
+import { colors, fonts, radius, space } from '../theme';
+import { Button, Card, Choice, Field, Notice, Screen, T } from '../ui';
+
+const KINDS = [
+  { value: 'voltage', label: 'Voltage' },
+  { value: 'device', label: 'Protective device' },
+  { value: 'setting', label: 'Device setting' },
+  { value: 'equipment-changed', label: 'Equipment changed' },
+  { value: 'label-damaged', label: 'Label damaged' },
+  { value: 'other', label: 'Other' },
+] as const;
+
+function PhotoInput({ onFile, testID, label }: { onFile: (f: File | null) => void; testID: string; label: string }) {
+  if (Platform.OS !== 'web') return null;
+  return (
+    <View style={{ gap: 4 }}>
+      <T variant="label">{label}</T>
+      {React.createElement('input', {
+        type: 'file',
+        accept: 'image/*',
+        capture: 'environment',
+        'data-testid': testID,
+        onChange: (e: { target: { files?: FileList | null } }) => onFile(e.target.files?.[0] ?? null),
+        style: { fontSize: 15, padding: 8 },
+      })}
+      <T variant="small">JPEG, PNG, WebP or HEIC, at most 10 MB.</T>
+    </View>
+  );
+}
+
+function InstallPanel({ code }: { code: string }) {
+  const install = useMarkInstalled(code);
+  const [photo, setPhoto] = useState<File | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  return (
+    <Card testID="install-panel">
+      <T variant="subheading">Mark installed</T>
+      <T variant="small">Take a photo of the label in place on the equipment.</T>
+      <PhotoInput onFile={setPhoto} testID="install-photo" label="Photo of the installed label" />
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      {install.isSuccess ? <Notice tone="ok">Recorded as installed.</Notice> : null}
+      <Button
+        title="Mark installed"
+        testID="mark-installed"
+        busy={install.isPending}
+        onPress={() => {
+          if (!photo) return setError('Add a photo of the installed label');
+          setError(null);
+          install.mutate(photo, { onError: (e) => setError(serverErrors(e).message) });
+        }}
+      />
+    </Card>
+  );
+}
+
+function ReportPanel({ code }: { code: string }) {
+  const report = useReportMismatch(code);
+  const [kind, setKind] = useState<(typeof KINDS)[number]['value']>('device');
+  const [text, setText] = useState('');
+  const [photo, setPhoto] = useState<File | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  return (
+    <Card testID="report-panel">
+      <T variant="subheading">Report what does not match</T>
+      <Choice label="What does not match" value={kind} options={KINDS} onChange={setKind} testID="report-kind" />
+      <Field label="What you see" testID="report-text" value={text} onChangeText={setText} multiline style={{ minHeight: 90 }} hint="e.g. the breaker on the door is a 400 A frame, the label names a 600 A feeder" />
+      <PhotoInput onFile={setPhoto} testID="report-photo" label="Photo (optional)" />
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      {report.isSuccess ? <Notice tone="ok">Report sent to the engineers and the safety officer.</Notice> : null}
+      <Button
+        title="Send report"
+        testID="send-report"
+        kind="secondary"
+        busy={report.isPending}
+        onPress={() => {
+          if (text.trim().length < 3) return setError('Say what does not match');
+          setError(null);
+          report.mutate({ kind, text, photo }, { onError: (e) => setError(serverErrors(e).message) });
+        }}
+      />
+    </Card>
+  );
+}
+
+/** A label of the organization: what it says, its status, and the electrician's field actions. */
+export function LabelScreen({ code }: { code: string }) {
+  const user = useUser();
+  const { wide } = useLayout();
+  const detail = useLabelDetail(code);
+  const check = useLabelCheck(code);
+  if (detail.error) return <Screen title="Label"><Notice tone="error">{detail.error.message}</Notice></Screen>;
+  if (!detail.data) return <Screen title="Label"><T variant="small">Loading…</T></Screen>;
+  const l = detail.data;
+  const tone = l.status === 'current' ? colors.ok : l.status === 'superseded' ? colors.danger : colors.caution;
+  const field = user.role === 'electrician';
+  const info = (
+    <View style={{ gap: space.lg }}>
+      <View style={{ backgroundColor: tone, borderRadius: radius.lg, padding: space.lg }} testID="label-status">
+        <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 28 }}>{LABEL_STATUS_LABELS[l.status].toUpperCase()}</T>
+        <T style={{ color: '#fff' }}>
+          {l.installedAt ? `Installed ${l.installedAt.slice(0, 10)}${l.installedBy ? ` by ${l.installedBy}` : ''}` : 'Not marked installed'} ·{' '}
+          {l.printedAt ? `printed ${l.printedAt.slice(0, 10)}` : 'not printed yet'}
+        </T>
+      </View>
+      {l.status === 'superseded' && check.data?.current ? (
+        <Notice tone="error" title="Superseded">
+          Replace this label: the current label of {l.equipmentTag} says {check.data.current.incidentEnergyCalPerCm2.toFixed(2)} cal/cm² (revision {check.data.current.studyRevision}).
+        </Notice>
+      ) : null}
+      {field && l.status !== 'superseded' && !l.installedAt ? <InstallPanel code={l.code} /> : null}
+      {field ? <ReportPanel code={l.code} /> : null}
+      <Cautions reviewed incidentEnergyCalPerCm2={l.content.incidentEnergyCalPerCm2} compact />
+    </View>
+  );
+  return (
+    <Screen title={`${l.content.equipmentName} (${l.equipmentTag})`} subtitle={`${l.content.siteName} · code ${l.code}`}>
+      {wide ? (
+        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
+          <View style={{ flex: 1 }}>
+            <LabelView content={l.content} code={l.code} width={420} />
+          </View>
+          <View style={{ flex: 1 }}>{info}</View>
+        </View>
+      ) : (
+        <>
+          {info}
+          <LabelView content={l.content} code={l.code} />
+        </>
+      )}
+    </Screen>
+  );
+}

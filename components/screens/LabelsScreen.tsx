@@ -1,0 +1,155 @@
+import { Link } from 'expo-router';
+import React, { useEffect, useMemo, useState } from 'react';
+import { Pressable, View } from 'react-native';
+import { LABEL_STATUS_LABELS, type LabelDto, type LabelSize } from '../../shared/schemas/labels';
+import { downloadFile } from '../../hooks/download';
+import { serverErrors } from '../../hooks/forms';
+import { useBatch, useCreateBatch, useSiteLabels } from '../../hooks/labels';
+import { useSites } from '../../hooks/queries';
+import { useUser } from '../../hooks/session';
+import { useLayout } from '../../hooks/useLayout';
+import { fmt } from '../../hooks/units';
+import { LabelView } from '../labels/LabelView';
+import { signalPanelColors } from '../hazard';
+import { colors, fonts, radius, space, touch } from '../theme';
+import { Button, Card, Choice, Notice, ProgressBar, Screen, T } from '../ui';
+
+type Filter = 'all' | 'not-printed' | 'not-installed';
+
+function Row({ l, selected, onToggle, onPreview }: { l: LabelDto; selected: boolean; onToggle: () => void; onPreview: () => void }) {
+  const panel = signalPanelColors(l.content.signalWord);
+  return (
+    <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm, minHeight: touch.min + 8, paddingHorizontal: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }} testID={`label-row-${l.equipmentTag}`}>
+      <Pressable accessibilityRole="checkbox" accessibilityState={{ checked: selected }} onPress={onToggle} testID={`select-${l.equipmentTag}`} style={{ width: touch.min, height: touch.min, alignItems: 'center', justifyContent: 'center' }}>
+        <View style={{ width: 24, height: 24, borderRadius: 4, borderWidth: 2, borderColor: colors.ink, backgroundColor: selected ? colors.ink : colors.surface, alignItems: 'center', justifyContent: 'center' }}>
+          {selected ? <T style={{ color: '#fff', fontFamily: fonts.textBold }}>✓</T> : null}
+        </View>
+      </Pressable>
+      <Pressable onPress={onPreview} style={{ flex: 1, gap: 2, paddingVertical: 6 }} accessibilityRole="button">
+        <View style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', flexWrap: 'wrap' }}>
+          <T style={{ fontFamily: fonts.numbersBold }}>{l.equipmentTag}</T>
+          <View style={{ backgroundColor: panel.background, paddingHorizontal: 5, borderRadius: 3 }}>
+            <T style={{ color: panel.text, fontSize: 11, fontFamily: fonts.textBold }}>{l.content.signalWord}</T>
+          </View>
+          <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(l.content.incidentEnergyCalPerCm2)} cal/cm²</T>
+        </View>
+        <T variant="small" numberOfLines={1}>
+          {l.content.equipmentName} · {LABEL_STATUS_LABELS[l.status]} · {l.printedAt ? `printed ${l.printedAt.slice(0, 10)}` : 'not printed'} · {l.installedAt ? `installed ${l.installedAt.slice(0, 10)}` : 'not installed'}
+        </T>
+      </Pressable>
+      <Link href={`/labels/${l.code}` as never} style={{ color: colors.accent, fontSize: 15, padding: space.sm }}>
+        Open
+      </Link>
+    </View>
+  );
+}
+
+/** Labels of a site: preview, choose, and print them as one PDF (with progress for large batches). */
+export function LabelsScreen() {
+  const user = useUser();
+  const { wide } = useLayout();
+  const sites = useSites();
+  const [siteId, setSiteId] = useState<string | null>(null);
+  useEffect(() => {
+    if (!siteId && sites.data?.length) setSiteId(sites.data[0].id);
+  }, [sites.data, siteId]);
+  const labels = useSiteLabels(siteId);
+  const [filter, setFilter] = useState<Filter>('all');
+  const [selected, setSelected] = useState<Set<string>>(new Set());
+  const [preview, setPreview] = useState<LabelDto | null>(null);
+  const [size, setSize] = useState<LabelSize>('4x6');
+  const create = useCreateBatch();
+  const [batchId, setBatchId] = useState<string | null>(null);
+  const batch = useBatch(batchId);
+  const [error, setError] = useState<string | null>(null);
+  const canPrint = user.role === 'electrician' || user.role === 'engineer' || user.role === 'admin';
+
+  const shown = useMemo(
+    () => (labels.data ?? []).filter((l) => (filter === 'not-printed' ? !l.printedAt : filter === 'not-installed' ? !l.installedAt : true)),
+    [labels.data, filter],
+  );
+  useEffect(() => setPreview((p) => p ?? shown[0] ?? null), [shown]);
+
+  const toggle = (id: string) =>
+    setSelected((s) => {
+      const n = new Set(s);
+      if (n.has(id)) n.delete(id);
+      else n.add(id);
+      return n;
+    });
+
+  const print = () => {
+    setError(null);
+    create.mutate(
+      { labelIds: [...selected], size },
+      { onSuccess: (b) => setBatchId(b.id), onError: (e) => setError(serverErrors(e).message) },
+    );
+  };
+
+  const b = batch.data;
+  const list = (
+    <View style={{ gap: space.md }}>
+      <Choice value={filter} onChange={setFilter} testID="label-filter" options={[{ value: 'all', label: 'All current' }, { value: 'not-printed', label: 'Not printed' }, { value: 'not-installed', label: 'Not installed' }]} />
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+        <Button title="Select all shown" kind="secondary" testID="select-all" onPress={() => setSelected(new Set(shown.map((l) => l.id)))} />
+        <Button title="Clear" kind="quiet" onPress={() => setSelected(new Set())} />
+      </View>
+      <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }}>
+        {shown.map((l) => (
+          <Row key={l.id} l={l} selected={selected.has(l.id)} onToggle={() => toggle(l.id)} onPreview={() => setPreview(l)} />
+        ))}
+        {labels.data && shown.length === 0 ? <T style={{ padding: space.lg }} variant="small">No labels here.</T> : null}
+      </View>
+    </View>
+  );
+
+  const queue = canPrint ? (
+    <Card testID="print-queue">
+      <T variant="subheading">Print</T>
+      <T variant="small">{selected.size} label{selected.size === 1 ? '' : 's'} chosen.</T>
+      <Choice label="Size" value={size} onChange={setSize} testID="label-size" options={[{ value: '4x6', label: '4 × 6 in' }, { value: '4x4', label: '4 × 4 in' }, { value: 'letter', label: 'Letter sheet' }, { value: 'a4', label: 'A4 sheet' }]} />
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      <Button title="Make the PDF" testID="make-pdf" disabled={!selected.size} busy={create.isPending || (!!b && (b.status === 'queued' || b.status === 'running'))} onPress={print} />
+      {b ? (
+        <View style={{ gap: space.xs }} testID="batch">
+          <T>{b.message}</T>
+          {b.status !== 'done' ? <ProgressBar value={b.progress} testID="batch-progress" /> : null}
+          {b.status === 'done' ? (
+            <Button title={`Download ${b.total} label${b.total === 1 ? '' : 's'} (PDF)`} testID="download-pdf" kind="secondary" onPress={() => void downloadFile(`/label-batches/${b.id}/file`, 'labels.pdf').catch((e) => setError(serverErrors(e).message))} />
+          ) : null}
+          {b.status === 'failed' ? <Notice tone="error">{b.message}</Notice> : null}
+        </View>
+      ) : null}
+    </Card>
+  ) : null;
+
+  return (
+    <Screen title="Labels" subtitle="Current labels of the approved studies: preview, print, and follow their installation.">
+      <Choice label="Site" value={siteId ?? ''} onChange={(id) => { setSiteId(id); setSelected(new Set()); setPreview(null); }} options={(sites.data ?? []).map((s) => ({ value: s.id, label: s.name }))} testID="label-site" />
+      {labels.error ? <Notice tone="error">{labels.error.message}</Notice> : null}
+      {wide ? (
+        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
+          <View style={{ flex: 1.2, gap: space.lg }}>
+            {queue}
+            {list}
+          </View>
+          <View style={{ flex: 1, gap: space.sm }}>
+            <T variant="label">PREVIEW</T>
+            {preview ? <LabelView content={preview.content} code={preview.code} width={400} /> : <T variant="small">Choose a label to preview it.</T>}
+          </View>
+        </View>
+      ) : (
+        <>
+          {queue}
+          {list}
+          {preview ? (
+            <View style={{ gap: space.sm }}>
+              <T variant="label">PREVIEW · {preview.equipmentTag}</T>
+              <LabelView content={preview.content} code={preview.code} />
+            </View>
+          ) : null}
+        </>
+      )}
+    </Screen>
+  );
+}

@@ -1,0 +1,76 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { CreateLabelBatch, LabelBatchDto } from '../shared/schemas/labelBatches';
+import type { LabelCheck, LabelDto } from '../shared/schemas/labels';
+import { apiFetch } from './api';
+
+const enc = encodeURIComponent;
+
+export const labelKeys = {
+  all: () => ['labels'] as const,
+  detail: (code: string) => ['labels', 'detail', code] as const,
+  check: (code: string) => ['labels', 'check', code] as const,
+  site: (siteId: string) => ['labels', 'site', siteId] as const,
+};
+
+export function useLabelDetail(code: string) {
+  return useQuery({ queryKey: labelKeys.detail(code), queryFn: () => apiFetch<LabelDto>(`/labels/${enc(code)}/detail`), retry: false });
+}
+
+export function useLabelCheck(code: string) {
+  return useQuery({ queryKey: labelKeys.check(code), queryFn: () => apiFetch<LabelCheck>(`/labels/${enc(code)}`), retry: false });
+}
+
+export function useSiteLabels(siteId: string | null) {
+  return useQuery({
+    queryKey: labelKeys.site(siteId ?? ''),
+    queryFn: async () => (await apiFetch<{ labels: LabelDto[] }>(`/sites/${enc(siteId as string)}/labels?current=1`)).labels,
+    enabled: !!siteId,
+  });
+}
+
+export function useMarkInstalled(code: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (photo: File) => {
+      const form = new FormData();
+      form.append('photo', photo);
+      return apiFetch<LabelDto>(`/labels/${enc(code)}/installed`, { method: 'POST', formData: form });
+    },
+    onSuccess: () => qc.invalidateQueries({ queryKey: labelKeys.all() }),
+  });
+}
+
+export function useReportMismatch(code: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { kind: string; text: string; photo?: File | null }) => {
+      const form = new FormData();
+      form.append('kind', input.kind);
+      form.append('text', input.text);
+      if (input.photo) form.append('photo', input.photo);
+      return apiFetch<{ id: string; status: string }>(`/labels/${enc(code)}/reports`, { method: 'POST', formData: form });
+    },
+    onSuccess: () => qc.invalidateQueries({ queryKey: labelKeys.all() }),
+  });
+}
+
+export function useCreateBatch() {
+  return useMutation({
+    mutationFn: (input: CreateLabelBatch) => apiFetch<LabelBatchDto>('/label-batches', { method: 'POST', body: input }),
+  });
+}
+
+/** A print batch; polls while it is being made. */
+export function useBatch(id: string | null) {
+  const qc = useQueryClient();
+  return useQuery({
+    queryKey: ['label-batches', id],
+    queryFn: async () => {
+      const b = await apiFetch<LabelBatchDto>(`/label-batches/${enc(id as string)}`);
+      if (b.status === 'done') void qc.invalidateQueries({ queryKey: labelKeys.all() });
+      return b;
+    },
+    enabled: !!id,
+    refetchInterval: (q) => (q.state.data && (q.state.data.status === 'queued' || q.state.data.status === 'running') ? 700 : false),
+  });
+}
