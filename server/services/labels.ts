@@ -7,6 +7,8 @@ import type { AppContext, AuthUser } from '../http/context';
 import { ApiError } from '../http/errors';
 import { recordAudit } from './audit';
 import { addMonths } from './dates';
+import { findSite } from './sites';
+import { findStudy } from './studies';
 
 /** Crockford base32: no I, L, O, U, so a code read aloud or typed from a label is unambiguous. */
 const ALPHABET = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
@@ -150,6 +152,9 @@ export async function toLabelDtos(labels: Label[], now: Date): Promise<LabelDto[
 }
 
 export async function listLabels(ctx: AppContext, actor: AuthUser, filter: { siteId?: string; studyId?: string; current?: boolean }): Promise<LabelDto[]> {
+  // The site or study must be the actor's: another organization's id is not found.
+  if (filter.siteId) await findSite(actor, filter.siteId);
+  if (filter.studyId) await findStudy(actor, filter.studyId);
   const where: Record<string, unknown> = { organizationId: actor.organizationId };
   if (filter.siteId) where.siteId = filter.siteId;
   if (filter.studyId) where.studyId = filter.studyId;
