@@ -3,7 +3,7 @@ import { View } from 'react-native';
 import type { IncidentEnergyResult } from '../../hooks/queries';
 import { fmt, fmtLength, type LengthUnit } from '../../hooks/units';
 import { HazardMark } from '../Cautions';
-import { signalPanelColors } from '../hazard';
+import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space } from '../theme';
 import { Card, Notice, Num, T } from '../ui';
 

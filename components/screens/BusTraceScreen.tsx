@@ -12,7 +12,7 @@ import { useResults, useStudy } from '../../hooks/studies';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt, fmtLength } from '../../hooks/units';
 import { Cautions, HazardMark } from '../Cautions';
-import { signalPanelColors } from '../hazard';
+import { signalPanelColors } from '../../shared/safetyColors';
 import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
 import { colors, fonts, radius, space } from '../theme';
 import { Card, Choice, Notice, Num, Screen, T } from '../ui';

@@ -10,7 +10,7 @@ import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt } from '../../hooks/units';
 import { LabelView } from '../labels/LabelView';
-import { signalPanelColors } from '../hazard';
+import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Button, Card, Choice, Notice, ProgressBar, Screen, T } from '../ui';
 

@@ -2,6 +2,7 @@ import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
 import { Pressable, View } from 'react-native';
 import { approveSchema, type StudyDto } from '../../shared/schemas/studies';
+import { downloadFile } from '../../hooks/download';
 import { serverErrors, validate } from '../../hooks/forms';
 import { useUser } from '../../hooks/session';
 import { useApproveStudy, useReturnToDraft, useReviseStudy, useRun, useStartRun, useSubmitStudy } from '../../hooks/studies';
@@ -133,6 +134,27 @@ function ReviewPanel({ study }: { study: StudyDto }) {
   );
 }
 
+function Documents({ study }: { study: StudyDto }) {
+  const user = useUser();
+  const [error, setError] = useState<string | null>(null);
+  const approved = study.status === 'approved' || study.status === 'superseded';
+  const canReport = user.role !== 'electrician' && (approved || study.resultsCurrent);
+  const canPrint = approved && user.role !== 'safety';
+  if (!canReport && !canPrint) return null;
+  const get = (path: string, name: string) => void downloadFile(path, name).catch((e) => setError(serverErrors(e).message));
+  return (
+    <Card testID="documents">
+      <T variant="subheading">Documents</T>
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+        {canReport ? <Button title="Study report (PDF)" kind="secondary" testID="study-report" onPress={() => get(`/studies/${study.id}/report.pdf`, 'study-report.pdf')} /> : null}
+        {canPrint ? <Button title="All labels, 4 × 6 in (PDF)" kind="secondary" testID="labels-pdf" onPress={() => get(`/studies/${study.id}/labels.pdf?size=4x6`, 'labels.pdf')} /> : null}
+      </View>
+      {!approved ? <T variant="small">The report of an unapproved revision is marked PRELIMINARY on every page.</T> : null}
+    </Card>
+  );
+}
+
 export function OverviewPanel({ study }: { study: StudyDto }) {
   return (
     <View style={{ gap: space.lg }}>
@@ -164,6 +186,7 @@ export function OverviewPanel({ study }: { study: StudyDto }) {
       </Card>
       <RunPanel study={study} />
       <ReviewPanel study={study} />
+      <Documents study={study} />
       <Cautions reviewed={study.status === 'approved'} compact />
     </View>
   );

@@ -7,7 +7,7 @@ import { useResults } from '../../hooks/studies';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt, fmtLength } from '../../hooks/units';
 import { Cautions } from '../Cautions';
-import { signalPanelColors } from '../hazard';
+import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Card, Choice, Notice, Num, T } from '../ui';
 

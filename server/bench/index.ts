@@ -3,6 +3,7 @@
  */
 import { benchIncidentEnergy } from './incidentEnergy';
 import { benchShortCircuit } from './shortCircuit';
+import { benchLabels } from './labels';
 import { benchStudyThroughApi } from './study';
 import { benchTrip } from './trip';
 
@@ -17,6 +18,7 @@ const BENCHES: [string, () => Promise<BenchResult>][] = [
   ['trip', benchTrip],
   ['short-circuit', benchShortCircuit],
   ['study', benchStudyThroughApi],
+  ['labels', benchLabels],
 ];
 
 async function main(): Promise<void> {

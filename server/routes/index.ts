@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { authRoutes } from './auth';
 import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
+import { labelBatchRoutes, studyReportRoute } from './labelBatches';
 import { labelFieldRoutes, labelRoutes } from './labels';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
@@ -41,5 +42,7 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...studyIoRoutes,
     ...labelRoutes({ publicCheckPerMinute: opts.publicCheckPerMinute }),
     ...labelFieldRoutes,
+    ...labelBatchRoutes,
+    studyReportRoute,
   ];
 }

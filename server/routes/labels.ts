@@ -5,6 +5,8 @@ import { ApiError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { checkLabel, listLabels, markInstalled, normalizeCode, REPORT_KINDS, reportMismatch, toLabelDtos } from '../services/labels';
 import { makeFileKey } from '../storage';
+import { qrPng } from '../pdf/qr';
+import { checkUrl } from '../services/labelBatches';
 import { imageExtension, imageUpload } from '../storage/imageUpload';
 import { Label } from '../db/models';
 import type { AppContext, AuthUser } from '../http/context';
@@ -35,6 +37,22 @@ export function labelRoutes(opts: { publicCheckPerMinute: number }): AnyRoute[] 
       before: [checkLimiter],
       response: labelCheckSchema,
       handler: ({ ctx, params }) => checkLabel(ctx, params.code),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/labels/:code/qr.png',
+      summary: 'The QR code printed on a label (PNG): it holds the public check address.',
+      tag: 'labels',
+      access: 'public',
+      before: [checkLimiter],
+      produces: 'image/png',
+      handler: async ({ ctx, params, res }) => {
+        const label = await Label.findOne({ where: { code: normalizeCode(params.code) } });
+        if (!label) throw ApiError.notFound('No label has this code');
+        res.setHeader('Content-Type', 'image/png');
+        res.setHeader('Cache-Control', 'public, max-age=86400');
+        res.send(await qrPng(checkUrl(ctx, label.code), 4));
+      },
     }),
     defineRoute({
       method: 'get',

@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { labelContentSchema } from '../../shared/schemas/labels';
 import { Label } from '../../server/db/models';
+import { decodeQrPng } from '../../server/pdf/qr';
 import { newLabelCode, normalizeCode } from '../../server/services/labels';
 import { smallModel } from '../fixtures/smallModel';
 import { approveStudy } from '../helpers/flows';
@@ -47,6 +48,16 @@ describe('labels', () => {
     // Lower case and dashes as people type them.
     const typed = oldCode.toLowerCase().replace(/(.{4})/g, '$1-').replace(/-$/, '');
     expect((await request(t.app).get(`/api/labels/${typed}`)).status).toBe(200);
+  });
+
+  it('the QR image of a label decodes to its public check address', async () => {
+    const res = await request(t.app).get(`/api/labels/${oldCode}/qr.png`).buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect(decodeQrPng(res.body as Buffer)).toBe(`${t.config.publicBaseUrl}/l/${oldCode}`);
   });
 
   it('an unknown code is 404 with the error shape', async () => {

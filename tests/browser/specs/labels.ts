@@ -37,6 +37,23 @@ function photo(): Buffer {
 }
 
 export const specs: Spec[] = [
+  ...([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+    name: `electrician previews labels and makes a PDF of them with progress (${label})`,
+    run: async (h: Harness) => {
+      const page = await h.newPage(viewport);
+      await h.signIn(page, 'electrician@larkspur.example');
+      await page.getByTestId('home-electrician').waitFor();
+      await page.goto(`${h.baseUrl}/labels`);
+      await page.getByTestId('label-row-USS-1').waitFor();
+      await page.getByTestId('label-row-USS-1').getByRole('button').first().click();
+      await page.getByTestId('select-all').click();
+      await page.getByTestId('label-size-letter').click();
+      await page.getByTestId('make-pdf').click();
+      await page.getByTestId('download-pdf').waitFor({ timeout: 60_000 });
+      await h.shot(page, `labels-${label}`);
+      await page.close();
+    },
+  })),
   {
     name: 'electrician types a code, sees the label and marks it installed with a photo (phone)',
     run: async (h) => {

@@ -1,5 +1,5 @@
 /**
- * ANSI Z535 safety colours, used ONLY on labels and hazard markers (never as UI accents).
+ * ANSI Z535 safety colours, used ONLY on labels (screen and PDF) and hazard markers (never as UI accents).
  * sRGB approximations of the Z535.1 safety colours (from memory: safety red ≈ Pantone 186 C,
  * safety orange ≈ Pantone 151 C, safety yellow ≈ Pantone 109 C).
  */

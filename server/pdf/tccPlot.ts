@@ -1,0 +1,218 @@
+/**
+ * A small log-log time-current plot drawn with vector lines in a PDF: decade grid, each device's minimum and
+ * maximum curves (currents referred to the bus voltage), vertical lines at the arcing currents, the arc-duration
+ * cap, and dots at the clearing points. Presentation choices are conventions (common practice, no source).
+ */
+import { rgb, type RGB } from 'pdf-lib';
+import { BLACK, Canvas } from './canvas';
+import type { PdfFonts } from './fonts';
+import { formatSig } from './format';
+import { textWidth } from './text';
+
+export interface PlotCurve {
+  label: string;
+  /** [amperes at the bus voltage, seconds] */
+  min: [number, number][];
+  max: [number, number][];
+}
+
+export interface PlotMarker {
+  currentA: number;
+  label: string;
+  dash?: boolean;
+}
+
+export interface PlotPoint {
+  currentA: number;
+  timeS: number;
+  filled: boolean;
+}
+
+export interface PlotInput {
+  curves: PlotCurve[];
+  /** Vertical lines (arcing currents), amperes at the bus voltage. */
+  markers: PlotMarker[];
+  points: PlotPoint[];
+  /** Horizontal line at the arc-duration cap, seconds. */
+  capS: number | null;
+  fromA: number;
+  toA: number;
+  fromS?: number;
+  toS?: number;
+}
+
+/** Device curve colours for the report (not safety colours: those are kept for labels and hazard markers). */
+export const CURVE_COLORS: RGB[] = [rgb(0.11, 0.3, 0.62), rgb(0.1, 0.47, 0.4), rgb(0.42, 0.24, 0.6), rgb(0.35, 0.35, 0.35), rgb(0.55, 0.38, 0.15)];
+
+/** Decade limits that contain [lo, hi]. */
+export function decadeRange(lo: number, hi: number): [number, number] {
+  const a = Math.floor(Math.log10(lo) + 1e-9);
+  let b = Math.ceil(Math.log10(hi) - 1e-9);
+  if (b <= a) b = a + 1;
+  return [10 ** a, 10 ** b];
+}
+
+/**
+ * Clips the segment p→q to the rectangle [x0,x1]×[y0,y1] (Liang–Barsky). Returns the visible part or null.
+ */
+export function clipSegment(
+  p: [number, number],
+  q: [number, number],
+  x0: number,
+  y0: number,
+  x1: number,
+  y1: number,
+): [[number, number], [number, number]] | null {
+  const dx = q[0] - p[0];
+  const dy = q[1] - p[1];
+  let t0 = 0;
+  let t1 = 1;
+  const edges: [number, number][] = [
+    [-dx, p[0] - x0],
+    [dx, x1 - p[0]],
+    [-dy, p[1] - y0],
+    [dy, y1 - p[1]],
+  ];
+  for (const [pp, qq] of edges) {
+    if (pp === 0) {
+      if (qq < 0) return null;
+    } else {
+      const r = qq / pp;
+      if (pp < 0) {
+        if (r > t1) return null;
+        if (r > t0) t0 = r;
+      } else {
+        if (r < t0) return null;
+        if (r < t1) t1 = r;
+      }
+    }
+  }
+  return [
+    [p[0] + t0 * dx, p[1] + t0 * dy],
+    [p[0] + t1 * dx, p[1] + t1 * dy],
+  ];
+}
+
+/** Polyline (plot coordinates) clipped to a rectangle, as SVG path data (runs of M/L). */
+export function clippedPath(points: [number, number][], x0: number, y0: number, x1: number, y1: number): string {
+  const parts: string[] = [];
+  let last: [number, number] | null = null;
+  for (let i = 1; i < points.length; i += 1) {
+    const seg = clipSegment(points[i - 1], points[i], x0, y0, x1, y1);
+    if (!seg) {
+      last = null;
+      continue;
+    }
+    const [a, b] = seg;
+    if (!last || Math.abs(last[0] - a[0]) > 1e-6 || Math.abs(last[1] - a[1]) > 1e-6) parts.push(`M ${a[0].toFixed(2)} ${a[1].toFixed(2)}`);
+    parts.push(`L ${b[0].toFixed(2)} ${b[1].toFixed(2)}`);
+    last = b;
+  }
+  return parts.join(' ');
+}
+
+function currentTick(a: number): string {
+  if (a >= 1000) return `${formatSig(a / 1000, 3)}k`;
+  return formatSig(a, 3);
+}
+
+/**
+ * Draws the plot in the box (x, y, w, h) of the canvas (top-down points), axes labels included. Returns the
+ * colour used for each curve (same order as input.curves) for a legend.
+ */
+export function drawTimeCurrentPlot(cv: Canvas, fonts: PdfFonts, box: { x: number; y: number; w: number; h: number }, input: PlotInput): RGB[] {
+  const padL = 34;
+  const padB = 24;
+  const padT = 4 + 8 * input.markers.length;
+  const padR = 6;
+  const px0 = box.x + padL;
+  const px1 = box.x + box.w - padR;
+  const py0 = box.y + padT;
+  const py1 = box.y + box.h - padB;
+  const [ax0, ax1] = decadeRange(input.fromA, input.toA);
+  const [ty0, ty1] = decadeRange(input.fromS ?? 0.01, input.toS ?? 1000);
+  const lx0 = Math.log10(ax0);
+  const lx1 = Math.log10(ax1);
+  const ly0 = Math.log10(ty0);
+  const ly1 = Math.log10(ty1);
+  const X = (a: number) => px0 + ((Math.log10(a) - lx0) / (lx1 - lx0)) * (px1 - px0);
+  const Y = (s: number) => py1 - ((Math.log10(s) - ly0) / (ly1 - ly0)) * (py1 - py0);
+  const grey = rgb(0.78, 0.78, 0.78);
+  const lightGrey = rgb(0.9, 0.9, 0.9);
+
+  // Grid: decades (darker) and 2..9 within each decade (lighter).
+  for (let d = Math.round(lx0); d < Math.round(lx1); d += 1) {
+    for (let k = 2; k <= 9; k += 1) {
+      const x = X(k * 10 ** d);
+      cv.line(x, py0, x, py1, { width: 0.25, color: lightGrey });
+    }
+  }
+  for (let d = Math.round(ly0); d < Math.round(ly1); d += 1) {
+    for (let k = 2; k <= 9; k += 1) {
+      const yy = Y(k * 10 ** d);
+      cv.line(px0, yy, px1, yy, { width: 0.25, color: lightGrey });
+    }
+  }
+  for (let d = Math.round(lx0); d <= Math.round(lx1); d += 1) {
+    const x = X(10 ** d);
+    cv.line(x, py0, x, py1, { width: 0.5, color: grey });
+    cv.text(currentTick(10 ** d), x - 20, py1 + 2, 40, { font: fonts.mono, size: 6, align: 'center' });
+  }
+  for (let d = Math.round(ly0); d <= Math.round(ly1); d += 1) {
+    const yy = Y(10 ** d);
+    cv.line(px0, yy, px1, yy, { width: 0.5, color: grey });
+    cv.text(formatSig(10 ** d, 3), box.x, yy - 3.5, padL - 3, { font: fonts.mono, size: 6, align: 'right' });
+  }
+  cv.rect(px0, py0, px1 - px0, py1 - py0, { stroke: BLACK, lineWidth: 0.6 });
+  cv.text('Current, A at the bus voltage', px0, py1 + 11, px1 - px0, { font: fonts.text, size: 6.5, align: 'center' });
+  cv.text('s', box.x, py0 - 1, 10, { font: fonts.text, size: 6.5 });
+
+  const inside = (pts: [number, number][]) =>
+    clippedPath(
+      pts.filter(([a, s]) => a > 0 && s > 0).map(([a, s]) => [X(a), Y(s)] as [number, number]),
+      px0,
+      py0,
+      px1,
+      py1,
+    );
+
+  // Arc-duration cap and arcing-current markers.
+  if (input.capS !== null && input.capS > ty0 && input.capS < ty1) {
+    const yy = Y(input.capS);
+    cv.line(px0, yy, px1, yy, { width: 0.5, color: BLACK, dash: [1, 2] });
+    cv.text(`arc-duration cap ${formatSig(input.capS, 3)} s`, px1 - 90, yy - 8, 88, { font: fonts.text, size: 5.5, align: 'right' });
+  }
+  input.markers.forEach((m) => {
+    if (!(m.currentA > ax0 && m.currentA < ax1)) return;
+    const x = X(m.currentA);
+    cv.line(x, py0, x, py1, { width: 0.7, color: BLACK, dash: m.dash ? [3, 2] : undefined });
+  });
+  // Marker labels in the band above the frame, one row each (left to right, top to bottom), so that they hide
+  // no curve and no label crosses another marker's tick.
+  [...input.markers].sort((a, b) => a.currentA - b.currentA).forEach((m, i) => {
+    if (!(m.currentA > ax0 && m.currentA < ax1)) return;
+    const x = X(m.currentA);
+    const fitted = cv.fit(m.label, 100, { font: fonts.text, size: 5.5 });
+    const lw = fitted.lines.length > 0 ? textWidth(fonts.text, fitted.lines[0], fitted.size) : 0;
+    const ly = box.y + 1 + i * 8;
+    cv.line(x, ly + 3, x, py0, { width: 0.4, color: BLACK, dash: m.dash ? [1, 1] : undefined });
+    const right = x + 3 + lw < box.x + box.w;
+    cv.drawFitted(fitted, right ? x + 3 : x - 3 - lw, ly, lw + 1, { font: fonts.text, size: fitted.size });
+  });
+
+  const colors: RGB[] = [];
+  input.curves.forEach((c, i) => {
+    const color = CURVE_COLORS[i % CURVE_COLORS.length];
+    colors.push(color);
+    const minPath = inside(c.min);
+    const maxPath = inside(c.max);
+    if (minPath) cv.path(minPath, 0, 0, { stroke: color, lineWidth: 0.6, dash: [2, 1.5] });
+    if (maxPath) cv.path(maxPath, 0, 0, { stroke: color, lineWidth: 1.1 });
+  });
+
+  for (const p of input.points) {
+    if (!(p.currentA > ax0 && p.currentA < ax1 && p.timeS > ty0 && p.timeS < ty1)) continue;
+    cv.circle(X(p.currentA), Y(p.timeS), 2.2, p.filled ? { fill: BLACK } : { fill: rgb(1, 1, 1), stroke: BLACK, lineWidth: 0.8 });
+  }
+  return colors;
+}

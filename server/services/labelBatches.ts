@@ -1,0 +1,100 @@
+import { randomUUID } from 'node:crypto';
+import type { CreateLabelBatch, LabelBatchDto } from '../../shared/schemas/labelBatches';
+import type { LabelContent, LabelSize } from '../../shared/schemas/labels';
+import { Label, LabelBatch } from '../db/models';
+import type { AppContext, AuthUser } from '../http/context';
+import { ApiError } from '../http/errors';
+import { renderLabels } from '../pdf/labels';
+import { makeFileKey } from '../storage';
+import { recordAudit } from './audit';
+import { yieldToLoop } from './jobs';
+
+function toDto(b: LabelBatch): LabelBatchDto {
+  return {
+    id: b.id,
+    size: b.size as LabelSize,
+    total: (JSON.parse(b.labelIds) as string[]).length,
+    status: b.status,
+    progress: b.progress,
+    message: b.message,
+    createdAt: b.createdAt.toISOString(),
+  };
+}
+
+export function checkUrl(ctx: AppContext, code: string): string {
+  return `${ctx.config.publicBaseUrl.replace(/\/$/, '')}/l/${code}`;
+}
+
+/** The labels in the order asked, all of the actor's organization (any other id: 404, nothing printed). */
+async function labelsOf(actor: AuthUser, ids: string[]): Promise<Label[]> {
+  const rows = await Label.findAll({ where: { id: ids, organizationId: actor.organizationId } });
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  const missing = ids.filter((id) => !byId.has(id));
+  if (missing.length) throw new ApiError('not_found', `${missing.length} of the chosen labels were not found`, { labelIds: missing.slice(0, 5).join(', ') });
+  return ids.map((id) => byId.get(id) as Label);
+}
+
+/** One PDF of the given labels, now (small batches and the study's labels.pdf). Records the printed time. */
+export async function renderLabelPdf(ctx: AppContext, actor: AuthUser, labels: Label[], size: LabelSize, onProgress?: (done: number, total: number) => void): Promise<Uint8Array> {
+  const pdf = await renderLabels(
+    labels.map((l) => ({ content: JSON.parse(l.content) as LabelContent, checkUrl: checkUrl(ctx, l.code) })),
+    size,
+    { onProgress },
+  );
+  await ctx.db.sequelize.transaction(async (transaction) => {
+    await Label.update({ printedAt: ctx.now() }, { where: { id: labels.map((l) => l.id) }, transaction });
+    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'labels.printed', entityType: 'label', entityId: null, summary: { count: labels.length, size, tags: labels.slice(0, 50).map((l) => l.equipmentTag) } }, transaction);
+  });
+  return pdf;
+}
+
+/** A print batch: a background job that renders one PDF and stores it; the client polls its progress. */
+export async function createBatch(ctx: AppContext, actor: AuthUser, input: CreateLabelBatch): Promise<LabelBatchDto> {
+  const labels = await labelsOf(actor, input.labelIds);
+  const batch = await LabelBatch.create({
+    id: randomUUID(),
+    organizationId: actor.organizationId,
+    requestedById: actor.id,
+    labelIds: JSON.stringify(input.labelIds),
+    size: input.size,
+    status: 'queued',
+    message: `Waiting to make ${labels.length} label${labels.length === 1 ? '' : 's'}`,
+  });
+  ctx.jobs.start(async () => {
+    try {
+      await batch.update({ status: 'running', message: 'Making the PDF', progress: 0.02 });
+      let last = Date.now();
+      const pdf = await renderLabelPdf(ctx, actor, labels, input.size, (done, total) => {
+        if (Date.now() - last > 300) {
+          last = Date.now();
+          void batch.update({ progress: 0.02 + 0.9 * (done / total), message: `Label ${done} of ${total}` });
+        }
+      });
+      await yieldToLoop();
+      const key = makeFileKey(actor.organizationId, 'pdf');
+      await ctx.storage.put(key, Buffer.from(pdf), 'application/pdf');
+      await batch.update({ status: 'done', progress: 1, fileKey: key, message: `${labels.length} label${labels.length === 1 ? '' : 's'} ready` });
+    } catch (e) {
+      await batch.update({ status: 'failed', message: e instanceof Error ? e.message.slice(0, 390) : 'The PDF could not be made' });
+    }
+  });
+  return toDto(batch);
+}
+
+async function findBatch(actor: AuthUser, id: string): Promise<LabelBatch> {
+  const b = await LabelBatch.findOne({ where: { id, organizationId: actor.organizationId } });
+  if (!b) throw ApiError.notFound('No such print batch');
+  return b;
+}
+
+export async function getBatch(actor: AuthUser, id: string): Promise<LabelBatchDto> {
+  return toDto(await findBatch(actor, id));
+}
+
+export async function batchFile(ctx: AppContext, actor: AuthUser, id: string): Promise<Buffer> {
+  const b = await findBatch(actor, id);
+  if (b.status !== 'done' || !b.fileKey) throw ApiError.conflict('The PDF is not ready yet');
+  const file = await ctx.storage.get(b.fileKey);
+  if (!file) throw ApiError.notFound('The PDF is no longer stored; make it again');
+  return file.body;
+}
