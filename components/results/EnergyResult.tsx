@@ -5,21 +5,7 @@ import { fmt, fmtLength, type LengthUnit } from '../../hooks/units';
 import { HazardMark } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space } from '../theme';
-import { Card, Notice, Num, T } from '../ui';
-
-function Row({ label, children, testID }: { label: string; children: React.ReactNode; testID?: string }) {
-  return (
-    <View
-      testID={testID}
-      style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.md, paddingVertical: 6, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
-    >
-      <T variant="small" style={{ flexShrink: 1, color: colors.inkSoft }}>
-        {label}
-      </T>
-      <View style={{ alignItems: 'flex-end', flexShrink: 1 }}>{children}</View>
-    </View>
-  );
-}
+import { Card, Notice, Num, T, ValueRow } from '../ui';
 
 /** Why the governing case governs, in one sentence. */
 function governingSentence(r: IncidentEnergyResult): string {
@@ -75,34 +61,34 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
 
       <Card>
         <T variant="subheading">Label values</T>
-        <Row label="Arc-flash boundary" testID="row-boundary">
+        <ValueRow label="Arc-flash boundary" testID="row-boundary">
           <Num value={fmtLength(result.arcFlashBoundaryMm, unit)} />
-        </Row>
-        <Row label="Minimum arc rating of clothing">
+        </ValueRow>
+        <ValueRow label="Minimum arc rating of clothing">
           <Num value={String(lv.minimumArcRatingCalPerCm2)} unit="cal/cm²" />
-        </Row>
-        <Row label="PPE level (organization)">
+        </ValueRow>
+        <ValueRow label="PPE level (organization)">
           <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel ? lv.ppeLevel.name : 'Above every level'}</T>
-        </Row>
-        <Row label="Nominal voltage">
+        </ValueRow>
+        <ValueRow label="Nominal voltage">
           <Num value={lv.nominalVoltageV.toLocaleString('en-US')} unit="V" />
-        </Row>
+        </ValueRow>
         {lv.shockApproach ? (
           <>
-            <Row label="Limited approach, movable conductor">
+            <ValueRow label="Limited approach, movable conductor">
               <T>{lv.shockApproach.limitedApproachMovable.text}</T>
-            </Row>
-            <Row label="Limited approach, fixed part">
+            </ValueRow>
+            <ValueRow label="Limited approach, fixed part">
               <T>{lv.shockApproach.limitedApproachFixed.text}</T>
-            </Row>
-            <Row label="Restricted approach">
+            </ValueRow>
+            <ValueRow label="Restricted approach">
               <T>{lv.shockApproach.restrictedApproach.text}</T>
-            </Row>
+            </ValueRow>
           </>
         ) : null}
-        <Row label="Voltage-rated gloves">
+        <ValueRow label="Voltage-rated gloves">
           <T>{lv.gloveClass ? `Class ${lv.gloveClass.class}` : '—'}</T>
-        </Row>
+        </ValueRow>
         <T variant="small">{lv.signalWordBasis}</T>
       </Card>
 
@@ -143,18 +129,18 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
             );
           })}
         </View>
-        <Row label="Arcing-current variation factor (VarCf)">
+        <ValueRow label="Arcing-current variation factor (VarCf)">
           <Num value={fmt(result.varCf, 4)} />
-        </Row>
-        <Row label="Enclosure correction factor (CF)">
+        </ValueRow>
+        <ValueRow label="Enclosure correction factor (CF)">
           <Num value={fmt(result.enclosureCorrectionFactor, 4)} />
-        </Row>
-        <Row label="Enclosure type">
+        </ValueRow>
+        <ValueRow label="Enclosure type">
           <T>{result.enclosure.enclosureType}</T>
-        </Row>
-        <Row label="Bolted fault current">
+        </ValueRow>
+        <ValueRow label="Bolted fault current">
           <Num value={fmt(result.boltedFaultKa)} unit="kA" />
-        </Row>
+        </ValueRow>
       </Card>
     </View>
   );

@@ -15,22 +15,11 @@ import { Cautions, HazardMark } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
 import { colors, fonts, radius, space } from '../theme';
-import { Card, Choice, Notice, Num, Screen, T } from '../ui';
+import { Card, Choice, Notice, Num, Screen, T, ValueRow } from '../ui';
 
 const caseKey = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) => `${c.location}:${c.arcCase}`;
 const caseTitle = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) =>
   `${c.arcCase === 'full' ? 'Full' : 'Reduced'} arcing current${c.location === 'line-side' ? ', line side of the main' : ''}`;
-
-function Row({ label, children }: { label: string; children: React.ReactNode }) {
-  return (
-    <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.md, paddingVertical: 5, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
-      <T variant="small" style={{ color: colors.inkSoft, flexShrink: 1 }}>
-        {label}
-      </T>
-      <View style={{ alignItems: 'flex-end', flexShrink: 1 }}>{children}</View>
-    </View>
-  );
-}
 
 function LabelPreview({ b }: { b: BusResult }) {
   const lv = b.labelValues!;
@@ -47,33 +36,33 @@ function LabelPreview({ b }: { b: BusResult }) {
           <Num value={fmt(lv.incidentEnergyCalPerCm2)} unit="cal/cm²" size={32} bold testID="trace-energy" />
           <Num value={fmt(lv.incidentEnergyJPerCm2)} unit="J/cm²" size={16} />
         </View>
-        <Row label="Arc-flash boundary">
+        <ValueRow label="Arc-flash boundary">
           <Num value={`${fmtLength(lv.arcFlashBoundaryMm, 'in')} (${fmtLength(lv.arcFlashBoundaryMm, 'mm')})`} size={14} />
-        </Row>
-        <Row label="Minimum arc rating">
+        </ValueRow>
+        <ValueRow label="Minimum arc rating">
           <Num value={String(lv.minimumArcRatingCalPerCm2)} unit="cal/cm²" size={14} />
-        </Row>
-        <Row label="PPE level">
+        </ValueRow>
+        <ValueRow label="PPE level">
           <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel?.name ?? 'None adequate'}</T>
-        </Row>
+        </ValueRow>
         {lv.shockApproach ? (
           <>
-            <Row label="Limited approach (movable / fixed)">
+            <ValueRow label="Limited approach (movable / fixed)">
               <T>
                 {lv.shockApproach.limitedApproachMovable.text} / {lv.shockApproach.limitedApproachFixed.text}
               </T>
-            </Row>
-            <Row label="Restricted approach">
+            </ValueRow>
+            <ValueRow label="Restricted approach">
               <T>{lv.shockApproach.restrictedApproach.text}</T>
-            </Row>
+            </ValueRow>
           </>
         ) : null}
-        <Row label="Gloves">
+        <ValueRow label="Gloves">
           <T>{lv.gloveClass ? `Class ${lv.gloveClass.class}` : '—'}</T>
-        </Row>
-        <Row label="Clearing device">
+        </ValueRow>
+        <ValueRow label="Clearing device">
           <T style={{ fontFamily: fonts.numbersBold }}>{b.clearingDeviceId ?? 'none before the cap'}</T>
-        </Row>
+        </ValueRow>
       </View>
     </View>
   );
@@ -175,18 +164,18 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         <T testID="trace-sentence" style={{ fontSize: 17, lineHeight: 25 }}>
           {current.sentence}
         </T>
-        <Row label="Arcing current at the bus">
+        <ValueRow label="Arcing current at the bus">
           <Num value={fmt(current.arcingCurrentKa)} unit="kA" size={14} />
-        </Row>
-        <Row label="Arc duration">
+        </ValueRow>
+        <ValueRow label="Arc duration">
           <Num value={`${fmt(current.arcDurationS)} s${current.arcDurationCapped ? ' (capped)' : ''}`} size={14} />
-        </Row>
-        <Row label="Incident energy">
+        </ValueRow>
+        <ValueRow label="Incident energy">
           <Num value={fmt(current.incidentEnergyCalPerCm2)} unit="cal/cm²" size={14} />
-        </Row>
-        <Row label="Arc-flash boundary">
+        </ValueRow>
+        <ValueRow label="Arc-flash boundary">
           <Num value={fmtLength(current.arcFlashBoundaryMm, 'mm')} size={14} />
-        </Row>
+        </ValueRow>
         {current.intervals.length > 1 ? (
           <View style={{ gap: 4, marginTop: space.sm }} testID="intervals">
             <T variant="label">ENERGY BY INTERVAL (SOURCES CUT OFF ONE BY ONE)</T>

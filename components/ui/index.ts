@@ -5,4 +5,5 @@ export { Field } from './Field';
 export { Notice } from './Notice';
 export { ProgressBar } from './ProgressBar';
 export { Screen } from './Screen';
+export { ValueRow } from './ValueRow';
 export { Num, T } from './Text';
