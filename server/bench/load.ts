@@ -1,0 +1,143 @@
+/**
+ * `npm run bench:load`: HTTP load on three routes of an in-process server (SQLite in a temp folder, the demo seeded).
+ * 50 connections, LOAD_SECONDS (default 20) per route, one route after the other. Prints p50/p99 latency, requests
+ * per second, errors and non-2xx responses per route; asserts nothing.
+ */
+import fs from 'node:fs';
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { createApp } from '../app';
+import { loadConfig } from '../config';
+import { migrate, openDb } from '../db';
+import { DEMO_USERS, seedDemo } from '../seed/demo';
+
+/** The part of autocannon's API used here (the package ships no types). */
+interface AutocannonOptions {
+  url: string;
+  connections: number;
+  duration: number;
+  method?: 'GET' | 'POST';
+  headers?: Record<string, string>;
+  body?: string;
+}
+interface AutocannonResult {
+  latency: { p50: number; p99: number; average: number };
+  requests: { average: number; total: number };
+  errors: number;
+  timeouts: number;
+  non2xx: number;
+  statusCodeStats: Record<string, { count: number }>;
+}
+type Autocannon = (opts: AutocannonOptions) => Promise<AutocannonResult>;
+// eslint-disable-next-line @typescript-eslint/no-require-imports
+const autocannon = require('autocannon') as Autocannon;
+
+const CONNECTIONS = 50;
+const PASSWORD = 'bench-load-password-1';
+
+/** IEEE 1584-2018 inputs of one 480 V VCB case (a valid request body, nothing more). */
+const INCIDENT_ENERGY_BODY = {
+  voltageV: 480,
+  boltedFaultKa: 20,
+  electrodeConfig: 'VCB',
+  gapMm: 25,
+  workingDistanceMm: 457.2,
+  enclosureMm: { height: 508, width: 508, depth: 508 },
+  arcDurationMs: 50,
+};
+
+function listen(server: Server): Promise<number> {
+  return new Promise((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(0, '127.0.0.1', () => resolve((server.address() as AddressInfo).port));
+  });
+}
+
+async function json<T>(res: Response, what: string): Promise<T> {
+  if (!res.ok) throw new Error(`${what}: HTTP ${res.status} ${(await res.text()).slice(0, 300)}`);
+  return (await res.json()) as T;
+}
+
+/** Requests cut off by autocannon keep running in the server for up to about a second: wait for them. */
+const DRAIN_MS = 2000;
+const drain = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, DRAIN_MS));
+
+const ms = (x: number): string => `${x.toFixed(1)} ms`.padStart(10);
+
+async function main(): Promise<void> {
+  const seconds = Number(process.env.LOAD_SECONDS ?? 20);
+  if (!Number.isFinite(seconds) || seconds <= 0) throw new Error(`LOAD_SECONDS must be a positive number, got ${process.env.LOAD_SECONDS}`);
+
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-load-'));
+  const databaseUrl = `sqlite:${path.join(dir, 'load.sqlite')}`;
+  const config = loadConfig({ NODE_ENV: 'test' }, { databaseUrl, dataDir: dir, jwtSecret: 'load-secret-load-secret-load-secret-123456' });
+  const db = await openDb(databaseUrl);
+  await migrate(db);
+  const { app, ctx } = createApp({ config, db, signInLimitPerMinute: 1000, publicCheckPerMinute: 1e9 });
+  const server = createServer(app);
+  try {
+    console.log('Seeding the demo (model, run, approval)…');
+    await seedDemo(ctx, PASSWORD);
+    const port = await listen(server);
+    const base = `http://127.0.0.1:${port}/api`;
+
+    // Sign in as the demo engineer, then find the study and one of its labels through the API.
+    const engineer = DEMO_USERS.find((u) => u.role === 'engineer');
+    if (!engineer) throw new Error('no demo engineer');
+    const signIn = await json<{ token: string }>(
+      await fetch(`${base}/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: engineer.email, password: PASSWORD }) }),
+      'sign-in',
+    );
+    const auth = { Authorization: `Bearer ${signIn.token}` };
+    const sites = await json<{ sites: { id: string }[] }>(await fetch(`${base}/sites`, { headers: auth }), 'list sites');
+    const siteId = sites.sites[0]?.id;
+    if (!siteId) throw new Error('demo site not found');
+    const studies = await json<{ studies: { id: string; status: string }[] }>(await fetch(`${base}/sites/${siteId}/studies`, { headers: auth }), 'list studies');
+    const study = studies.studies.find((s) => s.status === 'approved') ?? studies.studies[0];
+    if (!study) throw new Error('demo study not found');
+    const labels = await json<{ labels: { code: string }[] }>(await fetch(`${base}/studies/${study.id}/labels`, { headers: auth }), 'list labels');
+    const code = labels.labels[0]?.code;
+    if (!code) throw new Error('demo study has no labels');
+
+    const targets: { name: string; opts: Omit<AutocannonOptions, 'connections' | 'duration'> }[] = [
+      { name: `GET /api/studies/:id/results`, opts: { url: `${base}/studies/${study.id}/results`, headers: auth } },
+      { name: `GET /api/labels/:code (public)`, opts: { url: `${base}/labels/${encodeURIComponent(code)}` } },
+      {
+        name: `POST /api/calc/incident-energy`,
+        opts: { url: `${base}/calc/incident-energy`, method: 'POST', headers: { ...auth, 'content-type': 'application/json' }, body: JSON.stringify(INCIDENT_ENERGY_BODY) },
+      },
+    ];
+
+    console.log(`Emberline load (node ${process.version}, SQLite, ${CONNECTIONS} connections, ${seconds} s per route)\n`);
+    const rows: string[] = [];
+    for (const t of targets) {
+      process.stdout.write(`  ${t.name} …\n`);
+      const r = await autocannon({ ...t.opts, connections: CONNECTIONS, duration: seconds });
+      // autocannon drops its sockets at the end; let the requests still in the server finish before the next route.
+      await drain();
+      const codes = Object.entries(r.statusCodeStats)
+        .map(([status, s]) => `${status}×${s.count}`)
+        .join(' ');
+      rows.push(
+        `${t.name.padEnd(34)}${ms(r.latency.p50)}${ms(r.latency.p99)}${r.requests.average.toFixed(0).padStart(10)}` +
+          `${String(r.errors + r.timeouts).padStart(8)}${String(r.non2xx).padStart(8)}   ${codes}`,
+      );
+    }
+    console.log(`\n${'route'.padEnd(34)}${'p50'.padStart(10)}${'p99'.padStart(10)}${'req/s'.padStart(10)}${'errors'.padStart(8)}${'non2xx'.padStart(8)}   status codes`);
+    for (const row of rows) console.log(row);
+  } finally {
+    await new Promise<void>((resolve) => server.close(() => resolve()));
+    server.closeAllConnections();
+    await drain();
+    await ctx.jobs.idle();
+    await db.close();
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+void main().catch((e: unknown) => {
+  console.error(e);
+  process.exit(1);
+});
