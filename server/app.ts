@@ -8,6 +8,7 @@ import type { Db } from './db';
 import type { AppContext } from './http/context';
 import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';
+import { createMailer, type Mailer } from './mail';
 import { mountRoutes, type AnyRoute } from './http/route';
 import { allRoutes } from './routes';
 import { Jobs } from './services/jobs';
@@ -23,6 +24,8 @@ export interface CreateAppOptions {
   publicCheckPerMinute?: number;
   /** Defaults to a local-disk store under DATA_DIR/uploads. */
   storage?: FileStore;
+  /** Defaults to the mailer the config asks for (SMTP_URL, or the local sink, started on first use). */
+  mail?: Mailer;
 }
 
 /** Builds the Express app (no listening): /api plus the exported web build on the same origin. */
@@ -33,6 +36,7 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
     now: opts.now ?? (() => new Date()),
     jobs: new Jobs(),
     storage: opts.storage ?? new LocalFileStore(path.join(opts.config.dataDir, 'uploads')),
+    mail: opts.mail ?? createMailer(opts.config),
   };
   const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? 20, publicCheckPerMinute: opts.publicCheckPerMinute ?? 120 });
   const app = express();

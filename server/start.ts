@@ -4,6 +4,7 @@ import { buildWeb, webBuildIsStale } from './cli/webBuild';
 import { ConfigError, loadConfig } from './config';
 import { migrate, openDb } from './db';
 import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
+import { startReminderScheduler } from './services/reminders';
 import { failInterruptedRuns } from './services/runs';
 import { openFileStore, storageConfigFromEnv } from './storage';
 
@@ -26,11 +27,14 @@ async function main(): Promise<void> {
   if (interrupted) console.log(`${interrupted} interrupted study run(s) marked failed.`);
   const files = await openFileStore(storageConfigFromEnv(process.env, config.dataDir));
   const { app, ctx } = createApp({ config, db, storage: files.store });
+  console.log(await ctx.mail.start());
   if (await isEmpty()) {
     await seedDemo(ctx, config.demoPassword);
     console.log('Seeded the invented demo organization, its site and an approved study.');
   }
   if (process.env.SKIP_WEB_BUILD !== '1' && webBuildIsStale(process.cwd(), config.webDir)) buildWeb(process.cwd(), config.webDir);
+  // The daily reminders: checked every 5 minutes; each rule goes out once a day after the organization's hour.
+  const reminders = startReminderScheduler(ctx);
   const server = createServer(app);
   server.listen(config.port, config.host, () => {
     console.log(`\nEmberline is serving http://localhost:${config.port}`);
@@ -38,7 +42,14 @@ async function main(): Promise<void> {
     for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(12)} ${u.email}`);
   });
   const stop = (): void => {
-    server.close(() => void Promise.all([db.close(), files.close()]).then(() => process.exit(0)));
+    server.close(
+      () =>
+        void reminders
+          .stop()
+          .then(() => ctx.mail.close())
+          .then(() => Promise.all([db.close(), files.close()]))
+          .then(() => process.exit(0)),
+    );
     setTimeout(() => process.exit(0), 3000).unref();
   };
   process.on('SIGINT', stop);

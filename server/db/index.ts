@@ -1,11 +1,12 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { Sequelize } from 'sequelize';
+import { Sequelize, Transaction } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import * as m001 from './migrations/001-initial';
 import * as m002 from './migrations/002-device-types';
 import * as m003 from './migrations/003-studies';
 import * as m004 from './migrations/004-labels';
+import * as m005 from './migrations/005-attention-mail';
 import { initModels } from './models';
 
 /** Migrations in order. Add new ones at the end; never edit one that has shipped. */
@@ -14,6 +15,7 @@ const MIGRATIONS = [
   { name: '002-device-types', ...m002 },
   { name: '003-studies', ...m003 },
   { name: '004-labels', ...m004 },
+  { name: '005-attention-mail', ...m005 },
 ];
 
 export interface Db {
@@ -29,7 +31,10 @@ export async function openDb(databaseUrl: string): Promise<Db> {
   if (isSqlite) {
     const storage = databaseUrl.slice('sqlite:'.length) || ':memory:';
     if (storage !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(storage)), { recursive: true });
-    sequelize = new Sequelize({ dialect: 'sqlite', storage, logging: false, pool: { max: 1, min: 0 } });
+    // IMMEDIATE: a transaction takes the write lock when it begins, so two overlapping read-then-write transactions
+    // wait for each other (busy timeout) instead of one failing when it tries to upgrade its lock.
+    sequelize = new Sequelize({ dialect: 'sqlite', storage, logging: false, pool: { max: 1, min: 0 }, transactionType: Transaction.TYPES.IMMEDIATE });
+    configureEachSqliteConnection(sequelize);
     await sequelize.query('PRAGMA foreign_keys = ON');
     if (storage !== ':memory:') await sequelize.query('PRAGMA journal_mode = WAL');
     await sequelize.query('PRAGMA busy_timeout = 5000');
@@ -42,6 +47,22 @@ export async function openDb(databaseUrl: string): Promise<Db> {
     sequelize,
     dialect: isSqlite ? 'sqlite' : 'postgres',
     close: () => sequelize.close(),
+  };
+}
+
+/** The busy timeout is per connection, and the SQLite dialect opens one connection per transaction on a file. */
+function configureEachSqliteConnection(sequelize: Sequelize): void {
+  type SqliteConnection = { configure(option: 'busyTimeout', ms: number): void };
+  const cm = sequelize.connectionManager as unknown as { getConnection(options?: unknown): Promise<SqliteConnection> };
+  const getConnection = cm.getConnection.bind(cm);
+  const configured = new WeakSet<SqliteConnection>();
+  cm.getConnection = async (options?: unknown) => {
+    const connection = await getConnection(options);
+    if (!configured.has(connection)) {
+      connection.configure('busyTimeout', 5000);
+      configured.add(connection);
+    }
+    return connection;
   };
 }
 

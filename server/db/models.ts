@@ -52,6 +52,10 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
   declare createdAt: CreationOptional<Date>;
 }
 
+function appendOnly(): never {
+  throw new Error('Audit events are append-only: they cannot be changed or deleted');
+}
+
 export class RevokedToken extends Model<InferAttributes<RevokedToken>, InferCreationAttributes<RevokedToken>> {
   declare jti: string;
   declare expiresAt: Date;
@@ -163,8 +167,74 @@ export class FieldReport extends Model<InferAttributes<FieldReport>, InferCreati
   declare photoKey: string | null;
   declare status: FieldReportStatus;
   declare resolutionNote: CreationOptional<string | null>;
+  declare acknowledgedAt: CreationOptional<Date | null>;
+  declare acknowledgedById: CreationOptional<string | null>;
+  declare resolvedAt: CreationOptional<Date | null>;
+  declare resolvedById: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
+}
+
+export type LinkPurpose = 'invitation' | 'password-reset';
+
+/** A one-time link (invitation or password reset): only the SHA-256 of the token is stored. */
+export class LinkToken extends Model<InferAttributes<LinkToken>, InferCreationAttributes<LinkToken>> {
+  declare id: string;
+  declare organizationId: string;
+  declare purpose: LinkPurpose;
+  declare tokenHash: string;
+  declare email: string;
+  declare name: string;
+  declare role: string | null;
+  declare userId: string | null;
+  declare createdById: string | null;
+  declare expiresAt: Date;
+  declare usedAt: CreationOptional<Date | null>;
+  declare revokedAt: CreationOptional<Date | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class ReminderRuleRow extends Model<InferAttributes<ReminderRuleRow>, InferCreationAttributes<ReminderRuleRow>> {
+  declare id: string;
+  declare organizationId: string;
+  declare name: string;
+  declare enabled: boolean;
+  /** JSON arrays. */
+  declare lists: string;
+  declare roles: string;
+  declare emails: string;
+  declare onlyWhenSomething: boolean;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class ReminderDeliveryRow extends Model<InferAttributes<ReminderDeliveryRow>, InferCreationAttributes<ReminderDeliveryRow>> {
+  declare id: string;
+  declare organizationId: string;
+  declare ruleId: string;
+  declare ruleName: string;
+  declare trigger: 'daily' | 'manual';
+  declare dayKey: string;
+  declare status: 'sending' | 'sent' | 'skipped' | 'failed';
+  declare recipients: CreationOptional<string>;
+  declare itemCount: CreationOptional<number>;
+  declare message: CreationOptional<string>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** A message received by the local SMTP sink (development and tests). */
+export class CapturedMail extends Model<InferAttributes<CapturedMail>, InferCreationAttributes<CapturedMail>> {
+  declare id: string;
+  declare organizationId: string | null;
+  declare messageId: string | null;
+  declare kind: CreationOptional<string>;
+  declare from: CreationOptional<string>;
+  declare to: CreationOptional<string>;
+  declare subject: CreationOptional<string>;
+  declare text: CreationOptional<string>;
+  declare receivedAt: Date;
 }
 
 export class LabelBatch extends Model<InferAttributes<LabelBatch>, InferCreationAttributes<LabelBatch>> {
@@ -233,7 +303,19 @@ export function initModels(sequelize: Sequelize): void {
       summary: { type: DataTypes.TEXT, allowNull: false, defaultValue: '{}' },
       createdAt: { type: DataTypes.DATE, allowNull: false },
     },
-    { sequelize, tableName: 'audit_events', updatedAt: false },
+    {
+      sequelize,
+      tableName: 'audit_events',
+      updatedAt: false,
+      // Append-only: the application never changes or removes an event once written.
+      hooks: {
+        beforeUpdate: appendOnly,
+        beforeBulkUpdate: appendOnly,
+        beforeDestroy: appendOnly,
+        beforeBulkDestroy: appendOnly,
+        beforeUpsert: appendOnly,
+      },
+    },
   );
   DeviceType.init(
     {
@@ -337,9 +419,75 @@ export function initModels(sequelize: Sequelize): void {
       photoKey: { type: DataTypes.STRING(200), allowNull: true },
       status: { type: DataTypes.STRING(20), allowNull: false },
       resolutionNote: { type: DataTypes.TEXT, allowNull: true },
+      acknowledgedAt: col.nullableDate(),
+      acknowledgedById: col.nullableId(),
+      resolvedAt: col.nullableDate(),
+      resolvedById: col.nullableId(),
       ...timestamps(),
     },
     { sequelize, tableName: 'field_reports' },
+  );
+  LinkToken.init(
+    {
+      id: col.id(),
+      organizationId: col.orgId(),
+      purpose: { type: DataTypes.STRING(20), allowNull: false },
+      tokenHash: { type: DataTypes.STRING(64), allowNull: false, unique: true },
+      email: { type: DataTypes.STRING(320), allowNull: false },
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      role: { type: DataTypes.STRING(20), allowNull: true },
+      userId: col.nullableId(),
+      createdById: col.nullableId(),
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      usedAt: col.nullableDate(),
+      revokedAt: col.nullableDate(),
+      ...timestamps(),
+    },
+    { sequelize, tableName: 'link_tokens' },
+  );
+  ReminderRuleRow.init(
+    {
+      id: col.id(),
+      organizationId: col.orgId(),
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      enabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      lists: { type: DataTypes.TEXT, allowNull: false },
+      roles: { type: DataTypes.TEXT, allowNull: false },
+      emails: { type: DataTypes.TEXT, allowNull: false },
+      onlyWhenSomething: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      ...timestamps(),
+    },
+    { sequelize, tableName: 'reminder_rules' },
+  );
+  ReminderDeliveryRow.init(
+    {
+      id: col.id(),
+      organizationId: col.orgId(),
+      ruleId: { type: DataTypes.STRING(36), allowNull: false },
+      ruleName: { type: DataTypes.STRING(120), allowNull: false },
+      trigger: { type: DataTypes.STRING(10), allowNull: false },
+      dayKey: { type: DataTypes.STRING(60), allowNull: false },
+      status: { type: DataTypes.STRING(10), allowNull: false },
+      recipients: { type: DataTypes.TEXT, allowNull: false, defaultValue: '[]' },
+      itemCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      message: { type: DataTypes.STRING(400), allowNull: false, defaultValue: '' },
+      ...timestamps(),
+    },
+    { sequelize, tableName: 'reminder_deliveries' },
+  );
+  CapturedMail.init(
+    {
+      id: col.id(),
+      organizationId: col.nullableId(),
+      messageId: { type: DataTypes.STRING(300), allowNull: true },
+      kind: { type: DataTypes.STRING(40), allowNull: false, defaultValue: '' },
+      from: { type: DataTypes.STRING(320), allowNull: false, defaultValue: '' },
+      to: { type: DataTypes.TEXT, allowNull: false, defaultValue: '[]' },
+      subject: { type: DataTypes.STRING(400), allowNull: false, defaultValue: '' },
+      text: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+      receivedAt: { type: DataTypes.DATE, allowNull: false },
+    },
+    { sequelize, tableName: 'captured_mail', timestamps: false },
   );
   LabelBatch.init(
     {

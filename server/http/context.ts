@@ -1,6 +1,7 @@
 import type { Config } from '../config';
 import type { Db } from '../db';
 import type { Role } from '../../shared/schemas/common';
+import type { Mailer } from '../mail/types';
 import type { Jobs } from '../services/jobs';
 import type { FileStore } from '../storage';
 
@@ -14,6 +15,8 @@ export interface AppContext {
   jobs: Jobs;
   /** Uploaded photos and generated files: local disk or S3-compatible. */
   storage: FileStore;
+  /** Outgoing mail: SMTP (SMTP_URL) or the local sink that files messages in the outbox. */
+  mail: Mailer;
 }
 
 export interface AuthUser {

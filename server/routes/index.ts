@@ -1,9 +1,12 @@
 import { z } from 'zod';
 import { defineRoute, type AnyRoute } from '../http/route';
+import { accountLinkRoutes } from './accountLinks';
+import { attentionRoutes } from './attention';
 import { authRoutes } from './auth';
 import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
 import { labelBatchRoutes, studyReportRoute } from './labelBatches';
 import { labelFieldRoutes, labelRoutes } from './labels';
+import { mailRoutes } from './mail';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
 import { siteRoutes } from './sites';
@@ -44,5 +47,8 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...labelFieldRoutes,
     ...labelBatchRoutes,
     studyReportRoute,
+    ...attentionRoutes,
+    ...mailRoutes,
+    ...accountLinkRoutes(opts),
   ];
 }

@@ -1,5 +1,6 @@
 import { randomBytes, randomUUID } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
+import { REPORT_KINDS } from '../../shared/schemas/fieldReports';
 import type { LabelCheck, LabelContent, LabelDto, LabelStatus } from '../../shared/schemas/labels';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { FieldReport, Label, Site, type Study, User } from '../db/models';
@@ -205,7 +206,7 @@ export async function markInstalled(ctx: AppContext, actor: AuthUser, labelId: s
   return (await toLabelDtos([label], ctx.now()))[0];
 }
 
-export const REPORT_KINDS = ['voltage', 'device', 'setting', 'equipment-changed', 'label-damaged', 'other'] as const;
+export { REPORT_KINDS };
 
 export async function reportMismatch(
   ctx: AppContext,
@@ -217,7 +218,7 @@ export async function reportMismatch(
   return ctx.db.sequelize.transaction(async (transaction) => {
     const l = await findLabel(actor, labelId, transaction);
     const r = await FieldReport.create(
-      { id: randomUUID(), organizationId: actor.organizationId, siteId: l.siteId, labelId: l.id, reporterId: actor.id, kind: input.kind, text: input.text, photoKey, status: 'open' },
+      { id: randomUUID(), organizationId: actor.organizationId, siteId: l.siteId, labelId: l.id, reporterId: actor.id, kind: input.kind, text: input.text, photoKey, status: 'open', createdAt: ctx.now() },
       { transaction },
     );
     await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'field-report.opened', entityType: 'field-report', entityId: r.id, summary: { labelId: l.id, tag: l.equipmentTag, kind: input.kind } }, transaction);

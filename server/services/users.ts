@@ -1,7 +1,10 @@
 import { randomUUID } from 'node:crypto';
+import { Op, Transaction } from 'sequelize';
+import type { SignInResponse } from '../../shared/schemas/auth';
 import type { CreateUser, UpdateUser, UserAdmin } from '../../shared/schemas/users';
-import { hashPassword } from '../auth/passwords';
-import { User } from '../db/models';
+import { hashPassword, verifyPassword } from '../auth/passwords';
+import { signToken } from '../auth/tokens';
+import { LinkToken, User } from '../db/models';
 import type { AppContext, AuthUser } from '../http/context';
 import { ApiError } from '../http/errors';
 import { recordAudit } from './audit';
@@ -60,4 +63,45 @@ export async function updateUser(ctx: AppContext, actor: AuthUser, userId: strin
     );
     return toUserAdmin(user);
   });
+}
+
+/** A fresh session for the user (after a password change, a reset or an accepted invitation). */
+export function signInResponseFor(ctx: AppContext, user: User): SignInResponse {
+  const { token, expiresAt } = signToken(ctx.config.jwtSecret, ctx.config.jwtTtlHours, user);
+  return { token, expiresAt: expiresAt.toISOString(), user: { id: user.id, email: user.email, name: user.name, role: user.role } };
+}
+
+/**
+ * The signed-in user changes their password: the current one is checked, every session (this one included) ends
+ * (tokenVersion + 1), open reset links stop working, and a fresh session is returned.
+ */
+export async function changePassword(ctx: AppContext, actor: AuthUser, input: { currentPassword: string; newPassword: string }): Promise<SignInResponse> {
+  const current = await User.findOne({ where: { id: actor.id, organizationId: actor.organizationId } });
+  if (!current) throw ApiError.unauthorized();
+  if (!(await verifyPassword(current.passwordHash, input.currentPassword))) {
+    throw new ApiError('bad_request', 'The current password is not right', { currentPassword: 'Not your current password' });
+  }
+  if (input.newPassword === input.currentPassword) {
+    throw new ApiError('bad_request', 'Choose a new password that differs from the current one', { newPassword: 'Same as the current password' });
+  }
+  const passwordHash = await hashPassword(input.newPassword);
+  const now = ctx.now();
+  const user = await ctx.db.sequelize.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
+    const u = await User.findOne({ where: { id: actor.id, organizationId: actor.organizationId }, transaction });
+    // Changed in between (another session changed the password): the caller's proof no longer holds.
+    if (!u || !u.active || u.passwordHash !== current.passwordHash) throw ApiError.unauthorized('Your session is no longer valid; sign in again');
+    u.passwordHash = passwordHash;
+    u.tokenVersion += 1;
+    await u.save({ transaction });
+    await LinkToken.update(
+      { revokedAt: now },
+      { where: { userId: u.id, purpose: 'password-reset', usedAt: null, revokedAt: null, expiresAt: { [Op.gt]: now } }, transaction },
+    );
+    await recordAudit(
+      { organizationId: u.organizationId, actorId: u.id, action: 'password.changed', entityType: 'user', entityId: u.id, summary: { email: u.email } },
+      transaction,
+    );
+    return u;
+  });
+  return signInResponseFor(ctx, user);
 }

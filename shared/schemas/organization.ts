@@ -49,6 +49,14 @@ export const organizationSettingsSchema = z
       .default(() => DEFAULT_PPE_LEVELS.map((l) => ({ ...l }))),
     maxArcDurationMs: z.number().positive().max(10_000).default(2000).describe('Cap of the arc duration (IEEE 1584 2 s guidance)'),
     requireIndependentApprover: z.boolean().default(false).describe('The approver must differ from the last editor'),
+    notInstalledAfterDays: z
+      .number()
+      .int('Whole days')
+      .min(1)
+      .max(365)
+      .default(30)
+      .describe('An approved label not marked installed this many days after issue needs attention'),
+    reminderHourUtc: z.number().int('Whole hours').min(0).max(23).default(6).describe('Hour (UTC) at which the daily reminders go out'),
   })
   .meta({ id: 'OrganizationSettings' });
 export type OrganizationSettings = z.infer<typeof organizationSettingsSchema>;

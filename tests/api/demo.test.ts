@@ -25,4 +25,23 @@ describe('the invented demo', () => {
     const equipment = await request(t.app).get(`/api/sites/${seeded.siteId}/equipment`).set('Authorization', `Bearer ${token}`);
     expect(equipment.body.equipment).toHaveLength(buses.length);
   });
+
+  it('gives the safety officer something to look at: a review coming due, a label not installed, open reports', async () => {
+    const token = (await request(t.app).post('/api/auth/sign-in').send({ email: 'safety@larkspur.example', password: 'demo-password-123' })).body.token;
+    const res = await request(t.app).get('/api/attention').set('Authorization', `Bearer ${token}`);
+    expect(res.status).toBe(200);
+    expect(res.body.counts).toMatchObject({
+      'review-overdue': 0,
+      'review-due-30': 0,
+      'review-due-90': 1,
+      'not-installed': 1,
+      'open-reports': 2,
+      'superseded-installed': 0,
+      'stale-studies': 0,
+    });
+    expect(res.body.sites).toHaveLength(2);
+    // Reminder rules are in place from the start, so nobody has to remember to send anything.
+    const rules = await request(t.app).get('/api/reminder-rules').set('Authorization', `Bearer ${token}`);
+    expect(rules.body.rules.length).toBeGreaterThan(0);
+  });
 });

@@ -49,6 +49,8 @@ export async function makeTestApp(): Promise<TestApp> {
   await migrate(db);
   let fixedNow: Date | null = null;
   const { app, ctx } = createApp({ config, db, now: () => fixedNow ?? new Date(), signInLimitPerMinute: 10_000 });
+  // No SMTP_URL in the test config: mail goes over a real socket to the local sink, which files it in captured_mail.
+  await ctx.mail.start();
   const hash = await hashPassword(TEST_PASSWORD);
   const roles: Role[] = ['admin', 'engineer', 'electrician', 'safety'];
 
@@ -79,6 +81,7 @@ export async function makeTestApp(): Promise<TestApp> {
     },
     close: async () => {
       await ctx.jobs.idle();
+      await ctx.mail.close();
       await db.close();
     },
   };
