@@ -1,11 +1,11 @@
 import { Link, usePathname } from 'expo-router';
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, ScrollView, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
 import { ROLE_LABELS } from '../shared/schemas/common';
 import { useSession, useUser } from '../hooks/session';
 import { useLayout } from '../hooks/useLayout';
-import { isActive, MORE_ITEM, navFor } from './nav';
+import { isActive, MORE_ITEM, navFor, phoneTabsFor } from './nav';
 import { colors, fonts, space, touch } from './theme';
 import { T } from './ui';
 
@@ -27,7 +27,8 @@ export function AppShell({ children }: { children: React.ReactNode }) {
   const insets = useSafeAreaInsets();
   const items = navFor(user.role);
   // A phone has room for five tabs: beyond that the last one opens the full menu.
-  const tabs = items.length > 5 ? [...items.slice(0, 4), MORE_ITEM] : items;
+  const { tabs } = phoneTabsFor(user.role);
+  const direct = tabs.filter((t) => t !== MORE_ITEM);
 
   if (wide) {
     return (
@@ -36,31 +37,33 @@ export function AppShell({ children }: { children: React.ReactNode }) {
           <View style={{ paddingHorizontal: space.sm, marginBottom: space.xl }}>
             <Wordmark light />
           </View>
-          {items.map((item) => {
-            const on = isActive(item.href, pathname);
-            return (
-              <Link key={item.href} href={item.href as never} asChild>
-                <Pressable
-                  accessibilityRole="link"
-                  accessibilityState={{ selected: on }}
-                  style={{
-                    minHeight: touch.min,
-                    flexDirection: 'row',
-                    alignItems: 'center',
-                    gap: space.md,
-                    paddingHorizontal: space.md,
-                    borderRadius: 8,
-                    backgroundColor: on ? 'rgba(255,255,255,0.12)' : 'transparent',
-                  }}
-                >
-                  <T style={{ color: on ? colors.navInk : colors.navMuted, fontSize: 18, width: 22, textAlign: 'center' }}>{item.glyph}</T>
-                  <T style={{ color: on ? colors.navInk : colors.navMuted, fontFamily: on ? fonts.textBold : fonts.textMedium }}>{item.label}</T>
-                </Pressable>
-              </Link>
-            );
-          })}
-          <View style={{ flex: 1 }} />
-          <View style={{ paddingHorizontal: space.sm, gap: 2 }}>
+          {/* Many items (an administrator's) scroll within the side navigation, keeping the user and sign-out in view. */}
+          <ScrollView style={{ flex: 1 }} contentContainerStyle={{ gap: space.xs }}>
+            {items.map((item) => {
+              const on = isActive(item.href, pathname);
+              return (
+                <Link key={item.href} href={item.href as never} asChild>
+                  <Pressable
+                    accessibilityRole="link"
+                    accessibilityState={{ selected: on }}
+                    style={{
+                      minHeight: touch.min,
+                      flexDirection: 'row',
+                      alignItems: 'center',
+                      gap: space.md,
+                      paddingHorizontal: space.md,
+                      borderRadius: 8,
+                      backgroundColor: on ? 'rgba(255,255,255,0.12)' : 'transparent',
+                    }}
+                  >
+                    <T style={{ color: on ? colors.navInk : colors.navMuted, fontSize: 18, width: 22, textAlign: 'center' }}>{item.glyph}</T>
+                    <T style={{ color: on ? colors.navInk : colors.navMuted, fontFamily: on ? fonts.textBold : fonts.textMedium }}>{item.label}</T>
+                  </Pressable>
+                </Link>
+              );
+            })}
+          </ScrollView>
+          <View style={{ paddingHorizontal: space.sm, gap: 2, paddingTop: space.md }}>
             <T style={{ color: colors.navInk, fontFamily: fonts.textMedium }} testID="shell-user">
               {user.name}
             </T>
@@ -101,7 +104,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
         style={{ flexDirection: 'row', backgroundColor: colors.surface, borderTopWidth: 1, borderTopColor: colors.line, paddingBottom: insets.bottom }}
       >
         {tabs.map((item) => {
-          const on = item === MORE_ITEM ? !items.slice(0, 4).some((i) => isActive(i.href, pathname)) : isActive(item.href, pathname);
+          const on = item === MORE_ITEM ? !direct.some((i) => isActive(i.href, pathname)) : isActive(item.href, pathname);
           return (
             <Link key={item.href} href={item.href as never} asChild>
               <Pressable

@@ -11,17 +11,39 @@ export interface NavItem {
 /** The navigation, in order. Items appear for the roles that use them. */
 export const NAV_ITEMS: NavItem[] = [
   { href: '/', label: 'Home', glyph: '⌂', roles: 'all' },
+  { href: '/attention', label: 'Attention', glyph: '◈', roles: ['admin', 'engineer', 'safety'] },
   { href: '/sites', label: 'Sites', glyph: '▦', roles: 'all' },
   { href: '/labels', label: 'Labels', glyph: '▤', roles: 'all' },
   { href: '/scan', label: 'Scan', glyph: '⌖', roles: ['electrician', 'engineer', 'safety'] },
+  { href: '/reports', label: 'Reports', glyph: '⚑', roles: 'all' },
   { href: '/spot-check', label: 'Spot check', glyph: '◇', roles: 'all' },
   { href: '/devices', label: 'Devices', glyph: '◔', roles: 'all' },
+  { href: '/audit-log', label: 'Audit log', glyph: '☷', roles: ['admin', 'engineer', 'safety'] },
+  { href: '/reminders', label: 'Reminders', glyph: '◷', roles: ['admin', 'safety'] },
   { href: '/team', label: 'Team', glyph: '◎', roles: ['admin'] },
+  { href: '/outbox', label: 'Outbox', glyph: '✉', roles: ['admin'] },
   { href: '/settings', label: 'Settings', glyph: '≡', roles: ['admin'] },
+  { href: '/account', label: 'Account', glyph: '◐', roles: 'all' },
 ];
 
 export function navFor(role: Role): NavItem[] {
   return NAV_ITEMS.filter((i) => i.roles === 'all' || i.roles.includes(role));
+}
+
+/** The phone's first tabs per role: what each role reaches for most; everything else is under More. */
+const PHONE_TABS: Record<Role, readonly string[]> = {
+  safety: ['/', '/attention', '/labels', '/scan'],
+  engineer: ['/', '/sites', '/attention', '/reports'],
+  electrician: ['/', '/labels', '/scan', '/reports'],
+  admin: ['/', '/attention', '/team', '/sites'],
+};
+
+/** A phone has room for five tabs: the role's first four, then More when there are further items. */
+export function phoneTabsFor(role: Role): { tabs: NavItem[]; more: boolean } {
+  const items = navFor(role);
+  if (items.length <= 5) return { tabs: items, more: false };
+  const tabs = PHONE_TABS[role].map((href) => items.find((i) => i.href === href)).filter((i): i is NavItem => !!i);
+  return { tabs: [...tabs, MORE_ITEM], more: true };
 }
 
 export function isActive(href: string, pathname: string): boolean {

@@ -62,7 +62,12 @@ export function useUpdateSettings() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (settings: OrganizationSettingsInput) => apiFetch<OrganizationDto>('/organization/settings', { method: 'PUT', body: settings }),
-    onSuccess: (org) => qc.setQueryData(queryKeys.organization(), org),
+    onSuccess: (org) => {
+      qc.setQueryData(queryKeys.organization(), org);
+      // The dashboard's "not installed" list and the reminder hour follow the settings.
+      void qc.invalidateQueries({ queryKey: queryKeys.attention.all() });
+      void qc.invalidateQueries({ queryKey: queryKeys.reminders.all() });
+    },
   });
 }
 

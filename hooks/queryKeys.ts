@@ -23,4 +23,26 @@ export const queryKeys = {
     list: () => ['sites', 'list'] as const,
     detail: (siteId: string) => ['sites', 'detail', siteId] as const,
   },
+  attention: {
+    all: () => ['attention'] as const,
+    summary: (siteId: string | null) => ['attention', 'summary', siteId ?? ''] as const,
+    list: (list: string, siteId: string | null) => ['attention', 'list', list, siteId ?? ''] as const,
+  },
+  fieldReports: {
+    all: () => ['field-reports'] as const,
+    list: (filters: { status?: string; siteId?: string; mine?: boolean }) => ['field-reports', 'list', filters] as const,
+    detail: (id: string) => ['field-reports', 'detail', id] as const,
+  },
+  audit: {
+    all: () => ['audit-events'] as const,
+    list: (filters: Record<string, string | undefined>) => ['audit-events', 'list', filters] as const,
+  },
+  reminders: {
+    all: () => ['reminders'] as const,
+    rules: () => ['reminders', 'rules'] as const,
+    deliveries: () => ['reminders', 'deliveries'] as const,
+  },
+  outbox: () => ['outbox'] as const,
+  invitations: () => ['invitations'] as const,
+  linkInfo: (token: string) => ['link-info', token] as const,
 };

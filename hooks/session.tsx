@@ -11,6 +11,8 @@ interface SessionValue {
   ready: boolean;
   signIn(email: string, password: string): Promise<User>;
   signOut(): Promise<void>;
+  /** Takes a session the API handed out (a changed password, an accepted invitation, a reset): stores its token. */
+  adopt(res: SignInResponse): User;
 }
 
 const SessionContext = createContext<SessionValue | null>(null);
@@ -51,6 +53,24 @@ export function SessionProvider({ children }: { children: React.ReactNode }) {
     return res.user;
   }, []);
 
+  const adopt = useCallback(
+    (res: SignInResponse) => {
+      let previousId: string | null = null;
+      try {
+        previousId = (JSON.parse(storage.get(USER_KEY) ?? 'null') as User | null)?.id ?? null;
+      } catch {
+        /* unreadable: treat as nobody */
+      }
+      // Another person's session on this browser: drop what was cached for them.
+      if (previousId !== res.user.id) queryClient.clear();
+      storage.set(TOKEN_KEY, res.token);
+      storage.set(USER_KEY, JSON.stringify(res.user));
+      setUser(res.user);
+      return res.user;
+    },
+    [queryClient],
+  );
+
   const signOut = useCallback(async () => {
     try {
       await apiFetch('/auth/sign-out', { method: 'POST' });
@@ -60,7 +80,7 @@ export function SessionProvider({ children }: { children: React.ReactNode }) {
     clear();
   }, [clear]);
 
-  const value = useMemo(() => ({ user, ready, signIn, signOut }), [user, ready, signIn, signOut]);
+  const value = useMemo(() => ({ user, ready, signIn, signOut, adopt }), [user, ready, signIn, signOut, adopt]);
   return <SessionContext.Provider value={value}>{children}</SessionContext.Provider>;
 }
 

@@ -3,11 +3,13 @@ import React from 'react';
 import { Pressable, View } from 'react-native';
 import type { Role } from '../../shared/schemas/common';
 import { ROLE_LABELS } from '../../shared/schemas/common';
+import { useAttentionSummary } from '../../hooks/attention';
 import { useMe, useSites, useUsers } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
-import { colors, radius, space, touch } from '../theme';
-import { Card, Num, Screen, T } from '../ui';
+import { colors, radius, space, touch, fonts } from '../theme';
+import { Card, Loading, Num, QueryError, Screen, T } from '../ui';
+import { AttentionCards, AttentionCaution, OpenReportAges } from './AttentionScreen';
 
 interface Step {
   title: string;
@@ -22,21 +24,30 @@ const ROLE_HOME: Record<Role, { duty: string; steps: Step[] }> = {
     steps: [
       { title: 'Open a site', detail: 'Its equipment, studies and revisions', href: '/sites' },
       { title: 'Add a site', detail: 'Start the model of a new facility', href: '/sites?new=1' },
+      { title: 'Field reports', detail: 'Acknowledge and resolve what the field reports', href: '/reports' },
     ],
   },
   electrician: {
     duty: 'Print approved labels, put them on the equipment, check them in the field and report what does not match.',
-    steps: [{ title: 'Sites', detail: 'Approved studies and their equipment', href: '/sites' }],
+    steps: [
+      { title: 'Sites', detail: 'Approved studies and their equipment', href: '/sites' },
+      { title: 'My reports', detail: 'What you reported and where it stands', href: '/reports' },
+    ],
   },
   safety: {
     duty: 'Audit: studies nearing review, labels superseded but still installed, labels not yet installed, open field reports.',
-    steps: [{ title: 'Sites', detail: 'Every site of the organization, read-only', href: '/sites' }],
+    steps: [
+      { title: 'Field reports', detail: 'Acknowledge and resolve mismatches from the field', href: '/reports' },
+      { title: 'Audit log', detail: 'Who changed what, and when', href: '/audit-log' },
+      { title: 'Reminders', detail: 'Who is e-mailed about which lists', href: '/reminders' },
+    ],
   },
   admin: {
     duty: 'Manage the organization: people, roles and settings.',
     steps: [
-      { title: 'Team', detail: 'Add people, change roles, deactivate', href: '/team' },
+      { title: 'Team', detail: 'Invite people, change roles, deactivate', href: '/team' },
       { title: 'Sites', detail: 'Sites of the organization', href: '/sites' },
+      { title: 'Outbox', detail: 'Invitations, password links and reminders sent', href: '/outbox' },
     ],
   },
 };
@@ -87,6 +98,30 @@ function TeamSummary() {
   );
 }
 
+/** The safety officer's first view: the dashboard's counts, each opening its list. */
+function AttentionHome() {
+  const summary = useAttentionSummary(null);
+  return (
+    <View style={{ gap: space.md }} testID="home-attention">
+      <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-end', flexWrap: 'wrap', gap: space.sm }}>
+        <T variant="heading">Needs attention</T>
+        <Link href="/attention" style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}>
+          Open the dashboard →
+        </Link>
+      </View>
+      <QueryError error={summary.error} title="The dashboard could not be loaded" />
+      {summary.isLoading ? <Loading what="Counting what needs attention…" /> : null}
+      {summary.data ? (
+        <>
+          <AttentionCards summary={summary.data} siteId={null} />
+          <OpenReportAges summary={summary.data} siteId={null} />
+        </>
+      ) : null}
+      <AttentionCaution />
+    </View>
+  );
+}
+
 export function HomeScreen() {
   const user = useUser();
   const me = useMe();
@@ -99,8 +134,9 @@ export function HomeScreen() {
         <T variant="label" style={{ color: colors.navMuted }}>
           YOUR ROLE: {ROLE_LABELS[user.role].toUpperCase()}
         </T>
-        <T style={{ color: colors.navInk, fontSize: 18, lineHeight: 26 }}>{home.duty}</T>
+        <T style={{ color: colors.navInk, fontSize: 18, fontFamily: fonts.textMedium, lineHeight: 26 }}>{home.duty}</T>
       </Card>
+      {user.role === 'safety' ? <AttentionHome /> : null}
       <T variant="heading">Next</T>
       <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap', gap: space.md }}>
         {home.steps.map((s) => (
@@ -113,7 +149,7 @@ export function HomeScreen() {
         {sites.isLoading ? <T variant="small">Loading…</T> : null}
         {sites.data?.length === 0 ? <T variant="small">No sites yet.</T> : null}
         {sites.data?.slice(0, 5).map((s) => (
-          <Link key={s.id} href={`/sites/${s.id}` as never} style={{ color: colors.accent, fontSize: 16, paddingVertical: 6 }}>
+          <Link key={s.id} href={`/sites/${s.id}` as never} style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium, paddingVertical: 6 }}>
             {s.name}
           </Link>
         ))}

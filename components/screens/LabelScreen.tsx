@@ -1,3 +1,4 @@
+import { REPORT_KIND_LABELS, REPORT_KINDS } from '../../shared/schemas/fieldReports';
 import React, { useState } from 'react';
 import { Platform, View } from 'react-native';
 import { LABEL_STATUS_LABELS } from '../../shared/schemas/labels';
@@ -10,14 +11,7 @@ import { LabelView } from '../labels/LabelView';
 import { colors, fonts, radius, space } from '../theme';
 import { Button, Card, Choice, Field, Notice, Screen, T } from '../ui';
 
-const KINDS = [
-  { value: 'voltage', label: 'Voltage' },
-  { value: 'device', label: 'Protective device' },
-  { value: 'setting', label: 'Device setting' },
-  { value: 'equipment-changed', label: 'Equipment changed' },
-  { value: 'label-damaged', label: 'Label damaged' },
-  { value: 'other', label: 'Other' },
-] as const;
+const KINDS = REPORT_KINDS.map((value) => ({ value, label: REPORT_KIND_LABELS[value] }));
 
 function PhotoInput({ onFile, testID, label }: { onFile: (f: File | null) => void; testID: string; label: string }) {
   if (Platform.OS !== 'web') return null;

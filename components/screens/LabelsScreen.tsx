@@ -1,4 +1,4 @@
-import { Link } from 'expo-router';
+import { Link, useLocalSearchParams } from 'expo-router';
 import React, { useEffect, useMemo, useState } from 'react';
 import { Pressable, View } from 'react-native';
 import { LABEL_STATUS_LABELS, type LabelDto, type LabelSize } from '../../shared/schemas/labels';
@@ -49,7 +49,9 @@ export function LabelsScreen() {
   const user = useUser();
   const { wide } = useLayout();
   const sites = useSites();
-  const [siteId, setSiteId] = useState<string | null>(null);
+  // `/labels?site=<id>` opens one site's labels (links from the dashboard and the site screen).
+  const params = useLocalSearchParams<{ site?: string }>();
+  const [siteId, setSiteId] = useState<string | null>(typeof params.site === 'string' && params.site ? params.site : null);
   useEffect(() => {
     if (!siteId && sites.data?.length) setSiteId(sites.data[0].id);
   }, [sites.data, siteId]);

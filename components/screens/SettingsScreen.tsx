@@ -20,6 +20,8 @@ export function SettingsScreen() {
   const [danger, setDanger] = useState('40');
   const [cap, setCap] = useState('2000');
   const [independent, setIndependent] = useState<'yes' | 'no'>('no');
+  const [notInstalled, setNotInstalled] = useState('30');
+  const [reminderHour, setReminderHour] = useState('6');
   const [levels, setLevels] = useState<LevelRow[]>([]);
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
@@ -31,6 +33,8 @@ export function SettingsScreen() {
     setDanger(String(s.signalWord.dangerAboveCalPerCm2));
     setCap(String(s.maxArcDurationMs));
     setIndependent(s.requireIndependentApprover ? 'yes' : 'no');
+    setNotInstalled(String(s.notInstalledAfterDays));
+    setReminderHour(String(s.reminderHourUtc));
     setLevels(s.ppeLevels.map((l) => ({ name: l.name, max: String(l.maxCalPerCm2), description: l.description ?? '' })));
   }, [org.data]);
 
@@ -41,9 +45,13 @@ export function SettingsScreen() {
       signalWord: { dangerAboveCalPerCm2: Number(danger) },
       maxArcDurationMs: Number(cap),
       requireIndependentApprover: independent === 'yes',
+      notInstalledAfterDays: notInstalled.trim() === '' ? Number.NaN : Number(notInstalled),
+      reminderHourUtc: reminderHour.trim() === '' ? Number.NaN : Number(reminderHour),
       ppeLevels: levels.map((l) => ({ name: l.name, maxCalPerCm2: Number(l.max), description: l.description || undefined })),
     });
     if (!v.ok) {
+      if (v.errors.notInstalledAfterDays && !/^\d+$/.test(notInstalled.trim())) v.errors.notInstalledAfterDays = 'Enter whole days from 1 to 365';
+      if (v.errors.reminderHourUtc && !/^\d+$/.test(reminderHour.trim())) v.errors.reminderHourUtc = 'Enter a whole hour from 0 to 23';
       setErrors(v.errors);
       setMessage({ tone: 'error', text: 'Some settings need attention (marked below).' });
       return;
@@ -77,6 +85,33 @@ export function SettingsScreen() {
           onChange={setIndependent}
           testID="independent"
         />
+      </Card>
+      <Card testID="attention-settings">
+        <T variant="subheading">Attention and reminders</T>
+        <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+          <Field
+            label="A label needs attention when not installed after"
+            unit="days"
+            numeric
+            testID="not-installed-days"
+            value={notInstalled}
+            onChangeText={setNotInstalled}
+            error={errors.notInstalledAfterDays}
+            hint="Counted from the label’s issue; listed on the dashboard after that"
+            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+          />
+          <Field
+            label="Daily reminders go out at"
+            unit="hour, UTC, 0–23"
+            numeric
+            testID="reminder-hour-utc"
+            value={reminderHour}
+            onChangeText={setReminderHour}
+            error={errors.reminderHourUtc}
+            hint={/^\d{1,2}$/.test(reminderHour.trim()) ? `${reminderHour.trim().padStart(2, '0')}:00 UTC` : 'A whole hour from 0 to 23'}
+            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+          />
+        </View>
       </Card>
       <Card>
         <T variant="subheading">Signal word</T>

@@ -1,4 +1,4 @@
-import { Redirect } from 'expo-router';
+import { Link, Redirect } from 'expo-router';
 import React, { useState } from 'react';
 import { KeyboardAvoidingView, ScrollView, View } from 'react-native';
 import { signInRequestSchema } from '../../shared/schemas/auth';
@@ -78,6 +78,9 @@ export function SignInScreen() {
               onSubmitEditing={() => void submit()}
             />
             <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={() => void submit()} />
+            <Link href="/forgot-password" style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium, alignSelf: 'center', paddingVertical: space.xs }} testID="forgot-password">
+              Forgot your password?
+            </Link>
           </View>
           <T variant="small" style={{ color: colors.navMuted }}>
             Results in Emberline come from a model and are not final until a qualified, licensed engineer approves them.

@@ -1,13 +1,16 @@
 import React, { useState } from 'react';
 import { View } from 'react-native';
 import { ROLE_LABELS, ROLES, type Role } from '../../shared/schemas/common';
+import { createInvitationSchema, type InvitationDto } from '../../shared/schemas/invitations';
 import { createUserSchema, type UserAdmin } from '../../shared/schemas/users';
+import { fmtDate } from '../../hooks/dates';
 import { serverErrors, validate } from '../../hooks/forms';
+import { useCreateInvitation, useInvitations, useResendInvitation, useRevokeInvitation } from '../../hooks/mail';
 import { useCreateUser, useUpdateUser, useUsers } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, space } from '../theme';
-import { Button, Card, Choice, Field, Notice, Screen, T } from '../ui';
+import { Button, Card, Choice, ConfirmButton, Empty, Field, Loading, Notice, Pill, type PillTone, QueryError, Screen, T } from '../ui';
 
 const inRow = { flexGrow: 1, flexBasis: 220 } as const;
 const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
@@ -46,6 +49,140 @@ function NewUserForm({ onDone }: { onDone: () => void }) {
         <Button title="Cancel" kind="secondary" onPress={onDone} />
       </View>
     </Card>
+  );
+}
+
+function InviteForm({ onDone, onSent }: { onDone: () => void; onSent: (i: InvitationDto) => void }) {
+  const [form, setForm] = useState({ email: '', name: '', role: 'electrician' as Role });
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [message, setMessage] = useState<string | null>(null);
+  const invite = useCreateInvitation();
+  const set = (k: 'email' | 'name') => (v: string) => setForm((f) => ({ ...f, [k]: v }));
+  const submit = () => {
+    setMessage(null);
+    const v = validate(createInvitationSchema, form);
+    if (!v.ok) return setErrors(v.errors);
+    setErrors({});
+    invite.mutate(v.data, {
+      onSuccess: (i) => {
+        onSent(i);
+        onDone();
+      },
+      onError: (e) => {
+        const s = serverErrors(e);
+        setMessage(s.message);
+        setErrors(s.fields);
+      },
+    });
+  };
+  return (
+    <Card testID="invite-form">
+      <T variant="subheading">Invite someone</T>
+      <T variant="small">They get an e-mail with a link to choose their own password. The link works for 7 days, once.</T>
+      {message ? <Notice tone="error">{message}</Notice> : null}
+      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+        <Field label="Name" testID="invite-name" value={form.name} onChangeText={set('name')} error={errors.name} containerStyle={inRow} />
+        <Field label="E-mail" testID="invite-email" value={form.email} onChangeText={set('email')} autoCapitalize="none" inputMode="email" error={errors.email} containerStyle={inRow} />
+      </View>
+      <Choice label="Role" value={form.role} options={roleOptions} onChange={(r) => setForm((f) => ({ ...f, role: r }))} testID="invite-role" />
+      <View style={{ flexDirection: 'row', gap: space.sm }}>
+        <Button title="Send invitation" testID="invite-send" busy={invite.isPending} onPress={submit} />
+        <Button title="Cancel" kind="secondary" onPress={onDone} />
+      </View>
+    </Card>
+  );
+}
+
+const INVITATION_STATUS: Record<InvitationDto['status'], { word: string; tone: PillTone }> = {
+  pending: { word: 'Pending', tone: 'accent' },
+  accepted: { word: 'Accepted', tone: 'ok' },
+  expired: { word: 'Expired', tone: 'neutral' },
+  revoked: { word: 'Revoked', tone: 'neutral' },
+};
+
+function InvitationRow({ i }: { i: InvitationDto }) {
+  const resend = useResendInvitation();
+  const revoke = useRevokeInvitation();
+  const [note, setNote] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
+  const st = INVITATION_STATUS[i.status];
+  const open = i.status === 'pending' || i.status === 'expired';
+  return (
+    <View testID={`invitation-${i.email}`} style={{ gap: space.sm, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
+      <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
+        <View style={{ gap: 2, flexShrink: 1 }}>
+          <T style={{ fontFamily: fonts.textMedium }}>
+            {i.name} · {ROLE_LABELS[i.role]}
+          </T>
+          <T variant="small" style={{ fontFamily: fonts.numbers }}>
+            {i.email}
+          </T>
+          <T variant="small">
+            Invited {fmtDate(i.createdAt)} by {i.invitedBy}
+            {i.status === 'pending' ? ` · link works until ${fmtDate(i.expiresAt)}` : ''}
+          </T>
+        </View>
+        <Pill label={st.word} tone={st.tone} testID={`invitation-status-${i.email}`} />
+      </View>
+      {note ? <Notice tone={note.tone}>{note.text}</Notice> : null}
+      {open ? (
+        <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-start' }}>
+          <Button
+            title="Send again"
+            kind="secondary"
+            testID={`invitation-resend-${i.email}`}
+            busy={resend.isPending}
+            onPress={() =>
+              resend.mutate(i.id, {
+                onSuccess: () => setNote({ tone: 'ok', text: 'Sent again with a new link; the earlier link no longer works.' }),
+                onError: (e) => setNote({ tone: 'error', text: serverErrors(e).message }),
+              })
+            }
+          />
+          {i.status === 'pending' ? (
+            <ConfirmButton
+              title="Revoke"
+              question={`Revoke the invitation of ${i.email}? The link stops working.`}
+              busy={revoke.isPending}
+              testID={`invitation-revoke-${i.email}`}
+              onConfirm={() => revoke.mutate(i.id, { onError: (e) => setNote({ tone: 'error', text: serverErrors(e).message }) })}
+            />
+          ) : null}
+        </View>
+      ) : null}
+    </View>
+  );
+}
+
+function Invitations({ inviting, setInviting }: { inviting: boolean; setInviting: (v: boolean) => void }) {
+  const invitations = useInvitations();
+  const [sent, setSent] = useState<InvitationDto | null>(null);
+  const list = invitations.data ?? [];
+  const pending = list.filter((i) => i.status === 'pending');
+  const others = list.filter((i) => i.status !== 'pending' && i.status !== 'accepted');
+  return (
+    <View style={{ gap: space.md }}>
+      {inviting ? <InviteForm onDone={() => setInviting(false)} onSent={setSent} /> : null}
+      {sent ? (
+        <Notice tone="ok" testID="invite-sent">
+          {`Invitation sent to ${sent.email}. It shows as pending until they set their password.`}
+        </Notice>
+      ) : null}
+      <Card testID="invitations">
+        <T variant="subheading">Invitations</T>
+        <QueryError error={invitations.error} />
+        {invitations.isLoading ? <Loading what="Loading invitations…" /> : null}
+        {invitations.data && pending.length === 0 && others.length === 0 ? (
+          <Empty title="No open invitations" testID="invitations-empty">
+            Invite someone to let them set their own password. Pending, expired and revoked invitations are listed here.
+          </Empty>
+        ) : null}
+        <View>
+          {[...pending, ...others].map((i) => (
+            <InvitationRow key={i.id} i={i} />
+          ))}
+        </View>
+      </Card>
+    </View>
   );
 }
 
@@ -92,13 +229,21 @@ export function TeamScreen() {
   const users = useUsers();
   const { wide } = useLayout();
   const [adding, setAdding] = useState(false);
+  const [inviting, setInviting] = useState(false);
   return (
     <Screen
       title="Team"
       subtitle="People of the organization, their roles, and who may sign in."
-      actions={!adding ? <Button title="Add a person" testID="add-user" onPress={() => setAdding(true)} /> : null}
+      actions={
+        <>
+          {!inviting ? <Button title="Invite someone" testID="invite-user" onPress={() => setInviting(true)} /> : null}
+          {!adding ? <Button title="Add a person" kind="secondary" testID="add-user" onPress={() => setAdding(true)} /> : null}
+        </>
+      }
     >
       {adding ? <NewUserForm onDone={() => setAdding(false)} /> : null}
+      <Invitations inviting={inviting} setInviting={setInviting} />
+      <T variant="heading">People</T>
       {users.error ? <Notice tone="error">{users.error.message}</Notice> : null}
       <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.md }}>
         {users.data?.map((u) => (

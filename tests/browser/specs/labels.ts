@@ -8,18 +8,29 @@ function assert(cond: unknown, message: string): asserts cond {
   if (!cond) throw new Error(message);
 }
 
-/** A current label code of the demo site, read through the API as the electrician would see it. */
-async function demoLabelCode(h: Harness, tag: string): Promise<string> {
+async function electricianAuth(h: Harness): Promise<Record<string, string>> {
   const signIn = await fetch(`${h.baseUrl}/api/auth/sign-in`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
     body: JSON.stringify({ email: 'electrician@larkspur.example', password: DEMO_PASSWORD }),
   });
   const { token } = (await signIn.json()) as { token: string };
-  const auth = { Authorization: `Bearer ${token}` };
+  return { Authorization: `Bearer ${token}` };
+}
+
+/** The id of the demo's main site (the facility), read through the API. */
+async function facilityId(h: Harness): Promise<string> {
+  const auth = await electricianAuth(h);
   const sites = (await (await fetch(`${h.baseUrl}/api/sites`, { headers: auth })).json()) as { sites: { id: string; name: string }[] };
-  const site = sites.sites.find((s) => s.name.startsWith('Larkspur'))!;
-  const labels = (await (await fetch(`${h.baseUrl}/api/sites/${site.id}/labels?current=1`, { headers: auth })).json()) as { labels: { code: string; equipmentTag: string }[] };
+  const site = sites.sites.find((s) => s.name === 'Larkspur Valley Water Reclamation Facility');
+  assert(site, 'the demo facility site');
+  return site.id;
+}
+
+/** A current label code of the demo facility, read through the API as the electrician would see it. */
+async function demoLabelCode(h: Harness, tag: string): Promise<string> {
+  const auth = await electricianAuth(h);
+  const labels = (await (await fetch(`${h.baseUrl}/api/sites/${await facilityId(h)}/labels?current=1`, { headers: auth })).json()) as { labels: { code: string; equipmentTag: string }[] };
   const label = labels.labels.find((l) => l.equipmentTag === tag);
   assert(label, `a current label for ${tag}`);
   return label.code;
@@ -43,7 +54,7 @@ export const specs: Spec[] = [
       const page = await h.newPage(viewport);
       await h.signIn(page, 'electrician@larkspur.example');
       await page.getByTestId('home-electrician').waitFor();
-      await page.goto(`${h.baseUrl}/labels`);
+      await page.goto(`${h.baseUrl}/labels?site=${await facilityId(h)}`);
       await page.getByTestId('label-row-USS-1').waitFor();
       await page.getByTestId('label-row-USS-1').getByRole('button').first().click();
       await page.getByTestId('select-all').click();

@@ -1,0 +1,3 @@
+import { AccountScreen } from '../../components/screens/AccountScreen';
+
+export default AccountScreen;

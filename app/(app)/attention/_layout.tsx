@@ -1,0 +1,10 @@
+import { Redirect, Slot } from 'expo-router';
+import React from 'react';
+import { useUser } from '../../../hooks/session';
+
+/** Guard: the dashboard is for administrators, engineers and safety officers. */
+export default function AttentionLayout() {
+  const user = useUser();
+  if (user.role === 'electrician') return <Redirect href="/" />;
+  return <Slot />;
+}

@@ -1,0 +1,3 @@
+import { AttentionScreen } from '../../../components/screens/AttentionScreen';
+
+export default AttentionScreen;

@@ -1,0 +1,10 @@
+import { Redirect, Slot } from 'expo-router';
+import React from 'react';
+import { useUser } from '../../../hooks/session';
+
+/** Guard: the audit log is for administrators, engineers and safety officers. */
+export default function AuditLogLayout() {
+  const user = useUser();
+  if (user.role === 'electrician') return <Redirect href="/" />;
+  return <Slot />;
+}

@@ -1,0 +1,3 @@
+import { AuditLogScreen } from '../../../components/screens/AuditLogScreen';
+
+export default AuditLogScreen;

@@ -1,0 +1,3 @@
+import { OutboxScreen } from '../../../components/screens/OutboxScreen';
+
+export default OutboxScreen;

@@ -1,0 +1,10 @@
+import { Redirect, Slot } from 'expo-router';
+import React from 'react';
+import { useUser } from '../../../hooks/session';
+
+/** Guard: reminder rules are for administrators and safety officers. */
+export default function RemindersLayout() {
+  const user = useUser();
+  if (user.role !== 'admin' && user.role !== 'safety') return <Redirect href="/" />;
+  return <Slot />;
+}

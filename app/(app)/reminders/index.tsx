@@ -1,0 +1,3 @@
+import { RemindersScreen } from '../../../components/screens/RemindersScreen';
+
+export default RemindersScreen;

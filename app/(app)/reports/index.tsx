@@ -1,0 +1,3 @@
+import { ReportsScreen } from '../../../components/screens/ReportsScreen';
+
+export default ReportsScreen;

@@ -1,0 +1,3 @@
+import { ForgotPasswordScreen } from '../components/screens/ForgotPasswordScreen';
+
+export default ForgotPasswordScreen;

@@ -1,0 +1,185 @@
+import { Link, useLocalSearchParams } from 'expo-router';
+import React, { useMemo, useState } from 'react';
+import { View } from 'react-native';
+import { auditQuerySchema, type AuditEventDto } from '../../shared/schemas/auditLog';
+import { auditCsvPath, useAuditEvents, type AuditFilters } from '../../hooks/attention';
+import { fmtDateTime } from '../../hooks/dates';
+import { downloadFile } from '../../hooks/download';
+import { serverErrors } from '../../hooks/forms';
+import { useDebounced } from '../../hooks/useDebounced';
+import { useLayout } from '../../hooks/useLayout';
+import { colors, fonts, radius, space } from '../theme';
+import { Button, Choice, Empty, Field, Loading, Notice, QueryError, Screen, T } from '../ui';
+
+/** Action prefixes (ending in a dot: the API matches them as prefixes) to narrow the log by what was acted on. */
+const ACTION_CHIPS = [
+  { value: '', label: 'Everything' },
+  { value: 'study.', label: 'Studies' },
+  { value: 'label.', label: 'Labels' },
+  { value: 'labels.', label: 'Label printing' },
+  { value: 'field-report.', label: 'Field reports' },
+  { value: 'site.', label: 'Sites' },
+  { value: 'user.', label: 'People' },
+  { value: 'invitation.', label: 'Invitations' },
+  { value: 'password.', label: 'Passwords' },
+  { value: 'auth.', label: 'Sign-ins' },
+  { value: 'reminder-rule.', label: 'Reminder rules' },
+  { value: 'reminders.', label: 'Reminders sent' },
+  { value: 'organization.', label: 'Settings' },
+] as const;
+type ActionChip = (typeof ACTION_CHIPS)[number]['value'];
+
+const dateSchema = auditQuerySchema.shape.from;
+
+function dateError(value: string): string | undefined {
+  if (!value.trim()) return undefined;
+  return dateSchema.safeParse(value.trim()).success ? undefined : 'A date as YYYY-MM-DD';
+}
+
+function EventRow({ e, wide }: { e: AuditEventDto; wide: boolean }) {
+  const who = e.actor ? e.actor.name : 'The system';
+  if (wide) {
+    return (
+      <View testID={`audit-event-${e.id}`} style={{ flexDirection: 'row', gap: space.md, paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
+        <T style={{ width: 130, fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft }}>{fmtDateTime(e.at).replace(' UTC', '')}</T>
+        <View style={{ width: 170, gap: 2 }}>
+          <T style={{ fontSize: 15, fontFamily: fonts.textMedium }}>{who}</T>
+          {e.actor ? <T variant="small" numberOfLines={1}>{e.actor.email}</T> : null}
+        </View>
+        <View style={{ flex: 1, gap: 2 }}>
+          <T style={{ fontSize: 15 }}>{e.description}</T>
+          <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>{e.action}</T>
+        </View>
+      </View>
+    );
+  }
+  return (
+    <View testID={`audit-event-${e.id}`} style={{ paddingHorizontal: space.lg, paddingVertical: space.md, gap: 2, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
+      <T style={{ fontSize: 15 }}>{e.description}</T>
+      <T variant="small">
+        {who} · {fmtDateTime(e.at)}
+      </T>
+      <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>{e.action}</T>
+    </View>
+  );
+}
+
+/** Who did what and when: searchable, filterable, exportable. Nothing here can be edited or deleted. */
+export function AuditLogScreen() {
+  const { wide } = useLayout();
+  const params = useLocalSearchParams<{ entityType?: string; entityId?: string; actorId?: string }>();
+  const [q, setQ] = useState('');
+  const [action, setAction] = useState<ActionChip>('');
+  const [from, setFrom] = useState('');
+  const [to, setTo] = useState('');
+  const [showFilters, setShowFilters] = useState(false);
+  const [downloading, setDownloading] = useState(false);
+  const [downloadError, setDownloadError] = useState<string | null>(null);
+  const dq = useDebounced(q.trim());
+  const dFrom = useDebounced(from.trim());
+  const dTo = useDebounced(to.trim());
+  const fromError = dateError(from);
+  const toError = dateError(to);
+
+  const filters: AuditFilters = useMemo(
+    () => ({
+      q: dq || undefined,
+      action: action || undefined,
+      from: dFrom && !dateError(dFrom) ? dFrom : undefined,
+      to: dTo && !dateError(dTo) ? dTo : undefined,
+      entityType: params.entityType || undefined,
+      entityId: params.entityId || undefined,
+      actorId: params.actorId || undefined,
+    }),
+    [dq, action, dFrom, dTo, params.entityType, params.entityId, params.actorId],
+  );
+  const events = useAuditEvents(filters);
+  const all = events.data?.pages.flatMap((p) => p.events) ?? [];
+  const filtered = !!(filters.q || filters.action || filters.from || filters.to);
+  const activeFilters = [action, from.trim(), to.trim()].filter(Boolean).length;
+  const scoped = !!(params.entityType || params.entityId || params.actorId);
+
+  const exportCsv = () => {
+    setDownloadError(null);
+    setDownloading(true);
+    downloadFile(auditCsvPath(filters), 'audit-log.csv')
+      .catch((e) => setDownloadError(serverErrors(e).message))
+      .finally(() => setDownloading(false));
+  };
+
+  return (
+    <Screen
+      title="Audit log"
+      subtitle="Every change to studies, labels, reports, people and settings: who, what and when. The log cannot be edited."
+      actions={<Button title="Export CSV" kind="secondary" testID="audit-export" busy={downloading} onPress={exportCsv} />}
+    >
+      {scoped ? (
+        <Notice testID="audit-scope">
+          <T>
+            Showing only the events of {params.entityType ?? 'one'} {params.entityId ?? ''}
+            {params.actorId ? ` by one person` : ''}.{' '}
+            <Link href="/audit-log" style={{ color: colors.accent }}>
+              Show every event
+            </Link>
+          </T>
+        </Notice>
+      ) : null}
+      <View style={{ gap: space.md, backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft, padding: space.lg }}>
+        <Field label="Search" testID="audit-search" value={q} onChangeText={setQ} placeholder="Name, tag, word…" autoCapitalize="none" />
+        {wide || showFilters ? (
+          <>
+            <Choice label="About" value={action} onChange={setAction} options={ACTION_CHIPS} testID="audit-action" />
+            <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+              <Field label="From" testID="audit-from" value={from} onChangeText={setFrom} placeholder="YYYY-MM-DD" error={fromError} containerStyle={{ flexGrow: 1, flexBasis: 160 }} />
+              <Field label="Until (including that day)" testID="audit-to" value={to} onChangeText={setTo} placeholder="YYYY-MM-DD" error={toError} containerStyle={{ flexGrow: 1, flexBasis: 160 }} />
+            </View>
+          </>
+        ) : null}
+        {!wide ? (
+          <View style={{ flexDirection: 'row' }}>
+            <Button
+              title={showFilters ? 'Hide filters' : `Filters${activeFilters ? ` (${activeFilters} on)` : ''}`}
+              kind="quiet"
+              testID="audit-filters"
+              onPress={() => setShowFilters((v) => !v)}
+            />
+          </View>
+        ) : null}
+      </View>
+      {downloadError ? <Notice tone="error">{downloadError}</Notice> : null}
+      <QueryError error={events.error} title="The log could not be loaded" />
+      {events.isLoading ? <Loading what="Loading the log…" /> : null}
+      {events.data ? (
+        <T variant="small" testID="audit-count">
+          {all.length === 1 ? '1 event' : `${all.length} events`} shown{events.hasNextPage ? ', newest first; more below' : ''}
+        </T>
+      ) : null}
+      {events.data && all.length === 0 ? (
+        <Empty title={filtered ? 'No events match' : 'No events yet'} testID="audit-empty">
+          {filtered
+            ? 'Nothing in the log matches these filters. Clear the search or widen the dates.'
+            : 'Changes to studies, labels, field reports, people, invitations and settings are recorded here as they happen.'}
+        </Empty>
+      ) : null}
+      {all.length ? (
+        <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }} testID="audit-events">
+          {wide ? (
+            <View style={{ flexDirection: 'row', gap: space.md, paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.line }}>
+              <T variant="label" style={{ width: 130 }}>WHEN (UTC)</T>
+              <T variant="label" style={{ width: 170 }}>WHO</T>
+              <T variant="label" style={{ flex: 1 }}>WHAT</T>
+            </View>
+          ) : null}
+          {all.map((e) => (
+            <EventRow key={e.id} e={e} wide={wide} />
+          ))}
+        </View>
+      ) : null}
+      {events.hasNextPage ? (
+        <View style={{ flexDirection: 'row' }}>
+          <Button title="Load more" kind="secondary" testID="audit-load-more" busy={events.isFetchingNextPage} onPress={() => void events.fetchNextPage()} />
+        </View>
+      ) : null}
+    </Screen>
+  );
+}

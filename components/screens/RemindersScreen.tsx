@@ -1,0 +1,295 @@
+import { Link } from 'expo-router';
+import React, { useState } from 'react';
+import { View } from 'react-native';
+import { ATTENTION_LIST_INFO, ATTENTION_LISTS, type AttentionList } from '../../shared/schemas/attention';
+import { ROLE_LABELS, ROLES, type Role } from '../../shared/schemas/common';
+import { reminderRuleInputSchema, type ReminderDelivery, type ReminderRule } from '../../shared/schemas/reminders';
+import { fmtDateTime, fmtHourUtc } from '../../hooks/dates';
+import { serverErrors, validate } from '../../hooks/forms';
+import { useDeleteReminderRule, useDeliveries, useReminderRules, useSaveReminderRule, useSendNow } from '../../hooks/mail';
+import { useUser } from '../../hooks/session';
+import { useLayout } from '../../hooks/useLayout';
+import { colors, fonts, radius, space } from '../theme';
+import { Button, Card, Choice, ConfirmButton, Empty, Field, Loading, MultiChoice, Notice, Pill, type PillTone, QueryError, Screen, T } from '../ui';
+
+const listOptions = ATTENTION_LISTS.map((l) => ({ value: l, label: ATTENTION_LIST_INFO[l].title }));
+const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
+
+const DELIVERY_TONE: Record<ReminderDelivery['status'], PillTone> = { sending: 'accent', sent: 'ok', skipped: 'neutral', failed: 'danger' };
+const DELIVERY_WORD: Record<ReminderDelivery['status'], string> = { sending: 'Sending', sent: 'Sent', skipped: 'Skipped', failed: 'Failed' };
+
+interface Draft {
+  name: string;
+  lists: AttentionList[];
+  roles: Role[];
+  emails: string;
+  enabled: 'on' | 'off';
+  onlyWhenSomething: 'yes' | 'no';
+}
+
+const emptyDraft: Draft = { name: '', lists: ['review-overdue', 'superseded-installed', 'open-reports'], roles: ['safety'], emails: '', enabled: 'on', onlyWhenSomething: 'yes' };
+
+function draftOf(r: ReminderRule): Draft {
+  return {
+    name: r.name,
+    lists: [...r.lists],
+    roles: [...r.roles],
+    emails: r.emails.join(', '),
+    enabled: r.enabled ? 'on' : 'off',
+    onlyWhenSomething: r.onlyWhenSomething ? 'yes' : 'no',
+  };
+}
+
+/** The first message of a field and of its items (e.g. `emails[2]`). */
+function fieldError(errors: Record<string, string>, key: string): string | undefined {
+  if (errors[key]) return errors[key];
+  const k = Object.keys(errors).find((e) => e.startsWith(`${key}[`) || e.startsWith(`${key}.`));
+  return k ? errors[k] : undefined;
+}
+
+function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void }) {
+  const [d, setD] = useState<Draft>(rule ? draftOf(rule) : emptyDraft);
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [message, setMessage] = useState<string | null>(null);
+  const save = useSaveReminderRule();
+  const submit = () => {
+    setMessage(null);
+    const input = {
+      name: d.name,
+      lists: d.lists,
+      roles: d.roles,
+      emails: d.emails
+        .split(/[\s,;]+/)
+        .map((e) => e.trim())
+        .filter(Boolean),
+      enabled: d.enabled === 'on',
+      onlyWhenSomething: d.onlyWhenSomething === 'yes',
+    };
+    const v = validate(reminderRuleInputSchema, input);
+    if (!v.ok) return setErrors(v.errors);
+    setErrors({});
+    save.mutate(
+      { id: rule?.id, input: v.data },
+      {
+        onSuccess: onDone,
+        onError: (e) => {
+          const s = serverErrors(e);
+          setMessage(s.message);
+          setErrors(s.fields);
+        },
+      },
+    );
+  };
+  return (
+    <Card testID="rule-form">
+      <T variant="subheading">{rule ? `Edit “${rule.name}”` : 'New reminder rule'}</T>
+      {message ? <Notice tone="error">{message}</Notice> : null}
+      <Field label="Name" testID="rule-name" value={d.name} onChangeText={(name) => setD({ ...d, name })} error={errors.name} placeholder="e.g. Weekly safety round-up" />
+      <MultiChoice label="Lists to include" values={d.lists} options={listOptions} onChange={(lists) => setD({ ...d, lists })} error={fieldError(errors, 'lists')} testID="rule-lists" />
+      <MultiChoice label="Send to everyone with the role" values={d.roles} options={roleOptions} onChange={(roles) => setD({ ...d, roles })} error={fieldError(errors, 'roles')} testID="rule-roles" />
+      <Field
+        label="Further e-mail addresses"
+        testID="rule-emails"
+        value={d.emails}
+        onChangeText={(emails) => setD({ ...d, emails })}
+        autoCapitalize="none"
+        error={fieldError(errors, 'emails')}
+        hint="Separate several with commas"
+        placeholder="contractor@example.org"
+      />
+      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.lg }}>
+        <Choice label="Rule" value={d.enabled} onChange={(enabled) => setD({ ...d, enabled })} options={[{ value: 'on', label: 'Enabled' }, { value: 'off', label: 'Paused' }]} testID="rule-enabled" />
+        <Choice
+          label="When every chosen list is empty"
+          value={d.onlyWhenSomething}
+          onChange={(onlyWhenSomething) => setD({ ...d, onlyWhenSomething })}
+          options={[{ value: 'yes', label: 'Skip that day' }, { value: 'no', label: 'Send anyway' }]}
+          testID="rule-only-when"
+        />
+      </View>
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+        <Button title={rule ? 'Save rule' : 'Create rule'} testID="rule-save" busy={save.isPending} onPress={submit} />
+        <Button title="Cancel" kind="secondary" onPress={onDone} />
+      </View>
+    </Card>
+  );
+}
+
+function deliveryLine(d: ReminderDelivery): string {
+  const items = d.itemCount === 1 ? '1 item' : `${d.itemCount} items`;
+  if (d.status === 'sent') return `${d.ruleName}: sent to ${d.recipients.join(', ') || 'nobody'} (${items}).`;
+  return `${d.ruleName}: ${DELIVERY_WORD[d.status].toLowerCase()} (${items})${d.message ? ` — ${d.message}` : ''}.`;
+}
+
+function RuleCard({ rule, onEdit, onSent }: { rule: ReminderRule; onEdit: () => void; onSent: (d: ReminderDelivery[]) => void }) {
+  const del = useDeleteReminderRule();
+  const send = useSendNow();
+  const [error, setError] = useState<string | null>(null);
+  return (
+    <Card testID={`rule-${rule.name}`} style={{ opacity: rule.enabled ? 1 : 0.8 }}>
+      <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
+        <T variant="subheading" style={{ flexShrink: 1 }}>
+          {rule.name}
+        </T>
+        <Pill label={rule.enabled ? 'Enabled' : 'Paused'} tone={rule.enabled ? 'ok' : 'neutral'} />
+      </View>
+      <View style={{ gap: 4 }}>
+        <T variant="label">LISTS</T>
+        <T style={{ fontSize: 15 }}>{rule.lists.map((l) => ATTENTION_LIST_INFO[l].title).join(' · ')}</T>
+      </View>
+      <View style={{ gap: 4 }}>
+        <T variant="label">TO</T>
+        <T style={{ fontSize: 15 }}>
+          {[...rule.roles.map((r) => `every ${ROLE_LABELS[r].toLowerCase()}`), ...rule.emails].join(', ') || '—'}
+        </T>
+      </View>
+      <T variant="small">
+        {rule.onlyWhenSomething ? 'Skips the days when every chosen list is empty.' : 'Sent every day, even when the lists are empty.'} Last sent:{' '}
+        {rule.lastSentAt ? fmtDateTime(rule.lastSentAt) : 'never'}.
+      </T>
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'flex-start' }}>
+        <Button
+          title="Send now"
+          testID={`rule-send-${rule.name}`}
+          busy={send.isPending}
+          onPress={() => {
+            setError(null);
+            send.mutate(rule.id, { onSuccess: (r) => onSent(r.deliveries), onError: (e) => setError(serverErrors(e).message) });
+          }}
+        />
+        <Button title="Edit" kind="secondary" testID={`rule-edit-${rule.name}`} onPress={onEdit} />
+        <ConfirmButton
+          title="Delete"
+          question={`Delete the rule “${rule.name}”? Its past deliveries stay in the list below.`}
+          busy={del.isPending}
+          testID={`rule-delete-${rule.name}`}
+          onConfirm={() => del.mutate(rule.id, { onError: (e) => setError(serverErrors(e).message) })}
+        />
+      </View>
+    </Card>
+  );
+}
+
+function Deliveries() {
+  const { wide } = useLayout();
+  const deliveries = useDeliveries();
+  return (
+    <View style={{ gap: space.md }}>
+      <T variant="heading">Recent deliveries</T>
+      <QueryError error={deliveries.error} />
+      {deliveries.isLoading ? <Loading what="Loading deliveries…" /> : null}
+      {deliveries.data && deliveries.data.length === 0 ? (
+        <Empty title="Nothing sent yet" testID="deliveries-empty">
+          Each daily run and each “Send now” is listed here: whom it went to, how many items it carried, or why it was skipped.
+        </Empty>
+      ) : null}
+      {deliveries.data && deliveries.data.length ? (
+        <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }} testID="deliveries">
+          {deliveries.data.map((d) => (
+            <View
+              key={d.id}
+              testID={`delivery-${d.id}`}
+              style={{ flexDirection: wide ? 'row' : 'column', gap: wide ? space.md : 4, paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
+            >
+              <T style={{ width: wide ? 175 : undefined, fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft }}>{fmtDateTime(d.createdAt)}</T>
+              <View style={{ width: wide ? 90 : undefined }}>
+                <Pill label={DELIVERY_WORD[d.status]} tone={DELIVERY_TONE[d.status]} />
+              </View>
+              <View style={{ flex: wide ? 1 : undefined, gap: 2 }}>
+                <T style={{ fontSize: 15, fontFamily: fonts.textMedium }}>
+                  {d.ruleName} <T variant="small">({d.trigger === 'daily' ? 'daily' : 'sent by hand'})</T>
+                </T>
+                <T variant="small">
+                  {d.itemCount === 1 ? '1 item' : `${d.itemCount} items`} · {d.recipients.length ? d.recipients.join(', ') : 'no recipients'}
+                </T>
+                {d.message && d.status !== 'sent' ? <T variant="small">{d.message}</T> : null}
+              </View>
+            </View>
+          ))}
+        </View>
+      ) : null}
+    </View>
+  );
+}
+
+/** Reminder rules (who is told about which lists, daily at the organization's hour), sending now, and what was sent. */
+export function RemindersScreen() {
+  const user = useUser();
+  const rules = useReminderRules();
+  const sendAll = useSendNow();
+  const [editing, setEditing] = useState<ReminderRule | 'new' | null>(null);
+  const [result, setResult] = useState<{ tone: 'ok' | 'error'; lines: string[] } | null>(null);
+  const hour = rules.data?.reminderHourUtc;
+
+  const showResult = (deliveries: ReminderDelivery[]) =>
+    setResult({ tone: 'ok', lines: deliveries.length ? deliveries.map(deliveryLine) : ['No enabled rule to send.'] });
+
+  return (
+    <Screen
+      title="Reminders"
+      subtitle="E-mails that tell people what needs attention: which lists, and to whom."
+      actions={
+        <>
+          {editing === null ? <Button title="New rule" testID="rule-new" onPress={() => setEditing('new')} /> : null}
+          <Button
+            title="Send all now"
+            kind="secondary"
+            testID="rules-send-all"
+            busy={sendAll.isPending}
+            disabled={!rules.data?.rules.some((r) => r.enabled)}
+            onPress={() => {
+              setResult(null);
+              sendAll.mutate(undefined, { onSuccess: (r) => showResult(r.deliveries), onError: (e) => setResult({ tone: 'error', lines: [serverErrors(e).message] }) });
+            }}
+          />
+        </>
+      }
+    >
+      {hour !== undefined ? (
+        <Notice testID="reminder-hour">
+          <T>
+            Enabled rules run every day at <T style={{ fontFamily: fonts.numbersBold }}>{fmtHourUtc(hour)}</T>.{' '}
+            {user.role === 'admin' ? (
+              <Link href="/settings" style={{ color: colors.accent }}>
+                Change the hour in Settings
+              </Link>
+            ) : (
+              'An administrator sets the hour in the organization settings.'
+            )}
+          </T>
+        </Notice>
+      ) : null}
+      {result ? (
+        <Notice tone={result.tone} title={result.tone === 'ok' ? 'Sent now' : 'Not sent'} testID="send-result">
+          <View style={{ gap: 2 }}>
+            {result.lines.map((l, i) => (
+              <T key={i} style={{ color: result.tone === 'ok' ? colors.ok : colors.danger }}>
+                {l}
+              </T>
+            ))}
+          </View>
+        </Notice>
+      ) : null}
+      {editing === 'new' ? <RuleForm onDone={() => setEditing(null)} /> : null}
+      <QueryError error={rules.error} title="The rules could not be loaded" />
+      {rules.isLoading ? <Loading what="Loading reminder rules…" /> : null}
+      {rules.data && rules.data.rules.length === 0 && editing === null ? (
+        <Empty title="No reminder rules" testID="rules-empty">
+          A rule e-mails the chosen lists (for example studies past review and open field reports) to everyone with a role, or to given addresses, once a
+          day. Create one with “New rule”.
+        </Empty>
+      ) : null}
+      <View style={{ gap: space.md }}>
+        {rules.data?.rules.map((r) =>
+          editing !== null && editing !== 'new' && editing.id === r.id ? (
+            <RuleForm key={r.id} rule={r} onDone={() => setEditing(null)} />
+          ) : (
+            <RuleCard key={r.id} rule={r} onEdit={() => setEditing(r)} onSent={showResult} />
+          ),
+        )}
+      </View>
+      <Deliveries />
+    </Screen>
+  );
+}

@@ -1,0 +1,183 @@
+import { Link } from 'expo-router';
+import React, { useState } from 'react';
+import { Image, View } from 'react-native';
+import { fieldReportTriageSchema, type FieldReportDto } from '../../shared/schemas/fieldReports';
+import { useFieldReport, useTriageReport } from '../../hooks/attention';
+import { fmtAgeDays, fmtDateTime } from '../../hooks/dates';
+import { serverErrors, validate } from '../../hooks/forms';
+import { useUser } from '../../hooks/session';
+import { useAuthedImage } from '../../hooks/useAuthedImage';
+import { useLayout } from '../../hooks/useLayout';
+import { colors, fonts, radius, space } from '../theme';
+import { Button, Card, Field, Loading, Notice, QueryError, Screen, T, ValueRow } from '../ui';
+import { kindLabel, ReportStatus } from './ReportsScreen';
+
+function Photo({ reportId }: { reportId: string }) {
+  const img = useAuthedImage(`/field-reports/${encodeURIComponent(reportId)}/photo`);
+  return (
+    <Card testID="report-photo">
+      <T variant="subheading">Photo from the field</T>
+      {img.loading ? <Loading what="Loading the photo…" /> : null}
+      {img.error ? <Notice tone="error">{img.error}</Notice> : null}
+      {img.uri ? (
+        <Image
+          source={{ uri: img.uri }}
+          resizeMode="contain"
+          accessibilityLabel="Photo attached to the report"
+          testID="report-photo-image"
+          style={{ width: '100%', height: 320, borderRadius: radius.md, backgroundColor: colors.canvas }}
+        />
+      ) : null}
+    </Card>
+  );
+}
+
+function Timeline({ r }: { r: FieldReportDto }) {
+  return (
+    <Card testID="report-timeline">
+      <T variant="subheading">Triage</T>
+      <ValueRow label="Reported">
+        <T style={{ fontSize: 15 }}>
+          {fmtDateTime(r.createdAt)} by {r.reporter.name}
+        </T>
+      </ValueRow>
+      <ValueRow label="Acknowledged">
+        <T style={{ fontSize: 15 }} testID="report-acknowledged">
+          {r.acknowledgedAt ? `${fmtDateTime(r.acknowledgedAt)}${r.acknowledgedBy ? ` by ${r.acknowledgedBy}` : ''}` : 'Not yet'}
+        </T>
+      </ValueRow>
+      <ValueRow label="Resolved">
+        <T style={{ fontSize: 15 }} testID="report-resolved">
+          {r.resolvedAt ? `${fmtDateTime(r.resolvedAt)}${r.resolvedBy ? ` by ${r.resolvedBy}` : ''}` : 'Not yet'}
+        </T>
+      </ValueRow>
+      {r.resolutionNote ? (
+        <View style={{ gap: 2 }}>
+          <T variant="label">WHAT WAS DONE</T>
+          <T testID="report-resolution-note">{r.resolutionNote}</T>
+        </View>
+      ) : null}
+    </Card>
+  );
+}
+
+/** Engineer and safety officer: acknowledge the report, then resolve it with a note of what was done. */
+function TriagePanel({ r }: { r: FieldReportDto }) {
+  const triage = useTriageReport(r.id);
+  const [note, setNote] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  const [done, setDone] = useState<string | null>(null);
+  if (r.status === 'resolved') return null;
+
+  const send = (status: 'acknowledged' | 'resolved') => {
+    setError(null);
+    setDone(null);
+    const v = validate(fieldReportTriageSchema, status === 'resolved' ? { status, note } : { status, note: note.trim() || undefined });
+    if (!v.ok) return setError(v.errors.note ?? Object.values(v.errors)[0]);
+    triage.mutate(v.data, {
+      onSuccess: () => {
+        setNote('');
+        setDone(status === 'resolved' ? 'Resolved. The reporter sees the status and your note.' : 'Acknowledged. The reporter sees that it is being looked into.');
+      },
+      onError: (e) => setError(serverErrors(e).message),
+    });
+  };
+
+  return (
+    <Card testID="triage-panel">
+      <T variant="subheading">{r.status === 'open' ? 'Acknowledge or resolve' : 'Resolve'}</T>
+      <Field
+        label={r.status === 'open' ? 'Note (needed to resolve)' : 'What was done'}
+        testID="triage-note"
+        value={note}
+        onChangeText={setNote}
+        multiline
+        numberOfLines={3}
+        hint="e.g. setting corrected to match the study; label reprinted and replaced"
+      />
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      {done ? <Notice tone="ok">{done}</Notice> : null}
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+        {r.status === 'open' ? (
+          <Button title="Acknowledge" kind="secondary" testID="triage-acknowledge" busy={triage.isPending && triage.variables?.status === 'acknowledged'} onPress={() => send('acknowledged')} />
+        ) : null}
+        <Button title="Resolve" testID="triage-resolve" busy={triage.isPending && triage.variables?.status === 'resolved'} onPress={() => send('resolved')} />
+      </View>
+    </Card>
+  );
+}
+
+/** One field report: what was seen, on which label, the photo, and its triage. */
+export function ReportScreen({ reportId }: { reportId: string }) {
+  const user = useUser();
+  const { wide } = useLayout();
+  const report = useFieldReport(reportId);
+  const canTriage = user.role === 'engineer' || user.role === 'safety';
+  if (report.error) {
+    return (
+      <Screen title="Field report">
+        <QueryError error={report.error} />
+        <Link href="/reports" style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}>
+          ← All reports
+        </Link>
+      </Screen>
+    );
+  }
+  if (!report.data) {
+    return (
+      <Screen title="Field report">
+        <Loading what="Loading the report…" />
+      </Screen>
+    );
+  }
+  const r = report.data;
+  const main = (
+    <View style={{ gap: space.lg }}>
+      <Card testID="report-detail">
+        <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center', flexWrap: 'wrap', gap: space.sm }}>
+          <T variant="label">{kindLabel(r.kind).toUpperCase()}</T>
+          <ReportStatus status={r.status} testID="report-status" />
+        </View>
+        <T style={{ fontSize: 18, lineHeight: 26 }}>{r.text}</T>
+        <T variant="small">
+          {r.reporter.name} · {fmtDateTime(r.createdAt)} ({fmtAgeDays(r.ageDays)})
+        </T>
+        <Link href={`/labels/${encodeURIComponent(r.labelCode)}` as never} style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }} testID="report-label-link">
+          Open the label of {r.equipmentTag} (code <T style={{ fontFamily: fonts.numbers, color: colors.accent }}>{r.labelCode}</T>) →
+        </Link>
+      </Card>
+      {r.hasPhoto ? <Photo reportId={r.id} /> : null}
+    </View>
+  );
+  const side = (
+    <View style={{ gap: space.lg }}>
+      <Timeline r={r} />
+      {canTriage ? <TriagePanel r={r} /> : null}
+      {!canTriage && r.status !== 'resolved' ? (
+        <Notice>
+          {user.role === 'electrician'
+            ? 'The engineers and the safety officer see this report. Its status changes here when they acknowledge and resolve it.'
+            : 'Engineers and safety officers acknowledge and resolve reports.'}
+        </Notice>
+      ) : null}
+    </View>
+  );
+  return (
+    <Screen title={`${r.equipmentTag} · field report`} subtitle={r.siteName}>
+      <Link href="/reports" style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}>
+        ← All reports
+      </Link>
+      {wide ? (
+        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
+          <View style={{ flex: 1.3 }}>{main}</View>
+          <View style={{ flex: 1 }}>{side}</View>
+        </View>
+      ) : (
+        <>
+          {main}
+          {side}
+        </>
+      )}
+    </Screen>
+  );
+}

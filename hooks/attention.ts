@@ -1,0 +1,102 @@
+import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { AttentionList, AttentionListResponse, AttentionSummary } from '../shared/schemas/attention';
+import type { AuditPage } from '../shared/schemas/auditLog';
+import type { FieldReportDto, FieldReportStatus, FieldReportTriage } from '../shared/schemas/fieldReports';
+import { apiFetch } from './api';
+import { queryKeys } from './queryKeys';
+
+const enc = encodeURIComponent;
+
+/** `?a=1&b=2` from the defined, non-empty values (empty string when none). */
+export function queryString(params: Record<string, string | number | boolean | undefined | null>): string {
+  const parts = Object.entries(params)
+    .filter(([, v]) => v !== undefined && v !== null && v !== '' && v !== false)
+    .map(([k, v]) => `${enc(k)}=${enc(String(v))}`);
+  return parts.length ? `?${parts.join('&')}` : '';
+}
+
+export function useAttentionSummary(siteId: string | null) {
+  return useQuery({
+    queryKey: queryKeys.attention.summary(siteId),
+    queryFn: () => apiFetch<AttentionSummary>(`/attention${queryString({ siteId })}`),
+    placeholderData: (prev) => prev,
+  });
+}
+
+export function useAttentionList(list: AttentionList, siteId: string | null) {
+  return useQuery({
+    queryKey: queryKeys.attention.list(list, siteId),
+    queryFn: () => apiFetch<AttentionListResponse>(`/attention/${enc(list)}${queryString({ siteId })}`),
+  });
+}
+
+/** The path of a list's CSV export (for `downloadFile`). */
+export function attentionCsvPath(list: AttentionList, siteId: string | null): string {
+  return `/attention/${enc(list)}/export.csv${queryString({ siteId })}`;
+}
+
+export interface FieldReportFilters {
+  status?: FieldReportStatus;
+  siteId?: string;
+  mine?: boolean;
+}
+
+export function useFieldReports(filters: FieldReportFilters) {
+  return useQuery({
+    queryKey: queryKeys.fieldReports.list(filters),
+    queryFn: async () =>
+      (
+        await apiFetch<{ reports: FieldReportDto[] }>(
+          `/field-reports${queryString({ status: filters.status, siteId: filters.siteId, mine: filters.mine ? '1' : undefined })}`,
+        )
+      ).reports,
+  });
+}
+
+export function useFieldReport(id: string) {
+  return useQuery({
+    queryKey: queryKeys.fieldReports.detail(id),
+    queryFn: () => apiFetch<FieldReportDto>(`/field-reports/${enc(id)}`),
+    retry: false,
+  });
+}
+
+export function useTriageReport(id: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: FieldReportTriage) => apiFetch<FieldReportDto>(`/field-reports/${enc(id)}/triage`, { method: 'POST', body: input }),
+    onSuccess: (report) => {
+      qc.setQueryData(queryKeys.fieldReports.detail(id), report);
+      void qc.invalidateQueries({ queryKey: queryKeys.fieldReports.all() });
+      void qc.invalidateQueries({ queryKey: queryKeys.attention.all() });
+    },
+  });
+}
+
+/** Filters of the audit log, as the API takes them (the cursor is added per page). */
+export interface AuditFilters {
+  q?: string;
+  action?: string;
+  entityType?: string;
+  entityId?: string;
+  actorId?: string;
+  from?: string;
+  to?: string;
+}
+
+export const AUDIT_PAGE_SIZE = 50;
+
+export function useAuditEvents(filters: AuditFilters, enabled = true) {
+  return useInfiniteQuery({
+    queryKey: queryKeys.audit.list({ ...filters }),
+    queryFn: ({ pageParam }) =>
+      apiFetch<AuditPage>(`/audit-events${queryString({ ...filters, before: pageParam ?? undefined, limit: AUDIT_PAGE_SIZE })}`),
+    initialPageParam: null as string | null,
+    getNextPageParam: (last) => last.nextBefore,
+    enabled,
+  });
+}
+
+export function auditCsvPath(filters: AuditFilters): string {
+  return `/audit-events/export.csv${queryString({ ...filters })}`;
+}
