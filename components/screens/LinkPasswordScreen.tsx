@@ -1,6 +1,7 @@
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
 import { passwordSchema } from '../../shared/schemas/auth';
+import { ROLE_LABELS } from '../../shared/schemas/common';
 import type { TokenInfo } from '../../shared/schemas/invitations';
 import { useLinkInfo, useSetPasswordFromLink } from '../../hooks/account';
 import { ApiClientError } from '../../hooks/api';
@@ -103,7 +104,7 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
         <>
           <T testID="link-info">
             {purpose === 'invitation'
-              ? `${info.data.name}, you are invited to Emberline. You will sign in as ${info.data.email}: choose a password to finish.`
+              ? `${info.data.name}, you are invited to join ${info.data.organizationName || 'your organization'} on Emberline${info.data.role ? ` as ${ROLE_LABELS[info.data.role].toLowerCase()}` : ''}. You will sign in as ${info.data.email}: choose a password to finish.`
               : `Choose a new password for ${info.data.email} (${info.data.name}). Other devices will be signed out.`}
           </T>
           <T variant="small">The link works until {fmtDateTime(info.data.expiresAt)}, once.</T>

@@ -298,7 +298,15 @@ export async function linkInfo(ctx: AppContext, token: string, purpose?: LinkPur
   const row = await findLink(token);
   const state = stateOf(row, purpose ?? null, ctx.now());
   if (state !== 'usable' || !row) throw linkRefused(state === 'usable' ? 'unknown' : state, purpose ?? row?.purpose);
-  return { purpose: row.purpose, email: row.email, name: row.name, expiresAt: row.expiresAt.toISOString() };
+  const org = await Organization.findByPk(row.organizationId, { attributes: ['name'] });
+  return {
+    purpose: row.purpose,
+    email: row.email,
+    name: row.name,
+    organizationName: org?.name ?? '',
+    role: row.purpose === 'invitation' ? (row.role as Role | null) : null,
+    expiresAt: row.expiresAt.toISOString(),
+  };
 }
 
 /**

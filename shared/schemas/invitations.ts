@@ -28,7 +28,14 @@ export const invitationListSchema = z.object({ invitations: z.array(invitationSc
 export const linkTokenSchema = z.string().trim().min(20, 'This link is not complete').max(200);
 
 export const tokenInfoSchema = z
-  .object({ purpose: z.enum(['invitation', 'password-reset']), email: z.string(), name: z.string(), expiresAt: z.string() })
+  .object({
+    purpose: z.enum(['invitation', 'password-reset']),
+    email: z.string(),
+    name: z.string(),
+    organizationName: z.string(),
+    role: roleSchema.nullable().describe('The role an invitation gives; null for a password reset'),
+    expiresAt: z.string(),
+  })
   .meta({ id: 'LinkTokenInfo' });
 export type TokenInfo = z.infer<typeof tokenInfoSchema>;
 

@@ -125,7 +125,7 @@ describe('invitations', () => {
 
     const info = await linkInfo(mail.token);
     expect(info.status).toBe(200);
-    expect(info.body).toMatchObject({ purpose: 'invitation', email: 'new.electrician@org-a.example', name: 'Nia Newcomer' });
+    expect(info.body).toMatchObject({ purpose: 'invitation', email: 'new.electrician@org-a.example', name: 'Nia Newcomer', organizationName: 'Test Organization A', role: 'electrician' });
 
     const ok = await accept(mail.token);
     expect(ok.status).toBe(200);

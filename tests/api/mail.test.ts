@@ -4,31 +4,19 @@
  */
 import os from 'node:os';
 import path from 'node:path';
-import net from 'node:net';
 import nodemailer from 'nodemailer';
 import request from 'supertest';
 import { ConfigError, loadConfig } from '../../server/config';
 import { AuditEvent, CapturedMail } from '../../server/db/models';
 import { createMailer, startMailSink, type CapturedMessage } from '../../server/mail';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { freePort } from '../helpers/ports';
 
 let t: TestApp;
 beforeAll(async () => {
   t = await makeTestApp();
 });
 afterAll(async () => t.close());
-
-/** A port nobody listens on (bound by the OS, then closed again). */
-function closedPort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
 async function auditOf(organizationId: string, action: string) {
   const rows = await AuditEvent.findAll({ where: { organizationId, action }, order: [['createdAt', 'ASC']] });
@@ -89,7 +77,7 @@ describe('the local sink', () => {
   });
 
   it('records mail.failed, and does not throw, when the SMTP server cannot be reached', async () => {
-    const port = await closedPort();
+    const port = await freePort();
     const failing = createMailer({ env: 'test', smtpUrl: `smtp://127.0.0.1:${port}`, mailFrom: 'Emberline <no-reply@test.example>', mailSinkPort: 0 });
     expect(failing.transport).toBe('smtp');
     try {

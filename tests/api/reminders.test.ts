@@ -3,7 +3,6 @@
  * injected clock (once per rule per day, not before the organization's hour, skipped when there is nothing).
  */
 import { randomUUID } from 'node:crypto';
-import net from 'node:net';
 import request from 'supertest';
 import { hashPassword } from '../../server/auth/passwords';
 import { AuditEvent, CapturedMail, ReminderDeliveryRow, User } from '../../server/db/models';
@@ -12,6 +11,7 @@ import { runDueReminders, seedDefaultReminderRules } from '../../server/services
 import { smallModel } from '../fixtures/smallModel';
 import { approveStudy } from '../helpers/flows';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { freePort } from '../helpers/ports';
 
 let t: TestApp;
 let studyId = '';
@@ -27,18 +27,6 @@ const safetyB = () => bearer(t.orgB.users.safety.token);
 /** A UTC moment on `later`'s calendar day plus `days`, at hh:mm. */
 function at(days: number, hh: number, mm = 0): Date {
   return new Date(Date.UTC(later.getUTCFullYear(), later.getUTCMonth(), later.getUTCDate() + days, hh, mm));
-}
-
-/** A port nobody listens on (bound by the OS, then closed again). */
-function closedPort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
 }
 
 async function reminderMail(organizationId: string) {
@@ -321,7 +309,7 @@ describe('the daily job', () => {
   it('marks the delivery failed, with the reason, when the mail server refuses', async () => {
     const real = t.ctx.mail;
     // An SMTP server that is not there: nothing listens on this port.
-    const port = await closedPort();
+    const port = await freePort();
     t.ctx.mail = createMailer({ env: 'test', smtpUrl: `smtp://127.0.0.1:${port}`, mailFrom: t.config.mailFrom, mailSinkPort: 0 });
     try {
       t.setNow(at(5, 8, 0));
