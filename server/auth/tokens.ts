@@ -1,4 +1,4 @@
-import { randomUUID } from 'node:crypto';
+import { createSecretKey, randomUUID, type KeyObject } from 'node:crypto';
 import jwt from 'jsonwebtoken';
 import type { Role } from '../../shared/schemas/common';
 
@@ -27,10 +27,21 @@ export function signToken(
   return { token, expiresAt: new Date(exp * 1000) };
 }
 
+/**
+ * The signing secret as a KeyObject, made once per secret: given a string, jsonwebtoken first tries (and fails) to read
+ * it as a PEM public key on every verification, which costs more than the HMAC itself.
+ */
+const secretKeys = new Map<string, KeyObject>();
+function secretKeyOf(secret: string): KeyObject {
+  let key = secretKeys.get(secret);
+  if (!key) secretKeys.set(secret, (key = createSecretKey(Buffer.from(secret))));
+  return key;
+}
+
 /** Verifies signature and expiry; returns null on any problem (the caller answers 401). */
 export function verifyToken(secret: string, token: string): TokenClaims | null {
   try {
-    const claims = jwt.verify(token, secret, { algorithms: ['HS256'] });
+    const claims = jwt.verify(token, secretKeyOf(secret), { algorithms: ['HS256'] });
     if (typeof claims !== 'object' || !claims.sub || !claims.jti) return null;
     return claims as unknown as TokenClaims;
   } catch {

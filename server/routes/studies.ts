@@ -15,7 +15,7 @@ import { ApiError, modelIssuesError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { multiFileUpload } from '../http/upload';
 import { exportModel, importModel } from '../io';
-import { getResults, latestRun, startRun } from '../services/runs';
+import { latestRun, sendResults, startRun } from '../services/runs';
 import {
   approveStudy,
   createStudy,
@@ -115,7 +115,8 @@ export const studyRoutes: AnyRoute[] = [
     tag: 'studies',
     access: 'signed-in',
     response: resultsResponseSchema,
-    handler: ({ user, params }) => getResults(user, params.studyId),
+    // Sent by the service: a cached serialized body with its ETag (the schema above documents it).
+    handler: ({ res, user, params }) => sendResults(res, user, params.studyId),
   }),
   defineRoute({
     method: 'post',

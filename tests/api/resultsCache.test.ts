@@ -1,0 +1,96 @@
+/**
+ * GET /api/studies/:id/results answers from a cache of serialized responses (server/services/runs.ts). These checks
+ * hold it to what the database says: a cached answer is the cold answer byte for byte and matches the run row, a newer
+ * run replaces it at once, and being cached never lets another organization or a role that may not see the study read it.
+ */
+import request from 'supertest';
+import { StudyRun } from '../../server/db/models';
+import { clearResultsCache } from '../../server/services/runs';
+import { smallModel } from '../fixtures/smallModel';
+import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+
+let t: TestApp;
+let studyId = '';
+
+const eng = () => bearer(t.orgA.users.engineer.token);
+const results = (token: string, headers: Record<string, string> = {}) => request(t.app).get(`/api/studies/${studyId}/results`).set(...bearer(token)).set(headers);
+
+/** Saves `model` as the draft's model and runs it to the end; returns the run id. */
+async function saveAndRun(model: ReturnType<typeof smallModel>): Promise<string> {
+  const env = await request(t.app).get(`/api/studies/${studyId}/model`).set(...eng());
+  const put = await request(t.app).put(`/api/studies/${studyId}/model`).set(...eng()).send({ model, version: env.body.version });
+  expect(put.status).toBe(200);
+  const run = await request(t.app).post(`/api/studies/${studyId}/run`).set(...eng());
+  expect(run.status).toBe(202);
+  await t.ctx.jobs.idle();
+  return run.body.id as string;
+}
+
+beforeAll(async () => {
+  t = await makeTestApp();
+  const site = await request(t.app).post('/api/sites').set(...eng()).send({ name: 'Results cache site' });
+  const study = await request(t.app).post(`/api/sites/${site.body.id}/studies`).set(...eng()).send({ title: 'Results cache study' });
+  studyId = study.body.id;
+  await saveAndRun(smallModel());
+}, 60_000);
+
+afterAll(async () => {
+  await t.close();
+});
+
+describe('cached study results', () => {
+  it('a cached answer is the cold answer byte for byte, matches the run row, and carries an ETag that yields a 304', async () => {
+    clearResultsCache();
+    const cold = await results(t.orgA.users.engineer.token);
+    expect(cold.status).toBe(200);
+    expect(cold.headers['content-type']).toMatch(/^application\/json/);
+    const warm = await results(t.orgA.users.engineer.token);
+    expect(warm.status).toBe(200);
+    expect(warm.text).toBe(cold.text);
+    expect(warm.headers.etag).toBeTruthy();
+    expect(warm.headers.etag).toBe(cold.headers.etag);
+
+    const row = await StudyRun.findByPk(cold.body.run.id as string);
+    expect(row?.status).toBe('done');
+    expect(cold.body.run.finishedAt).toBe(row!.finishedAt!.toISOString());
+    expect(cold.body.model).toEqual(JSON.parse(row!.modelSnapshot));
+    expect(cold.body.results).toEqual(JSON.parse(row!.results!));
+
+    const notModified = await results(t.orgA.users.engineer.token, { 'If-None-Match': cold.headers.etag });
+    expect(notModified.status).toBe(304);
+    expect(notModified.text ?? '').toBe('');
+    const otherTag = await results(t.orgA.users.engineer.token, { 'If-None-Match': '"not-this-one"' });
+    expect(otherTag.status).toBe(200);
+    expect(otherTag.text).toBe(cold.text);
+  });
+
+  it('after another run finishes, the answer is the new run’s, not the cached one', async () => {
+    const before = await results(t.orgA.users.engineer.token);
+    expect(before.status).toBe(200);
+    // A longer feeder to the panel: less fault current at PNL, so the results differ as well as the run id.
+    const model = smallModel();
+    model.cables!.find((c) => c.id === 'F-PNL')!.lengthM = 60;
+    const newRunId = await saveAndRun(model);
+    expect(newRunId).not.toBe(before.body.run.id);
+
+    const after = await results(t.orgA.users.engineer.token);
+    expect(after.status).toBe(200);
+    expect(after.body.run.id).toBe(newRunId);
+    expect(after.headers.etag).not.toBe(before.headers.etag);
+    expect((after.body.model.cables as { id: string; lengthM: number }[]).find((c) => c.id === 'F-PNL')!.lengthM).toBe(60);
+    const pnl = (r: { body: { results: { buses: { busId: string }[] } } }) => JSON.stringify(r.body.results.buses.find((b) => b.busId === 'PNL'));
+    expect(pnl(after)).not.toBe(pnl(before));
+    // The old ETag no longer matches.
+    expect((await results(t.orgA.users.engineer.token, { 'If-None-Match': before.headers.etag })).status).toBe(200);
+  }, 60_000);
+
+  it('another organization and an electrician (draft) get 404 even while the answer is cached', async () => {
+    expect((await results(t.orgA.users.engineer.token)).status).toBe(200);
+    for (const token of [t.orgB.users.engineer.token, t.orgB.users.admin.token, t.orgA.users.electrician.token]) {
+      const res = await results(token);
+      expect(res.status).toBe(404);
+      expect(res.text).not.toContain('"results"');
+    }
+    expect((await results(t.orgA.users.safety.token)).status).toBe(200);
+  });
+});
