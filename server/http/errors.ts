@@ -83,7 +83,9 @@ export const errorMiddleware: ErrorRequestHandler = (err, _req, res, _next) => {
   else if (err && typeof err === 'object' && 'type' in err && (err as { type: string }).type === 'entity.too.large') {
     apiError = new ApiError('payload_too_large', 'The request body is too large');
   } else if (err && typeof err === 'object' && 'type' in err && (err as { type: string }).type === 'entity.parse.failed') {
-    apiError = new ApiError('bad_request', 'The request body is not valid JSON');
+    // Names the body as the field, like every other 400 from input (the parser's own message says where it stopped).
+    const detail = err instanceof Error && err.message ? `: ${err.message.slice(0, 200)}` : '';
+    apiError = new ApiError('bad_request', 'The request body is not valid JSON', { body: `Not valid JSON${detail}` });
   } else if (err && typeof err === 'object' && (err as { name?: string }).name === 'SequelizeUniqueConstraintError') {
     apiError = new ApiError('conflict', 'That record already exists');
   } else {
