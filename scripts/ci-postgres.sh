@@ -5,7 +5,9 @@
 #   url=$(scripts/ci-postgres.sh | tail -n 1)
 #   TEST_DATABASE_URL="$url" npx jest tests/api --selectProjects server --runInBand
 #
-# Settings (environment): PG_PORT (5432), PG_USER (postgres), PG_PASSWORD (emberline), PG_DB (emberline_test).
+# Settings (environment): PG_PORT (5432), PG_USER (postgres), PG_PASSWORD (emberline), PG_DB (emberline_test),
+# PG_CLUSTER (main: the Debian cluster name; another name makes a separate cluster, e.g. to try this script out).
+# An existing cluster keeps its own port; a running one is left running as it is.
 # Needs root (apt-get, pg_ctlcluster) or an already running server it may reach as the postgres OS user.
 set -euo pipefail
 
@@ -13,6 +15,8 @@ PG_PORT="${PG_PORT:-5432}"
 PG_USER="${PG_USER:-postgres}"
 PG_PASSWORD="${PG_PASSWORD:-emberline}"
 PG_DB="${PG_DB:-emberline_test}"
+PG_CLUSTER="${PG_CLUSTER:-main}"
+[[ "$PG_CLUSTER" =~ ^[a-z0-9_-]+$ && "$PG_PORT" =~ ^[0-9]+$ ]] || { echo "PG_CLUSTER must be [a-z0-9_-] and PG_PORT a number" >&2; exit 2; }
 
 log() { echo "== $*" >&2; }
 
@@ -24,7 +28,7 @@ fi
 
 # The newest installed major version.
 version=$(ls /usr/lib/postgresql | sort -n | tail -n 1)
-cluster=main
+cluster=$PG_CLUSTER
 
 if ! pg_lsclusters -h | awk -v v="$version" -v c="$cluster" '$1 == v && $2 == c { found = 1 } END { exit !found }'; then
   log "creating cluster $version/$cluster on port $PG_PORT"
