@@ -38,7 +38,7 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
     storage: opts.storage ?? new LocalFileStore(path.join(opts.config.dataDir, 'uploads')),
     mail: opts.mail ?? createMailer(opts.config),
   };
-  const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? 20, publicCheckPerMinute: opts.publicCheckPerMinute ?? 120 });
+  const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? opts.config.signInLimitPerMinute, publicCheckPerMinute: opts.publicCheckPerMinute ?? 120 });
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

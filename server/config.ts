@@ -17,6 +17,7 @@ const envSchema = z.object({
   PUBLIC_BASE_URL: z.string().url().optional(),
   DEMO_PASSWORD: z.string().min(10).default('ember-demo-2026'),
   LOG_REQUESTS: z.enum(['0', '1']).default('0'),
+  SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(20),
   SMTP_URL: z.preprocess(
     (v) => (v === '' ? undefined : v),
     z
@@ -44,6 +45,8 @@ export interface Config {
   publicBaseUrl: string;
   demoPassword: string;
   logRequests: boolean;
+  /** Sign-in, password-reset and link attempts per minute and client address. */
+  signInLimitPerMinute: number;
   /** Outgoing mail server (smtp:// or smtps://); null: the local mail sink (development and tests only). */
   smtpUrl: string | null;
   /** Sender of every message. */
@@ -96,6 +99,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     publicBaseUrl,
     demoPassword: e.DEMO_PASSWORD,
     logRequests: e.LOG_REQUESTS === '1',
+    signInLimitPerMinute: e.SIGN_IN_LIMIT_PER_MINUTE,
     smtpUrl: e.SMTP_URL ?? null,
     mailFrom: e.MAIL_FROM ?? `Emberline <no-reply@${new URL(overrides.publicBaseUrl ?? publicBaseUrl).hostname}>`,
     mailSinkPort: e.MAIL_SINK_PORT,

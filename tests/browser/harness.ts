@@ -37,7 +37,8 @@ export async function startHarness(): Promise<Harness> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-browser-'));
   const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, 'node_modules/tsx/dist/cli.mjs'), 'server/start.ts'], {
     cwd: ROOT,
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', DATA_DIR: dataDir, DEMO_PASSWORD, NODE_ENV: 'development' },
+    // Many sign-ins a minute from one address (the limit itself is tested in tests/api/auth.test.ts).
+    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', DATA_DIR: dataDir, DEMO_PASSWORD, NODE_ENV: 'development', SIGN_IN_LIMIT_PER_MINUTE: '1000' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let log = '';
