@@ -11,20 +11,19 @@ import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
 import { Button, Choice, Empty, Field, Loading, Notice, QueryError, Screen, T } from '../ui';
 
-/** Action prefixes (ending in a dot: the API matches them as prefixes) to narrow the log by what was acted on. */
+/** Action prefixes (ending in a dot: the API matches them as prefixes; several comma-separated) to narrow the log by what was acted on. */
 const ACTION_CHIPS = [
   { value: '', label: 'Everything' },
   { value: 'study.', label: 'Studies' },
-  { value: 'label.', label: 'Labels' },
-  { value: 'labels.', label: 'Label printing' },
+  { value: 'label.,labels.', label: 'Labels' },
   { value: 'field-report.', label: 'Field reports' },
   { value: 'site.', label: 'Sites' },
   { value: 'user.', label: 'People' },
   { value: 'invitation.', label: 'Invitations' },
   { value: 'password.', label: 'Passwords' },
   { value: 'auth.', label: 'Sign-ins' },
-  { value: 'reminder-rule.', label: 'Reminder rules' },
-  { value: 'reminders.', label: 'Reminders sent' },
+  { value: 'reminder-rule.,reminders.', label: 'Reminders' },
+  { value: 'mail.', label: 'Mail' },
   { value: 'organization.', label: 'Settings' },
 ] as const;
 type ActionChip = (typeof ACTION_CHIPS)[number]['value'];

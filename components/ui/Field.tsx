@@ -3,7 +3,7 @@ import { TextInput, View, type TextInputProps, type ViewStyle } from 'react-nati
 import { colors, fonts, radius, space, touch } from '../theme';
 import { T } from './Text';
 
-/** A labelled text field with its unit and its validation message. */
+/** A labelled text field with its unit and its validation message (multi-line fields start taller; `style` adds to the box). */
 export function Field({
   label,
   error,
@@ -12,6 +12,7 @@ export function Field({
   numeric,
   testID,
   containerStyle,
+  style,
   ...rest
 }: TextInputProps & { label: string; error?: string; unit?: string; hint?: string; numeric?: boolean; containerStyle?: ViewStyle }) {
   return (
@@ -26,17 +27,21 @@ export function Field({
         placeholderTextColor={colors.muted}
         inputMode={numeric ? 'decimal' : undefined}
         {...rest}
-        style={{
-          minHeight: touch.min,
-          borderWidth: 1.5,
-          borderColor: error ? colors.danger : colors.line,
-          borderRadius: radius.sm,
-          paddingHorizontal: space.md,
-          backgroundColor: colors.surface,
-          color: colors.ink,
-          fontFamily: numeric ? fonts.numbers : fonts.text,
-          fontSize: 16,
-        }}
+        style={[
+          {
+            minHeight: rest.multiline ? touch.min * 2.5 : touch.min,
+            borderWidth: 1.5,
+            borderColor: error ? colors.danger : colors.line,
+            borderRadius: radius.sm,
+            paddingHorizontal: space.md,
+            backgroundColor: colors.surface,
+            color: colors.ink,
+            fontFamily: numeric ? fonts.numbers : fonts.text,
+            fontSize: 16,
+            ...(rest.multiline ? { paddingVertical: space.sm, textAlignVertical: 'top' as const } : null),
+          },
+          style,
+        ]}
       />
       {error ? (
         <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">

@@ -130,7 +130,11 @@ function decodeCursor(c: string): { at: Date; id: string } {
 async function whereOf(ctx: AppContext, actor: AuthUser, q: Omit<AuditQuery, 'limit'>): Promise<WhereOptions> {
   const and: WhereOptions[] = [{ organizationId: actor.organizationId }];
   const like = ctx.db.dialect === 'postgres' ? Op.iLike : Op.like;
-  if (q.action) and.push(q.action.endsWith('.') ? { action: { [Op.like]: `${escapeLike(q.action)}%` } } : { action: q.action });
+  if (q.action) {
+    // Several actions or prefixes, comma-separated; one ending in a dot is a prefix ("label." matches label.installed).
+    const parts = q.action.split(',').map((a) => a.trim()).filter(Boolean);
+    and.push({ [Op.or]: parts.map((a) => (a.endsWith('.') ? { action: { [Op.like]: `${escapeLike(a)}%` } } : { action: a })) });
+  }
   if (q.entityType) and.push({ entityType: q.entityType });
   if (q.entityId) and.push({ entityId: q.entityId });
   if (q.actorId) and.push({ actorId: q.actorId });

@@ -95,6 +95,8 @@ describe('audit events', () => {
   it('are searched by action prefix, text and actor, and paged without gaps or repeats', async () => {
     const fr = await search('action=field-report.');
     expect(fr.events.map((e) => e.action).sort()).toEqual(['field-report.acknowledged', 'field-report.opened', 'field-report.resolved']);
+    const several = await search('action=field-report.opened,label.&limit=500');
+    expect(new Set(several.events.map((e) => e.action))).toEqual(new Set(['field-report.opened', 'label.installed']));
     const byActor = await search(`q=${encodeURIComponent('safety of org-a')}`);
     expect(byActor.events.length).toBeGreaterThan(0);
     expect(byActor.events.every((e) => e.actor?.name === 'safety of org-a')).toBe(true);
