@@ -9,7 +9,7 @@ import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Empty, Loading, Notice, QueryError, Screen, T, Table, ValueRow } from '../ui';
+import { Button, cardStyle, Empty, Loading, Notice, QueryError, Screen, T, Table, ValueRow } from '../ui';
 import { AttentionCaution, SiteFilter, useSiteParam } from './AttentionScreen';
 import { kindLabel } from './ReportsScreen';
 
@@ -57,14 +57,7 @@ function RowCard({ row, columns, showSite, list }: { row: AttentionRow; columns:
       <Pressable
         accessibilityRole="link"
         testID={`attention-row-${row.id}`}
-        style={{
-          backgroundColor: colors.surface,
-          borderRadius: radius.lg,
-          borderWidth: 1,
-          borderColor: colors.lineSoft,
-          padding: space.lg,
-          gap: space.xs,
-        }}
+        style={{ ...cardStyle, gap: space.xs }}
       >
         <T variant="subheading">{first ? cellText(row.cells[first.key], first, list) : row.id}</T>
         {showSite ? <T variant="small">{row.siteName}</T> : null}

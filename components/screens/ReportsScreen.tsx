@@ -8,7 +8,7 @@ import { useSites } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import { Choice, Empty, Loading, Pill, type PillTone, QueryError, Screen, T, Table } from '../ui';
+import { cardStyle, Choice, Empty, Loading, Pill, type PillTone, QueryError, Screen, T, Table } from '../ui';
 
 export const kindLabel = reportKindLabel;
 
@@ -26,14 +26,7 @@ function ReportCard({ r, showReporter }: { r: FieldReportDto; showReporter: bool
       <Pressable
         accessibilityRole="link"
         testID={`report-${r.id}`}
-        style={{
-          backgroundColor: colors.surface,
-          borderRadius: radius.lg,
-          borderWidth: 1,
-          borderColor: colors.lineSoft,
-          padding: space.lg,
-          gap: space.xs,
-        }}
+        style={{ ...cardStyle, gap: space.xs }}
       >
         <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, alignItems: 'flex-start' }}>
           <T variant="subheading" style={{ flexShrink: 1 }}>

@@ -1,5 +1,5 @@
 export { Button } from './Button';
-export { Card } from './Card';
+export { Card, cardStyle } from './Card';
 export { Choice } from './Choice';
 export { Field } from './Field';
 export { Notice } from './Notice';

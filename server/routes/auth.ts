@@ -2,11 +2,11 @@ import rateLimit from 'express-rate-limit';
 import { z } from 'zod';
 import { meSchema, signInRequestSchema, signInResponseSchema } from '../../shared/schemas/auth';
 import { dummyPasswordHash, verifyPassword } from '../auth/passwords';
-import { signToken } from '../auth/tokens';
 import { Organization, RevokedToken, User } from '../db/models';
 import { ApiError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { recordAudit } from '../services/audit';
+import { signInResponseFor } from '../services/users';
 
 /** The same message for an unknown e-mail and a wrong password: sign-in never tells which. */
 const BAD_CREDENTIALS = 'E-mail or password is not right';
@@ -39,13 +39,8 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
         }
         const ok = await verifyPassword(user.passwordHash, body.password);
         if (!ok || !user.active) throw new ApiError('unauthorized', BAD_CREDENTIALS);
-        const { token, expiresAt } = signToken(ctx.config.jwtSecret, ctx.config.jwtTtlHours, user);
         await recordAudit({ organizationId: user.organizationId, actorId: user.id, action: 'auth.signed-in', entityType: 'user', entityId: user.id });
-        return {
-          token,
-          expiresAt: expiresAt.toISOString(),
-          user: { id: user.id, email: user.email, name: user.name, role: user.role },
-        };
+        return signInResponseFor(ctx, user);
       },
     }),
     defineRoute({

@@ -65,7 +65,7 @@ export async function updateUser(ctx: AppContext, actor: AuthUser, userId: strin
   });
 }
 
-/** A fresh session for the user (after a password change, a reset or an accepted invitation). */
+/** A fresh session for the user (sign-in, password change, reset, accepted invitation). */
 export function signInResponseFor(ctx: AppContext, user: User): SignInResponse {
   const { token, expiresAt } = signToken(ctx.config.jwtSecret, ctx.config.jwtTtlHours, user);
   return { token, expiresAt: expiresAt.toISOString(), user: { id: user.id, email: user.email, name: user.name, role: user.role } };
