@@ -22,6 +22,29 @@ async function freePort(): Promise<number> {
   });
 }
 
+/**
+ * Clears the page origin's local storage through the DevTools protocol (no script is evaluated in the page: the app's
+ * CSP forbids eval, and some Chromium builds enforce it against test tools too).
+ */
+export async function clearLocalStorage(page: Page): Promise<void> {
+  const origin = new URL(page.url()).origin;
+  const cdp = await page.context().newCDPSession(page);
+  try {
+    await cdp.send('Storage.clearDataForOrigin', { origin, storageTypes: 'local_storage' });
+  } finally {
+    await cdp.detach().catch(() => undefined);
+  }
+}
+
+/** Polls a condition from the test side (never a string evaluated in the page) until it holds or the time runs out. */
+export async function pollUntil(check: () => Promise<boolean>, what: string, timeoutMs = 20_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (!(await check())) {
+    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+}
+
 export interface Harness {
   baseUrl: string;
   context: BrowserContext;
@@ -35,12 +58,24 @@ export interface Harness {
 export async function startHarness(): Promise<Harness> {
   const port = await freePort();
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-browser-'));
-  const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, 'node_modules/tsx/dist/cli.mjs'), 'server/start.ts'], {
-    cwd: ROOT,
-    // Many sign-ins a minute from one address (the limit itself is tested in tests/api/auth.test.ts).
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', DATA_DIR: dataDir, DEMO_PASSWORD, NODE_ENV: 'development', SIGN_IN_LIMIT_PER_MINUTE: '1000' },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
+  const server: ChildProcess = spawn(
+    process.execPath,
+    [path.join(ROOT, 'node_modules/tsx/dist/cli.mjs'), 'server/start.ts'],
+    {
+      cwd: ROOT,
+      // Many sign-ins a minute from one address (the limit itself is tested in tests/api/auth.test.ts).
+      env: {
+        ...process.env,
+        PORT: String(port),
+        HOST: '127.0.0.1',
+        DATA_DIR: dataDir,
+        DEMO_PASSWORD,
+        NODE_ENV: 'development',
+        SIGN_IN_LIMIT_PER_MINUTE: '1000',
+      },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    },
+  );
   let log = '';
   server.stdout?.on('data', (d) => (log += d));
   server.stderr?.on('data', (d) => (log += d));
@@ -83,7 +118,7 @@ export async function startHarness(): Promise<Harness> {
     async signIn(page, email) {
       // One browser profile is shared by all specs: start every sign-in from a clean session.
       await page.goto(`${baseUrl}/sign-in`);
-      await page.evaluate('window.localStorage.clear()');
+      await clearLocalStorage(page);
       await page.goto(`${baseUrl}/sign-in`);
       await page.getByTestId('email').fill(email);
       await page.getByTestId('password').fill(DEMO_PASSWORD);
@@ -93,9 +128,9 @@ export async function startHarness(): Promise<Harness> {
       // The app scrolls inside its own views: grow the viewport to the tallest scroll content for a whole-page picture.
       const file = path.join(SHOTS, `${name}.png`);
       const viewport = page.viewportSize() ?? DESKTOP;
-      const tallest = (await page.evaluate(
-        'Math.max(...Array.from(document.querySelectorAll("div")).map((d) => d.scrollHeight - d.clientHeight))',
-      )) as number;
+      const tallest = await page
+        .locator('div')
+        .evaluateAll((divs) => Math.max(0, ...divs.map((d) => d.scrollHeight - d.clientHeight)));
       const height = Math.min(6000, viewport.height + Math.max(0, tallest));
       await page.setViewportSize({ width: viewport.width, height });
       await page.waitForTimeout(150);

@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import { PNG } from 'pngjs';
 import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE } from '../harness';
+import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -17,7 +17,11 @@ async function apiAs(h: Harness, email: string): Promise<(path: string, init?: R
   });
   assert(res.ok, `sign-in of ${email} answered ${res.status}`);
   const { token } = (await res.json()) as { token: string };
-  return (path, init = {}) => fetch(`${h.baseUrl}/api${path}`, { ...init, headers: { ...(init.headers ?? {}), Authorization: `Bearer ${token}` } });
+  return (path, init = {}) =>
+    fetch(`${h.baseUrl}/api${path}`, {
+      ...init,
+      headers: { ...(init.headers ?? {}), Authorization: `Bearer ${token}` },
+    });
 }
 
 function photo(): Buffer {
@@ -37,7 +41,9 @@ async function reportMismatch(h: Harness, text: string): Promise<{ id: string; t
   const sites = (await (await api('/sites')).json()) as { sites: { id: string; name: string }[] };
   const site = sites.sites.find((s) => s.name === 'Larkspur Valley Water Reclamation Facility');
   assert(site, 'the demo facility');
-  const labels = (await (await api(`/sites/${site.id}/labels?current=1`)).json()) as { labels: { code: string; equipmentTag: string }[] };
+  const labels = (await (await api(`/sites/${site.id}/labels?current=1`)).json()) as {
+    labels: { code: string; equipmentTag: string }[];
+  };
   const label = labels.labels.find((l) => l.equipmentTag === 'MCC-1') ?? labels.labels[0];
   assert(label, 'a current label');
   const form = new FormData();
@@ -51,7 +57,12 @@ async function reportMismatch(h: Harness, text: string): Promise<{ id: string; t
 }
 
 export const specs: Spec[] = [
-  ...([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+  ...(
+    [
+      ['phone', PHONE],
+      ['desktop', DESKTOP],
+    ] as const
+  ).map(([label, viewport]) => ({
     name: `safety officer opens the dashboard and a list (${label})`,
     run: async (h: Harness) => {
       const page = await h.newPage(viewport);
@@ -60,7 +71,9 @@ export const specs: Spec[] = [
       await page.getByTestId('home-attention').getByTestId('attention-count-open-reports').waitFor();
       await page.goto(`${h.baseUrl}/attention`);
       await page.getByTestId('attention-caution').waitFor();
-      const count = Number(await page.getByTestId('attention-cards').getByTestId('attention-count-open-reports').innerText());
+      const count = Number(
+        await page.getByTestId('attention-cards').getByTestId('attention-count-open-reports').innerText(),
+      );
       assert(count >= 1, `the demo has open field reports (${count})`);
       await page.getByTestId('attention-sites').waitFor();
       await h.shot(page, `attention-${label}`);
@@ -91,7 +104,11 @@ export const specs: Spec[] = [
       assert(/^open-reports.*\.csv$/.test(download.suggestedFilename()), `file name ${download.suggestedFilename()}`);
       const file = await download.path();
       assert(file, 'the download was saved');
-      const lines = fs.readFileSync(file, 'utf8').replace(/^\uFEFF/, '').trim().split(/\r?\n/);
+      const lines = fs
+        .readFileSync(file, 'utf8')
+        .replace(/^\uFEFF/, '')
+        .trim()
+        .split(/\r?\n/);
       assert(lines[0].startsWith('Site,'), `CSV header starts with Site (${lines[0]})`);
       assert(lines[0].includes('Equipment'), `CSV header names the list columns (${lines[0]})`);
       // Report texts have no line breaks here, so one line per row.
@@ -113,7 +130,10 @@ export const specs: Spec[] = [
       await page.getByTestId('report-photo-image').waitFor();
       await page.getByTestId('triage-acknowledge').click();
       await page.getByTestId('report-status').getByText('Acknowledged', { exact: true }).waitFor();
-      assert((await page.getByTestId('report-acknowledged').innerText()).includes('Sam Ardent'), 'who acknowledged is shown');
+      assert(
+        (await page.getByTestId('report-acknowledged').innerText()).includes('Sam Ardent'),
+        'who acknowledged is shown',
+      );
       // Resolving needs a note.
       await page.getByTestId('triage-resolve').click();
       await page.getByText('Say what was done').waitFor();
@@ -142,7 +162,9 @@ export const specs: Spec[] = [
     run: async (h) => {
       // More site changes than one page holds (50), made through the API as the engineer.
       const api = await apiAs(h, 'engineer@larkspur.example');
-      const sites = (await (await api('/sites')).json()) as { sites: { id: string; name: string; address: string | null }[] };
+      const sites = (await (await api('/sites')).json()) as {
+        sites: { id: string; name: string; address: string | null }[];
+      };
       const site = sites.sites[0];
       for (let i = 1; i <= 55; i++) {
         const res = await api(`/sites/${site.id}`, {
@@ -164,8 +186,7 @@ export const specs: Spec[] = [
       while (await page.getByTestId('audit-load-more').isVisible()) {
         const before = await events.count();
         await page.getByTestId('audit-load-more').click();
-        // A string expression: this file is type-checked without the DOM library.
-        await page.waitForFunction(`document.querySelectorAll('[data-testid^="audit-event-"]').length > ${before}`);
+        await pollUntil(async () => (await events.count()) > before, 'the next page of audit events');
       }
       const shown = await events.count();
       assert(shown >= 55, `every site change is listed (${shown})`);
@@ -174,11 +195,18 @@ export const specs: Spec[] = [
       const file = await download.path();
       assert(file, 'the export was saved');
       // Descriptions here have no line breaks: one line per event after the header.
-      const lines = fs.readFileSync(file, 'utf8').replace(/^\uFEFF/, '').trim().split(/\r?\n/);
+      const lines = fs
+        .readFileSync(file, 'utf8')
+        .replace(/^\uFEFF/, '')
+        .trim()
+        .split(/\r?\n/);
       assert(lines.length === shown + 1, `CSV lines ${lines.length} = events shown ${shown} + header`);
       // A search narrows the list.
       await page.getByTestId('audit-search').fill('Walk-down note 55');
-      await page.getByTestId('audit-count').getByText(/^1 event shown/).waitFor();
+      await page
+        .getByTestId('audit-count')
+        .getByText(/^1 event shown/)
+        .waitFor();
       await h.shot(page, 'audit-log-desktop');
       await page.close();
     },
@@ -244,13 +272,16 @@ export const specs: Spec[] = [
       const text = await page.getByTestId('outbox-text').innerText();
       const token = /\/welcome\/([A-Za-z0-9_-]+)/.exec(text)?.[1];
       assert(token, 'the newest message carries the welcome link');
-      assert((await page.getByTestId('outbox-message').innerText()).includes(email), 'the message goes to the invited address');
+      assert(
+        (await page.getByTestId('outbox-message').innerText()).includes(email),
+        'the message goes to the invited address',
+      );
       await h.shot(page, 'outbox-desktop');
       await page.close();
 
       const phone = await h.newPage(PHONE);
       await phone.goto(`${h.baseUrl}/sign-in`);
-      await phone.evaluate('window.localStorage.clear()');
+      await clearLocalStorage(phone);
       await phone.goto(`${h.baseUrl}/welcome/${token}`);
       await phone.getByTestId('link-info').getByText(email, { exact: false }).waitFor();
       await phone.getByTestId('link-password').fill('a-new-long-password');
@@ -262,7 +293,7 @@ export const specs: Spec[] = [
       await phone.getByTestId('link-submit').click();
       await phone.getByTestId('home-electrician').waitFor();
       // The link is single use.
-      await phone.evaluate('window.localStorage.clear()');
+      await clearLocalStorage(phone);
       await phone.goto(`${h.baseUrl}/welcome/${token}`);
       await phone.getByTestId('link-gone').waitFor();
       await h.shot(phone, 'welcome-used-phone');

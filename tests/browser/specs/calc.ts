@@ -8,7 +8,12 @@ function assert(cond: unknown, message: string): asserts cond {
 }
 
 export const specs: Spec[] = [
-  ...([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+  ...(
+    [
+      ['phone', PHONE],
+      ['desktop', DESKTOP],
+    ] as const
+  ).map(([label, viewport]) => ({
     name: `engineer runs a spot check with a preset (${label})`,
     run: async (h: Harness) => {
       const page = await h.newPage(viewport);
@@ -50,7 +55,12 @@ export const specs: Spec[] = [
       await page.close();
     },
   },
-  ...([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+  ...(
+    [
+      ['phone', PHONE],
+      ['desktop', DESKTOP],
+    ] as const
+  ).map(([label, viewport]) => ({
     name: `engineer opens the trip unit, changes a switch and reads the band (${label})`,
     run: async (h: Harness) => {
       const page = await h.newPage(viewport);

@@ -1,6 +1,6 @@
 import { PNG } from 'pngjs';
 import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE } from '../harness';
+import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -21,7 +21,9 @@ async function electricianAuth(h: Harness): Promise<Record<string, string>> {
 /** The id of the demo's main site (the facility), read through the API. */
 async function facilityId(h: Harness): Promise<string> {
   const auth = await electricianAuth(h);
-  const sites = (await (await fetch(`${h.baseUrl}/api/sites`, { headers: auth })).json()) as { sites: { id: string; name: string }[] };
+  const sites = (await (await fetch(`${h.baseUrl}/api/sites`, { headers: auth })).json()) as {
+    sites: { id: string; name: string }[];
+  };
   const site = sites.sites.find((s) => s.name === 'Larkspur Valley Water Reclamation Facility');
   assert(site, 'the demo facility site');
   return site.id;
@@ -30,7 +32,9 @@ async function facilityId(h: Harness): Promise<string> {
 /** A current label code of the demo facility, read through the API as the electrician would see it. */
 async function demoLabelCode(h: Harness, tag: string): Promise<string> {
   const auth = await electricianAuth(h);
-  const labels = (await (await fetch(`${h.baseUrl}/api/sites/${await facilityId(h)}/labels?current=1`, { headers: auth })).json()) as { labels: { code: string; equipmentTag: string }[] };
+  const labels = (await (
+    await fetch(`${h.baseUrl}/api/sites/${await facilityId(h)}/labels?current=1`, { headers: auth })
+  ).json()) as { labels: { code: string; equipmentTag: string }[] };
   const label = labels.labels.find((l) => l.equipmentTag === tag);
   assert(label, `a current label for ${tag}`);
   return label.code;
@@ -48,7 +52,12 @@ function photo(): Buffer {
 }
 
 export const specs: Spec[] = [
-  ...([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+  ...(
+    [
+      ['phone', PHONE],
+      ['desktop', DESKTOP],
+    ] as const
+  ).map(([label, viewport]) => ({
     name: `electrician previews labels and makes a PDF of them with progress (${label})`,
     run: async (h: Harness) => {
       const page = await h.newPage(viewport);
@@ -81,9 +90,14 @@ export const specs: Spec[] = [
       await h.shot(page, 'label-before-install-phone');
       await page.getByTestId('mark-installed').click();
       await page.getByText('Add a photo of the installed label').waitFor();
-      await page.locator('[data-testid="install-photo"]').setInputFiles({ name: 'mcc2.png', mimeType: 'image/png', buffer: photo() });
+      await page
+        .locator('[data-testid="install-photo"]')
+        .setInputFiles({ name: 'mcc2.png', mimeType: 'image/png', buffer: photo() });
       await page.getByTestId('mark-installed').click();
-      await page.getByTestId('label-status').getByText(/^Installed \d{4}-\d{2}-\d{2} by /).waitFor();
+      await page
+        .getByTestId('label-status')
+        .getByText(/^Installed \d{4}-\d{2}-\d{2} by /)
+        .waitFor();
       await h.shot(page, 'label-installed-phone');
       await page.close();
     },
@@ -94,7 +108,7 @@ export const specs: Spec[] = [
       const code = await demoLabelCode(h, 'USS-1');
       const page = await h.newPage(PHONE);
       await page.goto(`${h.baseUrl}/sign-in`);
-      await page.evaluate('window.localStorage.clear()');
+      await clearLocalStorage(page);
       await page.goto(`${h.baseUrl}/l/${code}`);
       await page.getByTestId('label-status').getByText('CURRENT', { exact: true }).waitFor();
       const word = await page.getByTestId('label-signal-word').first().innerText();

@@ -1,5 +1,5 @@
 import type { Harness } from '../harness';
-import { DESKTOP, PHONE } from '../harness';
+import { clearLocalStorage, DESKTOP, PHONE } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -11,7 +11,12 @@ const ROLES = ['engineer', 'electrician', 'safety', 'admin'] as const;
 
 export const specs: Spec[] = [
   ...ROLES.flatMap((role) =>
-    ([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+    (
+      [
+        ['phone', PHONE],
+        ['desktop', DESKTOP],
+      ] as const
+    ).map(([label, viewport]) => ({
       name: `${role} signs in and sees the ${role} home (${label})`,
       run: async (h: Harness) => {
         const page = await h.newPage(viewport);
@@ -32,7 +37,7 @@ export const specs: Spec[] = [
     run: async (h) => {
       const page = await h.newPage(PHONE);
       await page.goto(`${h.baseUrl}/sign-in`);
-      await page.evaluate('window.localStorage.clear()');
+      await clearLocalStorage(page);
       await page.goto(`${h.baseUrl}/sign-in`);
       await page.getByTestId('email').fill('engineer@larkspur.example');
       await page.getByTestId('password').fill('wrong-password');
@@ -49,7 +54,7 @@ export const specs: Spec[] = [
     run: async (h) => {
       const page = await h.context.newPage();
       await page.goto(`${h.baseUrl}/sites`);
-      await page.evaluate('window.localStorage.clear()');
+      await clearLocalStorage(page);
       await page.goto(`${h.baseUrl}/sites`);
       await page.getByTestId('sign-in-submit').waitFor();
       await h.shot(page, 'sign-in-desktop');

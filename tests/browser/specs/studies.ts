@@ -17,7 +17,12 @@ async function openDemoSite(h: Harness, page: import('playwright-core').Page): P
 }
 
 export const specs: Spec[] = [
-  ...([['phone', PHONE], ['desktop', DESKTOP]] as const).map(([label, viewport]) => ({
+  ...(
+    [
+      ['phone', PHONE],
+      ['desktop', DESKTOP],
+    ] as const
+  ).map(([label, viewport]) => ({
     name: `safety officer reads the approved study, its results and a clearing trace (${label})`,
     run: async (h: Harness) => {
       const page = await h.newPage(viewport);
@@ -36,7 +41,10 @@ export const specs: Spec[] = [
       const sentence = page.getByTestId('trace-sentence');
       await sentence.waitFor();
       const text = await sentence.innerText();
-      assert(text.includes('line side of the main') && text.includes('R-TX1'), `governing line-side case cleared by R-TX1 (${text})`);
+      assert(
+        text.includes('line side of the main') && text.includes('R-TX1'),
+        `governing line-side case cleared by R-TX1 (${text})`,
+      );
       await page.getByTestId('caution-no-ppe').waitFor();
       await page.waitForTimeout(800);
       await h.shot(page, `trace-USS-1-${label}`);
@@ -54,8 +62,16 @@ export const specs: Spec[] = [
       await page.getByTestId('revise').click();
       await page.getByText('rev 2').first().waitFor();
       await page.getByTestId('study-tab-model').click();
-      const workbook = await exportModelWorkbook(modelSchema.parse({ ...larkspurModel(), name: 'Larkspur, revision 2' }));
-      await page.getByTestId('model-file-input').setInputFiles({ name: 'larkspur.xlsx', mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', buffer: workbook });
+      const workbook = await exportModelWorkbook(
+        modelSchema.parse({ ...larkspurModel(), name: 'Larkspur, revision 2' }),
+      );
+      await page
+        .getByTestId('model-file-input')
+        .setInputFiles({
+          name: 'larkspur.xlsx',
+          mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+          buffer: workbook,
+        });
       await page.getByText('Imported larkspur.xlsx').waitFor();
       await h.shot(page, 'study-model-desktop');
       await page.getByTestId('study-tab-overview').click();
