@@ -8,7 +8,8 @@ import { SessionProvider } from '../hooks/session';
 
 export default function RootLayout() {
   const [queryClient] = useState(
-    () => new QueryClient({ defaultOptions: { queries: { staleTime: 15_000, retry: 1, refetchOnWindowFocus: false } } }),
+    () =>
+      new QueryClient({ defaultOptions: { queries: { staleTime: 15_000, retry: 1, refetchOnWindowFocus: false } } }),
   );
   const [fontsLoaded] = useFonts({
     Inter: require('../fonts/Inter-Regular.ttf'),

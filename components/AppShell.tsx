@@ -13,7 +13,16 @@ function Wordmark({ light }: { light?: boolean }) {
   return (
     <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
       <View style={{ width: 12, height: 28, borderRadius: 6, backgroundColor: colors.accent }} />
-      <T style={{ fontFamily: fonts.textBold, fontSize: 20, color: light ? colors.navInk : colors.ink, letterSpacing: 0.5 }}>Emberline</T>
+      <T
+        style={{
+          fontFamily: fonts.textBold,
+          fontSize: 20,
+          color: light ? colors.navInk : colors.ink,
+          letterSpacing: 0.5,
+        }}
+      >
+        Emberline
+      </T>
     </View>
   );
 }
@@ -33,7 +42,16 @@ export function AppShell({ children }: { children: React.ReactNode }) {
   if (wide) {
     return (
       <View style={{ flex: 1, flexDirection: 'row', backgroundColor: colors.canvas }}>
-        <View testID="side-nav" style={{ width: 248, backgroundColor: colors.nav, paddingVertical: space.xl, paddingHorizontal: space.md, gap: space.xs }}>
+        <View
+          testID="side-nav"
+          style={{
+            width: 248,
+            backgroundColor: colors.nav,
+            paddingVertical: space.xl,
+            paddingHorizontal: space.md,
+            gap: space.xs,
+          }}
+        >
           <View style={{ paddingHorizontal: space.sm, marginBottom: space.xl }}>
             <Wordmark light />
           </View>
@@ -56,8 +74,24 @@ export function AppShell({ children }: { children: React.ReactNode }) {
                       backgroundColor: on ? 'rgba(255,255,255,0.12)' : 'transparent',
                     }}
                   >
-                    <T style={{ color: on ? colors.navInk : colors.navMuted, fontSize: 18, width: 22, textAlign: 'center' }}>{item.glyph}</T>
-                    <T style={{ color: on ? colors.navInk : colors.navMuted, fontFamily: on ? fonts.textBold : fonts.textMedium }}>{item.label}</T>
+                    <T
+                      style={{
+                        color: on ? colors.navInk : colors.navMuted,
+                        fontSize: 18,
+                        width: 22,
+                        textAlign: 'center',
+                      }}
+                    >
+                      {item.glyph}
+                    </T>
+                    <T
+                      style={{
+                        color: on ? colors.navInk : colors.navMuted,
+                        fontFamily: on ? fonts.textBold : fonts.textMedium,
+                      }}
+                    >
+                      {item.label}
+                    </T>
                   </Pressable>
                 </Link>
               );
@@ -69,7 +103,11 @@ export function AppShell({ children }: { children: React.ReactNode }) {
             </T>
             <T style={{ color: colors.navMuted, fontSize: 13 }}>{ROLE_LABELS[user.role]}</T>
           </View>
-          <Pressable accessibilityRole="button" onPress={() => void signOut()} style={{ minHeight: touch.min, justifyContent: 'center', paddingHorizontal: space.sm }}>
+          <Pressable
+            accessibilityRole="button"
+            onPress={() => void signOut()}
+            style={{ minHeight: touch.min, justifyContent: 'center', paddingHorizontal: space.sm }}
+          >
             <T style={{ color: colors.navMuted, textDecorationLine: 'underline' }}>Sign out</T>
           </Pressable>
         </View>
@@ -92,28 +130,53 @@ export function AppShell({ children }: { children: React.ReactNode }) {
         }}
       >
         <Wordmark light />
-        <Pressable accessibilityRole="button" onPress={() => void signOut()} style={{ minHeight: touch.min, justifyContent: 'center', paddingLeft: space.md }}>
-          <T style={{ color: colors.navMuted, fontSize: 14 }}>
-            {ROLE_LABELS[user.role]} · Sign out
-          </T>
+        <Pressable
+          accessibilityRole="button"
+          onPress={() => void signOut()}
+          style={{ minHeight: touch.min, justifyContent: 'center', paddingLeft: space.md }}
+        >
+          <T style={{ color: colors.navMuted, fontSize: 14 }}>{ROLE_LABELS[user.role]} · Sign out</T>
         </Pressable>
       </View>
       <View style={{ flex: 1 }}>{children}</View>
       <View
         testID="bottom-tabs"
-        style={{ flexDirection: 'row', backgroundColor: colors.surface, borderTopWidth: 1, borderTopColor: colors.line, paddingBottom: insets.bottom }}
+        style={{
+          flexDirection: 'row',
+          backgroundColor: colors.surface,
+          borderTopWidth: 1,
+          borderTopColor: colors.line,
+          paddingBottom: insets.bottom,
+        }}
       >
         {tabs.map((item) => {
-          const on = item === MORE_ITEM ? !direct.some((i) => isActive(i.href, pathname)) : isActive(item.href, pathname);
+          const on =
+            item === MORE_ITEM ? !direct.some((i) => isActive(i.href, pathname)) : isActive(item.href, pathname);
           return (
             <Link key={item.href} href={item.href as never} asChild>
               <Pressable
                 accessibilityRole="tab"
                 accessibilityState={{ selected: on }}
-                style={{ flex: 1, minHeight: 60, alignItems: 'center', justifyContent: 'center', gap: 2, borderTopWidth: 3, borderTopColor: on ? colors.accent : 'transparent' }}
+                style={{
+                  flex: 1,
+                  minHeight: 60,
+                  alignItems: 'center',
+                  justifyContent: 'center',
+                  gap: 2,
+                  borderTopWidth: 3,
+                  borderTopColor: on ? colors.accent : 'transparent',
+                }}
               >
                 <T style={{ fontSize: 20, color: on ? colors.accent : colors.muted }}>{item.glyph}</T>
-                <T style={{ fontSize: 12, fontFamily: on ? fonts.textBold : fonts.textMedium, color: on ? colors.ink : colors.muted }}>{item.label}</T>
+                <T
+                  style={{
+                    fontSize: 12,
+                    fontFamily: on ? fonts.textBold : fonts.textMedium,
+                    color: on ? colors.ink : colors.muted,
+                  }}
+                >
+                  {item.label}
+                </T>
               </Pressable>
             </Link>
           );

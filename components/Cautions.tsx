@@ -23,7 +23,14 @@ export function Cautions({
     <View
       testID="cautions"
       accessibilityRole="summary"
-      style={{ borderWidth: 1.5, borderColor: colors.ink, borderRadius: radius.md, padding: space.md, gap: space.sm, backgroundColor: colors.surface }}
+      style={{
+        borderWidth: 1.5,
+        borderColor: colors.ink,
+        borderRadius: radius.md,
+        padding: space.md,
+        gap: space.sm,
+        backgroundColor: colors.surface,
+      }}
     >
       <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
         <HazardMark size={20} />

@@ -7,7 +7,15 @@ import { space } from './theme';
 import { Button, Field, Notice } from './ui';
 
 /** Create or edit a site; validated with the shared schema before it is sent. */
-export function SiteForm({ site, onDone, onCancel }: { site?: Site; onDone: (s: Site) => void; onCancel?: () => void }) {
+export function SiteForm({
+  site,
+  onDone,
+  onCancel,
+}: {
+  site?: Site;
+  onDone: (s: Site) => void;
+  onCancel?: () => void;
+}) {
   const [name, setName] = useState(site?.name ?? '');
   const [address, setAddress] = useState(site?.address ?? '');
   const [description, setDescription] = useState(site?.description ?? '');

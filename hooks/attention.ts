@@ -64,7 +64,8 @@ export function useFieldReport(id: string) {
 export function useTriageReport(id: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: FieldReportTriage) => apiFetch<FieldReportDto>(`/field-reports/${enc(id)}/triage`, { method: 'POST', body: input }),
+    mutationFn: (input: FieldReportTriage) =>
+      apiFetch<FieldReportDto>(`/field-reports/${enc(id)}/triage`, { method: 'POST', body: input }),
     onSuccess: (report) => {
       qc.setQueryData(queryKeys.fieldReports.detail(id), report);
       void qc.invalidateQueries({ queryKey: queryKeys.fieldReports.all() });
@@ -90,7 +91,9 @@ export function useAuditEvents(filters: AuditFilters, enabled = true) {
   return useInfiniteQuery({
     queryKey: queryKeys.audit.list({ ...filters }),
     queryFn: ({ pageParam }) =>
-      apiFetch<AuditPage>(`/audit-events${queryString({ ...filters, before: pageParam ?? undefined, limit: AUDIT_PAGE_SIZE })}`),
+      apiFetch<AuditPage>(
+        `/audit-events${queryString({ ...filters, before: pageParam ?? undefined, limit: AUDIT_PAGE_SIZE })}`,
+      ),
     initialPageParam: null as string | null,
     getNextPageParam: (last) => last.nextBefore,
     enabled,

@@ -13,17 +13,26 @@ export const labelKeys = {
 };
 
 export function useLabelDetail(code: string) {
-  return useQuery({ queryKey: labelKeys.detail(code), queryFn: () => apiFetch<LabelDto>(`/labels/${enc(code)}/detail`), retry: false });
+  return useQuery({
+    queryKey: labelKeys.detail(code),
+    queryFn: () => apiFetch<LabelDto>(`/labels/${enc(code)}/detail`),
+    retry: false,
+  });
 }
 
 export function useLabelCheck(code: string) {
-  return useQuery({ queryKey: labelKeys.check(code), queryFn: () => apiFetch<LabelCheck>(`/labels/${enc(code)}`), retry: false });
+  return useQuery({
+    queryKey: labelKeys.check(code),
+    queryFn: () => apiFetch<LabelCheck>(`/labels/${enc(code)}`),
+    retry: false,
+  });
 }
 
 export function useSiteLabels(siteId: string | null) {
   return useQuery({
     queryKey: labelKeys.site(siteId ?? ''),
-    queryFn: async () => (await apiFetch<{ labels: LabelDto[] }>(`/sites/${enc(siteId as string)}/labels?current=1`)).labels,
+    queryFn: async () =>
+      (await apiFetch<{ labels: LabelDto[] }>(`/sites/${enc(siteId as string)}/labels?current=1`)).labels,
     enabled: !!siteId,
   });
 }
@@ -48,7 +57,10 @@ export function useReportMismatch(code: string) {
       form.append('kind', input.kind);
       form.append('text', input.text);
       if (input.photo) form.append('photo', input.photo);
-      return apiFetch<{ id: string; status: string }>(`/labels/${enc(code)}/reports`, { method: 'POST', formData: form });
+      return apiFetch<{ id: string; status: string }>(`/labels/${enc(code)}/reports`, {
+        method: 'POST',
+        formData: form,
+      });
     },
     onSuccess: () => qc.invalidateQueries({ queryKey: labelKeys.all() }),
   });
@@ -71,6 +83,7 @@ export function useBatch(id: string | null) {
       return b;
     },
     enabled: !!id,
-    refetchInterval: (q) => (q.state.data && (q.state.data.status === 'queued' || q.state.data.status === 'running') ? 700 : false),
+    refetchInterval: (q) =>
+      q.state.data && (q.state.data.status === 'queued' || q.state.data.status === 'running') ? 700 : false,
   });
 }

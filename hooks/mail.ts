@@ -37,7 +37,10 @@ export function useSendNow() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (ruleId?: string) =>
-      apiFetch<{ deliveries: ReminderDelivery[] }>('/reminders/send-now', { method: 'POST', body: ruleId ? { ruleId } : {} }),
+      apiFetch<{ deliveries: ReminderDelivery[] }>('/reminders/send-now', {
+        method: 'POST',
+        body: ruleId ? { ruleId } : {},
+      }),
     onSuccess: () => {
       void qc.invalidateQueries({ queryKey: queryKeys.reminders.all() });
       void qc.invalidateQueries({ queryKey: queryKeys.outbox() });
@@ -75,13 +78,19 @@ function useInvitationMutation<I>(fn: (input: I) => Promise<InvitationDto>) {
 }
 
 export function useCreateInvitation() {
-  return useInvitationMutation((input: CreateInvitation) => apiFetch<InvitationDto>('/invitations', { method: 'POST', body: input }));
+  return useInvitationMutation((input: CreateInvitation) =>
+    apiFetch<InvitationDto>('/invitations', { method: 'POST', body: input }),
+  );
 }
 
 export function useResendInvitation() {
-  return useInvitationMutation((id: string) => apiFetch<InvitationDto>(`/invitations/${enc(id)}/resend`, { method: 'POST' }));
+  return useInvitationMutation((id: string) =>
+    apiFetch<InvitationDto>(`/invitations/${enc(id)}/resend`, { method: 'POST' }),
+  );
 }
 
 export function useRevokeInvitation() {
-  return useInvitationMutation((id: string) => apiFetch<InvitationDto>(`/invitations/${enc(id)}`, { method: 'DELETE' }));
+  return useInvitationMutation((id: string) =>
+    apiFetch<InvitationDto>(`/invitations/${enc(id)}`, { method: 'DELETE' }),
+  );
 }

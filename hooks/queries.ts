@@ -15,11 +15,17 @@ export function useMe() {
 }
 
 export function useSites() {
-  return useQuery({ queryKey: queryKeys.sites.list(), queryFn: async () => (await apiFetch<{ sites: Site[] }>('/sites')).sites });
+  return useQuery({
+    queryKey: queryKeys.sites.list(),
+    queryFn: async () => (await apiFetch<{ sites: Site[] }>('/sites')).sites,
+  });
 }
 
 export function useSite(siteId: string) {
-  return useQuery({ queryKey: queryKeys.sites.detail(siteId), queryFn: () => apiFetch<Site>(`/sites/${encodeURIComponent(siteId)}`) });
+  return useQuery({
+    queryKey: queryKeys.sites.detail(siteId),
+    queryFn: () => apiFetch<Site>(`/sites/${encodeURIComponent(siteId)}`),
+  });
 }
 
 export function useSaveSite(siteId?: string) {
@@ -34,7 +40,10 @@ export function useSaveSite(siteId?: string) {
 }
 
 export function useUsers() {
-  return useQuery({ queryKey: queryKeys.users(), queryFn: async () => (await apiFetch<{ users: UserAdmin[] }>('/users')).users });
+  return useQuery({
+    queryKey: queryKeys.users(),
+    queryFn: async () => (await apiFetch<{ users: UserAdmin[] }>('/users')).users,
+  });
 }
 
 export function useCreateUser() {
@@ -61,7 +70,8 @@ export function useOrganization() {
 export function useUpdateSettings() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (settings: OrganizationSettingsInput) => apiFetch<OrganizationDto>('/organization/settings', { method: 'PUT', body: settings }),
+    mutationFn: (settings: OrganizationSettingsInput) =>
+      apiFetch<OrganizationDto>('/organization/settings', { method: 'PUT', body: settings }),
     onSuccess: (org) => {
       qc.setQueryData(queryKeys.organization(), org);
       // The dashboard's "not installed" list and the reminder hour follow the settings.
@@ -75,7 +85,8 @@ export type IncidentEnergyResult = IncidentEnergyResponse & { labelValues: Label
 
 export function useIncidentEnergy() {
   return useMutation({
-    mutationFn: (input: IncidentEnergyRequest) => apiFetch<IncidentEnergyResult>('/calc/incident-energy', { method: 'POST', body: input }),
+    mutationFn: (input: IncidentEnergyRequest) =>
+      apiFetch<IncidentEnergyResult>('/calc/incident-energy', { method: 'POST', body: input }),
   });
 }
 

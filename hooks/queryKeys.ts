@@ -30,7 +30,8 @@ export const queryKeys = {
   },
   fieldReports: {
     all: () => ['field-reports'] as const,
-    list: (filters: { status?: string; siteId?: string; mine?: boolean }) => ['field-reports', 'list', filters] as const,
+    list: (filters: { status?: string; siteId?: string; mine?: boolean }) =>
+      ['field-reports', 'list', filters] as const,
     detail: (id: string) => ['field-reports', 'detail', id] as const,
   },
   audit: {

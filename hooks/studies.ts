@@ -1,5 +1,12 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ApproveInput, EquipmentDto, ModelEnvelope, ResultsResponse, RunDto, StudyDto } from '../shared/schemas/studies';
+import type {
+  ApproveInput,
+  EquipmentDto,
+  ModelEnvelope,
+  ResultsResponse,
+  RunDto,
+  StudyDto,
+} from '../shared/schemas/studies';
 import { apiFetch } from './api';
 import { queryKeys } from './queryKeys';
 
@@ -26,13 +33,18 @@ export function useStudy(id: string) {
 export function useCreateStudy(siteId: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: { title: string }) => apiFetch<StudyDto>(`/sites/${enc(siteId)}/studies`, { method: 'POST', body: input }),
+    mutationFn: (input: { title: string }) =>
+      apiFetch<StudyDto>(`/sites/${enc(siteId)}/studies`, { method: 'POST', body: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.studies.all() }),
   });
 }
 
 export function useStudyModel(id: string, enabled = true) {
-  return useQuery({ queryKey: queryKeys.studies.model(id), queryFn: () => apiFetch<ModelEnvelope>(`/studies/${enc(id)}/model`), enabled });
+  return useQuery({
+    queryKey: queryKeys.studies.model(id),
+    queryFn: () => apiFetch<ModelEnvelope>(`/studies/${enc(id)}/model`),
+    enabled,
+  });
 }
 
 export function useSaveModel(id: string) {
@@ -74,7 +86,8 @@ export function useRun(id: string) {
         throw e;
       }
     },
-    refetchInterval: (q) => (q.state.data && (q.state.data.status === 'queued' || q.state.data.status === 'running') ? 1000 : false),
+    refetchInterval: (q) =>
+      q.state.data && (q.state.data.status === 'queued' || q.state.data.status === 'running') ? 1000 : false,
   });
 }
 
@@ -107,7 +120,8 @@ export function useResults(id: string, enabled = true) {
 function useStudyAction<I = void>(id: string, path: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (body: I) => apiFetch<StudyDto>(`/studies/${enc(id)}/${path}`, { method: 'POST', body: body ?? undefined }),
+    mutationFn: (body: I) =>
+      apiFetch<StudyDto>(`/studies/${enc(id)}/${path}`, { method: 'POST', body: body ?? undefined }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.studies.all() }),
   });
 }

@@ -7,7 +7,11 @@ import { apiFetch, ApiClientError } from './api';
  * through an object URL, released when the screen leaves.
  */
 export function useAuthedImage(path: string | null): { uri: string | null; error: string | null; loading: boolean } {
-  const [state, setState] = useState<{ uri: string | null; error: string | null; loading: boolean }>({ uri: null, error: null, loading: !!path });
+  const [state, setState] = useState<{ uri: string | null; error: string | null; loading: boolean }>({
+    uri: null,
+    error: null,
+    loading: !!path,
+  });
   useEffect(() => {
     if (!path || Platform.OS !== 'web') {
       setState({ uri: null, error: null, loading: false });
@@ -23,7 +27,12 @@ export function useAuthedImage(path: string | null): { uri: string | null; error
         setState({ uri: url, error: null, loading: false });
       })
       .catch((e: unknown) => {
-        if (live) setState({ uri: null, error: e instanceof ApiClientError ? e.message : 'The photo could not be loaded', loading: false });
+        if (live)
+          setState({
+            uri: null,
+            error: e instanceof ApiClientError ? e.message : 'The photo could not be loaded',
+            loading: false,
+          });
       });
     return () => {
       live = false;

@@ -38,7 +38,10 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
     storage: opts.storage ?? new LocalFileStore(path.join(opts.config.dataDir, 'uploads')),
     mail: opts.mail ?? createMailer(opts.config),
   };
-  const routes = allRoutes({ signInLimitPerMinute: opts.signInLimitPerMinute ?? opts.config.signInLimitPerMinute, publicCheckPerMinute: opts.publicCheckPerMinute ?? 120 });
+  const routes = allRoutes({
+    signInLimitPerMinute: opts.signInLimitPerMinute ?? opts.config.signInLimitPerMinute,
+    publicCheckPerMinute: opts.publicCheckPerMinute ?? 120,
+  });
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -63,7 +66,11 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
   if (opts.config.logRequests) {
     app.use((req, res, next) => {
       const start = process.hrtime.bigint();
-      res.on('finish', () => console.log(`${req.method} ${req.originalUrl} ${res.statusCode} ${Number(process.hrtime.bigint() - start) / 1e6}ms`));
+      res.on('finish', () =>
+        console.log(
+          `${req.method} ${req.originalUrl} ${res.statusCode} ${Number(process.hrtime.bigint() - start) / 1e6}ms`,
+        ),
+      );
       next();
     });
   }
@@ -87,7 +94,11 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
   app.get('/{*splat}', (_req, res) => {
     const index = path.join(webDir, 'index.html');
     if (fs.existsSync(index)) res.sendFile(index);
-    else res.status(503).type('text').send('The web app is not built yet: run `npm run build:web` (npm start does it for you).');
+    else
+      res
+        .status(503)
+        .type('text')
+        .send('The web app is not built yet: run `npm run build:web` (npm start does it for you).');
   });
   app.use(errorMiddleware);
   return { app, ctx, routes };

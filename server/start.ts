@@ -32,7 +32,8 @@ async function main(): Promise<void> {
     await seedDemo(ctx, config.demoPassword);
     console.log('Seeded the invented demo organization, its site and an approved study.');
   }
-  if (process.env.SKIP_WEB_BUILD !== '1' && webBuildIsStale(process.cwd(), config.webDir)) buildWeb(process.cwd(), config.webDir);
+  if (process.env.SKIP_WEB_BUILD !== '1' && webBuildIsStale(process.cwd(), config.webDir))
+    buildWeb(process.cwd(), config.webDir);
   // The daily reminders: checked every 5 minutes; each rule goes out once a day after the organization's hour.
   const reminders = startReminderScheduler(ctx);
   const server = createServer(app);

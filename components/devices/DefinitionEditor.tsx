@@ -1,10 +1,6 @@
 import React, { useState } from 'react';
 import { View } from 'react-native';
-import {
-  ELECTRONIC_SETTING_NAMES,
-  RELAY_CURVES,
-  type ElectronicSettingName,
-} from '../../shared/schemas/device';
+import { ELECTRONIC_SETTING_NAMES, RELAY_CURVES, type ElectronicSettingName } from '../../shared/schemas/device';
 import type { DeviceDefinition } from '../../shared/schemas/deviceLibrary';
 import { colors, space } from '../theme';
 import { Choice, Field, T } from '../ui';
@@ -37,20 +33,65 @@ function ThermalMagnetic({ def, onChange, errors, editable }: Props<'thermal-mag
   return (
     <View style={{ gap: space.md }}>
       <View style={row}>
-        <NumberInput label="Rating" unit="A" value={def.ratingA} onChange={(v) => onChange({ ...def, ratingA: v as number })} error={errors.ratingA} editable={editable} testID="ratingA" />
-        <NumberInput label="Instantaneous clearing" unit="cycles" value={def.instantaneousClearingCycles} onChange={(v) => onChange({ ...def, instantaneousClearingCycles: v })} error={errors.instantaneousClearingCycles} editable={editable} hint="e.g. 1.5 cycles for a molded-case breaker" />
+        <NumberInput
+          label="Rating"
+          unit="A"
+          value={def.ratingA}
+          onChange={(v) => onChange({ ...def, ratingA: v as number })}
+          error={errors.ratingA}
+          editable={editable}
+          testID="ratingA"
+        />
+        <NumberInput
+          label="Instantaneous clearing"
+          unit="cycles"
+          value={def.instantaneousClearingCycles}
+          onChange={(v) => onChange({ ...def, instantaneousClearingCycles: v })}
+          error={errors.instantaneousClearingCycles}
+          editable={editable}
+          hint="e.g. 1.5 cycles for a molded-case breaker"
+        />
       </View>
       <T variant="label">THERMAL BAND (MULTIPLES OF RATING)</T>
       <View style={row}>
-        <PointsInput label="Minimum curve" value={def.thermal.min} onChange={(p) => onChange({ ...def, thermal: { ...def.thermal, min: p ?? [] } })} error={errors['thermal.min']} editable={editable} />
-        <PointsInput label="Maximum curve" value={def.thermal.max} onChange={(p) => onChange({ ...def, thermal: { ...def.thermal, max: p ?? [] } })} error={errors['thermal.max']} editable={editable} />
+        <PointsInput
+          label="Minimum curve"
+          value={def.thermal.min}
+          onChange={(p) => onChange({ ...def, thermal: { ...def.thermal, min: p ?? [] } })}
+          error={errors['thermal.min']}
+          editable={editable}
+        />
+        <PointsInput
+          label="Maximum curve"
+          value={def.thermal.max}
+          onChange={(p) => onChange({ ...def, thermal: { ...def.thermal, max: p ?? [] } })}
+          error={errors['thermal.max']}
+          editable={editable}
+        />
       </View>
       <T variant="label">INSTANTANEOUS (MULTIPLE OF RATING, ± TOLERANCE)</T>
       <View style={row}>
-        <NumberInput label="Pickup" unit="× rating" value={inst.pickupMultiple} onChange={(v) => onChange({ ...def, instantaneous: { ...inst, pickupMultiple: v } })} error={errors['instantaneous.pickupMultiple']} editable={editable} testID="instPickup" />
-        <NumberInput label="Tolerance" unit="± %" value={inst.tolerancePct} onChange={(v) => onChange({ ...def, instantaneous: { ...inst, tolerancePct: v } })} error={errors['instantaneous.tolerancePct']} editable={editable} />
+        <NumberInput
+          label="Pickup"
+          unit="× rating"
+          value={inst.pickupMultiple}
+          onChange={(v) => onChange({ ...def, instantaneous: { ...inst, pickupMultiple: v } })}
+          error={errors['instantaneous.pickupMultiple']}
+          editable={editable}
+          testID="instPickup"
+        />
+        <NumberInput
+          label="Tolerance"
+          unit="± %"
+          value={inst.tolerancePct}
+          onChange={(v) => onChange({ ...def, instantaneous: { ...inst, tolerancePct: v } })}
+          error={errors['instantaneous.tolerancePct']}
+          editable={editable}
+        />
       </View>
-      <T variant="small">Between the low and high edge of the pickup tolerance the maximum curve stays on the thermal band.</T>
+      <T variant="small">
+        Between the low and high edge of the pickup tolerance the maximum curve stays on the thermal band.
+      </T>
     </View>
   );
 }
@@ -58,12 +99,34 @@ function ThermalMagnetic({ def, onChange, errors, editable }: Props<'thermal-mag
 function Fuse({ def, onChange, errors, editable }: Props<'fuse'>) {
   return (
     <View style={{ gap: space.md }}>
-      <NumberInput label="Rating" unit="A" value={def.ratingA} onChange={(v) => onChange({ ...def, ratingA: v as number })} error={errors.ratingA} editable={editable} testID="ratingA" />
+      <NumberInput
+        label="Rating"
+        unit="A"
+        value={def.ratingA}
+        onChange={(v) => onChange({ ...def, ratingA: v as number })}
+        error={errors.ratingA}
+        editable={editable}
+        testID="ratingA"
+      />
       <View style={row}>
-        <PointsInput label="Total clearing (A, s)" value={def.totalClearing} onChange={(p) => onChange({ ...def, totalClearing: p })} error={errors.totalClearing} editable={editable} />
-        <PointsInput label="Minimum melting (A, s)" value={def.minimumMelt} onChange={(p) => onChange({ ...def, minimumMelt: p })} error={errors.minimumMelt} editable={editable} />
+        <PointsInput
+          label="Total clearing (A, s)"
+          value={def.totalClearing}
+          onChange={(p) => onChange({ ...def, totalClearing: p })}
+          error={errors.totalClearing}
+          editable={editable}
+        />
+        <PointsInput
+          label="Minimum melting (A, s)"
+          value={def.minimumMelt}
+          onChange={(p) => onChange({ ...def, minimumMelt: p })}
+          error={errors.minimumMelt}
+          editable={editable}
+        />
       </View>
-      <T variant="small">Above the highest published current the clearing time is 0.01 s (IEEE 1584 practice: half a cycle).</T>
+      <T variant="small">
+        Above the highest published current the clearing time is 0.01 s (IEEE 1584 practice: half a cycle).
+      </T>
     </View>
   );
 }
@@ -71,21 +134,102 @@ function Fuse({ def, onChange, errors, editable }: Props<'fuse'>) {
 function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
   return (
     <View style={{ gap: space.md }}>
-      <Choice label="Curve" value={def.curve} options={RELAY_CURVES.map((c) => ({ value: c, label: c }))} onChange={(c) => editable && onChange({ ...def, curve: c })} testID="curve" />
+      <Choice
+        label="Curve"
+        value={def.curve}
+        options={RELAY_CURVES.map((c) => ({ value: c, label: c }))}
+        onChange={(c) => editable && onChange({ ...def, curve: c })}
+        testID="curve"
+      />
       <View style={row}>
-        <NumberInput label="Pickup (primary)" unit="A" value={def.pickupA} onChange={(v) => onChange({ ...def, pickupA: v })} error={errors.pickupA} editable={editable} testID="pickupA" />
-        <NumberInput label="Time dial / multiplier" value={def.timeDial} onChange={(v) => onChange({ ...def, timeDial: v as number })} error={errors.timeDial} editable={editable} testID="timeDial" />
-        <NumberInput label="Instantaneous (primary)" unit="A" value={def.instantaneousA} onChange={(v) => onChange({ ...def, instantaneousA: v })} error={errors.instantaneousA} editable={editable} hint="Leave empty for none" />
+        <NumberInput
+          label="Pickup (primary)"
+          unit="A"
+          value={def.pickupA}
+          onChange={(v) => onChange({ ...def, pickupA: v })}
+          error={errors.pickupA}
+          editable={editable}
+          testID="pickupA"
+        />
+        <NumberInput
+          label="Time dial / multiplier"
+          value={def.timeDial}
+          onChange={(v) => onChange({ ...def, timeDial: v as number })}
+          error={errors.timeDial}
+          editable={editable}
+          testID="timeDial"
+        />
+        <NumberInput
+          label="Instantaneous (primary)"
+          unit="A"
+          value={def.instantaneousA}
+          onChange={(v) => onChange({ ...def, instantaneousA: v })}
+          error={errors.instantaneousA}
+          editable={editable}
+          hint="Leave empty for none"
+        />
       </View>
       <View style={row}>
-        <NumberInput label="CT ratio" value={def.ctRatio} onChange={(v) => onChange({ ...def, ctRatio: v })} error={errors.ctRatio} editable={editable} hint="Primary / secondary, e.g. 600/5 = 120" />
-        <NumberInput label="Breaker interrupting time" unit="cycles" value={def.breakerCycles} onChange={(v) => onChange({ ...def, breakerCycles: v as number })} error={errors.breakerCycles} editable={editable} testID="breakerCycles" />
-        <NumberInput label="System frequency" unit="Hz" value={def.frequencyHz} onChange={(v) => onChange({ ...def, frequencyHz: v })} error={errors.frequencyHz} editable={editable} />
+        <NumberInput
+          label="CT ratio"
+          value={def.ctRatio}
+          onChange={(v) => onChange({ ...def, ctRatio: v })}
+          error={errors.ctRatio}
+          editable={editable}
+          hint="Primary / secondary, e.g. 600/5 = 120"
+        />
+        <NumberInput
+          label="Breaker interrupting time"
+          unit="cycles"
+          value={def.breakerCycles}
+          onChange={(v) => onChange({ ...def, breakerCycles: v as number })}
+          error={errors.breakerCycles}
+          editable={editable}
+          testID="breakerCycles"
+        />
+        <NumberInput
+          label="System frequency"
+          unit="Hz"
+          value={def.frequencyHz}
+          onChange={(v) => onChange({ ...def, frequencyHz: v })}
+          error={errors.frequencyHz}
+          editable={editable}
+        />
       </View>
       <T variant="label">DEFINITE-TIME ELEMENT (OPTIONAL)</T>
       <View style={row}>
-        <NumberInput label="Pickup" unit="A" value={def.definiteTime?.pickupA} onChange={(v) => onChange({ ...def, definiteTime: v === undefined && def.definiteTime?.delayS === undefined ? undefined : { delayS: def.definiteTime?.delayS ?? 0, pickupA: v } })} error={errors['definiteTime.pickupA']} editable={editable} />
-        <NumberInput label="Delay" unit="s" value={def.definiteTime?.delayS} onChange={(v) => onChange({ ...def, definiteTime: v === undefined && def.definiteTime?.pickupA === undefined ? undefined : { pickupA: def.definiteTime?.pickupA, delayS: v ?? 0 } })} error={errors['definiteTime.delayS']} editable={editable} />
+        <NumberInput
+          label="Pickup"
+          unit="A"
+          value={def.definiteTime?.pickupA}
+          onChange={(v) =>
+            onChange({
+              ...def,
+              definiteTime:
+                v === undefined && def.definiteTime?.delayS === undefined
+                  ? undefined
+                  : { delayS: def.definiteTime?.delayS ?? 0, pickupA: v },
+            })
+          }
+          error={errors['definiteTime.pickupA']}
+          editable={editable}
+        />
+        <NumberInput
+          label="Delay"
+          unit="s"
+          value={def.definiteTime?.delayS}
+          onChange={(v) =>
+            onChange({
+              ...def,
+              definiteTime:
+                v === undefined && def.definiteTime?.pickupA === undefined
+                  ? undefined
+                  : { pickupA: def.definiteTime?.pickupA, delayS: v ?? 0 },
+            })
+          }
+          error={errors['definiteTime.delayS']}
+          editable={editable}
+        />
       </View>
     </View>
   );
@@ -95,7 +239,15 @@ function Band({ def, onChange, errors, editable }: Props<'band'>) {
   return (
     <View style={{ gap: space.md }}>
       <View style={row}>
-        <NumberInput label="Rating" unit="A" value={def.ratingA} onChange={(v) => onChange({ ...def, ratingA: v as number })} error={errors.ratingA} editable={editable} testID="ratingA" />
+        <NumberInput
+          label="Rating"
+          unit="A"
+          value={def.ratingA}
+          onChange={(v) => onChange({ ...def, ratingA: v as number })}
+          error={errors.ratingA}
+          editable={editable}
+          testID="ratingA"
+        />
       </View>
       <Choice
         label="Current in the point lists"
@@ -107,8 +259,22 @@ function Band({ def, onChange, errors, editable }: Props<'band'>) {
         onChange={(u) => editable && onChange({ ...def, currentUnit: u })}
       />
       <View style={row}>
-        <PointsInput label="Minimum curve" value={def.min} onChange={(p) => onChange({ ...def, min: p ?? [] })} error={errors.min} editable={editable} testID="band-min" />
-        <PointsInput label="Maximum curve" value={def.max} onChange={(p) => onChange({ ...def, max: p ?? [] })} error={errors.max} editable={editable} testID="band-max" />
+        <PointsInput
+          label="Minimum curve"
+          value={def.min}
+          onChange={(p) => onChange({ ...def, min: p ?? [] })}
+          error={errors.min}
+          editable={editable}
+          testID="band-min"
+        />
+        <PointsInput
+          label="Maximum curve"
+          value={def.max}
+          onChange={(p) => onChange({ ...def, max: p ?? [] })}
+          error={errors.max}
+          editable={editable}
+          testID="band-max"
+        />
       </View>
     </View>
   );
@@ -123,7 +289,10 @@ function positionsToText(positions: Record<string, number>): string {
 
 function textToPositions(text: string): Record<string, number> | null {
   const out: Record<string, number> = {};
-  for (const part of text.split(',').map((p) => p.trim()).filter(Boolean)) {
+  for (const part of text
+    .split(',')
+    .map((p) => p.trim())
+    .filter(Boolean)) {
     const [name, value] = part.includes('=') ? part.split('=').map((s) => s.trim()) : [part, part];
     const v = Number(value);
     if (!name || !Number.isFinite(v) || v < 0) return null;
@@ -155,11 +324,24 @@ function SwitchRow({
   const [text, setText] = useState(positionsToText(positions));
   const [bad, setBad] = useState(false);
   return (
-    <View style={{ gap: space.xs, paddingVertical: space.sm, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }} testID={`switch-${name}`}>
-      <Choice label={SWITCH_LABELS[name]} value={chosen ?? ''} options={Object.entries(positions)
+    <View
+      style={{ gap: space.xs, paddingVertical: space.sm, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
+      testID={`switch-${name}`}
+    >
+      <Choice
+        label={SWITCH_LABELS[name]}
+        value={chosen ?? ''}
+        options={Object.entries(positions)
           .sort((a, b) => a[1] - b[1])
-          .map(([p]) => ({ value: p, label: p }))} onChange={(p) => editable && onChoose(p)} testID={`pos-${name}`} />
-      {error ? <T variant="small" style={{ color: colors.danger }}>{error}</T> : null}
+          .map(([p]) => ({ value: p, label: p }))}
+        onChange={(p) => editable && onChoose(p)}
+        testID={`pos-${name}`}
+      />
+      {error ? (
+        <T variant="small" style={{ color: colors.danger }}>
+          {error}
+        </T>
+      ) : null}
       {editable ? (
         <Field
           label="Positions (name or name=value, comma-separated; OFF=0)"
@@ -191,10 +373,40 @@ function Electronic({ def, onChange, errors, editable }: Props<'electronic'>) {
   return (
     <View style={{ gap: space.md }}>
       <View style={row}>
-        <NumberInput label="Sensor" unit="A" value={t.sensorA} onChange={(v) => setTrip({ sensorA: v as number })} error={errors['tripType.sensorA']} editable={editable} testID="sensorA" />
-        <NumberInput label="Pickup tolerance" unit="± %" value={t.pickupTolerancePct} onChange={(v) => setTrip({ pickupTolerancePct: v as number })} error={errors['tripType.pickupTolerancePct']} editable={editable} />
-        <NumberInput label="Breaker clearing" unit="s" value={t.clearingS} onChange={(v) => setTrip({ clearingS: v as number })} error={errors['tripType.clearingS']} editable={editable} hint="Instantaneous region" />
-        <NumberInput label="Long-time delay stated at" unit="× Ir" value={t.longTimeDelayMultiple} onChange={(v) => setTrip({ longTimeDelayMultiple: v })} editable={editable} hint="Default 6" />
+        <NumberInput
+          label="Sensor"
+          unit="A"
+          value={t.sensorA}
+          onChange={(v) => setTrip({ sensorA: v as number })}
+          error={errors['tripType.sensorA']}
+          editable={editable}
+          testID="sensorA"
+        />
+        <NumberInput
+          label="Pickup tolerance"
+          unit="± %"
+          value={t.pickupTolerancePct}
+          onChange={(v) => setTrip({ pickupTolerancePct: v as number })}
+          error={errors['tripType.pickupTolerancePct']}
+          editable={editable}
+        />
+        <NumberInput
+          label="Breaker clearing"
+          unit="s"
+          value={t.clearingS}
+          onChange={(v) => setTrip({ clearingS: v as number })}
+          error={errors['tripType.clearingS']}
+          editable={editable}
+          hint="Instantaneous region"
+        />
+        <NumberInput
+          label="Long-time delay stated at"
+          unit="× Ir"
+          value={t.longTimeDelayMultiple}
+          onChange={(v) => setTrip({ longTimeDelayMultiple: v })}
+          editable={editable}
+          hint="Default 6"
+        />
       </View>
       <T variant="label">SWITCHES: CHOOSE EACH POSITION AS SET ON THE UNIT</T>
       {present.map((name) => (
@@ -207,13 +419,21 @@ function Electronic({ def, onChange, errors, editable }: Props<'electronic'>) {
           error={errors[`positions.${name}`]}
           onChoose={(p) => onChange({ ...def, positions: { ...def.positions, [name]: p } })}
           onPositions={(p) => setTrip({ settings: { ...t.settings, [name]: { positions: p } } })}
-          onRemove={name === 'longTimePickup' || name === 'longTimeDelay' ? undefined : () => {
-            const nextSettings = { ...t.settings } as Record<string, unknown>;
-            delete nextSettings[name];
-            const nextPositions = { ...def.positions };
-            delete nextPositions[name];
-            onChange({ ...def, tripType: { ...t, settings: nextSettings as typeof t.settings }, positions: nextPositions });
-          }}
+          onRemove={
+            name === 'longTimePickup' || name === 'longTimeDelay'
+              ? undefined
+              : () => {
+                  const nextSettings = { ...t.settings } as Record<string, unknown>;
+                  delete nextSettings[name];
+                  const nextPositions = { ...def.positions };
+                  delete nextPositions[name];
+                  onChange({
+                    ...def,
+                    tripType: { ...t, settings: nextSettings as typeof t.settings },
+                    positions: nextPositions,
+                  });
+                }
+          }
         />
       ))}
       {editable && absent.length ? (
@@ -229,7 +449,17 @@ function Electronic({ def, onChange, errors, editable }: Props<'electronic'>) {
 }
 
 /** The settings form of one device type, by kind. */
-export function DefinitionEditor({ def, onChange, errors, editable }: { def: DeviceDefinition; onChange: (d: DeviceDefinition) => void; errors: Errors; editable: boolean }) {
+export function DefinitionEditor({
+  def,
+  onChange,
+  errors,
+  editable,
+}: {
+  def: DeviceDefinition;
+  onChange: (d: DeviceDefinition) => void;
+  errors: Errors;
+  editable: boolean;
+}) {
   switch (def.kind) {
     case 'thermal-magnetic':
       return <ThermalMagnetic def={def} onChange={onChange} errors={errors} editable={editable} />;

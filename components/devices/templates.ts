@@ -9,8 +9,18 @@ export function newDefinition(kind: DeviceKind): DeviceDefinition {
         kind,
         ratingA: 100,
         thermal: {
-          min: [[1.35, 600], [2, 60], [5, 8], [10, 2]],
-          max: [[1.35, 3600], [2, 360], [5, 40], [10, 8]],
+          min: [
+            [1.35, 600],
+            [2, 60],
+            [5, 8],
+            [10, 2],
+          ],
+          max: [
+            [1.35, 3600],
+            [2, 360],
+            [5, 40],
+            [10, 8],
+          ],
         },
         instantaneous: { pickupMultiple: 10, tolerancePct: 20 },
         instantaneousClearingCycles: 1.5,
@@ -46,12 +56,44 @@ export function newDefinition(kind: DeviceKind): DeviceDefinition {
       return {
         kind,
         ratingA: 200,
-        totalClearing: [[400, 300], [800, 20], [2000, 0.5], [4000, 0.02]],
-        minimumMelt: [[350, 300], [700, 15], [1800, 0.3], [3500, 0.012]],
+        totalClearing: [
+          [400, 300],
+          [800, 20],
+          [2000, 0.5],
+          [4000, 0.02],
+        ],
+        minimumMelt: [
+          [350, 300],
+          [700, 15],
+          [1800, 0.3],
+          [3500, 0.012],
+        ],
       };
     case 'relay':
-      return { kind, curve: 'IEEE-VI', pickupA: 400, timeDial: 2, instantaneousA: 6000, breakerCycles: 5, frequencyHz: 60 };
+      return {
+        kind,
+        curve: 'IEEE-VI',
+        pickupA: 400,
+        timeDial: 2,
+        instantaneousA: 6000,
+        breakerCycles: 5,
+        frequencyHz: 60,
+      };
     case 'band':
-      return { kind, ratingA: 100, currentUnit: 'multiple', min: [[1.5, 500], [5, 10], [10, 1]], max: [[1.5, 2000], [5, 40], [10, 4]] };
+      return {
+        kind,
+        ratingA: 100,
+        currentUnit: 'multiple',
+        min: [
+          [1.5, 500],
+          [5, 10],
+          [10, 1],
+        ],
+        max: [
+          [1.5, 2000],
+          [5, 40],
+          [10, 4],
+        ],
+      };
   }
 }

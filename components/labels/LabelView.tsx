@@ -16,7 +16,9 @@ const group = (code: string) => code.replace(/(.{4})(?=.)/g, '$1 ');
 function Cell({ title, children, flex = 1 }: { title: string; children: React.ReactNode; flex?: number }) {
   return (
     <View style={{ flex, padding: 6, gap: 1 }}>
-      <T style={{ fontFamily: fonts.textBold, fontSize: 9, lineHeight: 12, color: INK, letterSpacing: 0.4 }}>{title.toUpperCase()}</T>
+      <T style={{ fontFamily: fonts.textBold, fontSize: 9, lineHeight: 12, color: INK, letterSpacing: 0.4 }}>
+        {title.toUpperCase()}
+      </T>
       {children}
     </View>
   );
@@ -25,8 +27,12 @@ function Cell({ title, children, flex = 1 }: { title: string; children: React.Re
 const Big = ({ children, size = 16 }: { children: React.ReactNode; size?: number }) => (
   <T style={{ fontFamily: fonts.numbersBold, fontSize: size, color: INK }}>{children}</T>
 );
-const Small = ({ children }: { children: React.ReactNode }) => <T style={{ fontFamily: fonts.numbers, fontSize: 11, lineHeight: 14, color: INK }}>{children}</T>;
-const Row = ({ children }: { children: React.ReactNode }) => <View style={{ flexDirection: 'row', borderTopWidth: 1, borderColor: INK }}>{children}</View>;
+const Small = ({ children }: { children: React.ReactNode }) => (
+  <T style={{ fontFamily: fonts.numbers, fontSize: 11, lineHeight: 14, color: INK }}>{children}</T>
+);
+const Row = ({ children }: { children: React.ReactNode }) => (
+  <View style={{ flexDirection: 'row', borderTopWidth: 1, borderColor: INK }}>{children}</View>
+);
 
 /**
  * What a printed label says, drawn on screen in the layout of the PDF label (server/pdf/labels.ts): the signal-word
@@ -36,22 +42,44 @@ const Row = ({ children }: { children: React.ReactNode }) => <View style={{ flex
 export function LabelView({ content, code, width = 380 }: { content: LabelContent; code?: string; width?: number }) {
   const panel = signalPanelColors(content.signalWord);
   return (
-    <View testID="label-view" style={{ width: '100%', maxWidth: width, alignSelf: 'center', backgroundColor: '#fff', ...RULE, borderWidth: 2 }}>
-      <View style={{ backgroundColor: panel.background, flexDirection: 'row', alignItems: 'center', justifyContent: 'center', gap: 10, paddingVertical: 8 }}>
+    <View
+      testID="label-view"
+      style={{ width: '100%', maxWidth: width, alignSelf: 'center', backgroundColor: '#fff', ...RULE, borderWidth: 2 }}
+    >
+      <View
+        style={{
+          backgroundColor: panel.background,
+          flexDirection: 'row',
+          alignItems: 'center',
+          justifyContent: 'center',
+          gap: 10,
+          paddingVertical: 8,
+        }}
+      >
         <HazardMark size={34} />
-        <T style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 36, lineHeight: 47, letterSpacing: 1 }} testID="label-signal-word">
+        <T
+          style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 36, lineHeight: 47, letterSpacing: 1 }}
+          testID="label-signal-word"
+        >
           {content.signalWord}
         </T>
       </View>
       <View style={{ alignItems: 'center', paddingVertical: 4, paddingHorizontal: 6 }}>
-        <T style={{ fontFamily: fonts.textBold, fontSize: 19, lineHeight: 25, color: INK }}>ARC FLASH AND SHOCK HAZARD</T>
-        <T style={{ fontSize: 10, lineHeight: 13, color: INK, textAlign: 'center' }}>Qualified persons only. Do not work on this equipment while it is energized.</T>
+        <T style={{ fontFamily: fonts.textBold, fontSize: 19, lineHeight: 25, color: INK }}>
+          ARC FLASH AND SHOCK HAZARD
+        </T>
+        <T style={{ fontSize: 10, lineHeight: 13, color: INK, textAlign: 'center' }}>
+          Qualified persons only. Do not work on this equipment while it is energized.
+        </T>
       </View>
       <Row>
         <Cell title="Incident energy" flex={1.2}>
           <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: 4 }}>
             <Big size={36}>
-              <T testID="label-energy" style={{ fontFamily: fonts.numbersBold, fontSize: 36, lineHeight: 47, color: INK }}>
+              <T
+                testID="label-energy"
+                style={{ fontFamily: fonts.numbersBold, fontSize: 36, lineHeight: 47, color: INK }}
+              >
                 {fmt(content.incidentEnergyCalPerCm2)}
               </T>
             </Big>
@@ -59,7 +87,8 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
           </View>
           <Small>{fmt(content.incidentEnergyJPerCm2)} J/cm²</Small>
           <T style={{ fontSize: 10, lineHeight: 13, color: INK }}>
-            at a working distance of {Math.round(content.workingDistanceMm)} mm ({fmtLength(content.workingDistanceMm, 'in')})
+            at a working distance of {Math.round(content.workingDistanceMm)} mm (
+            {fmtLength(content.workingDistanceMm, 'in')})
           </T>
         </Cell>
         <View style={{ width: 1, backgroundColor: INK }} />
@@ -75,11 +104,15 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
         <View style={{ flex: 1.2, padding: 6, justifyContent: 'center' }}>
           <View style={{ ...RULE, borderWidth: 2, padding: 4, alignItems: 'center' }}>
             {content.noAdequatePpe ? (
-              <T style={{ fontFamily: fonts.textBold, fontSize: 12, lineHeight: 16, color: INK, textAlign: 'center' }}>NO ARC-RATED PPE IS ADEQUATE — DE-ENERGIZE</T>
+              <T style={{ fontFamily: fonts.textBold, fontSize: 12, lineHeight: 16, color: INK, textAlign: 'center' }}>
+                NO ARC-RATED PPE IS ADEQUATE — DE-ENERGIZE
+              </T>
             ) : (
               <>
                 <T style={{ fontFamily: fonts.textBold, fontSize: 9, lineHeight: 12, color: INK }}>PPE LEVEL</T>
-                <T style={{ fontFamily: fonts.textBold, fontSize: 15, lineHeight: 20, color: INK }}>{content.ppeLevel}</T>
+                <T style={{ fontFamily: fonts.textBold, fontSize: 15, lineHeight: 20, color: INK }}>
+                  {content.ppeLevel}
+                </T>
               </>
             )}
           </View>
@@ -107,8 +140,12 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
       <Row>
         <View style={{ flex: 1 }}>
           <Cell title="Equipment">
-            <T style={{ fontFamily: fonts.numbersBold, fontSize: 16, lineHeight: 21, color: INK }}>{content.equipmentTag}</T>
-            <T style={{ fontFamily: fonts.textBold, fontSize: 13, lineHeight: 17, color: INK }}>{content.equipmentName}</T>
+            <T style={{ fontFamily: fonts.numbersBold, fontSize: 16, lineHeight: 21, color: INK }}>
+              {content.equipmentTag}
+            </T>
+            <T style={{ fontFamily: fonts.textBold, fontSize: 13, lineHeight: 17, color: INK }}>
+              {content.equipmentName}
+            </T>
             <T style={{ fontSize: 11, lineHeight: 14, color: INK }}>{content.siteName}</T>
           </Cell>
           <Cell title="Cleared by">
@@ -119,7 +156,11 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
         </View>
         {code ? (
           <View style={{ width: 112, padding: 6, alignItems: 'center', gap: 2 }}>
-            <Image source={{ uri: `/api/labels/${code}/qr.png` }} style={{ width: 96, height: 96 }} accessibilityLabel="QR code of the label check address" />
+            <Image
+              source={{ uri: `/api/labels/${code}/qr.png` }}
+              style={{ width: 96, height: 96 }}
+              accessibilityLabel="QR code of the label check address"
+            />
             <T style={{ fontFamily: fonts.numbersBold, fontSize: 10, lineHeight: 13, color: INK }}>{group(code)}</T>
           </View>
         ) : null}

@@ -68,12 +68,14 @@ const SECTION_NOTES: Record<Section, string> = {
   general: 'The study as a whole.',
   buses:
     'Each bus with equipment gets a label. The equipment class gives the typical electrode configuration, gap, enclosure and working distance (IEEE 1584-2018); fill a field only to override it.',
-  sources: 'Utility services (available short circuit and X/R at the bus) and generators (rating and subtransient reactance).',
+  sources:
+    'Utility services (available short circuit and X/R at the bus) and generators (rating and subtransient reactance).',
   transformers: 'From the primary bus to the secondary bus; %Z on the transformer rating.',
   cables: 'Conductor size, material and conduit (NEC Chapter 9 Table 9), or R and X per km of one conductor.',
   motors: 'Induction motors that feed the fault: rating in hp or kVA.',
   ties: 'Bus ties and switches of negligible impedance; a closed tie joins two buses into one node.',
-  devices: 'Each protective device sits at one end of a transformer, cable or tie, or on a source or motor. Its settings come from the device library.',
+  devices:
+    'Each protective device sits at one end of a transformer, cable or tie, or on a source or motor. Its settings come from the device library.',
 };
 
 interface Focus {
@@ -185,7 +187,16 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
   return (
     <View style={{ gap: space.lg }} testID="model-editor">
       <IssueSummary grouped={grouped} model={model} onJump={jump} />
-      <SectionTabs section={section} onChange={(s) => { setSection(s); setFilter(''); }} model={model} grouped={grouped} wide={wide} />
+      <SectionTabs
+        section={section}
+        onChange={(s) => {
+          setSection(s);
+          setFilter('');
+        }}
+        model={model}
+        grouped={grouped}
+        wide={wide}
+      />
       {section === 'general' ? (
         <GeneralSection model={model} commit={commit} editable={editable} grouped={grouped} />
       ) : (
@@ -226,7 +237,11 @@ function useSectionContext(model: ModelInput, section: Section, deviceTypes: Dev
   const buses = model.buses;
   const busSig = buses.map((b) => `${b.id}\u0001${b.name ?? ''}\u0001${b.nominalKv}`).join('\u0002');
   const bus = useMemo(() => {
-    const options: PickOption[] = buses.map((b) => ({ value: b.id, label: b.id, detail: [b.name, `${num(b.nominalKv)} kV`].filter(Boolean).join(' · ') }));
+    const options: PickOption[] = buses.map((b) => ({
+      value: b.id,
+      label: b.id,
+      detail: [b.name, `${num(b.nominalKv)} kV`].filter(Boolean).join(' · '),
+    }));
     const kv = new Map<string, number>();
     for (const b of buses) if (!kv.has(b.id) && Number.isFinite(b.nominalKv)) kv.set(b.id, b.nominalKv);
     return { options, kv };
@@ -236,11 +251,15 @@ function useSectionContext(model: ModelInput, section: Section, deviceTypes: Dev
   const branches = [
     ...(model.transformers ?? []).map((t) => ['transformers', t.id, t.fromBus, t.toBus, `${num(t.kva)} kVA`] as const),
     ...(model.cables ?? []).map((c) => ['cables', c.id, c.fromBus, c.toBus, `${num(c.lengthM)} m`] as const),
-    ...(model.ties ?? []).map((t) => ['ties', t.id, t.fromBus, t.toBus, t.closed === false ? 'open' : 'closed'] as const),
+    ...(model.ties ?? []).map(
+      (t) => ['ties', t.id, t.fromBus, t.toBus, t.closed === false ? 'open' : 'closed'] as const,
+    ),
   ];
   const injections = [
     ...(model.sources ?? []).map((s) => ['Sources', s.id, `${s.kind} at ${s.bus}`] as const),
-    ...(model.motors ?? []).map((m) => ['Motors', m.id, `${m.hp !== undefined ? `${num(m.hp)} hp` : `${num(m.kva)} kVA`} at ${m.bus}`] as const),
+    ...(model.motors ?? []).map(
+      (m) => ['Motors', m.id, `${m.hp !== undefined ? `${num(m.hp)} hp` : `${num(m.kva)} kVA`} at ${m.bus}`] as const,
+    ),
   ];
   const locSig = section === 'devices' ? JSON.stringify([branches, injections]) : '';
   const location = useMemo(() => {
@@ -258,7 +277,12 @@ function useSectionContext(model: ModelInput, section: Section, deviceTypes: Dev
 
   const types = useMemo(() => {
     const byKind = [...deviceTypes].sort((a, b) => a.kind.localeCompare(b.kind) || a.name.localeCompare(b.name));
-    const options: PickOption[] = byKind.map((t) => ({ value: t.id, label: t.name, detail: deviceSettingsSummary(t.device), group: DEVICE_KIND_LABELS[t.kind] }));
+    const options: PickOption[] = byKind.map((t) => ({
+      value: t.id,
+      label: t.name,
+      detail: deviceSettingsSummary(t.device),
+      group: DEVICE_KIND_LABELS[t.kind],
+    }));
     return { options, byId: new Map(deviceTypes.map((t) => [t.id, t])) };
   }, [deviceTypes]);
 
@@ -268,7 +292,14 @@ function useSectionContext(model: ModelInput, section: Section, deviceTypes: Dev
     () => ({
       ...EMPTY_CONTEXT,
       ...(usesBuses ? { busOptions: bus.options, busKv: bus.kv } : {}),
-      ...(isDevices ? { locationOptions: location.options, branchBuses: location.ends, typeOptions: types.options, typesById: types.byId } : {}),
+      ...(isDevices
+        ? {
+            locationOptions: location.options,
+            branchBuses: location.ends,
+            typeOptions: types.options,
+            typesById: types.byId,
+          }
+        : {}),
     }),
     [usesBuses ? bus : null, isDevices ? location : null, isDevices ? types : null, usesBuses, isDevices], // eslint-disable-line react-hooks/exhaustive-deps
   );
@@ -279,12 +310,31 @@ function useSectionContext(model: ModelInput, section: Section, deviceTypes: Dev
 
 const SUMMARY_SHOWN = 5;
 
-const IssueSummary = memo(function IssueSummary({ grouped, model, onJump }: { grouped: ReturnType<typeof groupIssues>; model: ModelInput; onJump: (li: LocatedIssue) => void }) {
+const IssueSummary = memo(function IssueSummary({
+  grouped,
+  model,
+  onJump,
+}: {
+  grouped: ReturnType<typeof groupIssues>;
+  model: ModelInput;
+  onJump: (li: LocatedIssue) => void;
+}) {
   const [all, setAll] = useState(false);
   const n = grouped.all.length;
   if (n === 0) {
     return (
-      <View testID="model-issues-none" style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm, paddingHorizontal: space.md, paddingVertical: space.sm, backgroundColor: colors.okSoft, borderRadius: radius.sm }}>
+      <View
+        testID="model-issues-none"
+        style={{
+          flexDirection: 'row',
+          alignItems: 'center',
+          gap: space.sm,
+          paddingHorizontal: space.md,
+          paddingVertical: space.sm,
+          backgroundColor: colors.okSoft,
+          borderRadius: radius.sm,
+        }}
+      >
         <Icon name="check" size={18} color={colors.ok} />
         <T style={{ color: colors.ok, fontSize: 15 }}>No problems found in the model.</T>
       </View>
@@ -295,7 +345,15 @@ const IssueSummary = memo(function IssueSummary({ grouped, model, onJump }: { gr
     <View
       testID="model-issues"
       accessibilityRole="alert"
-      style={{ backgroundColor: colors.dangerSoft, borderLeftWidth: 4, borderLeftColor: colors.danger, borderRadius: radius.sm, paddingVertical: space.sm, paddingHorizontal: space.md, gap: 2 }}
+      style={{
+        backgroundColor: colors.dangerSoft,
+        borderLeftWidth: 4,
+        borderLeftColor: colors.danger,
+        borderRadius: radius.sm,
+        paddingVertical: space.sm,
+        paddingHorizontal: space.md,
+        gap: 2,
+      }}
     >
       <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm, paddingVertical: space.xs }}>
         <Icon name="alert" size={20} color={colors.danger} />
@@ -329,8 +387,20 @@ const IssueSummary = memo(function IssueSummary({ grouped, model, onJump }: { gr
         </Pressable>
       ))}
       {n > SUMMARY_SHOWN ? (
-        <Pressable accessibilityRole="button" onPress={() => setAll((v) => !v)} style={{ minHeight: 40, justifyContent: 'center' }} testID="model-issues-more">
-          <T style={{ color: colors.danger, fontFamily: fonts.textMedium, textDecorationLine: 'underline', fontSize: 15 }}>
+        <Pressable
+          accessibilityRole="button"
+          onPress={() => setAll((v) => !v)}
+          style={{ minHeight: 40, justifyContent: 'center' }}
+          testID="model-issues-more"
+        >
+          <T
+            style={{
+              color: colors.danger,
+              fontFamily: fonts.textMedium,
+              textDecorationLine: 'underline',
+              fontSize: 15,
+            }}
+          >
             {all ? 'Show fewer' : `Show all ${n}`}
           </T>
         </Pressable>
@@ -344,7 +414,19 @@ const IssueSummary = memo(function IssueSummary({ grouped, model, onJump }: { gr
 
 const SECTIONS: Section[] = [...COLLECTIONS, 'general'];
 
-function SectionTabs({ section, onChange, model, grouped, wide }: { section: Section; onChange: (s: Section) => void; model: ModelInput; grouped: ReturnType<typeof groupIssues>; wide: boolean }) {
+function SectionTabs({
+  section,
+  onChange,
+  model,
+  grouped,
+  wide,
+}: {
+  section: Section;
+  onChange: (s: Section) => void;
+  model: ModelInput;
+  grouped: ReturnType<typeof groupIssues>;
+  wide: boolean;
+}) {
   // On a phone the tabs scroll sideways: keep the open one in view (e.g. after a jump to a problem).
   const refs = useRef(new Map<Section, View | null>());
   useEffect(() => {
@@ -378,10 +460,25 @@ function SectionTabs({ section, onChange, model, grouped, wide }: { section: Sec
           backgroundColor: on ? colors.accentSoft : hovered ? colors.canvas : colors.surface,
         })}
       >
-        <T style={{ fontFamily: on ? fonts.textBold : fonts.textMedium, fontSize: 15, color: colors.ink }}>{s === 'general' ? 'General' : COLLECTION_LABELS[s].plural}</T>
-        {count !== undefined ? <T style={{ fontFamily: fonts.numbers, fontSize: 14, color: on ? colors.accent : colors.muted }}>{count}</T> : null}
+        <T style={{ fontFamily: on ? fonts.textBold : fonts.textMedium, fontSize: 15, color: colors.ink }}>
+          {s === 'general' ? 'General' : COLLECTION_LABELS[s].plural}
+        </T>
+        {count !== undefined ? (
+          <T style={{ fontFamily: fonts.numbers, fontSize: 14, color: on ? colors.accent : colors.muted }}>{count}</T>
+        ) : null}
         {problems ? (
-          <View accessibilityLabel={problemCount(problems)} style={{ minWidth: 20, height: 20, borderRadius: 10, paddingHorizontal: 5, backgroundColor: colors.danger, alignItems: 'center', justifyContent: 'center' }}>
+          <View
+            accessibilityLabel={problemCount(problems)}
+            style={{
+              minWidth: 20,
+              height: 20,
+              borderRadius: 10,
+              paddingHorizontal: 5,
+              backgroundColor: colors.danger,
+              alignItems: 'center',
+              justifyContent: 'center',
+            }}
+          >
             <T style={{ color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 }}>{problems}</T>
           </View>
         ) : null}
@@ -396,7 +493,13 @@ function SectionTabs({ section, onChange, model, grouped, wide }: { section: Sec
     );
   }
   return (
-    <ScrollView horizontal showsHorizontalScrollIndicator={false} accessibilityRole="tablist" contentContainerStyle={{ gap: space.sm, paddingRight: space.lg }} style={{ marginRight: -space.lg }}>
+    <ScrollView
+      horizontal
+      showsHorizontalScrollIndicator={false}
+      accessibilityRole="tablist"
+      contentContainerStyle={{ gap: space.sm, paddingRight: space.lg }}
+      style={{ marginRight: -space.lg }}
+    >
       {tabs}
     </ScrollView>
   );
@@ -405,12 +508,24 @@ function SectionTabs({ section, onChange, model, grouped, wide }: { section: Sec
 // ---------------------------------------------------------------------------------------------
 // General (the study as a whole)
 
-function GeneralSection({ model, commit, editable, grouped }: { model: ModelInput; commit: (m: ModelInput) => void; editable: boolean; grouped: ReturnType<typeof groupIssues> }) {
+function GeneralSection({
+  model,
+  commit,
+  editable,
+  grouped,
+}: {
+  model: ModelInput;
+  commit: (m: ModelInput) => void;
+  editable: boolean;
+  grouped: ReturnType<typeof groupIssues>;
+}) {
   const errorOf = (field: string) => {
     const li = grouped.general.find((g) => !g.collection && g.field === field);
     return li ? issueMessage(li.issue) : undefined;
   };
-  const others = grouped.general.filter((g) => !g.collection && !['name', 'frequencyHz', 'prefaultPu'].includes(g.field ?? ''));
+  const others = grouped.general.filter(
+    (g) => !g.collection && !['name', 'frequencyHz', 'prefaultPu'].includes(g.field ?? ''),
+  );
   return (
     <Card testID="model-general">
       <T variant="small">{SECTION_NOTES.general}</T>
@@ -482,7 +597,20 @@ const ACTIONS_W = 86;
 const stickLeft = (Platform.OS === 'web' ? { position: 'sticky', left: 0, zIndex: 2 } : {}) as unknown as ViewStyle;
 const stickRight = (Platform.OS === 'web' ? { position: 'sticky', right: 0, zIndex: 2 } : {}) as unknown as ViewStyle;
 
-function CollectionSection({ collection, model, grouped, ctx, editable, wide, expanded, focus, actions, filter, setFilter, onAdd }: SectionProps) {
+function CollectionSection({
+  collection,
+  model,
+  grouped,
+  ctx,
+  editable,
+  wide,
+  expanded,
+  focus,
+  actions,
+  filter,
+  setFilter,
+  onAdd,
+}: SectionProps) {
   const items = itemsOf(model, collection) as readonly AnyElement[];
   const columns = COLUMNS[collection] as Column<AnyElement>[];
   const labels = COLLECTION_LABELS[collection];
@@ -500,7 +628,11 @@ function CollectionSection({ collection, model, grouped, ctx, editable, wide, ex
         <AddButton title="Add generator" onPress={() => onAdd('sources', 'generator')} testID="model-add-generator" />
       </View>
     ) : (
-      <AddButton title={`Add ${labels.singular}`} onPress={() => onAdd(collection)} testID={`model-add-${collection}`} />
+      <AddButton
+        title={`Add ${labels.singular}`}
+        onPress={() => onAdd(collection)}
+        testID={`model-add-${collection}`}
+      />
     )
   ) : null;
 
@@ -509,11 +641,14 @@ function CollectionSection({ collection, model, grouped, ctx, editable, wide, ex
       <View style={{ flexDirection: wide ? 'row' : 'column', alignItems: wide ? 'center' : 'stretch', gap: space.md }}>
         <View style={{ flex: wide ? 1 : undefined, gap: 2 }}>
           <T variant="heading">
-            {labels.plural} <T style={{ fontFamily: fonts.numbers, fontSize: 18, color: colors.muted }}>{items.length}</T>
+            {labels.plural}{' '}
+            <T style={{ fontFamily: fonts.numbers, fontSize: 18, color: colors.muted }}>{items.length}</T>
           </T>
           <T variant="small">{SECTION_NOTES[collection]}</T>
         </View>
-        {items.length > 6 ? <FilterBox value={filter} onChange={setFilter} wide={wide} label={`Find ${labels.plural.toLowerCase()}`} /> : null}
+        {items.length > 6 ? (
+          <FilterBox value={filter} onChange={setFilter} wide={wide} label={`Find ${labels.plural.toLowerCase()}`} />
+        ) : null}
         {addButtons}
       </View>
       {sectionIssues.map((li, i) => (
@@ -600,7 +735,17 @@ function AddButton({ title, onPress, testID }: { title: string; onPress: () => v
   );
 }
 
-function FilterBox({ value, onChange, wide, label }: { value: string; onChange: (s: string) => void; wide: boolean; label: string }) {
+function FilterBox({
+  value,
+  onChange,
+  wide,
+  label,
+}: {
+  value: string;
+  onChange: (s: string) => void;
+  wide: boolean;
+  label: string;
+}) {
   return (
     <View
       style={{
@@ -647,7 +792,15 @@ const TableHeader = memo(function TableHeader({ columns }: { columns: Column<Any
     </View>
   );
   return (
-    <View style={{ flexDirection: 'row', alignItems: 'flex-end', backgroundColor: colors.canvas, borderBottomWidth: 1, borderBottomColor: colors.line }}>
+    <View
+      style={{
+        flexDirection: 'row',
+        alignItems: 'flex-end',
+        backgroundColor: colors.canvas,
+        borderBottomWidth: 1,
+        borderBottomColor: colors.line,
+      }}
+    >
       <View style={[{ flexDirection: 'row', alignItems: 'flex-end', backgroundColor: colors.canvas }, stickLeft]}>
         <View style={{ width: STATUS_W }} />
         {cell(first)}
@@ -697,30 +850,44 @@ function useScrollIntoView(focused: number) {
   return ref;
 }
 
-const TableRow = memo(function TableRow({ collection, index, element, issues, ctx, editable, focused, actions }: RowProps) {
+const TableRow = memo(function TableRow({
+  collection,
+  index,
+  element,
+  issues,
+  ctx,
+  editable,
+  focused,
+  actions,
+}: RowProps) {
   const columns = COLUMNS[collection] as Column<AnyElement>[];
   const byColumn = useIssueColumns(issues, columns);
   const ref = useScrollIntoView(focused);
-  const patch = useCallback((u: (e: AnyElement) => AnyElement) => actions.patch(collection, index, u), [actions, collection, index]);
+  const patch = useCallback(
+    (u: (e: AnyElement) => AnyElement) => actions.patch(collection, index, u),
+    [actions, collection, index],
+  );
   const rename = useCallback((id: string) => actions.rename(collection, index, id), [actions, collection, index]);
   const bad = issues.length > 0;
   const base = `${collection}-${index}`;
   const rowBg = focused ? colors.accentSoft : bad ? '#FFF8F8' : colors.surface;
   const cell = (c: Column<AnyElement>, ci: number) => (
     <View key={c.key} style={{ width: c.width, paddingHorizontal: CELL_PAD }}>
-      {!c.applies || c.applies(element)
-        ? c.render({
-            e: element,
-            size: 'cell',
-            invalid: byColumn.has(ci),
-            editable,
-            patch,
-            rename,
-            ctx,
-            testID: `${base}-${c.key}`,
-            label: `${element.id || `${COLLECTION_LABELS[collection].singular} ${index + 1}`} ${c.label}`,
-          })
-        : <NotApplicable />}
+      {!c.applies || c.applies(element) ? (
+        c.render({
+          e: element,
+          size: 'cell',
+          invalid: byColumn.has(ci),
+          editable,
+          patch,
+          rename,
+          ctx,
+          testID: `${base}-${c.key}`,
+          label: `${element.id || `${COLLECTION_LABELS[collection].singular} ${index + 1}`} ${c.label}`,
+        })
+      ) : (
+        <NotApplicable />
+      )}
     </View>
   );
   return (
@@ -736,32 +903,91 @@ const TableRow = memo(function TableRow({ collection, index, element, issues, ct
       }}
     >
       <View style={{ flexDirection: 'row', alignItems: 'flex-start' }}>
-        <View style={[{ flexDirection: 'row', alignItems: 'flex-start', backgroundColor: rowBg, alignSelf: 'stretch', paddingVertical: 6 }, stickLeft]}>
+        <View
+          style={[
+            {
+              flexDirection: 'row',
+              alignItems: 'flex-start',
+              backgroundColor: rowBg,
+              alignSelf: 'stretch',
+              paddingVertical: 6,
+            },
+            stickLeft,
+          ]}
+        >
           <View style={{ width: STATUS_W - 3, height: 38, alignItems: 'center', justifyContent: 'center' }}>
-            <T style={{ fontFamily: fonts.numbers, fontSize: 13, color: bad ? colors.danger : colors.muted }}>{index + 1}</T>
+            <T style={{ fontFamily: fonts.numbers, fontSize: 13, color: bad ? colors.danger : colors.muted }}>
+              {index + 1}
+            </T>
           </View>
           {cell(columns[0], 0)}
         </View>
-        <View style={{ flexDirection: 'row', alignItems: 'flex-start', paddingVertical: 6 }}>{columns.slice(1).map((c, i) => cell(c, i + 1))}</View>
+        <View style={{ flexDirection: 'row', alignItems: 'flex-start', paddingVertical: 6 }}>
+          {columns.slice(1).map((c, i) => cell(c, i + 1))}
+        </View>
         <View style={{ flex: 1 }} />
-        <View style={[{ width: ACTIONS_W, alignSelf: 'stretch', flexDirection: 'row', justifyContent: 'flex-end', paddingTop: 6, paddingRight: 6, gap: 2, backgroundColor: rowBg }, stickRight]}>
+        <View
+          style={[
+            {
+              width: ACTIONS_W,
+              alignSelf: 'stretch',
+              flexDirection: 'row',
+              justifyContent: 'flex-end',
+              paddingTop: 6,
+              paddingRight: 6,
+              gap: 2,
+              backgroundColor: rowBg,
+            },
+            stickRight,
+          ]}
+        >
           {editable ? (
             <>
-              <IconButton icon="copy" label={`Duplicate ${element.id}`} onPress={() => actions.duplicate(collection, index)} testID={`${base}-duplicate`} size={38} />
-              <IconButton icon="trash" label={`Delete ${element.id}`} tone="danger" onPress={() => actions.remove(collection, index)} testID={`${base}-delete`} size={38} />
+              <IconButton
+                icon="copy"
+                label={`Duplicate ${element.id}`}
+                onPress={() => actions.duplicate(collection, index)}
+                testID={`${base}-duplicate`}
+                size={38}
+              />
+              <IconButton
+                icon="trash"
+                label={`Delete ${element.id}`}
+                tone="danger"
+                onPress={() => actions.remove(collection, index)}
+                testID={`${base}-delete`}
+                size={38}
+              />
             </>
           ) : null}
         </View>
       </View>
       {bad ? (
-        <View style={[{ paddingLeft: STATUS_W - 3 + CELL_PAD, paddingRight: space.md, paddingBottom: space.sm, gap: 2, alignSelf: 'flex-start', maxWidth: 900 }, stickLeft]} testID={`${base}-issues`}>
+        <View
+          style={[
+            {
+              paddingLeft: STATUS_W - 3 + CELL_PAD,
+              paddingRight: space.md,
+              paddingBottom: space.sm,
+              gap: 2,
+              alignSelf: 'flex-start',
+              maxWidth: 900,
+            },
+            stickLeft,
+          ]}
+          testID={`${base}-issues`}
+        >
           {issues.map((li, i) => (
             <View key={i} style={{ flexDirection: 'row', alignItems: 'flex-start', gap: 6 }}>
               <View style={{ marginTop: 2 }}>
                 <Icon name="alert" size={15} color={colors.danger} />
               </View>
               <T style={{ fontSize: 14, lineHeight: 19, color: colors.danger, flexShrink: 1 }}>
-                {li.field ? <T style={{ fontFamily: fonts.textBold, fontSize: 14, color: colors.danger }}>{`${fieldLabel(li.field)}: `}</T> : null}
+                {li.field ? (
+                  <T
+                    style={{ fontFamily: fonts.textBold, fontSize: 14, color: colors.danger }}
+                  >{`${fieldLabel(li.field)}: `}</T>
+                ) : null}
                 {issueMessage(li.issue)}
               </T>
             </View>
@@ -775,11 +1001,24 @@ const TableRow = memo(function TableRow({ collection, index, element, issues, ct
 // ---------------------------------------------------------------------------------------------
 // Cards (phone)
 
-const CardRow = memo(function CardRow({ collection, index, element, issues, ctx, editable, focused, expanded, actions }: RowProps & { expanded: boolean }) {
+const CardRow = memo(function CardRow({
+  collection,
+  index,
+  element,
+  issues,
+  ctx,
+  editable,
+  focused,
+  expanded,
+  actions,
+}: RowProps & { expanded: boolean }) {
   const columns = COLUMNS[collection] as Column<AnyElement>[];
   const byColumn = useIssueColumns(issues, columns);
   const ref = useScrollIntoView(focused);
-  const patch = useCallback((u: (e: AnyElement) => AnyElement) => actions.patch(collection, index, u), [actions, collection, index]);
+  const patch = useCallback(
+    (u: (e: AnyElement) => AnyElement) => actions.patch(collection, index, u),
+    [actions, collection, index],
+  );
   const rename = useCallback((id: string) => actions.rename(collection, index, id), [actions, collection, index]);
   const key = elementKey(collection, index);
   const base = `${collection}-${index}`;
@@ -802,7 +1041,16 @@ const CardRow = memo(function CardRow({ collection, index, element, issues, ctx,
         accessibilityLabel={`${element.id}, ${expanded ? 'collapse' : 'expand'}`}
         onPress={() => actions.toggle(key)}
         testID={`${base}-toggle`}
-        style={({ pressed }) => ({ minHeight: 56, paddingVertical: space.sm, paddingLeft: space.md, paddingRight: space.sm, flexDirection: 'row', alignItems: 'center', gap: space.sm, backgroundColor: pressed ? colors.canvas : 'transparent' })}
+        style={({ pressed }) => ({
+          minHeight: 56,
+          paddingVertical: space.sm,
+          paddingLeft: space.md,
+          paddingRight: space.sm,
+          flexDirection: 'row',
+          alignItems: 'center',
+          gap: space.sm,
+          backgroundColor: pressed ? colors.canvas : 'transparent',
+        })}
       >
         <View style={{ flex: 1, gap: 2, minWidth: 0 }}>
           <T numberOfLines={1} style={{ fontSize: 16 }}>
@@ -819,20 +1067,49 @@ const CardRow = memo(function CardRow({ collection, index, element, issues, ctx,
           ) : null}
         </View>
         {bad ? (
-          <View style={{ minWidth: 22, height: 22, borderRadius: 11, paddingHorizontal: 6, backgroundColor: colors.danger, alignItems: 'center', justifyContent: 'center' }}>
-            <T style={{ color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 }}>{issues.length}</T>
+          <View
+            style={{
+              minWidth: 22,
+              height: 22,
+              borderRadius: 11,
+              paddingHorizontal: 6,
+              backgroundColor: colors.danger,
+              alignItems: 'center',
+              justifyContent: 'center',
+            }}
+          >
+            <T style={{ color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 }}>
+              {issues.length}
+            </T>
           </View>
         ) : null}
         <Icon name={expanded ? 'chevron-down' : 'chevron-right'} size={20} color={colors.muted} />
       </Pressable>
       {expanded ? (
-        <View style={{ paddingHorizontal: space.md, paddingBottom: space.md, paddingTop: space.xs, gap: space.md, borderTopWidth: 1, borderTopColor: colors.lineSoft }}>
+        <View
+          style={{
+            paddingHorizontal: space.md,
+            paddingBottom: space.md,
+            paddingTop: space.xs,
+            gap: space.md,
+            borderTopWidth: 1,
+            borderTopColor: colors.lineSoft,
+          }}
+        >
           {general.map((li, i) => (
             <T key={i} style={{ color: colors.danger, fontSize: 15 }}>
               {`${li.field ? `${fieldLabel(li.field)}: ` : ''}${issueMessage(li.issue)}`}
             </T>
           ))}
-          <View style={{ flexDirection: 'row', flexWrap: 'wrap', columnGap: space.md, rowGap: space.md, paddingTop: space.sm }}>
+          <View
+            style={{
+              flexDirection: 'row',
+              flexWrap: 'wrap',
+              columnGap: space.md,
+              rowGap: space.md,
+              paddingTop: space.sm,
+            }}
+          >
             {columns.map((c, ci) => {
               if (c.applies && !c.applies(element)) return null;
               const problems = byColumn.get(ci);
@@ -845,19 +1122,44 @@ const CardRow = memo(function CardRow({ collection, index, element, issues, ctx,
                   error={problems ? problems.map((li) => issueMessage(li.issue)).join(' · ') : undefined}
                   hint={c.hint?.(element, ctx)}
                 >
-                  {c.render({ e: element, size: 'form', invalid: !!problems, editable, patch, rename, ctx, testID: `${base}-${c.key}`, label: `${element.id} ${c.label}` })}
+                  {c.render({
+                    e: element,
+                    size: 'form',
+                    invalid: !!problems,
+                    editable,
+                    patch,
+                    rename,
+                    ctx,
+                    testID: `${base}-${c.key}`,
+                    label: `${element.id} ${c.label}`,
+                  })}
                 </FormField>
               );
             })}
           </View>
           {editable ? (
             <View style={{ flexDirection: 'row', gap: space.sm, justifyContent: 'flex-end', flexWrap: 'wrap' }}>
-              <Button title="Duplicate" kind="secondary" onPress={() => actions.duplicate(collection, index)} testID={`${base}-duplicate`} />
+              <Button
+                title="Duplicate"
+                kind="secondary"
+                onPress={() => actions.duplicate(collection, index)}
+                testID={`${base}-duplicate`}
+              />
               <Pressable
                 accessibilityRole="button"
                 onPress={() => actions.remove(collection, index)}
                 testID={`${base}-delete`}
-                style={({ pressed }) => ({ minHeight: touch.min, paddingHorizontal: space.lg, borderRadius: radius.md, borderWidth: 1, borderColor: '#E7B4B4', backgroundColor: pressed ? colors.dangerSoft : colors.surface, flexDirection: 'row', alignItems: 'center', gap: space.sm })}
+                style={({ pressed }) => ({
+                  minHeight: touch.min,
+                  paddingHorizontal: space.lg,
+                  borderRadius: radius.md,
+                  borderWidth: 1,
+                  borderColor: '#E7B4B4',
+                  backgroundColor: pressed ? colors.dangerSoft : colors.surface,
+                  flexDirection: 'row',
+                  alignItems: 'center',
+                  gap: space.sm,
+                })}
               >
                 <Icon name="trash" size={18} color={colors.danger} />
                 <T style={{ color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 }}>Delete</T>
@@ -876,7 +1178,9 @@ const CardRow = memo(function CardRow({ collection, index, element, issues, ctx,
 function UndoToast({ text, onUndo, onDismiss }: { text: string; onUndo: () => void; onDismiss: () => void }) {
   const { wide } = useLayout();
   // Sticky to the bottom of the view while the editor is on screen (web); inline after the section elsewhere.
-  const stick = (Platform.OS === 'web' ? { position: 'sticky', bottom: wide ? space.xl : space.md, zIndex: 5 } : {}) as unknown as ViewStyle;
+  const stick = (Platform.OS === 'web'
+    ? { position: 'sticky', bottom: wide ? space.xl : space.md, zIndex: 5 }
+    : {}) as unknown as ViewStyle;
   return (
     <View
       accessibilityRole="alert"
@@ -902,7 +1206,18 @@ function UndoToast({ text, onUndo, onDismiss }: { text: string; onUndo: () => vo
       ]}
     >
       <T style={{ color: colors.navInk, flex: 1, fontSize: 15 }}>{text}</T>
-      <Pressable accessibilityRole="button" onPress={onUndo} testID="model-undo-button" style={{ minHeight: touch.min, paddingHorizontal: space.md, flexDirection: 'row', alignItems: 'center', gap: 6 }}>
+      <Pressable
+        accessibilityRole="button"
+        onPress={onUndo}
+        testID="model-undo-button"
+        style={{
+          minHeight: touch.min,
+          paddingHorizontal: space.md,
+          flexDirection: 'row',
+          alignItems: 'center',
+          gap: 6,
+        }}
+      >
         <Icon name="undo" size={18} color="#9FE3E8" />
         <T style={{ color: '#9FE3E8', fontFamily: fonts.textBold }}>Undo</T>
       </Pressable>

@@ -60,18 +60,34 @@ function Glyph({ kind }: { kind: GlyphKind }) {
       {kind === 'utility' ? (
         <>
           <Circle cx={12} cy={10} r={8.5} stroke={c} strokeWidth={1.6} fill={colors.surface} />
-          <Path d="M6.5 10c1.4-3.2 2.9-3.2 4.3 0s2.9 3.2 4.3 0 2.9-3.2 4.3 0" stroke={c} strokeWidth={1.5} fill="none" transform="translate(-1.6 0)" />
+          <Path
+            d="M6.5 10c1.4-3.2 2.9-3.2 4.3 0s2.9 3.2 4.3 0 2.9-3.2 4.3 0"
+            stroke={c}
+            strokeWidth={1.5}
+            fill="none"
+            transform="translate(-1.6 0)"
+          />
         </>
       ) : null}
       {kind === 'generator' || kind === 'motor' ? (
         <>
           <Circle cx={12} cy={10} r={8.5} stroke={c} strokeWidth={1.6} fill={colors.surface} />
-          <SvgText x={12} y={14} fontSize={11} fontWeight="bold" textAnchor="middle" fill={c} fontFamily={fonts.textBold}>
+          <SvgText
+            x={12}
+            y={14}
+            fontSize={11}
+            fontWeight="bold"
+            textAnchor="middle"
+            fill={c}
+            fontFamily={fonts.textBold}
+          >
             {kind === 'generator' ? 'G' : 'M'}
           </SvgText>
         </>
       ) : null}
-      {kind === 'bus' || kind === 'bus-seen' ? <Rect x={1} y={7} width={22} height={6} rx={1.5} fill={kind === 'bus' ? colors.accent : colors.line} /> : null}
+      {kind === 'bus' || kind === 'bus-seen' ? (
+        <Rect x={1} y={7} width={22} height={6} rx={1.5} fill={kind === 'bus' ? colors.accent : colors.line} />
+      ) : null}
       {kind === 'tie' ? (
         <>
           <Line x1={1} y1={13} x2={8} y2={13} stroke={c} strokeWidth={1.6} />
@@ -100,19 +116,63 @@ function Connectors({ row }: { row: TreeRow }) {
     <>
       {row.guides.map((continues, k) => (
         <View key={k} style={{ width: INDENT }}>
-          {continues ? <View style={{ position: 'absolute', left: INDENT / 2 - LINE / 2, top: 0, bottom: 0, width: LINE, backgroundColor: LINE_COLOR }} /> : null}
+          {continues ? (
+            <View
+              style={{
+                position: 'absolute',
+                left: INDENT / 2 - LINE / 2,
+                top: 0,
+                bottom: 0,
+                width: LINE,
+                backgroundColor: LINE_COLOR,
+              }}
+            />
+          ) : null}
         </View>
       ))}
       <View style={{ width: INDENT }}>
-        <View style={{ position: 'absolute', left: INDENT / 2 - LINE / 2, top: 0, width: LINE, backgroundColor: LINE_COLOR, ...(row.last ? { height: ANCHOR + LINE / 2 } : { bottom: 0 }) }} />
-        <View style={{ position: 'absolute', left: INDENT / 2, right: 0, top: ANCHOR - LINE / 2, height: LINE, backgroundColor: LINE_COLOR }} />
+        <View
+          style={{
+            position: 'absolute',
+            left: INDENT / 2 - LINE / 2,
+            top: 0,
+            width: LINE,
+            backgroundColor: LINE_COLOR,
+            ...(row.last ? { height: ANCHOR + LINE / 2 } : { bottom: 0 }),
+          }}
+        />
+        <View
+          style={{
+            position: 'absolute',
+            left: INDENT / 2,
+            right: 0,
+            top: ANCHOR - LINE / 2,
+            height: LINE,
+            backgroundColor: LINE_COLOR,
+          }}
+        />
       </View>
     </>
   );
 }
 
-function Tap({ target, onSelect, children, label, testID, shrink }: { target?: ElementRef; onSelect?: SystemTreeProps['onSelect']; children: React.ReactNode; label: string; testID?: string; shrink?: boolean }) {
-  if (!onSelect || !target) return shrink ? <View style={{ maxWidth: '100%', flexShrink: 1 }}>{children}</View> : <>{children}</>;
+function Tap({
+  target,
+  onSelect,
+  children,
+  label,
+  testID,
+  shrink,
+}: {
+  target?: ElementRef;
+  onSelect?: SystemTreeProps['onSelect'];
+  children: React.ReactNode;
+  label: string;
+  testID?: string;
+  shrink?: boolean;
+}) {
+  if (!onSelect || !target)
+    return shrink ? <View style={{ maxWidth: '100%', flexShrink: 1 }}>{children}</View> : <>{children}</>;
   return (
     <Pressable
       accessibilityRole="link"
@@ -135,7 +195,19 @@ function DeviceChips({ devices, onSelect }: { devices: DeviceMarker[]; onSelect?
     <>
       {devices.map((d) => (
         <Tap key={`${d.index}`} target={d} onSelect={onSelect} label={`Device ${d.id}`} testID={`tree-device-${d.id}`}>
-          <View style={{ flexDirection: 'row', alignItems: 'center', gap: 4, height: 22, paddingHorizontal: 6, borderRadius: 4, borderWidth: 1, borderColor: colors.line, backgroundColor: colors.surface }}>
+          <View
+            style={{
+              flexDirection: 'row',
+              alignItems: 'center',
+              gap: 4,
+              height: 22,
+              paddingHorizontal: 6,
+              borderRadius: 4,
+              borderWidth: 1,
+              borderColor: colors.line,
+              backgroundColor: colors.surface,
+            }}
+          >
             <View style={{ width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1 }} />
             <T style={{ fontSize: 12, lineHeight: 16, fontFamily: fonts.textMedium, color: colors.inkSoft }}>{d.id}</T>
           </View>
@@ -147,25 +219,67 @@ function DeviceChips({ devices, onSelect }: { devices: DeviceMarker[]; onSelect?
 
 /** Second-line content of a row: indented past the connector stub that runs down to its children. */
 function Detail({ children }: { children: React.ReactNode }) {
-  return <View style={{ marginLeft: INDENT + space.sm, flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', columnGap: 6, rowGap: 4 }}>{children}</View>;
+  return (
+    <View
+      style={{
+        marginLeft: INDENT + space.sm,
+        flexDirection: 'row',
+        flexWrap: 'wrap',
+        alignItems: 'center',
+        columnGap: 6,
+        rowGap: 4,
+      }}
+    >
+      {children}
+    </View>
+  );
 }
 
 const TreeRowView = memo(
   function TreeRowView({ row, onSelect }: { row: TreeRow; sig: string; onSelect?: SystemTreeProps['onSelect'] }) {
     if (row.kind === 'heading') {
       return (
-        <View style={{ paddingTop: space.lg, paddingBottom: space.xs, borderTopWidth: 1, borderTopColor: colors.lineSoft, marginTop: space.sm }}>
-          <T variant="label" style={{ textTransform: 'uppercase', color: row.key === 'heading:islands' || row.key === 'heading:unconnected' ? colors.danger : colors.inkSoft }}>
+        <View
+          style={{
+            paddingTop: space.lg,
+            paddingBottom: space.xs,
+            borderTopWidth: 1,
+            borderTopColor: colors.lineSoft,
+            marginTop: space.sm,
+          }}
+        >
+          <T
+            variant="label"
+            style={{
+              textTransform: 'uppercase',
+              color:
+                row.key === 'heading:islands' || row.key === 'heading:unconnected' ? colors.danger : colors.inkSoft,
+            }}
+          >
             {row.text}
           </T>
         </View>
       );
     }
     return (
-      <View style={{ flexDirection: 'row', marginTop: row.depth === 0 && row.kind === 'source' ? space.xs : 0 }} testID={`tree-${row.key}`}>
+      <View
+        style={{ flexDirection: 'row', marginTop: row.depth === 0 && row.kind === 'source' ? space.xs : 0 }}
+        testID={`tree-${row.key}`}
+      >
         <Connectors row={row} />
         <View style={{ flex: 1, minWidth: 0, paddingTop: 6, paddingBottom: 6, gap: 3 }}>
-          {row.hasChildren ? <View style={{ position: 'absolute', left: INDENT / 2 - LINE / 2, top: ANCHOR + 10, bottom: 0, width: LINE, backgroundColor: LINE_COLOR }} /> : null}
+          {row.hasChildren ? (
+            <View
+              style={{
+                position: 'absolute',
+                left: INDENT / 2 - LINE / 2,
+                top: ANCHOR + 10,
+                bottom: 0,
+                width: LINE,
+                backgroundColor: LINE_COLOR,
+              }}
+            />
+          ) : null}
           <RowContent row={row} onSelect={onSelect} />
         </View>
       </View>
@@ -186,7 +300,13 @@ function Head({ glyph, children }: { glyph: GlyphKind; children: React.ReactNode
 const idStyle = { fontFamily: fonts.textBold, fontSize: 15, color: colors.ink } as const;
 const mutedStyle = { fontSize: 14, color: colors.muted } as const;
 
-function RowContent({ row, onSelect }: { row: Exclude<TreeRow, { kind: 'heading' }>; onSelect?: SystemTreeProps['onSelect'] }) {
+function RowContent({
+  row,
+  onSelect,
+}: {
+  row: Exclude<TreeRow, { kind: 'heading' }>;
+  onSelect?: SystemTreeProps['onSelect'];
+}) {
   switch (row.kind) {
     case 'source':
       return (
@@ -218,7 +338,13 @@ function RowContent({ row, onSelect }: { row: Exclude<TreeRow, { kind: 'heading'
           {row.via ? (
             <Detail>
               <DeviceChips devices={row.via.lineSide} onSelect={onSelect} />
-              <Tap target={row.via} onSelect={onSelect} label={`Branch ${row.via.id}`} testID={`tree-select-${row.via.collection}[${row.via.index}]`} shrink>
+              <Tap
+                target={row.via}
+                onSelect={onSelect}
+                label={`Branch ${row.via.id}`}
+                testID={`tree-select-${row.via.collection}[${row.via.index}]`}
+                shrink
+              >
                 <T style={{ fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 }}>
                   <T style={{ fontSize: 13, color: colors.muted }}>via </T>
                   <T style={{ fontSize: 13, fontFamily: fonts.textBold, color: colors.inkSoft }}>{row.via.id}</T>
@@ -248,7 +374,12 @@ function RowContent({ row, onSelect }: { row: Exclude<TreeRow, { kind: 'heading'
     case 'open-tie':
       return (
         <>
-          <Tap target={row.ref} onSelect={onSelect} label={`${row.kind === 'motor' ? 'Motor' : 'Tie'} ${row.id}`} testID={`tree-select-${row.key}`}>
+          <Tap
+            target={row.ref}
+            onSelect={onSelect}
+            label={`${row.kind === 'motor' ? 'Motor' : 'Tie'} ${row.id}`}
+            testID={`tree-select-${row.key}`}
+          >
             <Head glyph={row.kind === 'motor' ? 'motor' : 'tie'}>
               <T style={{ ...idStyle, fontFamily: fonts.textMedium }}>{row.id}</T>
               <T style={mutedStyle}>{`  ${row.text}`}</T>
@@ -276,12 +407,27 @@ function RowContent({ row, onSelect }: { row: Exclude<TreeRow, { kind: 'heading'
 function Legend() {
   const item = (glyph: GlyphKind | 'device', text: string) => (
     <View key={text} style={{ flexDirection: 'row', alignItems: 'center', gap: 4 }}>
-      {glyph === 'device' ? <View style={{ width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1, marginHorizontal: 4 }} /> : <Glyph kind={glyph} />}
+      {glyph === 'device' ? (
+        <View style={{ width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1, marginHorizontal: 4 }} />
+      ) : (
+        <Glyph kind={glyph} />
+      )}
       <T style={{ fontSize: 12, color: colors.muted }}>{text}</T>
     </View>
   );
   return (
-    <View style={{ flexDirection: 'row', flexWrap: 'wrap', columnGap: space.md, rowGap: 4, marginTop: space.md, paddingTop: space.sm, borderTopWidth: 1, borderTopColor: colors.lineSoft }}>
+    <View
+      style={{
+        flexDirection: 'row',
+        flexWrap: 'wrap',
+        columnGap: space.md,
+        rowGap: 4,
+        marginTop: space.md,
+        paddingTop: space.sm,
+        borderTopWidth: 1,
+        borderTopColor: colors.lineSoft,
+      }}
+    >
       {item('utility', 'Utility')}
       {item('generator', 'Generator')}
       {item('bus', 'Bus')}

@@ -5,7 +5,12 @@
  */
 import React from 'react';
 import { Pressable, View } from 'react-native';
-import { ELECTRODE_CONFIGS, ELECTRODE_CONFIG_LABELS, EQUIPMENT_CLASSES, findEquipmentClass } from '../../shared/equipmentClasses';
+import {
+  ELECTRODE_CONFIGS,
+  ELECTRODE_CONFIG_LABELS,
+  EQUIPMENT_CLASSES,
+  findEquipmentClass,
+} from '../../shared/equipmentClasses';
 import type { DeviceType } from '../../shared/schemas/deviceLibrary';
 import type { Device } from '../../shared/schemas/device';
 import { CONDUCTOR_SIZES, normalizeConductorSize } from '../../shared/schemas/model';
@@ -96,9 +101,27 @@ interface NumberExtra<E> extends Partial<Column<E>> {
   set?: (e: E, v: number | undefined) => E;
 }
 
-function numberColumn<E extends object>(key: Keyed<E> & string, label: string, unit: string | undefined, width: number, extra?: NumberExtra<E>): Column<E>;
-function numberColumn<E extends object>(key: string, label: string, unit: string | undefined, width: number, extra: NumberExtra<E> & Required<Pick<NumberExtra<E>, 'get' | 'set'>>): Column<E>;
-function numberColumn<E extends object>(key: string, label: string, unit: string | undefined, width: number, extra: NumberExtra<E> = {}): Column<E> {
+function numberColumn<E extends object>(
+  key: Keyed<E> & string,
+  label: string,
+  unit: string | undefined,
+  width: number,
+  extra?: NumberExtra<E>,
+): Column<E>;
+function numberColumn<E extends object>(
+  key: string,
+  label: string,
+  unit: string | undefined,
+  width: number,
+  extra: NumberExtra<E> & Required<Pick<NumberExtra<E>, 'get' | 'set'>>,
+): Column<E>;
+function numberColumn<E extends object>(
+  key: string,
+  label: string,
+  unit: string | undefined,
+  width: number,
+  extra: NumberExtra<E> = {},
+): Column<E> {
   const { placeholder, get, set, ...rest } = extra;
   const read = get ?? ((e: E) => (e as Record<string, unknown>)[key] as number | undefined);
   const write = set ?? ((e: E, v: number | undefined) => withField(e as Record<string, unknown>, key, v) as E);
@@ -132,7 +155,18 @@ function idColumn<E extends { id: string }>(width = 128): Column<E> {
     basis: 130,
     issueKeys: ['id'],
     render: ({ e, size, invalid, editable, rename, testID }) => (
-      <TextCell value={e.id} onChange={rename} commit="blur" mono size={size} invalid={invalid} editable={editable} placeholder="Id" testID={testID} accessibilityLabel="Id" />
+      <TextCell
+        value={e.id}
+        onChange={rename}
+        commit="blur"
+        mono
+        size={size}
+        invalid={invalid}
+        editable={editable}
+        placeholder="Id"
+        testID={testID}
+        accessibilityLabel="Id"
+      />
     ),
   };
 }
@@ -202,16 +236,33 @@ const CLASS_OPTIONS: PickOption[] = EQUIPMENT_CLASSES.map((c) => {
   const bits: string[] = [];
   if (c.gapMm !== null) bits.push(`gap ${num(c.gapMm)} mm`);
   if (c.workingDistanceMm !== null) bits.push(`working distance ${num(c.workingDistanceMm)} mm`);
-  bits.push(c.enclosureMm ? `${num(c.enclosureMm.height)} × ${num(c.enclosureMm.width)} × ${num(c.enclosureMm.depth)} mm` : 'open air');
-  return { value: c.id, label: c.label, short: shortClassLabel(c.label), detail: `${c.electrodeConfig} · ${bits.join(' · ')}` };
+  bits.push(
+    c.enclosureMm
+      ? `${num(c.enclosureMm.height)} × ${num(c.enclosureMm.width)} × ${num(c.enclosureMm.depth)} mm`
+      : 'open air',
+  );
+  return {
+    value: c.id,
+    label: c.label,
+    short: shortClassLabel(c.label),
+    detail: `${c.electrodeConfig} · ${bits.join(' · ')}`,
+  };
 });
 
-const ELECTRODE_OPTIONS: PickOption[] = ELECTRODE_CONFIGS.map((c) => ({ value: c, label: c, detail: ELECTRODE_CONFIG_LABELS[c] }));
+const ELECTRODE_OPTIONS: PickOption[] = ELECTRODE_CONFIGS.map((c) => ({
+  value: c,
+  label: c,
+  detail: ELECTRODE_CONFIG_LABELS[c],
+}));
 
 const equipmentOf = (b: BusInput) => b.equipment;
 const classOf = (b: BusInput) => (b.equipment ? findEquipmentClass(b.equipment.class) : undefined);
 
-function patchEquipment<K extends keyof EquipmentInput>(b: BusInput, key: K, value: EquipmentInput[K] | undefined): BusInput {
+function patchEquipment<K extends keyof EquipmentInput>(
+  b: BusInput,
+  key: K,
+  value: EquipmentInput[K] | undefined,
+): BusInput {
   if (!b.equipment) return b;
   return { ...b, equipment: withField(b.equipment, key, value) };
 }
@@ -251,7 +302,11 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
         options={CLASS_OPTIONS}
         emptyLabel="None (not evaluated)"
         title="Equipment class"
-        onChange={(v) => patch((b) => (v === '' ? withField(b, 'equipment', undefined) : { ...b, equipment: { ...(b.equipment ?? {}), class: v } }))}
+        onChange={(v) =>
+          patch((b) =>
+            v === '' ? withField(b, 'equipment', undefined) : { ...b, equipment: { ...(b.equipment ?? {}), class: v } },
+          )
+        }
         size={size}
         invalid={invalid}
         editable={editable}
@@ -259,7 +314,10 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
         accessibilityLabel={label}
       />
     ),
-    hint: (b) => (b.equipment ? 'Typical gap, enclosure and working distance (IEEE 1584-2018) apply where the fields are empty' : undefined),
+    hint: (b) =>
+      b.equipment
+        ? 'Typical gap, enclosure and working distance (IEEE 1584-2018) apply where the fields are empty'
+        : undefined,
   },
   {
     key: 'electrode',
@@ -274,9 +332,15 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
         value={e.equipment?.electrodeConfig}
         options={ELECTRODE_OPTIONS}
         emptyLabel={`Typical of the class (${classOf(e)?.electrodeConfig ?? '—'})`}
-        emptyShort={size === 'cell' ? (classOf(e)?.electrodeConfig ?? '—') : `Typical (${classOf(e)?.electrodeConfig ?? '—'})`}
+        emptyShort={
+          size === 'cell' ? (classOf(e)?.electrodeConfig ?? '—') : `Typical (${classOf(e)?.electrodeConfig ?? '—'})`
+        }
         title="Electrode configuration"
-        onChange={(v) => patch((b) => patchEquipment(b, 'electrodeConfig', v === '' ? undefined : (v as EquipmentInput['electrodeConfig'])))}
+        onChange={(v) =>
+          patch((b) =>
+            patchEquipment(b, 'electrodeConfig', v === '' ? undefined : (v as EquipmentInput['electrodeConfig'])),
+          )
+        }
         size={size}
         invalid={invalid}
         editable={editable}
@@ -344,7 +408,8 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
     basis: 280,
     issueKeys: ['equipment.enclosureMm'],
     applies: (b) => !!equipmentOf(b),
-    hint: (b) => (classOf(b)?.enclosureMm === null ? 'Open air: no enclosure correction' : 'Empty: typical enclosure of the class'),
+    hint: (b) =>
+      classOf(b)?.enclosureMm === null ? 'Open air: no enclosure correction' : 'Empty: typical enclosure of the class',
     render: ({ e, size, invalid, editable, patch, testID, label }) => {
       const typical = classOf(e)?.enclosureMm;
       const box = e.equipment?.enclosureMm as Partial<Record<Dim, number>> | undefined;
@@ -378,7 +443,8 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
     basis: 200,
     issueKeys: ['equipment.mainIsolated'],
     applies: (b) => !!equipmentOf(b),
-    hint: (b) => (b.equipment?.mainIsolated === false ? 'Line-side arcs are cleared by the next device upstream' : undefined),
+    hint: (b) =>
+      b.equipment?.mainIsolated === false ? 'Line-side arcs are cleared by the next device upstream' : undefined,
     render: ({ e, size, editable, patch, testID }) => (
       <CheckCell
         value={e.equipment?.mainIsolated !== false}
@@ -397,7 +463,13 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
 
 const isUtility = (s: SourceInput): s is UtilityInput => s.kind === 'utility';
 
-function generatorNumber(key: 'kva' | 'kv' | 'subtransientPct', label: string, unit: string, width: number, hint?: string): Column<SourceInput> {
+function generatorNumber(
+  key: 'kva' | 'kv' | 'subtransientPct',
+  label: string,
+  unit: string,
+  width: number,
+  hint?: string,
+): Column<SourceInput> {
   return numberColumn<SourceInput>(key, label, unit, width, {
     applies: (s) => s.kind === 'generator',
     get: (s) => (s.kind === 'generator' ? s[key] : undefined),
@@ -436,7 +508,9 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
       />
     ),
   },
-  busColumn<SourceInput>('bus', 'Bus', 140, (s, kv) => (s.kind === 'generator' && s.kv === undefined && kv !== undefined ? { ...s, kv } : s)),
+  busColumn<SourceInput>('bus', 'Bus', 140, (s, kv) =>
+    s.kind === 'generator' && s.kv === undefined && kv !== undefined ? { ...s, kv } : s,
+  ),
   {
     key: 'shortCircuit',
     label: 'Short circuit',
@@ -471,7 +545,9 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
             onChange={(u) =>
               patch((s) => {
                 const { shortCircuitKa: _k, shortCircuitMva: _m, ...rest } = s as UtilityInput;
-                return (u === 'ka' ? { ...rest, shortCircuitKa: undefined } : { ...rest, shortCircuitMva: undefined }) as SourceInput;
+                return (
+                  u === 'ka' ? { ...rest, shortCircuitKa: undefined } : { ...rest, shortCircuitMva: undefined }
+                ) as SourceInput;
               })
             }
             size={size}
@@ -496,19 +572,29 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
 export const TRANSFORMER_COLUMNS: Column<TransformerInput>[] = [
   idColumn(),
   nameColumn(170),
-  busColumn<TransformerInput>('fromBus', 'Primary bus', 160, (t, kv) => (t.primaryKv === undefined && kv !== undefined ? { ...t, primaryKv: kv } : t)),
-  busColumn<TransformerInput>('toBus', 'Secondary bus', 160, (t, kv) => (t.secondaryKv === undefined && kv !== undefined ? { ...t, secondaryKv: kv } : t)),
+  busColumn<TransformerInput>('fromBus', 'Primary bus', 160, (t, kv) =>
+    t.primaryKv === undefined && kv !== undefined ? { ...t, primaryKv: kv } : t,
+  ),
+  busColumn<TransformerInput>('toBus', 'Secondary bus', 160, (t, kv) =>
+    t.secondaryKv === undefined && kv !== undefined ? { ...t, secondaryKv: kv } : t,
+  ),
   numberColumn<TransformerInput>('kva', 'Rating', 'kVA', 100),
   numberColumn<TransformerInput>('primaryKv', 'Primary', 'kV', 90),
   numberColumn<TransformerInput>('secondaryKv', 'Secondary', 'kV', 96),
   numberColumn<TransformerInput>('impedancePct', 'Impedance', '%Z', 96),
-  numberColumn<TransformerInput>('xr', 'X/R', undefined, 80, { placeholder: () => 'typical', hint: (t) => (t.xr === undefined ? 'Empty: a typical value by size, with a warning' : undefined) }),
+  numberColumn<TransformerInput>('xr', 'X/R', undefined, 80, {
+    placeholder: () => 'typical',
+    hint: (t) => (t.xr === undefined ? 'Empty: a typical value by size, with a warning' : undefined),
+  }),
 ];
 
 // ---------------------------------------------------------------------------------------------
 // Cables
 
-const SIZE_OPTIONS: PickOption[] = CONDUCTOR_SIZES.map((s) => ({ value: conductorSizeValue(s), label: conductorSizeLabel(s) }));
+const SIZE_OPTIONS: PickOption[] = CONDUCTOR_SIZES.map((s) => ({
+  value: conductorSizeValue(s),
+  label: conductorSizeLabel(s),
+}));
 const CONDUIT_OPTIONS: PickOption[] = Object.entries(CONDUIT_LABELS).map(([value, label]) => ({ value, label }));
 
 const explicitRX = (c: CableInput) => c.rOhmPerKm !== undefined || c.xOhmPerKm !== undefined;
@@ -527,7 +613,10 @@ export const CABLE_COLUMNS: Column<CableInput>[] = [
   busColumn<CableInput>('fromBus', 'From bus'),
   busColumn<CableInput>('toBus', 'To bus'),
   numberColumn<CableInput>('lengthM', 'Length', 'm', 90),
-  numberColumn<CableInput>('sets', 'Sets', undefined, 70, { placeholder: () => '1', hint: () => 'Parallel conductors per phase' }),
+  numberColumn<CableInput>('sets', 'Sets', undefined, 70, {
+    placeholder: () => '1',
+    hint: () => 'Parallel conductors per phase',
+  }),
   {
     key: 'size',
     label: 'Size',
@@ -597,29 +686,33 @@ export const CABLE_COLUMNS: Column<CableInput>[] = [
       />
     ),
   },
-  ...(['rOhmPerKm', 'xOhmPerKm'] as const).map(
-    (key): Column<CableInput> => ({
-      key,
-      label: key === 'rOhmPerKm' ? 'R' : 'X',
-      unit: 'Ω/km',
-      width: 92,
-      basis: 110,
-      issueKeys: [key],
-      hint: key === 'rOhmPerKm' ? (c) => (explicitRX(c) ? 'One conductor of one set; entering a size instead clears R and X' : 'Or give R and X per km') : undefined,
-      render: ({ e, size, invalid, editable, patch, testID, label }) => (
-        <NumCell
-          value={e[key]}
-          onChange={(v) => patch((c) => withField(v === undefined ? c : rxData(c), key, v))}
-          placeholder={explicitRX(e) ? '' : '—'}
-          size={size}
-          invalid={invalid}
-          editable={editable}
-          testID={testID}
-          accessibilityLabel={label}
-        />
-      ),
-    }),
-  ),
+  ...(['rOhmPerKm', 'xOhmPerKm'] as const).map((key): Column<CableInput> => ({
+    key,
+    label: key === 'rOhmPerKm' ? 'R' : 'X',
+    unit: 'Ω/km',
+    width: 92,
+    basis: 110,
+    issueKeys: [key],
+    hint:
+      key === 'rOhmPerKm'
+        ? (c) =>
+            explicitRX(c)
+              ? 'One conductor of one set; entering a size instead clears R and X'
+              : 'Or give R and X per km'
+        : undefined,
+    render: ({ e, size, invalid, editable, patch, testID, label }) => (
+      <NumCell
+        value={e[key]}
+        onChange={(v) => patch((c) => withField(v === undefined ? c : rxData(c), key, v))}
+        placeholder={explicitRX(e) ? '' : '—'}
+        size={size}
+        invalid={invalid}
+        editable={editable}
+        testID={testID}
+        accessibilityLabel={label}
+      />
+    ),
+  })),
 ];
 
 // ---------------------------------------------------------------------------------------------
@@ -677,7 +770,9 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
     placeholder: (m) => (m.subtransientPct === undefined ? 'typical' : '—'),
     hint: () => 'Or X″; empty: a typical value',
   }),
-  numberColumn<MotorInput>('subtransientPct', 'X″', '%', 84, { placeholder: (m) => (m.lockedRotorMultiple === undefined ? 'typical' : '—') }),
+  numberColumn<MotorInput>('subtransientPct', 'X″', '%', 84, {
+    placeholder: (m) => (m.lockedRotorMultiple === undefined ? 'typical' : '—'),
+  }),
   numberColumn<MotorInput>('xr', 'X/R', undefined, 80, { placeholder: () => 'typical' }),
 ];
 
@@ -839,13 +934,23 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
             accessibilityLabel={label}
           />
           {device ? (
-            <T numberOfLines={size === 'cell' ? 2 : undefined} style={{ fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 }} testID={`${testID}-summary`}>
+            <T
+              numberOfLines={size === 'cell' ? 2 : undefined}
+              style={{ fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 }}
+              testID={`${testID}-summary`}
+            >
               <T style={{ fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink }}>{deviceKindLabel(device)}</T>
               {`  ${deviceSettingsSummary(device)}`}
             </T>
           ) : null}
           {changed ? (
-            <Pressable accessibilityRole="button" disabled={!editable} onPress={() => t && patch((d) => fromLibrary(d, t))} testID={`${testID}-update`} style={{ paddingHorizontal: 2 }}>
+            <Pressable
+              accessibilityRole="button"
+              disabled={!editable}
+              onPress={() => t && patch((d) => fromLibrary(d, t))}
+              testID={`${testID}-update`}
+              style={{ paddingHorizontal: 2 }}
+            >
               <T style={{ fontSize: 13, color: colors.caution, textDecorationLine: editable ? 'underline' : 'none' }}>
                 {editable ? 'Library type changed since: use its current settings' : 'Library type changed since'}
               </T>

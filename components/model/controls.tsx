@@ -18,10 +18,27 @@ export const PLACEHOLDER = '#8C9AA6';
 // ---------------------------------------------------------------------------------------------
 // Icons (drawn here, 24-unit grid)
 
-export type IconName = 'plus' | 'copy' | 'trash' | 'chevron-down' | 'chevron-right' | 'check' | 'alert' | 'search' | 'close' | 'undo' | 'link';
+export type IconName =
+  | 'plus'
+  | 'copy'
+  | 'trash'
+  | 'chevron-down'
+  | 'chevron-right'
+  | 'check'
+  | 'alert'
+  | 'search'
+  | 'close'
+  | 'undo'
+  | 'link';
 
 export function Icon({ name, size = 18, color = colors.inkSoft }: { name: IconName; size?: number; color?: string }) {
-  const stroke = { stroke: color, strokeWidth: 2, fill: 'none', strokeLinecap: 'round' as const, strokeLinejoin: 'round' as const };
+  const stroke = {
+    stroke: color,
+    strokeWidth: 2,
+    fill: 'none',
+    strokeLinecap: 'round' as const,
+    strokeLinejoin: 'round' as const,
+  };
   return (
     <Svg width={size} height={size} viewBox="0 0 24 24">
       {name === 'plus' ? <Path d="M12 5v14M5 12h14" {...stroke} /> : null}
@@ -49,7 +66,12 @@ export function Icon({ name, size = 18, color = colors.inkSoft }: { name: IconNa
       ) : null}
       {name === 'close' ? <Path d="M6 6l12 12M18 6L6 18" {...stroke} /> : null}
       {name === 'undo' ? <Path d="M9 14L4 9l5-5M4 9h10a6 6 0 0 1 0 12h-3" {...stroke} /> : null}
-      {name === 'link' ? <Path d="M10 14a4 4 0 0 0 5.7 0l3-3a4 4 0 0 0-5.7-5.7l-1 1M14 10a4 4 0 0 0-5.7 0l-3 3a4 4 0 0 0 5.7 5.7l1-1" {...stroke} /> : null}
+      {name === 'link' ? (
+        <Path
+          d="M10 14a4 4 0 0 0 5.7 0l3-3a4 4 0 0 0-5.7-5.7l-1 1M14 10a4 4 0 0 0-5.7 0l-3 3a4 4 0 0 0 5.7 5.7l1-1"
+          {...stroke}
+        />
+      ) : null}
     </Svg>
   );
 }
@@ -146,7 +168,12 @@ export const TextCell = memo(function TextCell({
   testID,
   accessibilityLabel,
   style,
-}: InputCommon & { value: string | undefined; onChange: (v: string) => void; commit?: 'change' | 'blur'; mono?: boolean }) {
+}: InputCommon & {
+  value: string | undefined;
+  onChange: (v: string) => void;
+  commit?: 'change' | 'blur';
+  mono?: boolean;
+}) {
   const [text, setText] = useState(value ?? '');
   const last = useRef(value ?? '');
   useEffect(() => {
@@ -182,7 +209,13 @@ export const TextCell = memo(function TextCell({
       autoCorrect={false}
       style={[
         boxStyle(size, invalid, editable),
-        { color: colors.ink, fontFamily: mono ? fonts.textMedium : fonts.text, fontSize: size === 'cell' ? 15 : 16, minWidth: 0, fontStyle: text === '' ? 'italic' : 'normal' },
+        {
+          color: colors.ink,
+          fontFamily: mono ? fonts.textMedium : fonts.text,
+          fontSize: size === 'cell' ? 15 : 16,
+          minWidth: 0,
+          fontStyle: text === '' ? 'italic' : 'normal',
+        },
         style as object,
       ]}
     />
@@ -304,7 +337,14 @@ export function SegCell<V extends string>({
               borderLeftColor: colors.line,
             }}
           >
-            <T numberOfLines={1} style={{ fontSize: size === 'cell' ? 14 : 15, fontFamily: on ? fonts.textBold : fonts.text, color: on ? colors.accent : editable ? colors.inkSoft : colors.muted }}>
+            <T
+              numberOfLines={1}
+              style={{
+                fontSize: size === 'cell' ? 14 : 15,
+                fontFamily: on ? fonts.textBold : fonts.text,
+                color: on ? colors.accent : editable ? colors.inkSoft : colors.muted,
+              }}
+            >
               {o.label}
             </T>
           </Pressable>
@@ -410,7 +450,15 @@ export const PickCell = memo(function PickCell({
   const [open, setOpen] = useState(false);
   const selected = value === undefined || value === '' ? undefined : options.find((o) => o.value === value);
   const unknown = value !== undefined && value !== '' && !selected;
-  const shown = selected ? (size === 'cell' && selected.short ? selected.short : selected.label) : unknown ? (formatUnknown ? formatUnknown(value) : value) : emptyShort ?? emptyLabel ?? placeholder;
+  const shown = selected
+    ? size === 'cell' && selected.short
+      ? selected.short
+      : selected.label
+    : unknown
+      ? formatUnknown
+        ? formatUnknown(value)
+        : value
+      : (emptyShort ?? emptyLabel ?? placeholder);
   const dim = !selected && !unknown;
   return (
     <>
@@ -421,11 +469,25 @@ export const PickCell = memo(function PickCell({
         disabled={!editable}
         testID={testID}
         onPress={() => setOpen(true)}
-        style={[boxStyle(size, invalid || unknown, editable), { flexDirection: 'row', alignItems: 'center', gap: space.xs }, style]}
+        style={[
+          boxStyle(size, invalid || unknown, editable),
+          { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+          style,
+        ]}
       >
-        <T numberOfLines={1} style={{ flex: 1, fontSize: size === 'cell' ? 15 : 16, color: unknown ? colors.danger : dim ? PLACEHOLDER : colors.ink, fontStyle: dim ? 'italic' : 'normal' }}>
+        <T
+          numberOfLines={1}
+          style={{
+            flex: 1,
+            fontSize: size === 'cell' ? 15 : 16,
+            color: unknown ? colors.danger : dim ? PLACEHOLDER : colors.ink,
+            fontStyle: dim ? 'italic' : 'normal',
+          }}
+        >
           {shown}
-          {unknown && size === 'form' ? <T style={{ fontSize: 13, color: colors.danger }}>{`  ${unknownHint}`}</T> : null}
+          {unknown && size === 'form' ? (
+            <T style={{ fontSize: 13, color: colors.danger }}>{`  ${unknownHint}`}</T>
+          ) : null}
         </T>
         {editable ? <Icon name="chevron-down" size={16} color={colors.muted} /> : null}
       </Pressable>
@@ -469,7 +531,9 @@ function PickSheet({
   const searchable = options.length > 8;
   const rows = useMemo(() => {
     const q = query.trim().toLowerCase();
-    const list = q ? options.filter((o) => `${o.label} ${o.detail ?? ''} ${o.group ?? ''}`.toLowerCase().includes(q)) : options;
+    const list = q
+      ? options.filter((o) => `${o.label} ${o.detail ?? ''} ${o.group ?? ''}`.toLowerCase().includes(q))
+      : options;
     const out: ({ type: 'group'; label: string } | { type: 'option'; option: PickOption })[] = [];
     let group: string | undefined;
     for (const o of list) {
@@ -482,7 +546,11 @@ function PickSheet({
   return (
     <Modal transparent visible animationType="fade" onRequestClose={onClose}>
       <View style={{ flex: 1, justifyContent: wide ? 'center' : 'flex-end', alignItems: 'center' }}>
-        <Pressable accessibilityLabel="Close" onPress={onClose} style={{ position: 'absolute', top: 0, left: 0, right: 0, bottom: 0, backgroundColor: 'rgba(14,34,48,0.45)' }} />
+        <Pressable
+          accessibilityLabel="Close"
+          onPress={onClose}
+          style={{ position: 'absolute', top: 0, left: 0, right: 0, bottom: 0, backgroundColor: 'rgba(14,34,48,0.45)' }}
+        />
         <View
           testID={testID}
           accessibilityViewIsModal
@@ -506,7 +574,9 @@ function PickSheet({
           </View>
           {searchable ? (
             <View style={{ paddingHorizontal: space.lg }}>
-              <View style={[boxStyle('form', false, true), { flexDirection: 'row', alignItems: 'center', gap: space.sm }]}>
+              <View
+                style={[boxStyle('form', false, true), { flexDirection: 'row', alignItems: 'center', gap: space.sm }]}
+              >
                 <Icon name="search" size={18} color={colors.muted} />
                 <TextInput
                   value={query}
@@ -517,16 +587,44 @@ function PickSheet({
                   autoCapitalize="none"
                   autoCorrect={false}
                   testID={testID ? `${testID}-search` : undefined}
-                  style={{ flex: 1, height: '100%', fontSize: 16, fontFamily: fonts.text, color: colors.ink, minWidth: 0 }}
+                  style={{
+                    flex: 1,
+                    height: '100%',
+                    fontSize: 16,
+                    fontFamily: fonts.text,
+                    color: colors.ink,
+                    minWidth: 0,
+                  }}
                 />
               </View>
             </View>
           ) : null}
-          <ScrollView style={{ flexGrow: 0 }} contentContainerStyle={{ paddingHorizontal: space.sm }} keyboardShouldPersistTaps="handled">
-            {emptyLabel !== undefined && !query ? <OptionRow label={emptyLabel} selected={!value} onPress={() => onPick('')} testID={testID ? `${testID}-opt-` : undefined} /> : null}
+          <ScrollView
+            style={{ flexGrow: 0 }}
+            contentContainerStyle={{ paddingHorizontal: space.sm }}
+            keyboardShouldPersistTaps="handled"
+          >
+            {emptyLabel !== undefined && !query ? (
+              <OptionRow
+                label={emptyLabel}
+                selected={!value}
+                onPress={() => onPick('')}
+                testID={testID ? `${testID}-opt-` : undefined}
+              />
+            ) : null}
             {rows.map((r, i) =>
               r.type === 'group' ? (
-                <T key={`g${i}`} variant="label" style={{ paddingHorizontal: space.md, paddingTop: space.md, paddingBottom: space.xs, textTransform: 'uppercase', color: colors.muted }}>
+                <T
+                  key={`g${i}`}
+                  variant="label"
+                  style={{
+                    paddingHorizontal: space.md,
+                    paddingTop: space.md,
+                    paddingBottom: space.xs,
+                    textTransform: 'uppercase',
+                    color: colors.muted,
+                  }}
+                >
                   {r.label}
                 </T>
               ) : (
@@ -552,7 +650,19 @@ function PickSheet({
   );
 }
 
-function OptionRow({ label, detail, selected, onPress, testID }: { label: string; detail?: string; selected: boolean; onPress: () => void; testID?: string }) {
+function OptionRow({
+  label,
+  detail,
+  selected,
+  onPress,
+  testID,
+}: {
+  label: string;
+  detail?: string;
+  selected: boolean;
+  onPress: () => void;
+  testID?: string;
+}) {
   return (
     <Pressable
       accessibilityRole="button"

@@ -54,7 +54,9 @@ function setItems<C extends CollectionKey>(model: ModelInput, collection: C, ite
 export function classForKv(kv: number | undefined): string | undefined {
   if (kv === undefined || !Number.isFinite(kv)) return undefined;
   const v = kv * 1000;
-  return EQUIPMENT_CLASSES.find((c) => c.voltageClass !== 'any' && v >= c.nominalVoltageRangeV.min && v <= c.nominalVoltageRangeV.max)?.id;
+  return EQUIPMENT_CLASSES.find(
+    (c) => c.voltageClass !== 'any' && v >= c.nominalVoltageRangeV.min && v <= c.nominalVoltageRangeV.max,
+  )?.id;
 }
 
 export type NewVariant = 'utility' | 'generator';
@@ -84,7 +86,11 @@ export function newElement(model: ModelInput, collection: CollectionKey, variant
     case 'buses': {
       const kv = lastBus?.nominalKv;
       const cls = lastBus?.equipment?.class ?? classForKv(kv);
-      return partial<BusInput>({ id: uniqueId(ID_BASE.buses, taken), nominalKv: kv, ...(cls ? { equipment: { class: cls } } : {}) });
+      return partial<BusInput>({
+        id: uniqueId(ID_BASE.buses, taken),
+        nominalKv: kv,
+        ...(cls ? { equipment: { class: cls } } : {}),
+      });
     }
     case 'sources':
       return variant === 'generator'
@@ -93,7 +99,14 @@ export function newElement(model: ModelInput, collection: CollectionKey, variant
     case 'transformers':
       return partial({ id: uniqueId(ID_BASE.transformers, taken), fromBus: firstBus, toBus: '' });
     case 'cables':
-      return partial({ id: uniqueId(ID_BASE.cables, taken), fromBus: firstBus, toBus: '', sets: 1, material: 'Cu', conduit: 'steel' });
+      return partial({
+        id: uniqueId(ID_BASE.cables, taken),
+        fromBus: firstBus,
+        toBus: '',
+        sets: 1,
+        material: 'Cu',
+        conduit: 'steel',
+      });
     case 'motors':
       return partial({ id: uniqueId(ID_BASE.motors, taken), bus: lastBus?.id ?? '' });
     case 'ties':
@@ -103,13 +116,21 @@ export function newElement(model: ModelInput, collection: CollectionKey, variant
   }
 }
 
-export function addElement(model: ModelInput, collection: CollectionKey, element: AnyElement): { model: ModelInput; index: number } {
+export function addElement(
+  model: ModelInput,
+  collection: CollectionKey,
+  element: AnyElement,
+): { model: ModelInput; index: number } {
   const items = [...itemsOf(model, collection), element] as ElementOf[typeof collection][];
   return { model: setItems(model, collection, items), index: items.length - 1 };
 }
 
 /** A copy of the element, with a free id, placed right after it. */
-export function duplicateElement(model: ModelInput, collection: CollectionKey, index: number): { model: ModelInput; index: number } {
+export function duplicateElement(
+  model: ModelInput,
+  collection: CollectionKey,
+  index: number,
+): { model: ModelInput; index: number } {
   const items = [...itemsOf(model, collection)] as AnyElement[];
   const original = items[index];
   if (!original) return { model, index };
@@ -163,9 +184,15 @@ export function renameElement(model: ModelInput, collection: CollectionKey, inde
       ...next,
       sources: next.sources?.map((s) => (s.bus === oldId ? { ...s, bus: newId } : s)),
       motors: next.motors?.map((m) => (m.bus === oldId ? { ...m, bus: newId } : m)),
-      transformers: next.transformers?.map((t) => (t.fromBus === oldId || t.toBus === oldId ? { ...t, fromBus: swap(t.fromBus)!, toBus: swap(t.toBus)! } : t)),
-      cables: next.cables?.map((t) => (t.fromBus === oldId || t.toBus === oldId ? { ...t, fromBus: swap(t.fromBus)!, toBus: swap(t.toBus)! } : t)),
-      ties: next.ties?.map((t) => (t.fromBus === oldId || t.toBus === oldId ? { ...t, fromBus: swap(t.fromBus)!, toBus: swap(t.toBus)! } : t)),
+      transformers: next.transformers?.map((t) =>
+        t.fromBus === oldId || t.toBus === oldId ? { ...t, fromBus: swap(t.fromBus)!, toBus: swap(t.toBus)! } : t,
+      ),
+      cables: next.cables?.map((t) =>
+        t.fromBus === oldId || t.toBus === oldId ? { ...t, fromBus: swap(t.fromBus)!, toBus: swap(t.toBus)! } : t,
+      ),
+      ties: next.ties?.map((t) =>
+        t.fromBus === oldId || t.toBus === oldId ? { ...t, fromBus: swap(t.fromBus)!, toBus: swap(t.toBus)! } : t,
+      ),
     };
   } else if (collection === 'transformers' || collection === 'cables' || collection === 'ties') {
     next = { ...next, devices: next.devices?.map((d) => (d.branch === oldId ? { ...d, branch: newId } : d)) };
@@ -190,7 +217,12 @@ export function countReferences(model: ModelInput, id: string): number {
 }
 
 /** Shifts the indexes of a set of element keys after an insert (+1 from `at`) or a delete (−1 after `at`, `at` removed). */
-export function shiftKeys(keys: ReadonlySet<string>, collection: CollectionKey, at: number, change: 'insert' | 'delete'): Set<string> {
+export function shiftKeys(
+  keys: ReadonlySet<string>,
+  collection: CollectionKey,
+  at: number,
+  change: 'insert' | 'delete',
+): Set<string> {
   const out = new Set<string>();
   const prefix = `${collection}[`;
   for (const k of keys) {

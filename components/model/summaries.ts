@@ -95,7 +95,9 @@ export function busSummary(b: BusInput): string {
   else {
     const cls = findEquipmentClass(eq.class);
     parts.push(cls ? shortClassLabel(cls.label) : `class "${eq.class}"`);
-    const overrides = (['electrodeConfig', 'gapMm', 'workingDistanceMm', 'enclosureMm'] as const).filter((k) => eq[k] !== undefined).length;
+    const overrides = (['electrodeConfig', 'gapMm', 'workingDistanceMm', 'enclosureMm'] as const).filter(
+      (k) => eq[k] !== undefined,
+    ).length;
     if (overrides) parts.push(`${overrides} override${overrides === 1 ? '' : 's'}`);
     if (eq.mainIsolated === false) parts.push('main not isolated');
   }
@@ -104,7 +106,12 @@ export function busSummary(b: BusInput): string {
 
 export function sourceSummary(s: SourceInput): string {
   if (s.kind === 'utility') {
-    const sc = s.shortCircuitMva !== undefined ? `${num(s.shortCircuitMva)} MVA` : s.shortCircuitKa !== undefined ? `${num(s.shortCircuitKa)} kA` : 'short circuit —';
+    const sc =
+      s.shortCircuitMva !== undefined
+        ? `${num(s.shortCircuitMva)} MVA`
+        : s.shortCircuitKa !== undefined
+          ? `${num(s.shortCircuitKa)} kA`
+          : 'short circuit —';
     return `Utility at ${s.bus || '—'} · ${sc} · X/R ${num(s.xr)}`;
   }
   return `Generator at ${s.bus || '—'} · ${num(s.kva)} kVA · ${num(s.kv)} kV · X″d ${num(s.subtransientPct)} % · X/R ${num(s.xr)}`;
@@ -141,7 +148,10 @@ export function deviceSettingsSummary(d: Device | undefined): string {
   if (!d) return 'No device chosen';
   switch (d.kind) {
     case 'relay': {
-      const pickup = d.pickupA !== undefined ? `pickup ${num(d.pickupA)} A` : `pickup ${num(d.pickupSecondaryA)} A sec., CT ${num(d.ctRatio)}`;
+      const pickup =
+        d.pickupA !== undefined
+          ? `pickup ${num(d.pickupA)} A`
+          : `pickup ${num(d.pickupSecondaryA)} A sec., CT ${num(d.ctRatio)}`;
       const parts = [d.curve, pickup, `TD ${num(d.timeDial)}`];
       if (d.definiteTime) parts.push(`DT ${num(d.definiteTime.delayS)} s`);
       if (d.instantaneousA !== undefined) parts.push(`inst. ${num(d.instantaneousA)} A`);
@@ -150,7 +160,11 @@ export function deviceSettingsSummary(d: Device | undefined): string {
       return parts.join(' · ');
     }
     case 'fuse': {
-      const curve = d.totalClearing ? `total clearing ${d.totalClearing.length} pts` : d.averageMelt ? `average melt ${d.averageMelt.length} pts` : 'no clearing curve';
+      const curve = d.totalClearing
+        ? `total clearing ${d.totalClearing.length} pts`
+        : d.averageMelt
+          ? `average melt ${d.averageMelt.length} pts`
+          : 'no clearing curve';
       return `${num(d.ratingA)} A · ${curve}`;
     }
     case 'band':
@@ -165,7 +179,8 @@ export function deviceSettingsSummary(d: Device | undefined): string {
     }
     case 'electronic': {
       const parts = [`In ${num(d.sensorA)} A`, `LT ${num(d.longTime.pickup)}× ${num(d.longTime.delayS)} s`];
-      if (d.shortTime) parts.push(`ST ${num(d.shortTime.pickup)}× ${num(d.shortTime.delayS)} s${d.shortTime.i2t ? ' I²t' : ''}`);
+      if (d.shortTime)
+        parts.push(`ST ${num(d.shortTime.pickup)}× ${num(d.shortTime.delayS)} s${d.shortTime.i2t ? ' I²t' : ''}`);
       if (d.instantaneous) parts.push(`I ${num(d.instantaneous.pickup)}×`);
       if (d.groundFault) parts.push(`GF ${num(d.groundFault.pickupA)} A`);
       return parts.join(' · ');
@@ -375,7 +390,8 @@ export function fieldLabel(field: string | undefined): string {
   if (!field) return '';
   let f = field;
   for (;;) {
-    if (FIELD_LABELS[f]) return f === field ? FIELD_LABELS[f] : `${FIELD_LABELS[f]} (${field.slice(f.length).replace(/^\./, '')})`;
+    if (FIELD_LABELS[f])
+      return f === field ? FIELD_LABELS[f] : `${FIELD_LABELS[f]} (${field.slice(f.length).replace(/^\./, '')})`;
     const cut = Math.max(f.lastIndexOf('.'), f.lastIndexOf('['));
     if (cut <= 0) return field;
     f = f.slice(0, cut);
@@ -387,7 +403,9 @@ export function issuePlace(li: LocatedIssue, model: ModelInput | undefined): str
   const parts: string[] = [];
   if (li.collection) parts.push(COLLECTION_LABELS[li.collection].plural);
   if (li.collection && li.index !== undefined) {
-    const id = li.issue.elementId ?? (model ? (itemsOf(model, li.collection)[li.index] as { id?: string } | undefined)?.id : undefined);
+    const id =
+      li.issue.elementId ??
+      (model ? (itemsOf(model, li.collection)[li.index] as { id?: string } | undefined)?.id : undefined);
     parts.push(id ? id : `#${li.index + 1}`);
   }
   if (li.field) parts.push(fieldLabel(li.field));

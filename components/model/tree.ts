@@ -49,7 +49,15 @@ interface RowBase {
 
 export type TreeRow =
   | (RowBase & { kind: 'heading'; text: string })
-  | (RowBase & { kind: 'source'; ref: ElementRef; id: string; label: string; text: string; devices: DeviceMarker[]; note?: string })
+  | (RowBase & {
+      kind: 'source';
+      ref: ElementRef;
+      id: string;
+      label: string;
+      text: string;
+      devices: DeviceMarker[];
+      note?: string;
+    })
   | (RowBase & {
       kind: 'bus';
       ref: ElementRef;
@@ -65,7 +73,11 @@ export type TreeRow =
   | (RowBase & { kind: 'unconnected'; ref: ElementRef; id: string; text: string });
 
 /** A row before its place in the tree is known. */
-type RowData = TreeRow extends infer R ? (R extends TreeRow ? Omit<R, 'guides' | 'last' | 'hasChildren' | 'depth'> : never) : never;
+type RowData = TreeRow extends infer R
+  ? R extends TreeRow
+    ? Omit<R, 'guides' | 'last' | 'hasChildren' | 'depth'>
+    : never
+  : never;
 
 interface Node {
   row: RowData;
@@ -95,7 +107,12 @@ function branchText(collection: BranchCollection, b: TransformerInput | CableInp
 
 function sourceText(s: SourceInput): string {
   if (s.kind === 'utility') {
-    const sc = s.shortCircuitMva !== undefined ? `${num(s.shortCircuitMva)} MVA` : s.shortCircuitKa !== undefined ? `${num(s.shortCircuitKa)} kA` : '—';
+    const sc =
+      s.shortCircuitMva !== undefined
+        ? `${num(s.shortCircuitMva)} MVA`
+        : s.shortCircuitKa !== undefined
+          ? `${num(s.shortCircuitKa)} kA`
+          : '—';
     return `Utility · ${sc} · X/R ${num(s.xr)}`;
   }
   return `Generator · ${num(s.kva)} kVA · X″d ${num(s.subtransientPct)} %`;
@@ -119,7 +136,12 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
   devices.forEach((d, i) => {
     const on = d.branch ?? d.source;
     if (!on) return;
-    const marker: DeviceMarker = { collection: 'devices', index: i, id: d.id, ...(d.branch !== undefined && d.end ? { end: d.end } : {}) };
+    const marker: DeviceMarker = {
+      collection: 'devices',
+      index: i,
+      id: d.id,
+      ...(d.branch !== undefined && d.end ? { end: d.end } : {}),
+    };
     const list = devicesOn.get(on);
     if (list) list.push(marker);
     else devicesOn.set(on, [marker]);
@@ -132,11 +154,24 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
   const openTies: Edge[] = [];
   const addBranches = (collection: BranchCollection, items: readonly (TransformerInput | CableInput | TieInput)[]) =>
     items.forEach((b, index) => {
-      const e: Edge = { collection, index, id: b.id, fromBus: b.fromBus, toBus: b.toBus, text: branchText(collection, b) };
+      const e: Edge = {
+        collection,
+        index,
+        id: b.id,
+        fromBus: b.fromBus,
+        toBus: b.toBus,
+        text: branchText(collection, b),
+      };
       if (!busIndex.has(b.fromBus) || !busIndex.has(b.toBus)) {
         const missing = [b.fromBus, b.toBus].filter((x) => !busIndex.has(x)).map((x) => (x ? `"${x}"` : '(none)'));
         unconnected.push({
-          row: { kind: 'unconnected', key: `${collection}[${index}]`, ref: { collection, index }, id: b.id, text: `unknown bus ${missing.join(' and ')}` },
+          row: {
+            kind: 'unconnected',
+            key: `${collection}[${index}]`,
+            ref: { collection, index },
+            id: b.id,
+            text: `unknown bus ${missing.join(' and ')}`,
+          },
           children: [],
         });
         return;
@@ -168,7 +203,13 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
   motors.forEach((m, i) => {
     if (!busIndex.has(m.bus)) {
       unconnected.push({
-        row: { kind: 'unconnected', key: `motors[${i}]`, ref: { collection: 'motors', index: i }, id: m.id, text: `unknown bus ${m.bus ? `"${m.bus}"` : '(none)'}` },
+        row: {
+          kind: 'unconnected',
+          key: `motors[${i}]`,
+          ref: { collection: 'motors', index: i },
+          id: m.id,
+          text: `unknown bus ${m.bus ? `"${m.bus}"` : '(none)'}`,
+        },
         children: [],
       });
       return;
@@ -186,7 +227,16 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
     const i = busIndex.get(busId)!;
     const b = buses[i];
     const node: Node = {
-      row: { kind: 'bus', key: `buses[${i}]`, ref: { collection: 'buses', index: i }, id: b.id, name: b.name, kv: `${num(b.nominalKv)} kV`, via, notes: [] },
+      row: {
+        kind: 'bus',
+        key: `buses[${i}]`,
+        ref: { collection: 'buses', index: i },
+        id: b.id,
+        name: b.name,
+        kv: `${num(b.nominalKv)} kV`,
+        via,
+        notes: [],
+      },
       children: [],
     };
     busNodes.set(busId, node);
@@ -234,7 +284,14 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
       for (const e of openTiesAt.get(at) ?? []) {
         const other = e.fromBus === at ? e.toBus : e.fromBus;
         leaves.push({
-          row: { kind: 'open-tie', key: `ties[${e.index}]@${at}`, ref: { collection: 'ties', index: e.index }, id: e.id, text: `open tie to ${other}`, devices: markers(e.id) },
+          row: {
+            kind: 'open-tie',
+            key: `ties[${e.index}]@${at}`,
+            ref: { collection: 'ties', index: e.index },
+            id: e.id,
+            text: `open tie to ${other}`,
+            devices: markers(e.id),
+          },
           children: [],
         });
       }
@@ -242,7 +299,14 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
         const m = motors[mi];
         const rating = m.hp !== undefined ? `${num(m.hp)} hp` : m.kva !== undefined ? `${num(m.kva)} kVA` : '—';
         leaves.push({
-          row: { kind: 'motor', key: `motors[${mi}]`, ref: { collection: 'motors', index: mi }, id: m.id, text: `${rating} · ${num(m.kv)} kV`, devices: markers(m.id) },
+          row: {
+            kind: 'motor',
+            key: `motors[${mi}]`,
+            ref: { collection: 'motors', index: mi },
+            id: m.id,
+            text: `${rating} · ${num(m.kv)} kV`,
+            devices: markers(m.id),
+          },
           children: [],
         });
       }
@@ -254,7 +318,15 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
   const roots: Node[] = [];
   sources.forEach((s, i) => {
     const sourceRow: Node = {
-      row: { kind: 'source', key: `sources[${i}]`, ref: { collection: 'sources', index: i }, id: s.id, label: s.kind === 'generator' ? 'GEN' : 'UTIL', text: sourceText(s), devices: markers(s.id) },
+      row: {
+        kind: 'source',
+        key: `sources[${i}]`,
+        ref: { collection: 'sources', index: i },
+        id: s.id,
+        label: s.kind === 'generator' ? 'GEN' : 'UTIL',
+        text: sourceText(s),
+        devices: markers(s.id),
+      },
       children: [],
     };
     if (!busIndex.has(s.bus)) {
@@ -263,7 +335,13 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
       const under = placed.get(s.bus)!;
       addNote(s.bus, `also fed from ${s.id}`);
       sourceRow.children.push({
-        row: { kind: 'seen-bus', key: `seen:${i}:${s.bus}`, id: s.bus, ref: { collection: 'buses', index: busIndex.get(s.bus)! }, text: `shown under ${under}` },
+        row: {
+          kind: 'seen-bus',
+          key: `seen:${i}:${s.bus}`,
+          id: s.bus,
+          ref: { collection: 'buses', index: busIndex.get(s.bus)! },
+          text: `shown under ${under}`,
+        },
         children: [],
       });
     } else {
@@ -281,7 +359,12 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
     islandRoots.push(grow(b.id, `island ${b.id}`));
   });
   if (islandRoots.length) {
-    rows.push(heading('islands', `Not fed from any source (${islandRoots.length === 1 ? '1 island' : `${islandRoots.length} islands`})`));
+    rows.push(
+      heading(
+        'islands',
+        `Not fed from any source (${islandRoots.length === 1 ? '1 island' : `${islandRoots.length} islands`})`,
+      ),
+    );
     for (const r of islandRoots) flatten(r, 0, [], true, rows);
   }
   if (unconnected.length) {

@@ -1,9 +1,24 @@
 import React, { useCallback, useId, useMemo, useState } from 'react';
-import { Pressable, View, type GestureResponderEvent, type LayoutChangeEvent, type PointerEvent as RNPointerEvent } from 'react-native';
+import {
+  Pressable,
+  View,
+  type GestureResponderEvent,
+  type LayoutChangeEvent,
+  type PointerEvent as RNPointerEvent,
+} from 'react-native';
 import Svg, { Circle, ClipPath, Defs, G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
 import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui/Text';
-import { boxesOverlap, densify, monoTextWidth, nearestPointOfBox, placeLabel, pointsInBox, stackLineLabels, type Box } from './labels';
+import {
+  boxesOverlap,
+  densify,
+  monoTextWidth,
+  nearestPointOfBox,
+  placeLabel,
+  pointsInBox,
+  stackLineLabels,
+  type Box,
+} from './labels';
 import { MAX_CURVE_WIDTH, MIN_CURVE_DASH, MIN_CURVE_WIDTH, seriesStyle, type SeriesStyle } from './palette';
 import {
   bandOutline,
@@ -105,7 +120,13 @@ function validRange(r: readonly [number, number] | undefined): [number, number] 
 }
 
 function prepareSeries(series: readonly TimeCurrentSeries[]): PreparedSeries[] {
-  return series.map((s, i) => ({ id: s.id, label: s.label, style: seriesStyle(i), min: cleanCurve(s.min), max: cleanCurve(s.max) }));
+  return series.map((s, i) => ({
+    id: s.id,
+    label: s.label,
+    style: seriesStyle(i),
+    min: cleanCurve(s.min),
+    max: cleanCurve(s.max),
+  }));
 }
 
 /** The current axis: as given, else the data, the verticals and the marks widened to whole decades (at least two). */
@@ -127,20 +148,37 @@ function currentDomain(
   return extendToDecades(extent[0], extent[1], 2);
 }
 
-function summary(props: TimeCurrentPlotProps, prepared: PreparedSeries[], iDom: [number, number], tDom: [number, number]): string {
+function summary(
+  props: TimeCurrentPlotProps,
+  prepared: PreparedSeries[],
+  iDom: [number, number],
+  tDom: [number, number],
+): string {
   const u = props.currentUnit;
   const parts = [
     `Time-current plot on log-log axes, current ${formatCurrent(iDom[0], u, true)} to ${formatCurrent(iDom[1], u, true)}, time ${formatTime(tDom[0], true)} to ${formatTime(tDom[1], true)}.`,
   ];
   const drawn = prepared.filter((s) => s.max.length > 0 || s.min.length > 0);
-  parts.push(drawn.length ? `Trip bands: ${drawn.map((s) => s.label).join('; ')}.` : props.emptyMessage ?? 'No trip band to show.');
-  for (const v of props.verticals ?? []) if (isPositive(v.currentA)) parts.push(`Line at ${v.label} ${formatCurrent(v.currentA, u)}.`);
+  parts.push(
+    drawn.length
+      ? `Trip bands: ${drawn.map((s) => s.label).join('; ')}.`
+      : (props.emptyMessage ?? 'No trip band to show.'),
+  );
+  for (const v of props.verticals ?? [])
+    if (isPositive(v.currentA)) parts.push(`Line at ${v.label} ${formatCurrent(v.currentA, u)}.`);
   for (const m of props.marks ?? []) parts.push(markSentence(m, u) + '.');
   return parts.join(' ');
 }
 
 function inRanges(m: TimeCurrentMark, iDom: [number, number], tDom: [number, number]): boolean {
-  return isPositive(m.currentA) && isPositive(m.timeS) && m.currentA >= iDom[0] && m.currentA <= iDom[1] && m.timeS >= tDom[0] && m.timeS <= tDom[1];
+  return (
+    isPositive(m.currentA) &&
+    isPositive(m.timeS) &&
+    m.currentA >= iDom[0] &&
+    m.currentA <= iDom[1] &&
+    m.timeS >= tDom[0] &&
+    m.timeS <= tDom[1]
+  );
 }
 
 function markSentence(m: TimeCurrentMark, unit: CurrentUnit): string {
@@ -179,7 +217,10 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
   }, []);
 
   const prepared = useMemo(() => prepareSeries(props.series), [props.series]);
-  const tDom = useMemo(() => validRange(props.timeRangeS) ?? ([...DEFAULT_TIME_RANGE_S] as [number, number]), [props.timeRangeS]);
+  const tDom = useMemo(
+    () => validRange(props.timeRangeS) ?? ([...DEFAULT_TIME_RANGE_S] as [number, number]),
+    [props.timeRangeS],
+  );
   const iDom = useMemo(
     () => currentDomain(props.currentRange, prepared, props.verticals, props.marks, currentUnit),
     [props.currentRange, prepared, props.verticals, props.marks, currentUnit],
@@ -188,7 +229,19 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
   const a11y = props.accessibilityLabel ?? summary(props, prepared, iDom, tDom);
 
   const g = useMemo(
-    () => (width > 0 ? layoutPlot({ width, height: props.height, iDom, tDom, unit: currentUnit, prepared, verticals: props.verticals ?? [], marks: props.marks ?? [] }) : null),
+    () =>
+      width > 0
+        ? layoutPlot({
+            width,
+            height: props.height,
+            iDom,
+            tDom,
+            unit: currentUnit,
+            prepared,
+            verticals: props.verticals ?? [],
+            marks: props.marks ?? [],
+          })
+        : null,
     [width, props.height, iDom, tDom, currentUnit, prepared, props.verticals, props.marks],
   );
 
@@ -231,15 +284,33 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
                   <Line key={`my${y}`} x1={0} x2={g.pw} y1={y} y2={y} stroke={colors.lineSoft} strokeWidth={1} />
                 ))}
                 {g.majorX.map((t) => (
-                  <Line key={`Mx${t.pos}`} x1={t.pos} x2={t.pos} y1={0} y2={g.ph} stroke={colors.line} strokeWidth={1} />
+                  <Line
+                    key={`Mx${t.pos}`}
+                    x1={t.pos}
+                    x2={t.pos}
+                    y1={0}
+                    y2={g.ph}
+                    stroke={colors.line}
+                    strokeWidth={1}
+                  />
                 ))}
                 {g.majorY.map((t) => (
-                  <Line key={`My${t.pos}`} x1={0} x2={g.pw} y1={t.pos} y2={t.pos} stroke={colors.line} strokeWidth={1} />
+                  <Line
+                    key={`My${t.pos}`}
+                    x1={0}
+                    x2={g.pw}
+                    y1={t.pos}
+                    y2={t.pos}
+                    stroke={colors.line}
+                    strokeWidth={1}
+                  />
                 ))}
                 <G clipPath={`url(#${clipId})`}>
                   {g.bands.map((b, bi) => (
                     <G key={`${bi}-${b.id}`}>
-                      {b.fill ? <Path d={b.fill} fill={b.style.fill} fillOpacity={b.style.fillOpacity} stroke="none" /> : null}
+                      {b.fill ? (
+                        <Path d={b.fill} fill={b.style.fill} fillOpacity={b.style.fillOpacity} stroke="none" />
+                      ) : null}
                       {b.min.map((d, i) => (
                         <Path
                           key={`n${i}`}
@@ -279,10 +350,38 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
                   ))}
                   {probe ? (
                     <G>
-                      <Line x1={probe.x} x2={probe.x} y1={0} y2={g.ph} stroke={colors.inkSoft} strokeOpacity={0.7} strokeWidth={1} strokeDasharray="4 3" />
-                      <Line x1={0} x2={g.pw} y1={probe.y} y2={probe.y} stroke={colors.inkSoft} strokeOpacity={0.7} strokeWidth={1} strokeDasharray="4 3" />
+                      <Line
+                        x1={probe.x}
+                        x2={probe.x}
+                        y1={0}
+                        y2={g.ph}
+                        stroke={colors.inkSoft}
+                        strokeOpacity={0.7}
+                        strokeWidth={1}
+                        strokeDasharray="4 3"
+                      />
+                      <Line
+                        x1={0}
+                        x2={g.pw}
+                        y1={probe.y}
+                        y2={probe.y}
+                        stroke={colors.inkSoft}
+                        strokeOpacity={0.7}
+                        strokeWidth={1}
+                        strokeDasharray="4 3"
+                      />
                       {readout?.rows.map((r) =>
-                        r.y !== null ? <Circle key={r.id} cx={probe.x} cy={r.y} r={4} fill={colors.surface} stroke={r.color} strokeWidth={2} /> : null,
+                        r.y !== null ? (
+                          <Circle
+                            key={r.id}
+                            cx={probe.x}
+                            cy={r.y}
+                            r={4}
+                            fill={colors.surface}
+                            stroke={r.color}
+                            strokeWidth={2}
+                          />
+                        ) : null,
                       )}
                     </G>
                   ) : null}
@@ -295,8 +394,22 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
                 </G>
                 {g.verticals.map((v, i) => (
                   <G key={`vl${i}`}>
-                    <Rect x={v.box.x - 2} y={v.box.y} width={v.box.width + 4} height={v.box.height} rx={3} fill={colors.surface} fillOpacity={0.9} />
-                    <SvgText x={v.box.x} y={v.box.y + v.box.height - 4} fontFamily={fonts.numbers} fontSize={g.labelFont} fill={colors.ink}>
+                    <Rect
+                      x={v.box.x - 2}
+                      y={v.box.y}
+                      width={v.box.width + 4}
+                      height={v.box.height}
+                      rx={3}
+                      fill={colors.surface}
+                      fillOpacity={0.9}
+                    />
+                    <SvgText
+                      x={v.box.x}
+                      y={v.box.y + v.box.height - 4}
+                      fontFamily={fonts.numbers}
+                      fontSize={g.labelFont}
+                      fill={colors.ink}
+                    >
                       {v.text}
                     </SvgText>
                   </G>
@@ -304,8 +417,24 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
                 {g.marks.map((m, i) => (
                   <G key={`ml${i}`}>
                     {m.leader ? <Line {...m.leader} stroke={colors.inkSoft} strokeWidth={1} /> : null}
-                    <Rect x={m.box.x - 2} y={m.box.y} width={m.box.width + 4} height={m.box.height} rx={3} fill={colors.surface} fillOpacity={0.92} stroke={m.color} strokeWidth={1} />
-                    <SvgText x={m.box.x} y={m.box.y + m.box.height - 4} fontFamily={fonts.numbers} fontSize={g.labelFont} fill={colors.ink}>
+                    <Rect
+                      x={m.box.x - 2}
+                      y={m.box.y}
+                      width={m.box.width + 4}
+                      height={m.box.height}
+                      rx={3}
+                      fill={colors.surface}
+                      fillOpacity={0.92}
+                      stroke={m.color}
+                      strokeWidth={1}
+                    />
+                    <SvgText
+                      x={m.box.x}
+                      y={m.box.y + m.box.height - 4}
+                      fontFamily={fonts.numbers}
+                      fontSize={g.labelFont}
+                      fill={colors.ink}
+                    >
                       {m.text}
                     </SvgText>
                   </G>
@@ -359,10 +488,32 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
             {empty ? (
               <View
                 pointerEvents="none"
-                style={{ position: 'absolute', left: g.left, top: g.top, width: g.pw, height: g.ph, alignItems: 'center', justifyContent: 'center', padding: space.lg }}
+                style={{
+                  position: 'absolute',
+                  left: g.left,
+                  top: g.top,
+                  width: g.pw,
+                  height: g.ph,
+                  alignItems: 'center',
+                  justifyContent: 'center',
+                  padding: space.lg,
+                }}
               >
-                <View style={{ backgroundColor: colors.surface, borderRadius: radius.md, borderWidth: 1, borderColor: colors.line, paddingVertical: space.md, paddingHorizontal: space.lg }}>
-                  <T variant="small" style={{ color: colors.inkSoft, textAlign: 'center' }} testID={testID ? `${testID}-empty` : undefined}>
+                <View
+                  style={{
+                    backgroundColor: colors.surface,
+                    borderRadius: radius.md,
+                    borderWidth: 1,
+                    borderColor: colors.line,
+                    paddingVertical: space.md,
+                    paddingHorizontal: space.lg,
+                  }}
+                >
+                  <T
+                    variant="small"
+                    style={{ color: colors.inkSoft, textAlign: 'center' }}
+                    testID={testID ? `${testID}-empty` : undefined}
+                  >
                     {props.emptyMessage ?? 'No trip band to show.'}
                   </T>
                 </View>
@@ -378,14 +529,28 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
                   if (type === 'mouse' || type === 'pen') setHover(toProbe(localPoint(e)));
                 }}
                 onPointerLeave={() => setHover(null)}
-                style={{ position: 'absolute', left: g.left, top: g.top, width: g.pw, height: g.ph, cursor: 'crosshair' } as never}
+                style={
+                  {
+                    position: 'absolute',
+                    left: g.left,
+                    top: g.top,
+                    width: g.pw,
+                    height: g.ph,
+                    cursor: 'crosshair',
+                  } as never
+                }
               />
             )}
             {readout && probe && !narrow ? (
               <View
                 pointerEvents="none"
                 testID={testID ? `${testID}-readout` : undefined}
-                style={{ position: 'absolute', left: g.left + readoutSpot(g, readout, probe).x, top: g.top + readoutSpot(g, readout, probe).y, width: readoutSize(readout, g.pw).width }}
+                style={{
+                  position: 'absolute',
+                  left: g.left + readoutSpot(g, readout, probe).x,
+                  top: g.top + readoutSpot(g, readout, probe).y,
+                  width: readoutSize(readout, g.pw).width,
+                }}
               >
                 <ReadoutBox readout={readout} floating />
               </View>
@@ -437,7 +602,10 @@ interface Readout {
 function readoutSize(r: Readout, pw: number): { width: number; height: number } {
   const head = monoTextWidth(r.head, 14);
   const rows = Math.max(0, ...r.rows.map((row) => 22 + 8 + row.label.length * 6.8 + 12 + monoTextWidth(row.text, 13)));
-  return { width: Math.min(Math.max(head, rows) + 2 * space.md + 2, 380, pw - 16), height: 2 * space.sm + 22 + r.rows.length * 21 };
+  return {
+    width: Math.min(Math.max(head, rows) + 2 * space.md + 2, 380, pw - 16),
+    height: 2 * space.sm + 22 + r.rows.length * 21,
+  };
 }
 
 /**
@@ -514,7 +682,13 @@ function ReadoutBox({ readout, floating, onClear }: { readout: Readout; floating
       <View style={{ flexDirection: 'row', alignItems: 'center', justifyContent: 'space-between', gap: space.md }}>
         <T style={{ fontFamily: fonts.numbersBold, fontSize: 14, lineHeight: 20, color: colors.ink }}>{readout.head}</T>
         {onClear ? (
-          <Pressable accessibilityRole="button" accessibilityLabel="Clear the reading" onPress={onClear} hitSlop={12} style={{ paddingHorizontal: space.sm, paddingVertical: 2 }}>
+          <Pressable
+            accessibilityRole="button"
+            accessibilityLabel="Clear the reading"
+            onPress={onClear}
+            hitSlop={12}
+            style={{ paddingHorizontal: space.sm, paddingVertical: 2 }}
+          >
             <T style={{ color: colors.accent, fontFamily: fonts.textMedium, fontSize: 14 }}>Clear</T>
           </Pressable>
         ) : null}
@@ -522,10 +696,15 @@ function ReadoutBox({ readout, floating, onClear }: { readout: Readout; floating
       {readout.rows.map((r) => (
         <View key={r.id} style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
           <Swatch color={r.color} dash={r.dash} width={22} band={false} />
-          <T numberOfLines={1} style={{ fontFamily: fonts.text, fontSize: 13, lineHeight: 18, color: colors.inkSoft, flexShrink: 1 }}>
+          <T
+            numberOfLines={1}
+            style={{ fontFamily: fonts.text, fontSize: 13, lineHeight: 18, color: colors.inkSoft, flexShrink: 1 }}
+          >
             {r.label}
           </T>
-          <T style={{ fontFamily: fonts.numbers, fontSize: 13, lineHeight: 18, color: colors.ink, marginLeft: 'auto' }}>{r.text}</T>
+          <T style={{ fontFamily: fonts.numbers, fontSize: 13, lineHeight: 18, color: colors.ink, marginLeft: 'auto' }}>
+            {r.text}
+          </T>
         </View>
       ))}
     </View>
@@ -533,13 +712,42 @@ function ReadoutBox({ readout, floating, onClear }: { readout: Readout; floating
 }
 
 /** Legend key of a device: its band (shaded, heavy maximum line on top, dotted minimum below) or just its line. */
-function Swatch({ color, dash, width = 34, band = true }: { color: string; dash: string; width?: number; band?: boolean }) {
+function Swatch({
+  color,
+  dash,
+  width = 34,
+  band = true,
+}: {
+  color: string;
+  dash: string;
+  width?: number;
+  band?: boolean;
+}) {
   const h = band ? 18 : 10;
   return (
     <Svg width={width} height={h}>
       {band ? <Rect x={0} y={3} width={width} height={12} fill={color} fillOpacity={0.16} /> : null}
-      <Line x1={0} x2={width} y1={band ? 3.5 : h / 2} y2={band ? 3.5 : h / 2} stroke={color} strokeWidth={MAX_CURVE_WIDTH} strokeDasharray={dash || undefined} />
-      {band ? <Line x1={1} x2={width} y1={14.5} y2={14.5} stroke={color} strokeWidth={MIN_CURVE_WIDTH} strokeDasharray={MIN_CURVE_DASH} strokeLinecap="round" /> : null}
+      <Line
+        x1={0}
+        x2={width}
+        y1={band ? 3.5 : h / 2}
+        y2={band ? 3.5 : h / 2}
+        stroke={color}
+        strokeWidth={MAX_CURVE_WIDTH}
+        strokeDasharray={dash || undefined}
+      />
+      {band ? (
+        <Line
+          x1={1}
+          x2={width}
+          y1={14.5}
+          y2={14.5}
+          stroke={color}
+          strokeWidth={MIN_CURVE_WIDTH}
+          strokeDasharray={MIN_CURVE_DASH}
+          strokeLinecap="round"
+        />
+      ) : null}
     </Svg>
   );
 }
@@ -551,9 +759,14 @@ function Legend({ series }: { series: PreparedSeries[] }) {
     <View style={{ gap: space.sm }}>
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', columnGap: space.lg, rowGap: space.sm }}>
         {shown.map((s, i) => (
-          <View key={`${i}-${s.id}`} style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm, maxWidth: '100%' }}>
+          <View
+            key={`${i}-${s.id}`}
+            style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm, maxWidth: '100%' }}
+          >
             <Swatch color={s.style.color} dash={s.style.maxDash} band={s.min.length > 0 && s.max.length > 0} />
-            <T style={{ fontFamily: fonts.textMedium, fontSize: 14, lineHeight: 20, color: colors.ink, flexShrink: 1 }}>{s.label}</T>
+            <T style={{ fontFamily: fonts.textMedium, fontSize: 14, lineHeight: 20, color: colors.ink, flexShrink: 1 }}>
+              {s.label}
+            </T>
           </View>
         ))}
       </View>
@@ -591,7 +804,14 @@ interface PlotGeometry {
   minorY: number[];
   bands: { id: string; style: SeriesStyle; fill: string | null; max: string[]; min: string[] }[];
   verticals: { x: number; tone: 'full' | 'reduced' | 'neutral'; text: string; box: Box }[];
-  marks: { x: number; y: number; color: string; text: string; box: Box; leader: { x1: number; y1: number; x2: number; y2: number } | null }[];
+  marks: {
+    x: number;
+    y: number;
+    color: string;
+    text: string;
+    box: Box;
+    leader: { x1: number; y1: number; x2: number; y2: number } | null;
+  }[];
   /** Pixel points along the drawn curves (inside the plot area), for keeping labels and the readout off them. */
   curvePoints: Px[];
   /** Boxes of the labels and dots drawn inside the plot area. */
@@ -614,7 +834,10 @@ function layoutPlot(args: {
   const labelFont = narrow ? 11 : 12;
   const yTicks = decadeTicks(tDom[0], tDom[1]);
   const xTicks = decadeTicks(iDom[0], iDom[1]);
-  const yLabelW = Math.max(...yTicks.major.map((v) => monoTextWidth(formatTimeTick(v), tickFont)), monoTextWidth('100', tickFont));
+  const yLabelW = Math.max(
+    ...yTicks.major.map((v) => monoTextWidth(formatTimeTick(v), tickFont)),
+    monoTextWidth('100', tickFont),
+  );
   const left = Math.ceil(yLabelW + 12);
   const right = narrow ? 12 : 18;
   const top = 24;
@@ -639,7 +862,11 @@ function layoutPlot(args: {
     const anchor = pos < xLabelW / 2 ? 'start' : pos > pw - xLabelW / 2 ? 'end' : 'middle';
     return { pos, label: keep(v, xStep) ? formatCurrentTick(v, unit) : null, anchor };
   });
-  const majorY: AxisTick[] = yTicks.major.map((v) => ({ pos: ys.toPx(v), label: keep(v, yStep) ? formatTimeTick(v) : null, anchor: 'end' }));
+  const majorY: AxisTick[] = yTicks.major.map((v) => ({
+    pos: ys.toPx(v),
+    label: keep(v, yStep) ? formatTimeTick(v) : null,
+    anchor: 'end',
+  }));
   const minorX = xs.pxPerDecade >= 18 ? xTicks.minor.map((v) => xs.toPx(v)) : [];
   const minorY = ys.pxPerDecade >= 18 ? yTicks.minor.map((v) => ys.toPx(v)) : [];
 
@@ -662,14 +889,24 @@ function layoutPlot(args: {
   const bands = prepared.map((s) => {
     const outline = bandOutline(s.max, s.min);
     const poly = outline ? clipPolygon(toLog(outline), rect) : [];
-    return { id: s.id, style: s.style, fill: poly.length ? pathData(poly.map(toPx), true) : null, max: lines(s.max), min: lines(s.min) };
+    return {
+      id: s.id,
+      style: s.style,
+      fill: poly.length ? pathData(poly.map(toPx), true) : null,
+      max: lines(s.max),
+      min: lines(s.min),
+    };
   });
 
   // Vertical lines and their labels, stacked in rows at the top of the plot.
   const rowH = labelFont + 6;
   const vIn = args.verticals
     .filter((v) => isPositive(v.currentA) && v.currentA >= iDom[0] && v.currentA <= iDom[1])
-    .map((v) => ({ x: xs.toPx(v.currentA), tone: v.tone ?? 'neutral', text: `${v.label} ${formatCurrent(v.currentA, unit)}` }));
+    .map((v) => ({
+      x: xs.toPx(v.currentA),
+      tone: v.tone ?? 'neutral',
+      text: `${v.label} ${formatCurrent(v.currentA, unit)}`,
+    }));
   const stacked = stackLineLabels(
     vIn.map((v) => ({ x: v.x, width: monoTextWidth(v.text, labelFont) })),
     2,
@@ -691,7 +928,14 @@ function layoutPlot(args: {
   const linesX = verticals.map((v) => v.x);
   const marks = dots.map(({ m, x, y }) => {
     const text = `${m.label} ${formatTime(m.timeS)}`;
-    const box = placeLabel([x, y], monoTextWidth(text, labelFont), rowH, bounds, { boxes, linesX, points: curvePoints }, 10);
+    const box = placeLabel(
+      [x, y],
+      monoTextWidth(text, labelFont),
+      rowH,
+      bounds,
+      { boxes, linesX, points: curvePoints },
+      10,
+    );
     boxes.push({ ...box, x: box.x - 2, width: box.width + 4 });
     // A leader from the dot's rim to a label that sits away from it.
     const [nx, ny] = nearestPointOfBox([x, y], { ...box, x: box.x - 2, width: box.width + 4 });
@@ -701,5 +945,27 @@ function layoutPlot(args: {
   });
 
   const labelBoxes = boxes;
-  return { width, height, left, top, right, pw, ph, unit, tickFont, labelFont, xs, ys, majorX, majorY, minorX, minorY, bands, verticals, marks, curvePoints, labelBoxes };
+  return {
+    width,
+    height,
+    left,
+    top,
+    right,
+    pw,
+    ph,
+    unit,
+    tickFont,
+    labelFont,
+    xs,
+    ys,
+    majorX,
+    majorY,
+    minorX,
+    minorY,
+    bands,
+    verticals,
+    marks,
+    curvePoints,
+    labelBoxes,
+  };
 }

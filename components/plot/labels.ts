@@ -18,11 +18,18 @@ export function monoTextWidth(text: string, fontSize: number): number {
 }
 
 export function boxesOverlap(a: Box, b: Box, gap = 0): boolean {
-  return a.x < b.x + b.width + gap && b.x < a.x + a.width + gap && a.y < b.y + b.height + gap && b.y < a.y + a.height + gap;
+  return (
+    a.x < b.x + b.width + gap && b.x < a.x + a.width + gap && a.y < b.y + b.height + gap && b.y < a.y + a.height + gap
+  );
 }
 
 export function boxInside(b: Box, bounds: Box): boolean {
-  return b.x >= bounds.x && b.y >= bounds.y && b.x + b.width <= bounds.x + bounds.width && b.y + b.height <= bounds.y + bounds.height;
+  return (
+    b.x >= bounds.x &&
+    b.y >= bounds.y &&
+    b.x + b.width <= bounds.x + bounds.width &&
+    b.y + b.height <= bounds.y + bounds.height
+  );
 }
 
 /** How many of the points lie in the box. */
@@ -63,7 +70,14 @@ export interface Obstacles {
  * line 20, each curve point covered 1, plus the distance from the anchor / 20 (nearer first) and 0.05 per place in the list (right-above
  * first). The lowest wins.
  */
-export function placeLabel(anchor: Px, width: number, height: number, bounds: Box, obstacles: Obstacles, offset = 10): Box {
+export function placeLabel(
+  anchor: Px,
+  width: number,
+  height: number,
+  bounds: Box,
+  obstacles: Obstacles,
+  offset = 10,
+): Box {
   const [x, y] = anchor;
   const candidates: Box[] = [];
   for (const k of [1, 2, 3.5, 5.5]) {
@@ -75,7 +89,10 @@ export function placeLabel(anchor: Px, width: number, height: number, bounds: Bo
       { x: x - offset - width, y: y + d - offset * 0.3, width, height },
     );
   }
-  candidates.push({ x: x + offset + 2, y: y - height / 2, width, height }, { x: x - offset - 2 - width, y: y - height / 2, width, height });
+  candidates.push(
+    { x: x + offset + 2, y: y - height / 2, width, height },
+    { x: x - offset - 2 - width, y: y - height / 2, width, height },
+  );
   let best = candidates[0];
   let bestScore = Infinity;
   candidates.forEach((c, index) => {
@@ -116,7 +133,8 @@ export function stackLineLabels(
   const allX = lines.map((l) => l.x);
   const fits = (x0: number, x1: number, row: number) =>
     x0 >= left && x1 <= right && !(rows[row] ?? []).some((s) => x0 < s.x1 + gap && s.x0 < x1 + gap);
-  const crosses = (x0: number, x1: number, own: number) => allX.some((lx, j) => j !== own && lx > x0 - 2 && lx < x1 + 2);
+  const crosses = (x0: number, x1: number, own: number) =>
+    allX.some((lx, j) => j !== own && lx > x0 - 2 && lx < x1 + 2);
   return lines.map(({ x, width }, i) => {
     const sides = [
       { leftOfLine: false, x0: x + pad },
@@ -128,7 +146,8 @@ export function stackLineLabels(
           if (fits(s.x0, s.x0 + width, row) && (!avoidLines || !crosses(s.x0, s.x0 + width, i))) return { ...s, row };
         }
         // Wider than the plot: pin it to the left edge of a free row.
-        if (!avoidLines && width > right - left && !(rows[row] ?? []).length) return { leftOfLine: false, x0: left, row };
+        if (!avoidLines && width > right - left && !(rows[row] ?? []).length)
+          return { leftOfLine: false, x0: left, row };
       }
       return null;
     };

@@ -308,8 +308,12 @@ function clipSegment(a: Px, b: Px, r: LogRect): [Px, Px] | null {
 /** Clips a closed polygon (log space) to a rectangle (Sutherland–Hodgman). Returns [] when nothing is inside. */
 export function clipPolygon(points: readonly Px[], rect: LogRect): Px[] {
   type Edge = { inside: (p: Px) => boolean; cut: (a: Px, b: Px) => Px };
-  const cutX = (x: number) => (a: Px, b: Px): Px => [x, a[1] + ((b[1] - a[1]) * (x - a[0])) / (b[0] - a[0])];
-  const cutY = (y: number) => (a: Px, b: Px): Px => [a[0] + ((b[0] - a[0]) * (y - a[1])) / (b[1] - a[1]), y];
+  const cutX =
+    (x: number) =>
+    (a: Px, b: Px): Px => [x, a[1] + ((b[1] - a[1]) * (x - a[0])) / (b[0] - a[0])];
+  const cutY =
+    (y: number) =>
+    (a: Px, b: Px): Px => [a[0] + ((b[0] - a[0]) * (y - a[1])) / (b[1] - a[1]), y];
   const edges: Edge[] = [
     { inside: (p) => p[0] >= rect.x0, cut: cutX(rect.x0) },
     { inside: (p) => p[0] <= rect.x1, cut: cutX(rect.x1) },

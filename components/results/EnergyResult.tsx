@@ -25,12 +25,25 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
   return (
     <View style={{ gap: space.md }} testID="energy-result">
       <View style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }}>
-        <View style={{ backgroundColor: panel.background, flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.md }}>
+        <View
+          style={{
+            backgroundColor: panel.background,
+            flexDirection: 'row',
+            alignItems: 'center',
+            gap: space.sm,
+            padding: space.md,
+          }}
+        >
           <HazardMark size={26} />
-          <T style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 22, letterSpacing: 1 }} testID="signal-word">
+          <T
+            style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 22, letterSpacing: 1 }}
+            testID="signal-word"
+          >
             {lv.signalWord}
           </T>
-          <T style={{ color: panel.text, fontFamily: fonts.textMedium, fontSize: 13, marginLeft: 'auto' }}>PRELIMINARY</T>
+          <T style={{ color: panel.text, fontFamily: fonts.textMedium, fontSize: 13, marginLeft: 'auto' }}>
+            PRELIMINARY
+          </T>
         </View>
         <View style={{ backgroundColor: colors.surface, padding: space.md, gap: space.xs }}>
           <T variant="label">INCIDENT ENERGY AT {fmtLength(result.workingDistanceMm, unit).toUpperCase()}</T>
@@ -48,11 +61,16 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
         </Notice>
       ) : null}
       {result.warnings.length ? (
-        <Notice tone="warning" title={`${result.warnings.length} warning${result.warnings.length > 1 ? 's' : ''}`} testID="energy-warnings">
+        <Notice
+          tone="warning"
+          title={`${result.warnings.length} warning${result.warnings.length > 1 ? 's' : ''}`}
+          testID="energy-warnings"
+        >
           <View style={{ gap: 4 }}>
             {result.warnings.map((w) => (
               <T key={w.code + w.message} style={{ color: colors.caution }}>
-                <T style={{ fontFamily: fonts.numbersBold, color: colors.caution, fontSize: 13 }}>{w.code}</T> {w.message}
+                <T style={{ fontFamily: fonts.numbersBold, color: colors.caution, fontSize: 13 }}>{w.code}</T>{' '}
+                {w.message}
               </T>
             ))}
           </View>
@@ -122,8 +140,8 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
                   {k.arcDurationCapped ? ` (capped from ${fmt(k.requestedArcDurationMs)} ms)` : ''}
                 </T>
                 <T variant="small">
-                  Energy <T style={{ fontFamily: fonts.numbers }}>{fmt(k.incidentEnergyCalPerCm2)} cal/cm²</T> · boundary{' '}
-                  <T style={{ fontFamily: fonts.numbers }}>{fmtLength(k.arcFlashBoundaryMm, unit)}</T>
+                  Energy <T style={{ fontFamily: fonts.numbers }}>{fmt(k.incidentEnergyCalPerCm2)} cal/cm²</T> ·
+                  boundary <T style={{ fontFamily: fonts.numbers }}>{fmtLength(k.arcFlashBoundaryMm, unit)}</T>
                 </T>
               </View>
             );

@@ -26,7 +26,10 @@ function ChangePassword() {
     change.mutate(v.data, {
       onSuccess: () => {
         setForm({ currentPassword: '', newPassword: '', confirm: '' });
-        setMessage({ tone: 'ok', text: 'Password changed. You stay signed in here; every other device was signed out.' });
+        setMessage({
+          tone: 'ok',
+          text: 'Password changed. You stay signed in here; every other device was signed out.',
+        });
       },
       onError: (e) => {
         const s = serverErrors(e);
@@ -44,10 +47,38 @@ function ChangePassword() {
           {message.text}
         </Notice>
       ) : null}
-      <Field label="Current password" testID="current-password" value={form.currentPassword} onChangeText={set('currentPassword')} secureTextEntry autoComplete="current-password" error={errors.currentPassword} />
+      <Field
+        label="Current password"
+        testID="current-password"
+        value={form.currentPassword}
+        onChangeText={set('currentPassword')}
+        secureTextEntry
+        autoComplete="current-password"
+        error={errors.currentPassword}
+      />
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <Field label="New password" testID="new-password" value={form.newPassword} onChangeText={set('newPassword')} secureTextEntry autoComplete="new-password" error={errors.newPassword} hint="At least 10 characters" containerStyle={{ flexGrow: 1, flexBasis: 220 }} />
-        <Field label="New password again" testID="confirm-password" value={form.confirm} onChangeText={set('confirm')} secureTextEntry autoComplete="new-password" error={errors.confirm} onSubmitEditing={submit} containerStyle={{ flexGrow: 1, flexBasis: 220 }} />
+        <Field
+          label="New password"
+          testID="new-password"
+          value={form.newPassword}
+          onChangeText={set('newPassword')}
+          secureTextEntry
+          autoComplete="new-password"
+          error={errors.newPassword}
+          hint="At least 10 characters"
+          containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+        />
+        <Field
+          label="New password again"
+          testID="confirm-password"
+          value={form.confirm}
+          onChangeText={set('confirm')}
+          secureTextEntry
+          autoComplete="new-password"
+          error={errors.confirm}
+          onSubmitEditing={submit}
+          containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+        />
       </View>
       <View style={{ flexDirection: 'row' }}>
         <Button title="Change password" testID="change-password-submit" busy={change.isPending} onPress={submit} />

@@ -1,7 +1,12 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
 import { Pressable, View } from 'react-native';
-import { ATTENTION_LIST_INFO, type AttentionColumn, type AttentionList, type AttentionRow } from '../../shared/schemas/attention';
+import {
+  ATTENTION_LIST_INFO,
+  type AttentionColumn,
+  type AttentionList,
+  type AttentionRow,
+} from '../../shared/schemas/attention';
 import { FIELD_REPORT_STATUS_LABELS, type FieldReportStatus } from '../../shared/schemas/fieldReports';
 import { attentionCsvPath, useAttentionList } from '../../hooks/attention';
 import { fmtDate, fmtDateTime } from '../../hooks/dates';
@@ -20,14 +25,20 @@ export function rowHref(row: AttentionRow): string {
       return `/studies/${encodeURIComponent(row.link.id)}`;
     case 'label': {
       const code = row.cells.code;
-      return typeof code === 'string' && code ? `/labels/${encodeURIComponent(code)}` : `/labels?site=${encodeURIComponent(row.siteId)}`;
+      return typeof code === 'string' && code
+        ? `/labels/${encodeURIComponent(code)}`
+        : `/labels?site=${encodeURIComponent(row.siteId)}`;
     }
     case 'field-report':
       return `/reports/${encodeURIComponent(row.link.id)}`;
   }
 }
 
-const OPENS: Record<AttentionRow['link']['kind'], string> = { study: 'Open the study', label: 'Open the label', 'field-report': 'Open the report' };
+const OPENS: Record<AttentionRow['link']['kind'], string> = {
+  study: 'Open the study',
+  label: 'Open the label',
+  'field-report': 'Open the report',
+};
 
 /** Codes some lists carry in their cells, in words. */
 const CODE_WORDS: Record<string, (v: string) => string> = {
@@ -38,7 +49,8 @@ const CODE_WORDS: Record<string, (v: string) => string> = {
 function cellText(value: string | number | null | undefined, column: AttentionColumn, list?: AttentionList): string {
   if (value === null || value === undefined || value === '') return '—';
   if (column.kind === 'date' && typeof value === 'string') return value.length > 10 ? fmtDate(value) : value;
-  if (list === 'open-reports' && typeof value === 'string' && CODE_WORDS[column.key]) return CODE_WORDS[column.key](value);
+  if (list === 'open-reports' && typeof value === 'string' && CODE_WORDS[column.key])
+    return CODE_WORDS[column.key](value);
   return String(value);
 }
 
@@ -50,21 +62,31 @@ function columnFlex(column: AttentionColumn, rows: AttentionRow[]): number {
   return Math.min(3, Math.max(0.9, longest / 14));
 }
 
-function RowCard({ row, columns, showSite, list }: { row: AttentionRow; columns: AttentionColumn[]; showSite: boolean; list: AttentionList }) {
+function RowCard({
+  row,
+  columns,
+  showSite,
+  list,
+}: {
+  row: AttentionRow;
+  columns: AttentionColumn[];
+  showSite: boolean;
+  list: AttentionList;
+}) {
   const [first, ...rest] = columns;
   return (
     <Link href={rowHref(row) as never} asChild>
-      <Pressable
-        accessibilityRole="link"
-        testID={`attention-row-${row.id}`}
-        style={{ ...cardStyle, gap: space.xs }}
-      >
+      <Pressable accessibilityRole="link" testID={`attention-row-${row.id}`} style={{ ...cardStyle, gap: space.xs }}>
         <T variant="subheading">{first ? cellText(row.cells[first.key], first, list) : row.id}</T>
         {showSite ? <T variant="small">{row.siteName}</T> : null}
         <View>
           {rest.map((c) => (
             <ValueRow key={c.key} label={c.label}>
-              <T style={{ fontSize: 15, fontFamily: c.kind === 'text' ? fonts.text : fonts.numbers, textAlign: 'right' }}>{cellText(row.cells[c.key], c, list)}</T>
+              <T
+                style={{ fontSize: 15, fontFamily: c.kind === 'text' ? fonts.text : fonts.numbers, textAlign: 'right' }}
+              >
+                {cellText(row.cells[c.key], c, list)}
+              </T>
             </ValueRow>
           ))}
         </View>
@@ -96,9 +118,22 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
     <Screen
       title={d?.title ?? info.title}
       subtitle={d?.description ?? info.description}
-      actions={<Button title="Download CSV" kind="secondary" testID="download-csv" busy={downloading} disabled={!d} onPress={download} />}
+      actions={
+        <Button
+          title="Download CSV"
+          kind="secondary"
+          testID="download-csv"
+          busy={downloading}
+          disabled={!d}
+          onPress={download}
+        />
+      }
     >
-      <Link href={(siteId ? `/attention?siteId=${encodeURIComponent(siteId)}` : '/attention') as never} style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }} testID="back-to-dashboard">
+      <Link
+        href={(siteId ? `/attention?siteId=${encodeURIComponent(siteId)}` : '/attention') as never}
+        style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}
+        testID="back-to-dashboard"
+      >
         ← All lists
       </Link>
       <AttentionCaution />
@@ -119,7 +154,13 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
             <Table
               testID="attention-table"
               columns={[
-                ...d.columns.map((c) => ({ key: c.key, label: c.label, flex: columnFlex(c, d.rows), numeric: c.kind === 'number', mono: c.kind === 'date' })),
+                ...d.columns.map((c) => ({
+                  key: c.key,
+                  label: c.label,
+                  flex: columnFlex(c, d.rows),
+                  numeric: c.kind === 'number',
+                  mono: c.kind === 'date',
+                })),
                 { key: '__site', label: 'Site', flex: 1.6 },
               ]}
               rows={d.rows.map((r) => ({

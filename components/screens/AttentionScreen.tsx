@@ -1,7 +1,12 @@
 import { Link, useLocalSearchParams, useRouter } from 'expo-router';
 import React from 'react';
 import { Pressable, View } from 'react-native';
-import { ATTENTION_LIST_INFO, ATTENTION_LISTS, type AttentionList, type AttentionSummary } from '../../shared/schemas/attention';
+import {
+  ATTENTION_LIST_INFO,
+  ATTENTION_LISTS,
+  type AttentionList,
+  type AttentionSummary,
+} from '../../shared/schemas/attention';
 import { useAttentionSummary } from '../../hooks/attention';
 import { fmtDateTime } from '../../hooks/dates';
 import { useSites } from '../../hooks/queries';
@@ -35,11 +40,18 @@ export function AttentionCaution() {
   return (
     <View
       testID="attention-caution"
-      style={{ borderWidth: 1, borderColor: colors.line, borderRadius: radius.md, paddingVertical: space.sm, paddingHorizontal: space.md, backgroundColor: colors.surface }}
+      style={{
+        borderWidth: 1,
+        borderColor: colors.line,
+        borderRadius: radius.md,
+        paddingVertical: space.sm,
+        paddingHorizontal: space.md,
+        backgroundColor: colors.surface,
+      }}
     >
       <T variant="small" style={{ color: colors.inkSoft }}>
-        Dates and lists come from the recorded studies, labels and field reports in Emberline. The facility’s electrical safety program governs
-        what must be done and by when.
+        Dates and lists come from the recorded studies, labels and field reports in Emberline. The facility’s electrical
+        safety program governs what must be done and by when.
       </T>
     </View>
   );
@@ -60,7 +72,17 @@ export function SiteFilter({ siteId, onChange }: { siteId: string | null; onChan
   );
 }
 
-function CountCard({ list, count, siteId, wide }: { list: AttentionList; count: number; siteId: string | null; wide: boolean }) {
+function CountCard({
+  list,
+  count,
+  siteId,
+  wide,
+}: {
+  list: AttentionList;
+  count: number;
+  siteId: string | null;
+  wide: boolean;
+}) {
   const info = ATTENTION_LIST_INFO[list];
   const sev = SEVERITY[info.severity];
   const some = count > 0;
@@ -84,14 +106,22 @@ function CountCard({ list, count, siteId, wide }: { list: AttentionList; count: 
           gap: space.xs,
         }}
       >
-        <View style={{ flexDirection: 'row', alignItems: 'flex-start', justifyContent: 'space-between', gap: space.md }}>
+        <View
+          style={{ flexDirection: 'row', alignItems: 'flex-start', justifyContent: 'space-between', gap: space.md }}
+        >
           <View style={{ flexShrink: 1, gap: 2 }}>
             <T variant="subheading">{info.title}</T>
             <T variant="label" style={{ color: some ? colors.inkSoft : colors.muted }}>
               {some ? sev.word.toUpperCase() : 'NOTHING HERE'}
             </T>
           </View>
-          <Num value={String(count)} size={30} bold style={{ color: some ? colors.ink : colors.muted }} testID={`attention-count-${list}`} />
+          <Num
+            value={String(count)}
+            size={30}
+            bold
+            style={{ color: some ? colors.ink : colors.muted }}
+            testID={`attention-count-${list}`}
+          />
         </View>
         {wide ? <T variant="small">{info.description}</T> : null}
       </Pressable>
@@ -103,7 +133,10 @@ function CountCard({ list, count, siteId, wide }: { list: AttentionList; count: 
 export function AttentionCards({ summary, siteId }: { summary: AttentionSummary; siteId: string | null }) {
   const { wide } = useLayout();
   return (
-    <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap', gap: space.md }} testID="attention-cards">
+    <View
+      style={{ flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap', gap: space.md }}
+      testID="attention-cards"
+    >
       {ATTENTION_LISTS.map((l) => (
         <CountCard key={l} list={l} count={summary.counts[l] ?? 0} siteId={siteId} wide={wide} />
       ))}
@@ -123,11 +156,18 @@ export function OpenReportAges({ summary, siteId }: { summary: AttentionSummary;
     <Card testID="open-report-ages">
       <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
         <T variant="subheading">Open field reports by age</T>
-        <Link href={attentionHref('open-reports', siteId) as never} style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}>
+        <Link
+          href={attentionHref('open-reports', siteId) as never}
+          style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}
+        >
           {total ? 'Open the list →' : 'See the list →'}
         </Link>
       </View>
-      {total === 0 ? <T variant="small">No open field reports. Mismatches reported from the field appear here until they are resolved.</T> : null}
+      {total === 0 ? (
+        <T variant="small">
+          No open field reports. Mismatches reported from the field appear here until they are resolved.
+        </T>
+      ) : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.xl }}>
         {parts.map((p) => (
           <View key={p.label} style={{ gap: 2, minWidth: 90 }}>
@@ -147,7 +187,10 @@ function SiteBreakdown({ summary }: { summary: AttentionSummary }) {
     return (
       <Table
         testID="attention-sites"
-        columns={[{ key: 'site', label: 'Site', flex: 2 }, ...ATTENTION_LISTS.map((l) => ({ key: l, label: ATTENTION_SHORT[l], numeric: true }))]}
+        columns={[
+          { key: 'site', label: 'Site', flex: 2 },
+          ...ATTENTION_LISTS.map((l) => ({ key: l, label: ATTENTION_SHORT[l], numeric: true })),
+        ]}
         rows={summary.sites.map((s) => ({
           key: s.siteId,
           testID: `attention-site-${s.siteId}`,
@@ -158,7 +201,16 @@ function SiteBreakdown({ summary }: { summary: AttentionSummary }) {
                 const n = s.counts[l] ?? 0;
                 return [
                   l,
-                  <Link key={l} href={attentionHref(l, s.siteId) as never} style={{ textAlign: 'right', fontFamily: fonts.numbers, fontSize: 16, color: n ? colors.accent : colors.muted }}>
+                  <Link
+                    key={l}
+                    href={attentionHref(l, s.siteId) as never}
+                    style={{
+                      textAlign: 'right',
+                      fontFamily: fonts.numbers,
+                      fontSize: 16,
+                      color: n ? colors.accent : colors.muted,
+                    }}
+                  >
                     {String(n)}
                   </Link>,
                 ];
@@ -209,7 +261,14 @@ export function AttentionScreen() {
   const s = summary.data;
   const anything = !!s && ATTENTION_LISTS.some((l) => (s.counts[l] ?? 0) > 0);
   return (
-    <Screen title="Needs attention" subtitle={s ? `As of ${fmtDateTime(s.asOf)} · review interval ${s.reviewIntervalMonths} months · labels due installed ${s.notInstalledAfterDays} days after issue` : 'Studies, labels and field reports that need someone to act.'}>
+    <Screen
+      title="Needs attention"
+      subtitle={
+        s
+          ? `As of ${fmtDateTime(s.asOf)} · review interval ${s.reviewIntervalMonths} months · labels due installed ${s.notInstalledAfterDays} days after issue`
+          : 'Studies, labels and field reports that need someone to act.'
+      }
+    >
       <AttentionCaution />
       <SiteFilter siteId={siteId} onChange={setSiteId} />
       <QueryError error={summary.error} title="The dashboard could not be loaded" />

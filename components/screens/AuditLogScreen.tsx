@@ -39,26 +39,55 @@ function EventRow({ e, wide }: { e: AuditEventDto; wide: boolean }) {
   const who = e.actor ? e.actor.name : 'The system';
   if (wide) {
     return (
-      <View testID={`audit-event-${e.id}`} style={{ flexDirection: 'row', gap: space.md, paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
-        <T style={{ width: 130, fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft }}>{fmtDateTime(e.at).replace(' UTC', '')}</T>
+      <View
+        testID={`audit-event-${e.id}`}
+        style={{
+          flexDirection: 'row',
+          gap: space.md,
+          paddingHorizontal: space.lg,
+          paddingVertical: space.md,
+          borderBottomWidth: 1,
+          borderBottomColor: colors.lineSoft,
+        }}
+      >
+        <T style={{ width: 130, fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft }}>
+          {fmtDateTime(e.at).replace(' UTC', '')}
+        </T>
         <View style={{ width: 170, gap: 2 }}>
           <T style={{ fontSize: 15, fontFamily: fonts.textMedium }}>{who}</T>
-          {e.actor ? <T variant="small" numberOfLines={1}>{e.actor.email}</T> : null}
+          {e.actor ? (
+            <T variant="small" numberOfLines={1}>
+              {e.actor.email}
+            </T>
+          ) : null}
         </View>
         <View style={{ flex: 1, gap: 2 }}>
           <T style={{ fontSize: 15 }}>{e.description}</T>
-          <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>{e.action}</T>
+          <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>
+            {e.action}
+          </T>
         </View>
       </View>
     );
   }
   return (
-    <View testID={`audit-event-${e.id}`} style={{ paddingHorizontal: space.lg, paddingVertical: space.md, gap: 2, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
+    <View
+      testID={`audit-event-${e.id}`}
+      style={{
+        paddingHorizontal: space.lg,
+        paddingVertical: space.md,
+        gap: 2,
+        borderBottomWidth: 1,
+        borderBottomColor: colors.lineSoft,
+      }}
+    >
       <T style={{ fontSize: 15 }}>{e.description}</T>
       <T variant="small">
         {who} · {fmtDateTime(e.at)}
       </T>
-      <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>{e.action}</T>
+      <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>
+        {e.action}
+      </T>
     </View>
   );
 }
@@ -110,7 +139,9 @@ export function AuditLogScreen() {
     <Screen
       title="Audit log"
       subtitle="Every change to studies, labels, reports, people and settings: who, what and when. The log cannot be edited."
-      actions={<Button title="Export CSV" kind="secondary" testID="audit-export" busy={downloading} onPress={exportCsv} />}
+      actions={
+        <Button title="Export CSV" kind="secondary" testID="audit-export" busy={downloading} onPress={exportCsv} />
+      }
     >
       {scoped ? (
         <Notice testID="audit-scope">
@@ -123,14 +154,46 @@ export function AuditLogScreen() {
           </T>
         </Notice>
       ) : null}
-      <View style={{ gap: space.md, backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft, padding: space.lg }}>
-        <Field label="Search" testID="audit-search" value={q} onChangeText={setQ} placeholder="Name, tag, word…" autoCapitalize="none" />
+      <View
+        style={{
+          gap: space.md,
+          backgroundColor: colors.surface,
+          borderRadius: radius.lg,
+          borderWidth: 1,
+          borderColor: colors.lineSoft,
+          padding: space.lg,
+        }}
+      >
+        <Field
+          label="Search"
+          testID="audit-search"
+          value={q}
+          onChangeText={setQ}
+          placeholder="Name, tag, word…"
+          autoCapitalize="none"
+        />
         {wide || showFilters ? (
           <>
             <Choice label="About" value={action} onChange={setAction} options={ACTION_CHIPS} testID="audit-action" />
             <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-              <Field label="From" testID="audit-from" value={from} onChangeText={setFrom} placeholder="YYYY-MM-DD" error={fromError} containerStyle={{ flexGrow: 1, flexBasis: 160 }} />
-              <Field label="Until (including that day)" testID="audit-to" value={to} onChangeText={setTo} placeholder="YYYY-MM-DD" error={toError} containerStyle={{ flexGrow: 1, flexBasis: 160 }} />
+              <Field
+                label="From"
+                testID="audit-from"
+                value={from}
+                onChangeText={setFrom}
+                placeholder="YYYY-MM-DD"
+                error={fromError}
+                containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+              />
+              <Field
+                label="Until (including that day)"
+                testID="audit-to"
+                value={to}
+                onChangeText={setTo}
+                placeholder="YYYY-MM-DD"
+                error={toError}
+                containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+              />
             </View>
           </>
         ) : null}
@@ -150,7 +213,8 @@ export function AuditLogScreen() {
       {events.isLoading ? <Loading what="Loading the log…" /> : null}
       {events.data ? (
         <T variant="small" testID="audit-count">
-          {all.length === 1 ? '1 event' : `${all.length} events`} shown{events.hasNextPage ? ', newest first; more below' : ''}
+          {all.length === 1 ? '1 event' : `${all.length} events`} shown
+          {events.hasNextPage ? ', newest first; more below' : ''}
         </T>
       ) : null}
       {events.data && all.length === 0 ? (
@@ -161,12 +225,35 @@ export function AuditLogScreen() {
         </Empty>
       ) : null}
       {all.length ? (
-        <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }} testID="audit-events">
+        <View
+          style={{
+            backgroundColor: colors.surface,
+            borderRadius: radius.lg,
+            borderWidth: 1,
+            borderColor: colors.lineSoft,
+          }}
+          testID="audit-events"
+        >
           {wide ? (
-            <View style={{ flexDirection: 'row', gap: space.md, paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.line }}>
-              <T variant="label" style={{ width: 130 }}>WHEN (UTC)</T>
-              <T variant="label" style={{ width: 170 }}>WHO</T>
-              <T variant="label" style={{ flex: 1 }}>WHAT</T>
+            <View
+              style={{
+                flexDirection: 'row',
+                gap: space.md,
+                paddingHorizontal: space.lg,
+                paddingVertical: space.md,
+                borderBottomWidth: 1,
+                borderBottomColor: colors.line,
+              }}
+            >
+              <T variant="label" style={{ width: 130 }}>
+                WHEN (UTC)
+              </T>
+              <T variant="label" style={{ width: 170 }}>
+                WHO
+              </T>
+              <T variant="label" style={{ flex: 1 }}>
+                WHAT
+              </T>
             </View>
           ) : null}
           {all.map((e) => (
@@ -176,7 +263,13 @@ export function AuditLogScreen() {
       ) : null}
       {events.hasNextPage ? (
         <View style={{ flexDirection: 'row' }}>
-          <Button title="Load more" kind="secondary" testID="audit-load-more" busy={events.isFetchingNextPage} onPress={() => void events.fetchNextPage()} />
+          <Button
+            title="Load more"
+            kind="secondary"
+            testID="audit-load-more"
+            busy={events.isFetchingNextPage}
+            onPress={() => void events.fetchNextPage()}
+          />
         </View>
       ) : null}
     </Screen>

@@ -25,8 +25,19 @@ function LabelPreview({ b }: { b: BusResult }) {
   const lv = b.labelValues!;
   const panel = signalPanelColors(lv.signalWord);
   return (
-    <View style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }} testID="bus-label-values">
-      <View style={{ backgroundColor: panel.background, flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.md }}>
+    <View
+      style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }}
+      testID="bus-label-values"
+    >
+      <View
+        style={{
+          backgroundColor: panel.background,
+          flexDirection: 'row',
+          alignItems: 'center',
+          gap: space.sm,
+          padding: space.md,
+        }}
+      >
         <HazardMark size={24} />
         <T style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 20, letterSpacing: 1 }}>{lv.signalWord}</T>
       </View>
@@ -37,7 +48,10 @@ function LabelPreview({ b }: { b: BusResult }) {
           <Num value={fmt(lv.incidentEnergyJPerCm2)} unit="J/cm²" size={16} />
         </View>
         <ValueRow label="Arc-flash boundary">
-          <Num value={`${fmtLength(lv.arcFlashBoundaryMm, 'in')} (${fmtLength(lv.arcFlashBoundaryMm, 'mm')})`} size={14} />
+          <Num
+            value={`${fmtLength(lv.arcFlashBoundaryMm, 'in')} (${fmtLength(lv.arcFlashBoundaryMm, 'mm')})`}
+            size={14}
+          />
         </ValueRow>
         <ValueRow label="Minimum arc rating">
           <Num value={String(lv.minimumArcRatingCalPerCm2)} unit="cal/cm²" size={14} />
@@ -77,21 +91,30 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
         return (
           <View
             key={d.deviceId}
-            style={{ padding: space.sm, borderRadius: radius.sm, borderWidth: d.deviceId === c.clearingDeviceId ? 2 : 1, borderColor: d.deviceId === c.clearingDeviceId ? colors.ink : colors.lineSoft, gap: 2 }}
+            style={{
+              padding: space.sm,
+              borderRadius: radius.sm,
+              borderWidth: d.deviceId === c.clearingDeviceId ? 2 : 1,
+              borderColor: d.deviceId === c.clearingDeviceId ? colors.ink : colors.lineSoft,
+              gap: 2,
+            }}
           >
             <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}>
               <T style={{ fontFamily: fonts.numbersBold }}>
                 {d.deviceId}
                 {d.deviceId === c.clearingDeviceId ? ' · clears the arc' : decides ? ' · cuts off a source' : ''}
               </T>
-              <T style={{ fontFamily: fonts.numbers }}>{d.clearingTimeS === null ? 'does not clear' : `${fmt(d.clearingTimeS)} s`}</T>
+              <T style={{ fontFamily: fonts.numbers }}>
+                {d.clearingTimeS === null ? 'does not clear' : `${fmt(d.clearingTimeS)} s`}
+              </T>
             </View>
             <T variant="small">
               {d.name} · {d.location}
             </T>
             <T variant="small">
               Sees <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(d.currentA / 1000)} kA</T>
-              {d.kv !== busKv ? ` at ${fmt(d.kv)} kV` : ''} ({fmt(d.share * 100)} % of the fault) · {REGION_LABELS[d.region]}
+              {d.kv !== busKv ? ` at ${fmt(d.kv)} kV` : ''} ({fmt(d.share * 100)} % of the fault) ·{' '}
+              {REGION_LABELS[d.region]}
               {d.minimumTimeS !== null ? ` · minimum ${fmt(d.minimumTimeS)} s` : ''}
             </T>
           </View>
@@ -108,10 +131,22 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   const results = useResults(studyId);
   const bus = results.data?.results.buses.find((b) => b.busId === busId);
   const [selected, setSelected] = useState<string | null>(null);
-  const current = bus && bus.governing ? (bus.cases.find((c) => caseKey(c) === (selected ?? caseKey(bus.governing!))) ?? bus.cases[0]) : undefined;
+  const current =
+    bus && bus.governing
+      ? (bus.cases.find((c) => caseKey(c) === (selected ?? caseKey(bus.governing!))) ?? bus.cases[0])
+      : undefined;
 
   // Devices of the selected case that clear, fastest first (at most six on the plot).
-  const plotted = useMemo(() => (current ? current.devices.filter((d) => d.clearingTimeS !== null).sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number)).slice(0, 6) : []), [current]);
+  const plotted = useMemo(
+    () =>
+      current
+        ? current.devices
+            .filter((d) => d.clearingTimeS !== null)
+            .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))
+            .slice(0, 6)
+        : [],
+    [current],
+  );
   const modelDevices = (results.data?.model.devices ?? []) as { id: string; device: Device }[];
   const curves = useQueries({
     queries: plotted.map((d) => {
@@ -126,31 +161,66 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
     }),
   });
 
-  if (results.isLoading || study.isLoading) return <Screen title={busId}><T variant="small">Loading…</T></Screen>;
-  if (results.error) return <Screen title={busId}><Notice tone="error">{results.error.message}</Notice></Screen>;
-  if (!bus) return <Screen title={busId}><Notice tone="error">This bus has no result in the study.</Notice></Screen>;
+  if (results.isLoading || study.isLoading)
+    return (
+      <Screen title={busId}>
+        <T variant="small">Loading…</T>
+      </Screen>
+    );
+  if (results.error)
+    return (
+      <Screen title={busId}>
+        <Notice tone="error">{results.error.message}</Notice>
+      </Screen>
+    );
+  if (!bus)
+    return (
+      <Screen title={busId}>
+        <Notice tone="error">This bus has no result in the study.</Notice>
+      </Screen>
+    );
 
   const busKv = bus.nominalKv;
   const refer = (a: number, kv: number) => (a * kv) / busKv;
   const reviewed = study.data?.status === 'approved';
-  const iarc = (arcCase: 'full' | 'reduced') => bus.cases.find((c) => c.arcCase === arcCase && c.location === (current?.location ?? 'load-side'))?.arcingCurrentKa;
+  const iarc = (arcCase: 'full' | 'reduced') =>
+    bus.cases.find((c) => c.arcCase === arcCase && c.location === (current?.location ?? 'load-side'))?.arcingCurrentKa;
 
   const plot = current ? (
     <Card testID="trace-plot">
       <T variant="subheading">Trip bands at {fmt(busKv)} kV</T>
-      <T variant="small">Device currents referred to the bus voltage. Vertical lines: the bus arcing currents; dots: where each device clears the current it sees.</T>
+      <T variant="small">
+        Device currents referred to the bus voltage. Vertical lines: the bus arcing currents; dots: where each device
+        clears the current it sees.
+      </T>
       <TimeCurrentPlot
         testID="trace-tcc"
         currentUnit="A"
         series={plotted.flatMap((d, i) => {
           const data = curves[i]?.data;
-          return data ? [{ id: d.deviceId, label: `${d.deviceId} (${d.name})`, min: data.min.map(([a, t]) => [refer(a, d.kv), t] as const), max: data.max.map(([a, t]) => [refer(a, d.kv), t] as const) }] : [];
+          return data
+            ? [
+                {
+                  id: d.deviceId,
+                  label: `${d.deviceId} (${d.name})`,
+                  min: data.min.map(([a, t]) => [refer(a, d.kv), t] as const),
+                  max: data.max.map(([a, t]) => [refer(a, d.kv), t] as const),
+                },
+              ]
+            : [];
         })}
         verticals={[
           ...(iarc('full') ? [{ currentA: iarc('full')! * 1000, label: 'Full arcing', tone: 'full' as const }] : []),
-          ...(iarc('reduced') ? [{ currentA: iarc('reduced')! * 1000, label: 'Reduced arcing', tone: 'reduced' as const }] : []),
+          ...(iarc('reduced')
+            ? [{ currentA: iarc('reduced')! * 1000, label: 'Reduced arcing', tone: 'reduced' as const }]
+            : []),
         ]}
-        marks={plotted.map((d) => ({ currentA: refer(d.currentA, d.kv), timeS: d.clearingTimeS as number, label: d.deviceId, seriesId: d.deviceId }))}
+        marks={plotted.map((d) => ({
+          currentA: refer(d.currentA, d.kv),
+          timeS: d.clearingTimeS as number,
+          label: d.deviceId,
+          seriesId: d.deviceId,
+        }))}
         emptyMessage={plotted.length ? 'Loading the bands…' : 'No device clears in this case.'}
       />
     </Card>
@@ -160,7 +230,15 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
     <View style={{ gap: space.lg }}>
       <Card>
         <T variant="subheading">Cases</T>
-        <Choice value={caseKey(current)} onChange={setSelected} testID="case" options={bus.cases.map((c) => ({ value: caseKey(c), label: `${caseTitle(c)}${bus.governing && caseKey(c) === caseKey(bus.governing) ? ' · governs' : ''}` }))} />
+        <Choice
+          value={caseKey(current)}
+          onChange={setSelected}
+          testID="case"
+          options={bus.cases.map((c) => ({
+            value: caseKey(c),
+            label: `${caseTitle(c)}${bus.governing && caseKey(c) === caseKey(bus.governing) ? ' · governs' : ''}`,
+          }))}
+        />
         <T testID="trace-sentence" style={{ fontSize: 17, lineHeight: 25 }}>
           {current.sentence}
         </T>
@@ -181,7 +259,8 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
             <T variant="label">ENERGY BY INTERVAL (SOURCES CUT OFF ONE BY ONE)</T>
             {current.intervals.map((i) => (
               <T key={i.fromS} variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
-                {fmt(i.fromS)}–{fmt(i.toS)} s · {i.sourceIds.join(', ')} · Ibf {fmt(i.boltedFaultKa)} kA · Iarc {fmt(i.arcingCurrentKa)} kA · {fmt(i.incidentEnergyJPerCm2 / 4.184)} cal/cm²
+                {fmt(i.fromS)}–{fmt(i.toS)} s · {i.sourceIds.join(', ')} · Ibf {fmt(i.boltedFaultKa)} kA · Iarc{' '}
+                {fmt(i.arcingCurrentKa)} kA · {fmt(i.incidentEnergyJPerCm2 / 4.184)} cal/cm²
               </T>
             ))}
           </View>
@@ -195,7 +274,10 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   ) : null;
 
   return (
-    <Screen title={`${bus.busId} · ${bus.busName}`} subtitle={`Clearing trace · ${fmt(busKv)} kV · bolted fault ${fmt(bus.boltedFaultKa)} kA (X/R ${fmt(bus.xr)})`}>
+    <Screen
+      title={`${bus.busId} · ${bus.busName}`}
+      subtitle={`Clearing trace · ${fmt(busKv)} kV · bolted fault ${fmt(bus.boltedFaultKa)} kA (X/R ${fmt(bus.xr)})`}
+    >
       <Link href={`/studies/${studyId}?tab=results` as never} style={{ color: colors.accent, fontSize: 16 }}>
         ← All results
       </Link>
@@ -204,13 +286,22 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
           Not reviewed or approved: do not use for labels or work planning.
         </Notice>
       ) : null}
-      {bus.status === 'error' ? <Notice tone="error" title="This bus could not be evaluated">{bus.error?.message ?? ''}</Notice> : null}
+      {bus.status === 'error' ? (
+        <Notice tone="error" title="This bus could not be evaluated">
+          {bus.error?.message ?? ''}
+        </Notice>
+      ) : null}
       {bus.warnings.length ? (
-        <Notice tone="warning" title={`${bus.warnings.length} warning${bus.warnings.length > 1 ? 's' : ''}`} testID="trace-warnings">
+        <Notice
+          tone="warning"
+          title={`${bus.warnings.length} warning${bus.warnings.length > 1 ? 's' : ''}`}
+          testID="trace-warnings"
+        >
           <View style={{ gap: 3 }}>
             {bus.warnings.map((w) => (
               <T key={w.code + w.message} variant="small" style={{ color: colors.caution }}>
-                <T style={{ fontFamily: fonts.numbersBold, fontSize: 12, color: colors.caution }}>{w.code}</T> {w.message}
+                <T style={{ fontFamily: fonts.numbersBold, fontSize: 12, color: colors.caution }}>{w.code}</T>{' '}
+                {w.message}
               </T>
             ))}
           </View>

@@ -6,7 +6,13 @@ import type { Device, DeviceKind } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS, deviceDefinitionSchema, type DeviceDefinition } from '../../shared/schemas/deviceLibrary';
 import { apiFetch } from '../../hooks/api';
 import { serverErrors, validate } from '../../hooks/forms';
-import { useBandCurves, useClearingTime, useDeleteDeviceType, useDeviceType, useSaveDeviceType } from '../../hooks/queries';
+import {
+  useBandCurves,
+  useClearingTime,
+  useDeleteDeviceType,
+  useDeviceType,
+  useSaveDeviceType,
+} from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useDebounced } from '../../hooks/useDebounced';
 import { useLayout } from '../../hooks/useLayout';
@@ -38,21 +44,26 @@ function useResolvedDevice(def: DeviceDefinition | null): { device: Device | nul
   return { device: resolved.data?.device ?? null, error: resolved.error ? resolved.error.message : null };
 }
 
-function BandReader({ device, onRead }: { device: Device | null; onRead: (r: { currentA: number; timeS: number | null }) => void }) {
+function BandReader({
+  device,
+  onRead,
+}: {
+  device: Device | null;
+  onRead: (r: { currentA: number; timeS: number | null }) => void;
+}) {
   const [currentA, setCurrentA] = useState<number | undefined>(undefined);
   const read = useClearingTime();
   const go = () => {
     if (!device || !currentA || !(currentA > 0)) return;
-    read.mutate(
-      { device, currentA },
-      { onSuccess: (r) => onRead({ currentA, timeS: r.clearingTimeS }) },
-    );
+    read.mutate({ device, currentA }, { onSuccess: (r) => onRead({ currentA, timeS: r.clearingTimeS }) });
   };
   const r = read.data;
   return (
     <Card testID="band-reader">
       <T variant="subheading">Read the band</T>
-      <T variant="small">Enter the current the device sees; the clearing time is read on the maximum (total clearing) curve.</T>
+      <T variant="small">
+        Enter the current the device sees; the clearing time is read on the maximum (total clearing) curve.
+      </T>
       <View style={{ flexDirection: 'row', gap: space.md, alignItems: 'flex-end', flexWrap: 'wrap' }}>
         <NumberInput label="Current" unit="A" value={currentA} onChange={setCurrentA} testID="read-current" />
         <Button title="Read" testID="read-band" busy={read.isPending} disabled={!device} onPress={go} />
@@ -147,12 +158,16 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
     const form = new FormData();
     form.append('file', file);
     try {
-      const r = await apiFetch<{ currentUnit: 'multiple' | 'ampere'; min: [number, number][]; max: [number, number][] }>(
-        '/device-types/parse-band-csv',
-        { method: 'POST', formData: form },
-      );
+      const r = await apiFetch<{
+        currentUnit: 'multiple' | 'ampere';
+        min: [number, number][];
+        max: [number, number][];
+      }>('/device-types/parse-band-csv', { method: 'POST', formData: form });
       setDef((d) => (d && d.kind === 'band' ? { ...d, currentUnit: r.currentUnit, min: r.min, max: r.max } : d));
-      setMessage({ tone: 'ok', text: `Read ${r.max.length} maximum and ${r.min.length} minimum points from ${file.name}.` });
+      setMessage({
+        tone: 'ok',
+        text: `Read ${r.max.length} maximum and ${r.min.length} minimum points from ${file.name}.`,
+      });
     } catch (e) {
       const s = serverErrors(e);
       const lines = Object.entries(s.fields).map(([k, v]) => `${k}: ${v}`);
@@ -167,7 +182,12 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
       </Screen>
     );
   }
-  if (!def) return <Screen title="Device type"><T variant="small">Loading…</T></Screen>;
+  if (!def)
+    return (
+      <Screen title="Device type">
+        <T variant="small">Loading…</T>
+      </Screen>
+    );
 
   const plot = (
     <Card testID="device-plot">
@@ -177,9 +197,17 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
       <TimeCurrentPlot
         testID="tcc"
         currentUnit="A"
-        series={curves.data ? [{ id: 'dev', label: name || DEVICE_KIND_LABELS[def.kind], min: curves.data.min, max: curves.data.max }] : []}
+        series={
+          curves.data
+            ? [{ id: 'dev', label: name || DEVICE_KIND_LABELS[def.kind], min: curves.data.min, max: curves.data.max }]
+            : []
+        }
         verticals={reading ? [{ currentA: reading.currentA, label: 'Read at', tone: 'full' }] : []}
-        marks={reading && reading.timeS !== null ? [{ currentA: reading.currentA, timeS: reading.timeS, label: 'clears', seriesId: 'dev' }] : []}
+        marks={
+          reading && reading.timeS !== null
+            ? [{ currentA: reading.currentA, timeS: reading.timeS, label: 'clears', seriesId: 'dev' }]
+            : []
+        }
         emptyMessage={check && !check.ok ? 'Fix the settings to see the band.' : 'Loading the band…'}
       />
     </Card>
@@ -194,22 +222,44 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
       ) : null}
       <Card>
         <T variant="label">{DEVICE_KIND_LABELS[def.kind].toUpperCase()}</T>
-        <Field label="Name" testID="device-name" value={name} onChangeText={setName} error={errors.name} editable={canEdit} />
+        <Field
+          label="Name"
+          testID="device-name"
+          value={name}
+          onChangeText={setName}
+          error={errors.name}
+          editable={canEdit}
+        />
         <Field label="Description" value={description} onChangeText={setDescription} editable={canEdit} />
-        <Field label="Source of the data" value={source} onChangeText={setSource} editable={canEdit} hint="e.g. the published curve it was read from, with its date" />
+        <Field
+          label="Source of the data"
+          value={source}
+          onChangeText={setSource}
+          editable={canEdit}
+          hint="e.g. the published curve it was read from, with its date"
+        />
       </Card>
       <Card>
         <T variant="subheading">Settings</T>
         {def.kind === 'band' && canEdit ? (
           <View style={{ gap: space.xs, padding: space.md, backgroundColor: colors.canvas, borderRadius: 8 }}>
-            <FilePicker accept=".csv,text/csv,text/plain" label="Upload a digitized band (CSV: current or multiple, min_s, max_s)" onFile={(f) => void onCsv(f)} />
+            <FilePicker
+              accept=".csv,text/csv,text/plain"
+              label="Upload a digitized band (CSV: current or multiple, min_s, max_s)"
+              onFile={(f) => void onCsv(f)}
+            />
           </View>
         ) : null}
         <DefinitionEditor def={def} onChange={setDef} errors={fieldErrors} editable={canEdit} />
       </Card>
       {canEdit ? (
         <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
-          <Button title={id ? 'Save changes' : 'Add to library'} testID="save-device" busy={save.isPending} onPress={onSave} />
+          <Button
+            title={id ? 'Save changes' : 'Add to library'}
+            testID="save-device"
+            busy={save.isPending}
+            onPress={onSave}
+          />
           {id ? (
             <Button
               title="Remove from library"
@@ -224,7 +274,10 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
   );
 
   return (
-    <Screen title={id ? name || 'Device type' : `New ${DEVICE_KIND_LABELS[def.kind].toLowerCase()}`} subtitle="Device library">
+    <Screen
+      title={id ? name || 'Device type' : `New ${DEVICE_KIND_LABELS[def.kind].toLowerCase()}`}
+      subtitle="Device library"
+    >
       {wide ? (
         <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
           <View style={{ flex: 1 }}>{form}</View>

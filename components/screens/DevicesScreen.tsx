@@ -41,14 +41,22 @@ export function DevicesScreen() {
     <Screen
       title="Device library"
       subtitle="Protective devices and their trip bands: the clearing time of every label is read from one of these."
-      actions={canEdit ? <Button title="New device type" testID="new-device" onPress={() => setChoosing((c) => !c)} /> : null}
+      actions={
+        canEdit ? <Button title="New device type" testID="new-device" onPress={() => setChoosing((c) => !c)} /> : null
+      }
     >
       {choosing ? (
         <Card testID="choose-kind">
           <T variant="subheading">What kind of device?</T>
           <View style={{ flexDirection: wide ? 'row' : 'column', gap: space.sm, flexWrap: 'wrap' }}>
             {KINDS.map((k) => (
-              <Button key={k} title={DEVICE_KIND_LABELS[k]} kind="secondary" testID={`new-${k}`} onPress={() => router.push(`/devices/new?kind=${k}` as never)} />
+              <Button
+                key={k}
+                title={DEVICE_KIND_LABELS[k]}
+                kind="secondary"
+                testID={`new-${k}`}
+                onPress={() => router.push(`/devices/new?kind=${k}` as never)}
+              />
             ))}
           </View>
         </Card>
@@ -65,14 +73,29 @@ export function DevicesScreen() {
       <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.md }}>
         {shown.map((t) => (
           <Link key={t.id} href={`/devices/${t.id}` as never} asChild>
-            <Pressable accessibilityRole="link" style={{ flexBasis: wide ? '48%' : 'auto', flexGrow: 1 }} testID={`device-${t.name}`}>
+            <Pressable
+              accessibilityRole="link"
+              style={{ flexBasis: wide ? '48%' : 'auto', flexGrow: 1 }}
+              testID={`device-${t.name}`}
+            >
               <Card style={{ height: '100%' }}>
-                <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}>
+                <View
+                  style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}
+                >
                   <T variant="subheading" style={{ flexShrink: 1 }}>
                     {t.name}
                   </T>
-                  <View style={{ backgroundColor: colors.accentSoft, borderRadius: radius.sm, paddingHorizontal: 8, paddingVertical: 2 }}>
-                    <T style={{ fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink }}>{DEVICE_KIND_LABELS[t.kind]}</T>
+                  <View
+                    style={{
+                      backgroundColor: colors.accentSoft,
+                      borderRadius: radius.sm,
+                      paddingHorizontal: 8,
+                      paddingVertical: 2,
+                    }}
+                  >
+                    <T style={{ fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink }}>
+                      {DEVICE_KIND_LABELS[t.kind]}
+                    </T>
                   </View>
                 </View>
                 <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>

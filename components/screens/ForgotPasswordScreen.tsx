@@ -29,7 +29,11 @@ export function ForgotPasswordScreen() {
     <PublicPage
       title="Forgot your password?"
       footer={
-        <Link href="/sign-in" style={{ color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' }} testID="back-to-sign-in">
+        <Link
+          href="/sign-in"
+          style={{ color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' }}
+          testID="back-to-sign-in"
+        >
           Back to sign in
         </Link>
       }
@@ -46,7 +50,17 @@ export function ForgotPasswordScreen() {
               {message}
             </Notice>
           ) : null}
-          <Field label="E-mail" testID="reset-email" value={email} onChangeText={setEmail} autoCapitalize="none" autoComplete="email" inputMode="email" error={error} onSubmitEditing={submit} />
+          <Field
+            label="E-mail"
+            testID="reset-email"
+            value={email}
+            onChangeText={setEmail}
+            autoCapitalize="none"
+            autoComplete="email"
+            inputMode="email"
+            error={error}
+            onSubmitEditing={submit}
+          />
           <Button title="Send the link" testID="reset-submit" busy={request.isPending} onPress={submit} />
         </>
       )}

@@ -103,7 +103,15 @@ function AttentionHome() {
   const summary = useAttentionSummary(null);
   return (
     <View style={{ gap: space.md }} testID="home-attention">
-      <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'flex-end', flexWrap: 'wrap', gap: space.sm }}>
+      <View
+        style={{
+          flexDirection: 'row',
+          justifyContent: 'space-between',
+          alignItems: 'flex-end',
+          flexWrap: 'wrap',
+          gap: space.sm,
+        }}
+      >
         <T variant="heading">Needs attention</T>
         <Link href="/attention" style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}>
           Open the dashboard →
@@ -129,7 +137,10 @@ export function HomeScreen() {
   const { wide } = useLayout();
   const home = ROLE_HOME[user.role];
   return (
-    <Screen title={`Hello, ${user.name.split(' ')[0]}`} subtitle={`${ROLE_LABELS[user.role]}${me.data ? ` · ${me.data.organization.name}` : ''}`}>
+    <Screen
+      title={`Hello, ${user.name.split(' ')[0]}`}
+      subtitle={`${ROLE_LABELS[user.role]}${me.data ? ` · ${me.data.organization.name}` : ''}`}
+    >
       <Card testID={`home-${user.role}`} style={{ backgroundColor: colors.nav, borderColor: colors.nav }}>
         <T variant="label" style={{ color: colors.navMuted }}>
           YOUR ROLE: {ROLE_LABELS[user.role].toUpperCase()}
@@ -149,7 +160,11 @@ export function HomeScreen() {
         {sites.isLoading ? <T variant="small">Loading…</T> : null}
         {sites.data?.length === 0 ? <T variant="small">No sites yet.</T> : null}
         {sites.data?.slice(0, 5).map((s) => (
-          <Link key={s.id} href={`/sites/${s.id}` as never} style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium, paddingVertical: 6 }}>
+          <Link
+            key={s.id}
+            href={`/sites/${s.id}` as never}
+            style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium, paddingVertical: 6 }}
+          >
             {s.name}
           </Link>
         ))}

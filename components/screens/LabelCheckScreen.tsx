@@ -11,8 +11,14 @@ import { Notice, T } from '../ui';
 
 const STATUS_STYLE = {
   current: { bg: colors.ok, text: 'This label is current.' },
-  superseded: { bg: colors.danger, text: 'This label is superseded: the values below it are no longer valid. Replace it with the current label.' },
-  'past-review': { bg: colors.caution, text: 'This label is past its review date: the study must be reviewed before relying on it.' },
+  superseded: {
+    bg: colors.danger,
+    text: 'This label is superseded: the values below it are no longer valid. Replace it with the current label.',
+  },
+  'past-review': {
+    bg: colors.caution,
+    text: 'This label is past its review date: the study must be reviewed before relying on it.',
+  },
 } as const;
 
 /** The public page a label's QR code opens: what the label says and whether it still holds. No sign-in. */
@@ -24,7 +30,10 @@ export function LabelCheckScreen({ code }: { code: string }) {
   });
   const notFound = check.error instanceof ApiClientError && check.error.status === 404;
   return (
-    <ScrollView style={{ flex: 1, backgroundColor: colors.canvas }} contentContainerStyle={{ padding: space.lg, paddingBottom: 64 }}>
+    <ScrollView
+      style={{ flex: 1, backgroundColor: colors.canvas }}
+      contentContainerStyle={{ padding: space.lg, paddingBottom: 64 }}
+    >
       <View style={{ width: '100%', maxWidth: 560, alignSelf: 'center', gap: space.lg }}>
         <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
           <View style={{ width: 10, height: 24, borderRadius: 5, backgroundColor: colors.accent }} />
@@ -34,16 +43,31 @@ export function LabelCheckScreen({ code }: { code: string }) {
         {notFound ? (
           <View testID="label-not-found" style={{ gap: space.md }}>
             <T variant="title">Label not found</T>
-            <T>No label has the code {code}. Check the code printed under the QR code. If the label looks genuine, tell your supervisor: it may be damaged or not from this system.</T>
+            <T>
+              No label has the code {code}. Check the code printed under the QR code. If the label looks genuine, tell
+              your supervisor: it may be damaged or not from this system.
+            </T>
           </View>
         ) : null}
         {check.error && !notFound ? <Notice tone="error">{check.error.message}</Notice> : null}
         {check.data ? (
           <>
-            <View testID="label-status" style={{ backgroundColor: STATUS_STYLE[check.data.status].bg, borderRadius: radius.lg, padding: space.lg, gap: space.xs }}>
-              <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 34, letterSpacing: 1 }}>{LABEL_STATUS_LABELS[check.data.status].toUpperCase()}</T>
+            <View
+              testID="label-status"
+              style={{
+                backgroundColor: STATUS_STYLE[check.data.status].bg,
+                borderRadius: radius.lg,
+                padding: space.lg,
+                gap: space.xs,
+              }}
+            >
+              <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 34, letterSpacing: 1 }}>
+                {LABEL_STATUS_LABELS[check.data.status].toUpperCase()}
+              </T>
               <T style={{ color: '#fff', fontSize: 17 }}>{STATUS_STYLE[check.data.status].text}</T>
-              <T style={{ color: '#fff', fontSize: 13, fontFamily: fonts.numbers }}>Checked {check.data.checkedAt.slice(0, 16).replace('T', ' ')} UTC · code {check.data.code}</T>
+              <T style={{ color: '#fff', fontSize: 13, fontFamily: fonts.numbers }}>
+                Checked {check.data.checkedAt.slice(0, 16).replace('T', ' ')} UTC · code {check.data.code}
+              </T>
             </View>
             {check.data.status === 'superseded' && check.data.current ? (
               <View style={{ gap: space.sm }} testID="label-current-values">
@@ -52,10 +76,15 @@ export function LabelCheckScreen({ code }: { code: string }) {
               </View>
             ) : null}
             <View style={{ gap: space.sm }}>
-              <T variant="heading">{check.data.status === 'superseded' ? 'This (old) label says' : 'This label says'}</T>
+              <T variant="heading">
+                {check.data.status === 'superseded' ? 'This (old) label says' : 'This label says'}
+              </T>
               <LabelView content={check.data.content} code={check.data.code} />
             </View>
-            <Cautions reviewed={check.data.status === 'current'} incidentEnergyCalPerCm2={check.data.content.incidentEnergyCalPerCm2} />
+            <Cautions
+              reviewed={check.data.status === 'current'}
+              incidentEnergyCalPerCm2={check.data.content.incidentEnergyCalPerCm2}
+            />
             <Link href={`/labels/${check.data.code}` as never} style={{ color: colors.accent, fontSize: 16 }}>
               Electricians: sign in to mark this label installed or report what does not match
             </Link>

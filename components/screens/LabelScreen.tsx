@@ -66,7 +66,15 @@ function ReportPanel({ code }: { code: string }) {
     <Card testID="report-panel">
       <T variant="subheading">Report what does not match</T>
       <Choice label="What does not match" value={kind} options={KINDS} onChange={setKind} testID="report-kind" />
-      <Field label="What you see" testID="report-text" value={text} onChangeText={setText} multiline style={{ minHeight: 90 }} hint="e.g. the breaker on the door is a 400 A frame, the label names a 600 A feeder" />
+      <Field
+        label="What you see"
+        testID="report-text"
+        value={text}
+        onChangeText={setText}
+        multiline
+        style={{ minHeight: 90 }}
+        hint="e.g. the breaker on the door is a 400 A frame, the label names a 600 A feeder"
+      />
       <PhotoInput onFile={setPhoto} testID="report-photo" label="Photo (optional)" />
       {error ? <Notice tone="error">{error}</Notice> : null}
       {report.isSuccess ? <Notice tone="ok">Report sent to the engineers and the safety officer.</Notice> : null}
@@ -91,23 +99,38 @@ export function LabelScreen({ code }: { code: string }) {
   const { wide } = useLayout();
   const detail = useLabelDetail(code);
   const check = useLabelCheck(code);
-  if (detail.error) return <Screen title="Label"><Notice tone="error">{detail.error.message}</Notice></Screen>;
-  if (!detail.data) return <Screen title="Label"><T variant="small">Loading…</T></Screen>;
+  if (detail.error)
+    return (
+      <Screen title="Label">
+        <Notice tone="error">{detail.error.message}</Notice>
+      </Screen>
+    );
+  if (!detail.data)
+    return (
+      <Screen title="Label">
+        <T variant="small">Loading…</T>
+      </Screen>
+    );
   const l = detail.data;
   const tone = l.status === 'current' ? colors.ok : l.status === 'superseded' ? colors.danger : colors.caution;
   const field = user.role === 'electrician';
   const info = (
     <View style={{ gap: space.lg }}>
       <View style={{ backgroundColor: tone, borderRadius: radius.lg, padding: space.lg }} testID="label-status">
-        <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 28 }}>{LABEL_STATUS_LABELS[l.status].toUpperCase()}</T>
+        <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 28 }}>
+          {LABEL_STATUS_LABELS[l.status].toUpperCase()}
+        </T>
         <T style={{ color: '#fff' }}>
-          {l.installedAt ? `Installed ${l.installedAt.slice(0, 10)}${l.installedBy ? ` by ${l.installedBy}` : ''}` : 'Not marked installed'} ·{' '}
-          {l.printedAt ? `printed ${l.printedAt.slice(0, 10)}` : 'not printed yet'}
+          {l.installedAt
+            ? `Installed ${l.installedAt.slice(0, 10)}${l.installedBy ? ` by ${l.installedBy}` : ''}`
+            : 'Not marked installed'}{' '}
+          · {l.printedAt ? `printed ${l.printedAt.slice(0, 10)}` : 'not printed yet'}
         </T>
       </View>
       {l.status === 'superseded' && check.data?.current ? (
         <Notice tone="error" title="Superseded">
-          Replace this label: the current label of {l.equipmentTag} says {check.data.current.incidentEnergyCalPerCm2.toFixed(2)} cal/cm² (revision {check.data.current.studyRevision}).
+          Replace this label: the current label of {l.equipmentTag} says{' '}
+          {check.data.current.incidentEnergyCalPerCm2.toFixed(2)} cal/cm² (revision {check.data.current.studyRevision}).
         </Notice>
       ) : null}
       {field && l.status !== 'superseded' && !l.installedAt ? <InstallPanel code={l.code} /> : null}
@@ -116,7 +139,10 @@ export function LabelScreen({ code }: { code: string }) {
     </View>
   );
   return (
-    <Screen title={`${l.content.equipmentName} (${l.equipmentTag})`} subtitle={`${l.content.siteName} · code ${l.code}`}>
+    <Screen
+      title={`${l.content.equipmentName} (${l.equipmentTag})`}
+      subtitle={`${l.content.siteName} · code ${l.code}`}
+    >
       {wide ? (
         <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
           <View style={{ flex: 1 }}>

@@ -16,12 +16,50 @@ import { Button, Card, Choice, Notice, ProgressBar, Screen, T } from '../ui';
 
 type Filter = 'all' | 'not-printed' | 'not-installed';
 
-function Row({ l, selected, onToggle, onPreview }: { l: LabelDto; selected: boolean; onToggle: () => void; onPreview: () => void }) {
+function Row({
+  l,
+  selected,
+  onToggle,
+  onPreview,
+}: {
+  l: LabelDto;
+  selected: boolean;
+  onToggle: () => void;
+  onPreview: () => void;
+}) {
   const panel = signalPanelColors(l.content.signalWord);
   return (
-    <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm, minHeight: touch.min + 8, paddingHorizontal: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }} testID={`label-row-${l.equipmentTag}`}>
-      <Pressable accessibilityRole="checkbox" accessibilityState={{ checked: selected }} onPress={onToggle} testID={`select-${l.equipmentTag}`} style={{ width: touch.min, height: touch.min, alignItems: 'center', justifyContent: 'center' }}>
-        <View style={{ width: 24, height: 24, borderRadius: 4, borderWidth: 2, borderColor: colors.ink, backgroundColor: selected ? colors.ink : colors.surface, alignItems: 'center', justifyContent: 'center' }}>
+    <View
+      style={{
+        flexDirection: 'row',
+        alignItems: 'center',
+        gap: space.sm,
+        minHeight: touch.min + 8,
+        paddingHorizontal: space.md,
+        borderBottomWidth: 1,
+        borderBottomColor: colors.lineSoft,
+      }}
+      testID={`label-row-${l.equipmentTag}`}
+    >
+      <Pressable
+        accessibilityRole="checkbox"
+        accessibilityState={{ checked: selected }}
+        onPress={onToggle}
+        testID={`select-${l.equipmentTag}`}
+        style={{ width: touch.min, height: touch.min, alignItems: 'center', justifyContent: 'center' }}
+      >
+        <View
+          style={{
+            width: 24,
+            height: 24,
+            borderRadius: 4,
+            borderWidth: 2,
+            borderColor: colors.ink,
+            backgroundColor: selected ? colors.ink : colors.surface,
+            alignItems: 'center',
+            justifyContent: 'center',
+          }}
+        >
           {selected ? <T style={{ color: '#fff', fontFamily: fonts.textBold }}>✓</T> : null}
         </View>
       </Pressable>
@@ -34,7 +72,9 @@ function Row({ l, selected, onToggle, onPreview }: { l: LabelDto; selected: bool
           <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(l.content.incidentEnergyCalPerCm2)} cal/cm²</T>
         </View>
         <T variant="small" numberOfLines={1}>
-          {l.content.equipmentName} · {LABEL_STATUS_LABELS[l.status]} · {l.printedAt ? `printed ${l.printedAt.slice(0, 10)}` : 'not printed'} · {l.installedAt ? `installed ${l.installedAt.slice(0, 10)}` : 'not installed'}
+          {l.content.equipmentName} · {LABEL_STATUS_LABELS[l.status]} ·{' '}
+          {l.printedAt ? `printed ${l.printedAt.slice(0, 10)}` : 'not printed'} ·{' '}
+          {l.installedAt ? `installed ${l.installedAt.slice(0, 10)}` : 'not installed'}
         </T>
       </Pressable>
       <Link href={`/labels/${l.code}` as never} style={{ color: colors.accent, fontSize: 15, padding: space.sm }}>
@@ -51,7 +91,9 @@ export function LabelsScreen() {
   const sites = useSites();
   // `/labels?site=<id>` opens one site's labels (links from the dashboard and the site screen).
   const params = useLocalSearchParams<{ site?: string }>();
-  const [siteId, setSiteId] = useState<string | null>(typeof params.site === 'string' && params.site ? params.site : null);
+  const [siteId, setSiteId] = useState<string | null>(
+    typeof params.site === 'string' && params.site ? params.site : null,
+  );
   useEffect(() => {
     if (!siteId && sites.data?.length) setSiteId(sites.data[0].id);
   }, [sites.data, siteId]);
@@ -67,7 +109,10 @@ export function LabelsScreen() {
   const canPrint = user.role === 'electrician' || user.role === 'engineer' || user.role === 'admin';
 
   const shown = useMemo(
-    () => (labels.data ?? []).filter((l) => (filter === 'not-printed' ? !l.printedAt : filter === 'not-installed' ? !l.installedAt : true)),
+    () =>
+      (labels.data ?? []).filter((l) =>
+        filter === 'not-printed' ? !l.printedAt : filter === 'not-installed' ? !l.installedAt : true,
+      ),
     [labels.data, filter],
   );
   useEffect(() => setPreview((p) => p ?? shown[0] ?? null), [shown]);
@@ -91,16 +136,47 @@ export function LabelsScreen() {
   const b = batch.data;
   const list = (
     <View style={{ gap: space.md }}>
-      <Choice value={filter} onChange={setFilter} testID="label-filter" options={[{ value: 'all', label: 'All current' }, { value: 'not-printed', label: 'Not printed' }, { value: 'not-installed', label: 'Not installed' }]} />
+      <Choice
+        value={filter}
+        onChange={setFilter}
+        testID="label-filter"
+        options={[
+          { value: 'all', label: 'All current' },
+          { value: 'not-printed', label: 'Not printed' },
+          { value: 'not-installed', label: 'Not installed' },
+        ]}
+      />
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
-        <Button title="Select all shown" kind="secondary" testID="select-all" onPress={() => setSelected(new Set(shown.map((l) => l.id)))} />
+        <Button
+          title="Select all shown"
+          kind="secondary"
+          testID="select-all"
+          onPress={() => setSelected(new Set(shown.map((l) => l.id)))}
+        />
         <Button title="Clear" kind="quiet" onPress={() => setSelected(new Set())} />
       </View>
-      <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }}>
+      <View
+        style={{
+          backgroundColor: colors.surface,
+          borderRadius: radius.lg,
+          borderWidth: 1,
+          borderColor: colors.lineSoft,
+        }}
+      >
         {shown.map((l) => (
-          <Row key={l.id} l={l} selected={selected.has(l.id)} onToggle={() => toggle(l.id)} onPreview={() => setPreview(l)} />
+          <Row
+            key={l.id}
+            l={l}
+            selected={selected.has(l.id)}
+            onToggle={() => toggle(l.id)}
+            onPreview={() => setPreview(l)}
+          />
         ))}
-        {labels.data && shown.length === 0 ? <T style={{ padding: space.lg }} variant="small">No labels here.</T> : null}
+        {labels.data && shown.length === 0 ? (
+          <T style={{ padding: space.lg }} variant="small">
+            No labels here.
+          </T>
+        ) : null}
       </View>
     </View>
   );
@@ -108,16 +184,44 @@ export function LabelsScreen() {
   const queue = canPrint ? (
     <Card testID="print-queue">
       <T variant="subheading">Print</T>
-      <T variant="small">{selected.size} label{selected.size === 1 ? '' : 's'} chosen.</T>
-      <Choice label="Size" value={size} onChange={setSize} testID="label-size" options={[{ value: '4x6', label: '4 × 6 in' }, { value: '4x4', label: '4 × 4 in' }, { value: 'letter', label: 'Letter sheet' }, { value: 'a4', label: 'A4 sheet' }]} />
+      <T variant="small">
+        {selected.size} label{selected.size === 1 ? '' : 's'} chosen.
+      </T>
+      <Choice
+        label="Size"
+        value={size}
+        onChange={setSize}
+        testID="label-size"
+        options={[
+          { value: '4x6', label: '4 × 6 in' },
+          { value: '4x4', label: '4 × 4 in' },
+          { value: 'letter', label: 'Letter sheet' },
+          { value: 'a4', label: 'A4 sheet' },
+        ]}
+      />
       {error ? <Notice tone="error">{error}</Notice> : null}
-      <Button title="Make the PDF" testID="make-pdf" disabled={!selected.size} busy={create.isPending || (!!b && (b.status === 'queued' || b.status === 'running'))} onPress={print} />
+      <Button
+        title="Make the PDF"
+        testID="make-pdf"
+        disabled={!selected.size}
+        busy={create.isPending || (!!b && (b.status === 'queued' || b.status === 'running'))}
+        onPress={print}
+      />
       {b ? (
         <View style={{ gap: space.xs }} testID="batch">
           <T>{b.message}</T>
           {b.status !== 'done' ? <ProgressBar value={b.progress} testID="batch-progress" /> : null}
           {b.status === 'done' ? (
-            <Button title={`Download ${b.total} label${b.total === 1 ? '' : 's'} (PDF)`} testID="download-pdf" kind="secondary" onPress={() => void downloadFile(`/label-batches/${b.id}/file`, 'labels.pdf').catch((e) => setError(serverErrors(e).message))} />
+            <Button
+              title={`Download ${b.total} label${b.total === 1 ? '' : 's'} (PDF)`}
+              testID="download-pdf"
+              kind="secondary"
+              onPress={() =>
+                void downloadFile(`/label-batches/${b.id}/file`, 'labels.pdf').catch((e) =>
+                  setError(serverErrors(e).message),
+                )
+              }
+            />
           ) : null}
           {b.status === 'failed' ? <Notice tone="error">{b.message}</Notice> : null}
         </View>
@@ -126,8 +230,21 @@ export function LabelsScreen() {
   ) : null;
 
   return (
-    <Screen title="Labels" subtitle="Current labels of the approved studies: preview, print, and follow their installation.">
-      <Choice label="Site" value={siteId ?? ''} onChange={(id) => { setSiteId(id); setSelected(new Set()); setPreview(null); }} options={(sites.data ?? []).map((s) => ({ value: s.id, label: s.name }))} testID="label-site" />
+    <Screen
+      title="Labels"
+      subtitle="Current labels of the approved studies: preview, print, and follow their installation."
+    >
+      <Choice
+        label="Site"
+        value={siteId ?? ''}
+        onChange={(id) => {
+          setSiteId(id);
+          setSelected(new Set());
+          setPreview(null);
+        }}
+        options={(sites.data ?? []).map((s) => ({ value: s.id, label: s.name }))}
+        testID="label-site"
+      />
       {labels.error ? <Notice tone="error">{labels.error.message}</Notice> : null}
       {wide ? (
         <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
@@ -137,7 +254,11 @@ export function LabelsScreen() {
           </View>
           <View style={{ flex: 1, gap: space.sm }}>
             <T variant="label">PREVIEW</T>
-            {preview ? <LabelView content={preview.content} code={preview.code} width={400} /> : <T variant="small">Choose a label to preview it.</T>}
+            {preview ? (
+              <LabelView content={preview.content} code={preview.code} width={400} />
+            ) : (
+              <T variant="small">Choose a label to preview it.</T>
+            )}
           </View>
         </View>
       ) : (

@@ -37,7 +37,8 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
   const copy = COPY[purpose];
 
   const gone =
-    (info.error instanceof ApiClientError && (info.error.status === 404 || info.error.status === 400 || info.error.status === 410)) ||
+    (info.error instanceof ApiClientError &&
+      (info.error.status === 404 || info.error.status === 400 || info.error.status === 410)) ||
     (!!info.data && info.data.purpose !== purpose);
 
   // A message stays until the field it is about changes.
@@ -85,7 +86,10 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
     <PublicPage
       title={gone ? 'This link no longer works' : copy.title}
       footer={
-        <Link href="/sign-in" style={{ color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' }}>
+        <Link
+          href="/sign-in"
+          style={{ color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' }}
+        >
           Back to sign in
         </Link>
       }
@@ -113,8 +117,26 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
               {message}
             </Notice>
           ) : null}
-          <Field label="New password" testID="link-password" value={password} onChangeText={changePassword} secureTextEntry autoComplete="new-password" error={errors.password} hint="At least 10 characters" />
-          <Field label="New password again" testID="link-confirm" value={confirm} onChangeText={changeConfirm} secureTextEntry autoComplete="new-password" error={errors.confirm} onSubmitEditing={submit} />
+          <Field
+            label="New password"
+            testID="link-password"
+            value={password}
+            onChangeText={changePassword}
+            secureTextEntry
+            autoComplete="new-password"
+            error={errors.password}
+            hint="At least 10 characters"
+          />
+          <Field
+            label="New password again"
+            testID="link-confirm"
+            value={confirm}
+            onChangeText={changeConfirm}
+            secureTextEntry
+            autoComplete="new-password"
+            error={errors.confirm}
+            onSubmitEditing={submit}
+          />
           <Button title={copy.action} testID="link-submit" busy={setPassword.isPending} onPress={submit} />
         </>
       ) : null}

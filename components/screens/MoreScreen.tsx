@@ -18,7 +18,17 @@ export function MoreScreen() {
           <Link key={item.href} href={item.href as never} asChild>
             <Pressable
               accessibilityRole="link"
-              style={{ minHeight: touch.min + 8, flexDirection: 'row', alignItems: 'center', gap: space.md, paddingHorizontal: space.lg, backgroundColor: colors.surface, borderRadius: radius.md, borderWidth: 1, borderColor: colors.line }}
+              style={{
+                minHeight: touch.min + 8,
+                flexDirection: 'row',
+                alignItems: 'center',
+                gap: space.md,
+                paddingHorizontal: space.lg,
+                backgroundColor: colors.surface,
+                borderRadius: radius.md,
+                borderWidth: 1,
+                borderColor: colors.line,
+              }}
             >
               <T style={{ fontSize: 20, width: 24, textAlign: 'center', color: colors.accent }}>{item.glyph}</T>
               <T style={{ fontFamily: fonts.textMedium, fontSize: 17 }}>{item.label}</T>

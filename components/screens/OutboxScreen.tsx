@@ -7,7 +7,11 @@ import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Button, Card, Empty, Loading, Notice, Pill, QueryError, Screen, T, ValueRow } from '../ui';
 
-const KIND_WORD: Record<string, string> = { reminder: 'Reminder', invitation: 'Invitation', 'password-reset': 'Password reset' };
+const KIND_WORD: Record<string, string> = {
+  reminder: 'Reminder',
+  invitation: 'Invitation',
+  'password-reset': 'Password reset',
+};
 const kindWord = (k: string) => KIND_WORD[k] ?? k;
 
 function MessageView({ m, onBack }: { m: OutboxMessage; onBack?: () => void }) {
@@ -36,7 +40,11 @@ function MessageView({ m, onBack }: { m: OutboxMessage; onBack?: () => void }) {
         </ValueRow>
       </View>
       <ScrollView horizontal={false} style={{ maxHeight: 640 }}>
-        <T testID="outbox-text" selectable style={{ fontFamily: fonts.numbers, fontSize: 14, lineHeight: 21, color: colors.ink }}>
+        <T
+          testID="outbox-text"
+          selectable
+          style={{ fontFamily: fonts.numbers, fontSize: 14, lineHeight: 21, color: colors.ink }}
+        >
           {m.text}
         </T>
       </ScrollView>
@@ -88,7 +96,16 @@ export function OutboxScreen() {
   const shown = wide ? (selected ?? messages[0] ?? null) : selected;
 
   const list = (
-    <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft, overflow: 'hidden' }} testID="outbox-list">
+    <View
+      style={{
+        backgroundColor: colors.surface,
+        borderRadius: radius.lg,
+        borderWidth: 1,
+        borderColor: colors.lineSoft,
+        overflow: 'hidden',
+      }}
+      testID="outbox-list"
+    >
       {messages.map((m) => (
         <MessageRow key={m.id} m={m} on={shown?.id === m.id} onPress={() => setSelectedId(m.id)} />
       ))}
@@ -96,14 +113,19 @@ export function OutboxScreen() {
   );
 
   return (
-    <Screen title="Outbox" subtitle="E-mail from Emberline to the organization: invitations, password links and reminders, newest first.">
+    <Screen
+      title="Outbox"
+      subtitle="E-mail from Emberline to the organization: invitations, password links and reminders, newest first."
+    >
       {outbox.data?.transport === 'local-sink' ? (
         <Notice tone="warning" title="Mail is captured here, not delivered" testID="outbox-local-sink">
-          No mail server is set up for this installation: messages are kept on this server so they can be read here, and nobody receives them. Set up SMTP
-          delivery to send them.
+          No mail server is set up for this installation: messages are kept on this server so they can be read here, and
+          nobody receives them. Set up SMTP delivery to send them.
         </Notice>
       ) : null}
-      {outbox.data?.transport === 'smtp' ? <Notice testID="outbox-smtp">Messages are delivered through the mail server; copies are listed here.</Notice> : null}
+      {outbox.data?.transport === 'smtp' ? (
+        <Notice testID="outbox-smtp">Messages are delivered through the mail server; copies are listed here.</Notice>
+      ) : null}
       <QueryError error={outbox.error} title="The outbox could not be loaded" />
       {outbox.isLoading ? <Loading what="Loading messages…" /> : null}
       {outbox.data && messages.length === 0 ? (
@@ -117,7 +139,13 @@ export function OutboxScreen() {
           <View style={{ flex: 1.4 }}>{shown ? <MessageView m={shown} /> : null}</View>
         </View>
       ) : null}
-      {messages.length > 0 && !wide ? (shown ? <MessageView m={shown} onBack={() => setSelectedId(null)} /> : list) : null}
+      {messages.length > 0 && !wide ? (
+        shown ? (
+          <MessageView m={shown} onBack={() => setSelectedId(null)} />
+        ) : (
+          list
+        )
+      ) : null}
     </Screen>
   );
 }

@@ -6,17 +6,48 @@ import { ROLE_LABELS, ROLES, type Role } from '../../shared/schemas/common';
 import { reminderRuleInputSchema, type ReminderDelivery, type ReminderRule } from '../../shared/schemas/reminders';
 import { fmtDateTime, fmtHourUtc } from '../../hooks/dates';
 import { serverErrors, validate } from '../../hooks/forms';
-import { useDeleteReminderRule, useDeliveries, useReminderRules, useSaveReminderRule, useSendNow } from '../../hooks/mail';
+import {
+  useDeleteReminderRule,
+  useDeliveries,
+  useReminderRules,
+  useSaveReminderRule,
+  useSendNow,
+} from '../../hooks/mail';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Card, Choice, ConfirmButton, Empty, Field, Loading, MultiChoice, Notice, Pill, type PillTone, QueryError, Screen, T } from '../ui';
+import {
+  Button,
+  Card,
+  Choice,
+  ConfirmButton,
+  Empty,
+  Field,
+  Loading,
+  MultiChoice,
+  Notice,
+  Pill,
+  type PillTone,
+  QueryError,
+  Screen,
+  T,
+} from '../ui';
 
 const listOptions = ATTENTION_LISTS.map((l) => ({ value: l, label: ATTENTION_LIST_INFO[l].title }));
 const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
-const DELIVERY_TONE: Record<ReminderDelivery['status'], PillTone> = { sending: 'accent', sent: 'ok', skipped: 'neutral', failed: 'danger' };
-const DELIVERY_WORD: Record<ReminderDelivery['status'], string> = { sending: 'Sending', sent: 'Sent', skipped: 'Skipped', failed: 'Failed' };
+const DELIVERY_TONE: Record<ReminderDelivery['status'], PillTone> = {
+  sending: 'accent',
+  sent: 'ok',
+  skipped: 'neutral',
+  failed: 'danger',
+};
+const DELIVERY_WORD: Record<ReminderDelivery['status'], string> = {
+  sending: 'Sending',
+  sent: 'Sent',
+  skipped: 'Skipped',
+  failed: 'Failed',
+};
 
 interface Draft {
   name: string;
@@ -27,7 +58,14 @@ interface Draft {
   onlyWhenSomething: 'yes' | 'no';
 }
 
-const emptyDraft: Draft = { name: '', lists: ['review-overdue', 'superseded-installed', 'open-reports'], roles: ['safety'], emails: '', enabled: 'on', onlyWhenSomething: 'yes' };
+const emptyDraft: Draft = {
+  name: '',
+  lists: ['review-overdue', 'superseded-installed', 'open-reports'],
+  roles: ['safety'],
+  emails: '',
+  enabled: 'on',
+  onlyWhenSomething: 'yes',
+};
 
 function draftOf(r: ReminderRule): Draft {
   return {
@@ -84,9 +122,30 @@ function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void })
     <Card testID="rule-form">
       <T variant="subheading">{rule ? `Edit “${rule.name}”` : 'New reminder rule'}</T>
       {message ? <Notice tone="error">{message}</Notice> : null}
-      <Field label="Name" testID="rule-name" value={d.name} onChangeText={(name) => setD({ ...d, name })} error={errors.name} placeholder="e.g. Weekly safety round-up" />
-      <MultiChoice label="Lists to include" values={d.lists} options={listOptions} onChange={(lists) => setD({ ...d, lists })} error={fieldError(errors, 'lists')} testID="rule-lists" />
-      <MultiChoice label="Send to everyone with the role" values={d.roles} options={roleOptions} onChange={(roles) => setD({ ...d, roles })} error={fieldError(errors, 'roles')} testID="rule-roles" />
+      <Field
+        label="Name"
+        testID="rule-name"
+        value={d.name}
+        onChangeText={(name) => setD({ ...d, name })}
+        error={errors.name}
+        placeholder="e.g. Weekly safety round-up"
+      />
+      <MultiChoice
+        label="Lists to include"
+        values={d.lists}
+        options={listOptions}
+        onChange={(lists) => setD({ ...d, lists })}
+        error={fieldError(errors, 'lists')}
+        testID="rule-lists"
+      />
+      <MultiChoice
+        label="Send to everyone with the role"
+        values={d.roles}
+        options={roleOptions}
+        onChange={(roles) => setD({ ...d, roles })}
+        error={fieldError(errors, 'roles')}
+        testID="rule-roles"
+      />
       <Field
         label="Further e-mail addresses"
         testID="rule-emails"
@@ -98,12 +157,24 @@ function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void })
         placeholder="contractor@example.org"
       />
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.lg }}>
-        <Choice label="Rule" value={d.enabled} onChange={(enabled) => setD({ ...d, enabled })} options={[{ value: 'on', label: 'Enabled' }, { value: 'off', label: 'Paused' }]} testID="rule-enabled" />
+        <Choice
+          label="Rule"
+          value={d.enabled}
+          onChange={(enabled) => setD({ ...d, enabled })}
+          options={[
+            { value: 'on', label: 'Enabled' },
+            { value: 'off', label: 'Paused' },
+          ]}
+          testID="rule-enabled"
+        />
         <Choice
           label="When every chosen list is empty"
           value={d.onlyWhenSomething}
           onChange={(onlyWhenSomething) => setD({ ...d, onlyWhenSomething })}
-          options={[{ value: 'yes', label: 'Skip that day' }, { value: 'no', label: 'Send anyway' }]}
+          options={[
+            { value: 'yes', label: 'Skip that day' },
+            { value: 'no', label: 'Send anyway' },
+          ]}
           testID="rule-only-when"
         />
       </View>
@@ -121,7 +192,15 @@ function deliveryLine(d: ReminderDelivery): string {
   return `${d.ruleName}: ${DELIVERY_WORD[d.status].toLowerCase()} (${items})${d.message ? ` — ${d.message}` : ''}.`;
 }
 
-function RuleCard({ rule, onEdit, onSent }: { rule: ReminderRule; onEdit: () => void; onSent: (d: ReminderDelivery[]) => void }) {
+function RuleCard({
+  rule,
+  onEdit,
+  onSent,
+}: {
+  rule: ReminderRule;
+  onEdit: () => void;
+  onSent: (d: ReminderDelivery[]) => void;
+}) {
   const del = useDeleteReminderRule();
   const send = useSendNow();
   const [error, setError] = useState<string | null>(null);
@@ -144,8 +223,10 @@ function RuleCard({ rule, onEdit, onSent }: { rule: ReminderRule; onEdit: () => 
         </T>
       </View>
       <T variant="small">
-        {rule.onlyWhenSomething ? 'Skips the days when every chosen list is empty.' : 'Sent every day, even when the lists are empty.'} Last sent:{' '}
-        {rule.lastSentAt ? fmtDateTime(rule.lastSentAt) : 'never'}.
+        {rule.onlyWhenSomething
+          ? 'Skips the days when every chosen list is empty.'
+          : 'Sent every day, even when the lists are empty.'}{' '}
+        Last sent: {rule.lastSentAt ? fmtDateTime(rule.lastSentAt) : 'never'}.
       </T>
       {error ? <Notice tone="error">{error}</Notice> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'flex-start' }}>
@@ -155,7 +236,10 @@ function RuleCard({ rule, onEdit, onSent }: { rule: ReminderRule; onEdit: () => 
           busy={send.isPending}
           onPress={() => {
             setError(null);
-            send.mutate(rule.id, { onSuccess: (r) => onSent(r.deliveries), onError: (e) => setError(serverErrors(e).message) });
+            send.mutate(rule.id, {
+              onSuccess: (r) => onSent(r.deliveries),
+              onError: (e) => setError(serverErrors(e).message),
+            });
           }}
         />
         <Button title="Edit" kind="secondary" testID={`rule-edit-${rule.name}`} onPress={onEdit} />
@@ -181,18 +265,43 @@ function Deliveries() {
       {deliveries.isLoading ? <Loading what="Loading deliveries…" /> : null}
       {deliveries.data && deliveries.data.length === 0 ? (
         <Empty title="Nothing sent yet" testID="deliveries-empty">
-          Each daily run and each “Send now” is listed here: whom it went to, how many items it carried, or why it was skipped.
+          Each daily run and each “Send now” is listed here: whom it went to, how many items it carried, or why it was
+          skipped.
         </Empty>
       ) : null}
       {deliveries.data && deliveries.data.length ? (
-        <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }} testID="deliveries">
+        <View
+          style={{
+            backgroundColor: colors.surface,
+            borderRadius: radius.lg,
+            borderWidth: 1,
+            borderColor: colors.lineSoft,
+          }}
+          testID="deliveries"
+        >
           {deliveries.data.map((d) => (
             <View
               key={d.id}
               testID={`delivery-${d.id}`}
-              style={{ flexDirection: wide ? 'row' : 'column', gap: wide ? space.md : 4, paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
+              style={{
+                flexDirection: wide ? 'row' : 'column',
+                gap: wide ? space.md : 4,
+                paddingHorizontal: space.lg,
+                paddingVertical: space.md,
+                borderBottomWidth: 1,
+                borderBottomColor: colors.lineSoft,
+              }}
             >
-              <T style={{ width: wide ? 175 : undefined, fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft }}>{fmtDateTime(d.createdAt)}</T>
+              <T
+                style={{
+                  width: wide ? 175 : undefined,
+                  fontFamily: fonts.numbers,
+                  fontSize: 13,
+                  color: colors.inkSoft,
+                }}
+              >
+                {fmtDateTime(d.createdAt)}
+              </T>
               <View style={{ width: wide ? 90 : undefined }}>
                 <Pill label={DELIVERY_WORD[d.status]} tone={DELIVERY_TONE[d.status]} />
               </View>
@@ -201,7 +310,8 @@ function Deliveries() {
                   {d.ruleName} <T variant="small">({d.trigger === 'daily' ? 'daily' : 'sent by hand'})</T>
                 </T>
                 <T variant="small">
-                  {d.itemCount === 1 ? '1 item' : `${d.itemCount} items`} · {d.recipients.length ? d.recipients.join(', ') : 'no recipients'}
+                  {d.itemCount === 1 ? '1 item' : `${d.itemCount} items`} ·{' '}
+                  {d.recipients.length ? d.recipients.join(', ') : 'no recipients'}
                 </T>
                 {d.message && d.status !== 'sent' ? <T variant="small">{d.message}</T> : null}
               </View>
@@ -240,7 +350,10 @@ export function RemindersScreen() {
             disabled={!rules.data?.rules.some((r) => r.enabled)}
             onPress={() => {
               setResult(null);
-              sendAll.mutate(undefined, { onSuccess: (r) => showResult(r.deliveries), onError: (e) => setResult({ tone: 'error', lines: [serverErrors(e).message] }) });
+              sendAll.mutate(undefined, {
+                onSuccess: (r) => showResult(r.deliveries),
+                onError: (e) => setResult({ tone: 'error', lines: [serverErrors(e).message] }),
+              });
             }}
           />
         </>
@@ -276,8 +389,8 @@ export function RemindersScreen() {
       {rules.isLoading ? <Loading what="Loading reminder rules…" /> : null}
       {rules.data && rules.data.rules.length === 0 && editing === null ? (
         <Empty title="No reminder rules" testID="rules-empty">
-          A rule e-mails the chosen lists (for example studies past review and open field reports) to everyone with a role, or to given addresses, once a
-          day. Create one with “New rule”.
+          A rule e-mails the chosen lists (for example studies past review and open field reports) to everyone with a
+          role, or to given addresses, once a day. Create one with “New rule”.
         </Empty>
       ) : null}
       <View style={{ gap: space.md }}>

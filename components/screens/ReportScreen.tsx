@@ -43,7 +43,9 @@ function Timeline({ r }: { r: FieldReportDto }) {
       </ValueRow>
       <ValueRow label="Acknowledged">
         <T style={{ fontSize: 15 }} testID="report-acknowledged">
-          {r.acknowledgedAt ? `${fmtDateTime(r.acknowledgedAt)}${r.acknowledgedBy ? ` by ${r.acknowledgedBy}` : ''}` : 'Not yet'}
+          {r.acknowledgedAt
+            ? `${fmtDateTime(r.acknowledgedAt)}${r.acknowledgedBy ? ` by ${r.acknowledgedBy}` : ''}`
+            : 'Not yet'}
         </T>
       </ValueRow>
       <ValueRow label="Resolved">
@@ -72,12 +74,19 @@ function TriagePanel({ r }: { r: FieldReportDto }) {
   const send = (status: 'acknowledged' | 'resolved') => {
     setError(null);
     setDone(null);
-    const v = validate(fieldReportTriageSchema, status === 'resolved' ? { status, note } : { status, note: note.trim() || undefined });
+    const v = validate(
+      fieldReportTriageSchema,
+      status === 'resolved' ? { status, note } : { status, note: note.trim() || undefined },
+    );
     if (!v.ok) return setError(v.errors.note ?? Object.values(v.errors)[0]);
     triage.mutate(v.data, {
       onSuccess: () => {
         setNote('');
-        setDone(status === 'resolved' ? 'Resolved. The reporter sees the status and your note.' : 'Acknowledged. The reporter sees that it is being looked into.');
+        setDone(
+          status === 'resolved'
+            ? 'Resolved. The reporter sees the status and your note.'
+            : 'Acknowledged. The reporter sees that it is being looked into.',
+        );
       },
       onError: (e) => setError(serverErrors(e).message),
     });
@@ -99,9 +108,20 @@ function TriagePanel({ r }: { r: FieldReportDto }) {
       {done ? <Notice tone="ok">{done}</Notice> : null}
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
         {r.status === 'open' ? (
-          <Button title="Acknowledge" kind="secondary" testID="triage-acknowledge" busy={triage.isPending && triage.variables?.status === 'acknowledged'} onPress={() => send('acknowledged')} />
+          <Button
+            title="Acknowledge"
+            kind="secondary"
+            testID="triage-acknowledge"
+            busy={triage.isPending && triage.variables?.status === 'acknowledged'}
+            onPress={() => send('acknowledged')}
+          />
         ) : null}
-        <Button title="Resolve" testID="triage-resolve" busy={triage.isPending && triage.variables?.status === 'resolved'} onPress={() => send('resolved')} />
+        <Button
+          title="Resolve"
+          testID="triage-resolve"
+          busy={triage.isPending && triage.variables?.status === 'resolved'}
+          onPress={() => send('resolved')}
+        />
       </View>
     </Card>
   );
@@ -134,7 +154,15 @@ export function ReportScreen({ reportId }: { reportId: string }) {
   const main = (
     <View style={{ gap: space.lg }}>
       <Card testID="report-detail">
-        <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center', flexWrap: 'wrap', gap: space.sm }}>
+        <View
+          style={{
+            flexDirection: 'row',
+            justifyContent: 'space-between',
+            alignItems: 'center',
+            flexWrap: 'wrap',
+            gap: space.sm,
+          }}
+        >
           <T variant="label">{kindLabel(r.kind).toUpperCase()}</T>
           <ReportStatus status={r.status} testID="report-status" />
         </View>
@@ -142,8 +170,13 @@ export function ReportScreen({ reportId }: { reportId: string }) {
         <T variant="small">
           {r.reporter.name} · {fmtDateTime(r.createdAt)} ({fmtAgeDays(r.ageDays)})
         </T>
-        <Link href={`/labels/${encodeURIComponent(r.labelCode)}` as never} style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }} testID="report-label-link">
-          Open the label of {r.equipmentTag} (code <T style={{ fontFamily: fonts.numbers, color: colors.accent }}>{r.labelCode}</T>) →
+        <Link
+          href={`/labels/${encodeURIComponent(r.labelCode)}` as never}
+          style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}
+          testID="report-label-link"
+        >
+          Open the label of {r.equipmentTag} (code{' '}
+          <T style={{ fontFamily: fonts.numbers, color: colors.accent }}>{r.labelCode}</T>) →
         </Link>
       </Card>
       {r.hasPhoto ? <Photo reportId={r.id} /> : null}

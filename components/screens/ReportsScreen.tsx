@@ -1,7 +1,13 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
 import { Pressable, View } from 'react-native';
-import { FIELD_REPORT_STATUS_LABELS, FIELD_REPORT_STATUSES, reportKindLabel, type FieldReportDto, type FieldReportStatus } from '../../shared/schemas/fieldReports';
+import {
+  FIELD_REPORT_STATUS_LABELS,
+  FIELD_REPORT_STATUSES,
+  reportKindLabel,
+  type FieldReportDto,
+  type FieldReportStatus,
+} from '../../shared/schemas/fieldReports';
 import { useFieldReports } from '../../hooks/attention';
 import { fmtAgeDays, fmtDate } from '../../hooks/dates';
 import { useSites } from '../../hooks/queries';
@@ -23,12 +29,10 @@ type StatusFilter = FieldReportStatus | 'all';
 function ReportCard({ r, showReporter }: { r: FieldReportDto; showReporter: boolean }) {
   return (
     <Link href={`/reports/${r.id}` as never} asChild>
-      <Pressable
-        accessibilityRole="link"
-        testID={`report-${r.id}`}
-        style={{ ...cardStyle, gap: space.xs }}
-      >
-        <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, alignItems: 'flex-start' }}>
+      <Pressable accessibilityRole="link" testID={`report-${r.id}`} style={{ ...cardStyle, gap: space.xs }}>
+        <View
+          style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, alignItems: 'flex-start' }}
+        >
           <T variant="subheading" style={{ flexShrink: 1 }}>
             <T style={{ fontFamily: fonts.numbersBold }}>{r.equipmentTag}</T> · {kindLabel(r.kind)}
           </T>
@@ -52,7 +56,11 @@ export function ReportsScreen() {
   const own = user.role === 'electrician';
   const [status, setStatus] = useState<StatusFilter>('all');
   const [siteId, setSiteId] = useState<string>('');
-  const reports = useFieldReports({ status: status === 'all' ? undefined : status, siteId: siteId || undefined, mine: own || undefined });
+  const reports = useFieldReports({
+    status: status === 'all' ? undefined : status,
+    siteId: siteId || undefined,
+    mine: own || undefined,
+  });
   const rows = reports.data ?? [];
   const statusWord = status === 'all' ? '' : `${FIELD_REPORT_STATUS_LABELS[status].toLowerCase()} `;
 
@@ -70,10 +78,19 @@ export function ReportsScreen() {
         value={status}
         onChange={setStatus}
         testID="report-status-filter"
-        options={[{ value: 'all' as StatusFilter, label: 'All' }, ...FIELD_REPORT_STATUSES.map((s) => ({ value: s as StatusFilter, label: FIELD_REPORT_STATUS_LABELS[s] }))]}
+        options={[
+          { value: 'all' as StatusFilter, label: 'All' },
+          ...FIELD_REPORT_STATUSES.map((s) => ({ value: s as StatusFilter, label: FIELD_REPORT_STATUS_LABELS[s] })),
+        ]}
       />
       {sites.data && sites.data.length > 1 ? (
-        <Choice label="Site" value={siteId} onChange={setSiteId} options={[{ value: '', label: 'All sites' }, ...sites.data.map((s) => ({ value: s.id, label: s.name }))]} testID="report-site-filter" />
+        <Choice
+          label="Site"
+          value={siteId}
+          onChange={setSiteId}
+          options={[{ value: '', label: 'All sites' }, ...sites.data.map((s) => ({ value: s.id, label: s.name }))]}
+          testID="report-site-filter"
+        />
       ) : null}
       <QueryError error={reports.error} title="The reports could not be loaded" />
       {reports.isLoading ? <Loading what="Loading field reports…" /> : null}

@@ -52,10 +52,30 @@ function Camera({ onCode }: { onCode: (code: string) => void }) {
       stream?.getTracks().forEach((t) => t.stop());
     };
   }, [onCode]);
-  if (error) return <Notice tone="warning" testID="camera-unavailable">{error}</Notice>;
+  if (error)
+    return (
+      <Notice tone="warning" testID="camera-unavailable">
+        {error}
+      </Notice>
+    );
   return (
-    <View style={{ borderRadius: radius.lg, overflow: 'hidden', backgroundColor: '#000', aspectRatio: 1, maxWidth: 480, width: '100%', alignSelf: 'center' }}>
-      {React.createElement('video', { ref: videoRef, playsInline: true, muted: true, style: { width: '100%', height: '100%', objectFit: 'cover' } })}
+    <View
+      style={{
+        borderRadius: radius.lg,
+        overflow: 'hidden',
+        backgroundColor: '#000',
+        aspectRatio: 1,
+        maxWidth: 480,
+        width: '100%',
+        alignSelf: 'center',
+      }}
+    >
+      {React.createElement('video', {
+        ref: videoRef,
+        playsInline: true,
+        muted: true,
+        style: { width: '100%', height: '100%', objectFit: 'cover' },
+      })}
     </View>
   );
 }
@@ -77,13 +97,26 @@ export function ScanScreen() {
       {Platform.OS === 'web' ? (
         <Card>
           <T variant="subheading">Camera</T>
-          {camera ? <Camera onCode={open} /> : <Button title="Scan with the camera" testID="start-camera" onPress={() => setCamera(true)} />}
+          {camera ? (
+            <Camera onCode={open} />
+          ) : (
+            <Button title="Scan with the camera" testID="start-camera" onPress={() => setCamera(true)} />
+          )}
           <T variant="small">Hold the label’s QR code inside the frame; it opens as soon as it is read.</T>
         </Card>
       ) : null}
       <Card>
         <T variant="subheading">Type the code</T>
-        <Field label="Label code" testID="label-code" value={typed} onChangeText={setTyped} autoCapitalize="characters" error={error} onSubmitEditing={submit} hint="16 characters, e.g. 7K2M-Q9XD-4TRV-B1PH" />
+        <Field
+          label="Label code"
+          testID="label-code"
+          value={typed}
+          onChangeText={setTyped}
+          autoCapitalize="characters"
+          error={error}
+          onSubmitEditing={submit}
+          hint="16 characters, e.g. 7K2M-Q9XD-4TRV-B1PH"
+        />
         <Button title="Open the label" testID="open-label" onPress={submit} />
       </Card>
       <T variant="small" style={{ color: colors.muted }}>

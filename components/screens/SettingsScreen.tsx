@@ -35,7 +35,9 @@ export function SettingsScreen() {
     setIndependent(s.requireIndependentApprover ? 'yes' : 'no');
     setNotInstalled(String(s.notInstalledAfterDays));
     setReminderHour(String(s.reminderHourUtc));
-    setLevels(s.ppeLevels.map((l) => ({ name: l.name, max: String(l.maxCalPerCm2), description: l.description ?? '' })));
+    setLevels(
+      s.ppeLevels.map((l) => ({ name: l.name, max: String(l.maxCalPerCm2), description: l.description ?? '' })),
+    );
   }, [org.data]);
 
   const submit = () => {
@@ -47,18 +49,28 @@ export function SettingsScreen() {
       requireIndependentApprover: independent === 'yes',
       notInstalledAfterDays: notInstalled.trim() === '' ? Number.NaN : Number(notInstalled),
       reminderHourUtc: reminderHour.trim() === '' ? Number.NaN : Number(reminderHour),
-      ppeLevels: levels.map((l) => ({ name: l.name, maxCalPerCm2: Number(l.max), description: l.description || undefined })),
+      ppeLevels: levels.map((l) => ({
+        name: l.name,
+        maxCalPerCm2: Number(l.max),
+        description: l.description || undefined,
+      })),
     });
     if (!v.ok) {
-      if (v.errors.notInstalledAfterDays && !/^\d+$/.test(notInstalled.trim())) v.errors.notInstalledAfterDays = 'Enter whole days from 1 to 365';
-      if (v.errors.reminderHourUtc && !/^\d+$/.test(reminderHour.trim())) v.errors.reminderHourUtc = 'Enter a whole hour from 0 to 23';
+      if (v.errors.notInstalledAfterDays && !/^\d+$/.test(notInstalled.trim()))
+        v.errors.notInstalledAfterDays = 'Enter whole days from 1 to 365';
+      if (v.errors.reminderHourUtc && !/^\d+$/.test(reminderHour.trim()))
+        v.errors.reminderHourUtc = 'Enter a whole hour from 0 to 23';
       setErrors(v.errors);
       setMessage({ tone: 'error', text: 'Some settings need attention (marked below).' });
       return;
     }
     setErrors({});
     save.mutate(v.data, {
-      onSuccess: () => setMessage({ tone: 'ok', text: 'Settings saved. New calculations use them; approved studies keep the values they were approved with.' }),
+      onSuccess: () =>
+        setMessage({
+          tone: 'ok',
+          text: 'Settings saved. New calculations use them; approved studies keep the values they were approved with.',
+        }),
       onError: (e) => {
         const s = serverErrors(e);
         setErrors(s.fields);
@@ -67,21 +79,49 @@ export function SettingsScreen() {
     });
   };
 
-  const setLevel = (i: number, k: keyof LevelRow) => (v: string) => setLevels((ls) => ls.map((l, j) => (j === i ? { ...l, [k]: v } : l)));
+  const setLevel = (i: number, k: keyof LevelRow) => (v: string) =>
+    setLevels((ls) => ls.map((l, j) => (j === i ? { ...l, [k]: v } : l)));
 
   return (
     <Screen title="Organization settings" subtitle={org.data?.name}>
-      {message ? <Notice tone={message.tone} testID="settings-message">{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} testID="settings-message">
+          {message.text}
+        </Notice>
+      ) : null}
       <Card>
         <T variant="subheading">Reviews</T>
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-          <Field label="Review interval" unit="months" numeric testID="review" value={review} onChangeText={setReview} error={errors.reviewIntervalMonths} hint="NFPA 70E: review at least every 5 years (60 months)" containerStyle={{ flexGrow: 1, flexBasis: 220 }} />
-          <Field label="Arc-duration cap" unit="ms" numeric testID="cap" value={cap} onChangeText={setCap} error={errors.maxArcDurationMs} hint="IEEE 1584 guidance: 2 s where the worker can move away" containerStyle={{ flexGrow: 1, flexBasis: 220 }} />
+          <Field
+            label="Review interval"
+            unit="months"
+            numeric
+            testID="review"
+            value={review}
+            onChangeText={setReview}
+            error={errors.reviewIntervalMonths}
+            hint="NFPA 70E: review at least every 5 years (60 months)"
+            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+          />
+          <Field
+            label="Arc-duration cap"
+            unit="ms"
+            numeric
+            testID="cap"
+            value={cap}
+            onChangeText={setCap}
+            error={errors.maxArcDurationMs}
+            hint="IEEE 1584 guidance: 2 s where the worker can move away"
+            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+          />
         </View>
         <Choice
           label="The approving engineer must differ from the last editor"
           value={independent}
-          options={[{ value: 'no', label: 'Not required' }, { value: 'yes', label: 'Required' }]}
+          options={[
+            { value: 'no', label: 'Not required' },
+            { value: 'yes', label: 'Required' },
+          ]}
           onChange={setIndependent}
           testID="independent"
         />
@@ -108,31 +148,87 @@ export function SettingsScreen() {
             value={reminderHour}
             onChangeText={setReminderHour}
             error={errors.reminderHourUtc}
-            hint={/^\d{1,2}$/.test(reminderHour.trim()) ? `${reminderHour.trim().padStart(2, '0')}:00 UTC` : 'A whole hour from 0 to 23'}
+            hint={
+              /^\d{1,2}$/.test(reminderHour.trim())
+                ? `${reminderHour.trim().padStart(2, '0')}:00 UTC`
+                : 'A whole hour from 0 to 23'
+            }
             containerStyle={{ flexGrow: 1, flexBasis: 220 }}
           />
         </View>
       </Card>
       <Card>
         <T variant="subheading">Signal word</T>
-        <Field label="DANGER above" unit="cal/cm²" numeric testID="danger" value={danger} onChangeText={setDanger} error={errors['signalWord.dangerAboveCalPerCm2']} hint="Otherwise WARNING (ANSI Z535.4 signal words). Default 40 cal/cm², common practice." />
+        <Field
+          label="DANGER above"
+          unit="cal/cm²"
+          numeric
+          testID="danger"
+          value={danger}
+          onChangeText={setDanger}
+          error={errors['signalWord.dangerAboveCalPerCm2']}
+          hint="Otherwise WARNING (ANSI Z535.4 signal words). Default 40 cal/cm², common practice."
+        />
       </Card>
       <Card testID="ppe-levels">
         <T variant="subheading">Site PPE levels</T>
-        <T variant="small">Each level covers incident energies up to its limit. The label shows the first level that covers the energy.</T>
+        <T variant="small">
+          Each level covers incident energies up to its limit. The label shows the first level that covers the energy.
+        </T>
         {errors.ppeLevels ? <Notice tone="error">{errors.ppeLevels}</Notice> : null}
         {levels.map((l, i) => (
-          <View key={i} style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'flex-start', paddingBottom: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
-            <Field label="Name" value={l.name} onChangeText={setLevel(i, 'name')} error={errors[`ppeLevels[${i}].name`]} containerStyle={{ flexGrow: 1, flexBasis: 160 }} testID={`level-${i}-name`} />
-            <Field label="Up to" unit="cal/cm²" numeric value={l.max} onChangeText={setLevel(i, 'max')} error={errors[`ppeLevels[${i}].maxCalPerCm2`]} containerStyle={{ flexGrow: 0, flexBasis: 120 }} testID={`level-${i}-max`} />
-            <Field label="What it requires" value={l.description} onChangeText={setLevel(i, 'description')} containerStyle={{ flexGrow: 2, flexBasis: 240 }} />
-            <Pressable accessibilityRole="button" accessibilityLabel={`Remove ${l.name}`} onPress={() => setLevels((ls) => ls.filter((_, j) => j !== i))} style={{ minHeight: touch.min, justifyContent: 'center', marginTop: 20 }}>
+          <View
+            key={i}
+            style={{
+              flexDirection: 'row',
+              flexWrap: 'wrap',
+              gap: space.md,
+              alignItems: 'flex-start',
+              paddingBottom: space.md,
+              borderBottomWidth: 1,
+              borderBottomColor: colors.lineSoft,
+            }}
+          >
+            <Field
+              label="Name"
+              value={l.name}
+              onChangeText={setLevel(i, 'name')}
+              error={errors[`ppeLevels[${i}].name`]}
+              containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+              testID={`level-${i}-name`}
+            />
+            <Field
+              label="Up to"
+              unit="cal/cm²"
+              numeric
+              value={l.max}
+              onChangeText={setLevel(i, 'max')}
+              error={errors[`ppeLevels[${i}].maxCalPerCm2`]}
+              containerStyle={{ flexGrow: 0, flexBasis: 120 }}
+              testID={`level-${i}-max`}
+            />
+            <Field
+              label="What it requires"
+              value={l.description}
+              onChangeText={setLevel(i, 'description')}
+              containerStyle={{ flexGrow: 2, flexBasis: 240 }}
+            />
+            <Pressable
+              accessibilityRole="button"
+              accessibilityLabel={`Remove ${l.name}`}
+              onPress={() => setLevels((ls) => ls.filter((_, j) => j !== i))}
+              style={{ minHeight: touch.min, justifyContent: 'center', marginTop: 20 }}
+            >
               <T style={{ color: colors.danger, fontFamily: fonts.textMedium }}>Remove</T>
             </Pressable>
           </View>
         ))}
         <View style={{ flexDirection: 'row' }}>
-          <Button title="Add a level" kind="secondary" onPress={() => setLevels((ls) => [...ls, { name: '', max: '', description: '' }])} />
+          <Button
+            title="Add a level"
+            kind="secondary"
+            onPress={() => setLevels((ls) => [...ls, { name: '', max: '', description: '' }])}
+          />
         </View>
       </Card>
       <View style={{ flexDirection: 'row' }}>

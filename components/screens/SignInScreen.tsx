@@ -78,7 +78,17 @@ export function SignInScreen() {
               onSubmitEditing={() => void submit()}
             />
             <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={() => void submit()} />
-            <Link href="/forgot-password" style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium, alignSelf: 'center', paddingVertical: space.xs }} testID="forgot-password">
+            <Link
+              href="/forgot-password"
+              style={{
+                color: colors.accent,
+                fontSize: 15,
+                fontFamily: fonts.textMedium,
+                alignSelf: 'center',
+                paddingVertical: space.xs,
+              }}
+              testID="forgot-password"
+            >
               Forgot your password?
             </Link>
           </View>

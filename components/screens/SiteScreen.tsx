@@ -29,7 +29,10 @@ function NewStudy({ siteId, onCancel }: { siteId: string; onCancel: () => void }
   return (
     <Card testID="new-study">
       <T variant="subheading">Start a study</T>
-      <T variant="small">A new draft revision with an empty model. Import a workbook, CSV files or a JSON model, or build it in the editor.</T>
+      <T variant="small">
+        A new draft revision with an empty model. Import a workbook, CSV files or a JSON model, or build it in the
+        editor.
+      </T>
       <Field label="Title" testID="study-title" value={title} onChangeText={setTitle} error={error} />
       <View style={{ flexDirection: 'row', gap: space.sm }}>
         <Button title="Start the study" testID="create-study" busy={create.isPending} onPress={submit} />
@@ -62,7 +65,12 @@ export function SiteScreen({ siteId }: { siteId: string }) {
       </Screen>
     );
   }
-  if (!site.data) return <Screen title="Site"><T variant="small">Loading…</T></Screen>;
+  if (!site.data)
+    return (
+      <Screen title="Site">
+        <T variant="small">Loading…</T>
+      </Screen>
+    );
   const s = site.data;
   const open = studies.data?.find((x) => x.status === 'draft' || x.status === 'in-review');
   return (
@@ -71,8 +79,12 @@ export function SiteScreen({ siteId }: { siteId: string }) {
       subtitle={s.address || undefined}
       actions={
         <>
-          {canStudy && !starting && !open ? <Button title="Start a study" testID="start-study" onPress={() => setStarting(true)} /> : null}
-          {canEdit && !editing ? <Button title="Edit site" kind="secondary" testID="edit-site" onPress={() => setEditing(true)} /> : null}
+          {canStudy && !starting && !open ? (
+            <Button title="Start a study" testID="start-study" onPress={() => setStarting(true)} />
+          ) : null}
+          {canEdit && !editing ? (
+            <Button title="Edit site" kind="secondary" testID="edit-site" onPress={() => setEditing(true)} />
+          ) : null}
         </>
       }
     >
@@ -98,14 +110,21 @@ export function SiteScreen({ siteId }: { siteId: string }) {
       <View style={{ gap: space.sm }}>
         <T variant="heading">Equipment</T>
         <T variant="small">The equipment that carries labels, from the site’s approved studies.</T>
-        {equipment.data && equipment.data.length === 0 ? <Notice>No equipment yet: it appears when a study is approved.</Notice> : null}
+        {equipment.data && equipment.data.length === 0 ? (
+          <Notice>No equipment yet: it appears when a study is approved.</Notice>
+        ) : null}
         <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.sm }}>
           {equipment.data?.map((e) => (
-            <Card key={e.id} style={{ flexBasis: wide ? '31%' : 'auto', flexGrow: 1, gap: 2, padding: space.md }} testID={`equipment-${e.tag}`}>
+            <Card
+              key={e.id}
+              style={{ flexBasis: wide ? '31%' : 'auto', flexGrow: 1, gap: 2, padding: space.md }}
+              testID={`equipment-${e.tag}`}
+            >
               <T style={{ fontFamily: fonts.numbersBold }}>{e.tag}</T>
               <T>{e.name}</T>
               <T variant="small">
-                {findEquipmentClass(e.equipmentClass)?.label ?? e.equipmentClass} · {e.nominalKv >= 1 ? `${e.nominalKv} kV` : `${Math.round(e.nominalKv * 1000)} V`}
+                {findEquipmentClass(e.equipmentClass)?.label ?? e.equipmentClass} ·{' '}
+                {e.nominalKv >= 1 ? `${e.nominalKv} kV` : `${Math.round(e.nominalKv * 1000)} V`}
               </T>
             </Card>
           ))}

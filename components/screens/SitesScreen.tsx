@@ -21,7 +21,9 @@ export function SitesScreen() {
     <Screen
       title="Sites"
       subtitle="Facilities whose electrical equipment carries arc-flash labels."
-      actions={canEdit && !creating ? <Button title="New site" testID="new-site" onPress={() => setCreating(true)} /> : null}
+      actions={
+        canEdit && !creating ? <Button title="New site" testID="new-site" onPress={() => setCreating(true)} /> : null
+      }
     >
       {creating ? (
         <Card>
@@ -31,13 +33,37 @@ export function SitesScreen() {
       ) : null}
       {sites.error ? <Notice tone="error">{sites.error.message}</Notice> : null}
       {sites.isLoading ? <T variant="small">Loading sites…</T> : null}
-      {sites.data && sites.data.length === 0 ? <Notice>No sites yet.{canEdit ? ' Create the first one.' : ''}</Notice> : null}
+      {sites.data && sites.data.length === 0 ? (
+        <Notice>No sites yet.{canEdit ? ' Create the first one.' : ''}</Notice>
+      ) : null}
       {sites.data && wide ? (
-        <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }} testID="sites-table">
-          <View style={{ flexDirection: 'row', paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.line }}>
-            <T variant="label" style={{ flex: 2 }}>SITE</T>
-            <T variant="label" style={{ flex: 2 }}>ADDRESS</T>
-            <T variant="label" style={{ flex: 1 }}>UPDATED</T>
+        <View
+          style={{
+            backgroundColor: colors.surface,
+            borderRadius: radius.lg,
+            borderWidth: 1,
+            borderColor: colors.lineSoft,
+          }}
+          testID="sites-table"
+        >
+          <View
+            style={{
+              flexDirection: 'row',
+              paddingHorizontal: space.lg,
+              paddingVertical: space.md,
+              borderBottomWidth: 1,
+              borderBottomColor: colors.line,
+            }}
+          >
+            <T variant="label" style={{ flex: 2 }}>
+              SITE
+            </T>
+            <T variant="label" style={{ flex: 2 }}>
+              ADDRESS
+            </T>
+            <T variant="label" style={{ flex: 1 }}>
+              UPDATED
+            </T>
           </View>
           {sites.data.map((s) => (
             <Link key={s.id} href={`/sites/${s.id}` as never} asChild>
@@ -53,8 +79,12 @@ export function SitesScreen() {
                 }}
               >
                 <T style={{ flex: 2, fontFamily: fonts.textMedium }}>{s.name}</T>
-                <T variant="small" style={{ flex: 2 }}>{s.address || '—'}</T>
-                <T variant="small" style={{ flex: 1, fontFamily: fonts.numbers }}>{s.updatedAt.slice(0, 10)}</T>
+                <T variant="small" style={{ flex: 2 }}>
+                  {s.address || '—'}
+                </T>
+                <T variant="small" style={{ flex: 1, fontFamily: fonts.numbers }}>
+                  {s.updatedAt.slice(0, 10)}
+                </T>
               </Pressable>
             </Link>
           ))}

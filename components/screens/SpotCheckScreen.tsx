@@ -1,6 +1,11 @@
 import React, { useState } from 'react';
 import { View } from 'react-native';
-import { EQUIPMENT_CLASSES, ELECTRODE_CONFIGS, ELECTRODE_CONFIG_LABELS, type ElectrodeConfig } from '../../shared/equipmentClasses';
+import {
+  EQUIPMENT_CLASSES,
+  ELECTRODE_CONFIGS,
+  ELECTRODE_CONFIG_LABELS,
+  type ElectrodeConfig,
+} from '../../shared/equipmentClasses';
 import { incidentEnergyRequestSchema } from '../../shared/schemas/incidentEnergy';
 import { serverErrors, validate } from '../../hooks/forms';
 import { useIncidentEnergy } from '../../hooks/queries';
@@ -83,7 +88,14 @@ export function SpotCheckScreen() {
       const v = num(s);
       return v === undefined || !Number.isFinite(v) ? s : round(toDisplay(fromDisplay(v, unit), next));
     };
-    setForm((f) => ({ ...f, gap: conv(f.gap), workingDistance: conv(f.workingDistance), height: conv(f.height), width: conv(f.width), depth: conv(f.depth) }));
+    setForm((f) => ({
+      ...f,
+      gap: conv(f.gap),
+      workingDistance: conv(f.workingDistance),
+      height: conv(f.height),
+      width: conv(f.width),
+      depth: conv(f.depth),
+    }));
     setUnit(next);
   };
 
@@ -92,7 +104,10 @@ export function SpotCheckScreen() {
       const v = num(s);
       return v === undefined ? undefined : fromDisplay(v, unit);
     };
-    const enclosure = openAir || (!form.height && !form.width && !form.depth) ? undefined : { height: mm(form.height), width: mm(form.width), depth: mm(form.depth) };
+    const enclosure =
+      openAir || (!form.height && !form.width && !form.depth)
+        ? undefined
+        : { height: mm(form.height), width: mm(form.width), depth: mm(form.depth) };
     return {
       voltageV: num(form.voltageV),
       boltedFaultKa: num(form.boltedFaultKa),
@@ -100,7 +115,9 @@ export function SpotCheckScreen() {
       gapMm: mm(form.gap),
       workingDistanceMm: mm(form.workingDistance),
       enclosureMm: enclosure,
-      ...(form.durationMode === 'one' ? { arcDurationMs: num(form.arcDurationMs) } : { clearingMs: { full: num(form.fullMs), reduced: num(form.reducedMs) } }),
+      ...(form.durationMode === 'one'
+        ? { arcDurationMs: num(form.arcDurationMs) }
+        : { clearingMs: { full: num(form.fullMs), reduced: num(form.reducedMs) } }),
     };
   };
 
@@ -121,10 +138,17 @@ export function SpotCheckScreen() {
   const fieldStyle = { flexGrow: 1, flexBasis: 140 } as const;
   const inputs = (
     <View style={{ gap: space.lg }}>
-      {!canRun ? <Notice>Spot checks are run by engineers. You can look at the typical values of each equipment class here.</Notice> : null}
+      {!canRun ? (
+        <Notice>
+          Spot checks are run by engineers. You can look at the typical values of each equipment class here.
+        </Notice>
+      ) : null}
       <Card>
         <T variant="subheading">Equipment class</T>
-        <T variant="small">A preset fills the typical gap, enclosure and working distance (IEEE 1584-2018 typical values); every field stays editable.</T>
+        <T variant="small">
+          A preset fills the typical gap, enclosure and working distance (IEEE 1584-2018 typical values); every field
+          stays editable.
+        </T>
         <Choice
           value={form.preset}
           options={EQUIPMENT_CLASSES.map((c) => ({ value: c.id, label: c.label }))}
@@ -133,13 +157,49 @@ export function SpotCheckScreen() {
         />
       </Card>
       <Card>
-        <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center', flexWrap: 'wrap', gap: space.sm }}>
+        <View
+          style={{
+            flexDirection: 'row',
+            justifyContent: 'space-between',
+            alignItems: 'center',
+            flexWrap: 'wrap',
+            gap: space.sm,
+          }}
+        >
           <T variant="subheading">Inputs</T>
-          <Choice value={unit} options={[{ value: 'mm', label: 'mm' }, { value: 'in', label: 'in' }]} onChange={switchUnit} testID="unit" />
+          <Choice
+            value={unit}
+            options={[
+              { value: 'mm', label: 'mm' },
+              { value: 'in', label: 'in' },
+            ]}
+            onChange={switchUnit}
+            testID="unit"
+          />
         </View>
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-          <Field label="Nominal voltage" unit="V" numeric testID="voltageV" value={form.voltageV} onChangeText={set('voltageV')} error={errors.voltageV} editable={canRun} containerStyle={fieldStyle} />
-          <Field label="Bolted fault current" unit="kA" numeric testID="boltedFaultKa" value={form.boltedFaultKa} onChangeText={set('boltedFaultKa')} error={errors.boltedFaultKa} editable={canRun} containerStyle={fieldStyle} />
+          <Field
+            label="Nominal voltage"
+            unit="V"
+            numeric
+            testID="voltageV"
+            value={form.voltageV}
+            onChangeText={set('voltageV')}
+            error={errors.voltageV}
+            editable={canRun}
+            containerStyle={fieldStyle}
+          />
+          <Field
+            label="Bolted fault current"
+            unit="kA"
+            numeric
+            testID="boltedFaultKa"
+            value={form.boltedFaultKa}
+            onChangeText={set('boltedFaultKa')}
+            error={errors.boltedFaultKa}
+            editable={canRun}
+            containerStyle={fieldStyle}
+          />
         </View>
         <Choice
           label="Electrode configuration"
@@ -150,16 +210,63 @@ export function SpotCheckScreen() {
         />
         <T variant="small">{ELECTRODE_CONFIG_LABELS[form.electrodeConfig]}</T>
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-          <Field label="Gap between conductors" unit={unit} numeric testID="gap" value={form.gap} onChangeText={set('gap')} error={errors.gapMm} editable={canRun} containerStyle={fieldStyle} />
-          <Field label="Working distance" unit={unit} numeric testID="workingDistance" value={form.workingDistance} onChangeText={set('workingDistance')} error={errors.workingDistanceMm} editable={canRun} containerStyle={fieldStyle} />
+          <Field
+            label="Gap between conductors"
+            unit={unit}
+            numeric
+            testID="gap"
+            value={form.gap}
+            onChangeText={set('gap')}
+            error={errors.gapMm}
+            editable={canRun}
+            containerStyle={fieldStyle}
+          />
+          <Field
+            label="Working distance"
+            unit={unit}
+            numeric
+            testID="workingDistance"
+            value={form.workingDistance}
+            onChangeText={set('workingDistance')}
+            error={errors.workingDistanceMm}
+            editable={canRun}
+            containerStyle={fieldStyle}
+          />
         </View>
         {!openAir ? (
           <>
             <T variant="label">ENCLOSURE ({unit})</T>
             <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-              <Field label="Height" numeric testID="height" value={form.height} onChangeText={set('height')} error={errors['enclosureMm.height']} editable={canRun} containerStyle={{ flexGrow: 1, flexBasis: 90 }} />
-              <Field label="Width" numeric testID="width" value={form.width} onChangeText={set('width')} error={errors['enclosureMm.width']} editable={canRun} containerStyle={{ flexGrow: 1, flexBasis: 90 }} />
-              <Field label="Depth" numeric testID="depth" value={form.depth} onChangeText={set('depth')} error={errors['enclosureMm.depth']} editable={canRun} containerStyle={{ flexGrow: 1, flexBasis: 90 }} />
+              <Field
+                label="Height"
+                numeric
+                testID="height"
+                value={form.height}
+                onChangeText={set('height')}
+                error={errors['enclosureMm.height']}
+                editable={canRun}
+                containerStyle={{ flexGrow: 1, flexBasis: 90 }}
+              />
+              <Field
+                label="Width"
+                numeric
+                testID="width"
+                value={form.width}
+                onChangeText={set('width')}
+                error={errors['enclosureMm.width']}
+                editable={canRun}
+                containerStyle={{ flexGrow: 1, flexBasis: 90 }}
+              />
+              <Field
+                label="Depth"
+                numeric
+                testID="depth"
+                value={form.depth}
+                onChangeText={set('depth')}
+                error={errors['enclosureMm.depth']}
+                editable={canRun}
+                containerStyle={{ flexGrow: 1, flexBasis: 90 }}
+              />
             </View>
           </>
         ) : (
@@ -176,11 +283,41 @@ export function SpotCheckScreen() {
           testID="duration-mode"
         />
         {form.durationMode === 'one' ? (
-          <Field label="Arc duration" unit="ms" numeric testID="arcDurationMs" value={form.arcDurationMs} onChangeText={set('arcDurationMs')} error={errors.arcDurationMs} editable={canRun} hint="From the upstream device’s trip band at the arcing current" />
+          <Field
+            label="Arc duration"
+            unit="ms"
+            numeric
+            testID="arcDurationMs"
+            value={form.arcDurationMs}
+            onChangeText={set('arcDurationMs')}
+            error={errors.arcDurationMs}
+            editable={canRun}
+            hint="From the upstream device’s trip band at the arcing current"
+          />
         ) : (
           <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-            <Field label="At the full arcing current" unit="ms" numeric testID="fullMs" value={form.fullMs} onChangeText={set('fullMs')} error={errors['clearingMs.full']} editable={canRun} containerStyle={fieldStyle} />
-            <Field label="At the reduced arcing current" unit="ms" numeric testID="reducedMs" value={form.reducedMs} onChangeText={set('reducedMs')} error={errors['clearingMs.reduced']} editable={canRun} containerStyle={fieldStyle} />
+            <Field
+              label="At the full arcing current"
+              unit="ms"
+              numeric
+              testID="fullMs"
+              value={form.fullMs}
+              onChangeText={set('fullMs')}
+              error={errors['clearingMs.full']}
+              editable={canRun}
+              containerStyle={fieldStyle}
+            />
+            <Field
+              label="At the reduced arcing current"
+              unit="ms"
+              numeric
+              testID="reducedMs"
+              value={form.reducedMs}
+              onChangeText={set('reducedMs')}
+              error={errors['clearingMs.reduced']}
+              editable={canRun}
+              containerStyle={fieldStyle}
+            />
           </View>
         )}
         {message ? (
@@ -200,7 +337,10 @@ export function SpotCheckScreen() {
       ) : (
         <Card style={{ borderStyle: 'dashed', borderColor: colors.line }}>
           <T variant="subheading">Result</T>
-          <T variant="small">Enter the equipment and press Calculate. Both the full and the reduced arcing current are evaluated, each with its own arc duration; the larger energy governs.</T>
+          <T variant="small">
+            Enter the equipment and press Calculate. Both the full and the reduced arcing current are evaluated, each
+            with its own arc duration; the larger energy governs.
+          </T>
         </Card>
       )}
       <Cautions reviewed={false} incidentEnergyCalPerCm2={calc.data?.incidentEnergyCalPerCm2} />
@@ -208,7 +348,10 @@ export function SpotCheckScreen() {
   );
 
   return (
-    <Screen title="Spot check" subtitle="One equipment, no model: IEEE 1584-2018 arcing currents, incident energy and label values.">
+    <Screen
+      title="Spot check"
+      subtitle="One equipment, no model: IEEE 1584-2018 arcing currents, incident energy and label values."
+    >
       {wide ? (
         <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
           <View style={{ flex: 1 }}>{inputs}</View>

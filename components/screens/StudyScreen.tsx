@@ -22,8 +22,18 @@ export function StudyScreen({ studyId }: { studyId: string }) {
   const params = useLocalSearchParams<{ tab?: string }>();
   const tab: Tab = TABS.some((t) => t.value === params.tab) ? (params.tab as Tab) : 'overview';
   const study = useStudy(studyId);
-  if (study.error) return <Screen title="Study"><Notice tone="error">{study.error.message}</Notice></Screen>;
-  if (!study.data) return <Screen title="Study"><T variant="small">Loading…</T></Screen>;
+  if (study.error)
+    return (
+      <Screen title="Study">
+        <Notice tone="error">{study.error.message}</Notice>
+      </Screen>
+    );
+  if (!study.data)
+    return (
+      <Screen title="Study">
+        <T variant="small">Loading…</T>
+      </Screen>
+    );
   const s = study.data;
   return (
     <Screen title={`${s.title} · rev ${s.revision}`} subtitle={s.siteName} maxWidth={1400}>

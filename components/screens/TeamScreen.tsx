@@ -10,7 +10,21 @@ import { useCreateUser, useUpdateUser, useUsers } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, space } from '../theme';
-import { Button, Card, Choice, ConfirmButton, Empty, Field, Loading, Notice, Pill, type PillTone, QueryError, Screen, T } from '../ui';
+import {
+  Button,
+  Card,
+  Choice,
+  ConfirmButton,
+  Empty,
+  Field,
+  Loading,
+  Notice,
+  Pill,
+  type PillTone,
+  QueryError,
+  Screen,
+  T,
+} from '../ui';
 
 const inRow = { flexGrow: 1, flexBasis: 220 } as const;
 const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
@@ -39,11 +53,41 @@ function NewUserForm({ onDone }: { onDone: () => void }) {
       <T variant="subheading">Add a person</T>
       {message ? <Notice tone="error">{message}</Notice> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <Field label="Name" testID="user-name" value={form.name} onChangeText={set('name')} error={errors.name} containerStyle={inRow} />
-        <Field label="E-mail" testID="user-email" value={form.email} onChangeText={set('email')} autoCapitalize="none" error={errors.email} containerStyle={inRow} />
-        <Field label="Initial password" testID="user-password" value={form.password} onChangeText={set('password')} secureTextEntry error={errors.password} hint="At least 10 characters" containerStyle={inRow} />
+        <Field
+          label="Name"
+          testID="user-name"
+          value={form.name}
+          onChangeText={set('name')}
+          error={errors.name}
+          containerStyle={inRow}
+        />
+        <Field
+          label="E-mail"
+          testID="user-email"
+          value={form.email}
+          onChangeText={set('email')}
+          autoCapitalize="none"
+          error={errors.email}
+          containerStyle={inRow}
+        />
+        <Field
+          label="Initial password"
+          testID="user-password"
+          value={form.password}
+          onChangeText={set('password')}
+          secureTextEntry
+          error={errors.password}
+          hint="At least 10 characters"
+          containerStyle={inRow}
+        />
       </View>
-      <Choice label="Role" value={form.role} options={roleOptions} onChange={(r) => setForm((f) => ({ ...f, role: r }))} testID="user-role" />
+      <Choice
+        label="Role"
+        value={form.role}
+        options={roleOptions}
+        onChange={(r) => setForm((f) => ({ ...f, role: r }))}
+        testID="user-role"
+      />
       <View style={{ flexDirection: 'row', gap: space.sm }}>
         <Button title="Add person" testID="user-create" busy={create.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onDone} />
@@ -78,13 +122,37 @@ function InviteForm({ onDone, onSent }: { onDone: () => void; onSent: (i: Invita
   return (
     <Card testID="invite-form">
       <T variant="subheading">Invite someone</T>
-      <T variant="small">They get an e-mail with a link to choose their own password. The link works for 7 days, once.</T>
+      <T variant="small">
+        They get an e-mail with a link to choose their own password. The link works for 7 days, once.
+      </T>
       {message ? <Notice tone="error">{message}</Notice> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <Field label="Name" testID="invite-name" value={form.name} onChangeText={set('name')} error={errors.name} containerStyle={inRow} />
-        <Field label="E-mail" testID="invite-email" value={form.email} onChangeText={set('email')} autoCapitalize="none" inputMode="email" error={errors.email} containerStyle={inRow} />
+        <Field
+          label="Name"
+          testID="invite-name"
+          value={form.name}
+          onChangeText={set('name')}
+          error={errors.name}
+          containerStyle={inRow}
+        />
+        <Field
+          label="E-mail"
+          testID="invite-email"
+          value={form.email}
+          onChangeText={set('email')}
+          autoCapitalize="none"
+          inputMode="email"
+          error={errors.email}
+          containerStyle={inRow}
+        />
       </View>
-      <Choice label="Role" value={form.role} options={roleOptions} onChange={(r) => setForm((f) => ({ ...f, role: r }))} testID="invite-role" />
+      <Choice
+        label="Role"
+        value={form.role}
+        options={roleOptions}
+        onChange={(r) => setForm((f) => ({ ...f, role: r }))}
+        testID="invite-role"
+      />
       <View style={{ flexDirection: 'row', gap: space.sm }}>
         <Button title="Send invitation" testID="invite-send" busy={invite.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onDone} />
@@ -107,7 +175,10 @@ function InvitationRow({ i }: { i: InvitationDto }) {
   const st = INVITATION_STATUS[i.status];
   const open = i.status === 'pending' || i.status === 'expired';
   return (
-    <View testID={`invitation-${i.email}`} style={{ gap: space.sm, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}>
+    <View
+      testID={`invitation-${i.email}`}
+      style={{ gap: space.sm, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
+    >
       <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
         <View style={{ gap: 2, flexShrink: 1 }}>
           <T style={{ fontFamily: fonts.textMedium }}>
@@ -133,7 +204,8 @@ function InvitationRow({ i }: { i: InvitationDto }) {
             busy={resend.isPending}
             onPress={() =>
               resend.mutate(i.id, {
-                onSuccess: () => setNote({ tone: 'ok', text: 'Sent again with a new link; the earlier link no longer works.' }),
+                onSuccess: () =>
+                  setNote({ tone: 'ok', text: 'Sent again with a new link; the earlier link no longer works.' }),
                 onError: (e) => setNote({ tone: 'error', text: serverErrors(e).message }),
               })
             }
@@ -144,7 +216,9 @@ function InvitationRow({ i }: { i: InvitationDto }) {
               question={`Revoke the invitation of ${i.email}? The link stops working.`}
               busy={revoke.isPending}
               testID={`invitation-revoke-${i.email}`}
-              onConfirm={() => revoke.mutate(i.id, { onError: (e) => setNote({ tone: 'error', text: serverErrors(e).message }) })}
+              onConfirm={() =>
+                revoke.mutate(i.id, { onError: (e) => setNote({ tone: 'error', text: serverErrors(e).message }) })
+              }
             />
           ) : null}
         </View>
@@ -190,7 +264,10 @@ function UserRow({ u, self }: { u: UserAdmin; self: boolean }) {
   const update = useUpdateUser();
   const [error, setError] = useState<string | null>(null);
   const change = (input: { role?: Role; active?: boolean }) =>
-    update.mutate({ id: u.id, ...input }, { onError: (e) => setError(serverErrors(e).message), onSuccess: () => setError(null) });
+    update.mutate(
+      { id: u.id, ...input },
+      { onError: (e) => setError(serverErrors(e).message), onSuccess: () => setError(null) },
+    );
   return (
     <Card testID={`user-${u.email}`} style={{ opacity: u.active ? 1 : 0.7 }}>
       <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
@@ -199,14 +276,23 @@ function UserRow({ u, self }: { u: UserAdmin; self: boolean }) {
             {u.name}
             {self ? ' (you)' : ''}
           </T>
-          <T variant="small" style={{ fontFamily: fonts.numbers }}>{u.email}</T>
+          <T variant="small" style={{ fontFamily: fonts.numbers }}>
+            {u.email}
+          </T>
         </View>
-        <T style={{ color: u.active ? colors.ok : colors.danger, fontFamily: fonts.textBold }}>{u.active ? 'Active' : 'Deactivated'}</T>
+        <T style={{ color: u.active ? colors.ok : colors.danger, fontFamily: fonts.textBold }}>
+          {u.active ? 'Active' : 'Deactivated'}
+        </T>
       </View>
       {error ? <Notice tone="error">{error}</Notice> : null}
       {!self ? (
         <>
-          <Choice value={u.role} options={roleOptions} onChange={(role) => change({ role })} testID={`role-${u.email}`} />
+          <Choice
+            value={u.role}
+            options={roleOptions}
+            onChange={(role) => change({ role })}
+            testID={`role-${u.email}`}
+          />
           <View style={{ flexDirection: 'row' }}>
             <Button
               title={u.active ? 'Deactivate' : 'Reactivate'}
@@ -237,7 +323,9 @@ export function TeamScreen() {
       actions={
         <>
           {!inviting ? <Button title="Invite someone" testID="invite-user" onPress={() => setInviting(true)} /> : null}
-          {!adding ? <Button title="Add a person" kind="secondary" testID="add-user" onPress={() => setAdding(true)} /> : null}
+          {!adding ? (
+            <Button title="Add a person" kind="secondary" testID="add-user" onPress={() => setAdding(true)} />
+          ) : null}
         </>
       }
     >

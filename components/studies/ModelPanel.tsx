@@ -19,12 +19,17 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
   const [table, setTable] = useState<(typeof TABLES)[number]>('buses');
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string; lines?: string[] } | null>(null);
   const download = (query: string, name: string) =>
-    downloadFile(`/studies/${study.id}/export?${query}`, name).catch((e) => setMessage({ tone: 'error', text: serverErrors(e).message }));
+    downloadFile(`/studies/${study.id}/export?${query}`, name).catch((e) =>
+      setMessage({ tone: 'error', text: serverErrors(e).message }),
+    );
   const onFiles = (files: File[]) => {
     setMessage(null);
     imp.mutate(files, {
       onSuccess: (env) => {
-        setMessage({ tone: 'ok', text: `Imported ${files.map((f) => f.name).join(', ')}: model version ${env.version}.` });
+        setMessage({
+          tone: 'ok',
+          text: `Imported ${files.map((f) => f.name).join(', ')}: model version ${env.version}.`,
+        });
         onImported();
       },
       onError: (e) => {
@@ -63,17 +68,33 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
             },
             style: { fontSize: 15, padding: 8 },
           })}
-          <T variant="small">A workbook (one sheet per element type), CSV files (one per element type, e.g. buses.csv), or a JSON model.</T>
+          <T variant="small">
+            A workbook (one sheet per element type), CSV files (one per element type, e.g. buses.csv), or a JSON model.
+          </T>
         </View>
       ) : null}
       <T variant="label">EXPORT</T>
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
-        <Button title="Workbook (.xlsx)" kind="secondary" testID="export-xlsx" onPress={() => void download('format=xlsx', 'model.xlsx')} />
-        <Button title="JSON" kind="secondary" testID="export-json" onPress={() => void download('format=json', 'model.json')} />
+        <Button
+          title="Workbook (.xlsx)"
+          kind="secondary"
+          testID="export-xlsx"
+          onPress={() => void download('format=xlsx', 'model.xlsx')}
+        />
+        <Button
+          title="JSON"
+          kind="secondary"
+          testID="export-json"
+          onPress={() => void download('format=json', 'model.json')}
+        />
       </View>
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' }}>
         <Choice value={table} options={TABLES.map((t) => ({ value: t, label: t }))} onChange={setTable} />
-        <Button title="CSV of this table" kind="secondary" onPress={() => void download(`format=csv&element=${table}`, `${table}.csv`)} />
+        <Button
+          title="CSV of this table"
+          kind="secondary"
+          onPress={() => void download(`format=csv&element=${table}`, `${table}.csv`)}
+        />
       </View>
     </Card>
   );
@@ -121,7 +142,9 @@ export function ModelPanel({ study }: { study: StudyDto }) {
         onSuccess: (env) => {
           setBaseVersion(env.version);
           setDirty(false);
-          setSaved(`Saved as model version ${env.version}${env.issues.length ? ` — ${env.issues.length} problem(s) to fix before a run` : ''}.`);
+          setSaved(
+            `Saved as model version ${env.version}${env.issues.length ? ` — ${env.issues.length} problem(s) to fix before a run` : ''}.`,
+          );
         },
         onError: (e) => setConflict(serverErrors(e).message),
       },
@@ -143,11 +166,22 @@ export function ModelPanel({ study }: { study: StudyDto }) {
     <View style={{ gap: space.lg }}>
       {!editable ? (
         <Notice>
-          {study.status === 'draft' ? 'Only engineers edit the model.' : `Revision ${study.revision} is ${study.status}: its model is read-only. Start a new revision to change it.`}
+          {study.status === 'draft'
+            ? 'Only engineers edit the model.'
+            : `Revision ${study.revision} is ${study.status}: its model is read-only. Start a new revision to change it.`}
         </Notice>
       ) : null}
       {editable ? (
-        <Card style={{ flexDirection: 'row', alignItems: 'center', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm, paddingVertical: space.md }}>
+        <Card
+          style={{
+            flexDirection: 'row',
+            alignItems: 'center',
+            justifyContent: 'space-between',
+            flexWrap: 'wrap',
+            gap: space.sm,
+            paddingVertical: space.md,
+          }}
+        >
           <T testID="model-state" style={{ color: dirty ? colors.caution : colors.muted }}>
             {dirty ? 'Unsaved changes' : `Saved · model version ${baseVersion}`}
             {issues.length ? ` · ${issues.length} problem${issues.length === 1 ? '' : 's'}` : ' · no problems'}

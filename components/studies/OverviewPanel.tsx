@@ -5,12 +5,20 @@ import { approveSchema, type StudyDto } from '../../shared/schemas/studies';
 import { downloadFile } from '../../hooks/download';
 import { serverErrors, validate } from '../../hooks/forms';
 import { useUser } from '../../hooks/session';
-import { useApproveStudy, useReturnToDraft, useReviseStudy, useRun, useStartRun, useSubmitStudy } from '../../hooks/studies';
+import {
+  useApproveStudy,
+  useReturnToDraft,
+  useReviseStudy,
+  useRun,
+  useStartRun,
+  useSubmitStudy,
+} from '../../hooks/studies';
 import { Cautions } from '../Cautions';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Button, Card, Field, Notice, ProgressBar, T } from '../ui';
 
-const when = (iso: string | null | undefined) => (iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' }) : '—');
+const when = (iso: string | null | undefined) =>
+  iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' }) : '—';
 
 function RunPanel({ study }: { study: StudyDto }) {
   const user = useUser();
@@ -23,12 +31,20 @@ function RunPanel({ study }: { study: StudyDto }) {
     <Card testID="run-panel">
       <T variant="subheading">Run</T>
       <T variant="small">
-        Short circuit at every bus, both arcing currents, the clearing time of every device on the way, then incident energy and label values.
+        Short circuit at every bus, both arcing currents, the clearing time of every device on the way, then incident
+        energy and label values.
       </T>
       {r ? (
         <View style={{ gap: space.xs }}>
           <T testID="run-status">
-            {r.status === 'done' ? 'Finished' : r.status === 'failed' ? 'Failed' : r.status === 'queued' ? 'Waiting to start' : 'Running'} · {r.message}
+            {r.status === 'done'
+              ? 'Finished'
+              : r.status === 'failed'
+                ? 'Failed'
+                : r.status === 'queued'
+                  ? 'Waiting to start'
+                  : 'Running'}{' '}
+            · {r.message}
           </T>
           {active ? <ProgressBar value={r.progress} testID="run-progress" /> : null}
           <T variant="small">
@@ -36,7 +52,9 @@ function RunPanel({ study }: { study: StudyDto }) {
             {r.finishedAt ? ` · finished ${when(r.finishedAt)}` : ''} · model version {r.modelVersion}
           </T>
           {r.status === 'done' && r.modelVersion !== study.modelVersion ? (
-            <Notice tone="warning">The model has changed since this run (now version {study.modelVersion}). Run again before review.</Notice>
+            <Notice tone="warning">
+              The model has changed since this run (now version {study.modelVersion}). Run again before review.
+            </Notice>
           ) : null}
           {r.status === 'failed' ? <Notice tone="error">{r.message}</Notice> : null}
         </View>
@@ -44,7 +62,14 @@ function RunPanel({ study }: { study: StudyDto }) {
         <T variant="small">Not run yet.</T>
       )}
       {start.error ? <Notice tone="error">{serverErrors(start.error).message}</Notice> : null}
-      {canRun ? <Button title={active ? 'Running…' : 'Run the study'} testID="run-study" busy={start.isPending || !!active} onPress={() => start.mutate()} /> : null}
+      {canRun ? (
+        <Button
+          title={active ? 'Running…' : 'Run the study'}
+          testID="run-study"
+          busy={start.isPending || !!active}
+          onPress={() => start.mutate()}
+        />
+      ) : null}
     </Card>
   );
 }
@@ -72,13 +97,35 @@ function ApproveForm({ study }: { study: StudyDto }) {
     <Card testID="approve-form">
       <T variant="subheading">Review and approval</T>
       <T variant="small">
-        Approval records the approving engineer’s name, licence number and jurisdiction. The approved revision can no longer change; it supersedes the site’s previous approved revision.
+        Approval records the approving engineer’s name, licence number and jurisdiction. The approved revision can no
+        longer change; it supersedes the site’s previous approved revision.
       </T>
       {message ? <Notice tone="error">{message}</Notice> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <Field label="Approving engineer" testID="approver-name" value={form.approverName} onChangeText={(v) => setForm((f) => ({ ...f, approverName: v }))} error={errors.approverName} containerStyle={{ flexGrow: 1, flexBasis: 200 }} />
-        <Field label="Licence number" testID="licence-number" value={form.licenceNumber} onChangeText={(v) => setForm((f) => ({ ...f, licenceNumber: v }))} error={errors.licenceNumber} containerStyle={{ flexGrow: 1, flexBasis: 160 }} />
-        <Field label="Jurisdiction" testID="jurisdiction" value={form.jurisdiction} onChangeText={(v) => setForm((f) => ({ ...f, jurisdiction: v }))} error={errors.jurisdiction} containerStyle={{ flexGrow: 1, flexBasis: 160 }} />
+        <Field
+          label="Approving engineer"
+          testID="approver-name"
+          value={form.approverName}
+          onChangeText={(v) => setForm((f) => ({ ...f, approverName: v }))}
+          error={errors.approverName}
+          containerStyle={{ flexGrow: 1, flexBasis: 200 }}
+        />
+        <Field
+          label="Licence number"
+          testID="licence-number"
+          value={form.licenceNumber}
+          onChangeText={(v) => setForm((f) => ({ ...f, licenceNumber: v }))}
+          error={errors.licenceNumber}
+          containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+        />
+        <Field
+          label="Jurisdiction"
+          testID="jurisdiction"
+          value={form.jurisdiction}
+          onChangeText={(v) => setForm((f) => ({ ...f, jurisdiction: v }))}
+          error={errors.jurisdiction}
+          containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+        />
       </View>
       <Pressable
         accessibilityRole="checkbox"
@@ -87,12 +134,29 @@ function ApproveForm({ study }: { study: StudyDto }) {
         onPress={() => setForm((f) => ({ ...f, confirm: !f.confirm }))}
         style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', minHeight: touch.min }}
       >
-        <View style={{ width: 26, height: 26, borderRadius: 4, borderWidth: 2, borderColor: errors.confirm ? colors.danger : colors.ink, alignItems: 'center', justifyContent: 'center', backgroundColor: form.confirm ? colors.ink : colors.surface }}>
+        <View
+          style={{
+            width: 26,
+            height: 26,
+            borderRadius: 4,
+            borderWidth: 2,
+            borderColor: errors.confirm ? colors.danger : colors.ink,
+            alignItems: 'center',
+            justifyContent: 'center',
+            backgroundColor: form.confirm ? colors.ink : colors.surface,
+          }}
+        >
           {form.confirm ? <T style={{ color: '#fff', fontFamily: fonts.textBold }}>✓</T> : null}
         </View>
-        <T style={{ flexShrink: 1 }}>I reviewed the model, the results and their warnings, and I take responsibility for this approval.</T>
+        <T style={{ flexShrink: 1 }}>
+          I reviewed the model, the results and their warnings, and I take responsibility for this approval.
+        </T>
       </Pressable>
-      {errors.confirm ? <T variant="small" style={{ color: colors.danger }}>{errors.confirm}</T> : null}
+      {errors.confirm ? (
+        <T variant="small" style={{ color: colors.danger }}>
+          {errors.confirm}
+        </T>
+      ) : null}
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
         <Button title="Approve this revision" testID="approve" busy={approve.isPending} onPress={submit} />
         <Button title="Return to draft" kind="secondary" busy={back.isPending} onPress={() => back.mutate()} />
@@ -113,7 +177,13 @@ function ReviewPanel({ study }: { study: StudyDto }) {
         <T variant="subheading">Review</T>
         <T variant="small">Submit when the results on the current model are ready for an engineer’s review.</T>
         {submit.error ? <Notice tone="error">{serverErrors(submit.error).message}</Notice> : null}
-        <Button title="Submit for review" testID="submit-review" kind={study.resultsCurrent ? 'primary' : 'secondary'} busy={submit.isPending} onPress={() => submit.mutate()} />
+        <Button
+          title="Submit for review"
+          testID="submit-review"
+          kind={study.resultsCurrent ? 'primary' : 'secondary'}
+          busy={submit.isPending}
+          onPress={() => submit.mutate()}
+        />
       </Card>
     );
   }
@@ -141,16 +211,33 @@ function Documents({ study }: { study: StudyDto }) {
   const canReport = user.role !== 'electrician' && (approved || study.resultsCurrent);
   const canPrint = approved && user.role !== 'safety';
   if (!canReport && !canPrint) return null;
-  const get = (path: string, name: string) => void downloadFile(path, name).catch((e) => setError(serverErrors(e).message));
+  const get = (path: string, name: string) =>
+    void downloadFile(path, name).catch((e) => setError(serverErrors(e).message));
   return (
     <Card testID="documents">
       <T variant="subheading">Documents</T>
       {error ? <Notice tone="error">{error}</Notice> : null}
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
-        {canReport ? <Button title="Study report (PDF)" kind="secondary" testID="study-report" onPress={() => get(`/studies/${study.id}/report.pdf`, 'study-report.pdf')} /> : null}
-        {canPrint ? <Button title="All labels, 4 × 6 in (PDF)" kind="secondary" testID="labels-pdf" onPress={() => get(`/studies/${study.id}/labels.pdf?size=4x6`, 'labels.pdf')} /> : null}
+        {canReport ? (
+          <Button
+            title="Study report (PDF)"
+            kind="secondary"
+            testID="study-report"
+            onPress={() => get(`/studies/${study.id}/report.pdf`, 'study-report.pdf')}
+          />
+        ) : null}
+        {canPrint ? (
+          <Button
+            title="All labels, 4 × 6 in (PDF)"
+            kind="secondary"
+            testID="labels-pdf"
+            onPress={() => get(`/studies/${study.id}/labels.pdf?size=4x6`, 'labels.pdf')}
+          />
+        ) : null}
       </View>
-      {!approved ? <T variant="small">The report of an unapproved revision is marked PRELIMINARY on every page.</T> : null}
+      {!approved ? (
+        <T variant="small">The report of an unapproved revision is marked PRELIMINARY on every page.</T>
+      ) : null}
     </Card>
   );
 }
@@ -169,7 +256,10 @@ export function OverviewPanel({ study }: { study: StudyDto }) {
             {study.lastEditedBy?.name ?? '—'} · {when(study.modelUpdatedAt)} · model version {study.modelVersion}
           </T>
           {study.approval ? (
-            <View style={{ gap: 6, padding: space.md, borderRadius: radius.md, backgroundColor: colors.okSoft }} testID="approval-block">
+            <View
+              style={{ gap: 6, padding: space.md, borderRadius: radius.md, backgroundColor: colors.okSoft }}
+              testID="approval-block"
+            >
               <T variant="label">APPROVED</T>
               <T>
                 {study.approval.approverName} · licence {study.approval.licenceNumber} · {study.approval.jurisdiction}
@@ -179,9 +269,19 @@ export function OverviewPanel({ study }: { study: StudyDto }) {
               </T>
             </View>
           ) : null}
-          {study.supersededAt ? <Notice tone="warning">Superseded on {when(study.supersededAt)} by a later approved revision.</Notice> : null}
-          {study.pastReview ? <Notice tone="error">The review date has passed: this study needs a review (NFPA 70E: at least every five years).</Notice> : null}
-          {study.stale ? <Notice tone="warning">The site’s model has changed since this approval (a newer revision is being edited).</Notice> : null}
+          {study.supersededAt ? (
+            <Notice tone="warning">Superseded on {when(study.supersededAt)} by a later approved revision.</Notice>
+          ) : null}
+          {study.pastReview ? (
+            <Notice tone="error">
+              The review date has passed: this study needs a review (NFPA 70E: at least every five years).
+            </Notice>
+          ) : null}
+          {study.stale ? (
+            <Notice tone="warning">
+              The site’s model has changed since this approval (a newer revision is being edited).
+            </Notice>
+          ) : null}
         </View>
       </Card>
       <RunPanel study={study} />

@@ -13,7 +13,16 @@ const TONES = {
 
 function Pill({ label, bg, fg, testID }: { label: string; bg: string; fg: string; testID?: string }) {
   return (
-    <View testID={testID} style={{ backgroundColor: bg, borderRadius: radius.sm, paddingHorizontal: 8, paddingVertical: 3, alignSelf: 'flex-start' }}>
+    <View
+      testID={testID}
+      style={{
+        backgroundColor: bg,
+        borderRadius: radius.sm,
+        paddingHorizontal: 8,
+        paddingVertical: 3,
+        alignSelf: 'flex-start',
+      }}
+    >
       <T style={{ color: fg, fontFamily: fonts.textBold, fontSize: 13 }}>{label}</T>
     </View>
   );

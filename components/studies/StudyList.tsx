@@ -14,8 +14,24 @@ export function StudyList({ studies }: { studies: StudyDto[] }) {
   const { wide } = useLayout();
   if (wide) {
     return (
-      <View style={{ borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft, backgroundColor: colors.surface }} testID="study-table">
-        <View style={{ flexDirection: 'row', paddingHorizontal: space.lg, paddingVertical: space.sm, borderBottomWidth: 1, borderBottomColor: colors.line }}>
+      <View
+        style={{
+          borderRadius: radius.lg,
+          borderWidth: 1,
+          borderColor: colors.lineSoft,
+          backgroundColor: colors.surface,
+        }}
+        testID="study-table"
+      >
+        <View
+          style={{
+            flexDirection: 'row',
+            paddingHorizontal: space.lg,
+            paddingVertical: space.sm,
+            borderBottomWidth: 1,
+            borderBottomColor: colors.line,
+          }}
+        >
           {['REV', 'TITLE', 'STATUS', 'APPROVED', 'REVIEW BY', 'LAST EDITED'].map((h, i) => (
             <T key={h} variant="label" style={{ flex: [0.5, 2.2, 2, 1, 1, 1.4][i] }}>
               {h}
@@ -27,7 +43,14 @@ export function StudyList({ studies }: { studies: StudyDto[] }) {
             <Pressable
               accessibilityRole="link"
               testID={`study-${s.revision}`}
-              style={{ flexDirection: 'row', alignItems: 'center', minHeight: touch.min + 4, paddingHorizontal: space.lg, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
+              style={{
+                flexDirection: 'row',
+                alignItems: 'center',
+                minHeight: touch.min + 4,
+                paddingHorizontal: space.lg,
+                borderBottomWidth: 1,
+                borderBottomColor: colors.lineSoft,
+              }}
             >
               <T style={{ flex: 0.5, fontFamily: fonts.numbersBold }}>{s.revision}</T>
               <T style={{ flex: 2.2, fontFamily: fonts.textMedium }}>{s.title}</T>
@@ -52,14 +75,23 @@ export function StudyList({ studies }: { studies: StudyDto[] }) {
           <Pressable
             accessibilityRole="link"
             testID={`study-${s.revision}`}
-            style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft, padding: space.lg, gap: space.xs }}
+            style={{
+              backgroundColor: colors.surface,
+              borderRadius: radius.lg,
+              borderWidth: 1,
+              borderColor: colors.lineSoft,
+              padding: space.lg,
+              gap: space.xs,
+            }}
           >
             <T variant="subheading">
               Rev {s.revision} · {s.title}
             </T>
             <StatusBadges study={s} />
             <T variant="small">
-              {s.approval ? `Approved ${day(s.approval.approvedAt)} · review by ${day(s.approval.reviewDueAt)}` : `Edited ${day(s.modelUpdatedAt)}`}
+              {s.approval
+                ? `Approved ${day(s.approval.approvedAt)} · review by ${day(s.approval.reviewDueAt)}`
+                : `Edited ${day(s.modelUpdatedAt)}`}
             </T>
           </Pressable>
         </Link>

@@ -21,7 +21,8 @@ export function ConfirmButton({
   testID?: string;
 }) {
   const [asking, setAsking] = useState(false);
-  if (!asking) return <Button title={title} kind="secondary" busy={busy} testID={testID} onPress={() => setAsking(true)} />;
+  if (!asking)
+    return <Button title={title} kind="secondary" busy={busy} testID={testID} onPress={() => setAsking(true)} />;
   return (
     <View style={{ gap: space.sm, flexShrink: 1 }} testID={testID ? `${testID}-confirm` : undefined}>
       <T>{question}</T>
@@ -36,7 +37,12 @@ export function ConfirmButton({
             onConfirm();
           }}
         />
-        <Button title="Keep" kind="secondary" testID={testID ? `${testID}-no` : undefined} onPress={() => setAsking(false)} />
+        <Button
+          title="Keep"
+          kind="secondary"
+          testID={testID ? `${testID}-no` : undefined}
+          onPress={() => setAsking(false)}
+        />
       </View>
     </View>
   );

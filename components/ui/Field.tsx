@@ -14,7 +14,14 @@ export function Field({
   containerStyle,
   style,
   ...rest
-}: TextInputProps & { label: string; error?: string; unit?: string; hint?: string; numeric?: boolean; containerStyle?: ViewStyle }) {
+}: TextInputProps & {
+  label: string;
+  error?: string;
+  unit?: string;
+  hint?: string;
+  numeric?: boolean;
+  containerStyle?: ViewStyle;
+}) {
   return (
     <View style={[{ gap: space.xs }, containerStyle]}>
       <T variant="label" nativeID={testID ? `${testID}-label` : undefined}>

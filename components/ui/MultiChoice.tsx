@@ -57,7 +57,9 @@ export function MultiChoice<V extends string>({
                   justifyContent: 'center',
                 }}
               >
-                {on ? <T style={{ color: colors.accentInk, fontSize: 12, lineHeight: 14, fontFamily: fonts.textBold }}>✓</T> : null}
+                {on ? (
+                  <T style={{ color: colors.accentInk, fontSize: 12, lineHeight: 14, fontFamily: fonts.textBold }}>✓</T>
+                ) : null}
               </View>
               <T style={{ fontFamily: on ? fonts.textBold : fonts.text, color: colors.ink }}>{o.label}</T>
             </Pressable>

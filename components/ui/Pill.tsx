@@ -17,7 +17,16 @@ const TONES: Record<PillTone, { bg: string; fg: string }> = {
 export function Pill({ label, tone = 'neutral', testID }: { label: string; tone?: PillTone; testID?: string }) {
   const t = TONES[tone];
   return (
-    <View testID={testID} style={{ backgroundColor: t.bg, borderRadius: radius.sm, paddingHorizontal: 8, paddingVertical: 3, alignSelf: 'flex-start' }}>
+    <View
+      testID={testID}
+      style={{
+        backgroundColor: t.bg,
+        borderRadius: radius.sm,
+        paddingHorizontal: 8,
+        paddingVertical: 3,
+        alignSelf: 'flex-start',
+      }}
+    >
       <T style={{ color: t.fg, fontFamily: fonts.textBold, fontSize: 13 }}>{label}</T>
     </View>
   );

@@ -4,7 +4,15 @@ import { colors, fonts, radius, space } from '../theme';
 import { T } from './Text';
 
 /** The frame of the pages reached without signing in (sign-in, password links): the wordmark and one white card. */
-export function PublicPage({ title, children, footer }: { title: string; children: React.ReactNode; footer?: React.ReactNode }) {
+export function PublicPage({
+  title,
+  children,
+  footer,
+}: {
+  title: string;
+  children: React.ReactNode;
+  footer?: React.ReactNode;
+}) {
   return (
     <KeyboardAvoidingView style={{ flex: 1, backgroundColor: colors.nav }}>
       <ScrollView contentContainerStyle={{ flexGrow: 1, justifyContent: 'center', padding: space.lg }}>

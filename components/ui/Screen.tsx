@@ -20,9 +20,19 @@ export function Screen({
 }) {
   const { wide } = useLayout();
   return (
-    <ScrollView style={{ flex: 1, backgroundColor: colors.canvas }} contentContainerStyle={{ padding: wide ? space.xxl : space.lg, paddingBottom: 96 }}>
+    <ScrollView
+      style={{ flex: 1, backgroundColor: colors.canvas }}
+      contentContainerStyle={{ padding: wide ? space.xxl : space.lg, paddingBottom: 96 }}
+    >
       <View style={{ width: '100%', maxWidth, alignSelf: 'center', gap: space.lg }}>
-        <View style={{ flexDirection: wide ? 'row' : 'column', justifyContent: 'space-between', gap: space.md, alignItems: wide ? 'flex-end' : 'stretch' }}>
+        <View
+          style={{
+            flexDirection: wide ? 'row' : 'column',
+            justifyContent: 'space-between',
+            gap: space.md,
+            alignItems: wide ? 'flex-end' : 'stretch',
+          }}
+        >
           <View style={{ gap: space.xs, flexShrink: 1 }}>
             <T variant="title" accessibilityRole="header">
               {title}

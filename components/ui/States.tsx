@@ -8,7 +8,10 @@ import { T } from './Text';
 /** A loading line: what is being loaded. */
 export function Loading({ what, testID }: { what: string; testID?: string }) {
   return (
-    <View testID={testID ?? 'loading'} style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', paddingVertical: space.sm }}>
+    <View
+      testID={testID ?? 'loading'}
+      style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', paddingVertical: space.sm }}
+    >
       <ActivityIndicator color={colors.accent} />
       <T variant="small">{what}</T>
     </View>
@@ -20,7 +23,15 @@ export function Empty({ title, children, testID }: { title: string; children?: R
   return (
     <View
       testID={testID ?? 'empty'}
-      style={{ borderWidth: 1, borderStyle: 'dashed', borderColor: colors.line, borderRadius: radius.lg, padding: space.lg, gap: space.xs, backgroundColor: colors.surface }}
+      style={{
+        borderWidth: 1,
+        borderStyle: 'dashed',
+        borderColor: colors.line,
+        borderRadius: radius.lg,
+        padding: space.lg,
+        gap: space.xs,
+        backgroundColor: colors.surface,
+      }}
     >
       <T variant="subheading">{title}</T>
       {typeof children === 'string' ? <T variant="small">{children}</T> : children}

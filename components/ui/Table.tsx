@@ -26,7 +26,11 @@ export interface TableRow {
 function Cell({ value, column }: { value: React.ReactNode; column: TableColumn }) {
   const style = { flex: column.flex ?? 1, paddingRight: space.sm };
   if (value === null || value === undefined || value === '') {
-    return <T variant="small" style={[style, column.numeric ? { textAlign: 'right' } : null]}>—</T>;
+    return (
+      <T variant="small" style={[style, column.numeric ? { textAlign: 'right' } : null]}>
+        —
+      </T>
+    );
   }
   if (typeof value === 'string' || typeof value === 'number') {
     return (
@@ -46,12 +50,37 @@ function Cell({ value, column }: { value: React.ReactNode; column: TableColumn }
 }
 
 /** A table for wide screens: a header row and rows that may each open a page. Phones show cards instead. */
-export function Table({ columns, rows, testID, empty }: { columns: TableColumn[]; rows: TableRow[]; testID?: string; empty?: React.ReactNode }) {
+export function Table({
+  columns,
+  rows,
+  testID,
+  empty,
+}: {
+  columns: TableColumn[];
+  rows: TableRow[];
+  testID?: string;
+  empty?: React.ReactNode;
+}) {
   return (
-    <View testID={testID} style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }}>
-      <View style={{ flexDirection: 'row', paddingHorizontal: space.lg, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.line }}>
+    <View
+      testID={testID}
+      style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }}
+    >
+      <View
+        style={{
+          flexDirection: 'row',
+          paddingHorizontal: space.lg,
+          paddingVertical: space.md,
+          borderBottomWidth: 1,
+          borderBottomColor: colors.line,
+        }}
+      >
         {columns.map((c) => (
-          <T key={c.key} variant="label" style={{ flex: c.flex ?? 1, paddingRight: space.sm, textAlign: c.numeric ? 'right' : 'left' }}>
+          <T
+            key={c.key}
+            variant="label"
+            style={{ flex: c.flex ?? 1, paddingRight: space.sm, textAlign: c.numeric ? 'right' : 'left' }}
+          >
             {c.label.toUpperCase()}
           </T>
         ))}

@@ -36,7 +36,12 @@ export function Num({
   return (
     <RNText testID={testID} style={[{ color: colors.ink }, style]}>
       <RNText style={{ fontFamily: bold ? fonts.numbersBold : fonts.numbers, fontSize: size }}>{value}</RNText>
-      {unit ? <RNText style={{ fontFamily: fonts.text, fontSize: Math.max(12, size * 0.7), color: colors.muted }}> {unit}</RNText> : null}
+      {unit ? (
+        <RNText style={{ fontFamily: fonts.text, fontSize: Math.max(12, size * 0.7), color: colors.muted }}>
+          {' '}
+          {unit}
+        </RNText>
+      ) : null}
     </RNText>
   );
 }

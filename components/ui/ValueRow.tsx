@@ -8,7 +8,14 @@ export function ValueRow({ label, children, testID }: { label: string; children:
   return (
     <View
       testID={testID}
-      style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.md, paddingVertical: 6, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
+      style={{
+        flexDirection: 'row',
+        justifyContent: 'space-between',
+        gap: space.md,
+        paddingVertical: 6,
+        borderBottomWidth: 1,
+        borderBottomColor: colors.lineSoft,
+      }}
     >
       <T variant="small" style={{ flexShrink: 1, color: colors.inkSoft }}>
         {label}

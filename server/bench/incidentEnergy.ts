@@ -13,7 +13,12 @@ function benchInputs(): IncidentEnergyInput[] {
   const regimes = [
     { voltageV: 208, gapMm: 25, workingDistanceMm: 457.2, enclosureMm: { height: 355.6, width: 304.8, depth: 203.2 } },
     { voltageV: 480, gapMm: 32, workingDistanceMm: 609.6, enclosureMm: { height: 508, width: 508, depth: 508 } },
-    { voltageV: 2400, gapMm: 104, workingDistanceMm: 914.4, enclosureMm: { height: 660.4, width: 660.4, depth: 660.4 } },
+    {
+      voltageV: 2400,
+      gapMm: 104,
+      workingDistanceMm: 914.4,
+      enclosureMm: { height: 660.4, width: 660.4, depth: 660.4 },
+    },
     { voltageV: 4160, gapMm: 104, workingDistanceMm: 914.4, enclosureMm: { height: 1143, width: 762, depth: 762 } },
     { voltageV: 13800, gapMm: 152, workingDistanceMm: 914.4, enclosureMm: { height: 1143, width: 762, depth: 762 } },
   ];

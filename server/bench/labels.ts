@@ -9,7 +9,10 @@ export function benchLabel(i: number): LabelToRender {
   const content: LabelContent = {
     signalWord: danger ? 'DANGER' : 'WARNING',
     equipmentTag: `MCC-${100 + (i % 900)}`,
-    equipmentName: i % 5 === 0 ? `Motor control centre ${i}, aeration blowers and return-activated-sludge pumps, north gallery` : `Panelboard ${i}`,
+    equipmentName:
+      i % 5 === 0
+        ? `Motor control centre ${i}, aeration blowers and return-activated-sludge pumps, north gallery`
+        : `Panelboard ${i}`,
     siteName: 'Example treatment plant',
     nominalVoltageV: i % 3 === 0 ? 4160 : 480,
     incidentEnergyCalPerCm2: energy,
@@ -51,7 +54,9 @@ export async function benchLabels(): Promise<{ name: string; opsPerSecond: numbe
     const seconds = (performance.now() - start) / 1000;
     const perSecond = count / seconds;
     if (size === '4x6') rate = perSecond;
-    lines.push(`${size}: ${count} labels in ${seconds.toFixed(2)} s (${perSecond.toFixed(0)} labels/s), ${(pdf.length / 1e6).toFixed(1)} MB`);
+    lines.push(
+      `${size}: ${count} labels in ${seconds.toFixed(2)} s (${perSecond.toFixed(0)} labels/s), ${(pdf.length / 1e6).toFixed(1)} MB`,
+    );
   }
   return { name: 'label PDF', opsPerSecond: Math.round(rate), detail: lines.join('\n') };
 }

@@ -68,11 +68,15 @@ const ms = (x: number): string => `${x.toFixed(1)} ms`.padStart(10);
 
 async function main(): Promise<void> {
   const seconds = Number(process.env.LOAD_SECONDS ?? 20);
-  if (!Number.isFinite(seconds) || seconds <= 0) throw new Error(`LOAD_SECONDS must be a positive number, got ${process.env.LOAD_SECONDS}`);
+  if (!Number.isFinite(seconds) || seconds <= 0)
+    throw new Error(`LOAD_SECONDS must be a positive number, got ${process.env.LOAD_SECONDS}`);
 
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-load-'));
   const databaseUrl = `sqlite:${path.join(dir, 'load.sqlite')}`;
-  const config = loadConfig({ NODE_ENV: 'test' }, { databaseUrl, dataDir: dir, jwtSecret: 'load-secret-load-secret-load-secret-123456' });
+  const config = loadConfig(
+    { NODE_ENV: 'test' },
+    { databaseUrl, dataDir: dir, jwtSecret: 'load-secret-load-secret-load-secret-123456' },
+  );
   const db = await openDb(databaseUrl);
   await migrate(db);
   const { app, ctx } = createApp({ config, db, signInLimitPerMinute: 1000, publicCheckPerMinute: 1e9 });
@@ -87,17 +91,30 @@ async function main(): Promise<void> {
     const engineer = DEMO_USERS.find((u) => u.role === 'engineer');
     if (!engineer) throw new Error('no demo engineer');
     const signIn = await json<{ token: string }>(
-      await fetch(`${base}/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: engineer.email, password: PASSWORD }) }),
+      await fetch(`${base}/auth/sign-in`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ email: engineer.email, password: PASSWORD }),
+      }),
       'sign-in',
     );
     const auth = { Authorization: `Bearer ${signIn.token}` };
-    const sites = await json<{ sites: { id: string }[] }>(await fetch(`${base}/sites`, { headers: auth }), 'list sites');
+    const sites = await json<{ sites: { id: string }[] }>(
+      await fetch(`${base}/sites`, { headers: auth }),
+      'list sites',
+    );
     const siteId = sites.sites[0]?.id;
     if (!siteId) throw new Error('demo site not found');
-    const studies = await json<{ studies: { id: string; status: string }[] }>(await fetch(`${base}/sites/${siteId}/studies`, { headers: auth }), 'list studies');
+    const studies = await json<{ studies: { id: string; status: string }[] }>(
+      await fetch(`${base}/sites/${siteId}/studies`, { headers: auth }),
+      'list studies',
+    );
     const study = studies.studies.find((s) => s.status === 'approved') ?? studies.studies[0];
     if (!study) throw new Error('demo study not found');
-    const labels = await json<{ labels: { code: string }[] }>(await fetch(`${base}/studies/${study.id}/labels`, { headers: auth }), 'list labels');
+    const labels = await json<{ labels: { code: string }[] }>(
+      await fetch(`${base}/studies/${study.id}/labels`, { headers: auth }),
+      'list labels',
+    );
     const code = labels.labels[0]?.code;
     if (!code) throw new Error('demo study has no labels');
 
@@ -106,11 +123,18 @@ async function main(): Promise<void> {
       { name: `GET /api/labels/:code (public)`, opts: { url: `${base}/labels/${encodeURIComponent(code)}` } },
       {
         name: `POST /api/calc/incident-energy`,
-        opts: { url: `${base}/calc/incident-energy`, method: 'POST', headers: { ...auth, 'content-type': 'application/json' }, body: JSON.stringify(INCIDENT_ENERGY_BODY) },
+        opts: {
+          url: `${base}/calc/incident-energy`,
+          method: 'POST',
+          headers: { ...auth, 'content-type': 'application/json' },
+          body: JSON.stringify(INCIDENT_ENERGY_BODY),
+        },
       },
     ];
 
-    console.log(`Emberline load (node ${process.version}, SQLite, ${CONNECTIONS} connections, ${seconds} s per route)\n`);
+    console.log(
+      `Emberline load (node ${process.version}, SQLite, ${CONNECTIONS} connections, ${seconds} s per route)\n`,
+    );
     const rows: string[] = [];
     for (const t of targets) {
       process.stdout.write(`  ${t.name} …\n`);
@@ -125,7 +149,9 @@ async function main(): Promise<void> {
           `${String(r.errors + r.timeouts).padStart(8)}${String(r.non2xx).padStart(8)}   ${codes}`,
       );
     }
-    console.log(`\n${'route'.padEnd(34)}${'p50'.padStart(10)}${'p99'.padStart(10)}${'req/s'.padStart(10)}${'errors'.padStart(8)}${'non2xx'.padStart(8)}   status codes`);
+    console.log(
+      `\n${'route'.padEnd(34)}${'p50'.padStart(10)}${'p99'.padStart(10)}${'req/s'.padStart(10)}${'errors'.padStart(8)}${'non2xx'.padStart(8)}   status codes`,
+    );
     for (const row of rows) console.log(row);
   } finally {
     await new Promise<void>((resolve) => server.close(() => resolve()));

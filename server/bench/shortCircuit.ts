@@ -98,7 +98,9 @@ export function generateLoopedModel(busCount: number, width = 25): Model {
   }
   const last = model.buses[model.buses.length - 1].id;
   const corners = [id(0, 0), id(0, width - 1), id(rows - 1, 0), last];
-  corners.forEach((bus, i) => model.sources.push({ id: `U${i}`, kind: 'utility', bus, shortCircuitMva: 400 + 100 * i, xr: 12 }));
+  corners.forEach((bus, i) =>
+    model.sources.push({ id: `U${i}`, kind: 'utility', bus, shortCircuitMva: 400 + 100 * i, xr: 12 }),
+  );
   const middle = model.buses[Math.floor(busCount / 2)].id;
   model.sources.push({ id: 'GEN', kind: 'generator', bus: middle, kva: 5000, kv: 13.8, subtransientPct: 15, xr: 30 });
   return model;

@@ -18,16 +18,63 @@ export function generatedPlant(substations = 20, perSubstation = 99): ModelInput
   const transformers: NonNullable<ModelInput['transformers']> = [];
   const cables: NonNullable<ModelInput['cables']> = [];
   const devices: NonNullable<ModelInput['devices']> = [];
-  const tm = { kind: 'thermal-magnetic' as const, ratingA: 225, thermal: { min: [[1.35, 250], [3, 9], [8, 0.9]] as [number, number][], max: [[1.35, 1400], [3, 38], [8, 4]] as [number, number][] }, instantaneous: { pickupMultiple: 10, tolerancePct: 20 }, instantaneousClearingCycles: 1.5 };
+  const tm = {
+    kind: 'thermal-magnetic' as const,
+    ratingA: 225,
+    thermal: {
+      min: [
+        [1.35, 250],
+        [3, 9],
+        [8, 0.9],
+      ] as [number, number][],
+      max: [
+        [1.35, 1400],
+        [3, 38],
+        [8, 4],
+      ] as [number, number][],
+    },
+    instantaneous: { pickupMultiple: 10, tolerancePct: 20 },
+    instantaneousClearingCycles: 1.5,
+  };
   for (let s = 0; s < substations; s++) {
     const sub = `SUB-${s}`;
     buses.push({ id: sub, name: `Substation ${s}`, nominalKv: 0.48, equipment: { class: 'switchgear-lv' } });
-    transformers.push({ id: `TX-${s}`, fromBus: 'HV', toBus: sub, kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 });
-    devices.push({ id: `M-${s}`, branch: `TX-${s}`, end: 'to', device: { kind: 'electronic', sensorA: 2000, longTime: { pickup: 1, delayS: 10 }, shortTime: { pickup: 4, delayS: 0.3, i2t: false }, pickupTolerancePct: 10, clearingS: 0.05 } });
+    transformers.push({
+      id: `TX-${s}`,
+      fromBus: 'HV',
+      toBus: sub,
+      kva: 1500,
+      primaryKv: 12.47,
+      secondaryKv: 0.48,
+      impedancePct: 5.75,
+      xr: 6,
+    });
+    devices.push({
+      id: `M-${s}`,
+      branch: `TX-${s}`,
+      end: 'to',
+      device: {
+        kind: 'electronic',
+        sensorA: 2000,
+        longTime: { pickup: 1, delayS: 10 },
+        shortTime: { pickup: 4, delayS: 0.3, i2t: false },
+        pickupTolerancePct: 10,
+        clearingS: 0.05,
+      },
+    });
     for (let i = 0; i < perSubstation; i++) {
       const id = `MCC-${s}-${i}`;
       buses.push({ id, name: `MCC ${s}.${i}`, nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep' } });
-      cables.push({ id: `F-${s}-${i}`, fromBus: sub, toBus: id, lengthM: 20 + (i % 40) * 3, sets: 1, size: '4/0', material: 'Cu', conduit: 'steel' });
+      cables.push({
+        id: `F-${s}-${i}`,
+        fromBus: sub,
+        toBus: id,
+        lengthM: 20 + (i % 40) * 3,
+        sets: 1,
+        size: '4/0',
+        material: 'Cu',
+        conduit: 'steel',
+      });
       devices.push({ id: `CB-${s}-${i}`, branch: `F-${s}-${i}`, end: 'from', device: tm });
     }
   }
@@ -47,18 +94,28 @@ export function generatedPlant(substations = 20, perSubstation = 99): ModelInput
 export async function benchStudyThroughApi(): Promise<{ name: string; opsPerSecond: number; detail: string }> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-bench-'));
   const databaseUrl = `sqlite:${path.join(dir, 'bench.sqlite')}`;
-  const config = loadConfig({ NODE_ENV: 'test' }, { databaseUrl, dataDir: dir, jwtSecret: 'bench-secret-bench-secret-bench-secret-1234' });
+  const config = loadConfig(
+    { NODE_ENV: 'test' },
+    { databaseUrl, dataDir: dir, jwtSecret: 'bench-secret-bench-secret-bench-secret-1234' },
+  );
   const db = await openDb(databaseUrl);
   await migrate(db);
   const { app, ctx } = createApp({ config, db, signInLimitPerMinute: 1000 });
   const seeded = await seedDemo(ctx, 'bench-password-1');
-  const token = (await request(app).post('/api/auth/sign-in').send({ email: 'engineer@larkspur.example', password: 'bench-password-1' })).body.token as string;
+  const token = (
+    await request(app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'engineer@larkspur.example', password: 'bench-password-1' })
+  ).body.token as string;
   const auth = { Authorization: `Bearer ${token}` };
   const model = generatedPlant();
   const busCount = model.buses!.length;
   const study = await request(app).post(`/api/sites/${seeded.siteId}/studies`).set(auth).send({ title: 'Bench' });
   const t0 = performance.now();
-  const imported = await request(app).post(`/api/studies/${study.body.id}/import`).set(auth).attach('files', Buffer.from(JSON.stringify(model)), 'plant.json');
+  const imported = await request(app)
+    .post(`/api/studies/${study.body.id}/import`)
+    .set(auth)
+    .attach('files', Buffer.from(JSON.stringify(model)), 'plant.json');
   if (imported.status !== 200) throw new Error(JSON.stringify(imported.body).slice(0, 500));
   const t1 = performance.now();
   await request(app).post(`/api/studies/${study.body.id}/run`).set(auth);

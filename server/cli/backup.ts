@@ -10,7 +10,11 @@ import { openDb } from '../db';
 
 /** 2026-12-02T03:04:05.678Z → 20261202-030405Z (sortable, no characters a file system dislikes). */
 export function backupTimestamp(d: Date): string {
-  return d.toISOString().replace(/\.\d+Z$/, 'Z').replace(/[-:]/g, '').replace('T', '-');
+  return d
+    .toISOString()
+    .replace(/\.\d+Z$/, 'Z')
+    .replace(/[-:]/g, '')
+    .replace('T', '-');
 }
 
 function fail(message: string, code = 1): never {
@@ -34,7 +38,8 @@ async function main(): Promise<void> {
     );
   }
   const storage = url.slice('sqlite:'.length);
-  if (!storage || storage === ':memory:') fail('The configured database is in memory; there is nothing on disk to back up.');
+  if (!storage || storage === ':memory:')
+    fail('The configured database is in memory; there is nothing on disk to back up.');
   const source = path.resolve(storage);
   // Opening a missing file would create an empty database: refuse instead.
   if (!fs.existsSync(source)) fail(`No database at ${source} (check DATA_DIR / DATABASE_URL).`);

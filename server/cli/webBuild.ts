@@ -2,7 +2,17 @@ import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 
-const SOURCES = ['app', 'components', 'hooks', 'shared', 'fonts', 'assets', 'app.json', 'package.json', 'babel.config.js'];
+const SOURCES = [
+  'app',
+  'components',
+  'hooks',
+  'shared',
+  'fonts',
+  'assets',
+  'app.json',
+  'package.json',
+  'babel.config.js',
+];
 
 function newestMtime(p: string): number {
   if (!fs.existsSync(p)) return 0;

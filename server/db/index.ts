@@ -33,7 +33,13 @@ export async function openDb(databaseUrl: string): Promise<Db> {
     if (storage !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(storage)), { recursive: true });
     // IMMEDIATE: a transaction takes the write lock when it begins, so two overlapping read-then-write transactions
     // wait for each other (busy timeout) instead of one failing when it tries to upgrade its lock.
-    sequelize = new Sequelize({ dialect: 'sqlite', storage, logging: false, pool: { max: 1, min: 0 }, transactionType: Transaction.TYPES.IMMEDIATE });
+    sequelize = new Sequelize({
+      dialect: 'sqlite',
+      storage,
+      logging: false,
+      pool: { max: 1, min: 0 },
+      transactionType: Transaction.TYPES.IMMEDIATE,
+    });
     configureEachSqliteConnection(sequelize);
     await sequelize.query('PRAGMA foreign_keys = ON');
     if (storage !== ':memory:') await sequelize.query('PRAGMA journal_mode = WAL');

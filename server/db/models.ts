@@ -209,7 +209,10 @@ export class ReminderRuleRow extends Model<InferAttributes<ReminderRuleRow>, Inf
   declare updatedAt: CreationOptional<Date>;
 }
 
-export class ReminderDeliveryRow extends Model<InferAttributes<ReminderDeliveryRow>, InferCreationAttributes<ReminderDeliveryRow>> {
+export class ReminderDeliveryRow extends Model<
+  InferAttributes<ReminderDeliveryRow>,
+  InferCreationAttributes<ReminderDeliveryRow>
+> {
   declare id: string;
   declare organizationId: string;
   declare ruleId: string;
@@ -264,7 +267,12 @@ export function initModels(sequelize: Sequelize): void {
     updatedAt: { type: DataTypes.DATE, allowNull: false },
   });
   Organization.init(
-    { id: col.id(), name: { type: DataTypes.STRING(200), allowNull: false }, settings: { type: DataTypes.TEXT, defaultValue: '{}' }, ...timestamps() },
+    {
+      id: col.id(),
+      name: { type: DataTypes.STRING(200), allowNull: false },
+      settings: { type: DataTypes.TEXT, defaultValue: '{}' },
+      ...timestamps(),
+    },
     { sequelize, tableName: 'organizations' },
   );
   User.init(

@@ -123,7 +123,10 @@ export function normalizePpeLevels(levels: readonly PpeLevel[]): PpeLevel[] {
  * The organization's site-specific PPE level for an incident energy: the lowest level whose upper limit is at or
  * above the energy; null when the energy is above every level (common practice, no source).
  */
-export function sitePpeLevel(incidentEnergyCalPerCm2: number, levels: readonly PpeLevel[] = DEFAULT_PPE_LEVELS): PpeLevel | null {
+export function sitePpeLevel(
+  incidentEnergyCalPerCm2: number,
+  levels: readonly PpeLevel[] = DEFAULT_PPE_LEVELS,
+): PpeLevel | null {
   return normalizePpeLevels(levels).find((level) => incidentEnergyCalPerCm2 <= level.maxCalPerCm2) ?? null;
 }
 

@@ -57,17 +57,26 @@ export function validationError(error: z.ZodError, prefix = ''): ApiError {
   const fields = fieldsFromZod(error, prefix);
   const names = Object.keys(fields);
   const message =
-    names.length === 1 ? `Invalid ${names[0]}: ${fields[names[0]]}` : `Invalid input in ${names.length} fields: ${names.slice(0, 5).join(', ')}`;
+    names.length === 1
+      ? `Invalid ${names[0]}: ${fields[names[0]]}`
+      : `Invalid input in ${names.length} fields: ${names.slice(0, 5).join(', ')}`;
   return new ApiError('bad_request', message, fields);
 }
 
 /** A model with several problems: 400 naming every element and field (`prefix` places them in the request body). */
-export function modelIssuesError(issues: { path: string; message: string; elementId?: string }[], prefix = ''): ApiError {
+export function modelIssuesError(
+  issues: { path: string; message: string; elementId?: string }[],
+  prefix = '',
+): ApiError {
   const fields: Record<string, string> = {};
   for (const i of issues) fields[`${prefix}${i.path}`] ??= i.elementId ? `${i.elementId}: ${i.message}` : i.message;
   const first = issues[0];
   const more = issues.length > 1 ? ` (and ${issues.length - 1} more)` : '';
-  return new ApiError('bad_request', `${first.elementId ? `${first.elementId} ` : ''}${prefix}${first.path}: ${first.message}${more}`, fields);
+  return new ApiError(
+    'bad_request',
+    `${first.elementId ? `${first.elementId} ` : ''}${prefix}${first.path}: ${first.message}${more}`,
+    fields,
+  );
 }
 
 export function fromEngineError(e: EngineError): ApiError {
@@ -82,7 +91,12 @@ export const errorMiddleware: ErrorRequestHandler = (err, _req, res, _next) => {
   else if (err instanceof z.ZodError) apiError = validationError(err);
   else if (err && typeof err === 'object' && 'type' in err && (err as { type: string }).type === 'entity.too.large') {
     apiError = new ApiError('payload_too_large', 'The request body is too large');
-  } else if (err && typeof err === 'object' && 'type' in err && (err as { type: string }).type === 'entity.parse.failed') {
+  } else if (
+    err &&
+    typeof err === 'object' &&
+    'type' in err &&
+    (err as { type: string }).type === 'entity.parse.failed'
+  ) {
     // Names the body as the field, like every other 400 from input (the parser's own message says where it stopped).
     const detail = err instanceof Error && err.message ? `: ${err.message.slice(0, 200)}` : '';
     apiError = new ApiError('bad_request', 'The request body is not valid JSON', { body: `Not valid JSON${detail}` });

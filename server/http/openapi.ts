@@ -17,7 +17,12 @@ function makeConverter(components: Record<string, JsonSchema>) {
     delete json.$defs;
     const suffix = io === 'input' ? 'Input' : '';
     const rewrite = (v: JsonSchema): JsonSchema =>
-      JSON.parse(JSON.stringify(v).replace(/"#\/(?:definitions|\$defs)\/([^"]+)"/g, (_m, name: string) => `"#/components/schemas/${name}${suffix}"`));
+      JSON.parse(
+        JSON.stringify(v).replace(
+          /"#\/(?:definitions|\$defs)\/([^"]+)"/g,
+          (_m, name: string) => `"#/components/schemas/${name}${suffix}"`,
+        ),
+      );
     for (const [name, def] of Object.entries(defs)) components[`${name}${suffix}`] = rewrite(def);
     return rewrite(json);
   };
@@ -45,12 +50,16 @@ export function buildOpenApi(routes: AnyRoute[], version: string): JsonSchema {
       responses: {
         [String(r.status ?? 200)]: r.produces
           ? { description: 'OK', content: { [r.produces]: { schema: { type: 'string', format: 'binary' } } } }
-          : { description: 'OK', content: { 'application/json': { schema: r.response ? toJsonSchema(r.response, 'output') : {} } } },
+          : {
+              description: 'OK',
+              content: { 'application/json': { schema: r.response ? toJsonSchema(r.response, 'output') : {} } },
+            },
         default: { description: 'Error', content: { 'application/json': { schema: errorSchema } } },
       },
     };
     if (r.access !== 'public') op.security = [{ bearer: [] }];
-    if (r.body) op.requestBody = { required: true, content: { 'application/json': { schema: toJsonSchema(r.body, 'input') } } };
+    if (r.body)
+      op.requestBody = { required: true, content: { 'application/json': { schema: toJsonSchema(r.body, 'input') } } };
     paths[oaPath] ??= {};
     paths[oaPath][r.method] = op;
   }

@@ -48,12 +48,7 @@ export function defineRoute<B = undefined, Q = undefined>(def: RouteDef<B, Q>): 
 
 export type AnyRoute = RouteDef<any, any>;
 
-export function mountRoutes(
-  router: Router,
-  ctx: AppContext,
-  routes: AnyRoute[],
-  authenticate: RequestHandler,
-): void {
+export function mountRoutes(router: Router, ctx: AppContext, routes: AnyRoute[], authenticate: RequestHandler): void {
   for (const def of routes) {
     const chain: RequestHandler[] = [...(def.before ?? [])];
     if (def.access !== 'public') {

@@ -1,9 +1,4 @@
-import {
-  MODEL_FORMAT,
-  MODEL_VERSION,
-  type Model,
-  type ModelIssue,
-} from '../../shared/schemas/model';
+import { MODEL_FORMAT, MODEL_VERSION, type Model, type ModelIssue } from '../../shared/schemas/model';
 
 /**
  * The system model as flat tables: one table per element type, one column per field. The workbook
@@ -179,7 +174,9 @@ export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
     col('branch', 'string', { note: 'Transformer, cable or tie id (or source)' }),
     col('end', 'string', { note: 'from or to (with branch)' }),
     col('source', 'string', { note: 'Source or motor id (instead of branch)' }),
-    col('device.kind', 'string', { note: 'relay, fuse, band, thermal-magnetic or electronic (repeats the device column)' }),
+    col('device.kind', 'string', {
+      note: 'relay, fuse, band, thermal-magnetic or electronic (repeats the device column)',
+    }),
     col('device', 'json', { required: true, note: 'The device object as JSON' }),
     col('library', 'json', { note: 'Library device type and switch positions, as JSON' }),
   ],
@@ -291,7 +288,8 @@ interface ReadTable {
   fieldRows: Map<string, number>;
 }
 
-const isBlank = (cell: Cell | undefined) => cell === null || cell === undefined || (typeof cell === 'string' && cell.trim() === '');
+const isBlank = (cell: Cell | undefined) =>
+  cell === null || cell === undefined || (typeof cell === 'string' && cell.trim() === '');
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const TRUE_WORDS = new Set(['true', 'yes', 'y', '1']);
 const FALSE_WORDS = new Set(['false', 'no', 'n', '0']);
@@ -303,7 +301,14 @@ function readCell(type: ColumnType, cell: Exclude<Cell, null>): { value: unknown
     case 'raw':
       return { value: typeof cell === 'string' ? cell.trim() : cell };
     case 'string':
-      return { value: typeof cell === 'string' ? cell.trim() : typeof cell === 'boolean' ? String(cell).toUpperCase() : String(cell) };
+      return {
+        value:
+          typeof cell === 'string'
+            ? cell.trim()
+            : typeof cell === 'boolean'
+              ? String(cell).toUpperCase()
+              : String(cell),
+      };
     case 'number': {
       if (typeof cell === 'number') return Number.isFinite(cell) ? { value: cell } : 'Enter a number';
       if (typeof cell === 'string' && NUMBER.test(cell.trim())) return { value: Number(cell.trim()) };
@@ -324,7 +329,8 @@ function readCell(type: ColumnType, cell: Exclude<Cell, null>): { value: unknown
       } catch (err) {
         return `Enter a JSON object: ${(err as Error).message}`;
       }
-      if (value === null || typeof value !== 'object' || Array.isArray(value)) return 'Enter a JSON object, e.g. {"kind": "fuse", …}';
+      if (value === null || typeof value !== 'object' || Array.isArray(value))
+        return 'Enter a JSON object, e.g. {"kind": "fuse", …}';
       return { value };
     }
   }
@@ -357,7 +363,11 @@ function readHeader(source: TableSource, errors: Located[]): ReadColumn[] {
     const label = `${text} (${columnLetter(index)})`;
     const column = specs.find((c) => headerKey(c.header) === headerKey(text));
     if (!column) {
-      errors.push({ ...at, column: label, message: `Unknown column "${text}": the ${title} columns are ${specs.map((c) => c.header).join(', ')}` });
+      errors.push({
+        ...at,
+        column: label,
+        message: `Unknown column "${text}": the ${title} columns are ${specs.map((c) => c.header).join(', ')}`,
+      });
     } else if (columns.some((c) => c.column === column)) {
       errors.push({ ...at, column: label, message: `Column "${column.header}" appears twice` });
     } else {
@@ -448,7 +458,12 @@ function readAbout(table: ReadTable, objects: Record<string, unknown>[], errors:
     }
     const spec = Object.entries(ABOUT_FIELDS).find(([key]) => headerKey(key) === headerKey(field));
     if (!spec) {
-      errors.push({ ...where, row, column: label('field'), message: `Unknown field "${field}": use ${Object.keys(ABOUT_FIELDS).join(', ')}` });
+      errors.push({
+        ...where,
+        row,
+        column: label('field'),
+        message: `Unknown field "${field}": use ${Object.keys(ABOUT_FIELDS).join(', ')}`,
+      });
       return;
     }
     const [key, { type }] = spec;
@@ -518,7 +533,11 @@ export function readTables(sources: TableSource[], workbookFile?: string): Parse
         ? withPlace({ file: workbookFile, sheet: TABLE_TITLES[table], ...detail })
         : withPlace({ file: csvFileName(table), ...detail });
     }
-    const base = { file: read.source.file, ...(read.source.sheet !== undefined ? { sheet: read.source.sheet } : {}), ...detail };
+    const base = {
+      file: read.source.file,
+      ...(read.source.sheet !== undefined ? { sheet: read.source.sheet } : {}),
+      ...detail,
+    };
     if (!isElement) {
       const row = read.fieldRows.get(collection);
       const valueLabel = read.columns.find((c) => c.column.header === 'value')?.label ?? 'value';

@@ -78,14 +78,21 @@ export async function importModel(files: UploadedModelFile[]): Promise<ImportMod
   if (unknown.length > 0) {
     return {
       ok: false,
-      errors: unknown.map((f) => uploadError(f.name, 'Unsupported file type: upload an .xlsx workbook, .csv files or a .json file')),
+      errors: unknown.map((f) =>
+        uploadError(f.name, 'Unsupported file type: upload an .xlsx workbook, .csv files or a .json file'),
+      ),
     };
   }
   const format = formats[0]!;
   if (formats.some((f) => f !== format) || (format !== 'csv' && files.length > 1)) {
     return {
       ok: false,
-      errors: [uploadError(files.map((f) => f.name).join(', '), 'Upload one .xlsx workbook, one .json file, or .csv files (one per table)')],
+      errors: [
+        uploadError(
+          files.map((f) => f.name).join(', '),
+          'Upload one .xlsx workbook, one .json file, or .csv files (one per table)',
+        ),
+      ],
     };
   }
 
@@ -115,15 +122,28 @@ function fileStem(model: Model): string {
  * Exports the model as JSON, an .xlsx workbook, or one table as CSV (`element` names the table: `about`, `buses`,
  * … `devices`). CSV carries a byte-order mark so that spreadsheets read it as UTF-8 (the import removes it).
  */
-export async function exportModel(model: Model, format: ModelFileFormat, element?: ModelTable): Promise<ExportedModelFile> {
+export async function exportModel(
+  model: Model,
+  format: ModelFileFormat,
+  element?: ModelTable,
+): Promise<ExportedModelFile> {
   switch (format) {
     case 'json':
       return { filename: `${fileStem(model)}.json`, mimeType: MODEL_MIME_TYPES.json, body: exportModelJson(model) };
     case 'xlsx':
-      return { filename: `${fileStem(model)}.xlsx`, mimeType: MODEL_MIME_TYPES.xlsx, body: await exportModelWorkbook(model) };
+      return {
+        filename: `${fileStem(model)}.xlsx`,
+        mimeType: MODEL_MIME_TYPES.xlsx,
+        body: await exportModelWorkbook(model),
+      };
     case 'csv': {
       if (element === undefined || !(MODEL_TABLES as readonly string[]).includes(element)) {
-        throw new EngineError('invalid-input', 'csv-table', `Name the table to export as CSV: ${MODEL_TABLES.join(', ')}`, 'element');
+        throw new EngineError(
+          'invalid-input',
+          'csv-table',
+          `Name the table to export as CSV: ${MODEL_TABLES.join(', ')}`,
+          'element',
+        );
       }
       return {
         filename: csvFileName(element),
@@ -132,6 +152,11 @@ export async function exportModel(model: Model, format: ModelFileFormat, element
       };
     }
     default:
-      throw new EngineError('invalid-input', 'model-format', `Unknown export format "${String(format)}": use json, xlsx or csv`, 'format');
+      throw new EngineError(
+        'invalid-input',
+        'model-format',
+        `Unknown export format "${String(format)}": use json, xlsx or csv`,
+        'format',
+      );
   }
 }

@@ -87,7 +87,10 @@ export function importModelCsv(files: { name: string; text: string }[]): ParsedM
     const table = tableOfFileName(name);
     if (!table) {
       errors.push(
-        withPlace({ file: name, message: `Unknown file "${name}": name it after its table, e.g. ${MODEL_TABLES.map(csvFileName).join(', ')}` }),
+        withPlace({
+          file: name,
+          message: `Unknown file "${name}": name it after its table, e.g. ${MODEL_TABLES.map(csvFileName).join(', ')}`,
+        }),
       );
       continue;
     }
@@ -98,7 +101,12 @@ export function importModelCsv(files: { name: string; text: string }[]): ParsedM
     }
     const rows = csvRows(name, text, errors);
     const [header, ...data] = rows;
-    sources.push({ table, file: name, header: header?.cells ?? [], rows: data.map((r) => ({ row: r.line, cells: r.cells })) });
+    sources.push({
+      table,
+      file: name,
+      header: header?.cells ?? [],
+      rows: data.map((r) => ({ row: r.line, cells: r.cells })),
+    });
   }
   if (errors.length > 0) return { ok: false, errors };
   return readTables(sources);

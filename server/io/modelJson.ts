@@ -156,7 +156,12 @@ export function importModelJson(text: string, fileName = 'model.json'): ParsedMo
     return { ok: false, errors: [{ file: fileName, ...(at ?? {}), where, message }] };
   }
   if (input === null || typeof input !== 'object' || Array.isArray(input)) {
-    return { ok: false, errors: [{ file: fileName, where: fileName, message: 'Expected a JSON object: { "format": "emberline-model", … }' }] };
+    return {
+      ok: false,
+      errors: [
+        { file: fileName, where: fileName, message: 'Expected a JSON object: { "format": "emberline-model", … }' },
+      ],
+    };
   }
   const locate = (issue: ModelIssue): ImportError => ({
     file: fileName,

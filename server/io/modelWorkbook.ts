@@ -55,7 +55,9 @@ function toCell(value: ExcelJS.CellValue): Cell {
   if ('richText' in value) return value.richText.map((r) => r.text).join('');
   if ('hyperlink' in value) return value.text;
   if ('formula' in value || 'sharedFormula' in value) {
-    return value.result === undefined ? { invalid: 'This formula has no saved result: enter the value' } : toCell(value.result);
+    return value.result === undefined
+      ? { invalid: 'This formula has no saved result: enter the value' }
+      : toCell(value.result);
   }
   return { invalid: 'This cell cannot be read' };
 }
@@ -80,7 +82,9 @@ export async function importModelWorkbook(buffer: Buffer, fileName = 'model.xlsx
     if (!table) {
       // A blank extra sheet is harmless; one with content is probably a misspelt table.
       if (sheet.actualRowCount > 0) {
-        errors.push(withPlace({ file: fileName, sheet: sheet.name, message: `Unknown sheet "${sheet.name}": use ${known}` }));
+        errors.push(
+          withPlace({ file: fileName, sheet: sheet.name, message: `Unknown sheet "${sheet.name}": use ${known}` }),
+        );
       }
       return;
     }
@@ -90,7 +94,13 @@ export async function importModelWorkbook(buffer: Buffer, fileName = 'model.xlsx
     }
     const width = sheet.columnCount;
     const cellsOf = (row: ExcelJS.Row) => Array.from({ length: width }, (_, i) => toCell(row.getCell(i + 1).value));
-    const source: TableSource = { table, file: fileName, sheet: sheet.name, header: cellsOf(sheet.getRow(1)), rows: [] };
+    const source: TableSource = {
+      table,
+      file: fileName,
+      sheet: sheet.name,
+      header: cellsOf(sheet.getRow(1)),
+      rows: [],
+    };
     sheet.eachRow({ includeEmpty: false }, (row, rowNumber) => {
       if (rowNumber > 1) source.rows.push({ row: rowNumber, cells: cellsOf(row) });
     });

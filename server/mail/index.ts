@@ -11,4 +11,11 @@ export {
   type DigestSection,
   type MailContent,
 } from './templates';
-export { MAIL_HEADERS, type MailKind, type MailMessage, type Mailer, type MailResult, type MailTransportKind } from './types';
+export {
+  MAIL_HEADERS,
+  type MailKind,
+  type MailMessage,
+  type Mailer,
+  type MailResult,
+  type MailTransportKind,
+} from './types';

@@ -14,7 +14,9 @@ interface Connected {
 }
 
 const addressesOf = (list: unknown): string[] =>
-  Array.isArray(list) ? list.map((a) => (typeof a === 'string' ? a : String((a as { address?: string }).address ?? ''))) : [];
+  Array.isArray(list)
+    ? list.map((a) => (typeof a === 'string' ? a : String((a as { address?: string }).address ?? '')))
+    : [];
 
 /** The host and port of an SMTP URL, for logs (never the credentials). */
 export function describeSmtpUrl(url: string): string {
@@ -71,7 +73,13 @@ class SmtpMailer implements Mailer {
         error: rejected.length ? `Refused by the mail server: ${rejected.join(', ')}` : null,
       };
     } catch (e) {
-      result = { ok: false, messageId: null, accepted: [], rejected: to, error: e instanceof Error ? e.message : String(e) };
+      result = {
+        ok: false,
+        messageId: null,
+        accepted: [],
+        rejected: to,
+        error: e instanceof Error ? e.message : String(e),
+      };
     }
     try {
       await recordAudit({
@@ -115,7 +123,9 @@ export function createMailer(config: Pick<Config, 'env' | 'smtpUrl' | 'mailFrom'
   if (config.smtpUrl) {
     const url = config.smtpUrl;
     return new SmtpMailer('smtp', config.mailFrom, async () => ({
-      transporter: nodemailer.createTransport({ ...SMTP_DEFAULTS, url } as Parameters<typeof nodemailer.createTransport>[0]),
+      transporter: nodemailer.createTransport({ ...SMTP_DEFAULTS, url } as Parameters<
+        typeof nodemailer.createTransport
+      >[0]),
       describe: `Mail: SMTP via ${describeSmtpUrl(url)}, from ${config.mailFrom}`,
     }));
   }

@@ -88,7 +88,8 @@ export async function startMailSink(opts: MailSinkOptions = {}): Promise<MailSin
     onData(stream, session, callback) {
       simpleParser(stream)
         .then(async (parsed) => {
-          if ((stream as { sizeExceeded?: boolean }).sizeExceeded) throw Object.assign(new Error('Message too large'), { responseCode: 552 });
+          if ((stream as { sizeExceeded?: boolean }).sizeExceeded)
+            throw Object.assign(new Error('Message too large'), { responseCode: 552 });
           const header = (name: string): string => {
             const v = parsed.headers.get(name.toLowerCase());
             return typeof v === 'string' ? v.trim() : '';
@@ -97,7 +98,8 @@ export async function startMailSink(opts: MailSinkOptions = {}): Promise<MailSin
             organizationId: header(MAIL_HEADERS.organization) || null,
             messageId: parsed.messageId ?? null,
             kind: header(MAIL_HEADERS.kind),
-            from: senderOf(parsed.from?.value[0]) || (session.envelope.mailFrom ? session.envelope.mailFrom.address : ''),
+            from:
+              senderOf(parsed.from?.value[0]) || (session.envelope.mailFrom ? session.envelope.mailFrom.address : ''),
             to: session.envelope.rcptTo.map((r) => r.address.toLowerCase()),
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',

@@ -14,7 +14,10 @@ export function appLink(publicBaseUrl: string, path: string): string {
 }
 
 export function escapeHtml(s: string): string {
-  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string);
+  return s.replace(
+    /[&<>"']/g,
+    (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string,
+  );
 }
 
 /** The standing caution under every reminder: the lists rest on engineering models and their approval. */
@@ -100,7 +103,9 @@ export function reminderDigestMail(input: {
       ? `Emberline reminder: nothing needs attention (${input.ruleName})`
       : `Emberline reminder: ${input.itemCount} ${input.itemCount === 1 ? 'item needs' : 'items need'} attention (${input.ruleName})`;
   const lines: string[] = [`${input.organizationName}: ${input.ruleName}, ${input.day}`, ''];
-  const html: string[] = [`<p><strong>${escapeHtml(input.organizationName)}</strong>: ${escapeHtml(input.ruleName)}, ${escapeHtml(input.day)}</p>`];
+  const html: string[] = [
+    `<p><strong>${escapeHtml(input.organizationName)}</strong>: ${escapeHtml(input.ruleName)}, ${escapeHtml(input.day)}</p>`,
+  ];
   for (const s of input.sections) {
     lines.push(`${s.title}: ${s.count}`);
     html.push(`<h3 style="margin-bottom: 4px">${escapeHtml(s.title)}: ${s.count}</h3>`);
@@ -120,8 +125,14 @@ export function reminderDigestMail(input: {
     lines.push(`  Open the list: ${s.link}`, '');
     html.push(`<p style="margin-top: 0"><a href="${escapeHtml(s.link)}">Open the list</a></p>`);
   }
-  lines.push(REMINDER_CAUTION, '', 'You receive this because of a reminder rule in Emberline; an administrator or safety officer can change it.');
+  lines.push(
+    REMINDER_CAUTION,
+    '',
+    'You receive this because of a reminder rule in Emberline; an administrator or safety officer can change it.',
+  );
   html.push(`<p><em>${escapeHtml(REMINDER_CAUTION)}</em></p>`);
-  html.push('<p style="color: #555">You receive this because of a reminder rule in Emberline; an administrator or safety officer can change it.</p>');
+  html.push(
+    '<p style="color: #555">You receive this because of a reminder rule in Emberline; an administrator or safety officer can change it.</p>',
+  );
   return { subject, text: lines.join('\n'), html: page(html) };
 }

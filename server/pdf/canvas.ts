@@ -94,7 +94,13 @@ export class Canvas {
     return this.height - top;
   }
 
-  rect(x: number, y: number, w: number, h: number, opts: { fill?: RGB; stroke?: RGB; lineWidth?: number; dash?: number[] } = {}): void {
+  rect(
+    x: number,
+    y: number,
+    w: number,
+    h: number,
+    opts: { fill?: RGB; stroke?: RGB; lineWidth?: number; dash?: number[] } = {},
+  ): void {
     this.page.drawRectangle({
       x,
       y: this.y(y + h),
@@ -107,7 +113,13 @@ export class Canvas {
     });
   }
 
-  line(x1: number, y1: number, x2: number, y2: number, opts: { width?: number; color?: RGB; dash?: number[] } = {}): void {
+  line(
+    x1: number,
+    y1: number,
+    x2: number,
+    y2: number,
+    opts: { width?: number; color?: RGB; dash?: number[] } = {},
+  ): void {
     this.page.drawLine({
       start: { x: x1, y: this.y(y1) },
       end: { x: x2, y: this.y(y2) },
@@ -118,7 +130,12 @@ export class Canvas {
   }
 
   /** An SVG path (y down) whose origin is at (x, y). */
-  path(d: string, x: number, y: number, opts: { fill?: RGB; stroke?: RGB; lineWidth?: number; dash?: number[] } = {}): void {
+  path(
+    d: string,
+    x: number,
+    y: number,
+    opts: { fill?: RGB; stroke?: RGB; lineWidth?: number; dash?: number[] } = {},
+  ): void {
     this.page.drawSvgPath(d, {
       x,
       y: this.y(y),
@@ -130,13 +147,25 @@ export class Canvas {
   }
 
   circle(cx: number, cy: number, r: number, opts: { fill?: RGB; stroke?: RGB; lineWidth?: number } = {}): void {
-    this.page.drawCircle({ x: cx, y: this.y(cy), size: r, color: opts.fill, borderColor: opts.stroke, borderWidth: opts.stroke ? (opts.lineWidth ?? 1) : 0 });
+    this.page.drawCircle({
+      x: cx,
+      y: this.y(cy),
+      size: r,
+      color: opts.fill,
+      borderColor: opts.stroke,
+      borderWidth: opts.stroke ? (opts.lineWidth ?? 1) : 0,
+    });
   }
 
   /** An image XObject already in the document (e.g. a QR code), scaled to w × h. */
   xObject(ref: PDFRef, x: number, y: number, w: number, h: number): void {
     const name = this.page.node.newXObject('Image', ref);
-    this.page.pushOperators(pushGraphicsState(), concatTransformationMatrix(w, 0, 0, h, x, this.y(y + h)), drawObject(name), popGraphicsState());
+    this.page.pushOperators(
+      pushGraphicsState(),
+      concatTransformationMatrix(w, 0, 0, h, x, this.y(y + h)),
+      drawObject(name),
+      popGraphicsState(),
+    );
   }
 
   /** One line of already-fitting text with its baseline at `baseline` (top-down). */
@@ -189,7 +218,11 @@ export class Canvas {
  * The safety alert symbol (an equilateral triangle with an exclamation mark) `h` high, as two SVG paths with
  * their origin at the top-left of the triangle's bounding box.
  */
-export function safetyAlertPaths(h: number): { triangle: string; mark: string; dot: { cx: number; cy: number; r: number } } {
+export function safetyAlertPaths(h: number): {
+  triangle: string;
+  mark: string;
+  dot: { cx: number; cy: number; r: number };
+} {
   const w = (2 * h) / Math.sqrt(3);
   const r = h * 0.06; // softened corners
   const triangle = [

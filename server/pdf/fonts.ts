@@ -71,9 +71,25 @@ export function loadFonts(): Record<FontKey, LoadedFont> {
  * up character by character) and makes fontkit's layout about 30 times faster with Inter.
  */
 const NO_FEATURES: Record<string, false> = Object.fromEntries(
-  ['rvrn', 'ltra', 'ltrm', 'ccmp', 'locl', 'rlig', 'mark', 'mkmk', 'calt', 'clig', 'liga', 'rclt', 'curs', 'kern', 'frac', 'numr', 'dnom'].map(
-    (f) => [f, false],
-  ),
+  [
+    'rvrn',
+    'ltra',
+    'ltrm',
+    'ccmp',
+    'locl',
+    'rlig',
+    'mark',
+    'mkmk',
+    'calt',
+    'clig',
+    'liga',
+    'rclt',
+    'curs',
+    'kern',
+    'frac',
+    'numr',
+    'dnom',
+  ].map((f) => [f, false]),
 );
 
 const fontKeyOf = new WeakMap<PDFFont, FontKey>();
@@ -87,7 +103,10 @@ export async function embedFonts(doc: PDFDocument): Promise<PdfFonts> {
   doc.registerFontkit(fontkit);
   const out = {} as PdfFonts;
   for (const key of FONT_KEYS) {
-    out[key] = await doc.embedFont(fonts[key].bytes, { subset: false, features: NO_FEATURES as EmbedFontOptions['features'] });
+    out[key] = await doc.embedFont(fonts[key].bytes, {
+      subset: false,
+      features: NO_FEATURES as EmbedFontOptions['features'],
+    });
     fontKeyOf.set(out[key], key);
   }
   return out;

@@ -74,7 +74,8 @@ export function sheetCells(size: 'letter' | 'a4'): { left: number; top: number; 
   const ch = (height - 2 * margin - (rows - 1) * gutter) / rows;
   const out = [];
   for (let r = 0; r < rows; r += 1) {
-    for (let c = 0; c < columns; c += 1) out.push({ left: margin + c * (cw + gutter), top: margin + r * (ch + gutter), width: cw, height: ch });
+    for (let c = 0; c < columns; c += 1)
+      out.push({ left: margin + c * (cw + gutter), top: margin + r * (ch + gutter), width: cw, height: ch });
   }
   return out;
 }
@@ -100,7 +101,9 @@ function gloveText(glove: string | null): string {
 }
 
 function clearingText(c: LabelContent): string {
-  return c.clearingDevice ? `${c.clearingDevice} — ${c.governingCase}` : `No device clears before the arc-duration limit — ${c.governingCase}`;
+  return c.clearingDevice
+    ? `${c.clearingDevice} — ${c.governingCase}`
+    : `No device clears before the arc-duration limit — ${c.governingCase}`;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -110,7 +113,16 @@ interface Ctx {
   fonts: PdfFonts;
 }
 
-function drawSignalPanel(cv: Canvas, ctx: Ctx, c: LabelContent, x: number, y: number, w: number, h: number, wordSize: number): void {
+function drawSignalPanel(
+  cv: Canvas,
+  ctx: Ctx,
+  c: LabelContent,
+  x: number,
+  y: number,
+  w: number,
+  h: number,
+  wordSize: number,
+): void {
   const colors = signalPanelColors(c.signalWord);
   cv.rect(x, y, w, h, { fill: hexColor(colors.background) });
   const symbolH = h * 0.7;
@@ -137,8 +149,23 @@ function drawSignalPanel(cv: Canvas, ctx: Ctx, c: LabelContent, x: number, y: nu
 }
 
 /** Small bold uppercase caption. */
-function caption(cv: Canvas, ctx: Ctx, text: string, x: number, y: number, w: number, size: number, maxLines = 1): number {
-  return cv.text(text.toUpperCase(), x, y, w, { font: ctx.fonts.textBold, size, minSize: size * 0.75, maxLines, lineHeight: 1.1 }).height;
+function caption(
+  cv: Canvas,
+  ctx: Ctx,
+  text: string,
+  x: number,
+  y: number,
+  w: number,
+  size: number,
+  maxLines = 1,
+): number {
+  return cv.text(text.toUpperCase(), x, y, w, {
+    font: ctx.fonts.textBold,
+    size,
+    minSize: size * 0.75,
+    maxLines,
+    lineHeight: 1.1,
+  }).height;
 }
 
 /** A number with its unit after it on the same baseline ("30.3" big, "cal/cm²" small), fitted to w. */
@@ -181,26 +208,57 @@ function valueCell(
   sizes: { caption: number; value: number; second: number },
 ): void {
   const h = caption(cv, ctx, label, x, y, w, sizes.caption);
-  const v = cv.text(value, x, y + h + 1, w, { font: ctx.fonts.monoBold, size: sizes.value, minSize: sizes.value * 0.6 });
-  if (second) cv.text(second, x, y + h + 1 + v.height, w, { font: ctx.fonts.mono, size: sizes.second, minSize: sizes.second * 0.7 });
+  const v = cv.text(value, x, y + h + 1, w, {
+    font: ctx.fonts.monoBold,
+    size: sizes.value,
+    minSize: sizes.value * 0.6,
+  });
+  if (second)
+    cv.text(second, x, y + h + 1 + v.height, w, {
+      font: ctx.fonts.mono,
+      size: sizes.second,
+      minSize: sizes.second * 0.7,
+    });
 }
 
 function noPpeBox(cv: Canvas, ctx: Ctx, x: number, y: number, w: number, h: number, size: number): void {
   cv.rect(x, y, w, h, { stroke: BLACK, lineWidth: 1.5 });
   const pad = 3;
-  const opts = { font: ctx.fonts.textBold, size, minSize: size * 0.6, maxLines: 2, align: 'center' as const, lineHeight: 1.1 };
+  const opts = {
+    font: ctx.fonts.textBold,
+    size,
+    minSize: size * 0.6,
+    maxLines: 2,
+    align: 'center' as const,
+    lineHeight: 1.1,
+  };
   const fitted = cv.fit(NO_ADEQUATE_PPE_TEXT, w - 2 * pad, opts);
   cv.drawFitted(fitted, x + pad, y + (h - fitted.height) / 2, w - 2 * pad, opts);
 }
 
-function drawQr(cv: Canvas, ctx: Ctx, qr: PDFRef, checkUrl: string, x: number, y: number, size: number, withUrl: boolean): void {
+function drawQr(
+  cv: Canvas,
+  ctx: Ctx,
+  qr: PDFRef,
+  checkUrl: string,
+  x: number,
+  y: number,
+  size: number,
+  withUrl: boolean,
+): void {
   // The image carries its own 4-module quiet zone.
   cv.xObject(qr, x, y, size, size);
   const code = groupCode(codeFromCheckUrl(checkUrl));
   const t = cv.text(code, x, y + size, size, { font: ctx.fonts.monoBold, size: 7, minSize: 4.5, align: 'center' });
   if (withUrl) {
     const shown = checkUrl.replace(/^https?:\/\//, '');
-    cv.text(shown, x, y + size + t.height, size, { font: ctx.fonts.mono, size: 5, minSize: 3.5, maxLines: 2, align: 'center' });
+    cv.text(shown, x, y + size + t.height, size, {
+      font: ctx.fonts.mono,
+      size: 5,
+      minSize: 3.5,
+      maxLines: 2,
+      align: 'center',
+    });
   }
 }
 
@@ -219,7 +277,12 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   let y = 66;
   cv.text(HAZARD_STATEMENT, L, y, CW, { font: f.textBold, size: 16, minSize: 10, align: 'center' });
   y += 20;
-  cv.text(c.noAdequatePpe ? HAZARD_SUBLINE_NO_PPE : HAZARD_SUBLINE, L, y, CW, { font: f.text, size: 7.5, minSize: 5.5, align: 'center' });
+  cv.text(c.noAdequatePpe ? HAZARD_SUBLINE_NO_PPE : HAZARD_SUBLINE, L, y, CW, {
+    font: f.text,
+    size: 7.5,
+    minSize: 5.5,
+    align: 'center',
+  });
   y += 13;
   cv.line(L, y, R, y, { width: 1 });
 
@@ -231,7 +294,11 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   caption(cv, ctx, 'Incident energy', L, y, leftW, 7);
   numberWithUnit(cv, ctx, formatCalPerCm2(c.incidentEnergyCalPerCm2), 'cal/cm²', L, y + 10, leftW, 30, 11);
   cv.text(`${formatJPerCm2(c.incidentEnergyJPerCm2)} J/cm²`, L, y + 40, leftW, { font: f.mono, size: 9, minSize: 6 });
-  cv.text(`at a working distance of ${formatWorkingDistance(c.workingDistanceMm)}`, L, y + 51, leftW, { font: f.text, size: 7, minSize: 5.5 });
+  cv.text(`at a working distance of ${formatWorkingDistance(c.workingDistanceMm)}`, L, y + 51, leftW, {
+    font: f.text,
+    size: 7,
+    minSize: 5.5,
+  });
   cv.line(rightX - 4, y, rightX - 4, y + 60, { width: 0.5 });
   caption(cv, ctx, 'Arc-flash boundary', rightX, y, rightW, 7);
   cv.text(formatMetresUp(c.arcFlashBoundaryMm), rightX, y + 12, rightW, { font: f.monoBold, size: 18, minSize: 9 });
@@ -242,7 +309,11 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   cv.line(L, y, R, y, { width: 0.5 });
   y += 4;
   const arcW = CW * 0.36;
-  valueCell(cv, ctx, 'Minimum arc rating', `${c.minimumArcRatingCalPerCm2} cal/cm²`, null, L, y, arcW, { caption: 6.5, value: 12, second: 8 });
+  valueCell(cv, ctx, 'Minimum arc rating', `${c.minimumArcRatingCalPerCm2} cal/cm²`, null, L, y, arcW, {
+    caption: 6.5,
+    value: 12,
+    second: 8,
+  });
   const ppeX = L + arcW + 8;
   const ppeW = R - ppeX;
   if (c.noAdequatePpe) {
@@ -325,11 +396,17 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   const rightW = R - rightX;
   caption(cv, ctx, 'Incident energy', L, y, leftW, 6);
   numberWithUnit(cv, ctx, formatCalPerCm2(c.incidentEnergyCalPerCm2), 'cal/cm²', L, y + 8, leftW, 22, 9);
-  cv.text(`${formatJPerCm2(c.incidentEnergyJPerCm2)} J/cm² at ${formatWorkingDistance(c.workingDistanceMm)}`, L, y + 31, leftW, {
-    font: f.mono,
-    size: 6.5,
-    minSize: 4.8,
-  });
+  cv.text(
+    `${formatJPerCm2(c.incidentEnergyJPerCm2)} J/cm² at ${formatWorkingDistance(c.workingDistanceMm)}`,
+    L,
+    y + 31,
+    leftW,
+    {
+      font: f.mono,
+      size: 6.5,
+      minSize: 4.8,
+    },
+  );
   cv.line(rightX - 3.5, y, rightX - 3.5, y + 40, { width: 0.5 });
   caption(cv, ctx, 'Arc-flash boundary', rightX, y, rightW, 6);
   cv.text(formatMetresUp(c.arcFlashBoundaryMm), rightX, y + 9, rightW, { font: f.monoBold, size: 14, minSize: 8 });
@@ -339,7 +416,11 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   cv.line(L, y, R, y, { width: 0.5 });
   y += 3;
   const arcW = CW * 0.34;
-  valueCell(cv, ctx, 'Minimum arc rating', `${c.minimumArcRatingCalPerCm2} cal/cm²`, null, L, y, arcW, { caption: 5.5, value: 9.5, second: 7 });
+  valueCell(cv, ctx, 'Minimum arc rating', `${c.minimumArcRatingCalPerCm2} cal/cm²`, null, L, y, arcW, {
+    caption: 5.5,
+    value: 9.5,
+    second: 7,
+  });
   const ppeX = L + arcW + 6;
   const ppeW = R - ppeX;
   if (c.noAdequatePpe) {
@@ -372,9 +453,19 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   y += cv.text(c.equipmentTag, L, y, eqW, { font: f.monoBold, size: 10.5, minSize: 6 }).height;
   y += cv.text(c.equipmentName, L, y, eqW, { font: f.textBold, size: 8.5, minSize: 5.5, maxLines: 2 }).height;
   y += cv.text(c.siteName, L, y, eqW, { font: f.text, size: 6.5, minSize: 4.8 }).height + 2;
-  y += cv.text(`Cleared by ${clearingText(c)}`, L, y, eqW, { font: f.text, size: 5.8, minSize: 4.5, maxLines: 2 }).height + 2;
-  y += cv.text(`Study date ${c.studyDate}  ·  Review by ${c.reviewByDate}`, L, y, eqW, { font: f.monoBold, size: 6, minSize: 4.5 }).height;
-  y += cv.text(`Study: ${c.studyTitle}, revision ${c.studyRevision}`, L, y, eqW, { font: f.text, size: 5.8, minSize: 4.5 }).height;
+  y +=
+    cv.text(`Cleared by ${clearingText(c)}`, L, y, eqW, { font: f.text, size: 5.8, minSize: 4.5, maxLines: 2 }).height +
+    2;
+  y += cv.text(`Study date ${c.studyDate}  ·  Review by ${c.reviewByDate}`, L, y, eqW, {
+    font: f.monoBold,
+    size: 6,
+    minSize: 4.5,
+  }).height;
+  y += cv.text(`Study: ${c.studyTitle}, revision ${c.studyRevision}`, L, y, eqW, {
+    font: f.text,
+    size: 5.8,
+    minSize: 4.5,
+  }).height;
   cv.text(`Approved by ${c.approvedBy}`, L, y, eqW, { font: f.text, size: 5.8, minSize: 4.2, maxLines: 2 });
   drawQr(cv, ctx, qr, checkUrl, qrX, top - 2, qrSize, false);
 
@@ -410,7 +501,9 @@ export async function renderLabels(
   opts: RenderLabelsOptions = {},
 ): Promise<Uint8Array> {
   const doc = await PDFDocument.create();
-  doc.setTitle(labels.length === 1 ? `Arc-flash label ${labels[0].content.equipmentTag}` : `Arc-flash labels (${labels.length})`);
+  doc.setTitle(
+    labels.length === 1 ? `Arc-flash label ${labels[0].content.equipmentTag}` : `Arc-flash labels (${labels.length})`,
+  );
   doc.setCreator('Emberline');
   doc.setProducer('Emberline');
   const ctx: Ctx = { fonts: await embedFonts(doc) };

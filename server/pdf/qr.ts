@@ -107,7 +107,9 @@ export function decodeQrPng(png: Buffer): string | null {
   const attempts = image.width < 200 ? [4, 1] : [1];
   for (const factor of attempts) {
     const { data, width, height } =
-      factor === 1 ? { data: new Uint8ClampedArray(image.data), width: image.width, height: image.height } : upscale(image, factor);
+      factor === 1
+        ? { data: new Uint8ClampedArray(image.data), width: image.width, height: image.height }
+        : upscale(image, factor);
     const found = jsQR(data, width, height);
     if (found) return found.data;
   }

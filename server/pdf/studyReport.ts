@@ -78,7 +78,12 @@ class ReportWriter {
     const size = level === 1 ? 14 : 11;
     this.ensure(size * 1.4 + 60); // keep with what follows
     if (level === 1 && this.y > MARGIN_TOP) this.y += 8;
-    const fitted = this.cv.text(text, MARGIN_X, this.y, CONTENT_W, { font: this.fonts.textBold, size, minSize: size * 0.7, maxLines: 2 });
+    const fitted = this.cv.text(text, MARGIN_X, this.y, CONTENT_W, {
+      font: this.fonts.textBold,
+      size,
+      minSize: size * 0.7,
+      maxLines: 2,
+    });
     this.y += fitted.height + 1;
     if (level === 1) {
       this.cv.line(MARGIN_X, this.y, MARGIN_X + CONTENT_W, this.y, { width: 0.8 });
@@ -121,7 +126,12 @@ class ReportWriter {
       const opt = { font: this.fonts.text, size, minSize: size * 0.8, maxLines: 4 };
       const value = this.cv.fit(v, CONTENT_W - labelW, opt);
       this.ensure(value.height + 3);
-      this.cv.text(k, MARGIN_X, this.y, labelW - 8, { font: this.fonts.textBold, size, minSize: size * 0.8, maxLines: 2 });
+      this.cv.text(k, MARGIN_X, this.y, labelW - 8, {
+        font: this.fonts.textBold,
+        size,
+        minSize: size * 0.8,
+        maxLines: 2,
+      });
       this.cv.drawFitted(value, MARGIN_X + labelW, this.y, CONTENT_W - labelW, opt);
       this.y += Math.max(value.height, size * LINE_HEIGHT) + 3;
     }
@@ -141,22 +151,40 @@ class ReportWriter {
         const cellSize = header ? size - 0.5 : size;
         // Numbers read best on one line: shrink a little first, wrap only if that is not enough.
         if (!header && columns[i].mono) {
-          const one = this.cv.fit(cell, widths[i] - 2 * pad, { font, size: cellSize, minSize: size * 0.85, maxLines: 1 });
+          const one = this.cv.fit(cell, widths[i] - 2 * pad, {
+            font,
+            size: cellSize,
+            minSize: size * 0.85,
+            maxLines: 1,
+          });
           if (!one.truncated) return one;
         }
-        return this.cv.fit(cell, widths[i] - 2 * pad, { font, size: cellSize, minSize: size * 0.8, maxLines: header ? 3 : 6 });
+        return this.cv.fit(cell, widths[i] - 2 * pad, {
+          font,
+          size: cellSize,
+          minSize: size * 0.8,
+          maxLines: header ? 3 : 6,
+        });
       });
-    const rowHeight = (fitted: { height: number }[]) => Math.max(...fitted.map((f) => f.height), size * LINE_HEIGHT) + 2 * pad;
+    const rowHeight = (fitted: { height: number }[]) =>
+      Math.max(...fitted.map((f) => f.height), size * LINE_HEIGHT) + 2 * pad;
     const drawRow = (cells: string[], header: boolean) => {
       const fitted = fitRow(cells, header);
       const h = rowHeight(fitted);
       if (header) this.cv.rect(MARGIN_X, this.y, CONTENT_W, h, { fill: HEADER_FILL });
       fitted.forEach((f, i) => {
         const font = header ? this.fonts.textBold : cellFont(columns[i]);
-        this.cv.drawFitted(f, xs[i] + pad, this.y + pad, widths[i] - 2 * pad, { font, size: f.size, align: columns[i].align ?? 'left' });
+        this.cv.drawFitted(f, xs[i] + pad, this.y + pad, widths[i] - 2 * pad, {
+          font,
+          size: f.size,
+          align: columns[i].align ?? 'left',
+        });
       });
       this.y += h;
-      this.cv.line(MARGIN_X, this.y, MARGIN_X + CONTENT_W, this.y, { width: header ? 0.7 : 0.3, color: header ? BLACK : RULE });
+      this.cv.line(MARGIN_X, this.y, MARGIN_X + CONTENT_W, this.y, {
+        width: header ? 0.7 : 0.3,
+        color: header ? BLACK : RULE,
+      });
     };
     const headerCells = columns.map((c) => c.header);
     const headerH = rowHeight(fitRow(headerCells, true));
@@ -192,8 +220,17 @@ class ReportWriter {
       const top = PAGE_H - FOOTER_H;
       cv.line(MARGIN_X, top, MARGIN_X + CONTENT_W, top, { width: 0.5, color: RULE });
       cv.text(left, MARGIN_X, top + 5, CONTENT_W * 0.7, { font: this.fonts.text, size: 7, minSize: 5.5, maxLines: 2 });
-      cv.text(`Page ${i + 1} of ${n}`, MARGIN_X + CONTENT_W * 0.7, top + 5, CONTENT_W * 0.3, { font: this.fonts.text, size: 7, align: 'right' });
-      if (right) cv.text(right, MARGIN_X + CONTENT_W * 0.5, top + 15, CONTENT_W * 0.5, { font: this.fonts.textBold, size: 7, align: 'right' });
+      cv.text(`Page ${i + 1} of ${n}`, MARGIN_X + CONTENT_W * 0.7, top + 5, CONTENT_W * 0.3, {
+        font: this.fonts.text,
+        size: 7,
+        align: 'right',
+      });
+      if (right)
+        cv.text(right, MARGIN_X + CONTENT_W * 0.5, top + 15, CONTENT_W * 0.5, {
+          font: this.fonts.textBold,
+          size: 7,
+          align: 'right',
+        });
     });
   }
 }
@@ -222,7 +259,9 @@ function governingCase(b: BusResult): ArcCaseTrace | undefined {
 export function deviceLocation(model: Model, d: PlacedDevice): string {
   if (d.source) return `${d.source} (source)`;
   const branch =
-    model.transformers.find((t) => t.id === d.branch) ?? model.cables.find((c) => c.id === d.branch) ?? model.ties.find((t) => t.id === d.branch);
+    model.transformers.find((t) => t.id === d.branch) ??
+    model.cables.find((c) => c.id === d.branch) ??
+    model.ties.find((t) => t.id === d.branch);
   if (!branch) return d.branch ?? '—';
   const bus = d.end === 'from' ? branch.fromBus : branch.toBus;
   return `${d.branch}, ${d.end} end (at ${bus})`;
@@ -232,11 +271,18 @@ export function deviceLocation(model: Model, d: PlacedDevice): string {
 export function deviceSettings(device: Device): string {
   switch (device.kind) {
     case 'relay': {
-      const pickup = device.pickupA !== undefined ? `${num(device.pickupA)} A` : `${num(device.pickupSecondaryA)} A sec. × CT ${num(device.ctRatio)}`;
+      const pickup =
+        device.pickupA !== undefined
+          ? `${num(device.pickupA)} A`
+          : `${num(device.pickupSecondaryA)} A sec. × CT ${num(device.ctRatio)}`;
       const parts = [`${device.curve}`, `pickup ${pickup}`, `time dial ${num(device.timeDial)}`];
       if (device.instantaneousA !== undefined) parts.push(`instantaneous ${num(device.instantaneousA)} A`);
-      else if (device.instantaneousSecondaryA !== undefined) parts.push(`instantaneous ${num(device.instantaneousSecondaryA)} A sec.`);
-      if (device.definiteTime) parts.push(`definite time ${num(device.definiteTime.pickupA ?? device.definiteTime.pickupSecondaryA)} A / ${num(device.definiteTime.delayS)} s`);
+      else if (device.instantaneousSecondaryA !== undefined)
+        parts.push(`instantaneous ${num(device.instantaneousSecondaryA)} A sec.`);
+      if (device.definiteTime)
+        parts.push(
+          `definite time ${num(device.definiteTime.pickupA ?? device.definiteTime.pickupSecondaryA)} A / ${num(device.definiteTime.delayS)} s`,
+        );
       parts.push(`breaker ${num(device.breakerCycles)} cycles`);
       return parts.join(', ');
     }
@@ -253,17 +299,25 @@ export function deviceSettings(device: Device): string {
       const parts = [`${num(device.ratingA)} A`, `thermal band ${device.thermal.max.length} points`];
       const i = device.instantaneous;
       if (i) {
-        if (i.pickupMultiple !== undefined) parts.push(`instantaneous ${num(i.pickupMultiple)}× ±${num(i.tolerancePct)} %`);
+        if (i.pickupMultiple !== undefined)
+          parts.push(`instantaneous ${num(i.pickupMultiple)}× ±${num(i.tolerancePct)} %`);
         else parts.push(`instantaneous ${num(i.lowMultiple)}–${num(i.highMultiple)}×`);
         if (i.setting) parts.push(`setting ${i.setting}`);
       }
       if (device.instantaneousClearingS !== undefined) parts.push(`clearing ${num(device.instantaneousClearingS)} s`);
-      else if (device.instantaneousClearingCycles !== undefined) parts.push(`clearing ${num(device.instantaneousClearingCycles)} cycles`);
+      else if (device.instantaneousClearingCycles !== undefined)
+        parts.push(`clearing ${num(device.instantaneousClearingCycles)} cycles`);
       return parts.join(', ');
     }
     case 'electronic': {
-      const parts = [`In ${num(device.sensorA)} A`, `LT ${num(device.longTime.pickup)}× / ${num(device.longTime.delayS)} s`];
-      if (device.shortTime) parts.push(`ST ${num(device.shortTime.pickup)}× / ${num(device.shortTime.delayS)} s ${device.shortTime.i2t ? 'I²t in' : 'flat'}`);
+      const parts = [
+        `In ${num(device.sensorA)} A`,
+        `LT ${num(device.longTime.pickup)}× / ${num(device.longTime.delayS)} s`,
+      ];
+      if (device.shortTime)
+        parts.push(
+          `ST ${num(device.shortTime.pickup)}× / ${num(device.shortTime.delayS)} s ${device.shortTime.i2t ? 'I²t in' : 'flat'}`,
+        );
       if (device.instantaneous) parts.push(`inst. ${num(device.instantaneous.pickup)}×`);
       parts.push(`tolerance ±${num(device.pickupTolerancePct)} %`, `clearing ${num(device.clearingS)} s`);
       return parts.join(', ');
@@ -307,7 +361,11 @@ function methodItems(results: StudyResults, model: Model): string[] {
 // Plot data
 
 /** Curves, markers and points of one bus's clearing trace (currents referred to the bus voltage). */
-export function tracePlotData(bus: BusResult, model: Model, capS: number): { curves: PlotCurve[]; markers: PlotMarker[]; points: PlotPoint[]; fromA: number; toA: number } | null {
+export function tracePlotData(
+  bus: BusResult,
+  model: Model,
+  capS: number,
+): { curves: PlotCurve[]; markers: PlotMarker[]; points: PlotPoint[]; fromA: number; toA: number } | null {
   const gov = governingCase(bus);
   if (!gov) return null;
   const sameSide = bus.cases.filter((c) => c.location === gov.location);
@@ -367,24 +425,46 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
 
   // Cover.
   w.newPage();
-  w.cv.text(input.organizationName, MARGIN_X, w.y, CONTENT_W, { font: fonts.textBold, size: 11, minSize: 8, maxLines: 2 });
+  w.cv.text(input.organizationName, MARGIN_X, w.y, CONTENT_W, {
+    font: fonts.textBold,
+    size: 11,
+    minSize: 8,
+    maxLines: 2,
+  });
   w.y += 40;
   w.cv.text('ARC-FLASH STUDY REPORT', MARGIN_X, w.y, CONTENT_W, { font: fonts.textBold, size: 11 });
   w.y += 18;
-  w.y += w.cv.text(study.title, MARGIN_X, w.y, CONTENT_W, { font: fonts.textBold, size: 24, minSize: 14, maxLines: 3 }).height + 8;
-  w.y += w.cv.text(site.name, MARGIN_X, w.y, CONTENT_W, { font: fonts.text, size: 14, minSize: 10, maxLines: 2 }).height;
-  w.y += w.cv.text(site.address, MARGIN_X, w.y, CONTENT_W, { font: fonts.text, size: 10, minSize: 8, maxLines: 3 }).height + 20;
-  const maxBus = okBuses.reduce<BusResult | null>((m, b) => ((b.incidentEnergyCalPerCm2 ?? -1) > (m?.incidentEnergyCalPerCm2 ?? -1) ? b : m), null);
+  w.y +=
+    w.cv.text(study.title, MARGIN_X, w.y, CONTENT_W, { font: fonts.textBold, size: 24, minSize: 14, maxLines: 3 })
+      .height + 8;
+  w.y += w.cv.text(site.name, MARGIN_X, w.y, CONTENT_W, {
+    font: fonts.text,
+    size: 14,
+    minSize: 10,
+    maxLines: 2,
+  }).height;
+  w.y +=
+    w.cv.text(site.address, MARGIN_X, w.y, CONTENT_W, { font: fonts.text, size: 10, minSize: 8, maxLines: 3 }).height +
+    20;
+  const maxBus = okBuses.reduce<BusResult | null>(
+    (m, b) => ((b.incidentEnergyCalPerCm2 ?? -1) > (m?.incidentEnergyCalPerCm2 ?? -1) ? b : m),
+    null,
+  );
   const dangerCount = okBuses.filter((b) => b.labelValues?.signalWord === 'DANGER').length;
   w.keyValues([
     ['Revision', String(study.revision)],
     ['Status', STUDY_STATUS_LABELS[study.status]],
     ['Model version', String(study.modelVersion)],
     ['Results computed', study.latestRun?.finishedAt ? formatTimestamp(study.latestRun.finishedAt) : '—'],
-    ['Buses studied', `${okBuses.length}${results.buses.length > okBuses.length ? ` (${results.buses.length - okBuses.length} with errors)` : ''}`],
+    [
+      'Buses studied',
+      `${okBuses.length}${results.buses.length > okBuses.length ? ` (${results.buses.length - okBuses.length} with errors)` : ''}`,
+    ],
     [
       'Highest incident energy',
-      maxBus ? `${formatCalPerCm2(maxBus.incidentEnergyCalPerCm2 ?? NaN)} cal/cm² at ${maxBus.busId} (${maxBus.busName})` : '—',
+      maxBus
+        ? `${formatCalPerCm2(maxBus.incidentEnergyCalPerCm2 ?? NaN)} cal/cm² at ${maxBus.busId} (${maxBus.busName})`
+        : '—',
     ],
     ['DANGER labels', `${dangerCount} of ${okBuses.length}`],
     ['Arc duration cap', `${formatSig(capS, 3)} s`],
@@ -405,7 +485,9 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
     ];
     for (const [k, v] of pairs) {
       w.cv.text(k, MARGIN_X + 12, w.y, 130, { font: fonts.textBold, size: 10 });
-      w.y += w.cv.text(v, MARGIN_X + 150, w.y, CONTENT_W - 162, { font: fonts.text, size: 10, minSize: 7, maxLines: 2 }).height + 3;
+      w.y +=
+        w.cv.text(v, MARGIN_X + 150, w.y, CONTENT_W - 162, { font: fonts.text, size: 10, minSize: 7, maxLines: 2 })
+          .height + 3;
     }
     w.y += 8;
     w.cv.rect(MARGIN_X, top, CONTENT_W, w.y - top, { stroke: BLACK, lineWidth: 1.2 });
@@ -414,8 +496,19 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
     const top = w.y;
     const h = 78;
     w.cv.rect(MARGIN_X, top, CONTENT_W, h, { stroke: BLACK, lineWidth: 3 });
-    w.cv.text(PRELIMINARY_BANNER, MARGIN_X + 10, top + 12, CONTENT_W - 20, { font: fonts.textBold, size: 28, minSize: 14, align: 'center' });
-    w.cv.text(UNREVIEWED_CAUTION, MARGIN_X + 10, top + 50, CONTENT_W - 20, { font: fonts.text, size: 9.5, minSize: 7, maxLines: 2, align: 'center' });
+    w.cv.text(PRELIMINARY_BANNER, MARGIN_X + 10, top + 12, CONTENT_W - 20, {
+      font: fonts.textBold,
+      size: 28,
+      minSize: 14,
+      align: 'center',
+    });
+    w.cv.text(UNREVIEWED_CAUTION, MARGIN_X + 10, top + 50, CONTENT_W - 20, {
+      font: fonts.text,
+      size: 9.5,
+      minSize: 7,
+      maxLines: 2,
+      align: 'center',
+    });
     w.y += h + 12;
   }
   w.cv.text('Cautions', MARGIN_X, w.y, CONTENT_W, { font: fonts.textBold, size: 9.5 });
@@ -429,7 +522,9 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
   const notStudied = model.buses.filter((b) => !studied.has(b.id));
   w.paragraph(
     `This report covers the arc-flash study of ${site.name} for ${input.organizationName}: ${results.buses.length} bus${results.buses.length === 1 ? '' : 'es'} of the system model “${model.name}” (model version ${study.modelVersion}), ${model.sources.length} source${model.sources.length === 1 ? '' : 's'}, ${model.transformers.length} transformer${model.transformers.length === 1 ? '' : 's'}, ${model.cables.length} cable${model.cables.length === 1 ? '' : 's'}, ${model.motors.length} motor${model.motors.length === 1 ? '' : 's'} and ${model.devices.length} protective device${model.devices.length === 1 ? '' : 's'}.` +
-      (notStudied.length > 0 ? ` Buses without equipment data are part of the network but not labelled: ${notStudied.map((b) => b.id).join(', ')}.` : ''),
+      (notStudied.length > 0
+        ? ` Buses without equipment data are part of the network but not labelled: ${notStudied.map((b) => b.id).join(', ')}.`
+        : ''),
   );
   w.heading('Buses studied', 2);
   w.table(
@@ -440,7 +535,13 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       { header: 'Equipment class', weight: 2 },
       { header: 'Status', weight: 0.8 },
     ],
-    results.buses.map((b) => [b.busId, b.busName, formatVoltage(b.nominalKv * 1000), b.equipment?.class ?? '—', b.status === 'ok' ? 'Studied' : 'Error']),
+    results.buses.map((b) => [
+      b.busId,
+      b.busName,
+      formatVoltage(b.nominalKv * 1000),
+      b.equipment?.class ?? '—',
+      b.status === 'ok' ? 'Studied' : 'Error',
+    ]),
   );
   w.heading('Sources', 2);
   w.table(
@@ -471,7 +572,10 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
   w.bullets(methodItems(results, model));
   if (results.warnings.length > 0) {
     w.heading('Study warnings', 2);
-    w.bullets(results.warnings.map((x) => `${x.message} [${x.code}]`), 8);
+    w.bullets(
+      results.warnings.map((x) => `${x.message} [${x.code}]`),
+      8,
+    );
   }
 
   // Inputs.
@@ -498,11 +602,18 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
         e ? t('electrodeConfig', e.electrodeConfig) : '—',
         e ? t('gapMm', num(e.gapMm)) : '—',
         e ? t('workingDistanceMm', num(e.workingDistanceMm, 4)) : '—',
-        e?.enclosureMm ? t('enclosureMm', `${num(e.enclosureMm.height, 4)} × ${num(e.enclosureMm.width, 4)} × ${num(e.enclosureMm.depth, 4)}`) : '—',
+        e?.enclosureMm
+          ? t(
+              'enclosureMm',
+              `${num(e.enclosureMm.height, 4)} × ${num(e.enclosureMm.width, 4)} × ${num(e.enclosureMm.depth, 4)}`,
+            )
+          : '—',
         e ? t('mainIsolated', e.mainIsolated ? 'Yes' : 'No') : '—',
       ];
     }),
-    { note: '* typical value of the equipment class (IEEE 1584-2018 typical gaps, enclosure sizes and working distances), not entered for this bus.' },
+    {
+      note: '* typical value of the equipment class (IEEE 1584-2018 typical gaps, enclosure sizes and working distances), not entered for this bus.',
+    },
   );
   w.heading('Transformers', 2);
   w.table(
@@ -514,7 +625,14 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       { header: '%Z', weight: 0.6, align: 'right', mono: true },
       { header: 'X/R', weight: 0.6, align: 'right', mono: true },
     ],
-    model.transformers.map((t) => [t.id, `${t.fromBus} → ${t.toBus}`, num(t.kva, 4), `${num(t.primaryKv, 4)} / ${num(t.secondaryKv, 4)}`, num(t.impedancePct), t.xr === undefined ? 'typical' : num(t.xr)]),
+    model.transformers.map((t) => [
+      t.id,
+      `${t.fromBus} → ${t.toBus}`,
+      num(t.kva, 4),
+      `${num(t.primaryKv, 4)} / ${num(t.secondaryKv, 4)}`,
+      num(t.impedancePct),
+      t.xr === undefined ? 'typical' : num(t.xr),
+    ]),
   );
   w.heading('Cables', 2);
   w.table(
@@ -530,7 +648,9 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       `${c.fromBus} → ${c.toBus}`,
       num(c.lengthM, 4),
       String(c.sets),
-      c.size !== undefined ? `${c.size} ${c.material ?? ''}, ${c.conduit ?? ''} conduit (NEC Chapter 9 Table 9)` : `R ${num(c.rOhmPerKm)} Ω/km, X ${num(c.xOhmPerKm)} Ω/km`,
+      c.size !== undefined
+        ? `${c.size} ${c.material ?? ''}, ${c.conduit ?? ''} conduit (NEC Chapter 9 Table 9)`
+        : `R ${num(c.rOhmPerKm)} Ω/km, X ${num(c.xOhmPerKm)} Ω/km`,
     ]),
   );
   if (model.motors.length > 0) {
@@ -543,7 +663,13 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
         { header: 'Rating', weight: 1.2, mono: true },
         { header: 'kV', weight: 0.7, align: 'right', mono: true },
       ],
-      model.motors.map((m) => [m.id, m.name ?? '', m.bus, m.hp !== undefined ? `${num(m.hp, 4)} hp` : `${num(m.kva, 4)} kVA`, num(m.kv, 4)]),
+      model.motors.map((m) => [
+        m.id,
+        m.name ?? '',
+        m.bus,
+        m.hp !== undefined ? `${num(m.hp, 4)} hp` : `${num(m.kva, 4)} kVA`,
+        num(m.kv, 4),
+      ]),
     );
   }
   if (model.ties.length > 0) {
@@ -566,7 +692,13 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       { header: 'Kind', weight: 1.4 },
       { header: 'Key settings', weight: 3.2 },
     ],
-    model.devices.map((d) => [d.id, d.name ?? '', deviceLocation(model, d), KIND_NAMES[d.device.kind], deviceSettings(d.device)]),
+    model.devices.map((d) => [
+      d.id,
+      d.name ?? '',
+      deviceLocation(model, d),
+      KIND_NAMES[d.device.kind],
+      deviceSettings(d.device),
+    ]),
   );
 
   // Results.
@@ -585,7 +717,19 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       { header: 'Signal word', weight: 0.85 },
     ],
     results.buses.map((b) => {
-      if (b.status !== 'ok') return [b.busId, num(b.nominalKv, 4), ka(b.boltedFaultKa), '—', `Error: ${b.error?.message ?? 'not computed'}`, '—', '—', '—', '—', '—'];
+      if (b.status !== 'ok')
+        return [
+          b.busId,
+          num(b.nominalKv, 4),
+          ka(b.boltedFaultKa),
+          '—',
+          `Error: ${b.error?.message ?? 'not computed'}`,
+          '—',
+          '—',
+          '—',
+          '—',
+          '—',
+        ];
       const g = governingCase(b);
       const lv = b.labelValues;
       return [
@@ -651,7 +795,12 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       w.ensure(plotH + legendH + 6);
       // Fuses and instantaneous regions clear at 0.01 s and below: extend the time axis down a decade then.
       const fromS = plot.points.some((p) => p.timeS <= 0.0101) ? 0.001 : 0.01;
-      const colors = drawTimeCurrentPlot(w.cv, fonts, { x: MARGIN_X, y: w.y, w: 380, h: plotH }, { ...plot, capS, fromS });
+      const colors = drawTimeCurrentPlot(
+        w.cv,
+        fonts,
+        { x: MARGIN_X, y: w.y, w: 380, h: plotH },
+        { ...plot, capS, fromS },
+      );
       w.y += plotH + 2;
       plot.curves.forEach((c, i) => {
         w.cv.line(MARGIN_X + 36, w.y + 4, MARGIN_X + 52, w.y + 4, { width: 1.2, color: colors[i] });
@@ -671,7 +820,10 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       w.ensure(24);
       w.cv.text('Warnings', MARGIN_X, w.y, CONTENT_W, { font: fonts.textBold, size: 8.5 });
       w.y += 11;
-      w.bullets(warnings.map((x) => `${x.message} [${x.code}]`), 7.5);
+      w.bullets(
+        warnings.map((x) => `${x.message} [${x.code}]`),
+        7.5,
+      );
     }
     w.y += 6;
   }
@@ -690,13 +842,23 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       ['Approved on', a.approvedAt.slice(0, 10)],
       ['Review by', a.reviewDueAt.slice(0, 10)],
     ]);
-    if (study.status === 'superseded') w.paragraph('This revision has been superseded by a later revision of the study.', { font: fonts.textBold });
+    if (study.status === 'superseded')
+      w.paragraph('This revision has been superseded by a later revision of the study.', { font: fonts.textBold });
   } else {
     w.ensure(60);
     const top = w.y;
     w.cv.rect(MARGIN_X, top, CONTENT_W, 52, { stroke: BLACK, lineWidth: 2 });
-    w.cv.text(PRELIMINARY_BANNER, MARGIN_X + 8, top + 8, CONTENT_W - 16, { font: fonts.textBold, size: 16, align: 'center' });
-    w.cv.text(UNREVIEWED_CAUTION, MARGIN_X + 8, top + 30, CONTENT_W - 16, { font: fonts.text, size: 8.5, maxLines: 2, align: 'center' });
+    w.cv.text(PRELIMINARY_BANNER, MARGIN_X + 8, top + 8, CONTENT_W - 16, {
+      font: fonts.textBold,
+      size: 16,
+      align: 'center',
+    });
+    w.cv.text(UNREVIEWED_CAUTION, MARGIN_X + 8, top + 30, CONTENT_W - 16, {
+      font: fonts.text,
+      size: 8.5,
+      maxLines: 2,
+      align: 'center',
+    });
     w.y += 60;
   }
 

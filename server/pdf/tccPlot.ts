@@ -42,7 +42,13 @@ export interface PlotInput {
 }
 
 /** Device curve colours for the report (not safety colours: those are kept for labels and hazard markers). */
-export const CURVE_COLORS: RGB[] = [rgb(0.11, 0.3, 0.62), rgb(0.1, 0.47, 0.4), rgb(0.42, 0.24, 0.6), rgb(0.35, 0.35, 0.35), rgb(0.55, 0.38, 0.15)];
+export const CURVE_COLORS: RGB[] = [
+  rgb(0.11, 0.3, 0.62),
+  rgb(0.1, 0.47, 0.4),
+  rgb(0.42, 0.24, 0.6),
+  rgb(0.35, 0.35, 0.35),
+  rgb(0.55, 0.38, 0.15),
+];
 
 /** Decade limits that contain [lo, hi]. */
 export function decadeRange(lo: number, hi: number): [number, number] {
@@ -104,7 +110,8 @@ export function clippedPath(points: [number, number][], x0: number, y0: number, 
       continue;
     }
     const [a, b] = seg;
-    if (!last || Math.abs(last[0] - a[0]) > 1e-6 || Math.abs(last[1] - a[1]) > 1e-6) parts.push(`M ${a[0].toFixed(2)} ${a[1].toFixed(2)}`);
+    if (!last || Math.abs(last[0] - a[0]) > 1e-6 || Math.abs(last[1] - a[1]) > 1e-6)
+      parts.push(`M ${a[0].toFixed(2)} ${a[1].toFixed(2)}`);
     parts.push(`L ${b[0].toFixed(2)} ${b[1].toFixed(2)}`);
     last = b;
   }
@@ -120,7 +127,12 @@ function currentTick(a: number): string {
  * Draws the plot in the box (x, y, w, h) of the canvas (top-down points), axes labels included. Returns the
  * colour used for each curve (same order as input.curves) for a legend.
  */
-export function drawTimeCurrentPlot(cv: Canvas, fonts: PdfFonts, box: { x: number; y: number; w: number; h: number }, input: PlotInput): RGB[] {
+export function drawTimeCurrentPlot(
+  cv: Canvas,
+  fonts: PdfFonts,
+  box: { x: number; y: number; w: number; h: number },
+  input: PlotInput,
+): RGB[] {
   const padL = 34;
   const padB = 24;
   const padT = 4 + 8 * input.markers.length;
@@ -180,7 +192,11 @@ export function drawTimeCurrentPlot(cv: Canvas, fonts: PdfFonts, box: { x: numbe
   if (input.capS !== null && input.capS > ty0 && input.capS < ty1) {
     const yy = Y(input.capS);
     cv.line(px0, yy, px1, yy, { width: 0.5, color: BLACK, dash: [1, 2] });
-    cv.text(`arc-duration cap ${formatSig(input.capS, 3)} s`, px1 - 90, yy - 8, 88, { font: fonts.text, size: 5.5, align: 'right' });
+    cv.text(`arc-duration cap ${formatSig(input.capS, 3)} s`, px1 - 90, yy - 8, 88, {
+      font: fonts.text,
+      size: 5.5,
+      align: 'right',
+    });
   }
   input.markers.forEach((m) => {
     if (!(m.currentA > ax0 && m.currentA < ax1)) return;
@@ -189,16 +205,18 @@ export function drawTimeCurrentPlot(cv: Canvas, fonts: PdfFonts, box: { x: numbe
   });
   // Marker labels in the band above the frame, one row each (left to right, top to bottom), so that they hide
   // no curve and no label crosses another marker's tick.
-  [...input.markers].sort((a, b) => a.currentA - b.currentA).forEach((m, i) => {
-    if (!(m.currentA > ax0 && m.currentA < ax1)) return;
-    const x = X(m.currentA);
-    const fitted = cv.fit(m.label, 100, { font: fonts.text, size: 5.5 });
-    const lw = fitted.lines.length > 0 ? textWidth(fonts.text, fitted.lines[0], fitted.size) : 0;
-    const ly = box.y + 1 + i * 8;
-    cv.line(x, ly + 3, x, py0, { width: 0.4, color: BLACK, dash: m.dash ? [1, 1] : undefined });
-    const right = x + 3 + lw < box.x + box.w;
-    cv.drawFitted(fitted, right ? x + 3 : x - 3 - lw, ly, lw + 1, { font: fonts.text, size: fitted.size });
-  });
+  [...input.markers]
+    .sort((a, b) => a.currentA - b.currentA)
+    .forEach((m, i) => {
+      if (!(m.currentA > ax0 && m.currentA < ax1)) return;
+      const x = X(m.currentA);
+      const fitted = cv.fit(m.label, 100, { font: fonts.text, size: 5.5 });
+      const lw = fitted.lines.length > 0 ? textWidth(fonts.text, fitted.lines[0], fitted.size) : 0;
+      const ly = box.y + 1 + i * 8;
+      cv.line(x, ly + 3, x, py0, { width: 0.4, color: BLACK, dash: m.dash ? [1, 1] : undefined });
+      const right = x + 3 + lw < box.x + box.w;
+      cv.drawFitted(fitted, right ? x + 3 : x - 3 - lw, ly, lw + 1, { font: fonts.text, size: fitted.size });
+    });
 
   const colors: RGB[] = [];
   input.curves.forEach((c, i) => {
@@ -212,7 +230,12 @@ export function drawTimeCurrentPlot(cv: Canvas, fonts: PdfFonts, box: { x: numbe
 
   for (const p of input.points) {
     if (!(p.currentA > ax0 && p.currentA < ax1 && p.timeS > ty0 && p.timeS < ty1)) continue;
-    cv.circle(X(p.currentA), Y(p.timeS), 2.2, p.filled ? { fill: BLACK } : { fill: rgb(1, 1, 1), stroke: BLACK, lineWidth: 0.8 });
+    cv.circle(
+      X(p.currentA),
+      Y(p.timeS),
+      2.2,
+      p.filled ? { fill: BLACK } : { fill: rgb(1, 1, 1), stroke: BLACK, lineWidth: 0.8 },
+    );
   }
   return colors;
 }

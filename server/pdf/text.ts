@@ -131,7 +131,8 @@ export interface FittedText {
 /** Cuts `line` and adds an ellipsis so that the whole measures at most maxWidth. */
 function withEllipsis(font: MeasuringFont, line: string, maxWidth: number, size: number): string {
   let base = line.trimEnd();
-  while (base !== '' && textWidth(font, `${base}…`, size) > maxWidth) base = Array.from(base).slice(0, -1).join('').trimEnd();
+  while (base !== '' && textWidth(font, `${base}…`, size) > maxWidth)
+    base = Array.from(base).slice(0, -1).join('').trimEnd();
   return base === '' ? (textWidth(font, '…', size) <= maxWidth ? '…' : '') : `${base}…`;
 }
 

@@ -21,7 +21,10 @@ function limiter(perMinute: number, what: string): RequestHandler {
     limit: perMinute,
     standardHeaders: 'draft-7',
     legacyHeaders: false,
-    handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: `Too many ${what}; wait a minute and try again` } }),
+    handler: (_req, res) =>
+      res
+        .status(429)
+        .json({ error: { code: 'rate_limited', message: `Too many ${what}; wait a minute and try again` } }),
   });
 }
 
@@ -32,7 +35,8 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
     defineRoute({
       method: 'post',
       path: '/auth/link-info',
-      summary: 'What a one-time link is for (invitation or password reset) and for whom; 404 saying why when it cannot be used.',
+      summary:
+        'What a one-time link is for (invitation or password reset) and for whom; 404 saying why when it cannot be used.',
       tag: 'auth',
       access: 'public',
       before: [limiter(perMinute, 'link checks')],
@@ -43,7 +47,8 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
     defineRoute({
       method: 'post',
       path: '/auth/accept-invitation',
-      summary: 'Accept an invitation with a password of your choice: creates the account and signs in. The link works once.',
+      summary:
+        'Accept an invitation with a password of your choice: creates the account and signs in. The link works once.',
       tag: 'auth',
       access: 'public',
       before: [limiter(perMinute, 'attempts')],
@@ -54,7 +59,8 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
     defineRoute({
       method: 'post',
       path: '/auth/password-reset',
-      summary: 'Ask for a password-reset link by e-mail (1 hour). Always answers ok: it never tells whether the address has an account.',
+      summary:
+        'Ask for a password-reset link by e-mail (1 hour). Always answers ok: it never tells whether the address has an account.',
       tag: 'auth',
       access: 'public',
       before: [limiter(perMinute, 'password-reset requests')],
@@ -69,7 +75,8 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
     defineRoute({
       method: 'post',
       path: '/auth/password-reset/confirm',
-      summary: 'Set a new password from a reset link: the link works once; every other session ends; returns a fresh one.',
+      summary:
+        'Set a new password from a reset link: the link works once; every other session ends; returns a fresh one.',
       tag: 'auth',
       access: 'public',
       before: [limiter(perMinute, 'attempts')],

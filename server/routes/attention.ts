@@ -1,6 +1,17 @@
-import { attentionListResponseSchema, attentionListSchema, attentionQuerySchema, attentionSummarySchema, type AttentionList } from '../../shared/schemas/attention';
+import {
+  attentionListResponseSchema,
+  attentionListSchema,
+  attentionQuerySchema,
+  attentionSummarySchema,
+  type AttentionList,
+} from '../../shared/schemas/attention';
 import { auditPageSchema, auditQuerySchema } from '../../shared/schemas/auditLog';
-import { fieldReportListSchema, fieldReportQuerySchema, fieldReportSchema, fieldReportTriageSchema } from '../../shared/schemas/fieldReports';
+import {
+  fieldReportListSchema,
+  fieldReportQuerySchema,
+  fieldReportSchema,
+  fieldReportTriageSchema,
+} from '../../shared/schemas/fieldReports';
 import { toCsv, sendCsv } from '../http/csv';
 import { ApiError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
@@ -24,7 +35,8 @@ export const attentionRoutes: AnyRoute[] = [
   defineRoute({
     method: 'get',
     path: '/attention',
-    summary: 'What needs attention: counts of each list (review due and overdue, stale studies, labels, field reports), per site.',
+    summary:
+      'What needs attention: counts of each list (review due and overdue, stale studies, labels, field reports), per site.',
     tag: 'attention',
     access: AUDITORS,
     query: attentionQuerySchema,
@@ -39,7 +51,8 @@ export const attentionRoutes: AnyRoute[] = [
     access: AUDITORS,
     query: attentionQuerySchema,
     response: attentionListResponseSchema,
-    handler: ({ ctx, user, query, params }) => attentionList(ctx, user.organizationId, listParam(params.list), query.siteId),
+    handler: ({ ctx, user, query, params }) =>
+      attentionList(ctx, user.organizationId, listParam(params.list), query.siteId),
   }),
   defineRoute({
     method: 'get',
@@ -104,7 +117,8 @@ export const attentionRoutes: AnyRoute[] = [
   defineRoute({
     method: 'get',
     path: '/audit-events',
-    summary: 'Search the audit log (append-only: no route changes or deletes an event), newest first, a page at a time.',
+    summary:
+      'Search the audit log (append-only: no route changes or deletes an event), newest first, a page at a time.',
     tag: 'audit',
     access: AUDITORS,
     query: auditQuerySchema,
@@ -123,7 +137,16 @@ export const attentionRoutes: AnyRoute[] = [
       const events = await exportAudit(ctx, user, query);
       const csv = toCsv(
         ['Time (UTC)', 'Actor', 'Actor e-mail', 'Action', 'Entity', 'Entity id', 'Description', 'Summary (JSON)'],
-        events.map((e) => [e.at, e.actor?.name ?? 'system', e.actor?.email ?? '', e.action, e.entityType, e.entityId, e.description, JSON.stringify(e.summary)]),
+        events.map((e) => [
+          e.at,
+          e.actor?.name ?? 'system',
+          e.actor?.email ?? '',
+          e.action,
+          e.entityType,
+          e.entityId,
+          e.description,
+          JSON.stringify(e.summary),
+        ]),
       );
       sendCsv(res, `audit-log-${day(ctx.now().toISOString())}.csv`, csv);
     },

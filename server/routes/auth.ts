@@ -18,7 +18,9 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
     standardHeaders: 'draft-7',
     legacyHeaders: false,
     handler: (_req, res) =>
-      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many sign-in attempts; wait a minute and try again' } }),
+      res
+        .status(429)
+        .json({ error: { code: 'rate_limited', message: 'Too many sign-in attempts; wait a minute and try again' } }),
   });
 
   return [
@@ -39,7 +41,13 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
         }
         const ok = await verifyPassword(user.passwordHash, body.password);
         if (!ok || !user.active) throw new ApiError('unauthorized', BAD_CREDENTIALS);
-        await recordAudit({ organizationId: user.organizationId, actorId: user.id, action: 'auth.signed-in', entityType: 'user', entityId: user.id });
+        await recordAudit({
+          organizationId: user.organizationId,
+          actorId: user.id,
+          action: 'auth.signed-in',
+          entityType: 'user',
+          entityId: user.id,
+        });
         return signInResponseFor(ctx, user);
       },
     }),
@@ -53,7 +61,13 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
       handler: async ({ user }) => {
         const org = await Organization.findByPk(user.organizationId);
         if (!org) throw ApiError.unauthorized();
-        return { id: user.id, email: user.email, name: user.name, role: user.role, organization: { id: org.id, name: org.name } };
+        return {
+          id: user.id,
+          email: user.email,
+          name: user.name,
+          role: user.role,
+          organization: { id: org.id, name: org.name },
+        };
       },
     }),
     defineRoute({
@@ -64,7 +78,10 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
       access: 'signed-in',
       response: z.object({ ok: z.literal(true) }),
       handler: async ({ user }) => {
-        await RevokedToken.findOrCreate({ where: { jti: user.jti }, defaults: { jti: user.jti, expiresAt: user.tokenExpiresAt } });
+        await RevokedToken.findOrCreate({
+          where: { jti: user.jti },
+          defaults: { jti: user.jti, expiresAt: user.tokenExpiresAt },
+        });
         return { ok: true as const };
       },
     }),

@@ -1,9 +1,9 @@
+import { clearingTimeRequestSchema, clearingTimeResponseSchema, deviceSchema } from '../../shared/schemas/device';
 import {
-  clearingTimeRequestSchema,
-  clearingTimeResponseSchema,
-  deviceSchema,
-} from '../../shared/schemas/device';
-import { bandCurvesRequestSchema, bandCurvesResponseSchema, resolveTripUnitRequestSchema } from '../../shared/schemas/deviceLibrary';
+  bandCurvesRequestSchema,
+  bandCurvesResponseSchema,
+  resolveTripUnitRequestSchema,
+} from '../../shared/schemas/deviceLibrary';
 import { z } from 'zod';
 import { bandCurves, clearingTime, resolveElectronicSettings } from '../engine/trip';
 import { defineRoute, type AnyRoute } from '../http/route';
@@ -30,7 +30,13 @@ export const calcRoutes: AnyRoute[] = [
     response: clearingTimeResponseSchema,
     handler: ({ body }) => {
       const r = clearingTime(body.device, body.currentA);
-      return { clearingTimeS: r.clearingTimeS, minimumTimeS: r.minimumTimeS, region: r.region, warnings: r.warnings, trace: r.trace as unknown as Record<string, unknown> };
+      return {
+        clearingTimeS: r.clearingTimeS,
+        minimumTimeS: r.minimumTimeS,
+        region: r.region,
+        warnings: r.warnings,
+        trace: r.trace as unknown as Record<string, unknown>,
+      };
     },
   }),
   defineRoute({
@@ -69,7 +75,10 @@ export const incidentEnergyRoute = defineRoute({
   response: incidentEnergyResponseSchema.extend({ labelValues: labelValuesSchema }),
   handler: async ({ body, user }) => {
     const settings = await getSettings(user.organizationId);
-    const result = computeIncidentEnergy({ ...body, maxArcDurationMs: body.maxArcDurationMs ?? settings.maxArcDurationMs });
+    const result = computeIncidentEnergy({
+      ...body,
+      maxArcDurationMs: body.maxArcDurationMs ?? settings.maxArcDurationMs,
+    });
     return { ...result, labelValues: computeLabelValues(result, body.voltageV, labelSettingsOf(settings)) };
   },
 });

@@ -21,7 +21,8 @@ const csvUpload = singleFileUpload({
   field: 'file',
   maxBytes: 512 * 1024,
   what: 'a CSV file',
-  accept: (mime, name) => /^(text\/(csv|plain)|application\/(vnd\.ms-excel|csv|octet-stream))$/.test(mime) || /\.(csv|txt)$/i.test(name),
+  accept: (mime, name) =>
+    /^(text\/(csv|plain)|application\/(vnd\.ms-excel|csv|octet-stream))$/.test(mime) || /\.(csv|txt)$/i.test(name),
 });
 
 export const deviceRoutes: AnyRoute[] = [

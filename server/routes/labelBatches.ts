@@ -19,7 +19,8 @@ export const labelBatchRoutes: AnyRoute[] = [
   defineRoute({
     method: 'post',
     path: '/label-batches',
-    summary: 'Make one PDF of chosen labels (4×6 in, 4×4 in, or letter/A4 sheets) as a background job; poll for progress.',
+    summary:
+      'Make one PDF of chosen labels (4×6 in, 4×4 in, or letter/A4 sheets) as a background job; poll for progress.',
     tag: 'labels',
     access: PRINTERS,
     body: createLabelBatchSchema,
@@ -60,8 +61,12 @@ export const labelBatchRoutes: AnyRoute[] = [
     produces: 'application/pdf',
     handler: async ({ ctx, user, params, query, res }) => {
       const study = await findStudy(user, params.studyId);
-      const labels = await Label.findAll({ where: { studyId: study.id, organizationId: user.organizationId }, order: [['equipmentTag', 'ASC']] });
-      if (!labels.length) throw ApiError.conflict('This revision has no labels: only an approved revision issues labels');
+      const labels = await Label.findAll({
+        where: { studyId: study.id, organizationId: user.organizationId },
+        order: [['equipmentTag', 'ASC']],
+      });
+      if (!labels.length)
+        throw ApiError.conflict('This revision has no labels: only an approved revision issues labels');
       const pdf = await renderLabelPdf(ctx, user, labels, query.size);
       res.setHeader('Content-Type', 'application/pdf');
       res.setHeader('Content-Disposition', `attachment; filename="labels-rev${study.revision}-${query.size}.pdf"`);
@@ -73,7 +78,8 @@ export const labelBatchRoutes: AnyRoute[] = [
 export const studyReportRoute = defineRoute({
   method: 'get',
   path: '/studies/:studyId/report.pdf',
-  summary: 'The study report: scope, method and assumptions, inputs, results, each bus’s clearing trace, warnings, cautions, approval.',
+  summary:
+    'The study report: scope, method and assumptions, inputs, results, each bus’s clearing trace, warnings, cautions, approval.',
   tag: 'studies',
   access: ['engineer', 'safety', 'admin'],
   produces: 'application/pdf',

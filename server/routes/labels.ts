@@ -3,7 +3,15 @@ import { z } from 'zod';
 import { labelCheckSchema, labelSchema } from '../../shared/schemas/labels';
 import { ApiError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
-import { checkLabel, listLabels, markInstalled, normalizeCode, REPORT_KINDS, reportMismatch, toLabelDtos } from '../services/labels';
+import {
+  checkLabel,
+  listLabels,
+  markInstalled,
+  normalizeCode,
+  REPORT_KINDS,
+  reportMismatch,
+  toLabelDtos,
+} from '../services/labels';
 import { makeFileKey } from '../storage';
 import { qrPng } from '../pdf/qr';
 import { checkUrl } from '../services/labelBatches';
@@ -25,13 +33,17 @@ export function labelRoutes(opts: { publicCheckPerMinute: number }): AnyRoute[] 
     limit: opts.publicCheckPerMinute,
     standardHeaders: 'draft-7',
     legacyHeaders: false,
-    handler: (_req, res) => res.status(429).json({ error: { code: 'rate_limited', message: 'Too many label checks from here; wait a minute' } }),
+    handler: (_req, res) =>
+      res
+        .status(429)
+        .json({ error: { code: 'rate_limited', message: 'Too many label checks from here; wait a minute' } }),
   });
   return [
     defineRoute({
       method: 'get',
       path: '/labels/:code',
-      summary: 'Public check of a printed label (no sign-in): what it says and whether it is current, superseded (with the current values) or past review.',
+      summary:
+        'Public check of a printed label (no sign-in): what it says and whether it is current, superseded (with the current values) or past review.',
       tag: 'labels',
       access: 'public',
       before: [checkLimiter],
@@ -61,7 +73,8 @@ export function labelRoutes(opts: { publicCheckPerMinute: number }): AnyRoute[] 
       tag: 'labels',
       access: 'signed-in',
       response: labelSchema,
-      handler: async ({ ctx, user, params }) => (await toLabelDtos([await findLabelByCode(user, params.code)], ctx.now()))[0],
+      handler: async ({ ctx, user, params }) =>
+        (await toLabelDtos([await findLabelByCode(user, params.code)], ctx.now()))[0],
     }),
     defineRoute({
       method: 'get',
@@ -71,7 +84,9 @@ export function labelRoutes(opts: { publicCheckPerMinute: number }): AnyRoute[] 
       access: 'signed-in',
       query: z.object({ current: z.enum(['0', '1']).optional() }),
       response: labelList,
-      handler: async ({ ctx, user, params, query }) => ({ labels: await listLabels(ctx, user, { siteId: params.siteId, current: query.current === '1' }) }),
+      handler: async ({ ctx, user, params, query }) => ({
+        labels: await listLabels(ctx, user, { siteId: params.siteId, current: query.current === '1' }),
+      }),
     }),
     defineRoute({
       method: 'get',
@@ -90,7 +105,11 @@ const reportSchema = z.object({
   text: z.string().trim().min(3, 'Say what does not match').max(4000),
 });
 
-async function storePhoto(ctx: AppContext, user: AuthUser, file: Express.Multer.File | undefined): Promise<string | null> {
+async function storePhoto(
+  ctx: AppContext,
+  user: AuthUser,
+  file: Express.Multer.File | undefined,
+): Promise<string | null> {
   if (!file) return null;
   const key = makeFileKey(user.organizationId, imageExtension(file.buffer) ?? 'bin');
   await ctx.storage.put(key, file.buffer, file.mimetype);
@@ -102,7 +121,8 @@ export const labelFieldRoutes: AnyRoute[] = [
   defineRoute({
     method: 'post',
     path: '/labels/:code/installed',
-    summary: 'Mark a label installed, with a photo of it in place (multipart field "photo": JPEG, PNG, WebP or HEIC, at most 10 MB).',
+    summary:
+      'Mark a label installed, with a photo of it in place (multipart field "photo": JPEG, PNG, WebP or HEIC, at most 10 MB).',
     tag: 'labels',
     access: ['electrician', 'engineer'],
     middleware: [imageUpload('photo', { required: true })],

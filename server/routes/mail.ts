@@ -11,7 +11,15 @@ import {
 } from '../../shared/schemas/reminders';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { createInvitation, listInvitations, resendInvitation, revokeInvitation } from '../services/invitations';
-import { createRule, deleteRule, listDeliveries, listOutbox, listRules, sendNow, updateRule } from '../services/reminders';
+import {
+  createRule,
+  deleteRule,
+  listDeliveries,
+  listOutbox,
+  listRules,
+  sendNow,
+  updateRule,
+} from '../services/reminders';
 
 const REMINDER_ROLES = ['admin', 'safety'] as const;
 

@@ -82,7 +82,8 @@ export const studyRoutes: AnyRoute[] = [
   defineRoute({
     method: 'put',
     path: '/studies/:studyId/model',
-    summary: 'Save the model of a draft. Send the version you read: 409 when another edit came first (nothing is lost).',
+    summary:
+      'Save the model of a draft. Send the version you read: 409 when another edit came first (nothing is lost).',
     tag: 'studies',
     access: ENGINEER,
     body: putModelSchema,
@@ -139,7 +140,8 @@ export const studyRoutes: AnyRoute[] = [
   defineRoute({
     method: 'post',
     path: '/studies/:studyId/approve',
-    summary: 'Approve a revision in review (name, licence number and jurisdiction recorded); supersedes the previous approved revision.',
+    summary:
+      'Approve a revision in review (name, licence number and jurisdiction recorded); supersedes the previous approved revision.',
     tag: 'studies',
     access: ENGINEER,
     body: approveSchema,
@@ -178,17 +180,33 @@ export const studyIoRoutes: AnyRoute[] = [
     middleware: [modelFiles],
     response: modelEnvelopeSchema,
     handler: async ({ ctx, user, params, req }) => {
-      const files = (req.files as Express.Multer.File[]).map((f) => ({ name: f.originalname, mimeType: f.mimetype, buffer: f.buffer }));
+      const files = (req.files as Express.Multer.File[]).map((f) => ({
+        name: f.originalname,
+        mimeType: f.mimetype,
+        buffer: f.buffer,
+      }));
       const result = await importModel(files);
       if (!result.ok) {
         const fields: Record<string, string> = {};
         for (const e of result.errors) fields[e.where] ??= e.message;
         const first = result.errors[0];
-        throw new ApiError('bad_request', `The import has ${result.errors.length} problem${result.errors.length === 1 ? '' : 's'}; nothing was changed. ${first.where}: ${first.message}`, fields);
+        throw new ApiError(
+          'bad_request',
+          `The import has ${result.errors.length} problem${result.errors.length === 1 ? '' : 's'}; nothing was changed. ${first.where}: ${first.message}`,
+          fields,
+        );
       }
-      return saveModel(ctx, user, params.studyId, result.model as unknown as Record<string, unknown>, null, 'study.model-imported', {
-        files: files.map((f) => f.name),
-      });
+      return saveModel(
+        ctx,
+        user,
+        params.studyId,
+        result.model as unknown as Record<string, unknown>,
+        null,
+        'study.model-imported',
+        {
+          files: files.map((f) => f.name),
+        },
+      );
     },
   }),
   defineRoute({
@@ -206,7 +224,8 @@ export const studyIoRoutes: AnyRoute[] = [
       const envelope = await getModelEnvelope(user, params.studyId);
       const parsed = parseModel(envelope.model);
       if (!parsed.success) throw modelIssuesError(parsed.issues, 'model.');
-      if (query.format === 'csv' && !query.element) throw new ApiError('bad_request', 'Name the table to export as CSV', { element: 'Required with format=csv' });
+      if (query.format === 'csv' && !query.element)
+        throw new ApiError('bad_request', 'Name the table to export as CSV', { element: 'Required with format=csv' });
       const file = await exportModel(parsed.model, query.format, query.element);
       res.setHeader('Content-Type', file.mimeType);
       res.setHeader('Content-Disposition', `attachment; filename="${file.filename}"`);

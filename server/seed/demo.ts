@@ -43,7 +43,10 @@ export async function isEmpty(): Promise<boolean> {
  * Seeds the demo organization, one user per role, the site and its device library (one transaction), then the
  * site's study: the model, a run, and one approved revision — through the same services the API uses.
  */
-export async function seedDemo(ctx: AppContext, password: string): Promise<{ organizationId: string; siteId: string; studyId: string }> {
+export async function seedDemo(
+  ctx: AppContext,
+  password: string,
+): Promise<{ organizationId: string; siteId: string; studyId: string }> {
   const hash = await hashPassword(password);
   const seeded = await ctx.db.sequelize.transaction(async (transaction) => {
     const org = await Organization.create({ id: randomUUID(), name: DEMO_ORGANIZATION }, { transaction });
@@ -53,17 +56,33 @@ export async function seedDemo(ctx: AppContext, password: string): Promise<{ org
     await seedGenericLibrary(org.id, transaction);
     await seedDefaultReminderRules(org.id, transaction);
     const site = await Site.create({ id: randomUUID(), organizationId: org.id, ...DEMO_SITE }, { transaction });
-    await recordAudit({ organizationId: org.id, actorId: null, action: 'demo.seeded', entityType: 'organization', entityId: org.id }, transaction);
+    await recordAudit(
+      { organizationId: org.id, actorId: null, action: 'demo.seeded', entityType: 'organization', entityId: org.id },
+      transaction,
+    );
     return { organizationId: org.id, siteId: site.id };
   });
   const userOf = async (role: Role): Promise<AuthUser> => {
     const row = await User.findOne({ where: { organizationId: seeded.organizationId, role } });
     if (!row) throw new Error(`demo ${role} missing`);
-    return { id: row.id, organizationId: row.organizationId, role, email: row.email, name: row.name, jti: 'seed', tokenExpiresAt: new Date(0) };
+    return {
+      id: row.id,
+      organizationId: row.organizationId,
+      role,
+      email: row.email,
+      name: row.name,
+      jti: 'seed',
+      tokenExpiresAt: new Date(0),
+    };
   };
   const engineer = await userOf('engineer');
   const electrician = await userOf('electrician');
-  const approval = { approverName: engineer.name, licenceNumber: 'PE-DEMO-0417', jurisdiction: 'Larkspur Valley (fictional)', confirm: true as const };
+  const approval = {
+    approverName: engineer.name,
+    licenceNumber: 'PE-DEMO-0417',
+    jurisdiction: 'Larkspur Valley (fictional)',
+    confirm: true as const,
+  };
   const now = ctx.now();
   const DAY = 86_400_000;
   /** The same context with the clock set to a moment of the demo's past. */
@@ -74,13 +93,34 @@ export async function seedDemo(ctx: AppContext, password: string): Promise<{ org
   // an open report.
   const approvedAt = new Date(addMonths(now, -60).getTime() + 40 * DAY);
   const pump = await ctx.db.sequelize.transaction(async (transaction) => {
-    const site = await Site.create({ id: randomUUID(), organizationId: seeded.organizationId, ...DEMO_PUMP_STATION }, { transaction });
-    await recordAudit({ organizationId: seeded.organizationId, actorId: engineer.id, action: 'site.created', entityType: 'site', entityId: site.id, summary: { name: site.name } }, transaction);
+    const site = await Site.create(
+      { id: randomUUID(), organizationId: seeded.organizationId, ...DEMO_PUMP_STATION },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        organizationId: seeded.organizationId,
+        actorId: engineer.id,
+        action: 'site.created',
+        entityType: 'site',
+        entityId: site.id,
+        summary: { name: site.name },
+      },
+      transaction,
+    );
     return site;
   });
   const old = at(new Date(approvedAt.getTime() - 2 * DAY));
   const pumpStudy = await createStudy(old, engineer, pump.id, { title: 'Arc-flash study, pump station' });
-  await saveModel(old, engineer, pumpStudy.id, pumpStationModel() as Record<string, unknown>, null, 'study.model-imported', { files: ['demo'] });
+  await saveModel(
+    old,
+    engineer,
+    pumpStudy.id,
+    pumpStationModel() as Record<string, unknown>,
+    null,
+    'study.model-imported',
+    { files: ['demo'] },
+  );
   await startRun(old, engineer, pumpStudy.id);
   await ctx.jobs.idle();
   await submitForReview(old, engineer, pumpStudy.id);
@@ -91,25 +131,39 @@ export async function seedDemo(ctx: AppContext, password: string): Promise<{ org
   }
   const pumpMcc = pumpLabels.find((l) => l.equipmentTag === 'PS-MCC');
   if (pumpMcc) {
-    await reportMismatch(at(new Date(now.getTime() - 12 * DAY)), electrician, pumpMcc.id, {
-      kind: 'equipment-changed',
-      text: 'Pump 2 replaced with a larger motor (nameplate 200 hp); the label was made for 150 hp.',
-    }, null);
+    await reportMismatch(
+      at(new Date(now.getTime() - 12 * DAY)),
+      electrician,
+      pumpMcc.id,
+      {
+        kind: 'equipment-changed',
+        text: 'Pump 2 replaced with a larger motor (nameplate 200 hp); the label was made for 150 hp.',
+      },
+      null,
+    );
   }
 
   // The facility: its study, run and approved today.
   const study = await createStudy(ctx, engineer, seeded.siteId, { title: 'Arc-flash study, whole facility' });
-  await saveModel(ctx, engineer, study.id, larkspurModel() as Record<string, unknown>, null, 'study.model-imported', { files: ['demo'] });
+  await saveModel(ctx, engineer, study.id, larkspurModel() as Record<string, unknown>, null, 'study.model-imported', {
+    files: ['demo'],
+  });
   await startRun(ctx, engineer, study.id);
   await ctx.jobs.idle();
   await submitForReview(ctx, engineer, study.id);
   await approveStudy(ctx, engineer, study.id, approval);
   const lp1 = await Label.findOne({ where: { studyId: study.id, equipmentTag: 'LP-1' } });
   if (lp1) {
-    await reportMismatch(ctx, electrician, lp1.id, {
-      kind: 'device',
-      text: 'Lighting transformer nameplate reads 30 kVA, not 15 kVA.',
-    }, null);
+    await reportMismatch(
+      ctx,
+      electrician,
+      lp1.id,
+      {
+        kind: 'device',
+        text: 'Lighting transformer nameplate reads 30 kVA, not 15 kVA.',
+      },
+      null,
+    );
   }
   return { ...seeded, studyId: study.id };
 }

@@ -93,7 +93,10 @@ async function gather(ctx: AppContext, organizationId: string, siteId?: string):
   if (siteId && !siteRows.length) throw ApiError.notFound('No such site');
   const sites = new Map(siteRows.map((s) => [s.id, s.name]));
   const siteIds = [...sites.keys()];
-  const rows = Object.fromEntries(ATTENTION_LISTS.map((l) => [l, [] as AttentionRow[]])) as Record<AttentionList, AttentionRow[]>;
+  const rows = Object.fromEntries(ATTENTION_LISTS.map((l) => [l, [] as AttentionRow[]])) as Record<
+    AttentionList,
+    AttentionRow[]
+  >;
   const openReportAges = { under7Days: 0, from7To30Days: 0, over30Days: 0 };
   const base = (id: string, sId: string, link: AttentionRow['link'], cells: AttentionRow['cells']): AttentionRow => ({
     id,
@@ -129,7 +132,9 @@ async function gather(ctx: AppContext, organizationId: string, siteId?: string):
       if (daysLeft <= 90) rows['review-due-90'].push(base(s.id, s.siteId, link, { ...cells, daysLeft }));
     }
     // Stale: a later revision of the same site has a model changed after this approval.
-    const changed = open.find((l) => l.siteId === s.siteId && l.revision > s.revision && l.modelUpdatedAt > (s.approvedAt as Date));
+    const changed = open.find(
+      (l) => l.siteId === s.siteId && l.revision > s.revision && l.modelUpdatedAt > (s.approvedAt as Date),
+    );
     if (changed) {
       rows['stale-studies'].push(
         base(s.id, s.siteId, link, {
@@ -158,9 +163,12 @@ async function gather(ctx: AppContext, organizationId: string, siteId?: string):
     attributes: ['id', 'siteId', 'studyId', 'equipmentTag', 'code', 'issuedAt', 'printedAt', 'installedAt'],
     order: [['equipmentTag', 'ASC']],
   });
-  const missingStudyIds = [...new Set([...superseded, ...current].map((l) => l.studyId).filter((id) => !revisionOf.has(id)))];
+  const missingStudyIds = [
+    ...new Set([...superseded, ...current].map((l) => l.studyId).filter((id) => !revisionOf.has(id))),
+  ];
   if (missingStudyIds.length) {
-    for (const s of await Study.findAll({ where: { id: missingStudyIds }, attributes: ['id', 'revision'] })) revisionOf.set(s.id, s.revision);
+    for (const s of await Study.findAll({ where: { id: missingStudyIds }, attributes: ['id', 'revision'] }))
+      revisionOf.set(s.id, s.revision);
   }
   const currentByTag = new Map(current.map((l) => [`${l.siteId}\u0000${l.equipmentTag}`, l]));
   for (const l of superseded) {
@@ -168,14 +176,19 @@ async function gather(ctx: AppContext, organizationId: string, siteId?: string):
     // Installing the current label of the same equipment replaces the old one on it.
     if (now_?.installedAt && l.installedAt && now_.installedAt >= l.installedAt) continue;
     rows['superseded-installed'].push(
-      base(l.id, l.siteId, { kind: 'label', id: l.id }, {
-        equipment: l.equipmentTag,
-        code: l.code,
-        revision: revisionOf.get(l.studyId) ?? null,
-        installedOn: isoDay(l.installedAt),
-        supersededOn: isoDay(l.supersededAt),
-        currentCode: now_?.code ?? null,
-      }),
+      base(
+        l.id,
+        l.siteId,
+        { kind: 'label', id: l.id },
+        {
+          equipment: l.equipmentTag,
+          code: l.code,
+          revision: revisionOf.get(l.studyId) ?? null,
+          installedOn: isoDay(l.installedAt),
+          supersededOn: isoDay(l.supersededAt),
+          currentCode: now_?.code ?? null,
+        },
+      ),
     );
   }
   rows['superseded-installed'].sort((a, b) => String(a.cells.equipment).localeCompare(String(b.cells.equipment)));
@@ -183,14 +196,19 @@ async function gather(ctx: AppContext, organizationId: string, siteId?: string):
   for (const l of current) {
     if (l.installedAt || l.issuedAt > notInstalledBefore) continue;
     rows['not-installed'].push(
-      base(l.id, l.siteId, { kind: 'label', id: l.id }, {
-        equipment: l.equipmentTag,
-        code: l.code,
-        revision: revisionOf.get(l.studyId) ?? null,
-        issuedOn: isoDay(l.issuedAt),
-        printedOn: isoDay(l.printedAt),
-        daysSinceIssue: daysBetween(l.issuedAt, now),
-      }),
+      base(
+        l.id,
+        l.siteId,
+        { kind: 'label', id: l.id },
+        {
+          equipment: l.equipmentTag,
+          code: l.code,
+          revision: revisionOf.get(l.studyId) ?? null,
+          issuedOn: isoDay(l.issuedAt),
+          printedOn: isoDay(l.printedAt),
+          daysSinceIssue: daysBetween(l.issuedAt, now),
+        },
+      ),
     );
   }
 
@@ -200,10 +218,17 @@ async function gather(ctx: AppContext, organizationId: string, siteId?: string):
     order: [['createdAt', 'ASC']],
   });
   const reporterNames = new Map(
-    (await User.findAll({ where: { id: [...new Set(reports.map((r) => r.reporterId))] }, attributes: ['id', 'name'] })).map((u) => [u.id, u.name]),
+    (
+      await User.findAll({ where: { id: [...new Set(reports.map((r) => r.reporterId))] }, attributes: ['id', 'name'] })
+    ).map((u) => [u.id, u.name]),
   );
   const labelTags = new Map(
-    (await Label.findAll({ where: { id: [...new Set(reports.map((r) => r.labelId))] }, attributes: ['id', 'equipmentTag'] })).map((l) => [l.id, l.equipmentTag]),
+    (
+      await Label.findAll({
+        where: { id: [...new Set(reports.map((r) => r.labelId))] },
+        attributes: ['id', 'equipmentTag'],
+      })
+    ).map((l) => [l.id, l.equipmentTag]),
   );
   for (const r of reports) {
     const age = Math.max(0, daysBetween(r.createdAt, now));
@@ -211,15 +236,20 @@ async function gather(ctx: AppContext, organizationId: string, siteId?: string):
     else if (age <= 30) openReportAges.from7To30Days++;
     else openReportAges.over30Days++;
     rows['open-reports'].push(
-      base(r.id, r.siteId, { kind: 'field-report', id: r.id }, {
-        equipment: labelTags.get(r.labelId) ?? '',
-        kind: reportKindLabel(r.kind),
-        status: FIELD_REPORT_STATUS_LABELS[r.status as FieldReportStatus] ?? r.status,
-        reportedBy: reporterNames.get(r.reporterId) ?? '',
-        reportedOn: isoDay(r.createdAt),
-        ageDays: age,
-        text: r.text.length > 160 ? `${r.text.slice(0, 157)}…` : r.text,
-      }),
+      base(
+        r.id,
+        r.siteId,
+        { kind: 'field-report', id: r.id },
+        {
+          equipment: labelTags.get(r.labelId) ?? '',
+          kind: reportKindLabel(r.kind),
+          status: FIELD_REPORT_STATUS_LABELS[r.status as FieldReportStatus] ?? r.status,
+          reportedBy: reporterNames.get(r.reporterId) ?? '',
+          reportedOn: isoDay(r.createdAt),
+          ageDays: age,
+          text: r.text.length > 160 ? `${r.text.slice(0, 157)}…` : r.text,
+        },
+      ),
     );
   }
 
@@ -240,7 +270,11 @@ function countsOf(rows: Record<AttentionList, AttentionRow[]>, siteId?: string):
 }
 
 /** Counts of every list, in total and per site, and the ages of open field reports. */
-export async function attentionSummary(ctx: AppContext, organizationId: string, siteId?: string): Promise<AttentionSummary> {
+export async function attentionSummary(
+  ctx: AppContext,
+  organizationId: string,
+  siteId?: string,
+): Promise<AttentionSummary> {
   const g = await gather(ctx, organizationId, siteId);
   return {
     asOf: g.asOf.toISOString(),
@@ -254,13 +288,19 @@ export async function attentionSummary(ctx: AppContext, organizationId: string, 
 }
 
 /** One list with its columns and rows. */
-export async function attentionList(ctx: AppContext, organizationId: string, list: AttentionList, siteId?: string): Promise<AttentionListResponse> {
+export async function attentionList(
+  ctx: AppContext,
+  organizationId: string,
+  list: AttentionList,
+  siteId?: string,
+): Promise<AttentionListResponse> {
   const g = await gather(ctx, organizationId, siteId);
   const info = ATTENTION_LIST_INFO[list];
   return {
     list,
     title: info.title,
-    description: list === 'not-installed' ? `${info.description} (now ${g.notInstalledAfterDays} days)` : info.description,
+    description:
+      list === 'not-installed' ? `${info.description} (now ${g.notInstalledAfterDays} days)` : info.description,
     asOf: g.asOf.toISOString(),
     columns: COLUMNS[list],
     rows: g.rows[list],

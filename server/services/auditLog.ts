@@ -43,7 +43,8 @@ function phrase(action: string): string {
   return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
-const show = (v: unknown): string => (v === null || v === undefined ? '—' : typeof v === 'object' ? JSON.stringify(v) : String(v));
+const show = (v: unknown): string =>
+  v === null || v === undefined ? '—' : typeof v === 'object' ? JSON.stringify(v) : String(v);
 
 /** Summary keys in words; keys that only hold internal ids are left out of the description (they stay in the summary). */
 const KEY_WORDS: Record<string, string> = {
@@ -83,13 +84,15 @@ export function describeEvent(action: string, summary: Record<string, unknown>):
   const parts: string[] = [];
   if (before && after && typeof before === 'object' && typeof after === 'object') {
     for (const k of new Set([...Object.keys(before), ...Object.keys(after)])) {
-      if (JSON.stringify(before[k]) !== JSON.stringify(after[k])) parts.push(`${keyWords(k)}: ${show(before[k])} → ${show(after[k])}`);
+      if (JSON.stringify(before[k]) !== JSON.stringify(after[k]))
+        parts.push(`${keyWords(k)}: ${show(before[k])} → ${show(after[k])}`);
     }
   }
   for (const [k, v] of Object.entries(summary)) {
     if (k === 'before' || k === 'after' || v === null || v === undefined || hidden(k, v)) continue;
     if (Array.isArray(v)) {
-      if (v.every((x) => typeof x !== 'object')) parts.push(`${keyWords(k)}: ${v.slice(0, 6).join(', ')}${v.length > 6 ? ` and ${v.length - 6} more` : ''}`);
+      if (v.every((x) => typeof x !== 'object'))
+        parts.push(`${keyWords(k)}: ${v.slice(0, 6).join(', ')}${v.length > 6 ? ` and ${v.length - 6} more` : ''}`);
       continue;
     }
     if (typeof v === 'object') continue;
@@ -123,7 +126,8 @@ function encodeCursor(e: AuditEvent): string {
 function decodeCursor(c: string): { at: Date; id: string } {
   const [at, id] = Buffer.from(c, 'base64url').toString('utf8').split('|');
   const d = new Date(at ?? '');
-  if (!id || Number.isNaN(d.getTime())) throw new ApiError('bad_request', 'The page cursor is not valid', { before: 'Not a cursor from this list' });
+  if (!id || Number.isNaN(d.getTime()))
+    throw new ApiError('bad_request', 'The page cursor is not valid', { before: 'Not a cursor from this list' });
   return { at: d, id };
 }
 
@@ -132,8 +136,13 @@ async function whereOf(ctx: AppContext, actor: AuthUser, q: Omit<AuditQuery, 'li
   const like = ctx.db.dialect === 'postgres' ? Op.iLike : Op.like;
   if (q.action) {
     // Several actions or prefixes, comma-separated; one ending in a dot is a prefix ("label." matches label.installed).
-    const parts = q.action.split(',').map((a) => a.trim()).filter(Boolean);
-    and.push({ [Op.or]: parts.map((a) => (a.endsWith('.') ? { action: { [Op.like]: `${escapeLike(a)}%` } } : { action: a })) });
+    const parts = q.action
+      .split(',')
+      .map((a) => a.trim())
+      .filter(Boolean);
+    and.push({
+      [Op.or]: parts.map((a) => (a.endsWith('.') ? { action: { [Op.like]: `${escapeLike(a)}%` } } : { action: a })),
+    });
   }
   if (q.entityType) and.push({ entityType: q.entityType });
   if (q.entityId) and.push({ entityId: q.entityId });
@@ -143,7 +152,10 @@ async function whereOf(ctx: AppContext, actor: AuthUser, q: Omit<AuditQuery, 'li
   if (q.q) {
     const pattern = `%${escapeLike(q.q)}%`;
     const actors = await User.findAll({
-      where: { organizationId: actor.organizationId, [Op.or]: [{ name: { [like]: pattern } }, { email: { [like]: pattern } }] },
+      where: {
+        organizationId: actor.organizationId,
+        [Op.or]: [{ name: { [like]: pattern } }, { email: { [like]: pattern } }],
+      },
       attributes: ['id'],
     });
     and.push({
@@ -165,7 +177,9 @@ async function whereOf(ctx: AppContext, actor: AuthUser, q: Omit<AuditQuery, 'li
 
 async function toDtos(events: AuditEvent[]): Promise<AuditEventDto[]> {
   const ids = [...new Set(events.map((e) => e.actorId).filter((x): x is string => !!x))];
-  const users = new Map((await User.findAll({ where: { id: ids }, attributes: ['id', 'name', 'email'] })).map((u) => [u.id, u]));
+  const users = new Map(
+    (await User.findAll({ where: { id: ids }, attributes: ['id', 'name', 'email'] })).map((u) => [u.id, u]),
+  );
   return events.map((e) => {
     const summary = parseSummary(e.summary);
     const u = e.actorId ? users.get(e.actorId) : undefined;
@@ -185,18 +199,38 @@ async function toDtos(events: AuditEvent[]): Promise<AuditEventDto[]> {
 /** Newest first, one page at a time. */
 export async function searchAudit(ctx: AppContext, actor: AuthUser, q: AuditQuery): Promise<AuditPage> {
   const where = await whereOf(ctx, actor, q);
-  const rows = await AuditEvent.findAll({ where, order: [['createdAt', 'DESC'], ['id', 'DESC']], limit: q.limit + 1 });
+  const rows = await AuditEvent.findAll({
+    where,
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+    limit: q.limit + 1,
+  });
   const page = rows.slice(0, q.limit);
   return { events: await toDtos(page), nextBefore: rows.length > q.limit ? encodeCursor(page[page.length - 1]) : null };
 }
 
 /** Every matching event (up to AUDIT_EXPORT_MAX), newest first, for a CSV export. */
-export async function exportAudit(ctx: AppContext, actor: AuthUser, q: Omit<AuditQuery, 'limit' | 'before'>): Promise<AuditEventDto[]> {
+export async function exportAudit(
+  ctx: AppContext,
+  actor: AuthUser,
+  q: Omit<AuditQuery, 'limit' | 'before'>,
+): Promise<AuditEventDto[]> {
   const where = await whereOf(ctx, actor, q);
   const total = await AuditEvent.count({ where });
   if (total > AUDIT_EXPORT_MAX) {
-    throw new ApiError('unprocessable', `${total} events match: narrow the dates or the search (at most ${AUDIT_EXPORT_MAX} per export)`);
+    throw new ApiError(
+      'unprocessable',
+      `${total} events match: narrow the dates or the search (at most ${AUDIT_EXPORT_MAX} per export)`,
+    );
   }
-  const rows = await AuditEvent.findAll({ where, order: [['createdAt', 'DESC'], ['id', 'DESC']] });
+  const rows = await AuditEvent.findAll({
+    where,
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+  });
   return toDtos(rows);
 }

@@ -66,13 +66,18 @@ function prepare(input: DeviceTypeInput) {
   try {
     resolveDefinition(data.definition); // an unknown switch position is refused here (400, naming the field)
   } catch (e) {
-    if (e instanceof EngineError) throw new EngineError(e.kind, e.code, e.message, e.field ? `definition.${e.field}` : 'definition');
+    if (e instanceof EngineError)
+      throw new EngineError(e.kind, e.code, e.message, e.field ? `definition.${e.field}` : 'definition');
     throw e;
   }
   return data;
 }
 
-export async function createDeviceType(ctx: AppContext, actor: AuthUser, input: DeviceTypeInput): Promise<DeviceTypeDto> {
+export async function createDeviceType(
+  ctx: AppContext,
+  actor: AuthUser,
+  input: DeviceTypeInput,
+): Promise<DeviceTypeDto> {
   const data = prepare(input);
   return ctx.db.sequelize.transaction(async (transaction) => {
     const row = await DeviceType.create(
@@ -88,24 +93,49 @@ export async function createDeviceType(ctx: AppContext, actor: AuthUser, input: 
       { transaction },
     );
     await recordAudit(
-      { organizationId: actor.organizationId, actorId: actor.id, action: 'device-type.created', entityType: 'device-type', entityId: row.id, summary: { name: row.name, kind: row.kind } },
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'device-type.created',
+        entityType: 'device-type',
+        entityId: row.id,
+        summary: { name: row.name, kind: row.kind },
+      },
       transaction,
     );
     return toDto(row);
   });
 }
 
-export async function updateDeviceType(ctx: AppContext, actor: AuthUser, id: string, input: DeviceTypeInput): Promise<DeviceTypeDto> {
+export async function updateDeviceType(
+  ctx: AppContext,
+  actor: AuthUser,
+  id: string,
+  input: DeviceTypeInput,
+): Promise<DeviceTypeDto> {
   const data = prepare(input);
   return ctx.db.sequelize.transaction(async (transaction) => {
     const row = await findRow(actor, id, transaction);
     const before = { name: row.name, definition: JSON.parse(row.definition) as unknown };
     await row.update(
-      { name: data.name, kind: data.definition.kind, description: data.description, source: data.source, definition: JSON.stringify(data.definition) },
+      {
+        name: data.name,
+        kind: data.definition.kind,
+        description: data.description,
+        source: data.source,
+        definition: JSON.stringify(data.definition),
+      },
       { transaction },
     );
     await recordAudit(
-      { organizationId: actor.organizationId, actorId: actor.id, action: 'device-type.updated', entityType: 'device-type', entityId: row.id, summary: { before, after: { name: data.name, definition: data.definition } } },
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'device-type.updated',
+        entityType: 'device-type',
+        entityId: row.id,
+        summary: { before, after: { name: data.name, definition: data.definition } },
+      },
       transaction,
     );
     return toDto(row);
@@ -116,7 +146,14 @@ export async function deleteDeviceType(ctx: AppContext, actor: AuthUser, id: str
   await ctx.db.sequelize.transaction(async (transaction) => {
     const row = await findRow(actor, id, transaction);
     await recordAudit(
-      { organizationId: actor.organizationId, actorId: actor.id, action: 'device-type.deleted', entityType: 'device-type', entityId: row.id, summary: { name: row.name, definition: JSON.parse(row.definition) as unknown } },
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'device-type.deleted',
+        entityType: 'device-type',
+        entityId: row.id,
+        summary: { name: row.name, definition: JSON.parse(row.definition) as unknown },
+      },
       transaction,
     );
     await row.destroy({ transaction });
@@ -125,11 +162,36 @@ export async function deleteDeviceType(ctx: AppContext, actor: AuthUser, id: str
 
 /** Invented generic examples for a new organization's library (never a maker's data or names). */
 export const GENERIC_LIBRARY: DeviceTypeInput[] = [
-  { name: 'Generic 20 A molded-case breaker', description: 'Thermal-magnetic, fixed instantaneous.', source: 'Invented example', definition: EXAMPLE_THERMAL_MAGNETIC },
-  { name: 'Generic 200 A current-limiting fuse', description: 'Total-clearing and minimum-melting curves.', source: 'Invented example', definition: EXAMPLE_FUSE },
-  { name: 'Feeder relay, very inverse', description: 'IEEE C37.112 very inverse with a 5-cycle breaker.', source: 'Invented example', definition: EXAMPLE_RELAY_IEEE },
-  { name: 'Incomer relay, standard inverse', description: 'IEC 60255-151 standard inverse.', source: 'Invented example', definition: EXAMPLE_RELAY_IEC },
-  { name: 'Digitized band, multiples of rating', description: 'A band read off a published curve, as min/max points.', source: 'Invented example', definition: EXAMPLE_BAND },
+  {
+    name: 'Generic 20 A molded-case breaker',
+    description: 'Thermal-magnetic, fixed instantaneous.',
+    source: 'Invented example',
+    definition: EXAMPLE_THERMAL_MAGNETIC,
+  },
+  {
+    name: 'Generic 200 A current-limiting fuse',
+    description: 'Total-clearing and minimum-melting curves.',
+    source: 'Invented example',
+    definition: EXAMPLE_FUSE,
+  },
+  {
+    name: 'Feeder relay, very inverse',
+    description: 'IEEE C37.112 very inverse with a 5-cycle breaker.',
+    source: 'Invented example',
+    definition: EXAMPLE_RELAY_IEEE,
+  },
+  {
+    name: 'Incomer relay, standard inverse',
+    description: 'IEC 60255-151 standard inverse.',
+    source: 'Invented example',
+    definition: EXAMPLE_RELAY_IEC,
+  },
+  {
+    name: 'Digitized band, multiples of rating',
+    description: 'A band read off a published curve, as min/max points.',
+    source: 'Invented example',
+    definition: EXAMPLE_BAND,
+  },
   {
     name: 'Generic LSIG trip unit, 1600 A frame',
     description: 'Electronic trip unit: long-time, short-time, instantaneous and ground-fault switches.',

@@ -11,12 +11,21 @@ async function toDtos(ctx: AppContext, reports: FieldReport[]): Promise<FieldRep
   if (!reports.length) return [];
   const userIds = new Set<string>();
   for (const r of reports) for (const id of [r.reporterId, r.acknowledgedById, r.resolvedById]) if (id) userIds.add(id);
-  const users = new Map((await User.findAll({ where: { id: [...userIds] }, attributes: ['id', 'name'] })).map((u) => [u.id, u.name]));
+  const users = new Map(
+    (await User.findAll({ where: { id: [...userIds] }, attributes: ['id', 'name'] })).map((u) => [u.id, u.name]),
+  );
   const labels = new Map(
-    (await Label.findAll({ where: { id: [...new Set(reports.map((r) => r.labelId))] }, attributes: ['id', 'code', 'equipmentTag'] })).map((l) => [l.id, l]),
+    (
+      await Label.findAll({
+        where: { id: [...new Set(reports.map((r) => r.labelId))] },
+        attributes: ['id', 'code', 'equipmentTag'],
+      })
+    ).map((l) => [l.id, l]),
   );
   const sites = new Map(
-    (await Site.findAll({ where: { id: [...new Set(reports.map((r) => r.siteId))] }, attributes: ['id', 'name'] })).map((s) => [s.id, s.name]),
+    (await Site.findAll({ where: { id: [...new Set(reports.map((r) => r.siteId))] }, attributes: ['id', 'name'] })).map(
+      (s) => [s.id, s.name],
+    ),
   );
   const now = ctx.now();
   return reports.map((r) => ({
@@ -43,7 +52,9 @@ async function toDtos(ctx: AppContext, reports: FieldReport[]): Promise<FieldRep
 
 /** Electricians see only the reports they made; everyone else sees every report of the organization. */
 function visibleWhere(actor: AuthUser): WhereOptions {
-  return actor.role === 'electrician' ? { organizationId: actor.organizationId, reporterId: actor.id } : { organizationId: actor.organizationId };
+  return actor.role === 'electrician'
+    ? { organizationId: actor.organizationId, reporterId: actor.id }
+    : { organizationId: actor.organizationId };
 }
 
 export async function listFieldReports(
@@ -69,7 +80,11 @@ export async function getFieldReport(ctx: AppContext, actor: AuthUser, reportId:
   return (await toDtos(ctx, [await findReport(actor, reportId)]))[0];
 }
 
-export async function fieldReportPhoto(ctx: AppContext, actor: AuthUser, reportId: string): Promise<{ body: Buffer; contentType: string }> {
+export async function fieldReportPhoto(
+  ctx: AppContext,
+  actor: AuthUser,
+  reportId: string,
+): Promise<{ body: Buffer; contentType: string }> {
   const r = await findReport(actor, reportId);
   const file = r.photoKey ? await ctx.storage.get(r.photoKey) : null;
   if (!file) throw ApiError.notFound('This report has no photo');
@@ -83,14 +98,21 @@ const NEXT: Record<FieldReportStatus, FieldReportStatus[]> = {
   resolved: [],
 };
 
-export async function triageFieldReport(ctx: AppContext, actor: AuthUser, reportId: string, input: FieldReportTriage): Promise<FieldReportDto> {
+export async function triageFieldReport(
+  ctx: AppContext,
+  actor: AuthUser,
+  reportId: string,
+  input: FieldReportTriage,
+): Promise<FieldReportDto> {
   const report = await ctx.db.sequelize.transaction(async (transaction) => {
     const r = await FieldReport.findOne({ where: { id: reportId, organizationId: actor.organizationId }, transaction });
     if (!r) throw ApiError.notFound('No such field report');
     const before = r.status as FieldReportStatus;
     if (!NEXT[before].includes(input.status)) {
       throw ApiError.conflict(
-        before === 'resolved' ? 'This report is already resolved' : `A report that is ${before} cannot become ${input.status}`,
+        before === 'resolved'
+          ? 'This report is already resolved'
+          : `A report that is ${before} cannot become ${input.status}`,
       );
     }
     const now = ctx.now();
@@ -114,7 +136,11 @@ export async function triageFieldReport(ctx: AppContext, actor: AuthUser, report
         action: `field-report.${input.status}`,
         entityType: 'field-report',
         entityId: r.id,
-        summary: { before: { status: before }, after: { status: input.status }, ...(input.note ? { note: input.note } : {}) },
+        summary: {
+          before: { status: before },
+          after: { status: input.status },
+          ...(input.note ? { note: input.note } : {}),
+        },
       },
       transaction,
     );
@@ -122,4 +148,3 @@ export async function triageFieldReport(ctx: AppContext, actor: AuthUser, report
   });
   return (await toDtos(ctx, [report]))[0];
 }
-

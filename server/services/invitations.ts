@@ -49,7 +49,9 @@ function linkRefused(state: Exclude<LinkState, 'usable'>, purpose: LinkPurpose |
   switch (state) {
     case 'used':
       return ApiError.notFound(
-        invitation ? 'This invitation has already been accepted: sign in instead' : 'This link has already been used: ask for a new one if you still need it',
+        invitation
+          ? 'This invitation has already been accepted: sign in instead'
+          : 'This link has already been used: ask for a new one if you still need it',
       );
     case 'revoked':
       return ApiError.notFound(
@@ -59,7 +61,9 @@ function linkRefused(state: Exclude<LinkState, 'usable'>, purpose: LinkPurpose |
       );
     case 'expired':
       return ApiError.notFound(
-        invitation ? 'This invitation has expired: ask your administrator to send it again' : 'This link has expired: ask for a new one',
+        invitation
+          ? 'This invitation has expired: ask your administrator to send it again'
+          : 'This link has expired: ask for a new one',
       );
     default:
       return ApiError.notFound('This link is not valid: check that the whole link was copied, or ask for a new one');
@@ -74,7 +78,12 @@ async function findLink(token: string, transaction?: Transaction): Promise<LinkT
  * Marks the link used, atomically: a conditional UPDATE that only one caller can win (checked by the affected rows),
  * so two concurrent uses of the same link never both succeed. Throws the 404 that says why otherwise.
  */
-async function claimLink(ctx: AppContext, token: string, purpose: LinkPurpose, transaction: Transaction): Promise<LinkToken> {
+async function claimLink(
+  ctx: AppContext,
+  token: string,
+  purpose: LinkPurpose,
+  transaction: Transaction,
+): Promise<LinkToken> {
   const now = ctx.now();
   const row = await findLink(token, transaction);
   const state = stateOf(row, purpose, now);
@@ -127,13 +136,17 @@ export async function listInvitations(ctx: AppContext, actor: AuthUser): Promise
 }
 
 async function findInvitation(actor: AuthUser, invitationId: string, transaction?: Transaction): Promise<LinkToken> {
-  const row = await LinkToken.findOne({ where: { id: invitationId, organizationId: actor.organizationId, purpose: 'invitation' }, transaction });
+  const row = await LinkToken.findOne({
+    where: { id: invitationId, organizationId: actor.organizationId, purpose: 'invitation' },
+    transaction,
+  });
   if (!row) throw ApiError.notFound('No such invitation');
   return row;
 }
 
 async function assertEmailFree(email: string, transaction?: Transaction): Promise<void> {
-  if (await User.findOne({ where: { email }, transaction })) throw new ApiError('conflict', EMAIL_TAKEN, { email: 'Already in use' });
+  if (await User.findOne({ where: { email }, transaction }))
+    throw new ApiError('conflict', EMAIL_TAKEN, { email: 'Already in use' });
 }
 
 async function organizationName(organizationId: string): Promise<string> {
@@ -150,21 +163,40 @@ async function mailInvitation(ctx: AppContext, actor: AuthUser, row: LinkToken, 
     link: appLink(ctx.config.publicBaseUrl, `welcome/${token}`),
     expiresAt: row.expiresAt,
   });
-  await ctx.mail.send({ organizationId: row.organizationId, kind: 'invitation', to: row.email, actorId: actor.id, ...content });
+  await ctx.mail.send({
+    organizationId: row.organizationId,
+    kind: 'invitation',
+    to: row.email,
+    actorId: actor.id,
+    ...content,
+  });
 }
 
 /** Invites someone by e-mail: a one-time link to /welcome/<token>, valid 7 days. */
-export async function createInvitation(ctx: AppContext, actor: AuthUser, input: CreateInvitation): Promise<InvitationDto> {
+export async function createInvitation(
+  ctx: AppContext,
+  actor: AuthUser,
+  input: CreateInvitation,
+): Promise<InvitationDto> {
   const token = newLinkToken();
   const now = ctx.now();
   const row = await ctx.db.sequelize.transaction(WRITE_LOCK, async (transaction) => {
     await assertEmailFree(input.email, transaction);
     const pending = await LinkToken.findOne({
-      where: { organizationId: actor.organizationId, purpose: 'invitation', email: input.email, usedAt: null, revokedAt: null, expiresAt: { [Op.gt]: now } },
+      where: {
+        organizationId: actor.organizationId,
+        purpose: 'invitation',
+        email: input.email,
+        usedAt: null,
+        revokedAt: null,
+        expiresAt: { [Op.gt]: now },
+      },
       transaction,
     });
     if (pending) {
-      throw new ApiError('conflict', 'This address already has a pending invitation: resend it instead', { email: 'Already invited' });
+      throw new ApiError('conflict', 'This address already has a pending invitation: resend it instead', {
+        email: 'Already invited',
+      });
     }
     const created = await LinkToken.create(
       {
@@ -238,12 +270,23 @@ export async function revokeInvitation(ctx: AppContext, actor: AuthUser, invitat
   const row = await ctx.db.sequelize.transaction(WRITE_LOCK, async (transaction) => {
     const inv = await findInvitation(actor, invitationId, transaction);
     const status = invitationStatus(inv, now);
-    if (status === 'accepted') throw ApiError.conflict('This invitation has already been accepted: deactivate the user instead');
+    if (status === 'accepted')
+      throw ApiError.conflict('This invitation has already been accepted: deactivate the user instead');
     if (status === 'revoked') return inv;
-    const [affected] = await LinkToken.update({ revokedAt: now }, { where: { id: inv.id, usedAt: null, revokedAt: null }, transaction });
+    const [affected] = await LinkToken.update(
+      { revokedAt: now },
+      { where: { id: inv.id, usedAt: null, revokedAt: null }, transaction },
+    );
     if (affected !== 1) throw ApiError.conflict('This invitation changed meanwhile: reload and try again');
     await recordAudit(
-      { organizationId: actor.organizationId, actorId: actor.id, action: 'invitation.revoked', entityType: 'invitation', entityId: inv.id, summary: { email: inv.email } },
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'invitation.revoked',
+        entityType: 'invitation',
+        entityId: inv.id,
+        summary: { email: inv.email },
+      },
       transaction,
     );
     await inv.reload({ transaction });
@@ -253,7 +296,10 @@ export async function revokeInvitation(ctx: AppContext, actor: AuthUser, invitat
 }
 
 /** The invited person chooses a password: the user is created in the inviting organization with the invited role. */
-export async function acceptInvitation(ctx: AppContext, input: { token: string; password: string }): Promise<SignInResponse> {
+export async function acceptInvitation(
+  ctx: AppContext,
+  input: { token: string; password: string },
+): Promise<SignInResponse> {
   // Refuse a dead link before spending a password hash on it.
   await linkInfo(ctx, input.token, 'invitation');
   const passwordHash = await hashPassword(input.password);
@@ -264,7 +310,14 @@ export async function acceptInvitation(ctx: AppContext, input: { token: string; 
         throw new ApiError('conflict', `${EMAIL_TAKEN}: sign in or reset your password`, { email: 'Already in use' });
       }
       const created = await User.create(
-        { id: randomUUID(), organizationId: link.organizationId, email: link.email, name: link.name, role: link.role as Role, passwordHash },
+        {
+          id: randomUUID(),
+          organizationId: link.organizationId,
+          email: link.email,
+          name: link.name,
+          role: link.role as Role,
+          passwordHash,
+        },
         { transaction },
       );
       await LinkToken.update({ userId: created.id }, { where: { id: link.id }, transaction });
@@ -322,7 +375,16 @@ export async function requestPasswordReset(ctx: AppContext, email: string): Prom
   const link = await ctx.db.sequelize.transaction(WRITE_LOCK, async (transaction) => {
     await LinkToken.update(
       { revokedAt: now },
-      { where: { userId: user.id, purpose: 'password-reset', usedAt: null, revokedAt: null, expiresAt: { [Op.gt]: now } }, transaction },
+      {
+        where: {
+          userId: user.id,
+          purpose: 'password-reset',
+          usedAt: null,
+          revokedAt: null,
+          expiresAt: { [Op.gt]: now },
+        },
+        transaction,
+      },
     );
     const created = await LinkToken.create(
       {
@@ -352,28 +414,53 @@ export async function requestPasswordReset(ctx: AppContext, email: string): Prom
     );
     return created;
   });
-  const content = passwordResetMail({ name: user.name, link: appLink(ctx.config.publicBaseUrl, `reset-password/${token}`), expiresAt: link.expiresAt });
-  await ctx.mail.send({ organizationId: user.organizationId, kind: 'password-reset', to: user.email, actorId: null, ...content });
+  const content = passwordResetMail({
+    name: user.name,
+    link: appLink(ctx.config.publicBaseUrl, `reset-password/${token}`),
+    expiresAt: link.expiresAt,
+  });
+  await ctx.mail.send({
+    organizationId: user.organizationId,
+    kind: 'password-reset',
+    to: user.email,
+    actorId: null,
+    ...content,
+  });
 }
 
 /** Sets the new password from a reset link: single use; every session of the user ends; returns a fresh one. */
-export async function confirmPasswordReset(ctx: AppContext, input: { token: string; password: string }): Promise<SignInResponse> {
+export async function confirmPasswordReset(
+  ctx: AppContext,
+  input: { token: string; password: string },
+): Promise<SignInResponse> {
   await linkInfo(ctx, input.token, 'password-reset');
   const passwordHash = await hashPassword(input.password);
   const now = ctx.now();
   const user = await ctx.db.sequelize.transaction(WRITE_LOCK, async (transaction) => {
     const link = await claimLink(ctx, input.token, 'password-reset', transaction);
-    const u = link.userId ? await User.findOne({ where: { id: link.userId, organizationId: link.organizationId }, transaction }) : null;
+    const u = link.userId
+      ? await User.findOne({ where: { id: link.userId, organizationId: link.organizationId }, transaction })
+      : null;
     if (!u || !u.active) throw ApiError.notFound('This account is no longer active: ask your administrator');
     u.passwordHash = passwordHash;
     u.tokenVersion += 1;
     await u.save({ transaction });
     await LinkToken.update(
       { revokedAt: now },
-      { where: { userId: u.id, purpose: 'password-reset', usedAt: null, revokedAt: null, id: { [Op.ne]: link.id } }, transaction },
+      {
+        where: { userId: u.id, purpose: 'password-reset', usedAt: null, revokedAt: null, id: { [Op.ne]: link.id } },
+        transaction,
+      },
     );
     await recordAudit(
-      { organizationId: u.organizationId, actorId: u.id, action: 'password.reset', entityType: 'user', entityId: u.id, summary: { email: u.email } },
+      {
+        organizationId: u.organizationId,
+        actorId: u.id,
+        action: 'password.reset',
+        entityType: 'user',
+        entityId: u.id,
+        summary: { email: u.email },
+      },
       transaction,
     );
     return u;

@@ -30,12 +30,21 @@ async function labelsOf(actor: AuthUser, ids: string[]): Promise<Label[]> {
   const rows = await Label.findAll({ where: { id: ids, organizationId: actor.organizationId } });
   const byId = new Map(rows.map((r) => [r.id, r]));
   const missing = ids.filter((id) => !byId.has(id));
-  if (missing.length) throw new ApiError('not_found', `${missing.length} of the chosen labels were not found`, { labelIds: missing.slice(0, 5).join(', ') });
+  if (missing.length)
+    throw new ApiError('not_found', `${missing.length} of the chosen labels were not found`, {
+      labelIds: missing.slice(0, 5).join(', '),
+    });
   return ids.map((id) => byId.get(id) as Label);
 }
 
 /** One PDF of the given labels, now (small batches and the study's labels.pdf). Records the printed time. */
-export async function renderLabelPdf(ctx: AppContext, actor: AuthUser, labels: Label[], size: LabelSize, onProgress?: (done: number, total: number) => void): Promise<Uint8Array> {
+export async function renderLabelPdf(
+  ctx: AppContext,
+  actor: AuthUser,
+  labels: Label[],
+  size: LabelSize,
+  onProgress?: (done: number, total: number) => void,
+): Promise<Uint8Array> {
   const pdf = await renderLabels(
     labels.map((l) => ({ content: JSON.parse(l.content) as LabelContent, checkUrl: checkUrl(ctx, l.code) })),
     size,
@@ -43,7 +52,17 @@ export async function renderLabelPdf(ctx: AppContext, actor: AuthUser, labels: L
   );
   await ctx.db.sequelize.transaction(async (transaction) => {
     await Label.update({ printedAt: ctx.now() }, { where: { id: labels.map((l) => l.id) }, transaction });
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'labels.printed', entityType: 'label', entityId: null, summary: { count: labels.length, size, tags: labels.slice(0, 50).map((l) => l.equipmentTag) } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'labels.printed',
+        entityType: 'label',
+        entityId: null,
+        summary: { count: labels.length, size, tags: labels.slice(0, 50).map((l) => l.equipmentTag) },
+      },
+      transaction,
+    );
   });
   return pdf;
 }
@@ -73,9 +92,17 @@ export async function createBatch(ctx: AppContext, actor: AuthUser, input: Creat
       await yieldToLoop();
       const key = makeFileKey(actor.organizationId, 'pdf');
       await ctx.storage.put(key, Buffer.from(pdf), 'application/pdf');
-      await batch.update({ status: 'done', progress: 1, fileKey: key, message: `${labels.length} label${labels.length === 1 ? '' : 's'} ready` });
+      await batch.update({
+        status: 'done',
+        progress: 1,
+        fileKey: key,
+        message: `${labels.length} label${labels.length === 1 ? '' : 's'} ready`,
+      });
     } catch (e) {
-      await batch.update({ status: 'failed', message: e instanceof Error ? e.message.slice(0, 390) : 'The PDF could not be made' });
+      await batch.update({
+        status: 'failed',
+        message: e instanceof Error ? e.message.slice(0, 390) : 'The PDF could not be made',
+      });
     }
   });
   return toDto(batch);

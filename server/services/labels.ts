@@ -152,7 +152,11 @@ export async function toLabelDtos(labels: Label[], now: Date): Promise<LabelDto[
   }));
 }
 
-export async function listLabels(ctx: AppContext, actor: AuthUser, filter: { siteId?: string; studyId?: string; current?: boolean }): Promise<LabelDto[]> {
+export async function listLabels(
+  ctx: AppContext,
+  actor: AuthUser,
+  filter: { siteId?: string; studyId?: string; current?: boolean },
+): Promise<LabelDto[]> {
   // The site or study must be the actor's: another organization's id is not found.
   if (filter.siteId) await findSite(actor, filter.siteId);
   if (filter.studyId) await findStudy(actor, filter.studyId);
@@ -160,7 +164,13 @@ export async function listLabels(ctx: AppContext, actor: AuthUser, filter: { sit
   if (filter.siteId) where.siteId = filter.siteId;
   if (filter.studyId) where.studyId = filter.studyId;
   if (filter.current) where.supersededAt = null;
-  const rows = await Label.findAll({ where, order: [['equipmentTag', 'ASC'], ['issuedAt', 'DESC']] });
+  const rows = await Label.findAll({
+    where,
+    order: [
+      ['equipmentTag', 'ASC'],
+      ['issuedAt', 'DESC'],
+    ],
+  });
   return toLabelDtos(rows, ctx.now());
 }
 
@@ -188,19 +198,49 @@ export async function checkLabel(ctx: AppContext, rawCode: string): Promise<Labe
     });
     current = newer ? (JSON.parse(newer.content) as LabelContent) : null;
   }
-  return { code: label.code, status, content: JSON.parse(label.content) as LabelContent, current, checkedAt: now.toISOString() };
+  return {
+    code: label.code,
+    status,
+    content: JSON.parse(label.content) as LabelContent,
+    current,
+    checkedAt: now.toISOString(),
+  };
 }
 
-export async function markPrinted(ctx: AppContext, actor: AuthUser, labelIds: string[], transaction?: Transaction): Promise<void> {
-  await Label.update({ printedAt: ctx.now() }, { where: { id: labelIds, organizationId: actor.organizationId }, transaction });
+export async function markPrinted(
+  ctx: AppContext,
+  actor: AuthUser,
+  labelIds: string[],
+  transaction?: Transaction,
+): Promise<void> {
+  await Label.update(
+    { printedAt: ctx.now() },
+    { where: { id: labelIds, organizationId: actor.organizationId }, transaction },
+  );
 }
 
-export async function markInstalled(ctx: AppContext, actor: AuthUser, labelId: string, photoKey: string | null): Promise<LabelDto> {
+export async function markInstalled(
+  ctx: AppContext,
+  actor: AuthUser,
+  labelId: string,
+  photoKey: string | null,
+): Promise<LabelDto> {
   const label = await ctx.db.sequelize.transaction(async (transaction) => {
     const l = await findLabel(actor, labelId, transaction);
-    if (l.supersededAt) throw ApiError.conflict('This label is superseded: install the current label of this equipment instead');
+    if (l.supersededAt)
+      throw ApiError.conflict('This label is superseded: install the current label of this equipment instead');
     await l.update({ installedAt: ctx.now(), installedById: actor.id, installPhotoKey: photoKey }, { transaction });
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'label.installed', entityType: 'label', entityId: l.id, summary: { tag: l.equipmentTag, photo: !!photoKey } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'label.installed',
+        entityType: 'label',
+        entityId: l.id,
+        summary: { tag: l.equipmentTag, photo: !!photoKey },
+      },
+      transaction,
+    );
     return l;
   });
   return (await toLabelDtos([label], ctx.now()))[0];
@@ -218,10 +258,31 @@ export async function reportMismatch(
   return ctx.db.sequelize.transaction(async (transaction) => {
     const l = await findLabel(actor, labelId, transaction);
     const r = await FieldReport.create(
-      { id: randomUUID(), organizationId: actor.organizationId, siteId: l.siteId, labelId: l.id, reporterId: actor.id, kind: input.kind, text: input.text, photoKey, status: 'open', createdAt: ctx.now() },
+      {
+        id: randomUUID(),
+        organizationId: actor.organizationId,
+        siteId: l.siteId,
+        labelId: l.id,
+        reporterId: actor.id,
+        kind: input.kind,
+        text: input.text,
+        photoKey,
+        status: 'open',
+        createdAt: ctx.now(),
+      },
       { transaction },
     );
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'field-report.opened', entityType: 'field-report', entityId: r.id, summary: { labelId: l.id, tag: l.equipmentTag, kind: input.kind } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'field-report.opened',
+        entityType: 'field-report',
+        entityId: r.id,
+        summary: { labelId: l.id, tag: l.equipmentTag, kind: input.kind },
+      },
+      transaction,
+    );
     return { id: r.id, status: r.status };
   });
 }

@@ -1,4 +1,9 @@
-import { organizationSettingsSchema, type OrganizationDto, type OrganizationSettings, type OrganizationSettingsInput } from '../../shared/schemas/organization';
+import {
+  organizationSettingsSchema,
+  type OrganizationDto,
+  type OrganizationSettings,
+  type OrganizationSettingsInput,
+} from '../../shared/schemas/organization';
 import { Organization } from '../db/models';
 import type { LabelSettings } from '../engine/labelValues';
 import type { AppContext, AuthUser } from '../http/context';
@@ -32,7 +37,11 @@ export function labelSettingsOf(s: OrganizationSettings): LabelSettings {
   return { ppeLevels: s.ppeLevels, signalWordRule: s.signalWord };
 }
 
-export async function updateSettings(ctx: AppContext, actor: AuthUser, input: OrganizationSettingsInput): Promise<OrganizationDto> {
+export async function updateSettings(
+  ctx: AppContext,
+  actor: AuthUser,
+  input: OrganizationSettingsInput,
+): Promise<OrganizationDto> {
   const settings = organizationSettingsSchema.parse(input);
   return ctx.db.sequelize.transaction(async (transaction) => {
     const org = await Organization.findByPk(actor.organizationId, { transaction });
@@ -40,7 +49,14 @@ export async function updateSettings(ctx: AppContext, actor: AuthUser, input: Or
     const before = parseSettings(org.settings);
     await org.update({ settings: JSON.stringify(settings) }, { transaction });
     await recordAudit(
-      { organizationId: org.id, actorId: actor.id, action: 'organization.settings-updated', entityType: 'organization', entityId: org.id, summary: { before, after: settings } },
+      {
+        organizationId: org.id,
+        actorId: actor.id,
+        action: 'organization.settings-updated',
+        entityType: 'organization',
+        entityId: org.id,
+        summary: { before, after: settings },
+      },
       transaction,
     );
     return { id: org.id, name: org.name, settings };

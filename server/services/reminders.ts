@@ -1,7 +1,13 @@
 import { randomUUID } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import type { z } from 'zod';
-import { ATTENTION_LIST_INFO, ATTENTION_LISTS, type AttentionList, type AttentionListResponse, type AttentionSummary } from '../../shared/schemas/attention';
+import {
+  ATTENTION_LIST_INFO,
+  ATTENTION_LISTS,
+  type AttentionList,
+  type AttentionListResponse,
+  type AttentionSummary,
+} from '../../shared/schemas/attention';
 import type { Role } from '../../shared/schemas/common';
 import type { OutboxMessage, ReminderDelivery, ReminderRule, ReminderRuleInput } from '../../shared/schemas/reminders';
 import { reminderRuleInputSchema } from '../../shared/schemas/reminders';
@@ -41,7 +47,12 @@ function valuesOf(row: ReminderRuleRow): RuleValues {
 }
 
 function toRule(row: ReminderRuleRow, lastSentAt: Date | null): ReminderRule {
-  return { id: row.id, ...valuesOf(row), lastSentAt: lastSentAt ? lastSentAt.toISOString() : null, updatedAt: row.updatedAt.toISOString() };
+  return {
+    id: row.id,
+    ...valuesOf(row),
+    lastSentAt: lastSentAt ? lastSentAt.toISOString() : null,
+    updatedAt: row.updatedAt.toISOString(),
+  };
 }
 
 function toDelivery(row: ReminderDeliveryRow): ReminderDelivery {
@@ -59,12 +70,19 @@ function toDelivery(row: ReminderDeliveryRow): ReminderDelivery {
 }
 
 async function lastSent(ruleId: string): Promise<Date | null> {
-  const row = await ReminderDeliveryRow.findOne({ where: { ruleId, status: 'sent' }, order: [['createdAt', 'DESC']], attributes: ['createdAt'] });
+  const row = await ReminderDeliveryRow.findOne({
+    where: { ruleId, status: 'sent' },
+    order: [['createdAt', 'DESC']],
+    attributes: ['createdAt'],
+  });
   return row?.createdAt ?? null;
 }
 
 async function findRule(actor: AuthUser, ruleId: string, transaction?: Transaction): Promise<ReminderRuleRow> {
-  const row = await ReminderRuleRow.findOne({ where: { id: ruleId, organizationId: actor.organizationId }, transaction });
+  const row = await ReminderRuleRow.findOne({
+    where: { id: ruleId, organizationId: actor.organizationId },
+    transaction,
+  });
   if (!row) throw ApiError.notFound('No such reminder rule');
   return row;
 }
@@ -72,7 +90,10 @@ async function findRule(actor: AuthUser, ruleId: string, transaction?: Transacti
 // ---------------------------------------------------------------- rules
 
 export async function listRules(actor: AuthUser): Promise<{ rules: ReminderRule[]; reminderHourUtc: number }> {
-  const rows = await ReminderRuleRow.findAll({ where: { organizationId: actor.organizationId }, order: [['name', 'ASC']] });
+  const rows = await ReminderRuleRow.findAll({
+    where: { organizationId: actor.organizationId },
+    order: [['name', 'ASC']],
+  });
   const rules: ReminderRule[] = [];
   for (const r of rows) rules.push(toRule(r, await lastSent(r.id)));
   const org = await Organization.findByPk(actor.organizationId, { attributes: ['settings'] });
@@ -88,21 +109,40 @@ const stored = (v: RuleValues) => ({
   onlyWhenSomething: v.onlyWhenSomething,
 });
 
-async function insertRule(organizationId: string, actorId: string | null, values: RuleValues, transaction: Transaction): Promise<ReminderRuleRow> {
+async function insertRule(
+  organizationId: string,
+  actorId: string | null,
+  values: RuleValues,
+  transaction: Transaction,
+): Promise<ReminderRuleRow> {
   const row = await ReminderRuleRow.create({ id: randomUUID(), organizationId, ...stored(values) }, { transaction });
   await recordAudit(
-    { organizationId, actorId, action: 'reminder-rule.created', entityType: 'reminder-rule', entityId: row.id, summary: { ...valuesOf(row) } },
+    {
+      organizationId,
+      actorId,
+      action: 'reminder-rule.created',
+      entityType: 'reminder-rule',
+      entityId: row.id,
+      summary: { ...valuesOf(row) },
+    },
     transaction,
   );
   return row;
 }
 
 export async function createRule(ctx: AppContext, actor: AuthUser, input: RuleValues): Promise<ReminderRule> {
-  const row = await ctx.db.sequelize.transaction((transaction) => insertRule(actor.organizationId, actor.id, input, transaction));
+  const row = await ctx.db.sequelize.transaction((transaction) =>
+    insertRule(actor.organizationId, actor.id, input, transaction),
+  );
   return toRule(row, null);
 }
 
-export async function updateRule(ctx: AppContext, actor: AuthUser, ruleId: string, input: RuleValues): Promise<ReminderRule> {
+export async function updateRule(
+  ctx: AppContext,
+  actor: AuthUser,
+  ruleId: string,
+  input: RuleValues,
+): Promise<ReminderRule> {
   const row = await ctx.db.sequelize.transaction(async (transaction) => {
     const r = await findRule(actor, ruleId, transaction);
     const before = valuesOf(r);
@@ -130,7 +170,14 @@ export async function deleteRule(ctx: AppContext, actor: AuthUser, ruleId: strin
     const before = valuesOf(r);
     await r.destroy({ transaction });
     await recordAudit(
-      { organizationId: actor.organizationId, actorId: actor.id, action: 'reminder-rule.deleted', entityType: 'reminder-rule', entityId: r.id, summary: { before } },
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'reminder-rule.deleted',
+        entityType: 'reminder-rule',
+        entityId: r.id,
+        summary: { before },
+      },
       transaction,
     );
   });
@@ -143,7 +190,11 @@ export async function deleteRule(ctx: AppContext, actor: AuthUser, ruleId: strin
 export async function seedDefaultReminderRules(organizationId: string, transaction?: Transaction): Promise<void> {
   const defaults: ReminderRuleInput[] = [
     { name: 'Safety officers: everything that needs attention', lists: [...ATTENTION_LISTS], roles: ['safety'] },
-    { name: 'Engineers: reviews, stale studies and field reports', lists: ['review-overdue', 'review-due-30', 'stale-studies', 'open-reports'], roles: ['engineer'] },
+    {
+      name: 'Engineers: reviews, stale studies and field reports',
+      lists: ['review-overdue', 'review-due-30', 'stale-studies', 'open-reports'],
+      roles: ['engineer'],
+    },
   ];
   for (const d of defaults) {
     const values = reminderRuleInputSchema.parse(d);
@@ -155,7 +206,11 @@ export async function seedDefaultReminderRules(organizationId: string, transacti
 // ---------------------------------------------------------------- deliveries
 
 export async function listDeliveries(actor: AuthUser): Promise<ReminderDelivery[]> {
-  const rows = await ReminderDeliveryRow.findAll({ where: { organizationId: actor.organizationId }, order: [['createdAt', 'DESC']], limit: 100 });
+  const rows = await ReminderDeliveryRow.findAll({
+    where: { organizationId: actor.organizationId },
+    order: [['createdAt', 'DESC']],
+    limit: 100,
+  });
   return rows.map(toDelivery);
 }
 
@@ -187,7 +242,14 @@ interface DigestCache {
   lists: Map<AttentionList, Promise<AttentionListResponse>>;
 }
 
-async function buildDigest(ctx: AppContext, organizationId: string, organizationName: string, rule: RuleValues, day: string, cache: DigestCache) {
+async function buildDigest(
+  ctx: AppContext,
+  organizationId: string,
+  organizationName: string,
+  rule: RuleValues,
+  day: string,
+  cache: DigestCache,
+) {
   cache.summary ??= attentionSummary(ctx, organizationId);
   const summary = await cache.summary;
   const sections: DigestSection[] = [];
@@ -200,9 +262,17 @@ async function buildDigest(ctx: AppContext, organizationId: string, organization
       if (!cache.lists.has(list)) cache.lists.set(list, attentionList(ctx, organizationId, list));
       rows = digestRows(await cache.lists.get(list)!);
     }
-    sections.push({ title: ATTENTION_LIST_INFO[list].title, count, rows, link: appLink(ctx.config.publicBaseUrl, `attention/${list}`) });
+    sections.push({
+      title: ATTENTION_LIST_INFO[list].title,
+      count,
+      rows,
+      link: appLink(ctx.config.publicBaseUrl, `attention/${list}`),
+    });
   }
-  return { itemCount, content: reminderDigestMail({ organizationName, ruleName: rule.name, day, itemCount, sections }) };
+  return {
+    itemCount,
+    content: reminderDigestMail({ organizationName, ruleName: rule.name, day, itemCount, sections }),
+  };
 }
 
 /** Every active user of the rule's roles in the organization, plus its further addresses; each once. */
@@ -279,7 +349,10 @@ async function deliver(
   }
 
   await ctx.db.sequelize.transaction(async (transaction) => {
-    await delivery.update({ status, message: clip(message, 400), recipients: JSON.stringify(recipients), itemCount }, { transaction });
+    await delivery.update(
+      { status, message: clip(message, 400), recipients: JSON.stringify(recipients), itemCount },
+      { transaction },
+    );
     await recordAudit(
       {
         organizationId: org.id,
@@ -287,7 +360,15 @@ async function deliver(
         action: 'reminders.sent',
         entityType: 'reminder-rule',
         entityId: rule.id,
-        summary: { ruleName: rule.name, trigger, dayKey, status, recipients: recipients.length, itemCount, message: clip(message, 400) },
+        summary: {
+          ruleName: rule.name,
+          trigger,
+          dayKey,
+          status,
+          recipients: recipients.length,
+          itemCount,
+          message: clip(message, 400),
+        },
       },
       transaction,
     );
@@ -306,10 +387,15 @@ export async function runDueReminders(ctx: AppContext): Promise<ReminderDelivery
   const orgs = await Organization.findAll({ attributes: ['id', 'name', 'settings'], order: [['id', 'ASC']] });
   for (const org of orgs) {
     if (now.getUTCHours() < parseSettings(org.settings).reminderHourUtc) continue;
-    const rules = await ReminderRuleRow.findAll({ where: { organizationId: org.id, enabled: true }, order: [['name', 'ASC']] });
+    const rules = await ReminderRuleRow.findAll({
+      where: { organizationId: org.id, enabled: true },
+      order: [['name', 'ASC']],
+    });
     if (!rules.length) continue;
     const done = new Set(
-      (await ReminderDeliveryRow.findAll({ where: { ruleId: rules.map((r) => r.id), dayKey }, attributes: ['ruleId'] })).map((d) => d.ruleId),
+      (
+        await ReminderDeliveryRow.findAll({ where: { ruleId: rules.map((r) => r.id), dayKey }, attributes: ['ruleId'] })
+      ).map((d) => d.ruleId),
     );
     const cache: DigestCache = { lists: new Map() };
     for (const rule of rules) {
@@ -325,20 +411,34 @@ export async function runDueReminders(ctx: AppContext): Promise<ReminderDelivery
 export async function sendNow(ctx: AppContext, actor: AuthUser, ruleId?: string): Promise<ReminderDelivery[]> {
   const rules = ruleId
     ? [await findRule(actor, ruleId)]
-    : await ReminderRuleRow.findAll({ where: { organizationId: actor.organizationId, enabled: true }, order: [['name', 'ASC']] });
+    : await ReminderRuleRow.findAll({
+        where: { organizationId: actor.organizationId, enabled: true },
+        order: [['name', 'ASC']],
+      });
   const org = await Organization.findByPk(actor.organizationId, { attributes: ['id', 'name'] });
   if (!org) throw ApiError.notFound('No such organization');
   const cache: DigestCache = { lists: new Map() };
   const out: ReminderDelivery[] = [];
   for (const rule of rules) {
-    const d = await deliver(ctx, { id: org.id, name: org.name }, rule, 'manual', `manual:${randomUUID()}`, actor.id, cache);
+    const d = await deliver(
+      ctx,
+      { id: org.id, name: org.name },
+      rule,
+      'manual',
+      `manual:${randomUUID()}`,
+      actor.id,
+      cache,
+    );
     if (d) out.push(d);
   }
   return out;
 }
 
 /** Runs `runDueReminders` now and then every `intervalMs` (default 5 minutes); never two runs at once. */
-export function startReminderScheduler(ctx: AppContext, opts: { intervalMs?: number; firstRunAfterMs?: number } = {}): { stop(): Promise<void> } {
+export function startReminderScheduler(
+  ctx: AppContext,
+  opts: { intervalMs?: number; firstRunAfterMs?: number } = {},
+): { stop(): Promise<void> } {
   let running: Promise<void> | null = null;
   let stopped = false;
   const tick = (): void => {
@@ -370,7 +470,11 @@ export function startReminderScheduler(ctx: AppContext, opts: { intervalMs?: num
 
 /** Mail the local sink captured for the organization, newest first (with SMTP nothing is captured). */
 export async function listOutbox(actor: AuthUser): Promise<OutboxMessage[]> {
-  const rows = await CapturedMail.findAll({ where: { organizationId: actor.organizationId }, order: [['receivedAt', 'DESC']], limit: 200 });
+  const rows = await CapturedMail.findAll({
+    where: { organizationId: actor.organizationId },
+    order: [['receivedAt', 'DESC']],
+    limit: 200,
+  });
   return rows.map((m) => ({
     id: m.id,
     receivedAt: m.receivedAt.toISOString(),

@@ -25,11 +25,14 @@ interface RunSettings {
  */
 export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string): Promise<RunDto> {
   const study = await findStudy(actor, studyId);
-  if (study.status !== 'draft') throw ApiError.conflict(`Revision ${study.revision} is ${study.status}; only a draft is run`);
+  if (study.status !== 'draft')
+    throw ApiError.conflict(`Revision ${study.revision} is ${study.status}; only a draft is run`);
   const parsed = parseModel(JSON.parse(study.model));
   if (!parsed.success) throw modelIssuesError(parsed.issues, 'model.');
   if (!parsed.model.buses.some((b) => b.equipment)) {
-    throw new ApiError('bad_request', 'No bus has equipment to label: give at least one bus its equipment class', { 'model.buses': 'No equipment' });
+    throw new ApiError('bad_request', 'No bus has equipment to label: give at least one bus its equipment class', {
+      'model.buses': 'No equipment',
+    });
   }
   const active = await StudyRun.findOne({ where: { studyId: study.id, status: { [Op.in]: ['queued', 'running'] } } });
   if (active) return toRunDto(active);
@@ -55,7 +58,17 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
       },
       { transaction },
     );
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'study.run-started', entityType: 'study', entityId: study.id, summary: { runId: r.id, modelVersion: study.modelVersion } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'study.run-started',
+        entityType: 'study',
+        entityId: study.id,
+        summary: { runId: r.id, modelVersion: study.modelVersion },
+      },
+      transaction,
+    );
     return r;
   });
   ctx.jobs.start(() => executeRun(ctx, run.id));
@@ -78,23 +91,43 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
       if (i % 10 === 9) await yieldToLoop();
       if (Date.now() - lastWrite > 250) {
         lastWrite = Date.now();
-        await run.update({ progress: 0.02 + 0.96 * ((i + 1) / runner.busIds.length), message: `Bus ${i + 1} of ${runner.busIds.length}` });
+        await run.update({
+          progress: 0.02 + 0.96 * ((i + 1) / runner.busIds.length),
+          message: `Bus ${i + 1} of ${runner.busIds.length}`,
+        });
       }
     }
     const results: StudyResults = runner.finish(buses);
     const failed = buses.filter((b) => b.status === 'error').length;
     const message = `${buses.length} buses evaluated${failed ? `, ${failed} with errors` : ''}`;
     await ctx.db.sequelize.transaction(async (transaction) => {
-      await run.update({ status: 'done', progress: 1, message, results: JSON.stringify(results), finishedAt: ctx.now() }, { transaction });
+      await run.update(
+        { status: 'done', progress: 1, message, results: JSON.stringify(results), finishedAt: ctx.now() },
+        { transaction },
+      );
       await recordAudit(
-        { organizationId: run.organizationId, actorId: run.startedById, action: 'study.run-finished', entityType: 'study', entityId: run.studyId, summary: { runId: run.id, buses: buses.length, busErrors: failed } },
+        {
+          organizationId: run.organizationId,
+          actorId: run.startedById,
+          action: 'study.run-finished',
+          entityType: 'study',
+          entityId: run.studyId,
+          summary: { runId: run.id, buses: buses.length, busErrors: failed },
+        },
         transaction,
       );
     });
   } catch (e) {
     const message = e instanceof Error ? e.message.slice(0, 390) : 'The run failed';
     await run.update({ status: 'failed', message, finishedAt: ctx.now() });
-    await recordAudit({ organizationId: run.organizationId, actorId: run.startedById, action: 'study.run-failed', entityType: 'study', entityId: run.studyId, summary: { runId: run.id, message } });
+    await recordAudit({
+      organizationId: run.organizationId,
+      actorId: run.startedById,
+      action: 'study.run-failed',
+      entityType: 'study',
+      entityId: run.studyId,
+      summary: { runId: run.id, message },
+    });
   }
 }
 
@@ -130,7 +163,8 @@ interface RunDtoRow {
   finishedAt: Date | string | null;
 }
 
-const RUN_DTO_COLUMNS = '"id", "organizationId", "status", "progress", "message", "modelVersion", "startedAt", "finishedAt"';
+const RUN_DTO_COLUMNS =
+  '"id", "organizationId", "status", "progress", "message", "modelVersion", "startedAt", "finishedAt"';
 
 /** A DATE column read raw: a Date from PostgreSQL, `YYYY-MM-DD HH:MM:SS.SSS +00:00` text from SQLite. */
 function dateOf(v: Date | string): Date {
@@ -178,7 +212,11 @@ export async function getResults(actor: AuthUser, studyId: string): Promise<Resu
     ? await StudyRun.findByPk(study.approvedRunId)
     : await StudyRun.findOne({ where: { studyId: study.id, status: 'done' }, order: [['startedAt', 'DESC']] });
   if (!run || !run.results) throw ApiError.notFound(NO_RESULTS);
-  return { run: toRunDto(run), model: JSON.parse(run.modelSnapshot) as Record<string, unknown>, results: JSON.parse(run.results) as StudyResults };
+  return {
+    run: toRunDto(run),
+    model: JSON.parse(run.modelSnapshot) as Record<string, unknown>,
+    results: JSON.parse(run.results) as StudyResults,
+  };
 }
 
 /** A serialized results response: the exact bytes `res.json()` would send, and their entity tag. */
@@ -253,12 +291,19 @@ export async function resultsPayload(actor: AuthUser, studyId: string): Promise<
   const hit = resultsCache.get(key);
   if (hit && hit.runJson === runJson) return hit;
 
-  const large = await StudyRun.findOne({ where: { id: run.id, organizationId: actor.organizationId }, attributes: ['id', 'modelSnapshot', 'results'] });
+  const large = await StudyRun.findOne({
+    where: { id: run.id, organizationId: actor.organizationId },
+    attributes: ['id', 'modelSnapshot', 'results'],
+  });
   if (!large?.results) {
     resultsCache.delete(key);
     throw ApiError.notFound(NO_RESULTS);
   }
-  const response: ResultsResponse = { run: dto, model: JSON.parse(large.modelSnapshot) as Record<string, unknown>, results: JSON.parse(large.results) as StudyResults };
+  const response: ResultsResponse = {
+    run: dto,
+    model: JSON.parse(large.modelSnapshot) as Record<string, unknown>,
+    results: JSON.parse(large.results) as StudyResults,
+  };
   const body = Buffer.from(JSON.stringify(response));
   const payload: ResultsPayload = { runJson, body, etag: `"${createHash('sha1').update(body).digest('base64url')}"` };
   resultsCache.set(key, payload);

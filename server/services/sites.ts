@@ -32,9 +32,19 @@ export async function findSite(actor: AuthUser, siteId: string): Promise<Site> {
 export async function createSite(ctx: AppContext, actor: AuthUser, input: SiteInput): Promise<SiteDto> {
   const data = siteInputSchema.parse(input);
   return ctx.db.sequelize.transaction(async (transaction) => {
-    const site = await Site.create({ id: randomUUID(), organizationId: actor.organizationId, ...data }, { transaction });
+    const site = await Site.create(
+      { id: randomUUID(), organizationId: actor.organizationId, ...data },
+      { transaction },
+    );
     await recordAudit(
-      { organizationId: actor.organizationId, actorId: actor.id, action: 'site.created', entityType: 'site', entityId: site.id, summary: { name: site.name } },
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'site.created',
+        entityType: 'site',
+        entityId: site.id,
+        summary: { name: site.name },
+      },
       transaction,
     );
     return toSiteDto(site);
@@ -49,7 +59,14 @@ export async function updateSite(ctx: AppContext, actor: AuthUser, siteId: strin
     const before = { name: site.name, address: site.address, description: site.description };
     await site.update(data, { transaction });
     await recordAudit(
-      { organizationId: actor.organizationId, actorId: actor.id, action: 'site.updated', entityType: 'site', entityId: site.id, summary: { before, after: data } },
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'site.updated',
+        entityType: 'site',
+        entityId: site.id,
+        summary: { before, after: data },
+      },
       transaction,
     );
     return toSiteDto(site);

@@ -15,7 +15,19 @@ import { getSettings } from './organization';
 const VISIBLE_TO_ELECTRICIANS = ['approved', 'superseded'];
 
 export function emptyModel(name: string): Record<string, unknown> {
-  return { format: MODEL_FORMAT, version: MODEL_VERSION, name, frequencyHz: 60, buses: [], sources: [], transformers: [], cables: [], motors: [], ties: [], devices: [] };
+  return {
+    format: MODEL_FORMAT,
+    version: MODEL_VERSION,
+    name,
+    frequencyHz: 60,
+    buses: [],
+    sources: [],
+    transformers: [],
+    cables: [],
+    motors: [],
+    ties: [],
+    devices: [],
+  };
 }
 
 export function toRunDto(r: StudyRun): RunDto {
@@ -129,7 +141,12 @@ async function nextRevision(siteId: string, transaction: Transaction): Promise<n
   return (max ?? 0) + 1;
 }
 
-export async function createStudy(ctx: AppContext, actor: AuthUser, siteId: string, input: { title: string; model?: Record<string, unknown> }): Promise<StudyDto> {
+export async function createStudy(
+  ctx: AppContext,
+  actor: AuthUser,
+  siteId: string,
+  input: { title: string; model?: Record<string, unknown> },
+): Promise<StudyDto> {
   const site = await findSiteOf(actor, siteId);
   const study = await ctx.db.sequelize.transaction(async (transaction) => {
     const now = ctx.now();
@@ -147,7 +164,17 @@ export async function createStudy(ctx: AppContext, actor: AuthUser, siteId: stri
       },
       { transaction },
     );
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'study.created', entityType: 'study', entityId: s.id, summary: { siteId, revision: s.revision, title: s.title } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'study.created',
+        entityType: 'study',
+        entityId: s.id,
+        summary: { siteId, revision: s.revision, title: s.title },
+      },
+      transaction,
+    );
     return s;
   });
   return (await toStudyDtos(ctx, actor.organizationId, [study]))[0];
@@ -202,7 +229,17 @@ export async function saveModel(
       { where: { id: study.id, modelVersion: study.modelVersion }, transaction },
     );
     if (count !== 1) throw ApiError.conflict('The model was changed by someone else; reload to see their changes');
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action, entityType: 'study', entityId: study.id, summary: { version, ...summary } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action,
+        entityType: 'study',
+        entityId: study.id,
+        summary: { version, ...summary },
+      },
+      transaction,
+    );
     return { model, version, issues: modelIssues(model) };
   });
 }
@@ -214,7 +251,9 @@ async function latestRunOf(studyId: string, transaction?: Transaction): Promise<
 async function requireCurrentResults(study: Study, transaction: Transaction): Promise<StudyRun> {
   const run = await latestRunOf(study.id, transaction);
   if (!run || run.status !== 'done' || run.modelVersion !== study.modelVersion) {
-    throw ApiError.conflict('Run the study on the current model first: the results must match the model being reviewed');
+    throw ApiError.conflict(
+      'Run the study on the current model first: the results must match the model being reviewed',
+    );
   }
   return run;
 }
@@ -225,7 +264,17 @@ export async function submitForReview(ctx: AppContext, actor: AuthUser, studyId:
     requireDraft(s, 'submit it');
     await requireCurrentResults(s, transaction);
     await s.update({ status: 'in-review', submittedAt: ctx.now(), submittedById: actor.id }, { transaction });
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'study.submitted', entityType: 'study', entityId: s.id, summary: { revision: s.revision } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'study.submitted',
+        entityType: 'study',
+        entityId: s.id,
+        summary: { revision: s.revision },
+      },
+      transaction,
+    );
     return s;
   });
   return (await toStudyDtos(ctx, actor.organizationId, [study]))[0];
@@ -236,7 +285,17 @@ export async function returnToDraft(ctx: AppContext, actor: AuthUser, studyId: s
     const s = await findStudy(actor, studyId, transaction);
     if (s.status !== 'in-review') throw ApiError.conflict(`Revision ${s.revision} is ${s.status}, not in review`);
     await s.update({ status: 'draft', submittedAt: null, submittedById: null }, { transaction });
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'study.returned-to-draft', entityType: 'study', entityId: s.id, summary: { revision: s.revision } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'study.returned-to-draft',
+        entityType: 'study',
+        entityId: s.id,
+        summary: { revision: s.revision },
+      },
+      transaction,
+    );
     return s;
   });
   return (await toStudyDtos(ctx, actor.organizationId, [study]))[0];
@@ -246,27 +305,62 @@ export async function returnToDraft(ctx: AppContext, actor: AuthUser, studyId: s
  * Approval by a qualified engineer (name, licence number and jurisdiction recorded). The approved revision becomes
  * immutable; the site's previous approved revision is superseded; the site's equipment list follows the model.
  */
-export async function approveStudy(ctx: AppContext, actor: AuthUser, studyId: string, input: ApproveInput): Promise<StudyDto> {
+export async function approveStudy(
+  ctx: AppContext,
+  actor: AuthUser,
+  studyId: string,
+  input: ApproveInput,
+): Promise<StudyDto> {
   const settings = await getSettings(actor.organizationId);
   const study = await ctx.db.sequelize.transaction(async (transaction) => {
     const s = await findStudy(actor, studyId, transaction);
-    if (s.status !== 'in-review') throw ApiError.conflict(`Only a revision in review can be approved; revision ${s.revision} is ${s.status}`);
+    if (s.status !== 'in-review')
+      throw ApiError.conflict(`Only a revision in review can be approved; revision ${s.revision} is ${s.status}`);
     const run = await requireCurrentResults(s, transaction);
     if (settings.requireIndependentApprover && s.lastEditedById === actor.id) {
-      throw ApiError.conflict('Your organization requires the approving engineer to differ from the last editor of the model');
+      throw ApiError.conflict(
+        'Your organization requires the approving engineer to differ from the last editor of the model',
+      );
     }
     const now = ctx.now();
-    const previous = await Study.findAll({ where: { siteId: s.siteId, status: 'approved', id: { [Op.ne]: s.id } }, transaction });
+    const previous = await Study.findAll({
+      where: { siteId: s.siteId, status: 'approved', id: { [Op.ne]: s.id } },
+      transaction,
+    });
     for (const p of previous) {
       await p.update({ status: 'superseded', supersededAt: now }, { transaction });
-      await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'study.superseded', entityType: 'study', entityId: p.id, summary: { revision: p.revision, by: s.id } }, transaction);
+      await recordAudit(
+        {
+          organizationId: actor.organizationId,
+          actorId: actor.id,
+          action: 'study.superseded',
+          entityType: 'study',
+          entityId: p.id,
+          summary: { revision: p.revision, by: s.id },
+        },
+        transaction,
+      );
     }
     await s.update(
-      { status: 'approved', approvedAt: now, approvedById: actor.id, approverName: input.approverName, licenceNumber: input.licenceNumber, jurisdiction: input.jurisdiction, approvedRunId: run.id },
+      {
+        status: 'approved',
+        approvedAt: now,
+        approvedById: actor.id,
+        approverName: input.approverName,
+        licenceNumber: input.licenceNumber,
+        jurisdiction: input.jurisdiction,
+        approvedRunId: run.id,
+      },
       { transaction },
     );
     await upsertEquipment(JSON.parse(run.modelSnapshot) as Model, s, transaction);
-    const issued = await issueLabels(s, JSON.parse(run.results ?? '{"buses":[]}') as StudyResults, now, settings.reviewIntervalMonths, transaction);
+    const issued = await issueLabels(
+      s,
+      JSON.parse(run.results ?? '{"buses":[]}') as StudyResults,
+      now,
+      settings.reviewIntervalMonths,
+      transaction,
+    );
     await recordAudit(
       {
         organizationId: actor.organizationId,
@@ -274,7 +368,14 @@ export async function approveStudy(ctx: AppContext, actor: AuthUser, studyId: st
         action: 'study.approved',
         entityType: 'study',
         entityId: s.id,
-        summary: { revision: s.revision, approverName: input.approverName, licenceNumber: input.licenceNumber, jurisdiction: input.jurisdiction, runId: run.id, labelsIssued: issued },
+        summary: {
+          revision: s.revision,
+          approverName: input.approverName,
+          licenceNumber: input.licenceNumber,
+          jurisdiction: input.jurisdiction,
+          runId: run.id,
+          labelsIssued: issued,
+        },
       },
       transaction,
     );
@@ -287,9 +388,18 @@ async function upsertEquipment(model: Model, study: Study, transaction: Transact
   for (const bus of model.buses) {
     if (!bus.equipment) continue;
     const existing = await Equipment.findOne({ where: { siteId: study.siteId, tag: bus.id }, transaction });
-    const data = { name: bus.name ?? bus.id, equipmentClass: bus.equipment.class, nominalKv: bus.nominalKv, lastStudyId: study.id };
+    const data = {
+      name: bus.name ?? bus.id,
+      equipmentClass: bus.equipment.class,
+      nominalKv: bus.nominalKv,
+      lastStudyId: study.id,
+    };
     if (existing) await existing.update(data, { transaction });
-    else await Equipment.create({ id: randomUUID(), organizationId: study.organizationId, siteId: study.siteId, tag: bus.id, ...data }, { transaction });
+    else
+      await Equipment.create(
+        { id: randomUUID(), organizationId: study.organizationId, siteId: study.siteId, tag: bus.id, ...data },
+        { transaction },
+      );
   }
 }
 
@@ -300,8 +410,14 @@ export async function newRevision(ctx: AppContext, actor: AuthUser, studyId: str
     if (from.status === 'draft' || from.status === 'in-review') {
       throw ApiError.conflict(`Revision ${from.revision} is still ${from.status}; edit it instead of starting another`);
     }
-    const open = await Study.findOne({ where: { siteId: from.siteId, status: { [Op.in]: ['draft', 'in-review'] } }, transaction });
-    if (open) throw ApiError.conflict(`Revision ${open.revision} of this site is already open (${open.status}); finish it first`);
+    const open = await Study.findOne({
+      where: { siteId: from.siteId, status: { [Op.in]: ['draft', 'in-review'] } },
+      transaction,
+    });
+    if (open)
+      throw ApiError.conflict(
+        `Revision ${open.revision} of this site is already open (${open.status}); finish it first`,
+      );
     const s = await Study.create(
       {
         id: randomUUID(),
@@ -317,7 +433,17 @@ export async function newRevision(ctx: AppContext, actor: AuthUser, studyId: str
       },
       { transaction },
     );
-    await recordAudit({ organizationId: actor.organizationId, actorId: actor.id, action: 'study.revision-started', entityType: 'study', entityId: s.id, summary: { from: from.id, revision: s.revision } }, transaction);
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'study.revision-started',
+        entityType: 'study',
+        entityId: s.id,
+        summary: { from: from.id, revision: s.revision },
+      },
+      transaction,
+    );
     return s;
   });
   return (await toStudyDtos(ctx, actor.organizationId, [study]))[0];
@@ -325,6 +451,17 @@ export async function newRevision(ctx: AppContext, actor: AuthUser, studyId: str
 
 export async function listEquipment(actor: AuthUser, siteId: string): Promise<EquipmentDto[]> {
   await findSiteOf(actor, siteId);
-  const rows = await Equipment.findAll({ where: { siteId, organizationId: actor.organizationId }, order: [['tag', 'ASC']] });
-  return rows.map((e) => ({ id: e.id, tag: e.tag, name: e.name, equipmentClass: e.equipmentClass, nominalKv: e.nominalKv, lastStudyId: e.lastStudyId, updatedAt: e.updatedAt.toISOString() }));
+  const rows = await Equipment.findAll({
+    where: { siteId, organizationId: actor.organizationId },
+    order: [['tag', 'ASC']],
+  });
+  return rows.map((e) => ({
+    id: e.id,
+    tag: e.tag,
+    name: e.name,
+    equipmentClass: e.equipmentClass,
+    nominalKv: e.nominalKv,
+    lastStudyId: e.lastStudyId,
+    updatedAt: e.updatedAt.toISOString(),
+  }));
 }

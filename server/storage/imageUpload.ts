@@ -6,7 +6,15 @@ export type ImageType = 'image/jpeg' | 'image/png' | 'image/webp' | 'image/heic'
 export type ImageExtension = 'jpg' | 'png' | 'webp' | 'heic' | 'heif';
 
 /** Declared types accepted from clients (`image/jpg` and `image/pjpeg` are old spellings of JPEG). */
-const DECLARED_TYPES = new Set(['image/jpeg', 'image/jpg', 'image/pjpeg', 'image/png', 'image/webp', 'image/heic', 'image/heif']);
+const DECLARED_TYPES = new Set([
+  'image/jpeg',
+  'image/jpg',
+  'image/pjpeg',
+  'image/png',
+  'image/webp',
+  'image/heic',
+  'image/heif',
+]);
 
 /** HEIF brands at offset 8 after the `ftyp` box type at offset 4: HEIC images and the generic HEIF brand. */
 const HEIF_BRANDS: Record<string, { type: ImageType; extension: ImageExtension }> = {
@@ -23,9 +31,14 @@ const PNG_SIGNATURE = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0
  * HEIC/HEIF `ftyp` at offset 4 followed by the brand `heic`, `heix` or `mif1`.
  */
 export function detectImage(buffer: Buffer): { type: ImageType; extension: ImageExtension } | null {
-  if (buffer.length >= 3 && buffer[0] === 0xff && buffer[1] === 0xd8 && buffer[2] === 0xff) return { type: 'image/jpeg', extension: 'jpg' };
+  if (buffer.length >= 3 && buffer[0] === 0xff && buffer[1] === 0xd8 && buffer[2] === 0xff)
+    return { type: 'image/jpeg', extension: 'jpg' };
   if (buffer.length >= 8 && buffer.subarray(0, 8).equals(PNG_SIGNATURE)) return { type: 'image/png', extension: 'png' };
-  if (buffer.length >= 12 && buffer.toString('latin1', 0, 4) === 'RIFF' && buffer.toString('latin1', 8, 12) === 'WEBP') {
+  if (
+    buffer.length >= 12 &&
+    buffer.toString('latin1', 0, 4) === 'RIFF' &&
+    buffer.toString('latin1', 8, 12) === 'WEBP'
+  ) {
     return { type: 'image/webp', extension: 'webp' };
   }
   if (buffer.length >= 12 && buffer.toString('latin1', 4, 8) === 'ftyp') {
@@ -60,14 +73,31 @@ export function imageUpload(field: string, opts: { maxBytes?: number; required?:
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') {
-          return next(new ApiError('payload_too_large', `The photo in "${field}" is larger than ${describeSize(maxBytes)}`, { [field]: `Larger than ${describeSize(maxBytes)}` }));
+          return next(
+            new ApiError('payload_too_large', `The photo in "${field}" is larger than ${describeSize(maxBytes)}`, {
+              [field]: `Larger than ${describeSize(maxBytes)}`,
+            }),
+          );
         }
         if (err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT') {
-          return next(new ApiError('bad_request', `Send one photo, in the "${field}" field`, { [err.field ?? field]: 'Unexpected file' }));
+          return next(
+            new ApiError('bad_request', `Send one photo, in the "${field}" field`, {
+              [err.field ?? field]: 'Unexpected file',
+            }),
+          );
         }
-        return next(new ApiError('bad_request', `Upload refused: ${err.message}`, { [err.field ?? field]: err.message }));
+        return next(
+          new ApiError('bad_request', `Upload refused: ${err.message}`, { [err.field ?? field]: err.message }),
+        );
       }
-      if (err) return next(new ApiError('bad_request', `The upload could not be read: ${err instanceof Error ? err.message : String(err)}`, { [field]: 'Unreadable upload' }));
+      if (err)
+        return next(
+          new ApiError(
+            'bad_request',
+            `The upload could not be read: ${err instanceof Error ? err.message : String(err)}`,
+            { [field]: 'Unreadable upload' },
+          ),
+        );
       const file = req.file;
       if (!file) {
         if (!required) return next();
@@ -77,7 +107,9 @@ export function imageUpload(field: string, opts: { maxBytes?: number; required?:
       if (!DECLARED_TYPES.has(file.mimetype.toLowerCase()) || !detected) {
         delete req.file;
         return next(
-          new ApiError('unsupported_media_type', `The file in "${field}" is not a JPEG, PNG, WebP or HEIC photo`, { [field]: 'Not a JPEG, PNG, WebP or HEIC image' }),
+          new ApiError('unsupported_media_type', `The file in "${field}" is not a JPEG, PNG, WebP or HEIC photo`, {
+            [field]: 'Not a JPEG, PNG, WebP or HEIC image',
+          }),
         );
       }
       file.mimetype = detected.type;

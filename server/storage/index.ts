@@ -68,7 +68,10 @@ const required = z.preprocess((v) => (v === '' ? undefined : v), z.string({ erro
 
 const baseSchema = z.object({
   NODE_ENV: z.string().optional(),
-  STORAGE: z.preprocess((v) => (v === '' ? undefined : v), z.enum(['local', 's3', 's3-fake'], { error: 'must be local, s3 or s3-fake' }).default('local')),
+  STORAGE: z.preprocess(
+    (v) => (v === '' ? undefined : v),
+    z.enum(['local', 's3', 's3-fake'], { error: 'must be local, s3 or s3-fake' }).default('local'),
+  ),
 });
 
 const s3Schema = z.object({
@@ -103,7 +106,8 @@ export function storageConfigFromEnv(env: NodeJS.ProcessEnv, dataDir: string): S
   const { STORAGE: kind, NODE_ENV } = base.data;
   if (kind === 'local') return { kind: 'local', root: path.join(dataDir, 'uploads') };
   if (kind === 's3-fake') {
-    if (NODE_ENV === 'production') throw new ConfigError('Invalid configuration:\n  STORAGE: s3-fake is for development; use s3 in production');
+    if (NODE_ENV === 'production')
+      throw new ConfigError('Invalid configuration:\n  STORAGE: s3-fake is for development; use s3 in production');
     return { kind: 's3-fake', directory: path.join(dataDir, 's3-fake'), bucket: env.S3_BUCKET || 'emberline-dev' };
   }
   const parsed = s3Schema.safeParse(env);

@@ -29,7 +29,8 @@ export function fileKeyProblem(key: unknown): string | null {
     if (segment === '') return 'empty path segment';
     if (segment === '.' || segment === '..') return `"${segment}" segments are not allowed`;
     if (segment.length > MAX_SEGMENT_LENGTH) return `a path segment is longer than ${MAX_SEGMENT_LENGTH} characters`;
-    if (!SEGMENT.test(segment)) return 'only letters, digits, ".", "_", "-" and "/" are allowed, and no segment may start with "." "_" or "-"';
+    if (!SEGMENT.test(segment))
+      return 'only letters, digits, ".", "_", "-" and "/" are allowed, and no segment may start with "." "_" or "-"';
   }
   return null;
 }
@@ -54,7 +55,12 @@ export function makeFileKey(orgId: string | number, extension: string): string {
 /** A content type such as `image/png` or `text/plain; charset=utf-8`: no control characters, `type/subtype` form. */
 export function assertValidContentType(contentType: string): void {
   // eslint-disable-next-line no-control-regex
-  if (typeof contentType !== 'string' || contentType.length > 200 || /[\x00-\x1f\x7f]/.test(contentType) || !/^[A-Za-z0-9!#$&^_.+-]+\/[A-Za-z0-9!#$&^_.+-]+(\s*;.*)?$/.test(contentType)) {
+  if (
+    typeof contentType !== 'string' ||
+    contentType.length > 200 ||
+    /[\x00-\x1f\x7f]/.test(contentType) ||
+    !/^[A-Za-z0-9!#$&^_.+-]+\/[A-Za-z0-9!#$&^_.+-]+(\s*;.*)?$/.test(contentType)
+  ) {
     throw new TypeError(`Invalid content type ${JSON.stringify(contentType)}`);
   }
 }

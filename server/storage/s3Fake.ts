@@ -32,7 +32,11 @@ export interface LocalS3Fake {
  * `bucket` created. Without `directory` its data goes to a fresh temporary directory that `stop()` removes.
  * For tests and for development (`STORAGE=s3-fake`); never for production.
  */
-export async function startLocalS3Fake(opts: { port?: number; directory?: string; bucket: string }): Promise<LocalS3Fake> {
+export async function startLocalS3Fake(opts: {
+  port?: number;
+  directory?: string;
+  bucket: string;
+}): Promise<LocalS3Fake> {
   // Loaded here, not at the top, so production installs without dev dependencies still load the storage module.
   // eslint-disable-next-line @typescript-eslint/no-require-imports
   const S3rver = require('s3rver') as S3rverConstructor;

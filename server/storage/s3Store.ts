@@ -1,4 +1,11 @@
-import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3';
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadObjectCommand,
+  PutObjectCommand,
+  S3Client,
+  S3ServiceException,
+} from '@aws-sdk/client-s3';
 import { assertValidContentType, assertValidKey } from './keys';
 import type { FileStore, StoredFile } from './types';
 
@@ -38,7 +45,9 @@ export class S3FileStore implements FileStore {
       credentials: { accessKeyId: opts.accessKeyId, secretAccessKey: opts.secretAccessKey },
       // Many S3-compatible services do not implement the SDK's default flexible checksums: send and check
       // them only where the API requires them. AWS itself keeps the SDK defaults.
-      ...(compatible ? { requestChecksumCalculation: 'WHEN_REQUIRED', responseChecksumValidation: 'WHEN_REQUIRED' } : {}),
+      ...(compatible
+        ? { requestChecksumCalculation: 'WHEN_REQUIRED', responseChecksumValidation: 'WHEN_REQUIRED' }
+        : {}),
     });
   }
 
@@ -46,7 +55,13 @@ export class S3FileStore implements FileStore {
     assertValidKey(key);
     assertValidContentType(contentType);
     await this.client.send(
-      new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType, ContentLength: body.length }),
+      new PutObjectCommand({
+        Bucket: this.bucket,
+        Key: key,
+        Body: body,
+        ContentType: contentType,
+        ContentLength: body.length,
+      }),
     );
   }
 
@@ -55,7 +70,10 @@ export class S3FileStore implements FileStore {
     try {
       const res = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
       const bytes = res.Body ? await res.Body.transformToByteArray() : new Uint8Array();
-      return { body: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), contentType: res.ContentType ?? FALLBACK_TYPE };
+      return {
+        body: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+        contentType: res.ContentType ?? FALLBACK_TYPE,
+      };
     } catch (err) {
       if (isMissingObject(err)) return null;
       throw err;

@@ -16,13 +16,21 @@ export const ATTENTION_LISTS = [
 export const attentionListSchema = z.enum(ATTENTION_LISTS).describe('Which list of things needing attention');
 export type AttentionList = z.infer<typeof attentionListSchema>;
 
-export const ATTENTION_LIST_INFO: Record<AttentionList, { title: string; description: string; severity: 'high' | 'medium' | 'low' }> = {
+export const ATTENTION_LIST_INFO: Record<
+  AttentionList,
+  { title: string; description: string; severity: 'high' | 'medium' | 'low' }
+> = {
   'review-overdue': {
     title: 'Studies past review',
-    description: 'Approved studies whose review date has passed (organization review interval; NFPA 70E: at least every 5 years).',
+    description:
+      'Approved studies whose review date has passed (organization review interval; NFPA 70E: at least every 5 years).',
     severity: 'high',
   },
-  'review-due-30': { title: 'Review due within 30 days', description: 'Approved studies whose review date falls in the next 30 days.', severity: 'medium' },
+  'review-due-30': {
+    title: 'Review due within 30 days',
+    description: 'Approved studies whose review date falls in the next 30 days.',
+    severity: 'medium',
+  },
   'review-due-90': {
     title: 'Review due within 90 days',
     description: 'Approved studies whose review date falls in the next 90 days (includes those due within 30 days).',

@@ -19,7 +19,12 @@ const isoDate = z.iso.datetime({ offset: true }).or(z.iso.date());
 
 export const auditQuerySchema = z.object({
   q: z.string().trim().max(200).optional().describe('Text found in the action, entity, actor or summary'),
-  action: z.string().trim().max(80).optional().describe('Actions or action prefixes, comma-separated, e.g. "study." or "label.,labels." or "label.installed"'),
+  action: z
+    .string()
+    .trim()
+    .max(80)
+    .optional()
+    .describe('Actions or action prefixes, comma-separated, e.g. "study." or "label.,labels." or "label.installed"'),
   entityType: z.string().trim().max(40).optional(),
   entityId: z.string().trim().max(64).optional(),
   actorId: z.string().trim().max(64).optional(),

@@ -3,7 +3,11 @@ import { roleSchema } from './common';
 
 export const signInRequestSchema = z
   .object({
-    email: z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address' })),
+    email: z
+      .string()
+      .trim()
+      .toLowerCase()
+      .pipe(z.email({ message: 'Enter a valid e-mail address' })),
     password: z.string().min(1, 'Enter your password').max(256),
   })
   .meta({ id: 'SignInRequest' });
@@ -32,7 +36,4 @@ export const signInResponseSchema = z
 export type SignInResponse = z.infer<typeof signInResponseSchema>;
 
 /** Password policy: long enough to resist guessing; no composition rules (common practice, NIST SP 800-63B). */
-export const passwordSchema = z
-  .string()
-  .min(10, 'Use at least 10 characters')
-  .max(256, 'Use at most 256 characters');
+export const passwordSchema = z.string().min(10, 'Use at least 10 characters').max(256, 'Use at most 256 characters');

@@ -49,7 +49,9 @@ const pct = z.number().min(0).max(100);
 export const RELAY_CURVES = ['IEEE-MI', 'IEEE-VI', 'IEEE-EI', 'IEC-SI', 'IEC-VI', 'IEC-EI', 'IEC-LTI'] as const;
 export const relayCurveSchema = z
   .enum(RELAY_CURVES)
-  .describe('IEEE C37.112 moderately/very/extremely inverse, IEC 60255-151 standard/very/extremely inverse, long-time inverse');
+  .describe(
+    'IEEE C37.112 moderately/very/extremely inverse, IEC 60255-151 standard/very/extremely inverse, long-time inverse',
+  );
 export type RelayCurve = z.infer<typeof relayCurveSchema>;
 
 /**
@@ -166,9 +168,15 @@ export const thermalMagneticDeviceSchema = z
           .optional()
           .describe('Instantaneous pickup, multiple of rating (fixed, or the chosen setting), with tolerancePct'),
         tolerancePct: pct.optional().describe('Pickup tolerance, ± percent (e.g. 20)'),
-        lowMultiple: positive.optional().describe('Or: low edge of the pickup range, multiple of rating (e.g. 5 for IEC 60898-1 type C)'),
+        lowMultiple: positive
+          .optional()
+          .describe('Or: low edge of the pickup range, multiple of rating (e.g. 5 for IEC 60898-1 type C)'),
         highMultiple: positive.optional().describe('And the high edge (e.g. 10 for type C)'),
-        setting: z.string().max(40).optional().describe('Name of the chosen adjustable position or type (e.g. "LO", "C")'),
+        setting: z
+          .string()
+          .max(40)
+          .optional()
+          .describe('Name of the chosen adjustable position or type (e.g. "LO", "C")'),
       })
       .superRefine((i, ctx) => {
         const byTolerance = i.pickupMultiple !== undefined && i.tolerancePct !== undefined;
@@ -180,7 +188,11 @@ export const thermalMagneticDeviceSchema = z
             message: 'Give pickupMultiple with tolerancePct, or lowMultiple with highMultiple',
           });
         } else if (byEdges && !((i.highMultiple as number) >= (i.lowMultiple as number))) {
-          ctx.addIssue({ code: 'custom', path: ['highMultiple'], message: 'highMultiple must not be below lowMultiple' });
+          ctx.addIssue({
+            code: 'custom',
+            path: ['highMultiple'],
+            message: 'highMultiple must not be below lowMultiple',
+          });
         }
       })
       .optional(),
@@ -216,7 +228,9 @@ export const electronicDeviceSchema = z
         pickup: positive.describe('Short-time pickup as a multiple of Ir'),
         delayS: positive.describe('Short-time delay (flat part), seconds'),
         i2t: z.boolean().describe('I²t in: ramp t = delayS·(i2tMultiple/M)² up to the flat delay'),
-        i2tMultiple: positive.optional().describe('Multiple of Ir where the I²t ramp meets the flat delay (default 10)'),
+        i2tMultiple: positive
+          .optional()
+          .describe('Multiple of Ir where the I²t ramp meets the flat delay (default 10)'),
       })
       .optional(),
     instantaneous: z.object({ pickup: positive.describe('Instantaneous pickup as a multiple of In') }).optional(),
@@ -232,7 +246,9 @@ export const electronicDeviceSchema = z
       .optional()
       .describe('Time-band tolerance, ± percent on long- and short-time delays (default 0)'),
     clearingS: positive.describe('Breaker clearing time in the instantaneous region, seconds (e.g. 0.05)'),
-    instantaneousMinimumS: positive.optional().describe('Minimum (no-trip) time of the instantaneous element (default 0.01 s)'),
+    instantaneousMinimumS: positive
+      .optional()
+      .describe('Minimum (no-trip) time of the instantaneous element (default 0.01 s)'),
   })
   .meta({ id: 'ElectronicDevice' });
 export type ElectronicDevice = z.infer<typeof electronicDeviceSchema>;
@@ -288,8 +304,12 @@ export const electronicTripTypeSchema = z
       groundFaultPickup: switchPositionsSchema.optional().describe('Amperes (0 = OFF)'),
       groundFaultDelay: switchPositionsSchema.optional().describe('Seconds'),
     }),
-    longTimeDelayMultiple: positive.optional().describe('Multiple of Ir at which the long-time delay is stated (default 6)'),
-    shortTimeI2tMultiple: positive.optional().describe('Multiple of Ir where the short-time I²t ramp meets the flat delay (default 10)'),
+    longTimeDelayMultiple: positive
+      .optional()
+      .describe('Multiple of Ir at which the long-time delay is stated (default 6)'),
+    shortTimeI2tMultiple: positive
+      .optional()
+      .describe('Multiple of Ir where the short-time I²t ramp meets the flat delay (default 10)'),
     pickupTolerancePct: pct,
     timeTolerancePct: z.number().min(0).max(99).optional(),
     clearingS: positive,

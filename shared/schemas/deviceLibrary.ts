@@ -44,7 +44,12 @@ export const deviceTypeInputSchema = z
   .object({
     name: z.string().trim().min(1, 'Enter a name').max(160),
     description: z.string().trim().max(2000).default(''),
-    source: z.string().trim().max(400).default('').describe('Where the curve data came from (e.g. a published curve and its date)'),
+    source: z
+      .string()
+      .trim()
+      .max(400)
+      .default('')
+      .describe('Where the curve data came from (e.g. a published curve and its date)'),
     definition: deviceDefinitionSchema,
   })
   .meta({ id: 'DeviceTypeInput' });

@@ -51,9 +51,17 @@ export const incidentEnergyRequestSchema = z
     const single = value.arcDurationMs !== undefined;
     const pair = value.clearingMs !== undefined;
     if (single && pair) {
-      ctx.addIssue({ code: 'custom', path: ['clearingMs'], message: 'Give either one arc duration or the two clearing times, not both' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['clearingMs'],
+        message: 'Give either one arc duration or the two clearing times, not both',
+      });
     } else if (!single && !pair) {
-      ctx.addIssue({ code: 'custom', path: ['arcDurationMs'], message: 'Enter an arc duration or the two clearing times' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['arcDurationMs'],
+        message: 'Enter an arc duration or the two clearing times',
+      });
     }
   })
   .describe('IEEE 1584-2018 incident-energy calculation of one equipment. Exactly one of arcDurationMs or clearingMs.')

@@ -2,7 +2,11 @@ import { z } from 'zod';
 import { passwordSchema } from './auth';
 import { roleSchema } from './common';
 
-const email = z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address' }));
+const email = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .pipe(z.email({ message: 'Enter a valid e-mail address' }));
 
 export const createInvitationSchema = z
   .object({ email, name: z.string().trim().min(1, 'Enter a name').max(120), role: roleSchema })
@@ -39,9 +43,13 @@ export const tokenInfoSchema = z
   .meta({ id: 'LinkTokenInfo' });
 export type TokenInfo = z.infer<typeof tokenInfoSchema>;
 
-export const acceptInvitationSchema = z.object({ token: linkTokenSchema, password: passwordSchema }).meta({ id: 'AcceptInvitation' });
+export const acceptInvitationSchema = z
+  .object({ token: linkTokenSchema, password: passwordSchema })
+  .meta({ id: 'AcceptInvitation' });
 export const passwordResetRequestSchema = z.object({ email }).meta({ id: 'PasswordResetRequest' });
-export const passwordResetConfirmSchema = z.object({ token: linkTokenSchema, password: passwordSchema }).meta({ id: 'PasswordResetConfirm' });
+export const passwordResetConfirmSchema = z
+  .object({ token: linkTokenSchema, password: passwordSchema })
+  .meta({ id: 'PasswordResetConfirm' });
 export const changePasswordSchema = z
   .object({ currentPassword: z.string().min(1, 'Enter your current password').max(256), newPassword: passwordSchema })
   .meta({ id: 'ChangePassword' });

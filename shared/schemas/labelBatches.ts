@@ -3,7 +3,10 @@ import { labelSizeSchema } from './labels';
 
 export const createLabelBatchSchema = z
   .object({
-    labelIds: z.array(z.string().min(1).max(64)).min(1, 'Choose at least one label').max(5000, 'At most 5000 labels at once'),
+    labelIds: z
+      .array(z.string().min(1).max(64))
+      .min(1, 'Choose at least one label')
+      .max(5000, 'At most 5000 labels at once'),
     size: labelSizeSchema,
   })
   .meta({ id: 'CreateLabelBatch' });

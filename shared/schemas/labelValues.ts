@@ -32,7 +32,9 @@ export const labelValuesSchema = z
         status: z.string(),
       })
       .nullable(),
-    gloveClass: z.object({ class: z.string(), maxUseVoltageAcV: z.number(), source: z.string(), status: z.string() }).nullable(),
+    gloveClass: z
+      .object({ class: z.string(), maxUseVoltageAcV: z.number(), source: z.string(), status: z.string() })
+      .nullable(),
     signalWord: z.enum(['DANGER', 'WARNING']),
     signalColor: z.string(),
     signalWordBasis: z.string(),

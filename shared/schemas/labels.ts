@@ -68,7 +68,9 @@ export const labelCheckSchema = z
     code: z.string(),
     status: labelStatusSchema,
     content: labelContentSchema,
-    current: labelContentSchema.nullable().describe('When superseded: what the current label of the same equipment says'),
+    current: labelContentSchema
+      .nullable()
+      .describe('When superseded: what the current label of the same equipment says'),
     checkedAt: z.string(),
   })
   .meta({ id: 'LabelCheck' });

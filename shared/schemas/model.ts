@@ -21,9 +21,7 @@ const nameSchema = z.string().trim().max(160).optional();
 /** A physical quantity: finite and greater than zero (zod 4 numbers already reject ±Infinity and NaN). */
 const positive = z.number().positive();
 
-export const electrodeConfigSchema = z
-  .enum(ELECTRODE_CONFIGS)
-  .describe('IEEE 1584-2018 electrode configuration');
+export const electrodeConfigSchema = z.enum(ELECTRODE_CONFIGS).describe('IEEE 1584-2018 electrode configuration');
 export type { ElectrodeConfig };
 
 const EQUIPMENT_CLASS_IDS = EQUIPMENT_CLASSES.map((c) => c.id) as [string, ...string[]];
@@ -39,8 +37,27 @@ export const CONDUIT_KINDS = ['steel', 'pvc', 'aluminum'] as const;
 
 /** Conductor sizes of NEC Chapter 9 Table 9 (AWG, then kcmil), in the engine's canonical spelling. */
 export const CONDUCTOR_SIZES = [
-  '14', '12', '10', '8', '6', '4', '3', '2', '1', '1/0', '2/0', '3/0', '4/0',
-  '250', '300', '350', '400', '500', '600', '750', '1000',
+  '14',
+  '12',
+  '10',
+  '8',
+  '6',
+  '4',
+  '3',
+  '2',
+  '1',
+  '1/0',
+  '2/0',
+  '3/0',
+  '4/0',
+  '250',
+  '300',
+  '350',
+  '400',
+  '500',
+  '600',
+  '750',
+  '1000',
 ] as const;
 export type ConductorSize = (typeof CONDUCTOR_SIZES)[number];
 
@@ -59,7 +76,10 @@ const conductorSizeCache = new Map<string, ConductorSize | null>();
 
 function canonicalConductorSize(size: string): ConductorSize | null {
   let s = size.trim().toLowerCase().replace(/\s+/g, '');
-  s = s.replace(/^#/, '').replace(/(kcmil|mcm|awg)$/, '').replace(/^(awg)/, '');
+  s = s
+    .replace(/^#/, '')
+    .replace(/(kcmil|mcm|awg)$/, '')
+    .replace(/^(awg)/, '');
   const aught: Record<string, string> = { '0': '1/0', '00': '2/0', '000': '3/0', '0000': '4/0' };
   if (aught[s]) s = aught[s];
   return (CONDUCTOR_SIZES as readonly string[]).includes(s) ? (s as ConductorSize) : null;
@@ -133,7 +153,9 @@ export const generatorSourceSchema = z
   })
   .meta({ id: 'GeneratorSource' });
 
-export const sourceSchema = z.discriminatedUnion('kind', [utilitySourceSchema, generatorSourceSchema]).meta({ id: 'Source' });
+export const sourceSchema = z
+  .discriminatedUnion('kind', [utilitySourceSchema, generatorSourceSchema])
+  .meta({ id: 'Source' });
 export type Source = z.infer<typeof sourceSchema>;
 export type UtilitySource = z.infer<typeof utilitySourceSchema>;
 export type GeneratorSource = z.infer<typeof generatorSourceSchema>;
@@ -204,7 +226,9 @@ export const motorSchema = z
     hp: positive.optional().describe('Rated horsepower'),
     kva: positive.optional().describe('Rated kVA (instead of hp)'),
     kv: positive.describe('Rated line-to-line kV'),
-    lockedRotorMultiple: positive.optional().describe('Locked-rotor current as a multiple of rated current (X" = 1/multiple)'),
+    lockedRotorMultiple: positive
+      .optional()
+      .describe('Locked-rotor current as a multiple of rated current (X" = 1/multiple)'),
     subtransientPct: positive.max(100).optional().describe('Subtransient reactance X", percent on the motor kVA'),
     firstCycleMultiplier: positive
       .max(10)
@@ -364,7 +388,10 @@ class UnionFind {
 
 const MAX_LISTED = 20;
 function listIds(ids: string[]): string {
-  const shown = ids.slice(0, MAX_LISTED).map((id) => `"${id}"`).join(', ');
+  const shown = ids
+    .slice(0, MAX_LISTED)
+    .map((id) => `"${id}"`)
+    .join(', ');
   return ids.length > MAX_LISTED ? `${shown} and ${ids.length - MAX_LISTED} more` : shown;
 }
 
@@ -448,15 +475,28 @@ export function validateModel(model: Model): ModelIssue[] {
   sources.forEach((s, i) => {
     if (!checkBus('sources', i, s.id, 'bus', s.bus)) return;
     if (s.kind === 'generator' && relDiff(s.kv, busKv(s.bus)) > MACHINE_KV_TOLERANCE) {
-      add('voltage-mismatch', 'sources', i, s.id, 'kv',
-        `generator rated ${s.kv} kV does not match bus "${s.bus}" at ${busKv(s.bus)} kV`);
+      add(
+        'voltage-mismatch',
+        'sources',
+        i,
+        s.id,
+        'kv',
+        `generator rated ${s.kv} kV does not match bus "${s.bus}" at ${busKv(s.bus)} kV`,
+      );
     }
   });
 
   motors.forEach((m, i) => {
     if (!checkBus('motors', i, m.id, 'bus', m.bus)) return;
     if (relDiff(m.kv, busKv(m.bus)) > MACHINE_KV_TOLERANCE) {
-      add('voltage-mismatch', 'motors', i, m.id, 'kv', `motor rated ${m.kv} kV does not match bus "${m.bus}" at ${busKv(m.bus)} kV`);
+      add(
+        'voltage-mismatch',
+        'motors',
+        i,
+        m.id,
+        'kv',
+        `motor rated ${m.kv} kV does not match bus "${m.bus}" at ${busKv(m.bus)} kV`,
+      );
     }
   });
 
@@ -477,20 +517,38 @@ export function validateModel(model: Model): ModelIssue[] {
     const kvFrom = busKv(t.fromBus);
     const kvTo = busKv(t.toBus);
     if (relDiff(t.primaryKv, kvFrom) > TRANSFORMER_KV_TOLERANCE) {
-      add('voltage-mismatch', 'transformers', i, t.id, 'primaryKv',
-        `primary ${t.primaryKv} kV does not match bus "${t.fromBus}" at ${kvFrom} kV (tolerance ${TRANSFORMER_KV_TOLERANCE * 100} %)`);
+      add(
+        'voltage-mismatch',
+        'transformers',
+        i,
+        t.id,
+        'primaryKv',
+        `primary ${t.primaryKv} kV does not match bus "${t.fromBus}" at ${kvFrom} kV (tolerance ${TRANSFORMER_KV_TOLERANCE * 100} %)`,
+      );
     }
     if (relDiff(t.secondaryKv, kvTo) > TRANSFORMER_KV_TOLERANCE) {
-      add('voltage-mismatch', 'transformers', i, t.id, 'secondaryKv',
-        `secondary ${t.secondaryKv} kV does not match bus "${t.toBus}" at ${kvTo} kV (tolerance ${TRANSFORMER_KV_TOLERANCE * 100} %)`);
+      add(
+        'voltage-mismatch',
+        'transformers',
+        i,
+        t.id,
+        'secondaryKv',
+        `secondary ${t.secondaryKv} kV does not match bus "${t.toBus}" at ${kvTo} kV (tolerance ${TRANSFORMER_KV_TOLERANCE * 100} %)`,
+      );
     }
   });
 
   const cableOk = twoEnded('cables', cables);
   cables.forEach((c, i) => {
     if (cableOk[i] && relDiff(busKv(c.toBus), busKv(c.fromBus)) > SAME_KV_TOLERANCE) {
-      add('voltage-mismatch', 'cables', i, c.id, 'toBus',
-        `cable joins buses of different voltages: "${c.fromBus}" ${busKv(c.fromBus)} kV and "${c.toBus}" ${busKv(c.toBus)} kV`);
+      add(
+        'voltage-mismatch',
+        'cables',
+        i,
+        c.id,
+        'toBus',
+        `cable joins buses of different voltages: "${c.fromBus}" ${busKv(c.fromBus)} kV and "${c.toBus}" ${busKv(c.toBus)} kV`,
+      );
     }
     if (c.size !== undefined && c.material === 'Al' && normalizeConductorSize(c.size) === '14') {
       add('missing-table-value', 'cables', i, c.id, 'size', 'NEC Chapter 9 Table 9 lists no 14 AWG aluminum conductor');
@@ -502,13 +560,25 @@ export function validateModel(model: Model): ModelIssue[] {
   ties.forEach((t, i) => {
     if (!tieOk[i]) return;
     if (relDiff(busKv(t.toBus), busKv(t.fromBus)) > SAME_KV_TOLERANCE) {
-      add('voltage-mismatch', 'ties', i, t.id, 'toBus',
-        `tie joins buses of different voltages: "${t.fromBus}" ${busKv(t.fromBus)} kV and "${t.toBus}" ${busKv(t.toBus)} kV`);
+      add(
+        'voltage-mismatch',
+        'ties',
+        i,
+        t.id,
+        'toBus',
+        `tie joins buses of different voltages: "${t.fromBus}" ${busKv(t.fromBus)} kV and "${t.toBus}" ${busKv(t.toBus)} kV`,
+      );
       return;
     }
     if (t.closed !== false && !tieSets.union(busIndex.get(t.fromBus)!, busIndex.get(t.toBus)!)) {
-      add('tie-loop', 'ties', i, t.id, 'closed',
-        'closed ties form a loop: the current split between zero-impedance paths is indeterminate (open one tie, or model it as a cable)');
+      add(
+        'tie-loop',
+        'ties',
+        i,
+        t.id,
+        'closed',
+        'closed ties form a loop: the current split between zero-impedance paths is indeterminate (open one tie, or model it as a cable)',
+      );
     }
   });
 
@@ -521,7 +591,14 @@ export function validateModel(model: Model): ModelIssue[] {
   const isInjection = (id: string) => ['sources', 'motors'].includes(kindOf(id) ?? '');
   devices.forEach((d, i) => {
     if (d.branch !== undefined && !isBranch(d.branch)) {
-      add('unknown-reference', 'devices', i, d.id, 'branch', `unknown branch "${d.branch}" (a transformer, cable or tie id)`);
+      add(
+        'unknown-reference',
+        'devices',
+        i,
+        d.id,
+        'branch',
+        `unknown branch "${d.branch}" (a transformer, cable or tie id)`,
+      );
     }
     if (d.source !== undefined && !isInjection(d.source)) {
       add('unknown-reference', 'devices', i, d.id, 'source', `unknown source "${d.source}" (a source or motor id)`);
@@ -536,7 +613,10 @@ export function validateModel(model: Model): ModelIssue[] {
     });
   join(transformers, txOk);
   join(cables, cableOk);
-  join(ties, ties.map((t, i) => tieOk[i] && t.closed !== false));
+  join(
+    ties,
+    ties.map((t, i) => tieOk[i] && t.closed !== false),
+  );
   const fed = new Set<number>();
   for (const s of sources) {
     const b = busIndex.get(s.bus);

@@ -14,7 +14,11 @@ export type PpeLevel = z.infer<typeof ppeLevelSchema>;
  */
 export const DEFAULT_PPE_LEVELS: readonly PpeLevel[] = [
   { name: 'PPE level 1', maxCalPerCm2: 4, description: 'Arc-rated clothing and face protection, at least 4 cal/cm²' },
-  { name: 'PPE level 2', maxCalPerCm2: 8, description: 'Arc-rated clothing and hood or face shield, at least 8 cal/cm²' },
+  {
+    name: 'PPE level 2',
+    maxCalPerCm2: 8,
+    description: 'Arc-rated clothing and hood or face shield, at least 8 cal/cm²',
+  },
   { name: 'PPE level 3', maxCalPerCm2: 25, description: 'Arc flash suit, at least 25 cal/cm²' },
   { name: 'PPE level 4', maxCalPerCm2: 40, description: 'Arc flash suit, at least 40 cal/cm²' },
 ];
@@ -42,12 +46,21 @@ export const organizationSettingsSchema = z
       .superRefine((levels, ctx) => {
         for (let i = 1; i < levels.length; i++) {
           if (!(levels[i].maxCalPerCm2 > levels[i - 1].maxCalPerCm2)) {
-            ctx.addIssue({ code: 'custom', path: [i, 'maxCalPerCm2'], message: 'Each level must cover more energy than the one before' });
+            ctx.addIssue({
+              code: 'custom',
+              path: [i, 'maxCalPerCm2'],
+              message: 'Each level must cover more energy than the one before',
+            });
           }
         }
       })
       .default(() => DEFAULT_PPE_LEVELS.map((l) => ({ ...l }))),
-    maxArcDurationMs: z.number().positive().max(10_000).default(2000).describe('Cap of the arc duration (IEEE 1584 2 s guidance)'),
+    maxArcDurationMs: z
+      .number()
+      .positive()
+      .max(10_000)
+      .default(2000)
+      .describe('Cap of the arc duration (IEEE 1584 2 s guidance)'),
     requireIndependentApprover: z.boolean().default(false).describe('The approver must differ from the last editor'),
     notInstalledAfterDays: z
       .number()
@@ -56,7 +69,13 @@ export const organizationSettingsSchema = z
       .max(365)
       .default(30)
       .describe('An approved label not marked installed this many days after issue needs attention'),
-    reminderHourUtc: z.number().int('Whole hours').min(0).max(23).default(6).describe('Hour (UTC) at which the daily reminders go out'),
+    reminderHourUtc: z
+      .number()
+      .int('Whole hours')
+      .min(0)
+      .max(23)
+      .default(6)
+      .describe('Hour (UTC) at which the daily reminders go out'),
   })
   .meta({ id: 'OrganizationSettings' });
 export type OrganizationSettings = z.infer<typeof organizationSettingsSchema>;

@@ -10,7 +10,13 @@ export const reminderRuleInputSchema = z
     lists: z.array(attentionListSchema).min(1, 'Pick at least one list').max(10),
     roles: z.array(roleSchema).max(4).default([]).describe('Every active user with one of these roles'),
     emails: z
-      .array(z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address' })))
+      .array(
+        z
+          .string()
+          .trim()
+          .toLowerCase()
+          .pipe(z.email({ message: 'Enter a valid e-mail address' })),
+      )
       .max(20)
       .default([])
       .describe('Further addresses'),
@@ -52,7 +58,9 @@ export const reminderDeliverySchema = z
   .meta({ id: 'ReminderDelivery' });
 export type ReminderDelivery = z.infer<typeof reminderDeliverySchema>;
 
-export const sendNowSchema = z.object({ ruleId: z.string().max(64).optional().describe('One rule; all enabled rules when absent') });
+export const sendNowSchema = z.object({
+  ruleId: z.string().max(64).optional().describe('One rule; all enabled rules when absent'),
+});
 export const sendNowResponseSchema = z.object({ deliveries: z.array(reminderDeliverySchema) });
 export const deliveryListSchema = z.object({ deliveries: z.array(reminderDeliverySchema) });
 

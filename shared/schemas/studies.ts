@@ -73,7 +73,10 @@ export const createStudySchema = z
 export const modelEnvelopeSchema = z
   .object({
     model: z.record(z.string(), z.unknown()).describe('The system model (DESIGN §4); a draft may be incomplete'),
-    version: z.number().int().describe('Model version: PUT must send the version it read (409 when another edit came first)'),
+    version: z
+      .number()
+      .int()
+      .describe('Model version: PUT must send the version it read (409 when another edit came first)'),
     issues: z.array(modelIssueSchema),
   })
   .meta({ id: 'ModelEnvelope' });

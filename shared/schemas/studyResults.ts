@@ -90,7 +90,9 @@ export const busResultSchema = z
     varCf: z.number().optional(),
     enclosureCorrectionFactor: z.number().optional(),
     cases: z.array(arcCaseTraceSchema),
-    governing: z.object({ arcCase: z.enum(['full', 'reduced']), location: z.enum(['load-side', 'line-side']) }).optional(),
+    governing: z
+      .object({ arcCase: z.enum(['full', 'reduced']), location: z.enum(['load-side', 'line-side']) })
+      .optional(),
     incidentEnergyCalPerCm2: z.number().optional(),
     incidentEnergyJPerCm2: z.number().optional(),
     arcFlashBoundaryMm: z.number().optional(),

@@ -18,7 +18,11 @@ export const userListSchema = z.object({ users: z.array(userAdminSchema) });
 
 export const createUserSchema = z
   .object({
-    email: z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address' })),
+    email: z
+      .string()
+      .trim()
+      .toLowerCase()
+      .pipe(z.email({ message: 'Enter a valid e-mail address' })),
     name: z.string().trim().min(1, 'Enter a name').max(120),
     role: roleSchema,
     password: passwordSchema,

@@ -14,7 +14,10 @@ let t: TestApp;
 let siteId = '';
 let studyId = '';
 let reportId = '';
-const png = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64');
+const png = Buffer.from(
+  'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==',
+  'base64',
+);
 
 const eng = () => bearer(t.orgA.users.engineer.token);
 const safety = () => bearer(t.orgA.users.safety.token);
@@ -32,24 +35,62 @@ interface Ev {
 }
 
 async function search(query: string, who = safety()) {
-  const res = await request(t.app).get(`/api/audit-events?${query}`).set(...who);
+  const res = await request(t.app)
+    .get(`/api/audit-events?${query}`)
+    .set(...who);
   expect(res.status).toBe(200);
   return res.body as { events: Ev[]; nextBefore: string | null };
 }
 
 beforeAll(async () => {
   t = await makeTestApp();
-  siteId = (await request(t.app).post('/api/sites').set(...eng()).send({ name: 'Headworks' })).body.id;
+  siteId = (
+    await request(t.app)
+      .post('/api/sites')
+      .set(...eng())
+      .send({ name: 'Headworks' })
+  ).body.id;
   studyId = await approveStudy(t, siteId, smallModel());
-  const labels = (await request(t.app).get(`/api/studies/${studyId}/labels`).set(...eng())).body.labels as { code: string }[];
-  await request(t.app).post(`/api/labels/${labels[0].code}/installed`).set(...elec()).attach('photo', png, { filename: 'l.png', contentType: 'image/png' });
-  reportId = (await request(t.app).post(`/api/labels/${labels[1].code}/reports`).set(...elec()).field('kind', 'device').field('text', 'Fuse is 200 A, label says 400 A')).body.id;
-  await request(t.app).post(`/api/field-reports/${reportId}/triage`).set(...eng()).send({ status: 'acknowledged' });
-  await request(t.app).post(`/api/field-reports/${reportId}/triage`).set(...safety()).send({ status: 'resolved', note: 'Label replaced after re-study' });
-  const org = (await request(t.app).get('/api/organization').set(...admin())).body;
-  await request(t.app).put('/api/organization/settings').set(...admin()).send({ ...org.settings, reviewIntervalMonths: 36 });
-  await request(t.app).patch(`/api/users/${t.orgA.users.electrician.id}`).set(...admin()).send({ name: 'Field electrician' });
-  await request(t.app).post(`/api/studies/${studyId}/revise`).set(...eng());
+  const labels = (
+    await request(t.app)
+      .get(`/api/studies/${studyId}/labels`)
+      .set(...eng())
+  ).body.labels as { code: string }[];
+  await request(t.app)
+    .post(`/api/labels/${labels[0].code}/installed`)
+    .set(...elec())
+    .attach('photo', png, { filename: 'l.png', contentType: 'image/png' });
+  reportId = (
+    await request(t.app)
+      .post(`/api/labels/${labels[1].code}/reports`)
+      .set(...elec())
+      .field('kind', 'device')
+      .field('text', 'Fuse is 200 A, label says 400 A')
+  ).body.id;
+  await request(t.app)
+    .post(`/api/field-reports/${reportId}/triage`)
+    .set(...eng())
+    .send({ status: 'acknowledged' });
+  await request(t.app)
+    .post(`/api/field-reports/${reportId}/triage`)
+    .set(...safety())
+    .send({ status: 'resolved', note: 'Label replaced after re-study' });
+  const org = (
+    await request(t.app)
+      .get('/api/organization')
+      .set(...admin())
+  ).body;
+  await request(t.app)
+    .put('/api/organization/settings')
+    .set(...admin())
+    .send({ ...org.settings, reviewIntervalMonths: 36 });
+  await request(t.app)
+    .patch(`/api/users/${t.orgA.users.electrician.id}`)
+    .set(...admin())
+    .send({ name: 'Field electrician' });
+  await request(t.app)
+    .post(`/api/studies/${studyId}/revise`)
+    .set(...eng());
 });
 afterAll(async () => t.close());
 
@@ -94,7 +135,11 @@ describe('audit events', () => {
 
   it('are searched by action prefix, text and actor, and paged without gaps or repeats', async () => {
     const fr = await search('action=field-report.');
-    expect(fr.events.map((e) => e.action).sort()).toEqual(['field-report.acknowledged', 'field-report.opened', 'field-report.resolved']);
+    expect(fr.events.map((e) => e.action).sort()).toEqual([
+      'field-report.acknowledged',
+      'field-report.opened',
+      'field-report.resolved',
+    ]);
     const several = await search('action=field-report.opened,label.&limit=500');
     expect(new Set(several.events.map((e) => e.action))).toEqual(new Set(['field-report.opened', 'label.installed']));
     const byActor = await search(`q=${encodeURIComponent('safety of org-a')}`);
@@ -109,7 +154,9 @@ describe('audit events', () => {
     const paged: string[] = [];
     let before: string | null = null;
     do {
-      const page: { events: Ev[]; nextBefore: string | null } = await search(`limit=3${before ? `&before=${before}` : ''}`);
+      const page: { events: Ev[]; nextBefore: string | null } = await search(
+        `limit=3${before ? `&before=${before}` : ''}`,
+      );
       paged.push(...page.events.map((e) => e.id));
       before = page.nextBefore;
     } while (before);
@@ -121,17 +168,23 @@ describe('audit events', () => {
     const yesterday = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10);
     expect((await search(`to=${yesterday}`)).events).toHaveLength(0);
     expect((await search(`from=${today}&limit=500`)).events.length).toBe((await search('limit=500')).events.length);
-    const bad = await request(t.app).get('/api/audit-events?from=last-tuesday').set(...safety());
+    const bad = await request(t.app)
+      .get('/api/audit-events?from=last-tuesday')
+      .set(...safety());
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.body.error.fields)).toContain('from');
-    const cursor = await request(t.app).get('/api/audit-events?before=bm9wZQ').set(...safety());
+    const cursor = await request(t.app)
+      .get('/api/audit-events?before=bm9wZQ')
+      .set(...safety());
     expect(cursor.status).toBe(400);
     expect(Object.keys(cursor.body.error.fields)).toContain('before');
   });
 
   it('export as CSV exactly what the search finds', async () => {
     const { events } = await search('action=study.&limit=500');
-    const res = await request(t.app).get('/api/audit-events/export.csv?action=study.').set(...safety());
+    const res = await request(t.app)
+      .get('/api/audit-events/export.csv?action=study.')
+      .set(...safety());
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     const rows = Papa.parse<string[]>(res.text.replace(/^\uFEFF/, ''), { skipEmptyLines: true }).data;
@@ -142,7 +195,13 @@ describe('audit events', () => {
   it('belong to their organization and are not for electricians', async () => {
     const other = await search(`q=${studyId}`, bearer(t.orgB.users.safety.token));
     expect(other.events).toHaveLength(0);
-    expect((await request(t.app).get('/api/audit-events').set(...elec())).status).toBe(403);
+    expect(
+      (
+        await request(t.app)
+          .get('/api/audit-events')
+          .set(...elec())
+      ).status,
+    ).toBe(403);
   });
 
   it('cannot be changed or deleted: no route does it, and the model refuses', async () => {
@@ -153,7 +212,10 @@ describe('audit events', () => {
     const { events } = await search('limit=1');
     const id = events[0].id;
     for (const method of ['put', 'patch', 'delete'] as const) {
-      const res = await request(t.app)[method](`/api/audit-events/${id}`).set(...admin()).send({ action: 'nothing' });
+      const res = await request(t.app)
+        [method](`/api/audit-events/${id}`)
+        .set(...admin())
+        .send({ action: 'nothing' });
       expect(res.status).toBe(404);
     }
     const before = await AuditEvent.count();

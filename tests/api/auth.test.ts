@@ -14,7 +14,9 @@ function expectErrorShape(body: unknown, code: string): void {
 
 describe('sign-in', () => {
   it('returns a token and the user on the right password', async () => {
-    const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'engineer@org-a.example', password: TEST_PASSWORD });
+    const res = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'engineer@org-a.example', password: TEST_PASSWORD });
     expect(res.status).toBe(200);
     expect(res.body.user).toMatchObject({ email: 'engineer@org-a.example', role: 'engineer' });
     const claims = jwt.decode(res.body.token) as { exp: number; iat: number };
@@ -23,13 +25,19 @@ describe('sign-in', () => {
   });
 
   it('is case-insensitive on the e-mail address', async () => {
-    const res = await request(t.app).post('/api/auth/sign-in').send({ email: 'Engineer@ORG-A.example', password: TEST_PASSWORD });
+    const res = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'Engineer@ORG-A.example', password: TEST_PASSWORD });
     expect(res.status).toBe(200);
   });
 
   it('gives the same 401 message for a wrong password and an unknown user', async () => {
-    const wrong = await request(t.app).post('/api/auth/sign-in').send({ email: 'engineer@org-a.example', password: 'not-the-password' });
-    const unknown = await request(t.app).post('/api/auth/sign-in').send({ email: 'nobody@org-a.example', password: TEST_PASSWORD });
+    const wrong = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'engineer@org-a.example', password: 'not-the-password' });
+    const unknown = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'nobody@org-a.example', password: TEST_PASSWORD });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expectErrorShape(wrong.body, 'unauthorized');
@@ -43,7 +51,10 @@ describe('sign-in', () => {
   });
 
   it('refuses a body that is not JSON', async () => {
-    const res = await request(t.app).post('/api/auth/sign-in').set('Content-Type', 'application/json').send('{"email":');
+    const res = await request(t.app)
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .send('{"email":');
     expect(res.status).toBe(400);
     expectErrorShape(res.body, 'bad_request');
   });
@@ -51,7 +62,9 @@ describe('sign-in', () => {
 
 describe('tokens', () => {
   it('accepts a valid token on /auth/me', async () => {
-    const res = await request(t.app).get('/api/auth/me').set(...bearer(t.orgA.users.safety.token));
+    const res = await request(t.app)
+      .get('/api/auth/me')
+      .set(...bearer(t.orgA.users.safety.token));
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ role: 'safety', organization: { id: t.orgA.id } });
   });
@@ -72,7 +85,14 @@ describe('tokens', () => {
     const u = t.orgA.users.engineer;
     const decoded = jwt.decode(u.token) as Record<string, unknown>;
     const expired = jwt.sign(
-      { org: decoded.org, role: decoded.role, ver: decoded.ver, sub: decoded.sub, jti: 'expired-one', exp: Math.floor(Date.now() / 1000) - 60 },
+      {
+        org: decoded.org,
+        role: decoded.role,
+        ver: decoded.ver,
+        sub: decoded.sub,
+        jti: 'expired-one',
+        exp: Math.floor(Date.now() / 1000) - 60,
+      },
       TEST_SECRET,
     );
     const res = await request(t.app).get('/api/auth/me').set('Authorization', `Bearer ${expired}`);
@@ -88,10 +108,20 @@ describe('tokens', () => {
   });
 
   it('refuses a token after sign-out', async () => {
-    const signIn = await request(t.app).post('/api/auth/sign-in').send({ email: 'electrician@org-a.example', password: TEST_PASSWORD });
+    const signIn = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'electrician@org-a.example', password: TEST_PASSWORD });
     const token = signIn.body.token as string;
-    expect((await request(t.app).post('/api/auth/sign-out').set(...bearer(token))).status).toBe(200);
-    const res = await request(t.app).get('/api/auth/me').set(...bearer(token));
+    expect(
+      (
+        await request(t.app)
+          .post('/api/auth/sign-out')
+          .set(...bearer(token))
+      ).status,
+    ).toBe(200);
+    const res = await request(t.app)
+      .get('/api/auth/me')
+      .set(...bearer(token));
     expect(res.status).toBe(401);
   });
 });
@@ -101,9 +131,16 @@ describe('users (admin)', () => {
     const res = await request(t.app)
       .post('/api/users')
       .set(...bearer(t.orgA.users.admin.token))
-      .send({ email: 'new.engineer@org-a.example', name: 'New Engineer', role: 'engineer', password: 'a-long-password-1' });
+      .send({
+        email: 'new.engineer@org-a.example',
+        name: 'New Engineer',
+        role: 'engineer',
+        password: 'a-long-password-1',
+      });
     expect(res.status).toBe(201);
-    const signIn = await request(t.app).post('/api/auth/sign-in').send({ email: 'new.engineer@org-a.example', password: 'a-long-password-1' });
+    const signIn = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'new.engineer@org-a.example', password: 'a-long-password-1' });
     expect(signIn.status).toBe(200);
   });
 
@@ -126,14 +163,18 @@ describe('users (admin)', () => {
 
   it('refuses other roles (role guard)', async () => {
     for (const role of ['engineer', 'electrician', 'safety'] as const) {
-      const res = await request(t.app).get('/api/users').set(...bearer(t.orgA.users[role].token));
+      const res = await request(t.app)
+        .get('/api/users')
+        .set(...bearer(t.orgA.users[role].token));
       expect(res.status).toBe(403);
       expectErrorShape(res.body, 'forbidden');
     }
   });
 
   it('lists only the own organization', async () => {
-    const res = await request(t.app).get('/api/users').set(...bearer(t.orgA.users.admin.token));
+    const res = await request(t.app)
+      .get('/api/users')
+      .set(...bearer(t.orgA.users.admin.token));
     expect(res.status).toBe(200);
     const emails = (res.body.users as { email: string }[]).map((u) => u.email);
     expect(emails.some((e) => e.endsWith('@org-b.example'))).toBe(false);
@@ -144,16 +185,31 @@ describe('users (admin)', () => {
       .post('/api/users')
       .set(...bearer(t.orgA.users.admin.token))
       .send({ email: 'leaving@org-a.example', name: 'Leaving', role: 'electrician', password: 'a-long-password-1' });
-    const signIn = await request(t.app).post('/api/auth/sign-in').send({ email: 'leaving@org-a.example', password: 'a-long-password-1' });
+    const signIn = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'leaving@org-a.example', password: 'a-long-password-1' });
     const token = signIn.body.token as string;
-    expect((await request(t.app).get('/api/auth/me').set(...bearer(token))).status).toBe(200);
-    const off = await request(t.app).patch(`/api/users/${created.body.id}`).set(...bearer(t.orgA.users.admin.token)).send({ active: false });
+    expect(
+      (
+        await request(t.app)
+          .get('/api/auth/me')
+          .set(...bearer(token))
+      ).status,
+    ).toBe(200);
+    const off = await request(t.app)
+      .patch(`/api/users/${created.body.id}`)
+      .set(...bearer(t.orgA.users.admin.token))
+      .send({ active: false });
     expect(off.status).toBe(200);
     expect(off.body.active).toBe(false);
-    const me = await request(t.app).get('/api/auth/me').set(...bearer(token));
+    const me = await request(t.app)
+      .get('/api/auth/me')
+      .set(...bearer(token));
     expect(me.status).toBe(401);
     expectErrorShape(me.body, 'unauthorized');
-    const again = await request(t.app).post('/api/auth/sign-in').send({ email: 'leaving@org-a.example', password: 'a-long-password-1' });
+    const again = await request(t.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'leaving@org-a.example', password: 'a-long-password-1' });
     expect(again.status).toBe(401);
   });
 
@@ -162,10 +218,23 @@ describe('users (admin)', () => {
       .post('/api/users')
       .set(...bearer(t.orgA.users.admin.token))
       .send({ email: 'mover@org-a.example', name: 'Mover', role: 'electrician', password: 'a-long-password-1' });
-    const token = (await request(t.app).post('/api/auth/sign-in').send({ email: 'mover@org-a.example', password: 'a-long-password-1' })).body.token;
-    const res = await request(t.app).patch(`/api/users/${created.body.id}`).set(...bearer(t.orgA.users.admin.token)).send({ role: 'safety' });
+    const token = (
+      await request(t.app)
+        .post('/api/auth/sign-in')
+        .send({ email: 'mover@org-a.example', password: 'a-long-password-1' })
+    ).body.token;
+    const res = await request(t.app)
+      .patch(`/api/users/${created.body.id}`)
+      .set(...bearer(t.orgA.users.admin.token))
+      .send({ role: 'safety' });
     expect(res.body.role).toBe('safety');
-    expect((await request(t.app).get('/api/auth/me').set(...bearer(token))).status).toBe(401);
+    expect(
+      (
+        await request(t.app)
+          .get('/api/auth/me')
+          .set(...bearer(token))
+      ).status,
+    ).toBe(401);
   });
 
   it('cannot touch a user of another organization (404)', async () => {

@@ -30,7 +30,10 @@ async function start(): Promise<ChildServer> {
 async function api(method: string, url: string, body?: unknown): Promise<{ status: number; body: any }> {
   const res = await fetch(`${srv.baseUrl}/api${url}`, {
     method,
-    headers: { Authorization: `Bearer ${token}`, ...(body === undefined ? {} : { 'Content-Type': 'application/json' }) },
+    headers: {
+      Authorization: `Bearer ${token}`,
+      ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
+    },
     body: body === undefined ? undefined : JSON.stringify(body),
   });
   const text = await res.text();
@@ -56,16 +59,32 @@ async function signIn(): Promise<void> {
 function importRequest(): Promise<Response> {
   const form = new FormData();
   form.append('files', new Blob([plantJson], { type: 'application/json' }), 'plant.json');
-  return fetch(`${srv.baseUrl}/api/studies/${studyId}/import`, { method: 'POST', headers: { Authorization: `Bearer ${token}` }, body: form });
+  return fetch(`${srv.baseUrl}/api/studies/${studyId}/import`, {
+    method: 'POST',
+    headers: { Authorization: `Bearer ${token}` },
+    body: form,
+  });
 }
 
 /** Opens the database file directly (the server is stopped) and returns PRAGMA integrity_check and the study's runs. */
-async function inspectDb(): Promise<{ integrity: string; runs: Record<string, unknown>[]; study: Record<string, unknown> }> {
+async function inspectDb(): Promise<{
+  integrity: string;
+  runs: Record<string, unknown>[];
+  study: Record<string, unknown>;
+}> {
   const sequelize = new Sequelize({ dialect: 'sqlite', storage: dbFile, logging: false });
   try {
-    const check = await sequelize.query<{ integrity_check: string }>('PRAGMA integrity_check', { type: QueryTypes.SELECT });
-    const runs = await sequelize.query<Record<string, unknown>>('SELECT * FROM study_runs WHERE studyId = ?', { replacements: [studyId], type: QueryTypes.SELECT });
-    const [study] = await sequelize.query<Record<string, unknown>>('SELECT * FROM studies WHERE id = ?', { replacements: [studyId], type: QueryTypes.SELECT });
+    const check = await sequelize.query<{ integrity_check: string }>('PRAGMA integrity_check', {
+      type: QueryTypes.SELECT,
+    });
+    const runs = await sequelize.query<Record<string, unknown>>('SELECT * FROM study_runs WHERE studyId = ?', {
+      replacements: [studyId],
+      type: QueryTypes.SELECT,
+    });
+    const [study] = await sequelize.query<Record<string, unknown>>('SELECT * FROM studies WHERE id = ?', {
+      replacements: [studyId],
+      type: QueryTypes.SELECT,
+    });
     return { integrity: check.map((r) => r.integrity_check).join('; '), runs, study };
   } finally {
     await sequelize.close();
@@ -129,7 +148,9 @@ describe('SIGKILL of the real server', () => {
     const wasOld = after.body.version === oldVersion && JSON.stringify(after.body.model) === oldModel;
     const wasNew = after.body.version === oldVersion + 1 && isWholePlant(after.body.model);
     // Either, never a mixture (an old version with new content, a new version with part of the plant).
-    console.log(`import killed in flight: request ${outcome}; after restart the model is the ${wasOld ? 'old' : wasNew ? 'new' : 'MIXED'} one`);
+    console.log(
+      `import killed in flight: request ${outcome}; after restart the model is the ${wasOld ? 'old' : wasNew ? 'new' : 'MIXED'} one`,
+    );
     expect(wasOld || wasNew).toBe(true);
     expect(Number(db.study.modelVersion)).toBe(after.body.version);
 
@@ -139,7 +160,9 @@ describe('SIGKILL of the real server', () => {
       const res = await importRequest();
       expect(res.status).toBe(200);
       // For the log: how far into a whole import the kill came.
-      console.log(`a whole import took ${Date.now() - t0} ms; the kill came ${KILL_AFTER_MS} ms after the request started`);
+      console.log(
+        `a whole import took ${Date.now() - t0} ms; the kill came ${KILL_AFTER_MS} ms after the request started`,
+      );
     }
     const now = await api('GET', `/studies/${studyId}/model`);
     expect(isWholePlant(now.body.model)).toBe(true);

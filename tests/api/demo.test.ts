@@ -11,23 +11,42 @@ afterAll(async () => t.close());
 describe('the invented demo', () => {
   it('seeds a site whose model runs, with one approved revision and plausible results', async () => {
     const seeded = await seedDemo(t.ctx, 'demo-password-123');
-    const token = (await request(t.app).post('/api/auth/sign-in').send({ email: 'electrician@larkspur.example', password: 'demo-password-123' })).body.token;
-    const studies = await request(t.app).get(`/api/sites/${seeded.siteId}/studies`).set('Authorization', `Bearer ${token}`);
+    const token = (
+      await request(t.app)
+        .post('/api/auth/sign-in')
+        .send({ email: 'electrician@larkspur.example', password: 'demo-password-123' })
+    ).body.token;
+    const studies = await request(t.app)
+      .get(`/api/sites/${seeded.siteId}/studies`)
+      .set('Authorization', `Bearer ${token}`);
     expect(studies.body.studies.map((s: { status: string }) => s.status)).toEqual(['approved']);
-    const results = await request(t.app).get(`/api/studies/${seeded.studyId}/results`).set('Authorization', `Bearer ${token}`);
-    const buses = results.body.results.buses as { busId: string; status: string; incidentEnergyCalPerCm2: number; warnings: { code: string }[] }[];
+    const results = await request(t.app)
+      .get(`/api/studies/${seeded.studyId}/results`)
+      .set('Authorization', `Bearer ${token}`);
+    const buses = results.body.results.buses as {
+      busId: string;
+      status: string;
+      incidentEnergyCalPerCm2: number;
+      warnings: { code: string }[];
+    }[];
     expect(buses.every((b) => b.status === 'ok')).toBe(true);
     // Plausible ranges for such a plant (common practice, no source): every labelled bus between 0.1 and 100 cal/cm².
     for (const b of buses) expect(b.incidentEnergyCalPerCm2).toBeGreaterThan(0.1);
     for (const b of buses) expect(b.incidentEnergyCalPerCm2).toBeLessThan(100);
     // A few warnings worth reading: the 208 V panel below 2 kA (IEEE 1584-2018 sustainable-arc note).
     expect(buses.find((b) => b.busId === 'LP-1')!.warnings.map((w) => w.code)).toContain('SUSTAINABLE_ARC_UNLIKELY');
-    const equipment = await request(t.app).get(`/api/sites/${seeded.siteId}/equipment`).set('Authorization', `Bearer ${token}`);
+    const equipment = await request(t.app)
+      .get(`/api/sites/${seeded.siteId}/equipment`)
+      .set('Authorization', `Bearer ${token}`);
     expect(equipment.body.equipment).toHaveLength(buses.length);
   });
 
   it('gives the safety officer something to look at: a review coming due, a label not installed, open reports', async () => {
-    const token = (await request(t.app).post('/api/auth/sign-in').send({ email: 'safety@larkspur.example', password: 'demo-password-123' })).body.token;
+    const token = (
+      await request(t.app)
+        .post('/api/auth/sign-in')
+        .send({ email: 'safety@larkspur.example', password: 'demo-password-123' })
+    ).body.token;
     const res = await request(t.app).get('/api/attention').set('Authorization', `Bearer ${token}`);
     expect(res.status).toBe(200);
     expect(res.body.counts).toMatchObject({

@@ -36,12 +36,28 @@ beforeAll(async () => {
   server = http.createServer(t.app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   const eng = bearer(t.orgA.users.engineer.token);
-  const siteId = (await request(server).post('/api/sites').set(...eng).send({ name: 'Fuzz site' })).body.id as string;
+  const siteId = (
+    await request(server)
+      .post('/api/sites')
+      .set(...eng)
+      .send({ name: 'Fuzz site' })
+  ).body.id as string;
   await approveStudy(t, siteId, smallModel());
-  const labels = await request(server).get(`/api/sites/${siteId}/labels?current=1`).set(...eng);
+  const labels = await request(server)
+    .get(`/api/sites/${siteId}/labels?current=1`)
+    .set(...eng);
   labelCode = labels.body.labels[0].code as string;
-  draftId = (await request(server).post(`/api/sites/${siteId}/studies`).set(...eng).send({ title: 'Fuzz draft' })).body.id as string;
-  modelVersion = (await request(server).get(`/api/studies/${draftId}/model`).set(...eng)).body.version as number;
+  draftId = (
+    await request(server)
+      .post(`/api/sites/${siteId}/studies`)
+      .set(...eng)
+      .send({ title: 'Fuzz draft' })
+  ).body.id as string;
+  modelVersion = (
+    await request(server)
+      .get(`/api/studies/${draftId}/model`)
+      .set(...eng)
+  ).body.version as number;
   const parsed = modelSchema.parse(smallModel());
   workbook = await exportModelWorkbook(parsed);
   csvTables = exportModelCsv(parsed);
@@ -69,20 +85,52 @@ function nested(depth: number, kind: 'array' | 'object'): Json {
 /** Values that are wrong in a typical field: wrong types, non-finite numbers as strings, negatives, long and deep values. */
 const badValue: fc.Arbitrary<unknown> = fc.oneof(
   fc.anything({ maxDepth: 2, maxKeys: 5 }),
-  fc.constantFrom<Json>('NaN', 'Infinity', '-Infinity', '1e309', '-1e309', '', ' ', '0x10', '1,5', '١٢', null, true, false, [], {}, '__proto__', 'constructor'),
+  fc.constantFrom<Json>(
+    'NaN',
+    'Infinity',
+    '-Infinity',
+    '1e309',
+    '-1e309',
+    '',
+    ' ',
+    '0x10',
+    '1,5',
+    '١٢',
+    null,
+    true,
+    false,
+    [],
+    {},
+    '__proto__',
+    'constructor',
+  ),
   fc.double(), // NaN and ±Infinity serialize as null
-  fc.constantFrom(-0, -1, 0, -1e-300, Number.MAX_VALUE, -Number.MAX_VALUE, Number.MIN_VALUE, Number.MAX_SAFE_INTEGER + 2, 1e308, -1e308),
+  fc.constantFrom(
+    -0,
+    -1,
+    0,
+    -1e-300,
+    Number.MAX_VALUE,
+    -Number.MAX_VALUE,
+    Number.MIN_VALUE,
+    Number.MAX_SAFE_INTEGER + 2,
+    1e308,
+    -1e308,
+  ),
   fc.integer({ min: -1_000_000_000, max: 0 }),
   fc.string({ maxLength: 50 }),
   fc.integer({ min: 100, max: 1500 }).map((n) => new Array<Json>(n).fill(1)),
-  fc.integer({ min: 20, max: 300 }).chain((d) => fc.constantFrom<'array' | 'object'>('array', 'object').map((k) => nested(d, k))),
+  fc
+    .integer({ min: 20, max: 300 })
+    .chain((d) => fc.constantFrom<'array' | 'object'>('array', 'object').map((k) => nested(d, k))),
 );
 
 /** Paths into a JSON value (objects and arrays, root excluded), at most 8 levels deep and 50 items per array. */
 function pathsOf(v: unknown, prefix: (string | number)[] = [], out: (string | number)[][] = []): (string | number)[][] {
   if (prefix.length >= 8) return out;
   if (Array.isArray(v)) v.slice(0, 50).forEach((x, i) => (out.push([...prefix, i]), pathsOf(x, [...prefix, i], out)));
-  else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) out.push([...prefix, k]), pathsOf(x, [...prefix, k], out);
+  else if (v && typeof v === 'object')
+    for (const [k, x] of Object.entries(v)) (out.push([...prefix, k]), pathsOf(x, [...prefix, k], out));
   return out;
 }
 
@@ -125,7 +173,8 @@ const mutation: fc.Arbitrary<Mutation> = fc.record({
 });
 
 /** A valid body with one to three mutations. */
-const mutated = (valid: () => unknown) => fc.array(mutation, { minLength: 1, maxLength: 3 }).map((muts) => applyMutations(valid(), muts));
+const mutated = (valid: () => unknown) =>
+  fc.array(mutation, { minLength: 1, maxLength: 3 }).map((muts) => applyMutations(valid(), muts));
 
 /** Any JSON object (the body the route's schema sees), or the valid body with a whole top-level field wrong. */
 const randomObject = fc.dictionary(fc.string({ maxLength: 15 }), fc.jsonValue({ maxDepth: 3 }), { maxKeys: 8 });
@@ -142,7 +191,19 @@ const bodyOf = (valid: () => unknown): fc.Arbitrary<Body> =>
         .oneof(
           fc.json({ maxDepth: 3 }),
           fc.string({ maxLength: 200 }),
-          fc.constantFrom('{bad', '{"a":', '{"a":1,}', "{'a':1}", 'null', 'true', '12', '"text"', '  ', '{"a":NaN}', '\u0000'),
+          fc.constantFrom(
+            '{bad',
+            '{"a":',
+            '{"a":1,}',
+            "{'a':1}",
+            'null',
+            'true',
+            '12',
+            '"text"',
+            '  ',
+            '{"a":NaN}',
+            '\u0000',
+          ),
           fc.integer({ min: 100, max: 2000 }).map((n) => '['.repeat(n) + ']'.repeat(n)),
         )
         .map((text): Body => ({ kind: 'raw', text })),
@@ -161,15 +222,20 @@ function checkResponse(route: string, res: request.Response, sent: unknown, notJ
   if (res.status >= 500) throw new Error(`5xx: ${show()}`);
   if (res.status < 400) return;
   const err = res.body?.error;
-  if (!err || typeof err.code !== 'string' || typeof err.message !== 'string' || err.message.length === 0) throw new Error(`no error shape: ${show()}`);
+  if (!err || typeof err.code !== 'string' || typeof err.message !== 'string' || err.message.length === 0)
+    throw new Error(`no error shape: ${show()}`);
   const extra = Object.keys(err).filter((k) => !['code', 'message', 'fields'].includes(k));
   if (extra.length) throw new Error(`unexpected error keys ${extra.join(',')}: ${show()}`);
   if (err.fields !== undefined) {
-    if (!err.fields || typeof err.fields !== 'object' || Array.isArray(err.fields)) throw new Error(`fields not an object: ${show()}`);
-    for (const v of Object.values(err.fields)) if (typeof v !== 'string') throw new Error(`fields value not a string: ${show()}`);
+    if (!err.fields || typeof err.fields !== 'object' || Array.isArray(err.fields))
+      throw new Error(`fields not an object: ${show()}`);
+    for (const v of Object.values(err.fields))
+      if (typeof v !== 'string') throw new Error(`fields value not a string: ${show()}`);
   }
-  if (res.status === 400 && (!err.fields || Object.keys(err.fields).length === 0)) throw new Error(`400 without fields: ${show()}`);
-  if (res.status === 400 && notJson && typeof err.fields.body !== 'string') throw new Error(`400 for a body that is not JSON without fields.body: ${show()}`);
+  if (res.status === 400 && (!err.fields || Object.keys(err.fields).length === 0))
+    throw new Error(`400 without fields: ${show()}`);
+  if (res.status === 400 && notJson && typeof err.fields.body !== 'string')
+    throw new Error(`400 for a body that is not JSON without fields.body: ${show()}`);
 }
 
 /** The JSON parser's verdict (strict, as the server's: only an object or an array at the top). */
@@ -186,7 +252,12 @@ function isJsonObjectOrArray(text: string): boolean {
  * Sends a JSON or raw body. `notJson`: raw text the JSON parser refuses (an empty body excepted: it reads as `{}`), whose
  * 400 must name `body`.
  */
-async function sendBody(method: 'post' | 'put', url: string, body: Body, generated = true): Promise<{ res: request.Response; notJson: boolean }> {
+async function sendBody(
+  method: 'post' | 'put',
+  url: string,
+  body: Body,
+  generated = true,
+): Promise<{ res: request.Response; notJson: boolean }> {
   if (generated) sent++;
   const req = call(method, url).set(...eng());
   // Serialized here: superagent's own serializer first walks the whole value looking for cycles.
@@ -205,7 +276,12 @@ const ie = () => ({
   enclosureMm: { height: 508, width: 508, depth: 508 },
   arcDurationMs: 50,
 });
-const ieClearing = () => ({ ...ie(), arcDurationMs: undefined, clearingMs: { full: 50, reduced: 80 }, maxArcDurationMs: 2000 });
+const ieClearing = () => ({
+  ...ie(),
+  arcDurationMs: undefined,
+  clearingMs: { full: 50, reduced: 80 },
+  maxArcDurationMs: 2000,
+});
 const devices = smallModel().devices!.map((d) => d.device);
 const clearing = (i: number) => () => ({ device: devices[i % devices.length], currentA: 5000 });
 
@@ -226,33 +302,51 @@ async function sendCalcBatch(route: string, url: string, bodies: Body[]): Promis
 describe('generated bad bodies never make the server fail', () => {
   it('POST /api/calc/incident-energy', async () => {
     await fc.assert(
-      fc.asyncProperty(batchOf(fc.oneof(bodyOf(ie), bodyOf(ieClearing))), (bodies) => sendCalcBatch('incident-energy', '/api/calc/incident-energy', bodies)),
+      fc.asyncProperty(batchOf(fc.oneof(bodyOf(ie), bodyOf(ieClearing))), (bodies) =>
+        sendCalcBatch('incident-energy', '/api/calc/incident-energy', bodies),
+      ),
       { numRuns: Math.ceil(2500 / CALC_BATCH) },
     );
   }, 120_000);
 
   it('POST /api/calc/clearing-time', async () => {
     await fc.assert(
-      fc.asyncProperty(batchOf(fc.nat(devices.length - 1).chain((i) => bodyOf(clearing(i)))), (bodies) => sendCalcBatch('clearing-time', '/api/calc/clearing-time', bodies)),
+      fc.asyncProperty(batchOf(fc.nat(devices.length - 1).chain((i) => bodyOf(clearing(i)))), (bodies) =>
+        sendCalcBatch('clearing-time', '/api/calc/clearing-time', bodies),
+      ),
       { numRuns: Math.ceil(2000 / CALC_BATCH) },
     );
   }, 120_000);
 
   it('POST /api/calc/short-circuit', async () => {
     await fc.assert(
-      fc.asyncProperty(batchOf(bodyOf(() => ({ model: smallModel() }))), (bodies) => sendCalcBatch('short-circuit', '/api/calc/short-circuit', bodies)),
+      fc.asyncProperty(batchOf(bodyOf(() => ({ model: smallModel() }))), (bodies) =>
+        sendCalcBatch('short-circuit', '/api/calc/short-circuit', bodies),
+      ),
       { numRuns: Math.ceil(1500 / CALC_BATCH) },
     );
   }, 120_000);
 
   it('PUT /api/studies/:id/model (and the model reads back after any accepted save)', async () => {
-    const withVersion = fc.tuple(bodyOf(() => ({ model: smallModel(), version: 0 })), fc.boolean()).map(([b, keepVersion]): Body => {
-      // Mostly the current version, so the body reaches the save instead of stopping at the version check.
-      if (b.kind === 'json' && keepVersion && b.value && typeof b.value === 'object' && !Array.isArray(b.value) && 'version' in b.value) {
-        return { kind: 'json', value: { ...(b.value as object), version: modelVersion } };
-      }
-      return b;
-    });
+    const withVersion = fc
+      .tuple(
+        bodyOf(() => ({ model: smallModel(), version: 0 })),
+        fc.boolean(),
+      )
+      .map(([b, keepVersion]): Body => {
+        // Mostly the current version, so the body reaches the save instead of stopping at the version check.
+        if (
+          b.kind === 'json' &&
+          keepVersion &&
+          b.value &&
+          typeof b.value === 'object' &&
+          !Array.isArray(b.value) &&
+          'version' in b.value
+        ) {
+          return { kind: 'json', value: { ...(b.value as object), version: modelVersion } };
+        }
+        return b;
+      });
     await fc.assert(
       fc.asyncProperty(withVersion, async (body) => {
         const { res, notJson } = await sendBody('put', `/api/studies/${draftId}/model`, body);
@@ -261,7 +355,8 @@ describe('generated bad bodies never make the server fail', () => {
           modelVersion = res.body.version as number;
           const back = await call('get', `/api/studies/${draftId}/model`).set(...eng());
           checkResponse('get-model after put', back, body);
-          if (back.status !== 200 || back.body.version !== modelVersion) throw new Error(`model did not read back: ${back.status}`);
+          if (back.status !== 200 || back.body.version !== modelVersion)
+            throw new Error(`model did not read back: ${back.status}`);
         }
       }),
       { numRuns: 1500 },
@@ -278,32 +373,61 @@ describe('generated bad bodies never make the server fail', () => {
     const tables = Object.keys(csvTables);
     const csvText = fc.oneof(
       // A valid table with cells replaced, rows dropped or duplicated, or a header broken.
-      fc.tuple(fc.constantFrom(...tables), fc.array(fc.tuple(fc.nat(), fc.nat(), fc.oneof(fc.string({ maxLength: 20 }), fc.constantFrom('NaN', 'Infinity', '-1', '"', '""', '\n', ',,,', '1e309'))), { minLength: 1, maxLength: 4 })).map(([table, edits]) => {
-        const rows = csvTables[table].split('\n').map((r) => r.split(','));
-        for (const [r, c, v] of edits) {
-          const row = rows[r % rows.length];
-          row[c % row.length] = v;
-        }
-        return { name: `${table}.csv`, text: rows.map((r) => r.join(',')).join('\n') };
-      }),
-      fc.tuple(fc.constantFrom(...tables, 'unknown', 'Buses', ''), fc.string({ maxLength: 400 })).map(([table, text]) => ({ name: `${table}.csv`, text })),
-      fc.array(fc.array(fc.string({ maxLength: 8 }), { maxLength: 8 }), { maxLength: 10 }).map((rows) => ({ name: 'buses.csv', text: rows.map((r) => r.join(',')).join('\n') })),
+      fc
+        .tuple(
+          fc.constantFrom(...tables),
+          fc.array(
+            fc.tuple(
+              fc.nat(),
+              fc.nat(),
+              fc.oneof(
+                fc.string({ maxLength: 20 }),
+                fc.constantFrom('NaN', 'Infinity', '-1', '"', '""', '\n', ',,,', '1e309'),
+              ),
+            ),
+            { minLength: 1, maxLength: 4 },
+          ),
+        )
+        .map(([table, edits]) => {
+          const rows = csvTables[table].split('\n').map((r) => r.split(','));
+          for (const [r, c, v] of edits) {
+            const row = rows[r % rows.length];
+            row[c % row.length] = v;
+          }
+          return { name: `${table}.csv`, text: rows.map((r) => r.join(',')).join('\n') };
+        }),
+      fc
+        .tuple(fc.constantFrom(...tables, 'unknown', 'Buses', ''), fc.string({ maxLength: 400 }))
+        .map(([table, text]) => ({ name: `${table}.csv`, text })),
+      fc
+        .array(fc.array(fc.string({ maxLength: 8 }), { maxLength: 8 }), { maxLength: 10 })
+        .map((rows) => ({ name: 'buses.csv', text: rows.map((r) => r.join(',')).join('\n') })),
     );
     const xlsxBytes = fc.oneof(
       fc.uint8Array({ maxLength: 1000 }).map((b) => Buffer.from(b)),
       // The valid workbook with bytes overwritten or cut short.
-      fc.tuple(fc.array(fc.tuple(fc.nat(), fc.integer({ min: 0, max: 255 })), { minLength: 1, maxLength: 20 }), fc.option(fc.nat())).map(([edits, cut]) => {
-        const b = Buffer.from(workbook);
-        for (const [i, v] of edits) b[i % b.length] = v;
-        return cut === null ? b : b.subarray(0, cut % b.length);
-      }),
+      fc
+        .tuple(
+          fc.array(fc.tuple(fc.nat(), fc.integer({ min: 0, max: 255 })), { minLength: 1, maxLength: 20 }),
+          fc.option(fc.nat()),
+        )
+        .map(([edits, cut]) => {
+          const b = Buffer.from(workbook);
+          for (const [i, v] of edits) b[i % b.length] = v;
+          return cut === null ? b : b.subarray(0, cut % b.length);
+        }),
     );
     type File = { name: string; data: Buffer };
     const file: fc.Arbitrary<File> = fc.oneof(
       jsonText.map((text) => ({ name: 'model.json', data: Buffer.from(text) })),
       csvText.map((f) => ({ name: f.name, data: Buffer.from(f.text) })),
       xlsxBytes.map((data) => ({ name: 'model.xlsx', data })),
-      fc.tuple(fc.constantFrom('a.csv', 'b.json', 'c.xlsx', 'd.CSV', 'e.txt', 'noext'), fc.uint8Array({ maxLength: 500 })).map(([name, b]) => ({ name, data: Buffer.from(b) })),
+      fc
+        .tuple(
+          fc.constantFrom('a.csv', 'b.json', 'c.xlsx', 'd.CSV', 'e.txt', 'noext'),
+          fc.uint8Array({ maxLength: 500 }),
+        )
+        .map(([name, b]) => ({ name, data: Buffer.from(b) })),
     );
     const files = fc.array(file, { minLength: 0, maxLength: 4 });
     await fc.assert(
@@ -313,7 +437,11 @@ describe('generated bad bodies never make the server fail', () => {
         if (fs.length === 0) req = req.field('other', 'x');
         sent++;
         const res = await req;
-        const summary = fs.map((f) => ({ name: f.name, bytes: f.data.length, head: f.data.subarray(0, 300).toString('utf8') }));
+        const summary = fs.map((f) => ({
+          name: f.name,
+          bytes: f.data.length,
+          head: f.data.subarray(0, 300).toString('utf8'),
+        }));
         checkResponse('import', res, summary);
       }),
       { numRuns: 1500 },
@@ -321,19 +449,37 @@ describe('generated bad bodies never make the server fail', () => {
   }, 120_000);
 
   it('POST /api/labels/:code/reports (multipart and JSON fields)', async () => {
-    const text = fc.oneof(fc.string({ maxLength: 60 }), fc.constantFrom('', '  ', 'ab', '   abc  '), fc.integer({ min: 3990, max: 4100 }).map((n) => 'x'.repeat(n)));
-    const kind = fc.oneof(fc.constantFrom(...REPORT_KINDS), fc.string({ maxLength: 20 }), fc.constantFrom('', 'VOLTAGE', '__proto__'));
+    const text = fc.oneof(
+      fc.string({ maxLength: 60 }),
+      fc.constantFrom('', '  ', 'ab', '   abc  '),
+      fc.integer({ min: 3990, max: 4100 }).map((n) => 'x'.repeat(n)),
+    );
+    const kind = fc.oneof(
+      fc.constantFrom(...REPORT_KINDS),
+      fc.string({ maxLength: 20 }),
+      fc.constantFrom('', 'VOLTAGE', '__proto__'),
+    );
     const form = fc.record(
       {
         kind,
         text,
         extra: fc.dictionary(fc.string({ minLength: 1, maxLength: 10 }), fc.string({ maxLength: 20 }), { maxKeys: 3 }),
-        photo: fc.record({ bytes: fc.uint8Array({ maxLength: 500 }), name: fc.constantFrom('p.png', 'p.jpg', 'p.txt', 'p'), type: fc.constantFrom('image/png', 'image/jpeg', 'text/plain', 'application/octet-stream') }),
+        photo: fc.record({
+          bytes: fc.uint8Array({ maxLength: 500 }),
+          name: fc.constantFrom('p.png', 'p.jpg', 'p.txt', 'p'),
+          type: fc.constantFrom('image/png', 'image/jpeg', 'text/plain', 'application/octet-stream'),
+        }),
       },
       { requiredKeys: [] },
     );
-    const asJson = fc.oneof(mutated(() => ({ kind: 'device', text: 'Feeder breaker differs from the label' })), randomObject);
-    const input = fc.oneof(form.map((f) => ({ multipart: f })), asJson.map((j) => ({ json: j })));
+    const asJson = fc.oneof(
+      mutated(() => ({ kind: 'device', text: 'Feeder breaker differs from the label' })),
+      randomObject,
+    );
+    const input = fc.oneof(
+      form.map((f) => ({ multipart: f })),
+      asJson.map((j) => ({ json: j })),
+    );
     await fc.assert(
       fc.asyncProperty(input, async (inp) => {
         let req = call('post', `/api/labels/${labelCode}/reports`).set(...bearer(t.orgA.users.electrician.token));
@@ -344,7 +490,11 @@ describe('generated bad bodies never make the server fail', () => {
           for (const [k, v] of Object.entries(f.extra ?? {})) if (k !== 'photo') req = req.field(k, v);
           if (f.kind !== undefined) req = req.field('kind', f.kind);
           if (f.text !== undefined) req = req.field('text', f.text);
-          if (f.photo) req = req.attach('photo', Buffer.from(f.photo.bytes), { filename: f.photo.name, contentType: f.photo.type });
+          if (f.photo)
+            req = req.attach('photo', Buffer.from(f.photo.bytes), {
+              filename: f.photo.name,
+              contentType: f.photo.type,
+            });
           if (!f.extra && f.kind === undefined && f.text === undefined && !f.photo) req = req.field('x', 'y');
           res = await req;
           checkResponse('reports', res, { ...f, photo: f.photo && { ...f.photo, bytes: f.photo.bytes.length } });
@@ -362,11 +512,29 @@ describe('generated bad bodies never make the server fail', () => {
     const deepArray = nested(1500, 'array');
     const deepObject = nested(1500, 'object');
     const brackets = '['.repeat(20_000) + ']'.repeat(20_000);
-    const cases: { route: string; method: 'post' | 'put'; url: string; valid: () => Record<string, unknown>; field: string }[] = [
+    const cases: {
+      route: string;
+      method: 'post' | 'put';
+      url: string;
+      valid: () => Record<string, unknown>;
+      field: string;
+    }[] = [
       { route: 'incident-energy', method: 'post', url: '/api/calc/incident-energy', valid: ie, field: 'voltageV' },
       { route: 'clearing-time', method: 'post', url: '/api/calc/clearing-time', valid: clearing(0), field: 'currentA' },
-      { route: 'short-circuit', method: 'post', url: '/api/calc/short-circuit', valid: () => ({ model: smallModel() }), field: 'model' },
-      { route: 'put-model', method: 'put', url: `/api/studies/${draftId}/model`, valid: () => ({ model: { ...smallModel(), buses: huge }, version: modelVersion }), field: 'version' },
+      {
+        route: 'short-circuit',
+        method: 'post',
+        url: '/api/calc/short-circuit',
+        valid: () => ({ model: smallModel() }),
+        field: 'model',
+      },
+      {
+        route: 'put-model',
+        method: 'put',
+        url: `/api/studies/${draftId}/model`,
+        valid: () => ({ model: { ...smallModel(), buses: huge }, version: modelVersion }),
+        field: 'version',
+      },
     ];
     for (const c of cases) {
       const bodies: Body[] = [
@@ -387,7 +555,9 @@ describe('generated bad bodies never make the server fail', () => {
       JSON.stringify({ ...smallModel(), name: deepObject }),
     ];
     for (const text of files) {
-      const res = await call('post', `/api/studies/${draftId}/import`).set(...eng()).attach('files', Buffer.from(text), 'model.json');
+      const res = await call('post', `/api/studies/${draftId}/import`)
+        .set(...eng())
+        .attach('files', Buffer.from(text), 'model.json');
       checkResponse('import', res, text.slice(0, 300));
       expect(res.status).toBeGreaterThanOrEqual(400);
     }
@@ -401,7 +571,10 @@ describe('generated bad bodies never make the server fail', () => {
     ];
     for (const [method, url] of routes) {
       for (const text of ['{bad', '{"voltageV": 480,}', '"a string"']) {
-        const res = await call(method, url).set(...eng()).set('Content-Type', 'application/json').send(text);
+        const res = await call(method, url)
+          .set(...eng())
+          .set('Content-Type', 'application/json')
+          .send(text);
         expect(res.status).toBe(400);
         expect(res.body.error.code).toBe('bad_request');
         expect(Object.keys(res.body.error.fields ?? {})).toEqual(['body']);

@@ -27,7 +27,10 @@ const NEW_PASSWORD = 'a-brand-new-passphrase';
 const DAY_MS = 86_400_000;
 
 /** The newest captured message to an address, and the one-time token in its link. */
-async function lastMailTo(address: string, kind: string): Promise<{ subject: string; text: string; token: string; count: number }> {
+async function lastMailTo(
+  address: string,
+  kind: string,
+): Promise<{ subject: string; text: string; token: string; count: number }> {
   const rows = (await CapturedMail.findAll({ where: { kind }, order: [['receivedAt', 'ASC']] })).filter((r) =>
     (JSON.parse(r.to) as string[]).includes(address),
   );
@@ -44,12 +47,19 @@ async function mailCountTo(address: string): Promise<number> {
 }
 
 async function invite(email: string, name = 'Invited Person', role = 'electrician') {
-  return request(t.app).post('/api/invitations').set(...adminA()).send({ email, name, role });
+  return request(t.app)
+    .post('/api/invitations')
+    .set(...adminA())
+    .send({ email, name, role });
 }
 
-const accept = (token: string, password = NEW_PASSWORD) => request(t.app).post('/api/auth/accept-invitation').send({ token, password });
+const accept = (token: string, password = NEW_PASSWORD) =>
+  request(t.app).post('/api/auth/accept-invitation').send({ token, password });
 const linkInfo = (token: string) => request(t.app).post('/api/auth/link-info').send({ token });
-const me = (token: string) => request(t.app).get('/api/auth/me').set(...bearer(token));
+const me = (token: string) =>
+  request(t.app)
+    .get('/api/auth/me')
+    .set(...bearer(token));
 const signIn = (email: string, password: string) => request(t.app).post('/api/auth/sign-in').send({ email, password });
 
 /**
@@ -59,12 +69,25 @@ const signIn = (email: string, password: string) => request(t.app).post('/api/au
  */
 async function raceAcceptances(n: number): Promise<{ statuses: number[]; users: number }> {
   const send = async (app: Express, token: string) =>
-    Promise.all(Array.from({ length: n }, (_, i) => request(app).post('/api/auth/accept-invitation').send({ token, password: `racer-password-${i}` })));
+    Promise.all(
+      Array.from({ length: n }, (_, i) =>
+        request(app)
+          .post('/api/auth/accept-invitation')
+          .send({ token, password: `racer-password-${i}` }),
+      ),
+    );
   if (t.db.dialect === 'postgres') {
     await invite('racer@org-a.example');
     const { token } = await lastMailTo('racer@org-a.example', 'invitation');
     const statuses = (await send(t.app, token)).map((r) => r.status);
-    return { statuses, users: (await request(t.app).get('/api/users').set(...adminA())).body.users.filter((u: { email: string }) => u.email === 'racer@org-a.example').length };
+    return {
+      statuses,
+      users: (
+        await request(t.app)
+          .get('/api/users')
+          .set(...adminA())
+      ).body.users.filter((u: { email: string }) => u.email === 'racer@org-a.example').length,
+    };
   }
   // openDb binds the (global) models to the new database; the finally block binds them back to this file's.
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-race-'));
@@ -109,7 +132,13 @@ describe('invitations', () => {
   it('e-mails a one-time link that creates the account once, in the inviting organization, with the role', async () => {
     const res = await invite('New.Electrician@Org-A.example', 'Nia Newcomer');
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ email: 'new.electrician@org-a.example', name: 'Nia Newcomer', role: 'electrician', status: 'pending', invitedBy: 'admin of org-a' });
+    expect(res.body).toMatchObject({
+      email: 'new.electrician@org-a.example',
+      name: 'Nia Newcomer',
+      role: 'electrician',
+      status: 'pending',
+      invitedBy: 'admin of org-a',
+    });
     // 7 days (contract).
     expect(Date.parse(res.body.expiresAt) - Date.now()).toBeGreaterThan(7 * DAY_MS - 60_000);
     expect(Date.parse(res.body.expiresAt) - Date.now()).toBeLessThanOrEqual(7 * DAY_MS);
@@ -125,11 +154,21 @@ describe('invitations', () => {
 
     const info = await linkInfo(mail.token);
     expect(info.status).toBe(200);
-    expect(info.body).toMatchObject({ purpose: 'invitation', email: 'new.electrician@org-a.example', name: 'Nia Newcomer', organizationName: 'Test Organization A', role: 'electrician' });
+    expect(info.body).toMatchObject({
+      purpose: 'invitation',
+      email: 'new.electrician@org-a.example',
+      name: 'Nia Newcomer',
+      organizationName: 'Test Organization A',
+      role: 'electrician',
+    });
 
     const ok = await accept(mail.token);
     expect(ok.status).toBe(200);
-    expect(ok.body.user).toMatchObject({ email: 'new.electrician@org-a.example', name: 'Nia Newcomer', role: 'electrician' });
+    expect(ok.body.user).toMatchObject({
+      email: 'new.electrician@org-a.example',
+      name: 'Nia Newcomer',
+      role: 'electrician',
+    });
     const who = await me(ok.body.token);
     expect(who.status).toBe(200);
     expect(who.body.organization.id).toBe(t.orgA.id);
@@ -140,7 +179,9 @@ describe('invitations', () => {
     expect(again.body.error.message).toMatch(/already been accepted/);
     expect((await linkInfo(mail.token)).status).toBe(404);
 
-    const list = await request(t.app).get('/api/invitations').set(...adminA());
+    const list = await request(t.app)
+      .get('/api/invitations')
+      .set(...adminA());
     expect(list.body.invitations.find((i: { id: string }) => i.id === res.body.id).status).toBe('accepted');
     expect(await actions(res.body.id)).toEqual(['invitation.created', 'invitation.accepted']);
   });
@@ -163,7 +204,10 @@ describe('invitations', () => {
   });
 
   it('names the fields of a bad invitation', async () => {
-    const res = await request(t.app).post('/api/invitations').set(...adminA()).send({ email: 'not-an-address', name: '', role: 'boss' });
+    const res = await request(t.app)
+      .post('/api/invitations')
+      .set(...adminA())
+      .send({ email: 'not-an-address', name: '', role: 'boss' });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields)).toEqual(expect.arrayContaining(['email', 'name', 'role']));
   });
@@ -178,11 +222,15 @@ describe('invitations', () => {
     expect(info.status).toBe(404);
     expect(info.body.error.message).toMatch(/expired/);
     expect((await accept(token)).status).toBe(404);
-    const list = await request(t.app).get('/api/invitations').set(...adminA());
+    const list = await request(t.app)
+      .get('/api/invitations')
+      .set(...adminA());
     expect(list.body.invitations.find((i: { id: string }) => i.id === res.body.id).status).toBe('expired');
 
     // Resending an expired invitation gives a new link for 7 more days; the old one stays dead.
-    const resent = await request(t.app).post(`/api/invitations/${res.body.id}/resend`).set(...adminA());
+    const resent = await request(t.app)
+      .post(`/api/invitations/${res.body.id}/resend`)
+      .set(...adminA());
     expect(resent.status).toBe(200);
     expect(resent.body.status).toBe('pending');
     const fresh = await lastMailTo('late@org-a.example', 'invitation');
@@ -194,7 +242,9 @@ describe('invitations', () => {
   it('resending invalidates the old link', async () => {
     const res = await invite('resend@org-a.example', 'Rae Resend', 'safety');
     const first = await lastMailTo('resend@org-a.example', 'invitation');
-    const resent = await request(t.app).post(`/api/invitations/${res.body.id}/resend`).set(...adminA());
+    const resent = await request(t.app)
+      .post(`/api/invitations/${res.body.id}/resend`)
+      .set(...adminA());
     expect(resent.status).toBe(200);
     expect(resent.body).toMatchObject({ id: res.body.id, status: 'pending', role: 'safety' });
     const second = await lastMailTo('resend@org-a.example', 'invitation');
@@ -207,21 +257,41 @@ describe('invitations', () => {
     expect(ok.body.user.role).toBe('safety');
     expect(await actions(res.body.id)).toEqual(['invitation.created', 'invitation.resent', 'invitation.accepted']);
     // Accepted: nothing left to resend or revoke.
-    expect((await request(t.app).post(`/api/invitations/${res.body.id}/resend`).set(...adminA())).status).toBe(409);
-    expect((await request(t.app).delete(`/api/invitations/${res.body.id}`).set(...adminA())).status).toBe(409);
+    expect(
+      (
+        await request(t.app)
+          .post(`/api/invitations/${res.body.id}/resend`)
+          .set(...adminA())
+      ).status,
+    ).toBe(409);
+    expect(
+      (
+        await request(t.app)
+          .delete(`/api/invitations/${res.body.id}`)
+          .set(...adminA())
+      ).status,
+    ).toBe(409);
   });
 
   it('refuses a revoked invitation', async () => {
     const res = await invite('revoked@org-a.example');
     const { token } = await lastMailTo('revoked@org-a.example', 'invitation');
-    const del = await request(t.app).delete(`/api/invitations/${res.body.id}`).set(...adminA());
+    const del = await request(t.app)
+      .delete(`/api/invitations/${res.body.id}`)
+      .set(...adminA());
     expect(del.status).toBe(200);
     expect(del.body.status).toBe('revoked');
     const info = await linkInfo(token);
     expect(info.status).toBe(404);
     expect(info.body.error.message).toMatch(/withdrawn/);
     expect((await accept(token)).status).toBe(404);
-    expect((await request(t.app).post(`/api/invitations/${res.body.id}/resend`).set(...adminA())).status).toBe(409);
+    expect(
+      (
+        await request(t.app)
+          .post(`/api/invitations/${res.body.id}/resend`)
+          .set(...adminA())
+      ).status,
+    ).toBe(409);
     expect(await actions(res.body.id)).toEqual(['invitation.created', 'invitation.revoked']);
   });
 
@@ -231,7 +301,12 @@ describe('invitations', () => {
     const created = await request(t.app)
       .post('/api/users')
       .set(...adminA())
-      .send({ email: 'meanwhile@org-a.example', name: 'Made directly', role: 'engineer', password: 'direct-password-1' });
+      .send({
+        email: 'meanwhile@org-a.example',
+        name: 'Made directly',
+        role: 'engineer',
+        password: 'direct-password-1',
+      });
     expect(created.status).toBe(201);
     const res = await accept(token);
     expect(res.status).toBe(409);
@@ -242,9 +317,23 @@ describe('invitations', () => {
 
   it('keeps invitations inside their organization', async () => {
     const res = await invite('private@org-a.example');
-    expect((await request(t.app).post(`/api/invitations/${res.body.id}/resend`).set(...adminB())).status).toBe(404);
-    expect((await request(t.app).delete(`/api/invitations/${res.body.id}`).set(...adminB())).status).toBe(404);
-    const listB = await request(t.app).get('/api/invitations').set(...adminB());
+    expect(
+      (
+        await request(t.app)
+          .post(`/api/invitations/${res.body.id}/resend`)
+          .set(...adminB())
+      ).status,
+    ).toBe(404);
+    expect(
+      (
+        await request(t.app)
+          .delete(`/api/invitations/${res.body.id}`)
+          .set(...adminB())
+      ).status,
+    ).toBe(404);
+    const listB = await request(t.app)
+      .get('/api/invitations')
+      .set(...adminB());
     expect(listB.body.invitations).toEqual([]);
   });
 
@@ -301,7 +390,9 @@ describe('password reset', () => {
     expect(Date.parse(info.body.expiresAt) - Date.now()).toBeGreaterThan(3600_000 - 60_000);
 
     expect((await me(u.token)).status).toBe(200);
-    const ok = await request(t.app).post('/api/auth/password-reset/confirm').send({ token: mail.token, password: NEW_PASSWORD });
+    const ok = await request(t.app)
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: mail.token, password: NEW_PASSWORD });
     expect(ok.status).toBe(200);
     expect(ok.body.user.email).toBe('reset.me@org-b.example');
     expect((await me(ok.body.token)).status).toBe(200);
@@ -309,7 +400,9 @@ describe('password reset', () => {
     expect((await signIn(u.email, TEST_PASSWORD)).status).toBe(401);
     expect((await signIn(u.email, NEW_PASSWORD)).status).toBe(200);
 
-    const again = await request(t.app).post('/api/auth/password-reset/confirm').send({ token: mail.token, password: 'yet-another-password' });
+    const again = await request(t.app)
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: mail.token, password: 'yet-another-password' });
     expect(again.status).toBe(404);
     expect(again.body.error.message).toMatch(/already been used/);
 
@@ -325,7 +418,13 @@ describe('password reset', () => {
     const second = await lastMailTo('twice.reset@org-b.example', 'password-reset');
     expect(second.token).not.toBe(first.token);
     expect((await linkInfo(first.token)).status).toBe(404);
-    expect((await request(t.app).post('/api/auth/password-reset/confirm').send({ token: second.token, password: NEW_PASSWORD })).status).toBe(200);
+    expect(
+      (
+        await request(t.app)
+          .post('/api/auth/password-reset/confirm')
+          .send({ token: second.token, password: NEW_PASSWORD })
+      ).status,
+    ).toBe(200);
   });
 
   it('refuses the link after 1 hour', async () => {
@@ -340,9 +439,18 @@ describe('password reset', () => {
 
   it('sends nothing to a deactivated account', async () => {
     await freshUser('gone@org-b.example');
-    const users = await request(t.app).get('/api/users').set(...adminB());
+    const users = await request(t.app)
+      .get('/api/users')
+      .set(...adminB());
     const id = users.body.users.find((x: { email: string }) => x.email === 'gone@org-b.example').id;
-    expect((await request(t.app).patch(`/api/users/${id}`).set(...adminB()).send({ active: false })).status).toBe(200);
+    expect(
+      (
+        await request(t.app)
+          .patch(`/api/users/${id}`)
+          .set(...adminB())
+          .send({ active: false })
+      ).status,
+    ).toBe(200);
     expect((await askReset('gone@org-b.example')).body).toEqual({ ok: true });
     expect(await mailCountTo('gone@org-b.example')).toBe(0);
   });
@@ -351,7 +459,9 @@ describe('password reset', () => {
     const bad = await request(t.app).post('/api/auth/password-reset').send({ email: 'nope' });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toHaveProperty('email');
-    const weak = await request(t.app).post('/api/auth/password-reset/confirm').send({ token: 'A'.repeat(43), password: 'short' });
+    const weak = await request(t.app)
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: 'A'.repeat(43), password: 'short' });
     expect(weak.status).toBe(400);
     expect(weak.body.error.fields).toHaveProperty('password');
   });
@@ -360,21 +470,33 @@ describe('password reset', () => {
 describe('password change', () => {
   it('needs the current password, ends every other session and returns a new one; open reset links die too', async () => {
     const email = 'changer@org-b.example';
-    await request(t.app).post('/api/users').set(...adminB()).send({ email, name: 'Pat Changer', role: 'safety', password: TEST_PASSWORD });
+    await request(t.app)
+      .post('/api/users')
+      .set(...adminB())
+      .send({ email, name: 'Pat Changer', role: 'safety', password: TEST_PASSWORD });
     const one = (await signIn(email, TEST_PASSWORD)).body.token as string;
     const two = (await signIn(email, TEST_PASSWORD)).body.token as string;
     await request(t.app).post('/api/auth/password-reset').send({ email });
     await t.ctx.jobs.idle();
     const reset = await lastMailTo(email, 'password-reset');
 
-    const wrong = await request(t.app).post('/api/auth/password').set(...bearer(one)).send({ currentPassword: 'not-the-password', newPassword: NEW_PASSWORD });
+    const wrong = await request(t.app)
+      .post('/api/auth/password')
+      .set(...bearer(one))
+      .send({ currentPassword: 'not-the-password', newPassword: NEW_PASSWORD });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.fields).toHaveProperty('currentPassword');
-    const weak = await request(t.app).post('/api/auth/password').set(...bearer(one)).send({ currentPassword: TEST_PASSWORD, newPassword: 'short' });
+    const weak = await request(t.app)
+      .post('/api/auth/password')
+      .set(...bearer(one))
+      .send({ currentPassword: TEST_PASSWORD, newPassword: 'short' });
     expect(weak.status).toBe(400);
     expect(weak.body.error.fields).toHaveProperty('newPassword');
 
-    const ok = await request(t.app).post('/api/auth/password').set(...bearer(one)).send({ currentPassword: TEST_PASSWORD, newPassword: NEW_PASSWORD });
+    const ok = await request(t.app)
+      .post('/api/auth/password')
+      .set(...bearer(one))
+      .send({ currentPassword: TEST_PASSWORD, newPassword: NEW_PASSWORD });
     expect(ok.status).toBe(200);
     expect((await me(ok.body.token)).status).toBe(200);
     expect((await me(one)).status).toBe(401);
@@ -386,7 +508,9 @@ describe('password change', () => {
   });
 
   it('is refused signed out', async () => {
-    const res = await request(t.app).post('/api/auth/password').send({ currentPassword: TEST_PASSWORD, newPassword: NEW_PASSWORD });
+    const res = await request(t.app)
+      .post('/api/auth/password')
+      .send({ currentPassword: TEST_PASSWORD, newPassword: NEW_PASSWORD });
     expect(res.status).toBe(401);
   });
 });
@@ -396,10 +520,20 @@ describe('rate limits', () => {
     const { app, ctx } = createApp({ config: t.config, db: t.db, signInLimitPerMinute: 2 });
     try {
       const codes: number[] = [];
-      for (let i = 0; i < 3; i++) codes.push((await request(app).post('/api/auth/password-reset').send({ email: 'nobody@nowhere.example' })).status);
+      for (let i = 0; i < 3; i++)
+        codes.push(
+          (await request(app).post('/api/auth/password-reset').send({ email: 'nobody@nowhere.example' })).status,
+        );
       expect(codes).toEqual([200, 200, 429]);
       const info: number[] = [];
-      for (let i = 0; i < 3; i++) info.push((await request(app).post('/api/auth/link-info').send({ token: 'B'.repeat(43) })).status);
+      for (let i = 0; i < 3; i++)
+        info.push(
+          (
+            await request(app)
+              .post('/api/auth/link-info')
+              .send({ token: 'B'.repeat(43) })
+          ).status,
+        );
       expect(info).toEqual([404, 404, 429]);
     } finally {
       await ctx.jobs.idle();

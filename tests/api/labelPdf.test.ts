@@ -8,7 +8,12 @@ let t: TestApp;
 let studyId = '';
 beforeAll(async () => {
   t = await makeTestApp();
-  const siteId = (await request(t.app).post('/api/sites').set(...bearer(t.orgA.users.engineer.token)).send({ name: 'Print site' })).body.id;
+  const siteId = (
+    await request(t.app)
+      .post('/api/sites')
+      .set(...bearer(t.orgA.users.engineer.token))
+      .send({ name: 'Print site' })
+  ).body.id;
   studyId = await approveStudy(t, siteId, smallModel());
 });
 afterAll(async () => t.close());
@@ -24,11 +29,19 @@ const text = async (pdf: Buffer): Promise<string> => pdfText(pdf);
 
 describe('label PDFs through the API', () => {
   it('GET /studies/:id/labels.pdf gives every label of the revision, with its values and review-by date, and records printing', async () => {
-    const res = await request(t.app).get(`/api/studies/${studyId}/labels.pdf?size=4x6`).set(...elec()).buffer(true).parse(binary);
+    const res = await request(t.app)
+      .get(`/api/studies/${studyId}/labels.pdf?size=4x6`)
+      .set(...elec())
+      .buffer(true)
+      .parse(binary);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const content = await text(res.body as Buffer);
-    const labels = (await request(t.app).get(`/api/studies/${studyId}/labels`).set(...elec())).body.labels as {
+    const labels = (
+      await request(t.app)
+        .get(`/api/studies/${studyId}/labels`)
+        .set(...elec())
+    ).body.labels as {
       equipmentTag: string;
       printedAt: string | null;
       content: { signalWord: string; reviewByDate: string; equipmentName: string };
@@ -42,24 +55,50 @@ describe('label PDFs through the API', () => {
   });
 
   it('a print batch runs in the background and gives one PDF', async () => {
-    const labels = (await request(t.app).get(`/api/studies/${studyId}/labels`).set(...elec())).body.labels as { id: string }[];
-    const created = await request(t.app).post('/api/label-batches').set(...elec()).send({ labelIds: labels.map((l) => l.id), size: 'letter' });
+    const labels = (
+      await request(t.app)
+        .get(`/api/studies/${studyId}/labels`)
+        .set(...elec())
+    ).body.labels as { id: string }[];
+    const created = await request(t.app)
+      .post('/api/label-batches')
+      .set(...elec())
+      .send({ labelIds: labels.map((l) => l.id), size: 'letter' });
     expect(created.status).toBe(202);
     await t.ctx.jobs.idle();
-    const batch = await request(t.app).get(`/api/label-batches/${created.body.id}`).set(...elec());
+    const batch = await request(t.app)
+      .get(`/api/label-batches/${created.body.id}`)
+      .set(...elec());
     expect(batch.body).toMatchObject({ status: 'done', total: labels.length, progress: 1 });
-    const file = await request(t.app).get(`/api/label-batches/${created.body.id}/file`).set(...elec()).buffer(true).parse(binary);
+    const file = await request(t.app)
+      .get(`/api/label-batches/${created.body.id}/file`)
+      .set(...elec())
+      .buffer(true)
+      .parse(binary);
     expect(file.status).toBe(200);
     expect((file.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
   });
 
   it('refuses labels of another organization and the safety officer (read-only)', async () => {
-    const labels = (await request(t.app).get(`/api/studies/${studyId}/labels`).set(...elec())).body.labels as { id: string }[];
-    const other = await request(t.app).post('/api/label-batches').set(...bearer(t.orgB.users.electrician.token)).send({ labelIds: [labels[0].id], size: '4x4' });
+    const labels = (
+      await request(t.app)
+        .get(`/api/studies/${studyId}/labels`)
+        .set(...elec())
+    ).body.labels as { id: string }[];
+    const other = await request(t.app)
+      .post('/api/label-batches')
+      .set(...bearer(t.orgB.users.electrician.token))
+      .send({ labelIds: [labels[0].id], size: '4x4' });
     expect(other.status).toBe(404);
-    const safety = await request(t.app).post('/api/label-batches').set(...bearer(t.orgA.users.safety.token)).send({ labelIds: [labels[0].id], size: '4x4' });
+    const safety = await request(t.app)
+      .post('/api/label-batches')
+      .set(...bearer(t.orgA.users.safety.token))
+      .send({ labelIds: [labels[0].id], size: '4x4' });
     expect(safety.status).toBe(403);
-    const bad = await request(t.app).post('/api/label-batches').set(...elec()).send({ labelIds: [], size: '5x7' });
+    const bad = await request(t.app)
+      .post('/api/label-batches')
+      .set(...elec())
+      .send({ labelIds: [], size: '5x7' });
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.body.error.fields)).toEqual(expect.arrayContaining(['labelIds', 'size']));
   });
@@ -67,12 +106,22 @@ describe('label PDFs through the API', () => {
 
 describe('study report', () => {
   it('gives a PDF with the method, every bus and the approval block', async () => {
-    const res = await request(t.app).get(`/api/studies/${studyId}/report.pdf`).set(...bearer(t.orgA.users.safety.token)).buffer(true).parse(binary);
+    const res = await request(t.app)
+      .get(`/api/studies/${studyId}/report.pdf`)
+      .set(...bearer(t.orgA.users.safety.token))
+      .buffer(true)
+      .parse(binary);
     expect(res.status).toBe(200);
     const content = await text(res.body as Buffer);
     expect(content).toContain('IEEE 1584-2018');
     for (const bus of ['SWBD', 'MCC', 'PNL']) expect(content).toContain(bus);
     expect(content).toContain('PE-000123');
-    expect((await request(t.app).get(`/api/studies/${studyId}/report.pdf`).set(...elec())).status).toBe(403);
+    expect(
+      (
+        await request(t.app)
+          .get(`/api/studies/${studyId}/report.pdf`)
+          .set(...elec())
+      ).status,
+    ).toBe(403);
   });
 });

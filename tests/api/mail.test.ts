@@ -52,7 +52,11 @@ describe('the local sink', () => {
 
     const audit = await auditOf(t.orgA.id, 'mail.sent');
     expect(audit).toContainEqual(
-      expect.objectContaining({ to: ['First.Person@org-a.example', 'second@elsewhere.example'], subject: 'Sink check — ünïcode subject', kind: 'reminder' }),
+      expect.objectContaining({
+        to: ['First.Person@org-a.example', 'second@elsewhere.example'],
+        subject: 'Sink check — ünïcode subject',
+        kind: 'reminder',
+      }),
     );
   });
 
@@ -63,13 +67,23 @@ describe('the local sink', () => {
       const base = { host: sink.host, port: sink.port, secure: false, ignoreTLS: true } as const;
       const message = { from: 'a@b.example', to: 'c@d.example', subject: 'x', text: 'y' };
       await expect(nodemailer.createTransport(base).sendMail(message)).rejects.toThrow();
-      await expect(nodemailer.createTransport({ ...base, auth: { user: sink.auth.user, pass: 'wrong-password' } }).sendMail(message)).rejects.toThrow();
+      await expect(
+        nodemailer
+          .createTransport({ ...base, auth: { user: sink.auth.user, pass: 'wrong-password' } })
+          .sendMail(message),
+      ).rejects.toThrow();
       expect(got).toHaveLength(0);
       await nodemailer
         .createTransport({ ...base, auth: sink.auth })
         .sendMail({ ...message, headers: { 'X-Emberline-Organization': 'org-1', 'X-Emberline-Kind': 'invitation' } });
       expect(got).toEqual([
-        expect.objectContaining({ organizationId: 'org-1', kind: 'invitation', to: ['c@d.example'], subject: 'x', from: 'a@b.example' }),
+        expect.objectContaining({
+          organizationId: 'org-1',
+          kind: 'invitation',
+          to: ['c@d.example'],
+          subject: 'x',
+          from: 'a@b.example',
+        }),
       ]);
     } finally {
       await sink.close();
@@ -78,17 +92,33 @@ describe('the local sink', () => {
 
   it('records mail.failed, and does not throw, when the SMTP server cannot be reached', async () => {
     const port = await freePort();
-    const failing = createMailer({ env: 'test', smtpUrl: `smtp://127.0.0.1:${port}`, mailFrom: 'Emberline <no-reply@test.example>', mailSinkPort: 0 });
+    const failing = createMailer({
+      env: 'test',
+      smtpUrl: `smtp://127.0.0.1:${port}`,
+      mailFrom: 'Emberline <no-reply@test.example>',
+      mailSinkPort: 0,
+    });
     expect(failing.transport).toBe('smtp');
     try {
-      const r = await failing.send({ organizationId: t.orgB.id, kind: 'invitation', to: 'someone@org-b.example', subject: 'Unreachable', text: 'x' });
+      const r = await failing.send({
+        organizationId: t.orgB.id,
+        kind: 'invitation',
+        to: 'someone@org-b.example',
+        subject: 'Unreachable',
+        text: 'x',
+      });
       expect(r.ok).toBe(false);
       expect(r.error).toMatch(/ECONNREFUSED|connect/i);
     } finally {
       await failing.close();
     }
     expect(await auditOf(t.orgB.id, 'mail.failed')).toContainEqual(
-      expect.objectContaining({ to: ['someone@org-b.example'], subject: 'Unreachable', kind: 'invitation', error: expect.any(String) }),
+      expect.objectContaining({
+        to: ['someone@org-b.example'],
+        subject: 'Unreachable',
+        kind: 'invitation',
+        error: expect.any(String),
+      }),
     );
     expect(await CapturedMail.count({ where: { subject: 'Unreachable' } })).toBe(0);
   });
@@ -96,12 +126,26 @@ describe('the local sink', () => {
 
 describe('GET /outbox', () => {
   beforeAll(async () => {
-    await t.ctx.mail.send({ organizationId: t.orgA.id, kind: 'reminder', to: 'a@org-a.example', subject: 'For A only', text: 'a' });
-    await t.ctx.mail.send({ organizationId: t.orgB.id, kind: 'reminder', to: 'b@org-b.example', subject: 'For B only', text: 'b' });
+    await t.ctx.mail.send({
+      organizationId: t.orgA.id,
+      kind: 'reminder',
+      to: 'a@org-a.example',
+      subject: 'For A only',
+      text: 'a',
+    });
+    await t.ctx.mail.send({
+      organizationId: t.orgB.id,
+      kind: 'reminder',
+      to: 'b@org-b.example',
+      subject: 'For B only',
+      text: 'b',
+    });
   });
 
   it("shows an admin only their organization's mail, newest first", async () => {
-    const a = await request(t.app).get('/api/outbox').set(...bearer(t.orgA.users.admin.token));
+    const a = await request(t.app)
+      .get('/api/outbox')
+      .set(...bearer(t.orgA.users.admin.token));
     expect(a.status).toBe(200);
     expect(a.body.transport).toBe('local-sink');
     const subjectsA = a.body.messages.map((m: { subject: string }) => m.subject);
@@ -111,7 +155,9 @@ describe('GET /outbox', () => {
     const times = a.body.messages.map((m: { receivedAt: string }) => Date.parse(m.receivedAt));
     expect([...times].sort((x, y) => y - x)).toEqual(times);
 
-    const b = await request(t.app).get('/api/outbox').set(...bearer(t.orgB.users.admin.token));
+    const b = await request(t.app)
+      .get('/api/outbox')
+      .set(...bearer(t.orgB.users.admin.token));
     const subjectsB = b.body.messages.map((m: { subject: string }) => m.subject);
     expect(subjectsB).toContain('For B only');
     expect(subjectsB).not.toContain('For A only');
@@ -119,7 +165,9 @@ describe('GET /outbox', () => {
 
   it('is for admins only', async () => {
     for (const role of ['engineer', 'electrician', 'safety'] as const) {
-      const res = await request(t.app).get('/api/outbox').set(...bearer(t.orgA.users[role].token));
+      const res = await request(t.app)
+        .get('/api/outbox')
+        .set(...bearer(t.orgA.users[role].token));
       expect(res.status).toBe(403);
     }
   });
@@ -131,7 +179,9 @@ describe('mail configuration', () => {
 
   it('refuses to start in production without SMTP_URL, naming the setting', () => {
     expect(() => loadConfig({ NODE_ENV: 'production', JWT_SECRET: secret, DATA_DIR: dataDir })).toThrow(ConfigError);
-    expect(() => loadConfig({ NODE_ENV: 'production', JWT_SECRET: secret, DATA_DIR: dataDir })).toThrow(/SMTP_URL: required in production/);
+    expect(() => loadConfig({ NODE_ENV: 'production', JWT_SECRET: secret, DATA_DIR: dataDir })).toThrow(
+      /SMTP_URL: required in production/,
+    );
   });
 
   it('takes SMTP_URL and MAIL_FROM in production', () => {
@@ -148,13 +198,27 @@ describe('mail configuration', () => {
   });
 
   it('defaults the sender to no-reply at the public host', () => {
-    const c = loadConfig({ NODE_ENV: 'development', JWT_SECRET: secret, DATA_DIR: dataDir, PUBLIC_BASE_URL: 'https://labels.example.net' });
+    const c = loadConfig({
+      NODE_ENV: 'development',
+      JWT_SECRET: secret,
+      DATA_DIR: dataDir,
+      PUBLIC_BASE_URL: 'https://labels.example.net',
+    });
     expect(c.mailFrom).toBe('Emberline <no-reply@labels.example.net>');
     expect(c.smtpUrl).toBeNull();
   });
 
   it('refuses an SMTP_URL that is not smtp:// or smtps://, and a bad MAIL_SINK_PORT', () => {
-    expect(() => loadConfig({ NODE_ENV: 'development', JWT_SECRET: secret, DATA_DIR: dataDir, SMTP_URL: 'http://smtp.example.net' })).toThrow(/SMTP_URL/);
-    expect(() => loadConfig({ NODE_ENV: 'development', JWT_SECRET: secret, DATA_DIR: dataDir, MAIL_SINK_PORT: '70000' })).toThrow(/MAIL_SINK_PORT/);
+    expect(() =>
+      loadConfig({
+        NODE_ENV: 'development',
+        JWT_SECRET: secret,
+        DATA_DIR: dataDir,
+        SMTP_URL: 'http://smtp.example.net',
+      }),
+    ).toThrow(/SMTP_URL/);
+    expect(() =>
+      loadConfig({ NODE_ENV: 'development', JWT_SECRET: secret, DATA_DIR: dataDir, MAIL_SINK_PORT: '70000' }),
+    ).toThrow(/MAIL_SINK_PORT/);
   });
 });

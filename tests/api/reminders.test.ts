@@ -30,16 +30,28 @@ function at(days: number, hh: number, mm = 0): Date {
 }
 
 async function reminderMail(organizationId: string) {
-  const rows = await CapturedMail.findAll({ where: { organizationId, kind: 'reminder' }, order: [['receivedAt', 'ASC']] });
+  const rows = await CapturedMail.findAll({
+    where: { organizationId, kind: 'reminder' },
+    order: [['receivedAt', 'ASC']],
+  });
   return rows.map((r) => ({ to: JSON.parse(r.to) as string[], subject: r.subject, text: r.text }));
 }
 
 beforeAll(async () => {
   t = await makeTestApp();
   const eng = bearer(t.orgA.users.engineer.token);
-  const siteId = (await request(t.app).post('/api/sites').set(...eng).send({ name: SITE_NAME })).body.id as string;
+  const siteId = (
+    await request(t.app)
+      .post('/api/sites')
+      .set(...eng)
+      .send({ name: SITE_NAME })
+  ).body.id as string;
   studyId = await approveStudy(t, siteId, smallModel());
-  labelCodes = (await request(t.app).get(`/api/studies/${studyId}/labels`).set(...eng)).body.labels.map((l: { code: string }) => l.code);
+  labelCodes = (
+    await request(t.app)
+      .get(`/api/studies/${studyId}/labels`)
+      .set(...eng)
+  ).body.labels.map((l: { code: string }) => l.code);
   const report = await request(t.app)
     .post(`/api/labels/${labelCodes[0]}/reports`)
     .set(...bearer(t.orgA.users.electrician.token))
@@ -63,19 +75,30 @@ afterAll(async () => t.close());
 
 describe('reminder rules', () => {
   it('start empty, with the default reminder hour 6 UTC (organization settings default)', async () => {
-    const res = await request(t.app).get('/api/reminder-rules').set(...safetyA());
+    const res = await request(t.app)
+      .get('/api/reminder-rules')
+      .set(...safetyA());
     expect(res.status).toBe(200);
     expect(res.body).toEqual({ rules: [], reminderHourUtc: 6 });
   });
 
   it('name the fields of a bad rule', async () => {
-    const bad = await request(t.app).post('/api/reminder-rules').set(...safetyA()).send({ name: ' ', lists: ['no-such-list'], emails: ['not-an-address'] });
+    const bad = await request(t.app)
+      .post('/api/reminder-rules')
+      .set(...safetyA())
+      .send({ name: ' ', lists: ['no-such-list'], emails: ['not-an-address'] });
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.body.error.fields)).toEqual(expect.arrayContaining(['name', 'lists[0]', 'emails[0]']));
-    const nobody = await request(t.app).post('/api/reminder-rules').set(...safetyA()).send({ name: 'Nobody', lists: ['open-reports'] });
+    const nobody = await request(t.app)
+      .post('/api/reminder-rules')
+      .set(...safetyA())
+      .send({ name: 'Nobody', lists: ['open-reports'] });
     expect(nobody.status).toBe(400);
     expect(nobody.body.error.fields).toHaveProperty('roles');
-    const noList = await request(t.app).post('/api/reminder-rules').set(...safetyA()).send({ name: 'No list', lists: [], roles: ['safety'] });
+    const noList = await request(t.app)
+      .post('/api/reminder-rules')
+      .set(...safetyA())
+      .send({ name: 'No list', lists: [], roles: ['safety'] });
     expect(noList.status).toBe(400);
     expect(noList.body.error.fields).toHaveProperty('lists');
   });
@@ -84,7 +107,12 @@ describe('reminder rules', () => {
     const created = await request(t.app)
       .post('/api/reminder-rules')
       .set(...adminA())
-      .send({ name: 'Temporary rule', lists: ['open-reports'], roles: ['engineer'], emails: ['Outside@Contractor.example'] });
+      .send({
+        name: 'Temporary rule',
+        lists: ['open-reports'],
+        roles: ['engineer'],
+        emails: ['Outside@Contractor.example'],
+      });
     expect(created.status).toBe(201);
     expect(created.body).toMatchObject({
       name: 'Temporary rule',
@@ -100,20 +128,59 @@ describe('reminder rules', () => {
     const put = await request(t.app)
       .put(`/api/reminder-rules/${id}`)
       .set(...safetyA())
-      .send({ name: 'Temporary rule, renamed', lists: ['open-reports', 'stale-studies'], roles: ['engineer'], enabled: false });
+      .send({
+        name: 'Temporary rule, renamed',
+        lists: ['open-reports', 'stale-studies'],
+        roles: ['engineer'],
+        enabled: false,
+      });
     expect(put.status).toBe(200);
-    expect(put.body).toMatchObject({ name: 'Temporary rule, renamed', enabled: false, lists: ['open-reports', 'stale-studies'], emails: [] });
+    expect(put.body).toMatchObject({
+      name: 'Temporary rule, renamed',
+      enabled: false,
+      lists: ['open-reports', 'stale-studies'],
+      emails: [],
+    });
 
-    expect((await request(t.app).put(`/api/reminder-rules/${id}`).set(...safetyB()).send({ name: 'x', lists: ['open-reports'], roles: ['safety'] })).status).toBe(404);
-    expect((await request(t.app).delete(`/api/reminder-rules/${id}`).set(...safetyB())).status).toBe(404);
-    expect((await request(t.app).get('/api/reminder-rules').set(...safetyB())).body.rules).toEqual([]);
+    expect(
+      (
+        await request(t.app)
+          .put(`/api/reminder-rules/${id}`)
+          .set(...safetyB())
+          .send({ name: 'x', lists: ['open-reports'], roles: ['safety'] })
+      ).status,
+    ).toBe(404);
+    expect(
+      (
+        await request(t.app)
+          .delete(`/api/reminder-rules/${id}`)
+          .set(...safetyB())
+      ).status,
+    ).toBe(404);
+    expect(
+      (
+        await request(t.app)
+          .get('/api/reminder-rules')
+          .set(...safetyB())
+      ).body.rules,
+    ).toEqual([]);
 
-    const del = await request(t.app).delete(`/api/reminder-rules/${id}`).set(...safetyA());
+    const del = await request(t.app)
+      .delete(`/api/reminder-rules/${id}`)
+      .set(...safetyA());
     expect(del.status).toBe(200);
     expect(del.body).toEqual({ ok: true });
-    expect((await request(t.app).delete(`/api/reminder-rules/${id}`).set(...safetyA())).status).toBe(404);
+    expect(
+      (
+        await request(t.app)
+          .delete(`/api/reminder-rules/${id}`)
+          .set(...safetyA())
+      ).status,
+    ).toBe(404);
 
-    const actions = (await AuditEvent.findAll({ where: { entityId: id }, order: [['createdAt', 'ASC']] })).map((e) => e.action);
+    const actions = (await AuditEvent.findAll({ where: { entityId: id }, order: [['createdAt', 'ASC']] })).map(
+      (e) => e.action,
+    );
     expect(actions).toEqual(['reminder-rule.created', 'reminder-rule.updated', 'reminder-rule.deleted']);
   });
 });
@@ -138,7 +205,10 @@ describe('reminder content, received by the local SMTP sink', () => {
   it('goes to every active user of the roles plus the further addresses, one message each, with counts, rows and links', async () => {
     t.setNow(later);
     const before = (await reminderMail(t.orgA.id)).length;
-    const res = await request(t.app).post('/api/reminders/send-now').set(...safetyA()).send({ ruleId });
+    const res = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...safetyA())
+      .send({ ruleId });
     t.setNow(null);
     expect(res.status).toBe(200);
     // Expected items: 1 study past review (approved 6 years ago; interval 60 months), every label not installed
@@ -146,7 +216,14 @@ describe('reminder content, received by the local SMTP sink', () => {
     const expectedItems = 1 + labelCodes.length + 1 + 0;
     const recipients = ['contractor@outside.example', 'engineer@org-a.example', 'safety@org-a.example'];
     expect(res.body.deliveries).toEqual([
-      expect.objectContaining({ ruleId, ruleName: 'Morning digest', trigger: 'manual', status: 'sent', recipients, itemCount: expectedItems }),
+      expect.objectContaining({
+        ruleId,
+        ruleName: 'Morning digest',
+        trigger: 'manual',
+        status: 'sent',
+        recipients,
+        itemCount: expectedItems,
+      }),
     ]);
 
     const mails = (await reminderMail(t.orgA.id)).slice(before);
@@ -172,38 +249,74 @@ describe('reminder content, received by the local SMTP sink', () => {
   });
 
   it('records the delivery and the audit events (reminders.sent, mail.sent per recipient)', async () => {
-    const list = await request(t.app).get('/api/reminders/deliveries').set(...adminA());
+    const list = await request(t.app)
+      .get('/api/reminders/deliveries')
+      .set(...adminA());
     expect(list.status).toBe(200);
-    expect(list.body.deliveries[0]).toMatchObject({ ruleId, status: 'sent', trigger: 'manual', message: 'Sent to 3 recipients' });
-    const rules = await request(t.app).get('/api/reminder-rules').set(...safetyA());
+    expect(list.body.deliveries[0]).toMatchObject({
+      ruleId,
+      status: 'sent',
+      trigger: 'manual',
+      message: 'Sent to 3 recipients',
+    });
+    const rules = await request(t.app)
+      .get('/api/reminder-rules')
+      .set(...safetyA());
     expect(rules.body.rules.find((r: { id: string }) => r.id === ruleId).lastSentAt).toEqual(expect.any(String));
-    const sent = await AuditEvent.findAll({ where: { organizationId: t.orgA.id, action: 'reminders.sent', entityId: ruleId } });
+    const sent = await AuditEvent.findAll({
+      where: { organizationId: t.orgA.id, action: 'reminders.sent', entityId: ruleId },
+    });
     expect(sent).toHaveLength(1);
     expect(JSON.parse(sent[0].summary)).toMatchObject({ status: 'sent', trigger: 'manual', recipients: 3 });
     const mailAudit = (await AuditEvent.findAll({ where: { organizationId: t.orgA.id, action: 'mail.sent' } }))
       .map((e) => JSON.parse(e.summary))
       .filter((s) => s.kind === 'reminder');
-    expect(mailAudit.map((s) => s.to[0]).sort()).toEqual(['contractor@outside.example', 'engineer@org-a.example', 'safety@org-a.example']);
+    expect(mailAudit.map((s) => s.to[0]).sort()).toEqual([
+      'contractor@outside.example',
+      'engineer@org-a.example',
+      'safety@org-a.example',
+    ]);
   });
 
   it('is skipped when every chosen list is empty and the rule says so; sent anyway when it does not', async () => {
     // Today (real clock): the study is fresh and the labels were issued minutes ago; only the stale list is chosen.
-    const quiet = await request(t.app).post('/api/reminder-rules').set(...safetyA()).send({ name: 'Quiet', lists: ['stale-studies'], roles: ['safety'] });
+    const quiet = await request(t.app)
+      .post('/api/reminder-rules')
+      .set(...safetyA())
+      .send({ name: 'Quiet', lists: ['stale-studies'], roles: ['safety'] });
     const loud = await request(t.app)
       .post('/api/reminder-rules')
       .set(...safetyA())
       .send({ name: 'Always', lists: ['stale-studies'], roles: ['safety'], onlyWhenSomething: false });
     const before = (await reminderMail(t.orgA.id)).length;
-    const q = await request(t.app).post('/api/reminders/send-now').set(...safetyA()).send({ ruleId: quiet.body.id });
-    expect(q.body.deliveries[0]).toMatchObject({ status: 'skipped', itemCount: 0, recipients: [], message: 'Nothing to report: every chosen list is empty' });
+    const q = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...safetyA())
+      .send({ ruleId: quiet.body.id });
+    expect(q.body.deliveries[0]).toMatchObject({
+      status: 'skipped',
+      itemCount: 0,
+      recipients: [],
+      message: 'Nothing to report: every chosen list is empty',
+    });
     expect((await reminderMail(t.orgA.id)).length).toBe(before);
-    const l = await request(t.app).post('/api/reminders/send-now').set(...safetyA()).send({ ruleId: loud.body.id });
+    const l = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...safetyA())
+      .send({ ruleId: loud.body.id });
     expect(l.body.deliveries[0]).toMatchObject({ status: 'sent', itemCount: 0, recipients: ['safety@org-a.example'] });
     const mails = (await reminderMail(t.orgA.id)).slice(before);
     expect(mails).toHaveLength(1);
     expect(mails[0].subject).toBe('Emberline reminder: nothing needs attention (Always)');
     expect(mails[0].text).toContain('Stale studies: 0');
-    for (const id of [quiet.body.id, loud.body.id]) expect((await request(t.app).delete(`/api/reminder-rules/${id}`).set(...safetyA())).status).toBe(200);
+    for (const id of [quiet.body.id, loud.body.id])
+      expect(
+        (
+          await request(t.app)
+            .delete(`/api/reminder-rules/${id}`)
+            .set(...safetyA())
+        ).status,
+      ).toBe(200);
   });
 
   it('send-now without a rule sends every enabled rule, each time it is asked', async () => {
@@ -212,18 +325,35 @@ describe('reminder content, received by the local SMTP sink', () => {
       .set(...safetyA())
       .send({ name: 'Switched off', lists: ['open-reports'], roles: ['safety'], enabled: false });
     t.setNow(later);
-    const first = await request(t.app).post('/api/reminders/send-now').set(...adminA()).send({});
-    const second = await request(t.app).post('/api/reminders/send-now').set(...adminA()).send({});
+    const first = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...adminA())
+      .send({});
+    const second = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...adminA())
+      .send({});
     t.setNow(null);
     for (const res of [first, second]) {
       expect(res.status).toBe(200);
-      expect(res.body.deliveries.map((d: { ruleName: string; status: string }) => [d.ruleName, d.status])).toEqual([['Morning digest', 'sent']]);
+      expect(res.body.deliveries.map((d: { ruleName: string; status: string }) => [d.ruleName, d.status])).toEqual([
+        ['Morning digest', 'sent'],
+      ]);
     }
-    expect((await request(t.app).delete(`/api/reminder-rules/${off.body.id}`).set(...safetyA())).status).toBe(200);
+    expect(
+      (
+        await request(t.app)
+          .delete(`/api/reminder-rules/${off.body.id}`)
+          .set(...safetyA())
+      ).status,
+    ).toBe(200);
   });
 
   it('send-now refuses a rule of another organization', async () => {
-    const res = await request(t.app).post('/api/reminders/send-now').set(...safetyB()).send({ ruleId });
+    const res = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...safetyB())
+      .send({ ruleId });
     expect(res.status).toBe(404);
   });
 });
@@ -233,7 +363,10 @@ describe('the daily job', () => {
 
   beforeAll(async () => {
     // Organization B has no studies: every list is empty there.
-    const res = await request(t.app).post('/api/reminder-rules').set(...safetyB()).send({ name: 'B digest', lists: ['open-reports'], roles: ['safety'] });
+    const res = await request(t.app)
+      .post('/api/reminder-rules')
+      .set(...safetyB())
+      .send({ name: 'B digest', lists: ['open-reports'], roles: ['safety'] });
     quietB = res.body.id;
   });
   afterEach(() => t.setNow(null));
@@ -274,7 +407,14 @@ describe('the daily job', () => {
     expect(await reminderMail(t.orgB.id)).toEqual([]);
 
     const dayKeys = (await ReminderDeliveryRow.findAll({ where: { trigger: 'daily' } })).map((d) => d.dayKey);
-    expect(dayKeys.sort()).toEqual([at(0, 6).toISOString().slice(0, 10), at(0, 6).toISOString().slice(0, 10), at(1, 6).toISOString().slice(0, 10), at(1, 6).toISOString().slice(0, 10)].sort());
+    expect(dayKeys.sort()).toEqual(
+      [
+        at(0, 6).toISOString().slice(0, 10),
+        at(0, 6).toISOString().slice(0, 10),
+        at(1, 6).toISOString().slice(0, 10),
+        at(1, 6).toISOString().slice(0, 10),
+      ].sort(),
+    );
   });
 
   it('never sends a rule twice on one day when two runs race (as two server instances would)', async () => {
@@ -289,19 +429,35 @@ describe('the daily job', () => {
   });
 
   it("follows the organization's reminder hour and leaves disabled rules out", async () => {
-    const settings = await request(t.app).put('/api/organization/settings').set(...bearer(t.orgB.users.admin.token)).send({ reminderHourUtc: 20 });
+    const settings = await request(t.app)
+      .put('/api/organization/settings')
+      .set(...bearer(t.orgB.users.admin.token))
+      .send({ reminderHourUtc: 20 });
     expect(settings.status).toBe(200);
-    await request(t.app).put(`/api/reminder-rules/${quietB}`).set(...safetyB()).send({ name: 'B digest', lists: ['open-reports'], roles: ['safety'], onlyWhenSomething: false });
+    await request(t.app)
+      .put(`/api/reminder-rules/${quietB}`)
+      .set(...safetyB())
+      .send({ name: 'B digest', lists: ['open-reports'], roles: ['safety'], onlyWhenSomething: false });
     t.setNow(at(3, 19, 59));
     expect(dailyOf(await runDueReminders(t.ctx))).toEqual([['Morning digest', 'sent', 'daily']]);
     t.setNow(at(3, 20, 0));
     const b = await runDueReminders(t.ctx);
-    expect(b).toEqual([expect.objectContaining({ ruleName: 'B digest', status: 'sent', recipients: ['safety@org-b.example'], itemCount: 0 })]);
+    expect(b).toEqual([
+      expect.objectContaining({
+        ruleName: 'B digest',
+        status: 'sent',
+        recipients: ['safety@org-b.example'],
+        itemCount: 0,
+      }),
+    ]);
     const mailB = await reminderMail(t.orgB.id);
     expect(mailB).toHaveLength(1);
     expect(mailB[0].to).toEqual(['safety@org-b.example']);
 
-    await request(t.app).put(`/api/reminder-rules/${quietB}`).set(...safetyB()).send({ name: 'B digest', lists: ['open-reports'], roles: ['safety'], enabled: false });
+    await request(t.app)
+      .put(`/api/reminder-rules/${quietB}`)
+      .set(...safetyB())
+      .send({ name: 'B digest', lists: ['open-reports'], roles: ['safety'], enabled: false });
     t.setNow(at(4, 21, 0));
     expect(dailyOf(await runDueReminders(t.ctx))).toEqual([['Morning digest', 'sent', 'daily']]);
   });
@@ -310,7 +466,12 @@ describe('the daily job', () => {
     const real = t.ctx.mail;
     // An SMTP server that is not there: nothing listens on this port.
     const port = await freePort();
-    t.ctx.mail = createMailer({ env: 'test', smtpUrl: `smtp://127.0.0.1:${port}`, mailFrom: t.config.mailFrom, mailSinkPort: 0 });
+    t.ctx.mail = createMailer({
+      env: 'test',
+      smtpUrl: `smtp://127.0.0.1:${port}`,
+      mailFrom: t.config.mailFrom,
+      mailSinkPort: 0,
+    });
     try {
       t.setNow(at(5, 8, 0));
       const [d] = await runDueReminders(t.ctx);
@@ -328,13 +489,17 @@ describe('the daily job', () => {
 describe('seedDefaultReminderRules', () => {
   it('gives an organization two enabled rules: safety officers every list, engineers their own', async () => {
     await seedDefaultReminderRules(t.orgB.id);
-    const res = await request(t.app).get('/api/reminder-rules').set(...safetyB());
+    const res = await request(t.app)
+      .get('/api/reminder-rules')
+      .set(...safetyB());
     const seeded = res.body.rules.filter((r: { name: string }) => r.name !== 'B digest');
     expect(seeded).toHaveLength(2);
     const safety = seeded.find((r: { roles: string[] }) => r.roles.includes('safety'));
     const engineers = seeded.find((r: { roles: string[] }) => r.roles.includes('engineer'));
     expect(safety.lists).toHaveLength(7);
-    expect(engineers.lists).toEqual(expect.arrayContaining(['review-overdue', 'review-due-30', 'stale-studies', 'open-reports']));
+    expect(engineers.lists).toEqual(
+      expect.arrayContaining(['review-overdue', 'review-due-30', 'stale-studies', 'open-reports']),
+    );
     for (const r of seeded) expect(r).toMatchObject({ enabled: true, onlyWhenSomething: true });
   });
 });

@@ -13,14 +13,25 @@ let t: TestApp;
 let studyId = '';
 
 const eng = () => bearer(t.orgA.users.engineer.token);
-const results = (token: string, headers: Record<string, string> = {}) => request(t.app).get(`/api/studies/${studyId}/results`).set(...bearer(token)).set(headers);
+const results = (token: string, headers: Record<string, string> = {}) =>
+  request(t.app)
+    .get(`/api/studies/${studyId}/results`)
+    .set(...bearer(token))
+    .set(headers);
 
 /** Saves `model` as the draft's model and runs it to the end; returns the run id. */
 async function saveAndRun(model: ReturnType<typeof smallModel>): Promise<string> {
-  const env = await request(t.app).get(`/api/studies/${studyId}/model`).set(...eng());
-  const put = await request(t.app).put(`/api/studies/${studyId}/model`).set(...eng()).send({ model, version: env.body.version });
+  const env = await request(t.app)
+    .get(`/api/studies/${studyId}/model`)
+    .set(...eng());
+  const put = await request(t.app)
+    .put(`/api/studies/${studyId}/model`)
+    .set(...eng())
+    .send({ model, version: env.body.version });
   expect(put.status).toBe(200);
-  const run = await request(t.app).post(`/api/studies/${studyId}/run`).set(...eng());
+  const run = await request(t.app)
+    .post(`/api/studies/${studyId}/run`)
+    .set(...eng());
   expect(run.status).toBe(202);
   await t.ctx.jobs.idle();
   return run.body.id as string;
@@ -28,8 +39,14 @@ async function saveAndRun(model: ReturnType<typeof smallModel>): Promise<string>
 
 beforeAll(async () => {
   t = await makeTestApp();
-  const site = await request(t.app).post('/api/sites').set(...eng()).send({ name: 'Results cache site' });
-  const study = await request(t.app).post(`/api/sites/${site.body.id}/studies`).set(...eng()).send({ title: 'Results cache study' });
+  const site = await request(t.app)
+    .post('/api/sites')
+    .set(...eng())
+    .send({ name: 'Results cache site' });
+  const study = await request(t.app)
+    .post(`/api/sites/${site.body.id}/studies`)
+    .set(...eng())
+    .send({ title: 'Results cache study' });
   studyId = study.body.id;
   await saveAndRun(smallModel());
 }, 60_000);
@@ -77,8 +94,11 @@ describe('cached study results', () => {
     expect(after.status).toBe(200);
     expect(after.body.run.id).toBe(newRunId);
     expect(after.headers.etag).not.toBe(before.headers.etag);
-    expect((after.body.model.cables as { id: string; lengthM: number }[]).find((c) => c.id === 'F-PNL')!.lengthM).toBe(60);
-    const pnl = (r: { body: { results: { buses: { busId: string }[] } } }) => JSON.stringify(r.body.results.buses.find((b) => b.busId === 'PNL'));
+    expect((after.body.model.cables as { id: string; lengthM: number }[]).find((c) => c.id === 'F-PNL')!.lengthM).toBe(
+      60,
+    );
+    const pnl = (r: { body: { results: { buses: { busId: string }[] } } }) =>
+      JSON.stringify(r.body.results.buses.find((b) => b.busId === 'PNL'));
     expect(pnl(after)).not.toBe(pnl(before));
     // The old ETag no longer matches.
     expect((await results(t.orgA.users.engineer.token, { 'If-None-Match': before.headers.etag })).status).toBe(200);

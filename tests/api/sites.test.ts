@@ -22,35 +22,55 @@ describe('sites', () => {
     expect(edited.status).toBe(200);
     expect(edited.body.name).toBe('North pump station (rebuilt)');
     for (const role of ['electrician', 'safety'] as const) {
-      const res = await request(t.app).get(`/api/sites/${id}`).set(...bearer(t.orgA.users[role].token));
+      const res = await request(t.app)
+        .get(`/api/sites/${id}`)
+        .set(...bearer(t.orgA.users[role].token));
       expect(res.status).toBe(200);
     }
   });
 
   it('electrician and safety officer may not create sites', async () => {
     for (const role of ['electrician', 'safety'] as const) {
-      const res = await request(t.app).post('/api/sites').set(...bearer(t.orgA.users[role].token)).send({ name: 'X' });
+      const res = await request(t.app)
+        .post('/api/sites')
+        .set(...bearer(t.orgA.users[role].token))
+        .send({ name: 'X' });
       expect(res.status).toBe(403);
     }
   });
 
   it('names the field of a bad site', async () => {
-    const res = await request(t.app).post('/api/sites').set(...bearer(t.orgA.users.engineer.token)).send({ name: '' });
+    const res = await request(t.app)
+      .post('/api/sites')
+      .set(...bearer(t.orgA.users.engineer.token))
+      .send({ name: '' });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('name');
   });
 
   it('never shows another organization its sites: list, read and edit', async () => {
-    const created = await request(t.app).post('/api/sites').set(...bearer(t.orgB.users.engineer.token)).send({ name: 'B only' });
+    const created = await request(t.app)
+      .post('/api/sites')
+      .set(...bearer(t.orgB.users.engineer.token))
+      .send({ name: 'B only' });
     const id = created.body.id as string;
-    const list = await request(t.app).get('/api/sites').set(...bearer(t.orgA.users.admin.token));
+    const list = await request(t.app)
+      .get('/api/sites')
+      .set(...bearer(t.orgA.users.admin.token));
     expect((list.body.sites as { id: string }[]).map((s) => s.id)).not.toContain(id);
-    const read = await request(t.app).get(`/api/sites/${id}`).set(...bearer(t.orgA.users.engineer.token));
+    const read = await request(t.app)
+      .get(`/api/sites/${id}`)
+      .set(...bearer(t.orgA.users.engineer.token));
     expect(read.status).toBe(404);
     expect(read.body).toEqual({ error: expect.objectContaining({ code: 'not_found' }) });
-    const edit = await request(t.app).put(`/api/sites/${id}`).set(...bearer(t.orgA.users.engineer.token)).send({ name: 'hijack' });
+    const edit = await request(t.app)
+      .put(`/api/sites/${id}`)
+      .set(...bearer(t.orgA.users.engineer.token))
+      .send({ name: 'hijack' });
     expect(edit.status).toBe(404);
-    const still = await request(t.app).get(`/api/sites/${id}`).set(...bearer(t.orgB.users.engineer.token));
+    const still = await request(t.app)
+      .get(`/api/sites/${id}`)
+      .set(...bearer(t.orgB.users.engineer.token));
     expect(still.body.name).toBe('B only');
   });
 });

@@ -42,7 +42,10 @@ const anyVoltage = fc.oneof(lowVoltage, mediumVoltage);
  */
 const monotoneInCurrent = anyVoltage.filter((p) => !(p.voltageV < 250 && p.boltedFaultKa > 50));
 
-function withDuration(p: Omit<IncidentEnergyInput, 'arcDurationMs' | 'clearingMs'>, durationMs: number): IncidentEnergyInput {
+function withDuration(
+  p: Omit<IncidentEnergyInput, 'arcDurationMs' | 'clearingMs'>,
+  durationMs: number,
+): IncidentEnergyInput {
   return { ...p, arcDurationMs: durationMs, maxArcDurationMs: 1e6 };
 }
 
@@ -103,7 +106,13 @@ describe('IEEE 1584-2018 model properties', () => {
         const arcing = computeArcingCurrents(p);
         for (const arcCase of ['full', 'reduced'] as const) {
           const c = r.cases[arcCase];
-          const e = computeCaseEnergy(arcing, arcCase, r.enclosureCorrectionFactor, c.arcDurationMs, c.arcFlashBoundaryMm);
+          const e = computeCaseEnergy(
+            arcing,
+            arcCase,
+            r.enclosureCorrectionFactor,
+            c.arcDurationMs,
+            c.arcFlashBoundaryMm,
+          );
           expectClose(e.incidentEnergyJPerCm2, (12.552 / 50) * 20, 1e-9);
           expectClose(e.incidentEnergyJPerCm2, 5.0, 0.005);
         }

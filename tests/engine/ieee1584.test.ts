@@ -133,16 +133,24 @@ describe('worked example: published 480 V check of IEEE 1584-2018 (trade-magazin
 });
 
 describe('coefficient tables: consistency', () => {
-  it.each(['VCB', 'VCBB', 'HCB'] as BoxConfig[])('Table 7 gives CF within 0.001 of 1 at the 20 in box (%s)', (config) => {
-    // IEEE 1584-2018 Table 7 (from memory): every row gives b1·20² + b2·20 + b3 within 0.001 of 1, the 20 in
-    // (508 mm) reference box. Eq. (14) is that polynomial; Eq. (15) is its reciprocal.
-    // (VCBB shallow gives exactly 0.999, on the inclusive limit: the 1e-12 only absorbs floating-point rounding)
-    const withinMilli = 0.001 + 1e-12;
-    expectClose(typicalEnclosureCorrectionFactor(config, 20), 1, 0, withinMilli);
-    expectClose(1 / shallowEnclosureCorrectionFactor(config, 20), 1, 0, withinMilli);
-    // and so does the full chain with a 508 × 508 × 508 mm box (Table 6: 0.03937 × 508 = 20.0 in)
-    expectClose(enclosureCorrectionFactor(config, 0.48, { height: 508, width: 508, depth: 508 }).enclosureCorrectionFactor, 1, 0, 0.001);
-  });
+  it.each(['VCB', 'VCBB', 'HCB'] as BoxConfig[])(
+    'Table 7 gives CF within 0.001 of 1 at the 20 in box (%s)',
+    (config) => {
+      // IEEE 1584-2018 Table 7 (from memory): every row gives b1·20² + b2·20 + b3 within 0.001 of 1, the 20 in
+      // (508 mm) reference box. Eq. (14) is that polynomial; Eq. (15) is its reciprocal.
+      // (VCBB shallow gives exactly 0.999, on the inclusive limit: the 1e-12 only absorbs floating-point rounding)
+      const withinMilli = 0.001 + 1e-12;
+      expectClose(typicalEnclosureCorrectionFactor(config, 20), 1, 0, withinMilli);
+      expectClose(1 / shallowEnclosureCorrectionFactor(config, 20), 1, 0, withinMilli);
+      // and so does the full chain with a 508 × 508 × 508 mm box (Table 6: 0.03937 × 508 = 20.0 in)
+      expectClose(
+        enclosureCorrectionFactor(config, 0.48, { height: 508, width: 508, depth: 508 }).enclosureCorrectionFactor,
+        1,
+        0,
+        0.001,
+      );
+    },
+  );
 
   it.each(ELECTRODE_CONFIGS.flatMap((c) => ([600, 2700, 14300] as const).map((v) => [c, v] as const)))(
     'k4..k10 of Tables 3-5 equal k4..k10 of Table 1 (%s, %d V)',
@@ -201,8 +209,16 @@ describe('equations, one at a time', () => {
   it('Table 6: above 1244.6 mm the limit is used (VCB height 49 in; Eq. (11)/(12) at 1244.6 mm otherwise)', () => {
     // IEEE 1584-2018 Table 6 (from memory)
     expectClose(equivalentHeightIn('VCB', 1500, 13.8, 'typical'), 49, 1e-12);
-    expectClose(equivalentHeightIn('VCBB', 1500, 13.8, 'typical'), equivalentHeightIn('VCBB', 1244.6, 13.8, 'typical'), 1e-12);
-    expectClose(equivalentWidthIn('HCB', 2000, 13.8, 'typical'), equivalentWidthIn('HCB', 1244.6, 13.8, 'typical'), 1e-12);
+    expectClose(
+      equivalentHeightIn('VCBB', 1500, 13.8, 'typical'),
+      equivalentHeightIn('VCBB', 1244.6, 13.8, 'typical'),
+      1e-12,
+    );
+    expectClose(
+      equivalentWidthIn('HCB', 2000, 13.8, 'typical'),
+      equivalentWidthIn('HCB', 1244.6, 13.8, 'typical'),
+      1e-12,
+    );
     // Eq. (12), HCB (A = 10, B = 22) at the limit
     expectClose(equivalentHeightIn('HCB', 1244.6, 13.8, 'typical'), (660.4 + 584.2 * (23.8 / 22)) / 25.4, 1e-12);
   });
@@ -229,7 +245,15 @@ describe('equations, one at a time', () => {
     // 5.0·50/12.552 = 19.92 the energy there is 12.552/50·20 = 5.0208 J/cm² (within 0.5 % of 5.0)
     for (const levelV of [600, 2700, 14300] as const) {
       const iarc = intermediateArcingCurrentKa('HCB', levelV, 12, 50);
-      const terms = { config: 'HCB' as const, gapMm: 50, boltedFaultKa: 12, iarcK3Ka: iarc, iarcK13Ka: iarc, enclosureCorrectionFactor: 1.1, durationMs: 120 };
+      const terms = {
+        config: 'HCB' as const,
+        gapMm: 50,
+        boltedFaultKa: 12,
+        iarcK3Ka: iarc,
+        iarcK13Ka: iarc,
+        enclosureCorrectionFactor: 1.1,
+        durationMs: 120,
+      };
       const afb = intermediateArcFlashBoundaryMm(levelV, terms);
       expectClose(intermediateIncidentEnergyJPerCm2(levelV, terms, afb), (12.552 / 50) * 20, 1e-12);
       expectClose(intermediateIncidentEnergyJPerCm2(levelV, terms, afb), 5.0, 0.005);
@@ -250,7 +274,9 @@ describe('every configuration in each voltage regime', () => {
     { name: 'small', enclosureMm: { height: 355.6, width: 304.8, depth: 203.2 } }, // shallow below 600 V
   ];
   const cases = ELECTRODE_CONFIGS.flatMap((config) =>
-    regimes.flatMap((regime) => enclosures.map((enc) => [config, regime.name, enc.name, { ...regime, ...enc }] as const)),
+    regimes.flatMap((regime) =>
+      enclosures.map((enc) => [config, regime.name, enc.name, { ...regime, ...enc }] as const),
+    ),
   );
 
   it.each(cases)('%s, %s, %s enclosure', (config, _regime, encName, p) => {
@@ -320,27 +346,29 @@ describe('range handling: errors', () => {
   });
 
   const bad = [Number.NaN, Number.POSITIVE_INFINITY, 0, -5];
-  it.each([
-    'voltageV',
-    'boltedFaultKa',
-    'gapMm',
-    'workingDistanceMm',
-    'arcDurationMs',
-    'maxArcDurationMs',
-  ] as const)('non-finite or non-positive %s is invalid input', (field) => {
-    for (const value of bad) {
-      const e = engineError(() => computeIncidentEnergy({ ...base, [field]: value }));
-      expect(e.kind).toBe('invalid-input');
-      expect(e.field).toBe(field);
-    }
-  });
+  it.each(['voltageV', 'boltedFaultKa', 'gapMm', 'workingDistanceMm', 'arcDurationMs', 'maxArcDurationMs'] as const)(
+    'non-finite or non-positive %s is invalid input',
+    (field) => {
+      for (const value of bad) {
+        const e = engineError(() => computeIncidentEnergy({ ...base, [field]: value }));
+        expect(e.kind).toBe('invalid-input');
+        expect(e.field).toBe(field);
+      }
+    },
+  );
 
   it('non-finite or non-positive clearing times and enclosure sizes are invalid input', () => {
     const { arcDurationMs: _unused, ...noDuration } = base;
     for (const value of bad) {
-      expect(engineError(() => computeIncidentEnergy({ ...noDuration, clearingMs: { full: value, reduced: 100 } })).field).toBe('clearingMs.full');
-      expect(engineError(() => computeIncidentEnergy({ ...noDuration, clearingMs: { full: 100, reduced: value } })).field).toBe('clearingMs.reduced');
-      const e = engineError(() => computeIncidentEnergy({ ...base, enclosureMm: { height: 508, width: value, depth: 508 } }));
+      expect(
+        engineError(() => computeIncidentEnergy({ ...noDuration, clearingMs: { full: value, reduced: 100 } })).field,
+      ).toBe('clearingMs.full');
+      expect(
+        engineError(() => computeIncidentEnergy({ ...noDuration, clearingMs: { full: 100, reduced: value } })).field,
+      ).toBe('clearingMs.reduced');
+      const e = engineError(() =>
+        computeIncidentEnergy({ ...base, enclosureMm: { height: 508, width: value, depth: 508 } }),
+      );
       expect(e.kind).toBe('invalid-input');
       expect(e.field).toBe('enclosureMm.width');
     }
@@ -370,7 +398,13 @@ describe('range handling: warnings, never silent', () => {
     enclosureMm: { height: 508, width: 508, depth: 508 },
     arcDurationMs: 100,
   };
-  const mv: IncidentEnergyInput = { ...lv, voltageV: 4160, gapMm: 104, workingDistanceMm: 914.4, enclosureMm: { height: 914.4, width: 914.4, depth: 914.4 } };
+  const mv: IncidentEnergyInput = {
+    ...lv,
+    voltageV: 4160,
+    gapMm: 104,
+    workingDistanceMm: 914.4,
+    enclosureMm: { height: 914.4, width: 914.4, depth: 914.4 },
+  };
 
   it('bolted current outside 0.5-106 kA (208-600 V) or 0.2-65 kA (601 V-15 kV)', () => {
     // IEEE 1584-2018 range of model, bolted fault current by voltage
@@ -395,13 +429,23 @@ describe('range handling: warnings, never silent', () => {
     const r = computeIncidentEnergy({ ...lv, workingDistanceMm: 300 });
     expect(codes(r)).toContain('WORKING_DISTANCE_BELOW_MODEL');
     expect(r.incidentEnergyJPerCm2).toBeGreaterThan(0);
-    expect(codes(computeIncidentEnergy({ ...lv, workingDistanceMm: 305 }))).not.toContain('WORKING_DISTANCE_BELOW_MODEL');
+    expect(codes(computeIncidentEnergy({ ...lv, workingDistanceMm: 305 }))).not.toContain(
+      'WORKING_DISTANCE_BELOW_MODEL',
+    );
   });
 
   it('enclosure height or width above 1244.6 mm: the limit is used and said', () => {
     // IEEE 1584-2018 range of model and Table 6 (from memory): maximum height or width 1244.6 mm (49 in)
-    const big = computeIncidentEnergy({ ...mv, electrodeConfig: 'VCBB', enclosureMm: { height: 1400, width: 800, depth: 800 } });
-    const atLimit = computeIncidentEnergy({ ...mv, electrodeConfig: 'VCBB', enclosureMm: { height: 1244.6, width: 800, depth: 800 } });
+    const big = computeIncidentEnergy({
+      ...mv,
+      electrodeConfig: 'VCBB',
+      enclosureMm: { height: 1400, width: 800, depth: 800 },
+    });
+    const atLimit = computeIncidentEnergy({
+      ...mv,
+      electrodeConfig: 'VCBB',
+      enclosureMm: { height: 1244.6, width: 800, depth: 800 },
+    });
     expect(codes(big)).toContain('ENCLOSURE_LIMITED');
     expect(codes(atLimit)).not.toContain('ENCLOSURE_LIMITED');
     expectClose(big.enclosureCorrectionFactor, atLimit.enclosureCorrectionFactor, 1e-12);
@@ -413,9 +457,15 @@ describe('range handling: warnings, never silent', () => {
     const r = computeIncidentEnergy({ ...lv, voltageV: 208, boltedFaultKa: 1.5 });
     expect(codes(r)).toContain('SUSTAINABLE_ARC_UNLIKELY');
     expect(r.warnings.find((w) => w.code === 'SUSTAINABLE_ARC_UNLIKELY')?.message).toContain('240 V');
-    expect(codes(computeIncidentEnergy({ ...lv, voltageV: 240, boltedFaultKa: 1.9 }))).toContain('SUSTAINABLE_ARC_UNLIKELY');
-    expect(codes(computeIncidentEnergy({ ...lv, voltageV: 250, boltedFaultKa: 1.5 }))).not.toContain('SUSTAINABLE_ARC_UNLIKELY');
-    expect(codes(computeIncidentEnergy({ ...lv, voltageV: 208, boltedFaultKa: 2.5 }))).not.toContain('SUSTAINABLE_ARC_UNLIKELY');
+    expect(codes(computeIncidentEnergy({ ...lv, voltageV: 240, boltedFaultKa: 1.9 }))).toContain(
+      'SUSTAINABLE_ARC_UNLIKELY',
+    );
+    expect(codes(computeIncidentEnergy({ ...lv, voltageV: 250, boltedFaultKa: 1.5 }))).not.toContain(
+      'SUSTAINABLE_ARC_UNLIKELY',
+    );
+    expect(codes(computeIncidentEnergy({ ...lv, voltageV: 208, boltedFaultKa: 2.5 }))).not.toContain(
+      'SUSTAINABLE_ARC_UNLIKELY',
+    );
   });
 
   it('arc duration above the cap (default 2 s) is capped, with a warning; the cap is a setting', () => {
@@ -431,7 +481,11 @@ describe('range handling: warnings, never silent', () => {
     const raised = computeIncidentEnergy({ ...lv, arcDurationMs: 3000, maxArcDurationMs: 5000 });
     expect(codes(raised)).not.toContain('ARC_DURATION_CAPPED');
     expect(raised.maxArcDurationMs).toBe(5000);
-    const onlyReduced = computeIncidentEnergy({ ...lv, arcDurationMs: undefined, clearingMs: { full: 500, reduced: 2500 } });
+    const onlyReduced = computeIncidentEnergy({
+      ...lv,
+      arcDurationMs: undefined,
+      clearingMs: { full: 500, reduced: 2500 },
+    });
     expect(onlyReduced.cases.full.arcDurationCapped).toBe(false);
     expect(onlyReduced.cases.reduced.arcDurationMs).toBe(2000);
     expect(codes(onlyReduced)).toContain('ARC_DURATION_CAPPED');
@@ -458,7 +512,11 @@ describe('lower-level functions for the study runner', () => {
 
   it('energy for given durations equals the full calculation with those clearing times', () => {
     const a = computeArcingCurrents({ voltageV: 4160, boltedFaultKa: 15, electrodeConfig: 'VCB', gapMm: 104 });
-    const e = computeEnergyForDurations(a, { workingDistanceMm: 914.4, enclosureMm: ANNEX_D1.enclosureMm }, { full: 197, reduced: 223 });
+    const e = computeEnergyForDurations(
+      a,
+      { workingDistanceMm: 914.4, enclosureMm: ANNEX_D1.enclosureMm },
+      { full: 197, reduced: 223 },
+    );
     const r = computeIncidentEnergy(ANNEX_D1);
     expectClose(e.incidentEnergyJPerCm2, r.incidentEnergyJPerCm2, 1e-15);
     expectClose(e.arcFlashBoundaryMm, r.arcFlashBoundaryMm, 1e-15);
@@ -466,7 +524,9 @@ describe('lower-level functions for the study runner', () => {
   });
 
   it('arcing currents out of the voltage range are an error too', () => {
-    const e = engineError(() => computeArcingCurrents({ voltageV: 20000, boltedFaultKa: 15, electrodeConfig: 'VCB', gapMm: 104 }));
+    const e = engineError(() =>
+      computeArcingCurrents({ voltageV: 20000, boltedFaultKa: 15, electrodeConfig: 'VCB', gapMm: 104 }),
+    );
     expect(e.kind).toBe('out-of-range');
     expect(e.field).toBe('voltageV');
   });
@@ -507,7 +567,14 @@ describe('API schemas (shared/schemas/incidentEnergy.ts)', () => {
   it('the engine result is a valid response', () => {
     const r: IncidentEnergyResponse = computeIncidentEnergy(ANNEX_D1); // compile-time: engine type fits the schema type
     expect(incidentEnergyResponseSchema.safeParse(r).success).toBe(true);
-    const lv = computeIncidentEnergy({ ...ANNEX_D1, voltageV: 480, gapMm: 32, boltedFaultKa: 30, electrodeConfig: 'HOA', enclosureMm: undefined });
+    const lv = computeIncidentEnergy({
+      ...ANNEX_D1,
+      voltageV: 480,
+      gapMm: 32,
+      boltedFaultKa: 30,
+      electrodeConfig: 'HOA',
+      enclosureMm: undefined,
+    });
     expect(incidentEnergyResponseSchema.safeParse(lv).success).toBe(true);
   });
 
@@ -517,7 +584,9 @@ describe('API schemas (shared/schemas/incidentEnergy.ts)', () => {
     expect(incidentEnergyRequestSchema.safeParse({ ...noDuration, arcDurationMs: 100 }).success).toBe(true);
     expect(incidentEnergyRequestSchema.safeParse(noDuration).success).toBe(false);
     expect(incidentEnergyRequestSchema.safeParse({ ...ANNEX_D1, arcDurationMs: 100 }).success).toBe(false);
-    expect(incidentEnergyRequestSchema.safeParse({ ...ANNEX_D1, voltageV: Number.POSITIVE_INFINITY }).success).toBe(false);
+    expect(incidentEnergyRequestSchema.safeParse({ ...ANNEX_D1, voltageV: Number.POSITIVE_INFINITY }).success).toBe(
+      false,
+    );
     expect(incidentEnergyRequestSchema.safeParse({ ...ANNEX_D1, gapMm: 0 }).success).toBe(false);
     expect(incidentEnergyRequestSchema.safeParse({ ...ANNEX_D1, electrodeConfig: 'VOB' }).success).toBe(false);
     const noEnclosure = { ...ANNEX_D1, enclosureMm: undefined };

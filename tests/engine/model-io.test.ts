@@ -54,7 +54,12 @@ function plant(): ModelInput {
       { id: 'SWGR-B', name: 'Generator switchgear', nominalKv: 12.47, equipment: { class: 'switchgear-15kv' } },
       { id: 'SWBD-1', nominalKv: 0.48, equipment: { class: 'switchgear-lv', workingDistanceMm: 609.6 } },
       { id: 'MCC-2', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep', mainIsolated: false } },
-      { id: 'PNL-7', name: '=lighting panel', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-shallow', electrodeConfig: 'VCBB' } },
+      {
+        id: 'PNL-7',
+        name: '=lighting panel',
+        nominalKv: 0.48,
+        equipment: { class: 'mcc-panelboard-lv-shallow', electrodeConfig: 'VCBB' },
+      },
       { id: 'PNL-8', nominalKv: 0.48 },
       { id: 'MCC-5', name: 'Pump № 1 MCC', nominalKv: 4.16, equipment: { class: 'mcc-5kv', gapMm: 104 } },
     ],
@@ -63,12 +68,47 @@ function plant(): ModelInput {
       { id: 'GEN-1', kind: 'generator', bus: 'SWGR-B', kva: 2500, kv: 12.47, subtransientPct: 15.5, xr: 25 },
     ],
     transformers: [
-      { id: 'TX-1', fromBus: 'SWGR-A', toBus: 'SWBD-1', kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 },
-      { id: 'TX-2', name: 'Pump transformer', fromBus: 'SWGR-B', toBus: 'MCC-5', kva: 2000, primaryKv: 12.47, secondaryKv: 4.16, impedancePct: 6.5 },
+      {
+        id: 'TX-1',
+        fromBus: 'SWGR-A',
+        toBus: 'SWBD-1',
+        kva: 1500,
+        primaryKv: 12.47,
+        secondaryKv: 0.48,
+        impedancePct: 5.75,
+        xr: 6,
+      },
+      {
+        id: 'TX-2',
+        name: 'Pump transformer',
+        fromBus: 'SWGR-B',
+        toBus: 'MCC-5',
+        kva: 2000,
+        primaryKv: 12.47,
+        secondaryKv: 4.16,
+        impedancePct: 6.5,
+      },
     ],
     cables: [
-      { id: 'FDR-3', fromBus: 'SWBD-1', toBus: 'MCC-2', lengthM: 45, sets: 2, size: '500kcmil', material: 'Cu', conduit: 'steel' },
-      { id: 'FDR-4', name: '-480 V lighting feeder', fromBus: 'SWBD-1', toBus: 'PNL-7', lengthM: 61.3, rOhmPerKm: 0.1734, xOhmPerKm: 0.0853 },
+      {
+        id: 'FDR-3',
+        fromBus: 'SWBD-1',
+        toBus: 'MCC-2',
+        lengthM: 45,
+        sets: 2,
+        size: '500kcmil',
+        material: 'Cu',
+        conduit: 'steel',
+      },
+      {
+        id: 'FDR-4',
+        name: '-480 V lighting feeder',
+        fromBus: 'SWBD-1',
+        toBus: 'PNL-7',
+        lengthM: 61.3,
+        rOhmPerKm: 0.1734,
+        xOhmPerKm: 0.0853,
+      },
       { id: 'FDR-5', fromBus: 'MCC-2', toBus: 'PNL-8', lengthM: 12.2, size: '4/0', material: 'Al', conduit: 'pvc' },
     ],
     motors: [
@@ -101,14 +141,34 @@ function plant(): ModelInput {
         device: {
           kind: 'fuse',
           ratingA: 125,
-          totalClearing: [[250, 300], [500, 10], [2000, 0.05]],
-          minimumMelt: [[200, 300], [400, 10], [1600, 0.02]],
+          totalClearing: [
+            [250, 300],
+            [500, 10],
+            [2000, 0.05],
+          ],
+          minimumMelt: [
+            [200, 300],
+            [400, 10],
+            [1600, 0.02],
+          ],
         },
       },
       {
         id: 'B-GEN-1',
         source: 'GEN-1',
-        device: { kind: 'band', ratingA: 150, currentUnit: 'multiple', min: [[1.2, 100], [10, 0.5]], max: [[1.5, 200], [12, 0.8]] },
+        device: {
+          kind: 'band',
+          ratingA: 150,
+          currentUnit: 'multiple',
+          min: [
+            [1.2, 100],
+            [10, 0.5],
+          ],
+          max: [
+            [1.5, 200],
+            [12, 0.8],
+          ],
+        },
       },
       {
         id: 'CB-FDR4',
@@ -117,7 +177,16 @@ function plant(): ModelInput {
         device: {
           kind: 'thermal-magnetic',
           ratingA: 225,
-          thermal: { min: [[1.35, 1000], [6, 5]], max: [[1.35, 4000], [6, 20]] },
+          thermal: {
+            min: [
+              [1.35, 1000],
+              [6, 5],
+            ],
+            max: [
+              [1.35, 4000],
+              [6, 20],
+            ],
+          },
           instantaneous: { lowMultiple: 5, highMultiple: 10, setting: 'C' },
         },
       },
@@ -142,7 +211,18 @@ function plant(): ModelInput {
           positions: { longTimePickup: '0.9', longTimeDelay: '4', shortTimeI2t: 'IN' },
         },
       },
-      { id: 'F-P101', source: 'P-101', device: { kind: 'fuse', ratingA: 250, averageMelt: [[500, 100], [2500, 0.02]] } },
+      {
+        id: 'F-P101',
+        source: 'P-101',
+        device: {
+          kind: 'fuse',
+          ratingA: 250,
+          averageMelt: [
+            [500, 100],
+            [2500, 0.02],
+          ],
+        },
+      },
       {
         id: 'R-TIE',
         branch: 'TIE-AB',
@@ -178,7 +258,10 @@ function expectSame(actual: unknown, expected: unknown, path = 'model'): void {
     if (actual === null || typeof actual !== 'object' || Array.isArray(actual)) {
       throw new Error(`${path}: expected an object, got ${JSON.stringify(actual)}`);
     }
-    const keys = (o: object) => Object.keys(o).filter((k) => (o as Record<string, unknown>)[k] !== undefined).sort();
+    const keys = (o: object) =>
+      Object.keys(o)
+        .filter((k) => (o as Record<string, unknown>)[k] !== undefined)
+        .sort();
     expect(`${path}: ${keys(actual).join(',')}`).toBe(`${path}: ${keys(expected).join(',')}`);
     for (const k of keys(expected)) {
       expectSame((actual as Record<string, unknown>)[k], (expected as Record<string, unknown>)[k], `${path}.${k}`);
@@ -258,7 +341,14 @@ describe('round trips (common practice, no source: export then import gives the 
   it('CSV, one file per table', async () => {
     const upload = await csvUpload(original);
     expect(upload.map((f) => f.name)).toEqual([
-      'about.csv', 'buses.csv', 'sources.csv', 'transformers.csv', 'cables.csv', 'motors.csv', 'ties.csv', 'devices.csv',
+      'about.csv',
+      'buses.csv',
+      'sources.csv',
+      'transformers.csv',
+      'cables.csv',
+      'motors.csv',
+      'ties.csv',
+      'devices.csv',
     ]);
     expectSame(modelOf(await importModel(upload)), original);
   });
@@ -277,7 +367,11 @@ describe('round trips (common practice, no source: export then import gives the 
     // Only the two tables that hold elements: format and version are the current ones.
     const csv = exportModelCsv(minimal);
     expectSame(
-      modelOf(await importModel(['buses', 'sources'].map((t) => ({ name: `${t}.csv`, buffer: Buffer.from(csv[t as ModelTable]) })))),
+      modelOf(
+        await importModel(
+          ['buses', 'sources'].map((t) => ({ name: `${t}.csv`, buffer: Buffer.from(csv[t as ModelTable]) })),
+        ),
+      ),
       minimal,
     );
   });
@@ -300,7 +394,10 @@ describe('round trips (common practice, no source: export then import gives the 
             format: 'emberline-model',
             version: 1,
             name: name.trim() === '' ? undefined : name,
-            buses: [{ id: busId, nominalKv: 0.48 }, { id: `${busId}-2`, nominalKv: 0.48 }],
+            buses: [
+              { id: busId, nominalKv: 0.48 },
+              { id: `${busId}-2`, nominalKv: 0.48 },
+            ],
             sources: [{ id: sourceId, kind: 'utility', bus: busId, shortCircuitMva: 30, xr }],
             cables: [{ id: 'C-1', fromBus: busId, toBus: `${busId}-2`, lengthM, rOhmPerKm: xr, xOhmPerKm: lengthM }],
           });
@@ -320,7 +417,14 @@ describe('workbook layout', () => {
   it('has an About sheet first, then one sheet per element type, header bold and frozen', async () => {
     const workbook = await loadWorkbook(await exportModelWorkbook(original));
     expect(workbook.worksheets.map((s) => s.name)).toEqual([
-      'About', 'Buses', 'Sources', 'Transformers', 'Cables', 'Motors', 'Ties', 'Devices',
+      'About',
+      'Buses',
+      'Sources',
+      'Transformers',
+      'Cables',
+      'Motors',
+      'Ties',
+      'Devices',
     ]);
     for (const sheet of workbook.worksheets) {
       expect(sheet.getRow(1).font?.bold).toBe(true);
@@ -328,14 +432,37 @@ describe('workbook layout', () => {
     }
     const buses = workbook.getWorksheet('Buses')!;
     expect(buses.getRow(1).values).toEqual([
-      undefined, 'id', 'name', 'nominalKv', 'equipment.class', 'equipment.electrodeConfig', 'equipment.gapMm',
-      'equipment.workingDistanceMm', 'equipment.enclosureMm.height', 'equipment.enclosureMm.width',
-      'equipment.enclosureMm.depth', 'equipment.mainIsolated',
+      undefined,
+      'id',
+      'name',
+      'nominalKv',
+      'equipment.class',
+      'equipment.electrodeConfig',
+      'equipment.gapMm',
+      'equipment.workingDistanceMm',
+      'equipment.enclosureMm.height',
+      'equipment.enclosureMm.width',
+      'equipment.enclosureMm.depth',
+      'equipment.mainIsolated',
     ]);
     const devices = workbook.getWorksheet('Devices')!;
-    expect(devices.getRow(1).values).toEqual([undefined, 'id', 'name', 'branch', 'end', 'source', 'device.kind', 'device', 'library']);
+    expect(devices.getRow(1).values).toEqual([
+      undefined,
+      'id',
+      'name',
+      'branch',
+      'end',
+      'source',
+      'device.kind',
+      'device',
+      'library',
+    ]);
     const about = workbook.getWorksheet('About')!;
-    const aboutText = about.getSheetValues().flat().filter((v) => typeof v === 'string').join(' ');
+    const aboutText = about
+      .getSheetValues()
+      .flat()
+      .filter((v) => typeof v === 'string')
+      .join(' ');
     expect(aboutText).toContain('as JSON');
     expect(about.getCell('A2').value).toBe('format');
     expect(about.getCell('B2').value).toBe('emberline-model');
@@ -354,7 +481,14 @@ describe('workbook import errors name the sheet, the row as Excel shows it and t
       cables.getCell(4, columnNumber(cables, 'lengthM')).value = 'twelve';
     });
     expect(errorsOf(result)).toEqual([
-      { file: 'plant.xlsx', sheet: 'Cables', row: 4, column: 'lengthM (E)', where: 'Cables row 4, lengthM (E)', message: 'Enter a number' },
+      {
+        file: 'plant.xlsx',
+        sheet: 'Cables',
+        row: 4,
+        column: 'lengthM (E)',
+        where: 'Cables row 4, lengthM (E)',
+        message: 'Enter a number',
+      },
     ]);
   });
 
@@ -375,7 +509,9 @@ describe('workbook import errors name the sheet, the row as Excel shows it and t
       message: 'unknown bus "MCC-9"',
     });
     // MCC-2 and PNL-8 are now fed by nothing: the island is reported on MCC-2's row (4th bus, row 5).
-    expect(errors).toContainEqual(expect.objectContaining({ sheet: 'Buses', row: 5, column: 'id (A)', elementId: 'MCC-2' }));
+    expect(errors).toContainEqual(
+      expect.objectContaining({ sheet: 'Buses', row: 5, column: 'id (A)', elementId: 'MCC-2' }),
+    );
     expect(errors).toHaveLength(2);
   });
 
@@ -423,7 +559,12 @@ describe('workbook import errors name the sheet, the row as Excel shows it and t
       wb.getWorksheet('Motors')!.getCell('D1').value = 'horsepower';
     });
     expect(errorsOf(result)).toEqual([
-      expect.objectContaining({ sheet: 'Motors', row: 1, column: 'horsepower (D)', where: 'Motors row 1, horsepower (D)' }),
+      expect.objectContaining({
+        sheet: 'Motors',
+        row: 1,
+        column: 'horsepower (D)',
+        where: 'Motors row 1, horsepower (D)',
+      }),
     ]);
   });
 
@@ -453,7 +594,13 @@ describe('workbook import errors name the sheet, the row as Excel shows it and t
       cell.value = String(cell.value).replace('"ratingA":125', '"ratingA":-125');
     });
     expect(errorsOf(result)).toEqual([
-      expect.objectContaining({ sheet: 'Devices', row: 3, column: 'device (G)', path: 'devices[1].device.ratingA', elementId: 'F-TX2-P' }),
+      expect.objectContaining({
+        sheet: 'Devices',
+        row: 3,
+        column: 'device (G)',
+        path: 'devices[1].device.ratingA',
+        elementId: 'F-TX2-P',
+      }),
     ]);
   });
 
@@ -463,7 +610,12 @@ describe('workbook import errors name the sheet, the row as Excel shows it and t
       sources.getCell(2, columnNumber(sources, 'kva')).value = 2500;
     });
     expect(errorsOf(result)).toEqual([
-      expect.objectContaining({ sheet: 'Sources', row: 2, column: 'kva (H)', message: 'kva applies to kind generator only' }),
+      expect.objectContaining({
+        sheet: 'Sources',
+        row: 2,
+        column: 'kva (H)',
+        message: 'kva applies to kind generator only',
+      }),
     ]);
   });
 
@@ -476,7 +628,13 @@ describe('workbook import errors name the sheet, the row as Excel shows it and t
       wb.getWorksheet('About')!.getCell('B5').value = 55;
     });
     expect(errorsOf(frequency)).toEqual([
-      expect.objectContaining({ sheet: 'About', row: 5, column: 'value (B)', path: 'frequencyHz', where: 'About row 5, value (B)' }),
+      expect.objectContaining({
+        sheet: 'About',
+        row: 5,
+        column: 'value (B)',
+        path: 'frequencyHz',
+        where: 'About row 5, value (B)',
+      }),
     ]);
   });
 
@@ -501,7 +659,9 @@ describe('workbook import errors name the sheet, the row as Excel shows it and t
 
   it('a file that is not a workbook', async () => {
     const result = await importModel([{ name: 'plant.xlsx', buffer: Buffer.from('not a zip') }]);
-    expect(errorsOf(result)).toEqual([{ file: 'plant.xlsx', where: 'plant.xlsx', message: 'Not a readable .xlsx workbook' }]);
+    expect(errorsOf(result)).toEqual([
+      { file: 'plant.xlsx', where: 'plant.xlsx', message: 'Not a readable .xlsx workbook' },
+    ]);
   });
 });
 
@@ -517,13 +677,23 @@ describe('CSV import errors name the file, the line and the column', () => {
     const result = importModelCsv(files({ cables: text }));
     expect(result).toEqual({
       ok: false,
-      errors: [{ file: 'cables.csv', row: 1, column: 'lengthM', where: 'cables.csv line 1, lengthM', message: 'Missing required column "lengthM"' }],
+      errors: [
+        {
+          file: 'cables.csv',
+          row: 1,
+          column: 'lengthM',
+          where: 'cables.csv line 1, lengthM',
+          message: 'Missing required column "lengthM"',
+        },
+      ],
     });
   });
 
   it('a missing table is named by the file it needs', async () => {
     const result = await importModel(
-      files({}).filter((f) => f.name !== 'buses.csv').map((f) => ({ name: f.name, buffer: Buffer.from(f.text) })),
+      files({})
+        .filter((f) => f.name !== 'buses.csv')
+        .map((f) => ({ name: f.name, buffer: Buffer.from(f.text) })),
     );
     expect(errorsOf(result)).toEqual([
       { file: 'buses.csv', path: 'buses', where: 'buses.csv', message: 'Give at least one bus' },
@@ -532,10 +702,18 @@ describe('CSV import errors name the file, the line and the column', () => {
 
   it('line numbers count the lines of a quoted multi-line cell', async () => {
     // buses.csv: header on line 1, SWGR-A on line 2 with a two-line name (lines 2-3), SWGR-B on line 4.
-    const buses = csv.buses.replace('"Main switchgear, ""A"" side"', '"Main switchgear,\r\n""A"" side"').replace(',Generator switchgear,12.47,', ',Generator switchgear,twelve,');
+    const buses = csv.buses
+      .replace('"Main switchgear, ""A"" side"', '"Main switchgear,\r\n""A"" side"')
+      .replace(',Generator switchgear,12.47,', ',Generator switchgear,twelve,');
     const result = importModelCsv(files({ buses }));
     expect(result.ok ? [] : result.errors).toEqual([
-      expect.objectContaining({ file: 'buses.csv', row: 4, column: 'nominalKv (C)', where: 'buses.csv line 4, nominalKv (C)', message: 'Enter a number' }),
+      expect.objectContaining({
+        file: 'buses.csv',
+        row: 4,
+        column: 'nominalKv (C)',
+        where: 'buses.csv line 4, nominalKv (C)',
+        message: 'Enter a number',
+      }),
     ]);
   });
 
@@ -591,12 +769,26 @@ describe('JSON import', () => {
     const text = '{\n  "format": "emberline-model",\n  "version": 1,\n}\n';
     expect(importModelJson(text, 'plant.json')).toEqual({
       ok: false,
-      errors: [{ file: 'plant.json', line: 4, col: 1, where: 'plant.json line 4, column 1', message: 'JSON syntax error: Trailing comma before "}"' }],
+      errors: [
+        {
+          file: 'plant.json',
+          line: 4,
+          col: 1,
+          where: 'plant.json line 4, column 1',
+          message: 'JSON syntax error: Trailing comma before "}"',
+        },
+      ],
     });
     const missingComma = '{\n  "format": "emberline-model"\n  "version": 1\n}';
     expect(importModelJson(missingComma, 'plant.json')).toEqual({
       ok: false,
-      errors: [expect.objectContaining({ line: 3, col: 3, message: 'JSON syntax error: Expected "," or "}" after the property value, found """' })],
+      errors: [
+        expect.objectContaining({
+          line: 3,
+          col: 3,
+          message: 'JSON syntax error: Expected "," or "}" after the property value, found """',
+        }),
+      ],
     });
   });
 
@@ -607,7 +799,20 @@ describe('JSON import', () => {
       }),
       { numRuns: 200 },
     );
-    for (const bad of ['', '{', '[1,]', '{"a":1,}', '{"a" 1}', "{'a':1}", '[1 2]', '"\\x"', 'nul', '01', '1.', '{"a":1}}']) {
+    for (const bad of [
+      '',
+      '{',
+      '[1,]',
+      '{"a":1,}',
+      '{"a" 1}',
+      "{'a':1}",
+      '[1 2]',
+      '"\\x"',
+      'nul',
+      '01',
+      '1.',
+      '{"a":1}}',
+    ]) {
       expect(() => JSON.parse(bad)).toThrow();
       expect(findJsonSyntaxError(bad)).not.toBeNull();
     }
@@ -627,7 +832,10 @@ describe('JSON import', () => {
   });
 
   it('a JSON value that is not an object', () => {
-    expect(importModelJson('[1, 2]', 'm.json')).toEqual({ ok: false, errors: [expect.objectContaining({ file: 'm.json' })] });
+    expect(importModelJson('[1, 2]', 'm.json')).toEqual({
+      ok: false,
+      errors: [expect.objectContaining({ file: 'm.json' })],
+    });
   });
 
   it('the export is the pretty-printed model', () => {
@@ -639,15 +847,35 @@ describe('choosing the format', () => {
   it('by extension, else by MIME type; mixed or unsupported uploads are errors', async () => {
     const json = Buffer.from(exportModelJson(original));
     expect((await importModel([{ name: 'upload', mimeType: 'application/json', buffer: json }])).ok).toBe(true);
-    expect(errorsOf(await importModel([{ name: 'plant.txt', buffer: json }]))[0].message).toMatch(/^Unsupported file type/);
-    expect(errorsOf(await importModel([{ name: 'plant.json', buffer: json }, { name: 'buses.csv', buffer: json }]))).toHaveLength(1);
-    expect(errorsOf(await importModel([{ name: 'a.json', buffer: json }, { name: 'b.json', buffer: json }]))).toHaveLength(1);
+    expect(errorsOf(await importModel([{ name: 'plant.txt', buffer: json }]))[0].message).toMatch(
+      /^Unsupported file type/,
+    );
+    expect(
+      errorsOf(
+        await importModel([
+          { name: 'plant.json', buffer: json },
+          { name: 'buses.csv', buffer: json },
+        ]),
+      ),
+    ).toHaveLength(1);
+    expect(
+      errorsOf(
+        await importModel([
+          { name: 'a.json', buffer: json },
+          { name: 'b.json', buffer: json },
+        ]),
+      ),
+    ).toHaveLength(1);
     expect(errorsOf(await importModel([]))).toHaveLength(1);
   });
 
   it('CSV export needs the table', async () => {
     await expect(exportModel(original, 'csv')).rejects.toBeInstanceOf(EngineError);
     const file = await exportModel(original, 'csv', 'ties');
-    expect(file).toEqual({ filename: 'ties.csv', mimeType: 'text/csv; charset=utf-8', body: expect.stringMatching(/^\uFEFFid,name,fromBus,toBus,closed\r\n/) });
+    expect(file).toEqual({
+      filename: 'ties.csv',
+      mimeType: 'text/csv; charset=utf-8',
+      body: expect.stringMatching(/^\uFEFFid,name,fromBus,toBus,closed\r\n/),
+    });
   });
 });

@@ -6,7 +6,14 @@ import { modelSchema, parseModel, validateModel, type ModelInput, type ModelIssu
  * product's own format rules, not published values; no float is compared here.
  */
 
-const fuse = { kind: 'fuse' as const, ratingA: 400, totalClearing: [[800, 100], [4000, 0.1]] as [number, number][] };
+const fuse = {
+  kind: 'fuse' as const,
+  ratingA: 400,
+  totalClearing: [
+    [800, 100],
+    [4000, 0.1],
+  ] as [number, number][],
+};
 
 /** The DESIGN.md §4 example, completed with the buses it refers to. */
 function example(): ModelInput {
@@ -33,10 +40,28 @@ function example(): ModelInput {
     ],
     sources: [{ id: 'UTIL-1', bus: 'SWGR-A', kind: 'utility', shortCircuitMva: 250, xr: 10 }],
     transformers: [
-      { id: 'TX-1', fromBus: 'SWGR-A', toBus: 'SWBD-1', kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 },
+      {
+        id: 'TX-1',
+        fromBus: 'SWGR-A',
+        toBus: 'SWBD-1',
+        kva: 1500,
+        primaryKv: 12.47,
+        secondaryKv: 0.48,
+        impedancePct: 5.75,
+        xr: 6,
+      },
     ],
     cables: [
-      { id: 'FDR-3', fromBus: 'SWBD-1', toBus: 'MCC-2', lengthM: 45, sets: 2, size: '500kcmil', material: 'Cu', conduit: 'steel' },
+      {
+        id: 'FDR-3',
+        fromBus: 'SWBD-1',
+        toBus: 'MCC-2',
+        lengthM: 45,
+        sets: 2,
+        size: '500kcmil',
+        material: 'Cu',
+        conduit: 'steel',
+      },
     ],
     motors: [{ id: 'P-101', bus: 'MCC-2', hp: 150, kv: 0.46 }],
     devices: [{ id: 'CB-TX1-S', branch: 'TX-1', end: 'to', name: 'Secondary main', device: fuse }],
@@ -59,7 +84,10 @@ describe('the DESIGN.md §4 example', () => {
     const model = modelSchema.parse({
       format: 'emberline-model',
       version: 1,
-      buses: [{ id: 'A', nominalKv: 0.48 }, { id: 'B', nominalKv: 0.48 }],
+      buses: [
+        { id: 'A', nominalKv: 0.48 },
+        { id: 'B', nominalKv: 0.48 },
+      ],
       sources: [{ id: 'U', kind: 'utility', bus: 'A', shortCircuitKa: 30, xr: 5 }],
       cables: [{ id: 'C', fromBus: 'A', toBus: 'B', lengthM: 10, rOhmPerKm: 0.1, xOhmPerKm: 0.08 }],
       ties: [{ id: 'T', fromBus: 'A', toBus: 'B' }],
@@ -118,8 +146,17 @@ describe('non-physical values (zod)', () => {
 
   it('a utility needs exactly one of shortCircuitMva or shortCircuitKa', () => {
     const both = example();
-    both.sources![0] = { id: 'UTIL-1', bus: 'SWGR-A', kind: 'utility', shortCircuitMva: 250, shortCircuitKa: 11, xr: 10 };
-    expect(issuesOf(both)).toEqual([expect.objectContaining({ path: 'sources[0].shortCircuitMva', elementId: 'UTIL-1' })]);
+    both.sources![0] = {
+      id: 'UTIL-1',
+      bus: 'SWGR-A',
+      kind: 'utility',
+      shortCircuitMva: 250,
+      shortCircuitKa: 11,
+      xr: 10,
+    };
+    expect(issuesOf(both)).toEqual([
+      expect.objectContaining({ path: 'sources[0].shortCircuitMva', elementId: 'UTIL-1' }),
+    ]);
     const neither = example();
     neither.sources![0] = { id: 'UTIL-1', bus: 'SWGR-A', kind: 'utility', xr: 10 };
     expect(issuesOf(neither)).toEqual([expect.objectContaining({ path: 'sources[0].shortCircuitMva' })]);
@@ -128,10 +165,29 @@ describe('non-physical values (zod)', () => {
   it('a cable needs table data or explicit R and X, and a known conductor size', () => {
     const input = example();
     input.cables![0] = { id: 'FDR-3', fromBus: 'SWBD-1', toBus: 'MCC-2', lengthM: 45, size: '500', material: 'Cu' };
-    expect(issuesOf(input)).toEqual([expect.objectContaining({ path: 'cables[0].conduit', elementId: 'FDR-3', field: 'conduit' })]);
-    input.cables![0] = { id: 'FDR-3', fromBus: 'SWBD-1', toBus: 'MCC-2', lengthM: 45, size: '3/8', material: 'Cu', conduit: 'pvc' };
+    expect(issuesOf(input)).toEqual([
+      expect.objectContaining({ path: 'cables[0].conduit', elementId: 'FDR-3', field: 'conduit' }),
+    ]);
+    input.cables![0] = {
+      id: 'FDR-3',
+      fromBus: 'SWBD-1',
+      toBus: 'MCC-2',
+      lengthM: 45,
+      size: '3/8',
+      material: 'Cu',
+      conduit: 'pvc',
+    };
     expect(issuesOf(input)).toEqual([expect.objectContaining({ path: 'cables[0].size', field: 'size' })]);
-    input.cables![0] = { id: 'FDR-3', fromBus: 'SWBD-1', toBus: 'MCC-2', lengthM: 45, size: '2', material: 'Cu', conduit: 'pvc', rOhmPerKm: 1 };
+    input.cables![0] = {
+      id: 'FDR-3',
+      fromBus: 'SWBD-1',
+      toBus: 'MCC-2',
+      lengthM: 45,
+      size: '2',
+      material: 'Cu',
+      conduit: 'pvc',
+      rOhmPerKm: 1,
+    };
     expect(issuesOf(input)).toEqual([expect.objectContaining({ path: 'cables[0].rOhmPerKm' })]);
   });
 
@@ -158,7 +214,13 @@ describe('semantic checks (validateModel)', () => {
       { id: 'FDR-9', fromBus: 'SWBD-1', toBus: 'MCC-9', lengthM: 10, size: '2', material: 'Cu', conduit: 'pvc' },
     );
     expect(issuesOf(input)).toEqual([
-      { code: 'unknown-reference', path: 'cables[2].toBus', elementId: 'FDR-9', field: 'toBus', message: 'unknown bus "MCC-9"' },
+      {
+        code: 'unknown-reference',
+        path: 'cables[2].toBus',
+        elementId: 'FDR-9',
+        field: 'toBus',
+        message: 'unknown bus "MCC-9"',
+      },
     ]);
   });
 
@@ -167,7 +229,9 @@ describe('semantic checks (validateModel)', () => {
     input.sources![0] = { ...input.sources![0], bus: 'NOWHERE' };
     input.motors![0] = { ...input.motors![0], bus: 'NOWHERE-2' };
     input.transformers![0] = { ...input.transformers![0], fromBus: 'NOWHERE-3' };
-    const paths = issuesOf(input).filter((i) => i.code === 'unknown-reference').map((i) => i.path);
+    const paths = issuesOf(input)
+      .filter((i) => i.code === 'unknown-reference')
+      .map((i) => i.path);
     expect(paths).toEqual(expect.arrayContaining(['sources[0].bus', 'motors[0].bus', 'transformers[0].fromBus']));
   });
 
@@ -188,7 +252,15 @@ describe('semantic checks (validateModel)', () => {
   it('an island without a source: the error names its buses', () => {
     const input = example();
     input.buses.push({ id: 'PNL-7', nominalKv: 0.208 }, { id: 'PNL-8', nominalKv: 0.208 });
-    input.cables!.push({ id: 'FDR-7', fromBus: 'PNL-7', toBus: 'PNL-8', lengthM: 10, size: '2', material: 'Cu', conduit: 'pvc' });
+    input.cables!.push({
+      id: 'FDR-7',
+      fromBus: 'PNL-7',
+      toBus: 'PNL-8',
+      lengthM: 10,
+      size: '2',
+      material: 'Cu',
+      conduit: 'pvc',
+    });
     const islands = issuesOf(input).filter((i) => i.code === 'island');
     expect(islands).toHaveLength(1);
     expect(islands[0].elementIds).toEqual(['PNL-7', 'PNL-8']);
@@ -222,7 +294,9 @@ describe('semantic checks (validateModel)', () => {
       { id: 'TIE-2', fromBus: 'SWBD-2', toBus: 'SWBD-3' },
       { id: 'TIE-3', fromBus: 'SWBD-3', toBus: 'SWBD-1' },
     ];
-    expect(issuesOf(input)).toEqual([expect.objectContaining({ code: 'tie-loop', path: 'ties[2].closed', elementId: 'TIE-3' })]);
+    expect(issuesOf(input)).toEqual([
+      expect.objectContaining({ code: 'tie-loop', path: 'ties[2].closed', elementId: 'TIE-3' }),
+    ]);
   });
 
   it('transformer ratings must match the buses within 5 %', () => {
@@ -232,8 +306,18 @@ describe('semantic checks (validateModel)', () => {
     input.transformers![0] = { ...input.transformers![0], primaryKv: 4.16, secondaryKv: 0.208 };
     const issues = issuesOf(input);
     expect(issues).toEqual([
-      expect.objectContaining({ code: 'voltage-mismatch', path: 'transformers[0].primaryKv', elementId: 'TX-1', field: 'primaryKv' }),
-      expect.objectContaining({ code: 'voltage-mismatch', path: 'transformers[0].secondaryKv', elementId: 'TX-1', field: 'secondaryKv' }),
+      expect.objectContaining({
+        code: 'voltage-mismatch',
+        path: 'transformers[0].primaryKv',
+        elementId: 'TX-1',
+        field: 'primaryKv',
+      }),
+      expect.objectContaining({
+        code: 'voltage-mismatch',
+        path: 'transformers[0].secondaryKv',
+        elementId: 'TX-1',
+        field: 'secondaryKv',
+      }),
     ]);
     expect(issues[0].message).toContain('SWGR-A');
   });
@@ -241,7 +325,15 @@ describe('semantic checks (validateModel)', () => {
   it('a cable or tie joining buses of different voltages', () => {
     const input = example();
     input.buses.push({ id: 'PNL-1', nominalKv: 0.208 });
-    input.cables!.push({ id: 'FDR-8', fromBus: 'MCC-2', toBus: 'PNL-1', lengthM: 10, size: '2', material: 'Cu', conduit: 'pvc' });
+    input.cables!.push({
+      id: 'FDR-8',
+      fromBus: 'MCC-2',
+      toBus: 'PNL-1',
+      lengthM: 10,
+      size: '2',
+      material: 'Cu',
+      conduit: 'pvc',
+    });
     input.ties = [{ id: 'TIE-9', fromBus: 'SWBD-1', toBus: 'PNL-1' }];
     expect(issuesOf(input)).toEqual(
       expect.arrayContaining([
@@ -253,14 +345,32 @@ describe('semantic checks (validateModel)', () => {
 
   it('a branch with both ends on one bus', () => {
     const input = example();
-    input.cables!.push({ id: 'LOOP', fromBus: 'MCC-2', toBus: 'MCC-2', lengthM: 10, size: '2', material: 'Cu', conduit: 'pvc' });
-    expect(issuesOf(input)).toEqual([expect.objectContaining({ code: 'self-loop', path: 'cables[1].toBus', elementId: 'LOOP' })]);
+    input.cables!.push({
+      id: 'LOOP',
+      fromBus: 'MCC-2',
+      toBus: 'MCC-2',
+      lengthM: 10,
+      size: '2',
+      material: 'Cu',
+      conduit: 'pvc',
+    });
+    expect(issuesOf(input)).toEqual([
+      expect.objectContaining({ code: 'self-loop', path: 'cables[1].toBus', elementId: 'LOOP' }),
+    ]);
   });
 
   it('motor and generator ratings far from the bus voltage', () => {
     const input = example();
     input.motors![0] = { ...input.motors![0], kv: 4.0 };
-    input.sources!.push({ id: 'GEN-1', kind: 'generator', bus: 'SWBD-1', kva: 500, kv: 0.208, subtransientPct: 15, xr: 20 });
+    input.sources!.push({
+      id: 'GEN-1',
+      kind: 'generator',
+      bus: 'SWBD-1',
+      kva: 500,
+      kv: 0.208,
+      subtransientPct: 15,
+      xr: 20,
+    });
     const paths = issuesOf(input).map((i) => i.path);
     expect(paths).toEqual(expect.arrayContaining(['motors[0].kv', 'sources[1].kv']));
   });
@@ -273,8 +383,18 @@ describe('semantic checks (validateModel)', () => {
       { id: 'CB-M', source: 'P-101', device: fuse },
     );
     expect(issuesOf(input)).toEqual([
-      expect.objectContaining({ code: 'unknown-reference', path: 'devices[1].branch', elementId: 'CB-X', field: 'branch' }),
-      expect.objectContaining({ code: 'unknown-reference', path: 'devices[2].source', elementId: 'CB-Y', field: 'source' }),
+      expect.objectContaining({
+        code: 'unknown-reference',
+        path: 'devices[1].branch',
+        elementId: 'CB-X',
+        field: 'branch',
+      }),
+      expect.objectContaining({
+        code: 'unknown-reference',
+        path: 'devices[2].source',
+        elementId: 'CB-Y',
+        field: 'source',
+      }),
     ]);
   });
 

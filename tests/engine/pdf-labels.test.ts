@@ -57,7 +57,8 @@ const warning: LabelContent = {
   studyDate: '2025-03-14',
   reviewByDate: '2030-03-14',
   approvedBy: 'Dana Okafor, licence PE-40921 (Oregon)',
-  caution: 'Values from an engineering study (IEEE 1584-2018). De-energize where possible; follow the electrical safety program.',
+  caution:
+    'Values from an engineering study (IEEE 1584-2018). De-energize where possible; follow the electrical safety program.',
 };
 
 const danger: LabelContent = {
@@ -116,7 +117,8 @@ async function pageOperators(bytes: Uint8Array, index = 0): Promise<string> {
 /** "#C8102E" → a pattern of the PDF fill operator for it: "0.78\d* 0.06\d* 0.18\d* rg". */
 function fillPattern(hex: string): RegExp {
   const parts = [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16) / 255);
-  const num = (v: number) => `${(Math.floor(v * 100) / 100).toFixed(2).replace(/0+$/, '').replace(/\.$/, '').replace('.', '\\.')}\\d*`;
+  const num = (v: number) =>
+    `${(Math.floor(v * 100) / 100).toFixed(2).replace(/0+$/, '').replace(/\.$/, '').replace('.', '\\.')}\\d*`;
   return new RegExp(parts.map((p) => (p === 0 || p === 1 ? `${p}` : num(p))).join(' ') + ' rg');
 }
 
@@ -178,7 +180,10 @@ describe('fitText (labels and report keep text inside its box; common practice, 
     const font = f.text;
     fc.assert(
       fc.property(
-        fc.string({ unit: fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz ABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789-,.()/—²'.split('')), maxLength: 300 }),
+        fc.string({
+          unit: fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz ABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789-,.()/—²'.split('')),
+          maxLength: 300,
+        }),
         fc.double({ min: 20, max: 300, noNaN: true }),
         fc.integer({ min: 1, max: 4 }),
         (text, maxWidth, maxLines) => {
@@ -380,7 +385,10 @@ describe('renderLabels', () => {
   });
 
   it('renders text the fonts cannot draw without failing (replaced by "?")', async () => {
-    const bytes = await renderLabels([{ content: { ...warning, equipmentName: '配電盤 Panel 3' }, checkUrl: url('GLYPH00000000001') }], '4x4');
+    const bytes = await renderLabels(
+      [{ content: { ...warning, equipmentName: '配電盤 Panel 3' }, checkUrl: url('GLYPH00000000001') }],
+      '4x4',
+    );
     const { text } = await pdfText(bytes);
     expect(text).toContain('??? Panel 3');
   });

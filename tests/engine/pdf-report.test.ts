@@ -16,7 +16,14 @@ import type { StudyResults } from '../../shared/schemas/studyResults';
 import { runStudy } from '../../server/engine/study';
 import { bandCurves } from '../../server/engine/trip';
 import { formatBoundary, formatCalPerCm2 } from '../../server/pdf/format';
-import { METHOD_HEADING, PRELIMINARY_BANNER, deviceSettings, renderStudyReport, tracePlotData, type StudyReportInput } from '../../server/pdf/studyReport';
+import {
+  METHOD_HEADING,
+  PRELIMINARY_BANNER,
+  deviceSettings,
+  renderStudyReport,
+  tracePlotData,
+  type StudyReportInput,
+} from '../../server/pdf/studyReport';
 import { clipSegment, clippedPath, decadeRange } from '../../server/pdf/tccPlot';
 import { smallModel } from '../fixtures/smallModel';
 import { expectClose } from '../helpers/approx';
@@ -52,14 +59,25 @@ const approvedStudy: StudyDto = {
   supersededAt: null,
   pastReview: false,
   stale: false,
-  latestRun: { id: 'run-1', status: 'done', progress: 1, message: '', modelVersion: 7, startedAt: '2025-03-01T09:00:00Z', finishedAt: '2025-03-01T09:00:02Z' },
+  latestRun: {
+    id: 'run-1',
+    status: 'done',
+    progress: 1,
+    message: '',
+    modelVersion: 7,
+    startedAt: '2025-03-01T09:00:00Z',
+    finishedAt: '2025-03-01T09:00:02Z',
+  },
   resultsCurrent: true,
   createdAt: '2025-01-20T08:00:00Z',
 };
 
 const draftStudy: StudyDto = { ...approvedStudy, status: 'draft', approval: null, revision: 4 };
 
-function input(study: StudyDto, opts: { maxArcDurationMs?: number } = {}): StudyReportInput & { model: Model; results: StudyResults } {
+function input(
+  study: StudyDto,
+  opts: { maxArcDurationMs?: number } = {},
+): StudyReportInput & { model: Model; results: StudyResults } {
   const model = modelSchema.parse(smallModel());
   const results = runStudy(model, opts);
   return {
@@ -158,8 +176,19 @@ describe('renderStudyReport', () => {
   it('continues long tables on the next page with the header repeated, and reports buses in error', async () => {
     const inp = input(approvedStudy);
     const [first] = inp.results.buses;
-    const many = Array.from({ length: 70 }, (_, i) => ({ ...first, busId: `BUS-${String(i + 1).padStart(3, '0')}`, busName: `Bus ${i + 1}` }));
-    many.push({ ...first, busId: 'BUS-ERR', busName: 'Broken bus', status: 'error', error: { code: 'OUT_OF_RANGE', message: 'Gap outside the model range' }, cases: [] });
+    const many = Array.from({ length: 70 }, (_, i) => ({
+      ...first,
+      busId: `BUS-${String(i + 1).padStart(3, '0')}`,
+      busName: `Bus ${i + 1}`,
+    }));
+    many.push({
+      ...first,
+      busId: 'BUS-ERR',
+      busName: 'Broken bus',
+      status: 'error',
+      error: { code: 'OUT_OF_RANGE', message: 'Gap outside the model range' },
+      cases: [],
+    });
     const bytes = await renderStudyReport({ ...inp, results: { ...inp.results, buses: many } });
     const { text } = pdfText(bytes);
     expect(text).toContain('(continued)');
@@ -197,7 +226,10 @@ describe('clearing-trace plot data', () => {
     expectClose(point.timeS, relay.clearingTimeS as number, 1e-12);
     // Vertical lines at the full and reduced arcing currents of the governing side.
     const currents = plot!.markers.map((m) => m.currentA).sort((a, b) => a - b);
-    const expected = bus!.cases.filter((c) => c.location === 'line-side').map((c) => c.arcingCurrentKa * 1000).sort((a, b) => a - b);
+    const expected = bus!.cases
+      .filter((c) => c.location === 'line-side')
+      .map((c) => c.arcingCurrentKa * 1000)
+      .sort((a, b) => a - b);
     expect(currents).toHaveLength(2);
     currents.forEach((c, i) => expectClose(c, expected[i], 1e-12));
     // The plotted range holds both arcing currents and the bolted fault current.
@@ -235,7 +267,9 @@ describe('clearing-trace plot data', () => {
   it('names the key settings of each device kind', () => {
     const m = modelSchema.parse(smallModel());
     const byId = (id: string) => m.devices.find((d) => d.id === id)!.device;
-    expect(deviceSettings(byId('R-TX'))).toBe('IEEE-VI, pickup 100 A, time dial 1, instantaneous 3000 A, breaker 5 cycles');
+    expect(deviceSettings(byId('R-TX'))).toBe(
+      'IEEE-VI, pickup 100 A, time dial 1, instantaneous 3000 A, breaker 5 cycles',
+    );
     expect(deviceSettings(byId('CB-MAIN'))).toContain('ST 4× / 0.3 s flat');
     expect(deviceSettings(byId('CB-MCC'))).toContain('instantaneous 10× ±20 %');
     expect(deviceSettings(byId('F-PNL-FU'))).toBe('200 A, total-clearing curve, 4 points');

@@ -22,7 +22,15 @@ import {
   type CurvePoint,
   type Px,
 } from '../../components/plot/scales';
-import { boxesOverlap, densify, monoTextWidth, nearestPointOfBox, placeLabel, stackLineLabels, type Box } from '../../components/plot/labels';
+import {
+  boxesOverlap,
+  densify,
+  monoTextWidth,
+  nearestPointOfBox,
+  placeLabel,
+  stackLineLabels,
+  type Box,
+} from '../../components/plot/labels';
 
 // Math of the log-log time-current plot (client side). These are geometry and formatting checks; the log mapping
 // and log-log interpolation are plain algebra (a straight line on log-log axes is t = t0·(x/x0)^s). Choices of
@@ -97,10 +105,14 @@ describe('worked examples: log scale', () => {
 
   it('is monotonic: a larger value never maps left of a smaller one (property)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 1e-4, max: 1e7, noNaN: true }), fc.double({ min: 1e-4, max: 1e7, noNaN: true }), (a, b) => {
-        const [lo, hi] = a < b ? [a, b] : [b, a];
-        return xs.toPx(lo) <= xs.toPx(hi);
-      }),
+      fc.property(
+        fc.double({ min: 1e-4, max: 1e7, noNaN: true }),
+        fc.double({ min: 1e-4, max: 1e7, noNaN: true }),
+        (a, b) => {
+          const [lo, hi] = a < b ? [a, b] : [b, a];
+          return xs.toPx(lo) <= xs.toPx(hi);
+        },
+      ),
     );
   });
 });
@@ -176,8 +188,23 @@ describe('labels and readout text', () => {
   });
 
   it('labels the time axis 0.01 … 1000 and the ampere axis 10 … 100k', () => {
-    expect([0.001, 0.01, 0.1, 1, 10, 100, 1000].map(formatPlain)).toEqual(['0.001', '0.01', '0.1', '1', '10', '100', '1000']);
-    expect([10, 100, 1000, 10_000, 100_000, 1e6].map((v) => formatCurrentTick(v, 'A'))).toEqual(['10', '100', '1k', '10k', '100k', '1M']);
+    expect([0.001, 0.01, 0.1, 1, 10, 100, 1000].map(formatPlain)).toEqual([
+      '0.001',
+      '0.01',
+      '0.1',
+      '1',
+      '10',
+      '100',
+      '1000',
+    ]);
+    expect([10, 100, 1000, 10_000, 100_000, 1e6].map((v) => formatCurrentTick(v, 'A'))).toEqual([
+      '10',
+      '100',
+      '1k',
+      '10k',
+      '100k',
+      '1M',
+    ]);
     expect([0.1, 1, 10, 100, 1000].map((v) => formatCurrentTick(v, '×In'))).toEqual(['0.1', '1', '10', '100', '1000']);
     expect(formatCompact(2500)).toBe('2.5k');
     expect(formatCompact(0)).toBe('');

@@ -80,10 +80,28 @@ describe('worked example: point-to-point method, 300 kVA, 2 %Z, 208 V', () => {
       ],
       sources: [{ id: 'UTIL', kind: 'utility', bus: 'PRI', shortCircuitMva: INFINITE_MVA, xr: 10 }],
       transformers: [
-        { id: 'TX', fromBus: 'PRI', toBus: 'SEC', kva: 300, primaryKv: 12.47, secondaryKv: 0.208, impedancePct: 1.8, xr },
+        {
+          id: 'TX',
+          fromBus: 'PRI',
+          toBus: 'SEC',
+          kva: 300,
+          primaryKv: 12.47,
+          secondaryKv: 0.208,
+          impedancePct: 1.8,
+          xr,
+        },
       ],
       cables: [
-        { id: 'RUN', fromBus: 'SEC', toBus: 'F1', lengthM: 20 * 0.3048, sets: 2, size: '500kcmil', material: 'Cu', conduit: 'steel' },
+        {
+          id: 'RUN',
+          fromBus: 'SEC',
+          toBus: 'F1',
+          lengthM: 20 * 0.3048,
+          sets: 2,
+          size: '500kcmil',
+          material: 'Cu',
+          conduit: 'steel',
+        },
       ],
     });
 
@@ -127,10 +145,28 @@ describe('worked example: per-unit method (COMPUTED in the reference, not publis
     ],
     sources: [{ id: 'UTIL', kind: 'utility', bus: 'SWGR', shortCircuitMva: 500, xr: 15 }],
     transformers: [
-      { id: 'TX', fromBus: 'SWGR', toBus: 'SEC', kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 },
+      {
+        id: 'TX',
+        fromBus: 'SWGR',
+        toBus: 'SEC',
+        kva: 1500,
+        primaryKv: 12.47,
+        secondaryKv: 0.48,
+        impedancePct: 5.75,
+        xr: 6,
+      },
     ],
     cables: [
-      { id: 'FDR', fromBus: 'SEC', toBus: 'END', lengthM: 100 * 0.3048, sets: 4, size: '500', material: 'Cu', conduit: 'steel' },
+      {
+        id: 'FDR',
+        fromBus: 'SEC',
+        toBus: 'END',
+        lengthM: 100 * 0.3048,
+        sets: 4,
+        size: '500',
+        material: 'Cu',
+        conduit: 'steel',
+      },
     ],
   });
 

@@ -44,14 +44,28 @@ describe('worked example: per-unit element values (COMPUTED in the reference)', 
 
   it('transformer 1500 kVA, 5.75 %Z, X/R 6: Zpu = 0.006302 + j0.037812', () => {
     // Reference per_unit_example: transformer_Zpu = (%Z/100)·(MVA_base/MVA_tx), split by X/R.
-    const z = transformerImpedancePu({ ratingKva: 1500, impedancePct: 5.75, xr: 6, ratedSecondaryKv: 0.48, baseSecondaryKv: 0.48, baseMva: 1 });
+    const z = transformerImpedancePu({
+      ratingKva: 1500,
+      impedancePct: 5.75,
+      xr: 6,
+      ratedSecondaryKv: 0.48,
+      baseSecondaryKv: 0.48,
+      baseMva: 1,
+    });
     expectClose(z.re, 0.006302, 1e-4);
     expectClose(z.im, 0.037812, 1e-4);
   });
 
   it('cable 100 ft, 4 × 500 kcmil Cu in steel conduit: Zpu = 0.003147 + j0.005208', () => {
     // Reference per_unit_example: Z_ohm = (R + jX) per 1000 ft × L/1000 / n (NEC Chapter 9 Table 9: R 0.029, X 0.048).
-    const zOhm = cableImpedanceFromTableOhm({ size: '500kcmil', material: 'Cu', conduit: 'steel', lengthM: 30.48, sets: 4, frequencyHz: 60 });
+    const zOhm = cableImpedanceFromTableOhm({
+      size: '500kcmil',
+      material: 'Cu',
+      conduit: 'steel',
+      lengthM: 30.48,
+      sets: 4,
+      frequencyHz: 60,
+    });
     expectClose(zOhm.re, (0.029 * 0.1) / 4, 1e-9);
     expectClose(zOhm.im, (0.048 * 0.1) / 4, 1e-9);
     const z = ohmsToPu(zOhm, 0.48, 1);
@@ -112,8 +126,22 @@ describe('NEC Chapter 9 Table 9 (copied into server/engine/data/nec-ch9-table9.j
 
   it('n parallel sets divide R and X by n; length in metres converted to feet', () => {
     // NEC Chapter 9 Table 9 note (reference): for n parallel sets per phase divide R and X by n. 1 ft = 0.3048 m.
-    const one = cableImpedanceFromTableOhm({ size: '250', material: 'Cu', conduit: 'pvc', lengthM: 100, sets: 1, frequencyHz: 60 });
-    const three = cableImpedanceFromTableOhm({ size: '250', material: 'Cu', conduit: 'pvc', lengthM: 100, sets: 3, frequencyHz: 60 });
+    const one = cableImpedanceFromTableOhm({
+      size: '250',
+      material: 'Cu',
+      conduit: 'pvc',
+      lengthM: 100,
+      sets: 1,
+      frequencyHz: 60,
+    });
+    const three = cableImpedanceFromTableOhm({
+      size: '250',
+      material: 'Cu',
+      conduit: 'pvc',
+      lengthM: 100,
+      sets: 3,
+      frequencyHz: 60,
+    });
     expectClose(three.re, one.re / 3, 1e-12);
     expectClose(three.im, one.im / 3, 1e-12);
     expectClose(one.re, (0.052 * 100) / 0.3048 / 1000, 1e-12);
@@ -121,8 +149,22 @@ describe('NEC Chapter 9 Table 9 (copied into server/engine/data/nec-ch9-table9.j
 
   it('at 50 Hz the reactance is 50/60 of the table value, the resistance unchanged', () => {
     // X = 2πfL: the Table 9 reactances are stated for 60 Hz.
-    const z60 = cableImpedanceFromTableOhm({ size: '4/0', material: 'Cu', conduit: 'steel', lengthM: 50, sets: 1, frequencyHz: 60 });
-    const z50 = cableImpedanceFromTableOhm({ size: '4/0', material: 'Cu', conduit: 'steel', lengthM: 50, sets: 1, frequencyHz: 50 });
+    const z60 = cableImpedanceFromTableOhm({
+      size: '4/0',
+      material: 'Cu',
+      conduit: 'steel',
+      lengthM: 50,
+      sets: 1,
+      frequencyHz: 60,
+    });
+    const z50 = cableImpedanceFromTableOhm({
+      size: '4/0',
+      material: 'Cu',
+      conduit: 'steel',
+      lengthM: 50,
+      sets: 1,
+      frequencyHz: 50,
+    });
     expectClose(z50.im, (z60.im * 50) / 60, 1e-12);
     expectClose(z50.re, z60.re, 1e-12);
   });
@@ -158,7 +200,14 @@ describe('per-unit formulas', () => {
 
   it('generator: X = X"d on the machine rating, R = X/(X/R)', () => {
     // IEEE 141 per-unit practice, change of base to 100 MVA.
-    const z = generatorImpedancePu({ ratingKva: 2000, ratedKv: 0.48, subtransientPct: 15, xr: 20, baseMva: 100, baseKv: 0.48 });
+    const z = generatorImpedancePu({
+      ratingKva: 2000,
+      ratedKv: 0.48,
+      subtransientPct: 15,
+      xr: 20,
+      baseMva: 100,
+      baseKv: 0.48,
+    });
     expectClose(z.im, 0.15 * (100 / 2), 1e-12);
     expectClose(z.im / z.re, 20, 1e-12);
   });
@@ -188,7 +237,15 @@ describe('induction motors (IEEE 551-2006 Table 9-1 practice)', () => {
 
   it('motor impedance on the system base: X = multiplier·X"·(MVAbase/MVAmotor)·(kVm/kVbase)²', () => {
     // IEEE 551 practice with the IEEE 141 change of base.
-    const z = motorImpedancePu({ ratingKva: 200, ratedKv: 0.46, subtransientPu: 0.167, multiplier: 1.2, xr: 8, baseMva: 100, baseKv: 0.48 });
+    const z = motorImpedancePu({
+      ratingKva: 200,
+      ratedKv: 0.46,
+      subtransientPu: 0.167,
+      multiplier: 1.2,
+      xr: 8,
+      baseMva: 100,
+      baseKv: 0.48,
+    });
     expectClose(z.im, 1.2 * 0.167 * (100 / 0.2) * (0.46 / 0.48) ** 2, 1e-12);
     expectClose(z.im / z.re, 8, 1e-12);
   });
@@ -210,9 +267,18 @@ describe('non-physical element values', () => {
   it('throw EngineError naming the field', () => {
     expect(() => utilityImpedancePu(0, 10, 100)).toThrow(EngineError);
     expect(() => utilityImpedancePu(500, Number.NaN, 100)).toThrow(/xr/);
-    expect(() => cableImpedanceFromPerKmOhm({ rOhmPerKm: 0.2, xOhmPerKm: 0.1, lengthM: -5, sets: 1 })).toThrow(/lengthM/);
+    expect(() => cableImpedanceFromPerKmOhm({ rOhmPerKm: 0.2, xOhmPerKm: 0.1, lengthM: -5, sets: 1 })).toThrow(
+      /lengthM/,
+    );
     expect(() =>
-      transformerImpedancePu({ ratingKva: Infinity, impedancePct: 5, xr: 5, ratedSecondaryKv: 0.48, baseSecondaryKv: 0.48, baseMva: 100 }),
+      transformerImpedancePu({
+        ratingKva: Infinity,
+        impedancePct: 5,
+        xr: 5,
+        ratedSecondaryKv: 0.48,
+        baseSecondaryKv: 0.48,
+        baseMva: 100,
+      }),
     ).toThrow(/kva/);
   });
 });

@@ -77,7 +77,16 @@ function unitSubstation(extra: Partial<Body> = {}): Model {
     buses: [{ id: 'PRI', nominalKv: 12.47 }, { id: 'MCC', nominalKv: 0.48 }, ...(extra.buses ?? [])],
     sources: [{ id: 'UTIL', kind: 'utility', bus: 'PRI', shortCircuitMva: 250, xr: 10 }, ...(extra.sources ?? [])],
     transformers: [
-      { id: 'TX', fromBus: 'PRI', toBus: 'MCC', kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 },
+      {
+        id: 'TX',
+        fromBus: 'PRI',
+        toBus: 'MCC',
+        kva: 1500,
+        primaryKv: 12.47,
+        secondaryKv: 0.48,
+        impedancePct: 5.75,
+        xr: 6,
+      },
       ...(extra.transformers ?? []),
     ],
     cables: extra.cables ?? [],
@@ -88,7 +97,14 @@ function unitSubstation(extra: Partial<Body> = {}): Model {
 
 describe('parallel feeders', () => {
   const feeder = (id: string, sets = 1) => ({
-    id, fromBus: 'MCC', toBus: 'LOAD', lengthM: 60, sets, size: '250', material: 'Cu' as const, conduit: 'steel' as const,
+    id,
+    fromBus: 'MCC',
+    toBus: 'LOAD',
+    lengthM: 60,
+    sets,
+    size: '250',
+    material: 'Cu' as const,
+    conduit: 'steel' as const,
   });
   const withFeeders = (cables: ReturnType<typeof feeder>[]) =>
     unitSubstation({ buses: [{ id: 'LOAD', nominalKv: 0.48 }], cables });
@@ -148,7 +164,9 @@ describe('induction motor contribution (IEEE 551-2006 Table 9-1 practice)', () =
 
   it('a 30 hp motor on a 480 V system at 1.67 X"', () => {
     // IEEE 551-2006 Table 9-1: LV motors below 50 hp at 1.67 X" (≈ 3.6 × rated current).
-    const fault = createShortCircuitSolver(unitSubstation({ motors: [{ id: 'M2', bus: 'MCC', hp: 30, kv: 0.48, xr: 1e6 }] })).faultAt('MCC');
+    const fault = createShortCircuitSolver(
+      unitSubstation({ motors: [{ id: 'M2', bus: 'MCC', hp: 30, kv: 0.48, xr: 1e6 }] }),
+    ).faultAt('MCC');
     expectClose(injection(fault, 'M2').currentA / ratedA(30, 0.48), 1 / (1.67 * 0.167), 1e-6);
     expectClose(injection(fault, 'M2').currentA / ratedA(30, 0.48), 3.6, 0.01); // "~3.6 × rated" as printed
   });
@@ -184,7 +202,9 @@ describe('induction motor contribution (IEEE 551-2006 Table 9-1 practice)', () =
 
   it('warns when kVA is taken from hp and when X/R is typical', () => {
     const result = shortCircuit(unitSubstation({ motors: [{ id: 'M6', bus: 'MCC', hp: 75, kv: 0.48 }] }));
-    expect(result.warnings.map((w) => w.code)).toEqual(expect.arrayContaining(['motor-kva-from-hp', 'typical-motor-xr']));
+    expect(result.warnings.map((w) => w.code)).toEqual(
+      expect.arrayContaining(['motor-kva-from-hp', 'typical-motor-xr']),
+    );
     expect(result.warnings.find((w) => w.code === 'typical-motor-xr')!.message).toContain('M6');
   });
 });
@@ -221,9 +241,23 @@ describe('transformers: currents scale through the voltage ratio', () => {
   it('with an off-nominal tap the currents scale by the rated ratio', () => {
     // Tap model: ideal t:1 transformer; I_p/I_s = kVs,rated/kVp,rated (ampere-turn balance on the rated turns).
     const tapped = makeModel({
-      buses: [{ id: 'PRI', nominalKv: 12.47 }, { id: 'SEC', nominalKv: 0.48 }],
+      buses: [
+        { id: 'PRI', nominalKv: 12.47 },
+        { id: 'SEC', nominalKv: 0.48 },
+      ],
       sources: [{ id: 'UTIL', kind: 'utility', bus: 'PRI', shortCircuitMva: 250, xr: 10 }],
-      transformers: [{ id: 'TX', fromBus: 'PRI', toBus: 'SEC', kva: 1000, primaryKv: 12.16, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 }],
+      transformers: [
+        {
+          id: 'TX',
+          fromBus: 'PRI',
+          toBus: 'SEC',
+          kva: 1000,
+          primaryKv: 12.16,
+          secondaryKv: 0.48,
+          impedancePct: 5.75,
+          xr: 6,
+        },
+      ],
     });
     const tx = branch(createShortCircuitSolver(tapped).faultAt('SEC'), 'TX');
     expectClose(tx.fromCurrentA / tx.toCurrentA, 0.48 / 12.16, 1e-9);
@@ -263,9 +297,22 @@ describe('sources', () => {
   it('a missing transformer X/R takes the typical value by size, with a warning naming the transformer', () => {
     // Typical X/R: from memory, unverified (reference "typical_values"); the warning says so.
     const model = makeModel({
-      buses: [{ id: 'PRI', nominalKv: 12.47 }, { id: 'SEC', nominalKv: 0.48 }],
+      buses: [
+        { id: 'PRI', nominalKv: 12.47 },
+        { id: 'SEC', nominalKv: 0.48 },
+      ],
       sources: [{ id: 'UTIL', kind: 'utility', bus: 'PRI', shortCircuitMva: INFINITE_MVA, xr: 10 }],
-      transformers: [{ id: 'TX-9', fromBus: 'PRI', toBus: 'SEC', kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75 }],
+      transformers: [
+        {
+          id: 'TX-9',
+          fromBus: 'PRI',
+          toBus: 'SEC',
+          kva: 1500,
+          primaryKv: 12.47,
+          secondaryKv: 0.48,
+          impedancePct: 5.75,
+        },
+      ],
     });
     const result = shortCircuit(model);
     const warning = result.warnings.find((w) => w.code === 'typical-transformer-xr');
@@ -278,10 +325,21 @@ describe('radial direction', () => {
   it('current flows from the source toward the fault; branches beyond the fault carry none', () => {
     // One source, radial network: the whole fault current flows along the path source → fault (circuit theory).
     const cable = (id: string, fromBus: string, toBus: string) => ({
-      id, fromBus, toBus, lengthM: 30, sets: 1, size: '4/0', material: 'Cu' as const, conduit: 'pvc' as const,
+      id,
+      fromBus,
+      toBus,
+      lengthM: 30,
+      sets: 1,
+      size: '4/0',
+      material: 'Cu' as const,
+      conduit: 'pvc' as const,
     });
     const model = unitSubstation({
-      buses: [{ id: 'A', nominalKv: 0.48 }, { id: 'B', nominalKv: 0.48 }, { id: 'C', nominalKv: 0.48 }],
+      buses: [
+        { id: 'A', nominalKv: 0.48 },
+        { id: 'B', nominalKv: 0.48 },
+        { id: 'C', nominalKv: 0.48 },
+      ],
       // C1 drawn "backwards" (from A to MCC) to check the direction sign.
       cables: [cable('C1', 'A', 'MCC'), cable('C2', 'A', 'B'), cable('C3', 'B', 'C')],
     });
@@ -318,14 +376,32 @@ describe('bus ties', () => {
       ],
       sources: [{ id: 'UTIL', kind: 'utility', bus: 'PRI', shortCircuitMva: 250, xr: 10 }],
       transformers: [
-        { id: 'TX-L', fromBus: 'PRI', toBus: 'L', kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 },
-        { id: 'TX-R', fromBus: 'PRI', toBus: 'R', kva: 1000, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 },
+        {
+          id: 'TX-L',
+          fromBus: 'PRI',
+          toBus: 'L',
+          kva: 1500,
+          primaryKv: 12.47,
+          secondaryKv: 0.48,
+          impedancePct: 5.75,
+          xr: 6,
+        },
+        {
+          id: 'TX-R',
+          fromBus: 'PRI',
+          toBus: 'R',
+          kva: 1000,
+          primaryKv: 12.47,
+          secondaryKv: 0.48,
+          impedancePct: 5.75,
+          xr: 6,
+        },
       ],
       motors: [{ id: 'M-R', bus: 'R', hp: 200, kv: 0.48, xr: 8 }],
       ties: [{ id: 'TIE', fromBus: 'L', toBus: 'R', closed }],
     });
 
-  it('a closed tie: both buses have the same fault current; the tie carries the far side\'s contribution', () => {
+  it("a closed tie: both buses have the same fault current; the tie carries the far side's contribution", () => {
     // Zero-impedance tie: one electrical node; Kirchhoff's current law at bus R gives the tie current.
     const solver = createShortCircuitSolver(doubleEnded(true));
     expectClose(bus(solver.result, 'L').boltedFaultKa, bus(solver.result, 'R').boltedFaultKa, 1e-12);
@@ -350,7 +426,8 @@ describe('bus ties', () => {
     // Open switch: no path (circuit theory).
     const solver = createShortCircuitSolver(doubleEnded(false));
     const withoutTie = shortCircuit({ ...doubleEnded(false), ties: [] });
-    for (const id of ['L', 'R']) expectClose(bus(solver.result, id).boltedFaultKa, bus(withoutTie, id).boltedFaultKa, 1e-12);
+    for (const id of ['L', 'R'])
+      expectClose(bus(solver.result, id).boltedFaultKa, bus(withoutTie, id).boltedFaultKa, 1e-12);
     expect(isClose(bus(solver.result, 'L').boltedFaultKa, bus(solver.result, 'R').boltedFaultKa, 1e-3)).toBe(false);
     const fault = solver.faultAt('L');
     expect(branch(fault, 'TIE').direction).toBe('none');
@@ -363,14 +440,25 @@ describe('frequency', () => {
     // X = 2πfL; NEC Chapter 9 Table 9 reactances are for 60 Hz.
     const body = (frequencyHz: 50 | 60): Body => ({
       frequencyHz,
-      buses: [{ id: 'S', nominalKv: 0.4 }, { id: 'E', nominalKv: 0.4 }],
+      buses: [
+        { id: 'S', nominalKv: 0.4 },
+        { id: 'E', nominalKv: 0.4 },
+      ],
       sources: [{ id: 'U', kind: 'utility', bus: 'S', shortCircuitMva: 30, xr: 8 }],
-      cables: [{ id: 'C', fromBus: 'S', toBus: 'E', lengthM: 80, sets: 1, size: '2/0', material: 'Cu', conduit: 'steel' }],
+      cables: [
+        { id: 'C', fromBus: 'S', toBus: 'E', lengthM: 80, sets: 1, size: '2/0', material: 'Cu', conduit: 'steel' },
+      ],
     });
     const r60 = shortCircuit(makeModel(body(60)));
     const r50 = shortCircuit(makeModel(body(50)));
-    const c60 = { re: theveninOhm(r60, 'E').re - theveninOhm(r60, 'S').re, im: theveninOhm(r60, 'E').im - theveninOhm(r60, 'S').im };
-    const c50 = { re: theveninOhm(r50, 'E').re - theveninOhm(r50, 'S').re, im: theveninOhm(r50, 'E').im - theveninOhm(r50, 'S').im };
+    const c60 = {
+      re: theveninOhm(r60, 'E').re - theveninOhm(r60, 'S').re,
+      im: theveninOhm(r60, 'E').im - theveninOhm(r60, 'S').im,
+    };
+    const c50 = {
+      re: theveninOhm(r50, 'E').re - theveninOhm(r50, 'S').re,
+      im: theveninOhm(r50, 'E').im - theveninOhm(r50, 'S').im,
+    };
     expectClose(c50.im, (c60.im * 50) / 60, 1e-8);
     expectClose(c50.re, c60.re, 1e-8);
     expect(r50.warnings.map((w) => w.code)).toContain('cable-reactance-frequency');
@@ -381,7 +469,18 @@ describe('errors', () => {
   it('an invalid model throws EngineError naming the element path', () => {
     // DESIGN.md §4: unknown references are rejected with an error naming the element and field.
     const model = unitSubstation({
-      cables: [{ id: 'FDR-3', fromBus: 'MCC', toBus: 'MCC-9', lengthM: 10, sets: 1, size: '2', material: 'Cu', conduit: 'pvc' }],
+      cables: [
+        {
+          id: 'FDR-3',
+          fromBus: 'MCC',
+          toBus: 'MCC-9',
+          lengthM: 10,
+          sets: 1,
+          size: '2',
+          material: 'Cu',
+          conduit: 'pvc',
+        },
+      ],
     });
     try {
       shortCircuit(model);
@@ -421,10 +520,14 @@ const networkArb = fc.integer({ min: 2, max: 9 }).chain((n) =>
     n: fc.constant(n),
     parents: fc.tuple(...Array.from({ length: n - 1 }, (_, i) => fc.integer({ min: 0, max: i }))),
     treeCables: fc.array(cableArb, { minLength: n - 1, maxLength: n - 1 }),
-    loops: fc.array(fc.tuple(fc.integer({ min: 0, max: n - 1 }), fc.integer({ min: 0, max: n - 1 }), cableArb), { maxLength: 6 }),
+    loops: fc.array(fc.tuple(fc.integer({ min: 0, max: n - 1 }), fc.integer({ min: 0, max: n - 1 }), cableArb), {
+      maxLength: 6,
+    }),
     motorBuses: fc.array(fc.integer({ min: 0, max: n - 1 }), { maxLength: 3 }),
     generatorBus: fc.option(fc.integer({ min: 0, max: n - 1 }), { nil: undefined }),
-    tie: fc.option(fc.tuple(fc.integer({ min: 0, max: n - 1 }), fc.integer({ min: 0, max: n - 1 })), { nil: undefined }),
+    tie: fc.option(fc.tuple(fc.integer({ min: 0, max: n - 1 }), fc.integer({ min: 0, max: n - 1 })), {
+      nil: undefined,
+    }),
   }),
 );
 
@@ -436,22 +539,64 @@ function randomModel(spec: NetworkSpec): Model {
   const cables: Body['cables'] = [];
   spec.parents.forEach((p, i) => {
     const c = spec.treeCables[i];
-    cables.push({ id: `T${i}`, fromBus: lv(p), toBus: lv(i + 1), lengthM: c.lengthM, sets: 1, rOhmPerKm: c.r, xOhmPerKm: c.x });
+    cables.push({
+      id: `T${i}`,
+      fromBus: lv(p),
+      toBus: lv(i + 1),
+      lengthM: c.lengthM,
+      sets: 1,
+      rOhmPerKm: c.r,
+      xOhmPerKm: c.x,
+    });
   });
   spec.loops.forEach(([a, b, c], i) => {
-    if (a !== b) cables.push({ id: `X${i}`, fromBus: lv(a), toBus: lv(b), lengthM: c.lengthM, sets: 1, rOhmPerKm: c.r, xOhmPerKm: c.x });
+    if (a !== b)
+      cables.push({
+        id: `X${i}`,
+        fromBus: lv(a),
+        toBus: lv(b),
+        lengthM: c.lengthM,
+        sets: 1,
+        rOhmPerKm: c.r,
+        xOhmPerKm: c.x,
+      });
   });
   const ties: Body['ties'] = [];
-  if (spec.tie && spec.tie[0] !== spec.tie[1]) ties.push({ id: 'TIE', fromBus: lv(spec.tie[0]), toBus: lv(spec.tie[1]), closed: true });
+  if (spec.tie && spec.tie[0] !== spec.tie[1])
+    ties.push({ id: 'TIE', fromBus: lv(spec.tie[0]), toBus: lv(spec.tie[1]), closed: true });
   return makeModel({
-    buses: [{ id: 'HV', nominalKv: 12.47 }, ...Array.from({ length: spec.n }, (_, i) => ({ id: lv(i), nominalKv: 0.48 }))],
+    buses: [
+      { id: 'HV', nominalKv: 12.47 },
+      ...Array.from({ length: spec.n }, (_, i) => ({ id: lv(i), nominalKv: 0.48 })),
+    ],
     sources: [
       { id: 'UTIL', kind: 'utility', bus: 'HV', shortCircuitMva: 300, xr: 12 },
       ...(spec.generatorBus !== undefined
-        ? [{ id: 'GEN', kind: 'generator' as const, bus: lv(spec.generatorBus), kva: 500, kv: 0.48, subtransientPct: 14, xr: 20 }]
+        ? [
+            {
+              id: 'GEN',
+              kind: 'generator' as const,
+              bus: lv(spec.generatorBus),
+              kva: 500,
+              kv: 0.48,
+              subtransientPct: 14,
+              xr: 20,
+            },
+          ]
         : []),
     ],
-    transformers: [{ id: 'TX', fromBus: 'HV', toBus: 'L0', kva: 2000, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 7 }],
+    transformers: [
+      {
+        id: 'TX',
+        fromBus: 'HV',
+        toBus: 'L0',
+        kva: 2000,
+        primaryKv: 12.47,
+        secondaryKv: 0.48,
+        impedancePct: 5.75,
+        xr: 7,
+      },
+    ],
     cables,
     motors: spec.motorBuses.map((b, i) => ({ id: `M${i}`, bus: lv(b), hp: 40 + 60 * i, kv: 0.46, xr: 6 })),
     ties,
@@ -489,7 +634,9 @@ describe('random looped networks (property tests)', () => {
         const model = randomModel(spec);
         const network = buildNetwork(model);
         const n = network.nodeCount;
-        const y: math.Complex[][] = Array.from({ length: n }, () => Array.from({ length: n }, () => math.complex(0, 0)));
+        const y: math.Complex[][] = Array.from({ length: n }, () =>
+          Array.from({ length: n }, () => math.complex(0, 0)),
+        );
         const add = (i: number, j: number, v: math.Complex) => {
           y[i][j] = math.add(y[i][j], v) as math.Complex;
         };

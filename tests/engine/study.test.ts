@@ -6,13 +6,25 @@
  */
 import type { ModelInput } from '../../shared/schemas/model';
 import { modelSchema } from '../../shared/schemas/model';
-import { computeArcingCurrents, computeCaseEnergy, computeIncidentEnergy, resolveEnclosure } from '../../server/engine/ieee1584/compute';
+import {
+  computeArcingCurrents,
+  computeCaseEnergy,
+  computeIncidentEnergy,
+  resolveEnclosure,
+} from '../../server/engine/ieee1584/compute';
 import { createShortCircuitSolver, shortCircuit } from '../../server/engine/shortcircuit';
 import { BOUNDARY_ENERGY_J_PER_CM2, createStudyRunner, runStudy } from '../../server/engine/study';
 import { clearingTime } from '../../server/engine/trip';
 import { expectClose } from '../helpers/approx';
 
-const relayPrimary = { kind: 'relay', curve: 'IEEE-VI', pickupA: 100, timeDial: 1, instantaneousA: 3000, breakerCycles: 5 } as const;
+const relayPrimary = {
+  kind: 'relay',
+  curve: 'IEEE-VI',
+  pickupA: 100,
+  timeDial: 1,
+  instantaneousA: 3000,
+  breakerCycles: 5,
+} as const;
 const mainElectronic = {
   kind: 'electronic',
   sensorA: 2000,
@@ -24,7 +36,20 @@ const mainElectronic = {
 const feederTm = {
   kind: 'thermal-magnetic',
   ratingA: 400,
-  thermal: { min: [[1.35, 300], [2, 30], [5, 3], [10, 0.8]], max: [[1.35, 1500], [2, 100], [5, 12], [10, 4]] },
+  thermal: {
+    min: [
+      [1.35, 300],
+      [2, 30],
+      [5, 3],
+      [10, 0.8],
+    ],
+    max: [
+      [1.35, 1500],
+      [2, 100],
+      [5, 12],
+      [10, 4],
+    ],
+  },
   instantaneous: { pickupMultiple: 10, tolerancePct: 20 },
   instantaneousClearingCycles: 1.5,
 } as const;
@@ -48,10 +73,39 @@ function radial(opts: { mainIsolated?: boolean } = {}): ModelInput {
       { id: 'PNL', name: 'Panel', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-shallow' } },
     ],
     sources: [{ id: 'UTIL', kind: 'utility', bus: 'SWGR', shortCircuitMva: 250, xr: 10 }],
-    transformers: [{ id: 'TX', fromBus: 'SWGR', toBus: 'SWBD', kva: 1500, primaryKv: 12.47, secondaryKv: 0.48, impedancePct: 5.75, xr: 6 }],
+    transformers: [
+      {
+        id: 'TX',
+        fromBus: 'SWGR',
+        toBus: 'SWBD',
+        kva: 1500,
+        primaryKv: 12.47,
+        secondaryKv: 0.48,
+        impedancePct: 5.75,
+        xr: 6,
+      },
+    ],
     cables: [
-      { id: 'F-MCC', fromBus: 'SWBD', toBus: 'MCC', lengthM: 30, sets: 2, size: '500', material: 'Cu', conduit: 'steel' },
-      { id: 'F-PNL', fromBus: 'MCC', toBus: 'PNL', lengthM: 25, sets: 1, size: '1/0', material: 'Cu', conduit: 'steel' },
+      {
+        id: 'F-MCC',
+        fromBus: 'SWBD',
+        toBus: 'MCC',
+        lengthM: 30,
+        sets: 2,
+        size: '500',
+        material: 'Cu',
+        conduit: 'steel',
+      },
+      {
+        id: 'F-PNL',
+        fromBus: 'MCC',
+        toBus: 'PNL',
+        lengthM: 25,
+        sets: 1,
+        size: '1/0',
+        material: 'Cu',
+        conduit: 'steel',
+      },
     ],
     devices: [
       { id: 'R-TX', name: 'Transformer primary relay', branch: 'TX', end: 'from', device: relayPrimary },
@@ -82,7 +136,12 @@ describe('small radial study, step by step', () => {
   it('takes both arcing currents from IEEE 1584-2018 Eqs. (1), (25), (2) with the class typical gap', () => {
     // IEEE 1584-2018 typical gap of low-voltage MCCs and panelboards: 25 mm (Table 8; from memory, see equipmentClasses).
     expect(mcc.equipment!.gapMm).toBe(25);
-    const a = computeArcingCurrents({ voltageV: 480, boltedFaultKa: mcc.boltedFaultKa, electrodeConfig: 'VCB', gapMm: 25 });
+    const a = computeArcingCurrents({
+      voltageV: 480,
+      boltedFaultKa: mcc.boltedFaultKa,
+      electrodeConfig: 'VCB',
+      gapMm: 25,
+    });
     expectClose(mcc.arcingCurrentKa!.full, a.arcingCurrentKa.full, 1e-12);
     expectClose(mcc.arcingCurrentKa!.reduced, a.arcingCurrentKa.reduced, 1e-12);
   });
@@ -115,7 +174,9 @@ describe('small radial study, step by step', () => {
 
   it('with one source the first device to clear ends the arc, and the energy is the IEEE 1584-2018 energy at that time', () => {
     for (const c of mcc.cases) {
-      const fastest = c.devices.filter((d) => d.clearingTimeS !== null).sort((a, b) => a.clearingTimeS! - b.clearingTimeS!)[0];
+      const fastest = c.devices
+        .filter((d) => d.clearingTimeS !== null)
+        .sort((a, b) => a.clearingTimeS! - b.clearingTimeS!)[0];
       expect(c.clearingDeviceId).toBe(fastest.deviceId);
       expectClose(c.arcDurationS, fastest.clearingTimeS!, 1e-12);
       expect(c.intervals).toHaveLength(1);
@@ -145,7 +206,9 @@ describe('small radial study, step by step', () => {
     const full = mcc.cases.find((c) => c.arcCase === 'full')!;
     expect(full.sentence).toContain('at MCC');
     expect(full.sentence).toContain(full.clearingDeviceId!);
-    expect(full.sentence).toMatch(/clears in its (instantaneous region|long-time band|short-time band|inverse-time curve)/);
+    expect(full.sentence).toMatch(
+      /clears in its (instantaneous region|long-time band|short-time band|inverse-time curve)/,
+    );
   });
 
   it('carries label values for the governing energy', () => {
@@ -164,7 +227,11 @@ describe('line side of the main (DESIGN §3.5)', () => {
     expect(lineFull.devices.map((d) => d.deviceId)).not.toContain('CB-MAIN');
     expect(lineFull.clearingDeviceId).toBe('R-TX');
     // Energy is proportional to the arc duration at a given current (IEEE 1584-2018 Eq. 6).
-    expectClose(lineFull.incidentEnergyJPerCm2 / loadFull.incidentEnergyJPerCm2, lineFull.arcDurationS / loadFull.arcDurationS, 1e-9);
+    expectClose(
+      lineFull.incidentEnergyJPerCm2 / loadFull.incidentEnergyJPerCm2,
+      lineFull.arcDurationS / loadFull.arcDurationS,
+      1e-9,
+    );
     const worst = r.cases.reduce((g, c) => (c.incidentEnergyJPerCm2 > g.incidentEnergyJPerCm2 ? c : g));
     expect(r.governing).toEqual({ arcCase: worst.arcCase, location: worst.location });
     expect(r.governing!.location).toBe('line-side');
@@ -182,7 +249,16 @@ describe('two sources: time-stepped energy', () => {
     const m = radial();
     m.buses.push({ id: 'GEN-BUS', name: 'Generator terminals', nominalKv: 0.48 });
     m.sources!.push({ id: 'GEN', kind: 'generator', bus: 'GEN-BUS', kva: 1000, kv: 0.48, subtransientPct: 15, xr: 20 });
-    m.cables!.push({ id: 'F-GEN', fromBus: 'GEN-BUS', toBus: 'SWBD', lengthM: 15, sets: 3, size: '500', material: 'Cu', conduit: 'steel' });
+    m.cables!.push({
+      id: 'F-GEN',
+      fromBus: 'GEN-BUS',
+      toBus: 'SWBD',
+      lengthM: 15,
+      sets: 3,
+      size: '500',
+      material: 'Cu',
+      conduit: 'steel',
+    });
     m.devices!.push({
       id: 'CB-GEN',
       name: 'Generator breaker',
@@ -198,7 +274,11 @@ describe('two sources: time-stepped energy', () => {
 
   it('splits the fault between the sources, the shares adding to 1', () => {
     expect(full.sources.map((s) => s.sourceId).sort()).toEqual(['GEN', 'UTIL']);
-    expectClose(full.sources.reduce((s, x) => s + x.share, 0), 1, 1e-12);
+    expectClose(
+      full.sources.reduce((s, x) => s + x.share, 0),
+      1,
+      1e-12,
+    );
   });
 
   it('cuts each source off when its path opens, the generator first, then the utility main', () => {
@@ -216,25 +296,61 @@ describe('two sources: time-stepped energy', () => {
 
   it('adds the energy of each interval (E ∝ T at a given current, IEEE 1584-2018 Eq. 6)', () => {
     const eq = bus.equipment!;
-    const enclosure = resolveEnclosure({ electrodeConfig: 'VCB', voltageV: 480, gapMm: eq.gapMm }, eq.enclosureMm ?? undefined);
+    const enclosure = resolveEnclosure(
+      { electrodeConfig: 'VCB', voltageV: 480, gapMm: eq.gapMm },
+      eq.enclosureMm ?? undefined,
+    );
     let sum = 0;
     for (const i of full.intervals) {
-      const a = computeArcingCurrents({ voltageV: 480, boltedFaultKa: i.boltedFaultKa, electrodeConfig: 'VCB', gapMm: eq.gapMm });
-      sum += computeCaseEnergy(a, 'full', enclosure.enclosureCorrectionFactor, (i.toS - i.fromS) * 1000, eq.workingDistanceMm).incidentEnergyJPerCm2;
+      const a = computeArcingCurrents({
+        voltageV: 480,
+        boltedFaultKa: i.boltedFaultKa,
+        electrodeConfig: 'VCB',
+        gapMm: eq.gapMm,
+      });
+      sum += computeCaseEnergy(
+        a,
+        'full',
+        enclosure.enclosureCorrectionFactor,
+        (i.toS - i.fromS) * 1000,
+        eq.workingDistanceMm,
+      ).incidentEnergyJPerCm2;
     }
     expectClose(full.incidentEnergyJPerCm2, sum, 1e-9);
     // Bracketed by "both sources for the whole time" and "the utility alone for the whole time".
-    const both = computeIncidentEnergy({ voltageV: 480, boltedFaultKa: bus.boltedFaultKa, electrodeConfig: 'VCB', gapMm: eq.gapMm, workingDistanceMm: eq.workingDistanceMm, enclosureMm: eq.enclosureMm ?? undefined, arcDurationMs: full.arcDurationS * 1000 });
+    const both = computeIncidentEnergy({
+      voltageV: 480,
+      boltedFaultKa: bus.boltedFaultKa,
+      electrodeConfig: 'VCB',
+      gapMm: eq.gapMm,
+      workingDistanceMm: eq.workingDistanceMm,
+      enclosureMm: eq.enclosureMm ?? undefined,
+      arcDurationMs: full.arcDurationS * 1000,
+    });
     expect(full.incidentEnergyJPerCm2).toBeLessThan(both.cases.full.incidentEnergyJPerCm2);
   });
 
   it('places the boundary where the summed energy is 5.0 J/cm² (IEEE 1584-2018 definition of the arc-flash boundary)', () => {
     const eq = bus.equipment!;
-    const enclosure = resolveEnclosure({ electrodeConfig: 'VCB', voltageV: 480, gapMm: eq.gapMm }, eq.enclosureMm ?? undefined);
+    const enclosure = resolveEnclosure(
+      { electrodeConfig: 'VCB', voltageV: 480, gapMm: eq.gapMm },
+      eq.enclosureMm ?? undefined,
+    );
     let atBoundary = 0;
     for (const i of full.intervals) {
-      const a = computeArcingCurrents({ voltageV: 480, boltedFaultKa: i.boltedFaultKa, electrodeConfig: 'VCB', gapMm: eq.gapMm });
-      atBoundary += computeCaseEnergy(a, 'full', enclosure.enclosureCorrectionFactor, (i.toS - i.fromS) * 1000, full.arcFlashBoundaryMm).incidentEnergyJPerCm2;
+      const a = computeArcingCurrents({
+        voltageV: 480,
+        boltedFaultKa: i.boltedFaultKa,
+        electrodeConfig: 'VCB',
+        gapMm: eq.gapMm,
+      });
+      atBoundary += computeCaseEnergy(
+        a,
+        'full',
+        enclosure.enclosureCorrectionFactor,
+        (i.toS - i.fromS) * 1000,
+        full.arcFlashBoundaryMm,
+      ).incidentEnergyJPerCm2;
     }
     expectClose(atBoundary, BOUNDARY_ENERGY_J_PER_CM2, 1e-6);
   });
@@ -278,7 +394,16 @@ describe('problems stay with their bus', () => {
     m.buses[0].equipment = { class: 'switchgear-15kv' };
     m.buses[0].nominalKv = 12.47;
     m.buses.push({ id: 'HV', name: 'Transmission', nominalKv: 34.5, equipment: { class: 'switchgear-15kv' } });
-    m.transformers!.push({ id: 'TX-HV', fromBus: 'HV', toBus: 'SWGR', kva: 10000, primaryKv: 34.5, secondaryKv: 12.47, impedancePct: 7, xr: 15 });
+    m.transformers!.push({
+      id: 'TX-HV',
+      fromBus: 'HV',
+      toBus: 'SWGR',
+      kva: 10000,
+      primaryKv: 34.5,
+      secondaryKv: 12.47,
+      impedancePct: 7,
+      xr: 15,
+    });
     const r = runStudy(parse(m));
     const hv = r.buses.find((b) => b.busId === 'HV')!;
     expect(hv.status).toBe('error');

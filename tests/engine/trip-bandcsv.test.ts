@@ -24,7 +24,8 @@ describe('worked example: a digitized band CSV', () => {
   });
 
   it('reads multiple,min_s,max_s; leaves a curve out of a row with an empty cell; skips comments and blank lines', () => {
-    const csv = '# digitized from a published band\nmultiple,min_s,max_s\n1.1,2000,\n1.25,,5000\n\n2,60,200\r\n10,0.02,0.05\n';
+    const csv =
+      '# digitized from a published band\nmultiple,min_s,max_s\n1.1,2000,\n1.25,,5000\n\n2,60,200\r\n10,0.02,0.05\n';
     const r = parseBandCsv(csv);
     expect(r).toEqual({
       ok: true,
@@ -55,7 +56,8 @@ describe('worked example: a digitized band CSV', () => {
     expect(parsed.min).toEqual(EXAMPLE_BAND.min);
     expect(parsed.max).toEqual(EXAMPLE_BAND.max);
     const again = { ...EXAMPLE_BAND, ...parsed };
-    for (const a of [500, 900, 3000, 30000]) expect(clearingTime(again, a).clearingTimeS).toBe(clearingTime(EXAMPLE_BAND, a).clearingTimeS);
+    for (const a of [500, 900, 3000, 30000])
+      expect(clearingTime(again, a).clearingTimeS).toBe(clearingTime(EXAMPLE_BAND, a).clearingTimeS);
   });
 });
 

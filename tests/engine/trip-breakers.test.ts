@@ -64,7 +64,11 @@ describe('thermal-magnetic instantaneous pickup tolerance (DESIGN.md §3.3)', ()
   it('a user-set instantaneous clearing time, or cycles at a frequency, replaces the default', () => {
     expectClose(clearingTime({ ...TM, instantaneousClearingS: 0.016 }, 400).clearingTimeS as number, 0.016, 1e-12);
     // 1 cycle at 50 Hz = 20 ms
-    expectClose(clearingTime({ ...TM, instantaneousClearingCycles: 1, frequencyHz: 50 }, 400).clearingTimeS as number, 0.02, 1e-12);
+    expectClose(
+      clearingTime({ ...TM, instantaneousClearingCycles: 1, frequencyHz: 50 }, 400).clearingTimeS as number,
+      0.02,
+      1e-12,
+    );
     expect(() => clearingTime({ ...TM, instantaneousClearingS: 0.02, instantaneousClearingCycles: 1 }, 400)).toThrow(
       expect.objectContaining({ kind: 'invalid-input' }),
     );
@@ -108,7 +112,10 @@ describe('UL 489 calibration points as band checks', () => {
   it('flags a band that is too slow at 200 %', () => {
     const slow: ThermalMagneticDevice = {
       ...TM,
-      thermal: { min: GENERIC_THERMAL_BAND.min, max: GENERIC_THERMAL_BAND.max.map(([m, t]) => [m, m === 2 ? 200 : t] as [number, number]) },
+      thermal: {
+        min: GENERIC_THERMAL_BAND.min,
+        max: GENERIC_THERMAL_BAND.max.map(([m, t]) => [m, m === 2 ? 200 : t] as [number, number]),
+      },
     };
     const result = checkUl489Calibration(slow);
     expect(result.pass).toBe(false);
@@ -116,7 +123,10 @@ describe('UL 489 calibration points as band checks', () => {
   });
 
   it('flags a band whose minimum curve trips at rated current', () => {
-    const trips: ThermalMagneticDevice = { ...TM, thermal: { ...GENERIC_THERMAL_BAND, min: [[0.9, 7200], ...GENERIC_THERMAL_BAND.min] } };
+    const trips: ThermalMagneticDevice = {
+      ...TM,
+      thermal: { ...GENERIC_THERMAL_BAND, min: [[0.9, 7200], ...GENERIC_THERMAL_BAND.min] },
+    };
     const result = checkUl489Calibration(trips);
     expect(result.checks[0]).toMatchObject({ test: '100 %', pass: false });
   });
@@ -247,7 +257,9 @@ describe('electronic trip unit: regions and elements', () => {
     expect(() => clearingTime({ ...LT_ONLY, pickupTolerancePct: 150 }, 1000)).toThrow(
       expect.objectContaining({ kind: 'invalid-input', field: 'device.pickupTolerancePct' }),
     );
-    expect(() => clearingTime({ ...LT_ONLY, sensorA: 0 }, 1000)).toThrow(expect.objectContaining({ field: 'device.sensorA' }));
+    expect(() => clearingTime({ ...LT_ONLY, sensorA: 0 }, 1000)).toThrow(
+      expect.objectContaining({ field: 'device.sensorA' }),
+    );
   });
 });
 

@@ -45,7 +45,15 @@ describe('the 0.01 s rule (IEEE 1584-2002, read in a published reprint; DESIGN.m
   });
 
   it('a curve drawn below 0.01 s is never read below 0.01 s', () => {
-    const lowCurve: FuseDevice = { kind: 'fuse', ratingA: 100, totalClearing: [[200, 100], [2000, 0.1], [6000, 0.004]] };
+    const lowCurve: FuseDevice = {
+      kind: 'fuse',
+      ratingA: 100,
+      totalClearing: [
+        [200, 100],
+        [2000, 0.1],
+        [6000, 0.004],
+      ],
+    };
     expectClose(clearingTime(lowCurve, 5000).clearingTimeS as number, 0.01, 1e-12);
     expectClose(clearingTime(lowCurve, 9000).clearingTimeS as number, 0.01, 1e-12);
     // still on the curve above 0.01 s
@@ -53,7 +61,14 @@ describe('the 0.01 s rule (IEEE 1584-2002, read in a published reprint; DESIGN.m
   });
 
   it('a curve that stops above 0.01 s is clamped at its last point with a warning (our choice, conservative; no source)', () => {
-    const shortCurve: FuseDevice = { kind: 'fuse', ratingA: 100, totalClearing: [[200, 100], [2000, 0.05]] };
+    const shortCurve: FuseDevice = {
+      kind: 'fuse',
+      ratingA: 100,
+      totalClearing: [
+        [200, 100],
+        [2000, 0.05],
+      ],
+    };
     const r = clearingTime(shortCurve, 10000);
     expect(r.clearingTimeS).toBe(0.05);
     expect(codes(r)).toEqual(expect.arrayContaining(['BAND_BEYOND_DATA', 'FUSE_CURVE_ENDS_ABOVE_HALF_CYCLE']));
@@ -74,7 +89,16 @@ describe('melt-to-clear allowance (IEEE 1584-2002 §4.6 step 5, read via a publi
   });
 
   it('a fuse given only an average-melt curve clears at melt + allowance, and says so', () => {
-    const meltOnly: FuseDevice = { kind: 'fuse', ratingA: 100, averageMelt: [[150, 800], [500, 3], [1000, 0.25], [2000, 0.02]] };
+    const meltOnly: FuseDevice = {
+      kind: 'fuse',
+      ratingA: 100,
+      averageMelt: [
+        [150, 800],
+        [500, 3],
+        [1000, 0.25],
+        [2000, 0.02],
+      ],
+    };
     const r = clearingTime(meltOnly, 1000);
     expectClose(r.clearingTimeS as number, 0.25 * 1.1, 1e-12);
     expect(r.minimumTimeS).toBe(0.25);
@@ -102,6 +126,8 @@ describe('fuse limits of the data', () => {
 
   it('a fuse with neither clearing nor average-melt curve is rejected naming totalClearing', () => {
     const bad = { kind: 'fuse', ratingA: 100, minimumMelt: FUSE.minimumMelt } as FuseDevice;
-    expect(() => clearingTime(bad, 500)).toThrow(expect.objectContaining({ kind: 'invalid-input', field: 'device.totalClearing' }));
+    expect(() => clearingTime(bad, 500)).toThrow(
+      expect.objectContaining({ kind: 'invalid-input', field: 'device.totalClearing' }),
+    );
   });
 });

@@ -84,21 +84,58 @@ describe('validateCurvePoints', () => {
   }
 
   it('rejects unsorted currents naming the field and index', () => {
-    const e = errorOf(() => validateCurvePoints([[100, 10], [300, 5], [200, 1]], 'device.max'));
+    const e = errorOf(() =>
+      validateCurvePoints(
+        [
+          [100, 10],
+          [300, 5],
+          [200, 1],
+        ],
+        'device.max',
+      ),
+    );
     expect(e).toBeInstanceOf(EngineError);
     expect(e.kind).toBe('invalid-input');
     expect(e.field).toBe('device.max[2]');
   });
 
   it('rejects a repeated current', () => {
-    expect(errorOf(() => validateCurvePoints([[100, 10], [100, 5]], 'device.min')).field).toBe('device.min[1]');
+    expect(
+      errorOf(() =>
+        validateCurvePoints(
+          [
+            [100, 10],
+            [100, 5],
+          ],
+          'device.min',
+        ),
+      ).field,
+    ).toBe('device.min[1]');
   });
 
   it.each([
-    [[[100, 10], [0, 5]], 'device.max[1]'],
+    [
+      [
+        [100, 10],
+        [0, 5],
+      ],
+      'device.max[1]',
+    ],
     [[[-1, 10]], 'device.max[0]'],
-    [[[100, 10], [200, 0]], 'device.max[1]'],
-    [[[100, 10], [200, -3]], 'device.max[1]'],
+    [
+      [
+        [100, 10],
+        [200, 0],
+      ],
+      'device.max[1]',
+    ],
+    [
+      [
+        [100, 10],
+        [200, -3],
+      ],
+      'device.max[1]',
+    ],
     [[[100, Number.NaN]], 'device.max[0]'],
   ] as Array<[TimeCurrentPoint[], string]>)('rejects non-positive or non-numeric points %j', (points, field) => {
     const e = errorOf(() => validateCurvePoints(points, 'device.max'));
@@ -107,12 +144,33 @@ describe('validateCurvePoints', () => {
   });
 
   it('rejects a trip curve whose time rises with current, and an empty list', () => {
-    expect(errorOf(() => validateCurvePoints([[100, 10], [200, 20]], 'device.max')).field).toBe('device.max[1]');
+    expect(
+      errorOf(() =>
+        validateCurvePoints(
+          [
+            [100, 10],
+            [200, 20],
+          ],
+          'device.max',
+        ),
+      ).field,
+    ).toBe('device.max[1]');
     expect(errorOf(() => validateCurvePoints([], 'device.max')).field).toBe('device.max');
   });
 
   it('the device reader rejects bad points before reading (field names the device curve)', () => {
-    const band = { kind: 'band', ratingA: 100, currentUnit: 'multiple', min: [[1, 10]], max: [[2, 10], [1, 5]] } as BandDevice;
-    expect(() => clearingTime(band, 150)).toThrow(expect.objectContaining({ kind: 'invalid-input', field: 'device.max[1]' }));
+    const band = {
+      kind: 'band',
+      ratingA: 100,
+      currentUnit: 'multiple',
+      min: [[1, 10]],
+      max: [
+        [2, 10],
+        [1, 5],
+      ],
+    } as BandDevice;
+    expect(() => clearingTime(band, 150)).toThrow(
+      expect.objectContaining({ kind: 'invalid-input', field: 'device.max[1]' }),
+    );
   });
 });

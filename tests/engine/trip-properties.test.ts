@@ -10,7 +10,10 @@ import { RELAY_CURVES } from '../../shared/schemas/device';
 
 /** Random point list: currents increasing, times not increasing. */
 const curveArb = fc
-  .array(fc.tuple(fc.double({ min: 0.01, max: 1, noNaN: true }), fc.double({ min: 0.3, max: 1, noNaN: true })), { minLength: 1, maxLength: 8 })
+  .array(fc.tuple(fc.double({ min: 0.01, max: 1, noNaN: true }), fc.double({ min: 0.3, max: 1, noNaN: true })), {
+    minLength: 1,
+    maxLength: 8,
+  })
   .map((steps) => {
     let x = 1;
     let t = 10000;
@@ -21,16 +24,20 @@ const curveArb = fc
     });
   });
 
-const relayArb: fc.Arbitrary<Device> = fc.record({
-  curve: fc.constantFrom(...RELAY_CURVES),
-  pickupA: fc.double({ min: 10, max: 2000, noNaN: true }),
-  timeDial: fc.double({ min: 0.05, max: 15, noNaN: true }),
-  instMultiple: fc.option(fc.double({ min: 1.5, max: 40, noNaN: true }), { nil: undefined }),
-  dt: fc.option(fc.record({ m: fc.double({ min: 1, max: 20, noNaN: true }), delayS: fc.double({ min: 0, max: 2, noNaN: true }) }), { nil: undefined }),
-  breakerCycles: fc.constantFrom(1.5, 3, 5, 8),
-  frequencyHz: fc.constantFrom(50, 60),
-}).map(
-  (r): RelayDevice => ({
+const relayArb: fc.Arbitrary<Device> = fc
+  .record({
+    curve: fc.constantFrom(...RELAY_CURVES),
+    pickupA: fc.double({ min: 10, max: 2000, noNaN: true }),
+    timeDial: fc.double({ min: 0.05, max: 15, noNaN: true }),
+    instMultiple: fc.option(fc.double({ min: 1.5, max: 40, noNaN: true }), { nil: undefined }),
+    dt: fc.option(
+      fc.record({ m: fc.double({ min: 1, max: 20, noNaN: true }), delayS: fc.double({ min: 0, max: 2, noNaN: true }) }),
+      { nil: undefined },
+    ),
+    breakerCycles: fc.constantFrom(1.5, 3, 5, 8),
+    frequencyHz: fc.constantFrom(50, 60),
+  })
+  .map((r): RelayDevice => ({
     kind: 'relay',
     curve: r.curve,
     pickupA: r.pickupA,
@@ -39,26 +46,26 @@ const relayArb: fc.Arbitrary<Device> = fc.record({
     definiteTime: r.dt === undefined ? undefined : { pickupA: r.dt.m * r.pickupA, delayS: r.dt.delayS },
     breakerCycles: r.breakerCycles,
     frequencyHz: r.frequencyHz,
-  }),
-);
+  }));
 
 const thermalMagneticArb: fc.Arbitrary<Device> = fc
   .record({
     ratingA: fc.double({ min: 10, max: 800, noNaN: true }),
     max: curveArb,
     shrink: fc.double({ min: 0.2, max: 1, noNaN: true }),
-    inst: fc.option(fc.record({ m: fc.double({ min: 3, max: 20, noNaN: true }), tol: fc.double({ min: 0, max: 30, noNaN: true }) }), { nil: undefined }),
+    inst: fc.option(
+      fc.record({ m: fc.double({ min: 3, max: 20, noNaN: true }), tol: fc.double({ min: 0, max: 30, noNaN: true }) }),
+      { nil: undefined },
+    ),
     clearingS: fc.double({ min: 0.008, max: 0.05, noNaN: true }),
   })
-  .map(
-    (r): ThermalMagneticDevice => ({
-      kind: 'thermal-magnetic',
-      ratingA: r.ratingA,
-      thermal: { max: r.max, min: r.max.map(([x, t]) => [x, t * r.shrink] as [number, number]) },
-      instantaneous: r.inst === undefined ? undefined : { pickupMultiple: r.inst.m, tolerancePct: r.inst.tol },
-      instantaneousClearingS: r.clearingS,
-    }),
-  );
+  .map((r): ThermalMagneticDevice => ({
+    kind: 'thermal-magnetic',
+    ratingA: r.ratingA,
+    thermal: { max: r.max, min: r.max.map(([x, t]) => [x, t * r.shrink] as [number, number]) },
+    instantaneous: r.inst === undefined ? undefined : { pickupMultiple: r.inst.m, tolerancePct: r.inst.tol },
+    instantaneousClearingS: r.clearingS,
+  }));
 
 const electronicArb: fc.Arbitrary<Device> = fc
   .record({
@@ -66,7 +73,11 @@ const electronicArb: fc.Arbitrary<Device> = fc
     ltPickup: fc.double({ min: 0.4, max: 1, noNaN: true }),
     ltDelay: fc.double({ min: 2, max: 30, noNaN: true }),
     st: fc.option(
-      fc.record({ pickup: fc.double({ min: 1.5, max: 10, noNaN: true }), delayS: fc.double({ min: 0.05, max: 0.5, noNaN: true }), i2t: fc.boolean() }),
+      fc.record({
+        pickup: fc.double({ min: 1.5, max: 10, noNaN: true }),
+        delayS: fc.double({ min: 0.05, max: 0.5, noNaN: true }),
+        i2t: fc.boolean(),
+      }),
       { nil: undefined },
     ),
     inst: fc.option(fc.double({ min: 2, max: 15, noNaN: true }), { nil: undefined }),
@@ -74,40 +85,64 @@ const electronicArb: fc.Arbitrary<Device> = fc
     timeTol: fc.double({ min: 0, max: 30, noNaN: true }),
     clearingS: fc.double({ min: 0.02, max: 0.08, noNaN: true }),
   })
-  .map(
-    (r): ElectronicDevice => ({
-      kind: 'electronic',
-      sensorA: r.sensorA,
-      longTime: { pickup: r.ltPickup, delayS: r.ltDelay },
-      shortTime: r.st,
-      instantaneous: r.inst === undefined ? undefined : { pickup: r.inst },
-      pickupTolerancePct: r.tol,
-      timeTolerancePct: r.timeTol,
-      clearingS: r.clearingS,
-    }),
-  );
+  .map((r): ElectronicDevice => ({
+    kind: 'electronic',
+    sensorA: r.sensorA,
+    longTime: { pickup: r.ltPickup, delayS: r.ltDelay },
+    shortTime: r.st,
+    instantaneous: r.inst === undefined ? undefined : { pickup: r.inst },
+    pickupTolerancePct: r.tol,
+    timeTolerancePct: r.timeTol,
+    clearingS: r.clearingS,
+  }));
 
 const fuseArb: fc.Arbitrary<Device> = fc
-  .record({ tc: curveArb, scale: fc.double({ min: 10, max: 1000, noNaN: true }), meltOnly: fc.boolean(), shrink: fc.double({ min: 0.2, max: 1, noNaN: true }) })
+  .record({
+    tc: curveArb,
+    scale: fc.double({ min: 10, max: 1000, noNaN: true }),
+    meltOnly: fc.boolean(),
+    shrink: fc.double({ min: 0.2, max: 1, noNaN: true }),
+  })
   .map(({ tc, scale, meltOnly, shrink }) => {
     const points = tc.map(([x, t]) => [x * scale, t / 1e4] as [number, number]); // times 1 s … far below 0.01 s
     return meltOnly
       ? { kind: 'fuse' as const, ratingA: scale, averageMelt: points }
-      : { kind: 'fuse' as const, ratingA: scale, totalClearing: points, minimumMelt: points.map(([x, t]) => [x, t * shrink] as [number, number]) };
+      : {
+          kind: 'fuse' as const,
+          ratingA: scale,
+          totalClearing: points,
+          minimumMelt: points.map(([x, t]) => [x, t * shrink] as [number, number]),
+        };
   });
 
 const bandArb: fc.Arbitrary<Device> = fc
-  .record({ max: curveArb, shrink: fc.double({ min: 0.1, max: 1, noNaN: true }), unit: fc.constantFrom('multiple' as const, 'ampere' as const) })
+  .record({
+    max: curveArb,
+    shrink: fc.double({ min: 0.1, max: 1, noNaN: true }),
+    unit: fc.constantFrom('multiple' as const, 'ampere' as const),
+  })
   .map(({ max, shrink, unit }) => ({
     kind: 'band' as const,
     ratingA: 100,
     currentUnit: unit,
     max: unit === 'ampere' ? max.map(([x, t]) => [x * 100, t] as [number, number]) : max,
-    min: (unit === 'ampere' ? max.map(([x, t]) => [x * 100, t] as [number, number]) : max).map(([x, t]) => [x, t * shrink] as [number, number]),
+    min: (unit === 'ampere' ? max.map(([x, t]) => [x * 100, t] as [number, number]) : max).map(
+      ([x, t]) => [x, t * shrink] as [number, number],
+    ),
   }));
 
-const deviceArb = fc.oneof(relayArb, thermalMagneticArb, electronicArb, fuseArb, bandArb, fc.constantFrom(...EXAMPLE_DEVICES));
-const currentPairArb = fc.tuple(fc.double({ min: 1, max: 2e5, noNaN: true }), fc.double({ min: 1, max: 2e5, noNaN: true }));
+const deviceArb = fc.oneof(
+  relayArb,
+  thermalMagneticArb,
+  electronicArb,
+  fuseArb,
+  bandArb,
+  fc.constantFrom(...EXAMPLE_DEVICES),
+);
+const currentPairArb = fc.tuple(
+  fc.double({ min: 1, max: 2e5, noNaN: true }),
+  fc.double({ min: 1, max: 2e5, noNaN: true }),
+);
 
 describe('trip band properties (fast-check)', () => {
   it('the maximum curve is non-increasing in current, for every kind', () => {
@@ -143,7 +178,8 @@ describe('trip band properties (fast-check)', () => {
     fc.assert(
       fc.property(deviceArb, (device) => {
         const { min, max } = bandCurves(device, { pointsPerDecade: 20 });
-        for (let i = 1; i < max.length; i += 1) if (!(max[i][0] > max[i - 1][0]) || max[i][1] > max[i - 1][1]) return false;
+        for (let i = 1; i < max.length; i += 1)
+          if (!(max[i][0] > max[i - 1][0]) || max[i][1] > max[i - 1][1]) return false;
         const minAt = new Map(min);
         for (const [x, t] of max) {
           const m = minAt.get(x);
@@ -170,6 +206,8 @@ describe('bandCurves', () => {
   });
 
   it('rejects an empty range', () => {
-    expect(() => bandCurves(EXAMPLE_DEVICES[0], { fromA: 100, toA: 50 })).toThrow(expect.objectContaining({ kind: 'invalid-input' }));
+    expect(() => bandCurves(EXAMPLE_DEVICES[0], { fromA: 100, toA: 50 })).toThrow(
+      expect.objectContaining({ kind: 'invalid-input' }),
+    );
   });
 });

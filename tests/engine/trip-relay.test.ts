@@ -33,7 +33,14 @@ describe('worked examples: relay with breaker', () => {
 
   it('IEC standard inverse, TMS 0.1, pickup 400 A, 3-cycle breaker at 50 Hz, at 800 A (M = 2)', () => {
     // IEC 60255-151: t = TMS·k/(M^α − 1) = 0.1 × 10.03 s (published commissioning table value at M = 2, TMS = 1)
-    const relay: RelayDevice = { kind: 'relay', curve: 'IEC-SI', pickupA: 400, timeDial: 0.1, breakerCycles: 3, frequencyHz: 50 };
+    const relay: RelayDevice = {
+      kind: 'relay',
+      curve: 'IEC-SI',
+      pickupA: 400,
+      timeDial: 0.1,
+      breakerCycles: 3,
+      frequencyHz: 50,
+    };
     const r = clearingTime(relay, 800);
     expectClose(r.clearingTimeS as number, 0.1 * 10.03 + 3 * 0.02, 1e-3); // 3 cycles at 50 Hz = 60 ms (1 cycle = 20 ms)
   });
@@ -71,10 +78,13 @@ describe('IEEE C37.112-2018 and IEC 60255-151 operating times at TD / TMS = 1', 
     return family === 'IEEE' ? ieeeInverseTimeS(name as 'MI', m, td) : iecInverseTimeS(name as 'SI', m, td);
   }
 
-  it.each(computed)('%s at M = %d: %d s (reference check value, computed; printed to 4–5 figures)', (curve, m, expected) => {
-    // IEEE C37.112-2018 / IEC 60255-151:2009 equations; the reference prints 4 decimals, so allow 1e-4 relative
-    expectClose(timeAt(curve, m, 1), expected, 1e-4, 6e-5);
-  });
+  it.each(computed)(
+    '%s at M = %d: %d s (reference check value, computed; printed to 4–5 figures)',
+    (curve, m, expected) => {
+      // IEEE C37.112-2018 / IEC 60255-151:2009 equations; the reference prints 4 decimals, so allow 1e-4 relative
+      expectClose(timeAt(curve, m, 1), expected, 1e-4, 6e-5);
+    },
+  );
 
   // Published commissioning tables at M = 2 (IEC SI 10.03, VI 13.50, EI 26.67, LTI 120.0; IEEE MI 3.80, VI 7.03, EI 9.50),
   // printed to 3–4 figures: allow half a unit in the last printed digit.
@@ -88,14 +98,20 @@ describe('IEEE C37.112-2018 and IEC 60255-151 operating times at TD / TMS = 1', 
   // KNOWN DISCREPANCY (reported): the equation with the published C37.112 EI constants gives
   // 28.2/(2² − 1) + 0.1217 = 9.5217 s at M = 2, which does not round to the table's printed 9.50 s. The
   // reference's own computed value is 9.5217. Kept as a failing check so that it is seen, not hidden.
-  it.failing('IEEE-EI at M = 2 matches the published commissioning table 9.50 s to its printed precision (read)', () => {
-    expectClose(timeAt('IEEE-EI', 2, 1), checks.publishedAtM2.values['IEEE-EI'], 0, 0.0051);
-  });
+  it.failing(
+    'IEEE-EI at M = 2 matches the published commissioning table 9.50 s to its printed precision (read)',
+    () => {
+      expectClose(timeAt('IEEE-EI', 2, 1), checks.publishedAtM2.values['IEEE-EI'], 0, 0.0051);
+    },
+  );
 
-  it.each(Object.entries(checks.publishedIecAtM10.values))('%s at M = 10 matches the published IEC table (%d s, read)', (curve, expected) => {
-    // Published IEC 60255-151 table at TMS = 1, M = 10: SI 2.971, VI 1.500, EI 0.808, LTI 13.333 (3 decimals)
-    expectClose(timeAt(curve, 10, 1), expected, 0, 0.0006);
-  });
+  it.each(Object.entries(checks.publishedIecAtM10.values))(
+    '%s at M = 10 matches the published IEC table (%d s, read)',
+    (curve, expected) => {
+      // Published IEC 60255-151 table at TMS = 1, M = 10: SI 2.971, VI 1.500, EI 0.808, LTI 13.333 (3 decimals)
+      expectClose(timeAt(curve, 10, 1), expected, 0, 0.0006);
+    },
+  );
 
   it('uses the published constants (IEEE C37.112-2018 Table; IEC 60255-151 Table)', () => {
     // IEEE C37.112-2018: MI A 0.0515 B 0.114 p 0.02; VI A 19.61 B 0.491 p 2; EI A 28.2 B 0.1217 p 2
@@ -192,10 +208,19 @@ describe('relay elements', () => {
   });
 
   it('pickups through the CT ratio; primary and secondary settings must agree', () => {
-    const viaCt: RelayDevice = { kind: 'relay', curve: 'IEC-EI', ctRatio: 400 / 5, pickupSecondaryA: 2.5, timeDial: 1, breakerCycles: 3 };
+    const viaCt: RelayDevice = {
+      kind: 'relay',
+      curve: 'IEC-EI',
+      ctRatio: 400 / 5,
+      pickupSecondaryA: 2.5,
+      timeDial: 1,
+      breakerCycles: 3,
+    };
     // pickup = 2.5 A × 80 = 200 A; at 400 A, M = 2: IEC EI 26.6667 s (reference computed value)
     expectClose(clearingTime(viaCt, 400).minimumTimeS as number, 26.6667, 1e-5);
-    expect(() => clearingTime({ ...viaCt, pickupA: 300 }, 400)).toThrow(expect.objectContaining({ kind: 'invalid-input', field: 'device.pickupA' }));
+    expect(() => clearingTime({ ...viaCt, pickupA: 300 }, 400)).toThrow(
+      expect.objectContaining({ kind: 'invalid-input', field: 'device.pickupA' }),
+    );
   });
 
   it('a breaker time in cycles at 50 Hz: 3 cycles = 0.06 s', () => {
@@ -210,8 +235,12 @@ describe('relay input errors', () => {
     expect(() => clearingTime({ ...relay, curve: 'IEEE-XX' as RelayDevice['curve'] }, 500)).toThrow(
       expect.objectContaining({ kind: 'invalid-input', field: 'device.curve' }),
     );
-    expect(() => clearingTime({ ...relay, timeDial: 0 }, 500)).toThrow(expect.objectContaining({ field: 'device.timeDial' }));
-    expect(() => clearingTime({ ...relay, breakerCycles: 0 }, 500)).toThrow(expect.objectContaining({ field: 'device.breakerCycles' }));
+    expect(() => clearingTime({ ...relay, timeDial: 0 }, 500)).toThrow(
+      expect.objectContaining({ field: 'device.timeDial' }),
+    );
+    expect(() => clearingTime({ ...relay, breakerCycles: 0 }, 500)).toThrow(
+      expect.objectContaining({ field: 'device.breakerCycles' }),
+    );
     expect(() => clearingTime(relay, 0)).toThrow(expect.objectContaining({ kind: 'invalid-input', field: 'currentA' }));
   });
 });

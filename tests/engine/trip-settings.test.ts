@@ -94,14 +94,21 @@ describe('resolveElectronicSettings errors', () => {
   });
 
   it('a switch the type does not have, or a missing choice, is an error', () => {
-    const noGf = { ...EXAMPLE_ELECTRONIC_TYPE, settings: { ...EXAMPLE_ELECTRONIC_TYPE.settings, groundFaultPickup: undefined, groundFaultDelay: undefined } };
+    const noGf = {
+      ...EXAMPLE_ELECTRONIC_TYPE,
+      settings: { ...EXAMPLE_ELECTRONIC_TYPE.settings, groundFaultPickup: undefined, groundFaultDelay: undefined },
+    };
     expect(errorOf(() => resolveElectronicSettings(noGf, valid)).field).toBe('positions.groundFaultPickup');
     const { longTimeDelay: _omit, ...missing } = valid;
-    expect(errorOf(() => resolveElectronicSettings(EXAMPLE_ELECTRONIC_TYPE, missing)).field).toBe('positions.longTimeDelay');
+    expect(errorOf(() => resolveElectronicSettings(EXAMPLE_ELECTRONIC_TYPE, missing)).field).toBe(
+      'positions.longTimeDelay',
+    );
   });
 
   it('an unknown position of a switch that is OFF in effect is still reported', () => {
-    const e = errorOf(() => resolveElectronicSettings(EXAMPLE_ELECTRONIC_TYPE, { ...valid, shortTimePickup: 'OFF', shortTimeDelay: '9' }));
+    const e = errorOf(() =>
+      resolveElectronicSettings(EXAMPLE_ELECTRONIC_TYPE, { ...valid, shortTimePickup: 'OFF', shortTimeDelay: '9' }),
+    );
     expect(e.field).toBe('positions.shortTimeDelay');
   });
 });
@@ -114,7 +121,16 @@ describe('schemas', () => {
 
   it('the request rejects an unsorted band and a relay without pickup, naming the path', () => {
     const bad = clearingTimeRequestSchema.safeParse({
-      device: { kind: 'band', ratingA: 100, currentUnit: 'multiple', min: [[1, 10]], max: [[2, 10], [1, 5]] },
+      device: {
+        kind: 'band',
+        ratingA: 100,
+        currentUnit: 'multiple',
+        min: [[1, 10]],
+        max: [
+          [2, 10],
+          [1, 5],
+        ],
+      },
       currentA: 500,
     });
     expect(bad.success).toBe(false);

@@ -19,10 +19,16 @@ const ROOT = path.resolve(__dirname, '../..');
  * Starts `node node_modules/tsx/dist/cli.mjs server/start.ts` with PORT, HOST=127.0.0.1, DATA_DIR, SKIP_WEB_BUILD=1 and
  * DEMO_PASSWORD, and waits for the "is serving" log line and a 200 from GET /api/health.
  */
-export async function startChildServer(opts: { dataDir: string; demoPassword: string; port?: number; timeoutMs?: number }): Promise<ChildServer> {
+export async function startChildServer(opts: {
+  dataDir: string;
+  demoPassword: string;
+  port?: number;
+  timeoutMs?: number;
+}): Promise<ChildServer> {
   const port = opts.port ?? (await freePort());
   const env: NodeJS.ProcessEnv = { ...process.env };
-  for (const k of ['DATABASE_URL', 'TEST_DATABASE_URL', 'JWT_SECRET', 'STORAGE', 'PUBLIC_BASE_URL', 'WEB_DIR']) delete env[k];
+  for (const k of ['DATABASE_URL', 'TEST_DATABASE_URL', 'JWT_SECRET', 'STORAGE', 'PUBLIC_BASE_URL', 'WEB_DIR'])
+    delete env[k];
   Object.assign(env, {
     NODE_ENV: 'development',
     PORT: String(port),
@@ -32,7 +38,12 @@ export async function startChildServer(opts: { dataDir: string; demoPassword: st
     DEMO_PASSWORD: opts.demoPassword,
     LOG_REQUESTS: '0',
   });
-  const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/start.ts'], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'], detached: true });
+  const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/start.ts'], {
+    cwd: ROOT,
+    env,
+    stdio: ['ignore', 'pipe', 'pipe'],
+    detached: true,
+  });
   let output = '';
   child.stdout!.on('data', (d: Buffer) => (output += d.toString()));
   child.stderr!.on('data', (d: Buffer) => (output += d.toString()));

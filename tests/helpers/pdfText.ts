@@ -6,7 +6,10 @@ import path from 'node:path';
  * dynamic import, which jest's module sandbox does not allow. Whitespace in the text is folded to single spaces;
  * images come back as PNG, page by page.
  */
-export function readPdf(bytes: Uint8Array | Buffer, opts: { images?: boolean } = {}): { text: string; pages: number; images: Buffer[][] } {
+export function readPdf(
+  bytes: Uint8Array | Buffer,
+  opts: { images?: boolean } = {},
+): { text: string; pages: number; images: Buffer[][] } {
   const script = `
     const { PDFParse } = require('pdf-parse');
     const chunks = [];
@@ -22,9 +25,17 @@ export function readPdf(bytes: Uint8Array | Buffer, opts: { images?: boolean } =
       await parser.destroy();
       process.stdout.write(JSON.stringify({ text: t.text, pages: t.total, images }));
     });`;
-  const out = execFileSync(process.execPath, ['-e', script], { input: Buffer.from(bytes), cwd: path.resolve(__dirname, '../..'), maxBuffer: 256 * 1024 * 1024 });
+  const out = execFileSync(process.execPath, ['-e', script], {
+    input: Buffer.from(bytes),
+    cwd: path.resolve(__dirname, '../..'),
+    maxBuffer: 256 * 1024 * 1024,
+  });
   const r = JSON.parse(out.toString()) as { text: string; pages: number; images: string[][] };
-  return { text: r.text.replace(/\s+/g, ' '), pages: r.pages, images: r.images.map((p) => p.map((b) => Buffer.from(b, 'base64'))) };
+  return {
+    text: r.text.replace(/\s+/g, ' '),
+    pages: r.pages,
+    images: r.images.map((p) => p.map((b) => Buffer.from(b, 'base64'))),
+  };
 }
 
 export function pdfText(bytes: Uint8Array | Buffer): string {

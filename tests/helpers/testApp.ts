@@ -37,11 +37,14 @@ export interface TestApp {
  */
 export async function makeTestApp(): Promise<TestApp> {
   const databaseUrl = process.env.TEST_DATABASE_URL ?? 'sqlite::memory:';
-  const config = loadConfig({ NODE_ENV: 'test' }, {
-    databaseUrl,
-    jwtSecret: TEST_SECRET,
-    dataDir: path.join(os.tmpdir(), `emberline-test-${randomUUID()}`),
-  });
+  const config = loadConfig(
+    { NODE_ENV: 'test' },
+    {
+      databaseUrl,
+      jwtSecret: TEST_SECRET,
+      dataDir: path.join(os.tmpdir(), `emberline-test-${randomUUID()}`),
+    },
+  );
   const db = await openDb(databaseUrl);
   if (db.dialect === 'postgres') {
     await db.sequelize.query('DROP SCHEMA public CASCADE; CREATE SCHEMA public;');
@@ -59,7 +62,14 @@ export async function makeTestApp(): Promise<TestApp> {
     const users = {} as TestOrg['users'];
     for (const role of roles) {
       const email = `${role}@${slug}.example`;
-      const u = await User.create({ id: randomUUID(), organizationId: org.id, email, name: `${role} of ${slug}`, role, passwordHash: hash });
+      const u = await User.create({
+        id: randomUUID(),
+        organizationId: org.id,
+        email,
+        name: `${role} of ${slug}`,
+        role,
+        passwordHash: hash,
+      });
       const res = await request(app).post('/api/auth/sign-in').send({ email, password: TEST_PASSWORD });
       if (res.status !== 200) throw new Error(`sign-in failed for ${email}: ${JSON.stringify(res.body)}`);
       users[role] = { id: u.id, email, token: res.body.token };

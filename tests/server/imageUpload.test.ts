@@ -16,14 +16,24 @@ const SMALL_JPEG = Buffer.from(
   'base64',
 );
 /** The first bytes of a WebP and a HEIC file: enough for the type check, which only reads the header. */
-const WEBP_HEAD = Buffer.concat([Buffer.from('RIFF'), Buffer.from([0x24, 0, 0, 0]), Buffer.from('WEBPVP8 '), Buffer.alloc(32)]);
-const heifHead = (brand: string) => Buffer.concat([Buffer.from([0, 0, 0, 0x18]), Buffer.from(`ftyp${brand}`), Buffer.alloc(32)]);
+const WEBP_HEAD = Buffer.concat([
+  Buffer.from('RIFF'),
+  Buffer.from([0x24, 0, 0, 0]),
+  Buffer.from('WEBPVP8 '),
+  Buffer.alloc(32),
+]);
+const heifHead = (brand: string) =>
+  Buffer.concat([Buffer.from([0, 0, 0, 0x18]), Buffer.from(`ftyp${brand}`), Buffer.alloc(32)]);
 
 /** An app with the middleware on two routes; the handler reports what it received. */
 function makeApp() {
   const app = express();
   const echo: express.RequestHandler = (req, res) => {
-    res.json({ received: req.file ? { size: req.file.size, mimetype: req.file.mimetype, ext: imageExtension(req.file.buffer) } : null });
+    res.json({
+      received: req.file
+        ? { size: req.file.size, mimetype: req.file.mimetype, ext: imageExtension(req.file.buffer) }
+        : null,
+    });
   };
   app.post('/photo', imageUpload('photo'), echo);
   app.post('/optional', imageUpload('photo', { required: false, maxBytes: 1024 }), echo);
@@ -36,10 +46,14 @@ describe('imageUpload', () => {
 
   it('accepts a small PNG and a small JPEG, reporting the detected type', async () => {
     const png = smallPng();
-    const a = await request(app).post('/photo').attach('photo', png, { filename: 'label.png', contentType: 'image/png' });
+    const a = await request(app)
+      .post('/photo')
+      .attach('photo', png, { filename: 'label.png', contentType: 'image/png' });
     expect(a.status).toBe(200);
     expect(a.body.received).toEqual({ size: png.length, mimetype: 'image/png', ext: 'png' });
-    const b = await request(app).post('/photo').attach('photo', SMALL_JPEG, { filename: 'mismatch.jpg', contentType: 'image/jpeg' });
+    const b = await request(app)
+      .post('/photo')
+      .attach('photo', SMALL_JPEG, { filename: 'mismatch.jpg', contentType: 'image/jpeg' });
     expect(b.status).toBe(200);
     expect(b.body.received).toEqual({ size: SMALL_JPEG.length, mimetype: 'image/jpeg', ext: 'jpg' });
   });
@@ -56,14 +70,18 @@ describe('imageUpload', () => {
   });
 
   it('reports the type the bytes show when the declared image type is another image type', async () => {
-    const res = await request(app).post('/photo').attach('photo', smallPng(), { filename: 'renamed.jpg', contentType: 'image/jpeg' });
+    const res = await request(app)
+      .post('/photo')
+      .attach('photo', smallPng(), { filename: 'renamed.jpg', contentType: 'image/jpeg' });
     expect(res.status).toBe(200);
     expect(res.body.received.mimetype).toBe('image/png');
   });
 
   it('refuses an 11 MB file with 413 naming the field', async () => {
     const big = Buffer.concat([smallPng(), Buffer.alloc(11 * 1024 * 1024)]);
-    const res = await request(app).post('/photo').attach('photo', big, { filename: 'big.png', contentType: 'image/png' });
+    const res = await request(app)
+      .post('/photo')
+      .attach('photo', big, { filename: 'big.png', contentType: 'image/png' });
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe('payload_too_large');
     expect(res.body.error.message).toContain('"photo"');
@@ -72,7 +90,12 @@ describe('imageUpload', () => {
   });
 
   it('honours a smaller maxBytes', async () => {
-    const res = await request(app).post('/optional').attach('photo', Buffer.concat([smallPng(), Buffer.alloc(2048)]), { filename: 'a.png', contentType: 'image/png' });
+    const res = await request(app)
+      .post('/optional')
+      .attach('photo', Buffer.concat([smallPng(), Buffer.alloc(2048)]), {
+        filename: 'a.png',
+        contentType: 'image/png',
+      });
     expect(res.status).toBe(413);
     expect(res.body.error.message).toContain('1 KB');
   });
@@ -80,7 +103,10 @@ describe('imageUpload', () => {
   it('refuses a text file named photo.png declared as image/png with 415 (magic bytes)', async () => {
     const res = await request(app)
       .post('/photo')
-      .attach('photo', Buffer.from('this is not a picture, only text\n'), { filename: 'photo.png', contentType: 'image/png' });
+      .attach('photo', Buffer.from('this is not a picture, only text\n'), {
+        filename: 'photo.png',
+        contentType: 'image/png',
+      });
     expect(res.status).toBe(415);
     expect(res.body.error.code).toBe('unsupported_media_type');
     expect(res.body.error.message).toContain('"photo"');
@@ -88,13 +114,17 @@ describe('imageUpload', () => {
   });
 
   it('refuses real image bytes declared as a non-image type with 415', async () => {
-    const res = await request(app).post('/photo').attach('photo', smallPng(), { filename: 'a.pdf', contentType: 'application/pdf' });
+    const res = await request(app)
+      .post('/photo')
+      .attach('photo', smallPng(), { filename: 'a.pdf', contentType: 'application/pdf' });
     expect(res.status).toBe(415);
     expect(res.body.error.fields).toHaveProperty('photo');
   });
 
   it('refuses an empty file with 415', async () => {
-    const res = await request(app).post('/photo').attach('photo', Buffer.alloc(0), { filename: 'empty.png', contentType: 'image/png' });
+    const res = await request(app)
+      .post('/photo')
+      .attach('photo', Buffer.alloc(0), { filename: 'empty.png', contentType: 'image/png' });
     expect(res.status).toBe(415);
   });
 
@@ -114,7 +144,9 @@ describe('imageUpload', () => {
   });
 
   it('answers 400 for a file in another field', async () => {
-    const res = await request(app).post('/photo').attach('picture', smallPng(), { filename: 'a.png', contentType: 'image/png' });
+    const res = await request(app)
+      .post('/photo')
+      .attach('picture', smallPng(), { filename: 'a.png', contentType: 'image/png' });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('picture');
   });

@@ -17,7 +17,11 @@ import {
 } from '../../server/storage';
 
 /** Every byte value, twice, plus random bytes: a text-mode or encoding slip would change them. */
-const BINARY = Buffer.concat([Buffer.from(Array.from({ length: 256 }, (_, i) => i)), Buffer.from(Array.from({ length: 256 }, (_, i) => 255 - i)), randomBytes(4096)]);
+const BINARY = Buffer.concat([
+  Buffer.from(Array.from({ length: 256 }, (_, i) => i)),
+  Buffer.from(Array.from({ length: 256 }, (_, i) => 255 - i)),
+  randomBytes(4096),
+]);
 
 const BAD_KEYS = [
   '',
@@ -106,22 +110,30 @@ function describeStore(name: string, setup: () => Promise<{ store: FileStore; te
       expect((await store.get('org/2/same.png'))!.body.toString()).toBe('two');
     });
 
-    it.each([...BAD_KEYS.map((k) => [JSON.stringify(k), k]), ['a 600-character segment', LONG_KEY]])('refuses the bad key %s in every method', async (_label, key) => {
-      await expect(store.put(key, Buffer.from('x'), 'image/png')).rejects.toThrow(FileKeyError);
-      await expect(store.get(key)).rejects.toThrow(FileKeyError);
-      await expect(store.exists(key)).rejects.toThrow(FileKeyError);
-      await expect(store.delete(key)).rejects.toThrow(FileKeyError);
-    });
+    it.each([...BAD_KEYS.map((k) => [JSON.stringify(k), k]), ['a 600-character segment', LONG_KEY]])(
+      'refuses the bad key %s in every method',
+      async (_label, key) => {
+        await expect(store.put(key, Buffer.from('x'), 'image/png')).rejects.toThrow(FileKeyError);
+        await expect(store.get(key)).rejects.toThrow(FileKeyError);
+        await expect(store.exists(key)).rejects.toThrow(FileKeyError);
+        await expect(store.delete(key)).rejects.toThrow(FileKeyError);
+      },
+    );
 
     it('refuses a content type with a line break', async () => {
-      await expect(store.put(makeFileKey('org-a', 'png'), Buffer.from('x'), 'image/png\r\nX-Evil: 1')).rejects.toThrow(TypeError);
+      await expect(store.put(makeFileKey('org-a', 'png'), Buffer.from('x'), 'image/png\r\nX-Evil: 1')).rejects.toThrow(
+        TypeError,
+      );
     });
   });
 }
 
 describeStore('local store', async () => {
   const root = await fs.mkdtemp(path.join(os.tmpdir(), 'emberline-local-'));
-  return { store: createFileStore({ kind: 'local', root }), teardown: () => fs.rm(root, { recursive: true, force: true }) };
+  return {
+    store: createFileStore({ kind: 'local', root }),
+    teardown: () => fs.rm(root, { recursive: true, force: true }),
+  };
 });
 
 describeStore('s3 store (local fake)', async () => {
@@ -167,7 +179,9 @@ describe('local store on disk', () => {
     const a = Buffer.alloc(512 * 1024, 0x61);
     const b = Buffer.alloc(512 * 1024, 0x62);
     await store.put('org/4/race.bin', a, 'application/octet-stream');
-    const writes = Promise.all([1, 2, 3, 4].map((i) => store.put('org/4/race.bin', i % 2 ? b : a, 'application/octet-stream')));
+    const writes = Promise.all(
+      [1, 2, 3, 4].map((i) => store.put('org/4/race.bin', i % 2 ? b : a, 'application/octet-stream')),
+    );
     const reads = Promise.all([1, 2, 3, 4, 5, 6].map(() => store.get('org/4/race.bin')));
     const [, seen] = await Promise.all([writes, reads]);
     for (const got of seen) expect(got!.body.equals(a) || got!.body.equals(b)).toBe(true);
@@ -189,17 +203,34 @@ describe('makeFileKey', () => {
 
 describe('storageConfigFromEnv', () => {
   const dataDir = path.join(os.tmpdir(), 'emberline-data');
-  const s3Env = { STORAGE: 's3', S3_BUCKET: 'photos', S3_ACCESS_KEY_ID: 'AKID', S3_SECRET_ACCESS_KEY: 'secret-value-123' };
+  const s3Env = {
+    STORAGE: 's3',
+    S3_BUCKET: 'photos',
+    S3_ACCESS_KEY_ID: 'AKID',
+    S3_SECRET_ACCESS_KEY: 'secret-value-123',
+  };
 
   it('defaults to the local store under <dataDir>/uploads', () => {
     expect(storageConfigFromEnv({}, dataDir)).toEqual({ kind: 'local', root: path.join(dataDir, 'uploads') });
-    expect(storageConfigFromEnv({ STORAGE: '' }, dataDir)).toEqual({ kind: 'local', root: path.join(dataDir, 'uploads') });
+    expect(storageConfigFromEnv({ STORAGE: '' }, dataDir)).toEqual({
+      kind: 'local',
+      root: path.join(dataDir, 'uploads'),
+    });
   });
 
   it('reads an S3 configuration', () => {
-    expect(storageConfigFromEnv(s3Env, dataDir)).toEqual({ kind: 's3', region: 'us-east-1', bucket: 'photos', accessKeyId: 'AKID', secretAccessKey: 'secret-value-123' });
+    expect(storageConfigFromEnv(s3Env, dataDir)).toEqual({
+      kind: 's3',
+      region: 'us-east-1',
+      bucket: 'photos',
+      accessKeyId: 'AKID',
+      secretAccessKey: 'secret-value-123',
+    });
     expect(
-      storageConfigFromEnv({ ...s3Env, S3_ENDPOINT: 'http://127.0.0.1:9000', S3_REGION: 'eu-west-3', S3_FORCE_PATH_STYLE: 'false' }, dataDir),
+      storageConfigFromEnv(
+        { ...s3Env, S3_ENDPOINT: 'http://127.0.0.1:9000', S3_REGION: 'eu-west-3', S3_FORCE_PATH_STYLE: 'false' },
+        dataDir,
+      ),
     ).toEqual({
       kind: 's3',
       endpoint: 'http://127.0.0.1:9000',
@@ -209,7 +240,9 @@ describe('storageConfigFromEnv', () => {
       secretAccessKey: 'secret-value-123',
       forcePathStyle: false,
     });
-    expect(storageConfigFromEnv({ ...s3Env, S3_ENDPOINT: '', S3_FORCE_PATH_STYLE: '1' }, dataDir)).toMatchObject({ forcePathStyle: true });
+    expect(storageConfigFromEnv({ ...s3Env, S3_ENDPOINT: '', S3_FORCE_PATH_STYLE: '1' }, dataDir)).toMatchObject({
+      forcePathStyle: true,
+    });
   });
 
   it('names every missing or bad variable, and never echoes the secret', () => {
@@ -235,8 +268,14 @@ describe('storageConfigFromEnv', () => {
   });
 
   it('allows the S3 fake in development only', () => {
-    expect(storageConfigFromEnv({ STORAGE: 's3-fake' }, dataDir)).toEqual({ kind: 's3-fake', directory: path.join(dataDir, 's3-fake'), bucket: 'emberline-dev' });
-    expect(() => storageConfigFromEnv({ STORAGE: 's3-fake', NODE_ENV: 'production' }, dataDir)).toThrow(/STORAGE: s3-fake is for development/);
+    expect(storageConfigFromEnv({ STORAGE: 's3-fake' }, dataDir)).toEqual({
+      kind: 's3-fake',
+      directory: path.join(dataDir, 's3-fake'),
+      bucket: 'emberline-dev',
+    });
+    expect(() => storageConfigFromEnv({ STORAGE: 's3-fake', NODE_ENV: 'production' }, dataDir)).toThrow(
+      /STORAGE: s3-fake is for development/,
+    );
   });
 });
 

@@ -2,8 +2,18 @@ import { DataTypes, type QueryInterface } from 'sequelize';
 
 /** Studies (revisions of a site's model), their runs, and the site's equipment that carries labels. */
 export async function up({ context: qi }: { context: QueryInterface }): Promise<void> {
-  const org = { type: DataTypes.STRING(36), allowNull: false, references: { model: 'organizations', key: 'id' }, onDelete: 'CASCADE' };
-  const site = { type: DataTypes.STRING(36), allowNull: false, references: { model: 'sites', key: 'id' }, onDelete: 'CASCADE' };
+  const org = {
+    type: DataTypes.STRING(36),
+    allowNull: false,
+    references: { model: 'organizations', key: 'id' },
+    onDelete: 'CASCADE',
+  };
+  const site = {
+    type: DataTypes.STRING(36),
+    allowNull: false,
+    references: { model: 'sites', key: 'id' },
+    onDelete: 'CASCADE',
+  };
   await qi.createTable('studies', {
     id: { type: DataTypes.STRING(36), primaryKey: true },
     organizationId: org,
@@ -33,7 +43,12 @@ export async function up({ context: qi }: { context: QueryInterface }): Promise<
   await qi.createTable('study_runs', {
     id: { type: DataTypes.STRING(36), primaryKey: true },
     organizationId: org,
-    studyId: { type: DataTypes.STRING(36), allowNull: false, references: { model: 'studies', key: 'id' }, onDelete: 'CASCADE' },
+    studyId: {
+      type: DataTypes.STRING(36),
+      allowNull: false,
+      references: { model: 'studies', key: 'id' },
+      onDelete: 'CASCADE',
+    },
     modelVersion: { type: DataTypes.INTEGER, allowNull: false },
     status: { type: DataTypes.STRING(20), allowNull: false },
     progress: { type: DataTypes.FLOAT, allowNull: false, defaultValue: 0 },

@@ -2,12 +2,27 @@ import { DataTypes, type QueryInterface } from 'sequelize';
 
 /** Labels issued on approval, print batches, and field reports from electricians. */
 export async function up({ context: qi }: { context: QueryInterface }): Promise<void> {
-  const org = { type: DataTypes.STRING(36), allowNull: false, references: { model: 'organizations', key: 'id' }, onDelete: 'CASCADE' };
+  const org = {
+    type: DataTypes.STRING(36),
+    allowNull: false,
+    references: { model: 'organizations', key: 'id' },
+    onDelete: 'CASCADE',
+  };
   await qi.createTable('labels', {
     id: { type: DataTypes.STRING(36), primaryKey: true },
     organizationId: org,
-    siteId: { type: DataTypes.STRING(36), allowNull: false, references: { model: 'sites', key: 'id' }, onDelete: 'CASCADE' },
-    studyId: { type: DataTypes.STRING(36), allowNull: false, references: { model: 'studies', key: 'id' }, onDelete: 'CASCADE' },
+    siteId: {
+      type: DataTypes.STRING(36),
+      allowNull: false,
+      references: { model: 'sites', key: 'id' },
+      onDelete: 'CASCADE',
+    },
+    studyId: {
+      type: DataTypes.STRING(36),
+      allowNull: false,
+      references: { model: 'studies', key: 'id' },
+      onDelete: 'CASCADE',
+    },
     equipmentTag: { type: DataTypes.STRING(64), allowNull: false },
     code: { type: DataTypes.STRING(32), allowNull: false, unique: true },
     content: { type: DataTypes.TEXT, allowNull: false },
@@ -24,8 +39,18 @@ export async function up({ context: qi }: { context: QueryInterface }): Promise<
   await qi.createTable('field_reports', {
     id: { type: DataTypes.STRING(36), primaryKey: true },
     organizationId: org,
-    siteId: { type: DataTypes.STRING(36), allowNull: false, references: { model: 'sites', key: 'id' }, onDelete: 'CASCADE' },
-    labelId: { type: DataTypes.STRING(36), allowNull: false, references: { model: 'labels', key: 'id' }, onDelete: 'CASCADE' },
+    siteId: {
+      type: DataTypes.STRING(36),
+      allowNull: false,
+      references: { model: 'sites', key: 'id' },
+      onDelete: 'CASCADE',
+    },
+    labelId: {
+      type: DataTypes.STRING(36),
+      allowNull: false,
+      references: { model: 'labels', key: 'id' },
+      onDelete: 'CASCADE',
+    },
     reporterId: { type: DataTypes.STRING(36), allowNull: false },
     kind: { type: DataTypes.STRING(30), allowNull: false },
     text: { type: DataTypes.TEXT, allowNull: false },

@@ -5,8 +5,16 @@ import { DataTypes, type QueryInterface } from 'sequelize';
  * mail captured by the local SMTP sink.
  */
 export async function up({ context: qi }: { context: QueryInterface }): Promise<void> {
-  const org = { type: DataTypes.STRING(36), allowNull: false, references: { model: 'organizations', key: 'id' }, onDelete: 'CASCADE' };
-  const ts = () => ({ createdAt: { type: DataTypes.DATE, allowNull: false }, updatedAt: { type: DataTypes.DATE, allowNull: false } });
+  const org = {
+    type: DataTypes.STRING(36),
+    allowNull: false,
+    references: { model: 'organizations', key: 'id' },
+    onDelete: 'CASCADE',
+  };
+  const ts = () => ({
+    createdAt: { type: DataTypes.DATE, allowNull: false },
+    updatedAt: { type: DataTypes.DATE, allowNull: false },
+  });
 
   await qi.addColumn('field_reports', 'acknowledgedAt', { type: DataTypes.DATE, allowNull: true });
   await qi.addColumn('field_reports', 'acknowledgedById', { type: DataTypes.STRING(36), allowNull: true });
@@ -71,7 +79,6 @@ export async function up({ context: qi }: { context: QueryInterface }): Promise<
     receivedAt: { type: DataTypes.DATE, allowNull: false },
   });
   await qi.addIndex('captured_mail', ['organizationId', 'receivedAt']);
-
 }
 
 export async function down({ context: qi }: { context: QueryInterface }): Promise<void> {
@@ -79,5 +86,6 @@ export async function down({ context: qi }: { context: QueryInterface }): Promis
   await qi.dropTable('reminder_deliveries');
   await qi.dropTable('reminder_rules');
   await qi.dropTable('link_tokens');
-  for (const c of ['resolvedById', 'resolvedAt', 'acknowledgedById', 'acknowledgedAt']) await qi.removeColumn('field_reports', c);
+  for (const c of ['resolvedById', 'resolvedAt', 'acknowledgedById', 'acknowledgedAt'])
+    await qi.removeColumn('field_reports', c);
 }

@@ -19,7 +19,19 @@ export type Table1Row = readonly [number, number, number, number, number, number
 export type Table2Row = readonly [number, number, number, number, number, number, number];
 /** k1..k13 of Tables 3, 4, 5 (Eqs. 3-10). */
 export type EnergyRow = readonly [
-  number, number, number, number, number, number, number, number, number, number, number, number, number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
+  number,
 ];
 /** b1..b3 of Table 7 (Eqs. 14, 15). */
 export type Table7Row = readonly [number, number, number];
@@ -33,7 +45,11 @@ function checked<T extends readonly number[]>(row: readonly number[], length: nu
 
 /** Table 1 row for Eq. (1): k1..k10 for the configuration at 600, 2700 or 14300 V. */
 export function table1Row(config: ElectrodeConfig, levelV: ModelLevelV): Table1Row {
-  return checked<Table1Row>(data.table1ArcingCurrent.rows[config][String(levelV) as '600' | '2700' | '14300'], 10, `Table 1 ${config}/${levelV}`);
+  return checked<Table1Row>(
+    data.table1ArcingCurrent.rows[config][String(levelV) as '600' | '2700' | '14300'],
+    10,
+    `Table 1 ${config}/${levelV}`,
+  );
 }
 
 /** Table 2 row for Eq. (2): k1..k7 of the arcing-current variation factor. */

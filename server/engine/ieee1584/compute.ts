@@ -217,10 +217,16 @@ export function computeArcingCurrents(input: ArcingCurrentInput): ArcingCurrents
   const warnings = rangeWarnings({ voltageV, boltedFaultKa, gapMm, electrodeConfig: config }, regime);
   const varCf = arcingCurrentVariationFactor(config, voltageKv);
   const reduce = (currentKa: number) => reducedArcingCurrentKa(currentKa, varCf);
-  const iarc600 = checkFinitePositive(intermediateArcingCurrentKa(config, 600, boltedFaultKa, gapMm), 'arcing current (Eq. 1)');
+  const iarc600 = checkFinitePositive(
+    intermediateArcingCurrentKa(config, 600, boltedFaultKa, gapMm),
+    'arcing current (Eq. 1)',
+  );
 
   if (regime === 'low-voltage') {
-    const full = checkFinitePositive(lowVoltageArcingCurrentKa(voltageKv, iarc600, boltedFaultKa), 'arcing current (Eq. 25)');
+    const full = checkFinitePositive(
+      lowVoltageArcingCurrentKa(voltageKv, iarc600, boltedFaultKa),
+      'arcing current (Eq. 25)',
+    );
     const reduced = checkFinitePositive(reduce(full), 'reduced arcing current (Eq. 2)');
     return {
       voltageV,
@@ -235,11 +241,18 @@ export function computeArcingCurrents(input: ArcingCurrentInput): ArcingCurrents
     };
   }
 
-  const iarc2700 = checkFinitePositive(intermediateArcingCurrentKa(config, 2700, boltedFaultKa, gapMm), 'arcing current (Eq. 1)');
-  const iarc14300 = checkFinitePositive(intermediateArcingCurrentKa(config, 14300, boltedFaultKa, gapMm), 'arcing current (Eq. 1)');
+  const iarc2700 = checkFinitePositive(
+    intermediateArcingCurrentKa(config, 2700, boltedFaultKa, gapMm),
+    'arcing current (Eq. 1)',
+  );
+  const iarc14300 = checkFinitePositive(
+    intermediateArcingCurrentKa(config, 14300, boltedFaultKa, gapMm),
+    'arcing current (Eq. 1)',
+  );
   const fullLevels = { at600V: iarc600, at2700V: iarc2700, at14300V: iarc14300 };
   const reducedLevels = { at600V: reduce(iarc600), at2700V: reduce(iarc2700), at14300V: reduce(iarc14300) };
-  const interpolate = (l: Required<LevelValues>) => interpolateByVoltage(l.at600V, l.at2700V, l.at14300V, voltageKv).value;
+  const interpolate = (l: Required<LevelValues>) =>
+    interpolateByVoltage(l.at600V, l.at2700V, l.at14300V, voltageKv).value;
   return {
     voltageV,
     voltageRegime: regime,
@@ -290,7 +303,10 @@ export function resolveEnclosure(
   const correction = enclosureCorrectionFactor(config, arcing.voltageV / 1000, used);
   const limit = TABLE6.upperMm;
   if (correction.heightLimited || correction.widthLimited) {
-    const which = [correction.heightLimited ? `height ${fmt(used.height)} mm` : '', correction.widthLimited ? `width ${fmt(used.width)} mm` : '']
+    const which = [
+      correction.heightLimited ? `height ${fmt(used.height)} mm` : '',
+      correction.widthLimited ? `width ${fmt(used.width)} mm` : '',
+    ]
       .filter(Boolean)
       .join(' and ');
     warnings.push({
@@ -306,7 +322,10 @@ export function resolveEnclosure(
     });
   }
   return {
-    enclosureCorrectionFactor: checkFinitePositive(correction.enclosureCorrectionFactor, 'enclosure correction factor (Eqs. 14, 15)'),
+    enclosureCorrectionFactor: checkFinitePositive(
+      correction.enclosureCorrectionFactor,
+      'enclosure correction factor (Eqs. 14, 15)',
+    ),
     enclosure: {
       enclosureType: correction.enclosureType,
       enclosureMm: { ...used },
@@ -479,7 +498,10 @@ export function computeIncidentEnergy(input: IncidentEnergyInput): IncidentEnerg
     durations = { full: single, reduced: single };
   }
   requirePositive(input.workingDistanceMm, 'workingDistanceMm');
-  const cap = input.maxArcDurationMs === undefined ? DEFAULT_MAX_ARC_DURATION_MS : requirePositive(input.maxArcDurationMs, 'maxArcDurationMs');
+  const cap =
+    input.maxArcDurationMs === undefined
+      ? DEFAULT_MAX_ARC_DURATION_MS
+      : requirePositive(input.maxArcDurationMs, 'maxArcDurationMs');
   const arcing = computeArcingCurrents(input);
   return computeEnergyForDurations(
     arcing,

@@ -56,7 +56,12 @@ export function equivalentWidthIn(config: BoxConfig, widthMm: number, voltageKv:
  * < 508 mm: 20 (typical) or 0.03937·H (shallow); 508-660.4 mm: 0.03937·H; above 660.4 mm: VCB 0.03937·H
  * (49 in above 1244.6 mm), VCBB and HCB Eq. (12) with H limited to 1244.6 mm.
  */
-export function equivalentHeightIn(config: BoxConfig, heightMm: number, voltageKv: number, type: EnclosureType): number {
+export function equivalentHeightIn(
+  config: BoxConfig,
+  heightMm: number,
+  voltageKv: number,
+  type: EnclosureType,
+): number {
   if (heightMm <= TABLE6.midMm) return smallDimensionIn(heightMm, type);
   if (config === 'VCB') {
     return heightMm > TABLE6.upperMm ? TABLE6.vcbHeightAboveLimitIn : TABLE6.inchFactor * heightMm;
@@ -108,7 +113,8 @@ export function enclosureCorrectionFactor(
   const height1In = equivalentHeightIn(config, enclosureMm.height, voltageKv, type);
   const width1In = equivalentWidthIn(config, enclosureMm.width, voltageKv, type);
   const ees = equivalentEnclosureSizeIn(height1In, width1In);
-  const cf = type === 'shallow' ? shallowEnclosureCorrectionFactor(config, ees) : typicalEnclosureCorrectionFactor(config, ees);
+  const cf =
+    type === 'shallow' ? shallowEnclosureCorrectionFactor(config, ees) : typicalEnclosureCorrectionFactor(config, ees);
   return {
     enclosureType: type,
     enclosureCorrectionFactor: cf,

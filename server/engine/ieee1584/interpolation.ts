@@ -31,7 +31,12 @@ export interface InterpolationTrace {
  * IEEE Std 1584-2018 selection rule after Eqs. (16)-(18) (and likewise 19-21, 22-24):
  * 0.6 < Voc ≤ 2.7 kV → x_3; Voc > 2.7 kV → x_2.
  */
-export function interpolateByVoltage(x600: number, x2700: number, x14300: number, voltageKv: number): InterpolationTrace {
+export function interpolateByVoltage(
+  x600: number,
+  x2700: number,
+  x14300: number,
+  voltageKv: number,
+): InterpolationTrace {
   const x1 = interpolateFirst(x600, x2700, voltageKv);
   const x2 = interpolateSecond(x2700, x14300, voltageKv);
   const x3 = interpolateThird(x1, x2, voltageKv);

@@ -21,7 +21,12 @@ const FEET_PER_METRE = 1 / 0.3048;
 
 function requirePositive(value: number, field: string): void {
   if (!(Number.isFinite(value) && value > 0)) {
-    throw new EngineError('invalid-input', 'non-physical-value', `${field} must be a positive finite number (got ${value})`, field);
+    throw new EngineError(
+      'invalid-input',
+      'non-physical-value',
+      `${field} must be a positive finite number (got ${value})`,
+      field,
+    );
   }
 }
 
@@ -110,7 +115,11 @@ export function transformerFullLoadCurrentA(ratingKva: number, voltageKv: number
  * Short circuit at the terminals of a transformer fed from an infinite bus: I = I_FLA × 100 / %Z
  * (point-to-point method, "transformer multiplier" 100/%Z).
  */
-export function transformerInfiniteBusFaultCurrentA(ratingKva: number, voltageKv: number, impedancePct: number): number {
+export function transformerInfiniteBusFaultCurrentA(
+  ratingKva: number,
+  voltageKv: number,
+  impedancePct: number,
+): number {
   return transformerFullLoadCurrentA(ratingKva, voltageKv) * (100 / impedancePct);
 }
 
@@ -175,7 +184,12 @@ export function transformerImpedancePu(p: {
  * t = (kVrated,primary / kVbase,primary) / (kVrated,secondary / kVbase,secondary); 1 when ratings equal bus voltages.
  * The transformer is an ideal t:1 transformer followed by its series impedance (standard tap model).
  */
-export function offNominalRatio(ratedPrimaryKv: number, basePrimaryKv: number, ratedSecondaryKv: number, baseSecondaryKv: number): number {
+export function offNominalRatio(
+  ratedPrimaryKv: number,
+  basePrimaryKv: number,
+  ratedSecondaryKv: number,
+  baseSecondaryKv: number,
+): number {
   return ratedPrimaryKv / basePrimaryKv / (ratedSecondaryKv / baseSecondaryKv);
 }
 
@@ -203,7 +217,12 @@ export function cableImpedanceFromTableOhm(p: {
 }
 
 /** Cable impedance from explicit per-length values of one conductor: Z = (r + jx) · L[km] / n. */
-export function cableImpedanceFromPerKmOhm(p: { rOhmPerKm: number; xOhmPerKm: number; lengthM: number; sets: number }): Complex {
+export function cableImpedanceFromPerKmOhm(p: {
+  rOhmPerKm: number;
+  xOhmPerKm: number;
+  lengthM: number;
+  sets: number;
+}): Complex {
   requirePositive(p.rOhmPerKm, 'rOhmPerKm');
   requirePositive(p.xOhmPerKm, 'xOhmPerKm');
   requirePositive(p.lengthM, 'lengthM');

@@ -42,7 +42,12 @@ export function necTable9ImpedanceOhmPer1000Ft(
   const canonical = normalizeConductorSize(size);
   const row = canonical === null ? undefined : rows.get(canonical);
   if (!row) {
-    throw new EngineError('invalid-input', 'unknown-conductor-size', `conductor size "${size}" is not in NEC Chapter 9 Table 9`, field);
+    throw new EngineError(
+      'invalid-input',
+      'unknown-conductor-size',
+      `conductor size "${size}" is not in NEC Chapter 9 Table 9`,
+      field,
+    );
   }
   const r = (material === 'Cu' ? row.rCopperOhmPer1000Ft : row.rAluminumOhmPer1000Ft)[conduit];
   const x = row.xOhmPer1000Ft[conduit];

@@ -110,7 +110,12 @@ export function buildNetwork(model: Model): Network {
   const busOf = (id: string, collection: string, index: number, field: string): number => {
     const i = busIndex.get(id);
     if (i === undefined) {
-      throw new EngineError('invalid-input', 'unknown-reference', `unknown bus "${id}"`, `${collection}[${index}].${field}`);
+      throw new EngineError(
+        'invalid-input',
+        'unknown-reference',
+        `unknown bus "${id}"`,
+        `${collection}[${index}].${field}`,
+      );
     }
     return i;
   };
@@ -213,11 +218,21 @@ export function buildNetwork(model: Model): Network {
         });
         if (frequencyHz !== 60) scaledReactance = true;
       } else {
-        throw new EngineError('invalid-input', 'missing-value', 'give size, material and conduit, or rOhmPerKm and xOhmPerKm', 'size');
+        throw new EngineError(
+          'invalid-input',
+          'missing-value',
+          'give size, material and conduit, or rOhmPerKm and xOhmPerKm',
+          'size',
+        );
       }
     } catch (error) {
       if (error instanceof EngineError) {
-        throw new EngineError(error.kind, error.code, `cable "${c.id}": ${error.message}`, `cables[${i}].${error.field ?? 'size'}`);
+        throw new EngineError(
+          error.kind,
+          error.code,
+          `cable "${c.id}": ${error.message}`,
+          `cables[${i}].${error.field ?? 'size'}`,
+        );
       }
       throw error;
     }

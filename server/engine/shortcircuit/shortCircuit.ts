@@ -166,7 +166,13 @@ function buildTieTree(network: Network): TieTree {
   return { postOrder, parentBus, parentTie, inGroup };
 }
 
-function direction(phasorRe: number, phasorIm: number, magnitude: number, ref: Complex, refMagnitude: number): FlowDirection {
+function direction(
+  phasorRe: number,
+  phasorIm: number,
+  magnitude: number,
+  ref: Complex,
+  refMagnitude: number,
+): FlowDirection {
   if (!(magnitude > NEGLIGIBLE_SHARE * refMagnitude)) return 'none';
   // In-phase component with the fault current: Re(I · conj(I_f)).
   return phasorRe * ref.re + phasorIm * ref.im >= 0 ? 'from-to' : 'to-from';
@@ -190,7 +196,12 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
     const zMag = Math.hypot(zr, zi);
     const currentA = (prefaultPu / zMag) * busBaseA[b];
     if (!(zMag > 0) || !Number.isFinite(currentA) || !Number.isFinite(zi / zr)) {
-      throw new EngineError('out-of-range', 'non-finite-result', `fault current at bus "${id}" is not finite`, `buses[${b}]`);
+      throw new EngineError(
+        'out-of-range',
+        'non-finite-result',
+        `fault current at bus "${id}" is not finite`,
+        `buses[${b}]`,
+      );
     }
     return { id, nominalKv: busKv[b], boltedFaultKa: currentA / 1000, xr: zi / zr };
   });
@@ -199,7 +210,12 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
   const { branches: netBranches, injections: netInjections, ties: netTies } = network;
   // Look-up tables for `faultAt`, built on first use (the all-bus summary does not need them).
   let lookups:
-    | { bus: Map<string, number>; branch: Map<string, number>; tie: Map<string, number>; injection: Map<string, number> }
+    | {
+        bus: Map<string, number>;
+        branch: Map<string, number>;
+        tie: Map<string, number>;
+        injection: Map<string, number>;
+      }
     | undefined;
   const index = () =>
     (lookups ??= {
@@ -211,7 +227,12 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
   let tieTree: TieTree | undefined;
 
   /** Indices of the requested elements (all when `ids` is undefined); unknown ids throw. */
-  const pick = (ids: readonly string[] | undefined, count: number, byId: Map<string, number>, field: string): number[] => {
+  const pick = (
+    ids: readonly string[] | undefined,
+    count: number,
+    byId: Map<string, number>,
+    field: string,
+  ): number[] => {
     if (ids === undefined) return Array.from({ length: count }, (_, i) => i);
     const out: number[] = [];
     for (const id of ids) {
@@ -235,7 +256,12 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
     const fault: Complex = { re: (prefaultPu * zkk.re) / zkkMag2, im: (-prefaultPu * zkk.im) / zkkMag2 };
     const faultMag = cAbs(fault);
     if (!Number.isFinite(faultMag) || !(faultMag > 0)) {
-      throw new EngineError('out-of-range', 'non-finite-result', `fault current at bus "${busId}" is not finite`, 'busId');
+      throw new EngineError(
+        'out-of-range',
+        'non-finite-result',
+        `fault current at bus "${busId}" is not finite`,
+        'busId',
+      );
     }
     // ΔV_i = −Z_ik · I_f (in place over the column)
     const dvRe = column.re;
@@ -295,11 +321,13 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
       });
     }
 
-    const injections: InjectionFaultCurrent[] = pick(options.injectionIds, nInj, index().injection, 'injectionIds').map((k) => {
-      const s = netInjections[k];
-      const phasorA = { re: gRe[k], im: gIm[k] };
-      return { id: s.id, kind: s.kind, bus: busIds[s.bus], currentA: Math.hypot(gRe[k], gIm[k]), phasorA };
-    });
+    const injections: InjectionFaultCurrent[] = pick(options.injectionIds, nInj, index().injection, 'injectionIds').map(
+      (k) => {
+        const s = netInjections[k];
+        const phasorA = { re: gRe[k], im: gIm[k] };
+        return { id: s.id, kind: s.kind, bus: busIds[s.bus], currentA: Math.hypot(gRe[k], gIm[k]), phasorA };
+      },
+    );
 
     const wantedTies =
       options.branchIds === undefined
@@ -398,7 +426,10 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
  * (one solve per bus: prefer `createShortCircuitSolver(model).faultAt(busId)` for the buses you need).
  */
 export function shortCircuit(model: Model): ShortCircuitResult;
-export function shortCircuit(model: Model, options: { includeFaults: true }): ShortCircuitResult & { faults: BusFault[] };
+export function shortCircuit(
+  model: Model,
+  options: { includeFaults: true },
+): ShortCircuitResult & { faults: BusFault[] };
 export function shortCircuit(
   model: Model,
   options?: { includeFaults?: boolean },

@@ -313,7 +313,8 @@ export function factorComplexSymmetric(builder: ComplexSymmetricBuilder): LdltFa
         break;
       }
     }
-    if (p < 0) throw new EngineError('out-of-range', 'solver-structure', 'internal error: elimination order incomplete');
+    if (p < 0)
+      throw new EngineError('out-of-range', 'solver-structure', 'internal error: elimination order incomplete');
     eliminated[p] = 1;
     order[step] = p;
 

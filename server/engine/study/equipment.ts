@@ -21,7 +21,8 @@ export function resolveEquipment(bus: Bus): ResolvedEquipment {
   const eq = bus.equipment;
   if (!eq) throw new EngineError('invalid-input', 'NO_EQUIPMENT', `Bus ${bus.id} has no equipment`, 'equipment');
   const cls = findEquipmentClass(eq.class);
-  if (!cls) throw new EngineError('invalid-input', 'UNKNOWN_CLASS', `Unknown equipment class ${eq.class}`, 'equipment.class');
+  if (!cls)
+    throw new EngineError('invalid-input', 'UNKNOWN_CLASS', `Unknown equipment class ${eq.class}`, 'equipment.class');
   const typical: string[] = [];
   const pick = <T>(own: T | undefined, fallback: T | null, field: string): T => {
     if (own !== undefined) return own;
@@ -43,7 +44,9 @@ export function resolveEquipment(bus: Bus): ResolvedEquipment {
     electrodeConfig,
     gapMm: pick(eq.gapMm, cls.gapMm, 'gapMm'),
     workingDistanceMm: pick(eq.workingDistanceMm, cls.workingDistanceMm, 'workingDistanceMm'),
-    enclosureMm: openAir ? null : (eq.enclosureMm ?? (cls.enclosureMm ? (typical.push('enclosureMm'), cls.enclosureMm) : null)),
+    enclosureMm: openAir
+      ? null
+      : (eq.enclosureMm ?? (cls.enclosureMm ? (typical.push('enclosureMm'), cls.enclosureMm) : null)),
     mainIsolated: eq.mainIsolated ?? true,
     typicalValuesUsed: typical,
   };

@@ -121,7 +121,14 @@ function faultPicture(model: Model, solver: ShortCircuitSolver, bus: Bus): Fault
     } else if (placed.source) {
       const inj = injectionById.get(placed.source);
       if (!inj || !(inj.currentA > 0)) continue;
-      devices.push({ placed, branchId: null, sourceId: inj.id, boltedCurrentA: inj.currentA, kv: kvOf(model, inj.bus), location: `${inj.id} at ${inj.bus}` });
+      devices.push({
+        placed,
+        branchId: null,
+        sourceId: inj.id,
+        boltedCurrentA: inj.currentA,
+        kv: kvOf(model, inj.bus),
+        location: `${inj.id} at ${inj.bus}`,
+      });
     }
   }
   return { bus, fault, edges, contributors, devices };
@@ -206,7 +213,8 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   }
   for (const c of picture.contributors) {
     const s = stop.get(c.id);
-    if (c.kind === 'motor' && (!s || s.t > input.motorDecayS)) stop.set(c.id, { t: input.motorDecayS, by: null, reason: 'motor-decay' });
+    if (c.kind === 'motor' && (!s || s.t > input.motorDecayS))
+      stop.set(c.id, { t: input.motorDecayS, by: null, reason: 'motor-decay' });
     else if (!s) stop.set(c.id, { t: input.maxArcDurationS, by: null, reason: 'cap' });
   }
 
@@ -220,21 +228,53 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     const share = feeding.reduce((s, c) => s + c.share, 0);
     if (t > from && share > NEGLIGIBLE) {
       const ibf = picture.fault.boltedFaultKa * Math.min(1, share);
-      const a = Math.abs(share - 1) < 1e-12 ? arcing : computeArcingCurrents({ voltageV: arcing.voltageV, boltedFaultKa: ibf, electrodeConfig: arcing.electrodeConfig, gapMm: arcing.gapMm });
+      const a =
+        Math.abs(share - 1) < 1e-12
+          ? arcing
+          : computeArcingCurrents({
+              voltageV: arcing.voltageV,
+              boltedFaultKa: ibf,
+              electrodeConfig: arcing.electrodeConfig,
+              gapMm: arcing.gapMm,
+            });
       const durationMs = (t - from) * 1000;
-      const e = computeCaseEnergy(a, arcCase, input.enclosureCorrectionFactor, durationMs, equipment.workingDistanceMm).incidentEnergyJPerCm2;
-      intervals.push({ fromS: from, toS: t, sourceIds: feeding.map((c) => c.id), boltedFaultKa: ibf, arcingCurrentKa: a.arcingCurrentKa[arcCase], incidentEnergyJPerCm2: e });
+      const e = computeCaseEnergy(
+        a,
+        arcCase,
+        input.enclosureCorrectionFactor,
+        durationMs,
+        equipment.workingDistanceMm,
+      ).incidentEnergyJPerCm2;
+      intervals.push({
+        fromS: from,
+        toS: t,
+        sourceIds: feeding.map((c) => c.id),
+        boltedFaultKa: ibf,
+        arcingCurrentKa: a.arcingCurrentKa[arcCase],
+        incidentEnergyJPerCm2: e,
+      });
       parts.push({ arcing: a, durationMs });
     }
     from = t;
   }
   const energyAt = (dMm: number) =>
-    parts.reduce((s, p) => s + computeCaseEnergy(p.arcing, arcCase, input.enclosureCorrectionFactor, p.durationMs, dMm).incidentEnergyJPerCm2, 0);
+    parts.reduce(
+      (s, p) =>
+        s +
+        computeCaseEnergy(p.arcing, arcCase, input.enclosureCorrectionFactor, p.durationMs, dMm).incidentEnergyJPerCm2,
+      0,
+    );
   const energyJ = intervals.reduce((s, i) => s + i.incidentEnergyJPerCm2, 0);
   // One interval: the published boundary equation (Eqs. 7-10, 22-24); several: the distance where the sum is 5.0 J/cm².
   const boundaryMm =
     parts.length === 1
-      ? computeCaseEnergy(parts[0].arcing, arcCase, input.enclosureCorrectionFactor, parts[0].durationMs, equipment.workingDistanceMm).arcFlashBoundaryMm
+      ? computeCaseEnergy(
+          parts[0].arcing,
+          arcCase,
+          input.enclosureCorrectionFactor,
+          parts[0].durationMs,
+          equipment.workingDistanceMm,
+        ).arcFlashBoundaryMm
       : parts.length === 0
         ? 0
         : boundaryDistanceMm(energyAt);
@@ -242,13 +282,16 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const arcEnd = times.length ? Math.min(times[times.length - 1], input.maxArcDurationS) : 0;
   // The clearing device is the one that cuts off the last utility or generator source; motors on the faulted side
   // may keep feeding the arc until their contribution decays (stated in the sentence).
-  const stopOf = (c: Contributor) => stop.get(c.id) as { t: number; by: string | null; reason: 'device' | 'motor-decay' | 'cap' };
+  const stopOf = (c: Contributor) =>
+    stop.get(c.id) as { t: number; by: string | null; reason: 'device' | 'motor-decay' | 'cap' };
   const mains = picture.contributors.filter((c) => c.kind !== 'motor');
   const lastMain = mains.reduce<Contributor | null>((m, c) => (!m || stopOf(c).t > stopOf(m).t ? c : m), null);
   const ender = lastMain && stopOf(lastMain).reason === 'device' ? stopOf(lastMain).by : null;
   const capped = [...stop.values()].some((s) => s.reason === 'cap');
   const endReading = readings.find((r) => r.deviceId === ender);
-  const motorTail = picture.contributors.filter((c) => c.kind === 'motor' && stopOf(c).reason === 'motor-decay' && (!lastMain || stopOf(c).t > stopOf(lastMain).t));
+  const motorTail = picture.contributors.filter(
+    (c) => c.kind === 'motor' && stopOf(c).reason === 'motor-decay' && (!lastMain || stopOf(c).t > stopOf(lastMain).t),
+  );
   const busLabel = picture.bus.id;
   const caseName = arcCase === 'full' ? 'arcing current' : 'reduced arcing current';
   const side = input.location === 'line-side' ? ' (line side of the main)' : '';
@@ -265,7 +308,9 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))[0];
     sentence =
       `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, no protective device clears every source before the ${fmt(input.maxArcDurationS)} s cap; the arc duration is capped` +
-      (late ? ` (${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s).` : '.');
+      (late
+        ? ` (${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s).`
+        : '.');
   } else {
     sentence = `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, only motors feed the arc; it ends at ${fmt(arcEnd)} s as their contribution decays.`;
   }
@@ -283,7 +328,11 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const deciding = new Set([...stop.values()].map((s) => s.by).filter((x): x is string => !!x));
   for (const r of readings) {
     if (!deciding.has(r.deviceId)) continue;
-    for (const w of r.warnings) warnings.push({ code: w.code, message: `${r.deviceId} (${arcCase}${input.location === 'line-side' ? ', line side' : ''}): ${w.message}` });
+    for (const w of r.warnings)
+      warnings.push({
+        code: w.code,
+        message: `${r.deviceId} (${arcCase}${input.location === 'line-side' ? ', line side' : ''}): ${w.message}`,
+      });
   }
   return {
     arcCase,
@@ -292,7 +341,14 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     devices: readings,
     sources: picture.contributors.map((c) => {
       const s = stop.get(c.id) as { t: number; by: string | null; reason: 'device' | 'motor-decay' | 'cap' };
-      return { sourceId: c.id, kind: c.kind, share: c.share, stopsAtS: Math.min(s.t, input.maxArcDurationS), cutByDeviceId: s.by, reason: s.reason };
+      return {
+        sourceId: c.id,
+        kind: c.kind,
+        share: c.share,
+        stopsAtS: Math.min(s.t, input.maxArcDurationS),
+        cutByDeviceId: s.by,
+        reason: s.reason,
+      };
     }),
     intervals,
     arcDurationS: arcEnd,
@@ -341,28 +397,55 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
     const bus = model.buses.find((b) => b.id === busId);
     if (!bus) throw new EngineError('invalid-input', 'UNKNOWN_BUS', `No bus ${busId}`, 'busId');
     const sc = scByBus.get(busId);
-    const base = { busId, busName: bus.name ?? bus.id, nominalKv: bus.nominalKv, boltedFaultKa: sc?.boltedFaultKa ?? 0, xr: sc?.xr ?? 0, cases: [] as ArcCaseTrace[] };
+    const base = {
+      busId,
+      busName: bus.name ?? bus.id,
+      nominalKv: bus.nominalKv,
+      boltedFaultKa: sc?.boltedFaultKa ?? 0,
+      xr: sc?.xr ?? 0,
+      cases: [] as ArcCaseTrace[],
+    };
     const warnings: EngineWarning[] = [];
     try {
       const equipment = resolveEquipment(bus);
       const voltageV = bus.nominalKv * 1000;
-      const arcing = computeArcingCurrents({ voltageV, boltedFaultKa: base.boltedFaultKa, electrodeConfig: equipment.electrodeConfig, gapMm: equipment.gapMm });
+      const arcing = computeArcingCurrents({
+        voltageV,
+        boltedFaultKa: base.boltedFaultKa,
+        electrodeConfig: equipment.electrodeConfig,
+        gapMm: equipment.gapMm,
+      });
       warnings.push(...arcing.warnings);
       const enclosure = resolveEnclosure(arcing, equipment.enclosureMm ?? undefined);
       warnings.push(...enclosure.warnings);
       if (equipment.workingDistanceMm < 305) {
-        warnings.push({ code: 'WORKING_DISTANCE_BELOW_MODEL', message: `Working distance ${fmt(equipment.workingDistanceMm)} mm is below the IEEE 1584-2018 model range (305 mm).` });
+        warnings.push({
+          code: 'WORKING_DISTANCE_BELOW_MODEL',
+          message: `Working distance ${fmt(equipment.workingDistanceMm)} mm is below the IEEE 1584-2018 model range (305 mm).`,
+        });
       }
       const picture = faultPicture(model, solver, bus);
-      const common = { picture, equipment, arcing, enclosureCorrectionFactor: enclosure.enclosureCorrectionFactor, maxArcDurationS: maxArcDurationMs / 1000, motorDecayS };
+      const common = {
+        picture,
+        equipment,
+        arcing,
+        enclosureCorrectionFactor: enclosure.enclosureCorrectionFactor,
+        maxArcDurationS: maxArcDurationMs / 1000,
+        motorDecayS,
+      };
       const cases: ArcCaseTrace[] = [];
-      for (const arcCase of ['full', 'reduced'] as const) cases.push(evaluateCase({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings));
+      for (const arcCase of ['full', 'reduced'] as const)
+        cases.push(evaluateCase({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings));
       if (!equipment.mainIsolated) {
         const mains = mainDevices(picture);
         if (mains.size) {
-          for (const arcCase of ['full', 'reduced'] as const) cases.push(evaluateCase({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings));
+          for (const arcCase of ['full', 'reduced'] as const)
+            cases.push(evaluateCase({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings));
         } else {
-          warnings.push({ code: 'NO_MAIN_DEVICE', message: `The main is marked not isolated, but no device sits at ${bus.id}'s end of a feeding branch; the line side equals the load side.` });
+          warnings.push({
+            code: 'NO_MAIN_DEVICE',
+            message: `The main is marked not isolated, but no device sits at ${bus.id}'s end of a feeding branch; the line side equals the load side.`,
+          });
         }
       }
       const governing = cases.reduce((g, c) => (c.incidentEnergyJPerCm2 > g.incidentEnergyJPerCm2 ? c : g));

@@ -40,7 +40,11 @@ function parseNumber(cell: string): number | null {
  * increasing, a curve's time rising with current, a row's minimum above its maximum, too few points.
  */
 export function parseBandCsv(text: string, options: { currentUnit?: CurrentUnit } = {}): BandCsvResult {
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { header: false, skipEmptyLines: false, delimiter: '' });
+  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), {
+    header: false,
+    skipEmptyLines: false,
+    delimiter: '',
+  });
   const rows = parsed.data;
   const errors: BandCsvError[] = [];
   let currentUnit: CurrentUnit = options.currentUnit ?? 'ampere';
@@ -127,7 +131,10 @@ export function parseBandCsv(text: string, options: { currentUnit?: CurrentUnit 
     if (minS !== null) {
       const last = min[min.length - 1];
       if (last && minS > last[1]) {
-        errors.push({ line, message: `min_s ${minS} rises above ${last[1]} on line ${minLines[minLines.length - 1]}: a trip curve does not rise with current` });
+        errors.push({
+          line,
+          message: `min_s ${minS} rises above ${last[1]} on line ${minLines[minLines.length - 1]}: a trip curve does not rise with current`,
+        });
       } else {
         min.push([current, minS]);
         minLines.push(line);
@@ -136,7 +143,10 @@ export function parseBandCsv(text: string, options: { currentUnit?: CurrentUnit 
     if (maxS !== null) {
       const last = max[max.length - 1];
       if (last && maxS > last[1]) {
-        errors.push({ line, message: `max_s ${maxS} rises above ${last[1]} on line ${maxLines[maxLines.length - 1]}: a trip curve does not rise with current` });
+        errors.push({
+          line,
+          message: `max_s ${maxS} rises above ${last[1]} on line ${maxLines[maxLines.length - 1]}: a trip curve does not rise with current`,
+        });
       } else {
         max.push([current, maxS]);
         maxLines.push(line);
@@ -154,8 +164,14 @@ export function parseBandCsv(text: string, options: { currentUnit?: CurrentUnit 
 }
 
 /** The band CSV of a point list pair, with a header row; parseBandCsv reads it back unchanged. */
-export function formatBandCsv(band: { currentUnit: CurrentUnit; min: readonly TimeCurrentPoint[]; max: readonly TimeCurrentPoint[] }): string {
-  const currents = Array.from(new Set([...band.min.map((p) => p[0]), ...band.max.map((p) => p[0])])).sort((a, b) => a - b);
+export function formatBandCsv(band: {
+  currentUnit: CurrentUnit;
+  min: readonly TimeCurrentPoint[];
+  max: readonly TimeCurrentPoint[];
+}): string {
+  const currents = Array.from(new Set([...band.min.map((p) => p[0]), ...band.max.map((p) => p[0])])).sort(
+    (a, b) => a - b,
+  );
   const minAt = new Map(band.min.map((p) => [p[0], p[1]]));
   const maxAt = new Map(band.max.map((p) => [p[0], p[1]]));
   const lines = [`${band.currentUnit === 'multiple' ? 'multiple' : 'current'},min_s,max_s`];

@@ -21,7 +21,9 @@ export interface ClearingTrace {
   minimumElement: string | null;
   /** Which tolerance edge each curve uses. */
   toleranceEdge: { maximum: string; minimum: string };
-  elements: Array<{ element: string; region: TripRegion; maxS: number | null; minS: number | null } & Record<string, unknown>>;
+  elements: Array<
+    { element: string; region: TripRegion; maxS: number | null; minS: number | null } & Record<string, unknown>
+  >;
 }
 
 export interface ClearingTimeResult {
@@ -49,7 +51,12 @@ export function readBand(device: Device, currentA: number): BandReading {
       return electronicBand(device, currentA);
     default: {
       const kind = (device as { kind?: unknown }).kind;
-      throw new EngineError('invalid-input', 'UNKNOWN_DEVICE_KIND', `Unknown device kind ${String(kind)}`, 'device.kind');
+      throw new EngineError(
+        'invalid-input',
+        'UNKNOWN_DEVICE_KIND',
+        `Unknown device kind ${String(kind)}`,
+        'device.kind',
+      );
     }
   }
 }
@@ -63,7 +70,12 @@ function ratingOf(device: Device): number | null {
     case 'electronic':
       return device.longTime.pickup * device.sensorA;
     case 'relay':
-      return device.pickupA ?? (device.ctRatio !== undefined && device.pickupSecondaryA !== undefined ? device.ctRatio * device.pickupSecondaryA : null);
+      return (
+        device.pickupA ??
+        (device.ctRatio !== undefined && device.pickupSecondaryA !== undefined
+          ? device.ctRatio * device.pickupSecondaryA
+          : null)
+      );
     default:
       return null;
   }
@@ -92,7 +104,12 @@ const TOLERANCE_EDGES: Record<Device['kind'], { maximum: string; minimum: string
  */
 export function clearingTime(device: Device, currentA: number): ClearingTimeResult {
   if (typeof currentA !== 'number' || !Number.isFinite(currentA) || currentA <= 0) {
-    throw new EngineError('invalid-input', 'NOT_POSITIVE', `currentA must be a positive number, got ${String(currentA)}`, 'currentA');
+    throw new EngineError(
+      'invalid-input',
+      'NOT_POSITIVE',
+      `currentA must be a positive number, got ${String(currentA)}`,
+      'currentA',
+    );
   }
   if (!device || typeof device !== 'object') {
     throw new EngineError('invalid-input', 'DEVICE_MISSING', 'Give the device', 'device');
@@ -119,7 +136,13 @@ export function clearingTime(device: Device, currentA: number): ClearingTimeResu
       governingElement: band.governingElement,
       minimumElement: band.minimumElement,
       toleranceEdge: TOLERANCE_EDGES[device.kind],
-      elements: band.elements.map((el) => ({ element: el.element, region: el.region, maxS: el.maxS, minS: el.minS, ...el.detail })),
+      elements: band.elements.map((el) => ({
+        element: el.element,
+        region: el.region,
+        maxS: el.maxS,
+        minS: el.minS,
+        ...el.detail,
+      })),
     },
   };
 }

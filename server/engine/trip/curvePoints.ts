@@ -48,7 +48,10 @@ export function bandFeatureCurrentsA(device: Device): number[] {
     }
     case 'thermal-magnetic': {
       const s = thermalMagneticSettings(device);
-      out.push(...device.thermal.min.map((p) => p[0] * device.ratingA), ...device.thermal.max.map((p) => p[0] * device.ratingA));
+      out.push(
+        ...device.thermal.min.map((p) => p[0] * device.ratingA),
+        ...device.thermal.max.map((p) => p[0] * device.ratingA),
+      );
       if (s.instantaneous) out.push(s.instantaneous.lowA * device.ratingA, s.instantaneous.highA * device.ratingA);
       break;
     }
@@ -81,10 +84,20 @@ export function bandCurves(device: Device, options: BandCurvesOptions = {}): Ban
   const toA = options.toA ?? Math.max(highestA * 2, fromA * 50);
   const perDecade = options.pointsPerDecade ?? 40;
   if (!(fromA > 0) || !(toA > fromA) || !Number.isFinite(toA)) {
-    throw new EngineError('invalid-input', 'BAD_RANGE', `Plot range must satisfy 0 < fromA < toA (got ${fromA}, ${toA})`, 'fromA');
+    throw new EngineError(
+      'invalid-input',
+      'BAD_RANGE',
+      `Plot range must satisfy 0 < fromA < toA (got ${fromA}, ${toA})`,
+      'fromA',
+    );
   }
   if (!(perDecade >= 1 && perDecade <= 1000)) {
-    throw new EngineError('invalid-input', 'BAD_DENSITY', 'pointsPerDecade must be between 1 and 1000', 'pointsPerDecade');
+    throw new EngineError(
+      'invalid-input',
+      'BAD_DENSITY',
+      'pointsPerDecade must be between 1 and 1000',
+      'pointsPerDecade',
+    );
   }
   const decades = Math.log10(toA / fromA);
   const n = Math.max(2, Math.ceil(decades * perDecade) + 1);

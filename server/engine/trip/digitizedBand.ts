@@ -6,7 +6,12 @@ import { validateCurvePoints } from './interpolate';
 export function validateDigitizedBand(device: BandDevice): void {
   requirePositive(device.ratingA, 'device.ratingA');
   if (device.currentUnit !== 'multiple' && device.currentUnit !== 'ampere') {
-    throw new EngineError('invalid-input', 'UNKNOWN_UNIT', 'currentUnit must be "multiple" or "ampere"', 'device.currentUnit');
+    throw new EngineError(
+      'invalid-input',
+      'UNKNOWN_UNIT',
+      'currentUnit must be "multiple" or "ampere"',
+      'device.currentUnit',
+    );
   }
   validateCurvePoints(device.min, 'device.min');
   validateCurvePoints(device.max, 'device.max');

@@ -39,7 +39,8 @@ export interface ElectronicSettings {
 export function electronicSettings(device: ElectronicDevice): ElectronicSettings {
   const sensorA = requirePositive(device.sensorA, 'device.sensorA');
   const tolI = requirePercent(device.pickupTolerancePct, 'device.pickupTolerancePct', 99);
-  const tolT = device.timeTolerancePct === undefined ? 0 : requirePercent(device.timeTolerancePct, 'device.timeTolerancePct', 99);
+  const tolT =
+    device.timeTolerancePct === undefined ? 0 : requirePercent(device.timeTolerancePct, 'device.timeTolerancePct', 99);
   const clearingS = requirePositive(device.clearingS, 'device.clearingS');
   const irA = requirePositive(device.longTime.pickup, 'device.longTime.pickup') * sensorA;
   const longTime = {
@@ -164,7 +165,13 @@ export function electronicBand(device: ElectronicDevice, currentA: number): Band
     region: 'long-time',
     maxS: atOrAbove(currentA, lt.highA) ? ltNominalS * up + s.clearingS : null,
     minS: above(currentA, lt.lowA) ? ltNominalS * down : null,
-    detail: { ...edgeDetail(lt), multipleOfIr, delayS: lt.delayS, delayMultiple: lt.delayMultiple, nominalS: ltNominalS },
+    detail: {
+      ...edgeDetail(lt),
+      multipleOfIr,
+      delayS: lt.delayS,
+      delayMultiple: lt.delayMultiple,
+      nominalS: ltNominalS,
+    },
     maxWarnings: [],
     minWarnings: [],
   });
@@ -178,7 +185,11 @@ export function electronicBand(device: ElectronicDevice, currentA: number): Band
       region: 'no-trip',
       maxS: null,
       minS: null,
-      detail: { pickupA: s.groundFault.pickupA, delayS: s.groundFault.delayS, note: 'residual-current element; not applied to the three-phase arcing current' },
+      detail: {
+        pickupA: s.groundFault.pickupA,
+        delayS: s.groundFault.delayS,
+        note: 'residual-current element; not applied to the three-phase arcing current',
+      },
       maxWarnings: [],
       minWarnings: [],
     });

@@ -126,21 +126,36 @@ export function readPointCurve(
 
 export function requirePositive(value: unknown, field: string): number {
   if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) {
-    throw new EngineError('invalid-input', 'NOT_POSITIVE', `${field} must be a positive number, got ${String(value)}`, field);
+    throw new EngineError(
+      'invalid-input',
+      'NOT_POSITIVE',
+      `${field} must be a positive number, got ${String(value)}`,
+      field,
+    );
   }
   return value;
 }
 
 export function requireNonNegative(value: unknown, field: string): number {
   if (typeof value !== 'number' || !Number.isFinite(value) || value < 0) {
-    throw new EngineError('invalid-input', 'NOT_NON_NEGATIVE', `${field} must be zero or a positive number, got ${String(value)}`, field);
+    throw new EngineError(
+      'invalid-input',
+      'NOT_NON_NEGATIVE',
+      `${field} must be zero or a positive number, got ${String(value)}`,
+      field,
+    );
   }
   return value;
 }
 
 export function requirePercent(value: unknown, field: string, maxPct = 100): number {
   if (typeof value !== 'number' || !Number.isFinite(value) || value < 0 || value > maxPct) {
-    throw new EngineError('invalid-input', 'NOT_PERCENT', `${field} must be between 0 and ${maxPct} %, got ${String(value)}`, field);
+    throw new EngineError(
+      'invalid-input',
+      'NOT_PERCENT',
+      `${field} must be between 0 and ${maxPct} %, got ${String(value)}`,
+      field,
+    );
   }
   return value;
 }

@@ -39,7 +39,10 @@ function fuseMaximum(device: FuseDevice, currentA: number) {
   const field = fromAverageMelt ? 'device.averageMelt' : 'device.totalClearing';
   const reading = readPointCurve(points, currentA, field, { warnBelow: true, unit: 'A' });
   const warnings: EngineWarning[] = [];
-  const detail: Record<string, unknown> = { curve: fromAverageMelt ? 'average-melt + allowance' : 'total-clearing', segment: reading.segment };
+  const detail: Record<string, unknown> = {
+    curve: fromAverageMelt ? 'average-melt + allowance' : 'total-clearing',
+    segment: reading.segment,
+  };
   if (reading.timeS === null) return { timeS: null, warnings: reading.warnings, detail };
 
   let timeS = reading.timeS;
@@ -88,12 +91,18 @@ function fuseMinimum(device: FuseDevice, currentA: number) {
       ? [
           device.averageMelt,
           'device.averageMelt',
-          { code: 'FUSE_NO_MINIMUM_MELT', message: 'No minimum-melting curve: the average-melt curve is shown as the minimum' },
+          {
+            code: 'FUSE_NO_MINIMUM_MELT',
+            message: 'No minimum-melting curve: the average-melt curve is shown as the minimum',
+          },
         ]
       : [
           device.totalClearing as TimeCurrentPoint[],
           'device.totalClearing',
-          { code: 'FUSE_NO_MINIMUM_MELT', message: 'No melting curve: the minimum time is taken equal to the total clearing time' },
+          {
+            code: 'FUSE_NO_MINIMUM_MELT',
+            message: 'No melting curve: the minimum time is taken equal to the total clearing time',
+          },
         ];
   const reading = readPointCurve(points, currentA, field, { warnBelow: false, unit: 'A' });
   const warnings: EngineWarning[] = [...reading.warnings];
@@ -112,7 +121,12 @@ export function fuseBand(device: FuseDevice, currentA: number): BandReading {
       region: 'curve-segment',
       maxS: max.timeS,
       minS: min.timeS,
-      detail: { ratingA: device.ratingA, multipleOfRating: currentA / device.ratingA, maximum: max.detail, minimum: min.detail },
+      detail: {
+        ratingA: device.ratingA,
+        multipleOfRating: currentA / device.ratingA,
+        maximum: max.detail,
+        minimum: min.detail,
+      },
       maxWarnings: max.warnings,
       minWarnings: min.warnings,
     },

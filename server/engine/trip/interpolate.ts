@@ -16,7 +16,12 @@ export function validateCurvePoints(
 ): void {
   const timeNonIncreasing = options.timeNonIncreasing ?? true;
   if (!Array.isArray(points) || points.length === 0) {
-    throw new EngineError('invalid-input', 'CURVE_EMPTY', `${field}: give at least one [current, seconds] point`, field);
+    throw new EngineError(
+      'invalid-input',
+      'CURVE_EMPTY',
+      `${field}: give at least one [current, seconds] point`,
+      field,
+    );
   }
   for (let i = 0; i < points.length; i += 1) {
     const point = points[i];
@@ -26,10 +31,20 @@ export function validateCurvePoints(
     }
     const [current, timeS] = point;
     if (typeof current !== 'number' || !Number.isFinite(current) || current <= 0) {
-      throw new EngineError('invalid-input', 'CURVE_POINT_NON_POSITIVE', `${at}: current ${String(current)} must be a positive number`, at);
+      throw new EngineError(
+        'invalid-input',
+        'CURVE_POINT_NON_POSITIVE',
+        `${at}: current ${String(current)} must be a positive number`,
+        at,
+      );
     }
     if (typeof timeS !== 'number' || !Number.isFinite(timeS) || timeS <= 0) {
-      throw new EngineError('invalid-input', 'CURVE_POINT_NON_POSITIVE', `${at}: time ${String(timeS)} s must be a positive number`, at);
+      throw new EngineError(
+        'invalid-input',
+        'CURVE_POINT_NON_POSITIVE',
+        `${at}: time ${String(timeS)} s must be a positive number`,
+        at,
+      );
     }
     if (i > 0) {
       const [prevCurrent, prevTimeS] = points[i - 1];

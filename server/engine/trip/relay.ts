@@ -1,7 +1,21 @@
 import type { RelayDevice } from '../../../shared/schemas/device';
 import { EngineError } from '../errors';
-import { cyclesToSeconds, iecInverseTimeS, ieeeInverseTimeS, RELAY_INSTANTANEOUS_ALLOWANCE_S, type IecCurveName, type IeeeCurveName } from './equations';
-import { atOrAbove, combineElements, requireNonNegative, requirePositive, type BandReading, type ElementReading } from './elements';
+import {
+  cyclesToSeconds,
+  iecInverseTimeS,
+  ieeeInverseTimeS,
+  RELAY_INSTANTANEOUS_ALLOWANCE_S,
+  type IecCurveName,
+  type IeeeCurveName,
+} from './equations';
+import {
+  atOrAbove,
+  combineElements,
+  requireNonNegative,
+  requirePositive,
+  type BandReading,
+  type ElementReading,
+} from './elements';
 import { fmt } from './interpolate';
 
 const DEFAULT_FREQUENCY_HZ = 60;
@@ -63,15 +77,22 @@ export interface RelaySettings {
 }
 
 export function relaySettings(device: RelayDevice): RelaySettings {
-  const frequencyHz = device.frequencyHz === undefined ? DEFAULT_FREQUENCY_HZ : requirePositive(device.frequencyHz, 'device.frequencyHz');
+  const frequencyHz =
+    device.frequencyHz === undefined ? DEFAULT_FREQUENCY_HZ : requirePositive(device.frequencyHz, 'device.frequencyHz');
   const pickupA = relayPrimaryA(device.pickupA, device.pickupSecondaryA, device.ctRatio, 'device.pickupA');
   if (pickupA === undefined) {
-    throw new EngineError('invalid-input', 'PICKUP_MISSING', 'Give pickupA, or ctRatio with pickupSecondaryA', 'device.pickupA');
+    throw new EngineError(
+      'invalid-input',
+      'PICKUP_MISSING',
+      'Give pickupA, or ctRatio with pickupSecondaryA',
+      'device.pickupA',
+    );
   }
   requirePositive(device.timeDial, 'device.timeDial');
   relayInverseTimeS(device.curve, 2, 1); // checks the curve name up front
   const instantaneousA =
-    relayPrimaryA(device.instantaneousA, device.instantaneousSecondaryA, device.ctRatio, 'device.instantaneousA') ?? null;
+    relayPrimaryA(device.instantaneousA, device.instantaneousSecondaryA, device.ctRatio, 'device.instantaneousA') ??
+    null;
   let definiteTime: RelaySettings['definiteTime'] = null;
   if (device.definiteTime) {
     const dtPickup = relayPrimaryA(
@@ -88,7 +109,10 @@ export function relaySettings(device: RelayDevice): RelaySettings {
         'device.definiteTime.pickupA',
       );
     }
-    definiteTime = { pickupA: dtPickup, delayS: requireNonNegative(device.definiteTime.delayS, 'device.definiteTime.delayS') };
+    definiteTime = {
+      pickupA: dtPickup,
+      delayS: requireNonNegative(device.definiteTime.delayS, 'device.definiteTime.delayS'),
+    };
   }
   // IEEE 1584-2002: allow 16 ms relay time in the instantaneous region at 60 Hz. At another frequency we
   // allow one cycle (16 ms is about one 60 Hz cycle) — common practice, no source.
@@ -120,7 +144,12 @@ export function relayBand(device: RelayDevice, currentA: number): BandReading {
       region: 'instantaneous',
       maxS: trips ? s.instantaneousDelayS + s.breakerS : null,
       minS: trips ? s.instantaneousDelayS : null,
-      detail: { pickupA: s.instantaneousA, multipleOfPickup: currentA / s.instantaneousA, relayTimeS: s.instantaneousDelayS, ...breakerDetail },
+      detail: {
+        pickupA: s.instantaneousA,
+        multipleOfPickup: currentA / s.instantaneousA,
+        relayTimeS: s.instantaneousDelayS,
+        ...breakerDetail,
+      },
       maxWarnings: [],
       minWarnings: [],
     });
@@ -149,7 +178,14 @@ export function relayBand(device: RelayDevice, currentA: number): BandReading {
     region: 'inverse-time',
     maxS: relayTimeS === null ? null : relayTimeS + s.breakerS,
     minS: relayTimeS,
-    detail: { curve: device.curve, timeDial: device.timeDial, pickupA: s.pickupA, multipleOfPickup, relayTimeS, ...breakerDetail },
+    detail: {
+      curve: device.curve,
+      timeDial: device.timeDial,
+      pickupA: s.pickupA,
+      multipleOfPickup,
+      relayTimeS,
+      ...breakerDetail,
+    },
     maxWarnings:
       relayTimeS === null
         ? [{ code: 'BELOW_PICKUP', message: `${fmt(currentA)} A is at or below the relay pickup ${fmt(s.pickupA)} A` }]

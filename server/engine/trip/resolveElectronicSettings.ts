@@ -48,7 +48,12 @@ export function resolveElectronicSettings(type: ElectronicTripType, chosen: Elec
   };
   const positive = (name: ElectronicSettingName, v: number | undefined): number => {
     if (v === undefined || !(v > 0)) {
-      throw new EngineError('invalid-input', 'POSITION_NOT_POSITIVE', `${name} must be a positive value, got ${String(v)}`, `positions.${name}`);
+      throw new EngineError(
+        'invalid-input',
+        'POSITION_NOT_POSITIVE',
+        `${name} must be a positive value, got ${String(v)}`,
+        `positions.${name}`,
+      );
     }
     return v;
   };
@@ -74,11 +79,21 @@ export function resolveElectronicSettings(type: ElectronicTripType, chosen: Elec
   if (stPickup !== undefined && stPickup > 0) {
     const stDelay = value('shortTimeDelay');
     if (stDelay === undefined) {
-      throw new EngineError('invalid-input', 'SETTING_MISSING', `The type "${type.name}" has a short-time pickup but no shortTimeDelay switch`, 'settings.shortTimeDelay');
+      throw new EngineError(
+        'invalid-input',
+        'SETTING_MISSING',
+        `The type "${type.name}" has a short-time pickup but no shortTimeDelay switch`,
+        'settings.shortTimeDelay',
+      );
     }
     const i2t = value('shortTimeI2t');
     if (i2t !== undefined && i2t !== 0 && i2t !== 1) {
-      throw new EngineError('invalid-input', 'POSITION_NOT_SWITCH', 'shortTimeI2t positions must map to 1 (in) or 0 (out)', 'positions.shortTimeI2t');
+      throw new EngineError(
+        'invalid-input',
+        'POSITION_NOT_SWITCH',
+        'shortTimeI2t positions must map to 1 (in) or 0 (out)',
+        'positions.shortTimeI2t',
+      );
     }
     device.shortTime = {
       pickup: stPickup,
@@ -99,7 +114,12 @@ export function resolveElectronicSettings(type: ElectronicTripType, chosen: Elec
   const gfDelay = value('groundFaultDelay');
   if (gfPickup !== undefined && gfPickup > 0) {
     if (gfDelay === undefined) {
-      throw new EngineError('invalid-input', 'SETTING_MISSING', `The type "${type.name}" has a ground-fault pickup but no groundFaultDelay switch`, 'settings.groundFaultDelay');
+      throw new EngineError(
+        'invalid-input',
+        'SETTING_MISSING',
+        `The type "${type.name}" has a ground-fault pickup but no groundFaultDelay switch`,
+        'settings.groundFaultDelay',
+      );
     }
     device.groundFault = { pickupA: gfPickup, delayS: gfDelay };
   }

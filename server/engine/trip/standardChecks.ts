@@ -34,7 +34,8 @@ function breakerRatingA(device: BreakerDevice): number {
 export function ul489LimitAt135PctS(ratingA: number): { limitS: number; status: string } {
   requirePositive(ratingA, 'ratingA');
   const row = facts.ul489Calibration.at135Pct.rows.find((r) => r.maxRatingA === null || ratingA <= r.maxRatingA);
-  if (!row) throw new EngineError('out-of-range', 'RATING_OUT_OF_RANGE', `No UL 489 135 % limit for ${ratingA} A`, 'ratingA');
+  if (!row)
+    throw new EngineError('out-of-range', 'RATING_OUT_OF_RANGE', `No UL 489 135 % limit for ${ratingA} A`, 'ratingA');
   return { limitS: row.maxTripTimeS, status: row.status };
 }
 
@@ -43,7 +44,12 @@ export function ul489LimitAt200PctS(ratingA: number): { limitS: number; status: 
   requirePositive(ratingA, 'ratingA');
   const row = facts.ul489Calibration.at200Pct.rows.find((r) => ratingA <= r.maxRatingA);
   if (!row) {
-    throw new EngineError('out-of-range', 'RATING_OUT_OF_RANGE', `No UL 489 200 % limit above 6000 A (got ${ratingA} A)`, 'ratingA');
+    throw new EngineError(
+      'out-of-range',
+      'RATING_OUT_OF_RANGE',
+      `No UL 489 200 % limit above 6000 A (got ${ratingA} A)`,
+      'ratingA',
+    );
   }
   return { limitS: row.maxTripTimeS, status: row.status };
 }
@@ -92,7 +98,13 @@ export type Iec60898Type = 'B' | 'C' | 'D';
 /** IEC 60898-1 instantaneous tripping range of a type, multiples of In (B 3–5, C 5–10, D 10–20). */
 export function iec60898InstantaneousRange(type: Iec60898Type): { lowMultiple: number; highMultiple: number } {
   const r = facts.iec60898Instantaneous.types[type];
-  if (!r) throw new EngineError('invalid-input', 'UNKNOWN_TYPE', `IEC 60898-1 type must be B, C or D, got ${String(type)}`, 'type');
+  if (!r)
+    throw new EngineError(
+      'invalid-input',
+      'UNKNOWN_TYPE',
+      `IEC 60898-1 type must be B, C or D, got ${String(type)}`,
+      'type',
+    );
   return { lowMultiple: r.lowMultiple, highMultiple: r.highMultiple };
 }
 
@@ -100,7 +112,11 @@ export function iec60898InstantaneousRange(type: Iec60898Type): { lowMultiple: n
  * Instantaneous element of a thermal-magnetic device whose pickup range is the IEC 60898-1 range of a type
  * (e.g. C: lowMultiple 5, highMultiple 10).
  */
-export function iec60898InstantaneousSetting(type: Iec60898Type): { lowMultiple: number; highMultiple: number; setting: string } {
+export function iec60898InstantaneousSetting(type: Iec60898Type): {
+  lowMultiple: number;
+  highMultiple: number;
+  setting: string;
+} {
   return { ...iec60898InstantaneousRange(type), setting: type };
 }
 

@@ -71,7 +71,12 @@ export function thermalMagneticSettings(device: ThermalMagneticDevice): ThermalM
       const lowA = requirePositive(inst.lowMultiple, 'device.instantaneous.lowMultiple');
       const highA = requirePositive(inst.highMultiple, 'device.instantaneous.highMultiple');
       if (highA < lowA) {
-        throw new EngineError('invalid-input', 'EDGES_REVERSED', 'highMultiple must not be below lowMultiple', 'device.instantaneous.highMultiple');
+        throw new EngineError(
+          'invalid-input',
+          'EDGES_REVERSED',
+          'highMultiple must not be below lowMultiple',
+          'device.instantaneous.highMultiple',
+        );
       }
       instantaneous = { nominalA: (lowA + highA) / 2, lowA, highA };
     } else {
@@ -95,7 +100,8 @@ export function thermalMagneticBand(device: ThermalMagneticDevice, currentA: num
   const s = thermalMagneticSettings(device);
   const multiple = currentA / device.ratingA;
   const elements: ElementReading[] = [];
-  const withinTolerance = s.instantaneous !== null && above(multiple, s.instantaneous.lowA) && !atOrAbove(multiple, s.instantaneous.highA);
+  const withinTolerance =
+    s.instantaneous !== null && above(multiple, s.instantaneous.lowA) && !atOrAbove(multiple, s.instantaneous.highA);
   if (s.instantaneous) {
     const aboveHigh = atOrAbove(multiple, s.instantaneous.highA);
     const aboveLow = above(multiple, s.instantaneous.lowA);
@@ -119,7 +125,10 @@ export function thermalMagneticBand(device: ThermalMagneticDevice, currentA: num
     });
   }
   const max = readPointCurve(device.thermal.max, multiple, 'device.thermal.max', { warnBelow: true, unit: '× rating' });
-  const min = readPointCurve(device.thermal.min, multiple, 'device.thermal.min', { warnBelow: false, unit: '× rating' });
+  const min = readPointCurve(device.thermal.min, multiple, 'device.thermal.min', {
+    warnBelow: false,
+    unit: '× rating',
+  });
   elements.push({
     element: 'thermal',
     region: 'long-time',
