@@ -1,7 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import express, { type Express } from 'express';
-import helmet from 'helmet';
 import { authenticate } from './auth/middleware';
 import type { Config } from './config';
 import type { Db } from './db';
@@ -10,6 +9,7 @@ import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';
 import { createMailer, type Mailer } from './mail';
 import { mountRoutes, type AnyRoute } from './http/route';
+import { securityHeaders } from './http/securityHeaders';
 import { allRoutes } from './routes';
 import { Jobs } from './services/jobs';
 import { LocalFileStore, type FileStore } from './storage';
@@ -45,24 +45,7 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        directives: {
-          defaultSrc: ["'self'"],
-          scriptSrc: ["'self'"],
-          styleSrc: ["'self'", "'unsafe-inline'"],
-          imgSrc: ["'self'", 'data:', 'blob:'],
-          fontSrc: ["'self'", 'data:'],
-          connectSrc: ["'self'"],
-          mediaSrc: ["'self'", 'blob:'],
-          objectSrc: ["'none'"],
-          frameAncestors: ["'none'"],
-        },
-      },
-      crossOriginEmbedderPolicy: false,
-    }),
-  );
+  app.use(securityHeaders(opts.config.publicBaseUrl));
   if (opts.config.logRequests) {
     app.use((req, res, next) => {
       const start = process.hrtime.bigint();
