@@ -13,7 +13,7 @@ import { fmtDate, fmtDateTime } from '../../hooks/dates';
 import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useLayout } from '../../hooks/useLayout';
-import { colors, fonts, radius, space } from '../theme';
+import { colors, fonts, space } from '../theme';
 import { Button, cardStyle, Empty, Loading, Notice, QueryError, Screen, T, Table, ValueRow } from '../ui';
 import { AttentionCaution, SiteFilter, useSiteParam } from './AttentionScreen';
 import { kindLabel } from './ReportsScreen';

@@ -13,7 +13,7 @@ import { fmtAgeDays, fmtDate } from '../../hooks/dates';
 import { useSites } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
-import { colors, fonts, radius, space } from '../theme';
+import { fonts, space } from '../theme';
 import { cardStyle, Choice, Empty, Loading, Pill, type PillTone, QueryError, Screen, T, Table } from '../ui';
 
 export const kindLabel = reportKindLabel;

@@ -2,7 +2,7 @@ import { useRouter } from 'expo-router';
 import jsQR from 'jsqr';
 import React, { useCallback, useEffect, useRef, useState } from 'react';
 import { Platform, View } from 'react-native';
-import { colors, radius, space } from '../theme';
+import { colors, radius } from '../theme';
 import { Button, Card, Field, Notice, Screen, T } from '../ui';
 
 /** The label code from a scanned QR text (the check address …/l/<code>) or from what was typed. */

@@ -8,7 +8,7 @@ import { EXAMPLE_DEVICES } from '../engine/trip/exampleDevices';
  * below the lowest pickup to well above the highest, for about 1.5 s. Reports the rate; asserts nothing.
  */
 export async function benchTrip(): Promise<{ name: string; opsPerSecond: number; detail: string }> {
-  const cases: Array<{ device: (typeof EXAMPLE_DEVICES)[number]; currentA: number }> = [];
+  const cases: { device: (typeof EXAMPLE_DEVICES)[number]; currentA: number }[] = [];
   for (const device of EXAMPLE_DEVICES) {
     const features = bandFeatureCurrentsA(device);
     const fromA = features[0] * 0.5;

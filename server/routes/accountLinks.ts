@@ -1,4 +1,4 @@
-import rateLimit from 'express-rate-limit';
+import { rateLimit } from 'express-rate-limit';
 import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import { signInResponseSchema } from '../../shared/schemas/auth';

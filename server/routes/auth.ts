@@ -1,4 +1,4 @@
-import rateLimit from 'express-rate-limit';
+import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 import { meSchema, signInRequestSchema, signInResponseSchema } from '../../shared/schemas/auth';
 import { dummyPasswordHash, verifyPassword } from '../auth/passwords';

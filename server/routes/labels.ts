@@ -1,4 +1,4 @@
-import rateLimit from 'express-rate-limit';
+import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 import { labelCheckSchema, labelSchema } from '../../shared/schemas/labels';
 import { ApiError } from '../http/errors';

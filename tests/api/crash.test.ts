@@ -6,10 +6,13 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { QueryTypes, Sequelize } from 'sequelize';
+import type { Response as SupertestResponse } from 'supertest';
 import { generatedPlant } from '../../server/bench/study';
 import { startChildServer, type ChildServer } from '../helpers/childServer';
 
 const DEMO_PASSWORD = 'crash-test-demo-pw';
+/** A JSON response body, read as loosely as supertest types its own (`Response['body']`). */
+type ApiBody = SupertestResponse['body'];
 const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-crash-'));
 const dbFile = path.join(dataDir, 'emberline.sqlite');
 const started: ChildServer[] = [];
@@ -27,7 +30,7 @@ async function start(): Promise<ChildServer> {
   return s;
 }
 
-async function api(method: string, url: string, body?: unknown): Promise<{ status: number; body: any }> {
+async function api(method: string, url: string, body?: unknown): Promise<{ status: number; body: ApiBody }> {
   const res = await fetch(`${srv.baseUrl}/api${url}`, {
     method,
     headers: {
@@ -95,7 +98,7 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const KILL_AFTER_MS = 150;
 
 /** The stored model is exactly the generated plant: same elements, same ids, same order. */
-function isWholePlant(model: any): boolean {
+function isWholePlant(model: Partial<Record<keyof typeof plant, { id: string }[]>> | undefined): boolean {
   const ids = (xs: { id: string }[] | undefined) => (xs ?? []).map((x) => x.id).join(',');
   return (
     ids(model?.buses) === ids(plant.buses) &&
@@ -201,7 +204,7 @@ describe('SIGKILL of the real server', () => {
     expect([200, 202]).toContain(again.status);
     expect(again.body.id).not.toBe(run.body.id);
     const until = Date.now() + 150_000;
-    let last: any = null;
+    let last: ApiBody = null;
     while (Date.now() < until) {
       last = (await api('GET', `/studies/${studyId}/run`)).body;
       if (last.status === 'done' || last.status === 'failed') break;

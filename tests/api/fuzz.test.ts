@@ -9,7 +9,7 @@
  * test of their own.
  */
 import http from 'node:http';
-import fc from 'fast-check';
+import * as fc from 'fast-check';
 import request from 'supertest';
 import { modelSchema } from '../../shared/schemas/model';
 import { exportModelCsv, exportModelWorkbook } from '../../server/io';
@@ -128,9 +128,15 @@ const badValue: fc.Arbitrary<unknown> = fc.oneof(
 /** Paths into a JSON value (objects and arrays, root excluded), at most 8 levels deep and 50 items per array. */
 function pathsOf(v: unknown, prefix: (string | number)[] = [], out: (string | number)[][] = []): (string | number)[][] {
   if (prefix.length >= 8) return out;
-  if (Array.isArray(v)) v.slice(0, 50).forEach((x, i) => (out.push([...prefix, i]), pathsOf(x, [...prefix, i], out)));
-  else if (v && typeof v === 'object')
-    for (const [k, x] of Object.entries(v)) (out.push([...prefix, k]), pathsOf(x, [...prefix, k], out));
+  const children: [string | number, unknown][] = Array.isArray(v)
+    ? v.slice(0, 50).map((x, i) => [i, x])
+    : v && typeof v === 'object'
+      ? Object.entries(v)
+      : [];
+  for (const [k, x] of children) {
+    out.push([...prefix, k]);
+    pathsOf(x, [...prefix, k], out);
+  }
   return out;
 }
 
@@ -151,8 +157,9 @@ function applyMutations(valid: unknown, muts: Mutation[]): unknown {
     const paths = pathsOf(doc);
     if (paths.length === 0) break;
     const p = paths[m.pick % paths.length];
-    let parent: any = doc;
-    for (const k of p.slice(0, -1)) parent = parent[k];
+    type Node = Record<string | number, unknown>;
+    let parent = doc as Node;
+    for (const k of p.slice(0, -1)) parent = parent[k] as Node;
     const last = p[p.length - 1];
     if (m.op === 'drop') {
       if (Array.isArray(parent)) parent.splice(last as number, 1);

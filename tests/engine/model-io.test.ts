@@ -1,5 +1,5 @@
 import ExcelJS from 'exceljs';
-import fc from 'fast-check';
+import * as fc from 'fast-check';
 import Papa from 'papaparse';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { EngineError } from '../../server/engine/errors';

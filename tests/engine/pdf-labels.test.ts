@@ -8,7 +8,7 @@
  * WARNING: black on safety orange). The 25.4 mm inch is exact by definition (international inch). Layout choices
  * (sizes, 2 × 3 sheets, rounding hazard values up) are conventions: "common practice, no source".
  */
-import fc from 'fast-check';
+import * as fc from 'fast-check';
 import { PDFArray, PDFDocument, decodePDFRawStream, PDFRawStream, type PDFFont } from 'pdf-lib';
 import type { LabelContent } from '../../shared/schemas/labels';
 import { SAFETY_COLORS } from '../../shared/safetyColors';

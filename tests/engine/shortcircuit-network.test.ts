@@ -1,4 +1,4 @@
-import fc from 'fast-check';
+import * as fc from 'fast-check';
 import * as math from 'mathjs';
 import { expectClose, isClose } from '../helpers/approx';
 import { EngineError } from '../../server/engine/errors';

@@ -12,7 +12,7 @@ import {
 import { GENERIC_THERMAL_BAND } from '../../server/engine/trip/exampleDevices';
 import type { ElectronicDevice, ThermalMagneticDevice } from '../../shared/schemas/device';
 
-const codes = (r: { warnings: Array<{ code: string }> }) => r.warnings.map((w) => w.code);
+const codes = (r: { warnings: { code: string }[] }) => r.warnings.map((w) => w.code);
 
 /** A 20 A thermal-magnetic breaker, instantaneous 10 × rating ± 20 % (invented band; see GENERIC_THERMAL_BAND). */
 const TM: ThermalMagneticDevice = {

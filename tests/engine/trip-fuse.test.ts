@@ -22,7 +22,7 @@ const FUSE: FuseDevice = {
   ],
 };
 
-const codes = (r: { warnings: Array<{ code: string }> }) => r.warnings.map((w) => w.code);
+const codes = (r: { warnings: { code: string }[] }) => r.warnings.map((w) => w.code);
 
 describe('worked example: a fuse band', () => {
   it('reads the total-clearing curve as the maximum and the minimum-melt curve as the minimum', () => {

@@ -1,4 +1,4 @@
-import fc from 'fast-check';
+import * as fc from 'fast-check';
 import { expectClose, isClose } from '../helpers/approx';
 import { EngineError } from '../../server/engine/errors';
 import { interpolateLogLog, validateCurvePoints, type TimeCurrentPoint } from '../../server/engine/trip/interpolate';
@@ -137,7 +137,7 @@ describe('validateCurvePoints', () => {
       'device.max[1]',
     ],
     [[[100, Number.NaN]], 'device.max[0]'],
-  ] as Array<[TimeCurrentPoint[], string]>)('rejects non-positive or non-numeric points %j', (points, field) => {
+  ] as [TimeCurrentPoint[], string][])('rejects non-positive or non-numeric points %j', (points, field) => {
     const e = errorOf(() => validateCurvePoints(points, 'device.max'));
     expect(e.kind).toBe('invalid-input');
     expect(e.field).toBe(field);

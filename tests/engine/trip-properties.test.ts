@@ -1,4 +1,4 @@
-import fc from 'fast-check';
+import * as fc from 'fast-check';
 import { clearingTime } from '../../server/engine/trip/clearingTime';
 import { bandCurves } from '../../server/engine/trip/curvePoints';
 import { EXAMPLE_DEVICES } from '../../server/engine/trip/exampleDevices';

@@ -49,7 +49,7 @@ describe('worked examples: relay with breaker', () => {
 describe('IEEE C37.112-2018 and IEC 60255-151 operating times at TD / TMS = 1', () => {
   const checks = facts.relayCheckValues;
   // The reference's computed values at M = 2, 5 and 10 (status: computed from the published equations).
-  const computed: Array<[string, number, number]> = [
+  const computed: [string, number, number][] = [
     ['IEEE-MI', 2, 3.8032],
     ['IEEE-MI', 5, 1.6883],
     ['IEEE-MI', 10, 1.2068],
