@@ -5,6 +5,7 @@ import { authenticate } from './auth/middleware';
 import type { Config } from './config';
 import type { Db } from './db';
 import type { AppContext } from './http/context';
+import { jsonDepthGuard } from './http/bodyParsing';
 import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';
 import { createMailer, type Mailer } from './mail';
@@ -59,7 +60,7 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
   }
 
   const api = express.Router();
-  api.use(express.json({ limit: opts.config.jsonLimit }));
+  api.use(express.json({ limit: opts.config.jsonLimit, verify: jsonDepthGuard() }));
   api.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
     next();

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { fieldPath } from '../../shared/fieldPath';
 import type { ErrorCode } from '../../shared/schemas/common';
 import { EngineError } from '../engine/errors';
+import { bodyParserError } from './bodyParsing';
 
 const STATUS: Record<ErrorCode, number> = {
   bad_request: 400,
@@ -100,6 +101,8 @@ export const errorMiddleware: ErrorRequestHandler = (err, _req, res, _next) => {
     // Names the body as the field, like every other 400 from input (the parser's own message says where it stopped).
     const detail = err instanceof Error && err.message ? `: ${err.message.slice(0, 200)}` : '';
     apiError = new ApiError('bad_request', 'The request body is not valid JSON', { body: `Not valid JSON${detail}` });
+  } else if (bodyParserError(err)) {
+    apiError = bodyParserError(err)!;
   } else if (err && typeof err === 'object' && (err as { name?: string }).name === 'SequelizeUniqueConstraintError') {
     apiError = new ApiError('conflict', 'That record already exists');
   } else {

@@ -39,3 +39,57 @@ describe('content security policy over plain HTTP and over TLS', () => {
     expect(csp(res)).toContain('upgrade-insecure-requests');
   });
 });
+
+describe('bodies the parser cannot read answer 4xx naming the body', () => {
+  const post = () =>
+    request(t.app).post('/api/calc/incident-energy').set('Authorization', `Bearer ${t.orgA.users.engineer.token}`);
+  const valid = JSON.stringify({ voltageV: 480 });
+
+  it.each(['gzip', 'br', 'deflate'])('Content-Encoding: %s on a body that is not compressed → 400', async (enc) => {
+    const res = await post().set('Content-Type', 'application/json').set('Content-Encoding', enc).send(valid);
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('bad_request');
+    expect(typeof res.body.error.fields.body).toBe('string');
+  });
+
+  it('an unknown Content-Encoding → 415 naming the body', async () => {
+    const res = await post().set('Content-Type', 'application/json').set('Content-Encoding', 'x-squeeze').send(valid);
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe('unsupported_media_type');
+    expect(res.body.error.message).toMatch(/Content-Encoding/);
+    expect(typeof res.body.error.fields.body).toBe('string');
+  });
+
+  it.each(['klingon-8', 'utf-99', 'latin1'])('charset=%s → 415 naming the body', async (charset) => {
+    const res = await post().set('Content-Type', `application/json; charset=${charset}`).send(valid);
+    expect(res.status).toBe(415);
+    expect(res.body.error.message).toMatch(/charset/);
+    expect(typeof res.body.error.fields.body).toBe('string');
+  });
+
+  it('JSON nested 5 000 objects deep → 400 naming the body, on every kind of route', async () => {
+    const deep = '{"a":'.repeat(5000) + '1' + '}'.repeat(5000);
+    const deepArrays = '['.repeat(5000) + ']'.repeat(5000);
+    for (const url of ['/api/calc/incident-energy', '/api/sites', '/api/auth/sign-in']) {
+      for (const text of [deep, deepArrays]) {
+        const res = await request(t.app)
+          .post(url)
+          .set('Authorization', `Bearer ${t.orgA.users.engineer.token}`)
+          .set('Content-Type', 'application/json')
+          .send(text);
+        expect(res.status).toBe(400);
+        expect(res.body.error.fields.body).toMatch(/deeper than 64/);
+      }
+    }
+  });
+
+  it('64 levels are accepted by the parser; brackets inside strings do not count', async () => {
+    const at64 = '{"a":'.repeat(64) + '1' + '}'.repeat(64);
+    const res = await post().set('Content-Type', 'application/json').send(at64);
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.body).toBeUndefined(); // refused by the schema (a field), not by the depth cap
+    const inString = JSON.stringify({ voltageV: 480, note: '['.repeat(500) + '\\"{'.repeat(100) });
+    const res2 = await post().set('Content-Type', 'application/json').send(inString);
+    expect(res2.body.error?.fields?.body).toBeUndefined();
+  });
+});
