@@ -13,7 +13,7 @@ export function authenticate(ctx: AppContext): RequestHandler {
     const header = req.headers.authorization ?? '';
     const match = /^Bearer\s+(\S+)$/i.exec(header);
     if (!match) return next(ApiError.unauthorized('Sign in to continue'));
-    const claims = verifyToken(ctx.config.jwtSecret, match[1]);
+    const claims = verifyToken(ctx.config.jwtSecret, match[1], ctx.config.jwtTtlHours);
     if (!claims) return next(ApiError.unauthorized('Your session is invalid or has expired; sign in again'));
     const user = await User.findByPk(claims.sub);
     if (!user || !user.active || user.tokenVersion !== claims.ver || user.organizationId !== claims.org) {

@@ -38,11 +38,25 @@ function secretKeyOf(secret: string): KeyObject {
   return key;
 }
 
-/** Verifies signature and expiry; returns null on any problem (the caller answers 401). */
-export function verifyToken(secret: string, token: string): TokenClaims | null {
+/**
+ * Verifies signature and expiry; returns null on any problem (the caller answers 401). A token must carry `iat` and
+ * `exp`, and live no longer than `maxTtlHours` (the configured lifetime, at most 12 h): a token signed with the secret
+ * but without an expiry, or with a longer one, is refused.
+ */
+export function verifyToken(secret: string, token: string, maxTtlHours = 12, nowMs = Date.now()): TokenClaims | null {
   try {
-    const claims = jwt.verify(token, secretKeyOf(secret), { algorithms: ['HS256'] });
+    const claims = jwt.verify(token, secretKeyOf(secret), {
+      algorithms: ['HS256'],
+      clockTimestamp: Math.floor(nowMs / 1000),
+    });
     if (typeof claims !== 'object' || !claims.sub || !claims.jti) return null;
+    const { iat, exp } = claims;
+    if (typeof iat !== 'number' || typeof exp !== 'number' || !Number.isFinite(iat) || !Number.isFinite(exp))
+      return null;
+    const maxSeconds = Math.round(maxTtlHours * 3600);
+    const now = nowMs / 1000;
+    // A few seconds of slack for clocks of several servers.
+    if (exp - iat > maxSeconds || iat > now + 60 || exp > now + maxSeconds + 60) return null;
     return claims as unknown as TokenClaims;
   } catch {
     return null;

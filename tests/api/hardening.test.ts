@@ -3,10 +3,12 @@
  * tokens without an expiry, cross-organization e-mail addresses, per-account sign-in backoff, photo re-encoding,
  * the audit log's database triggers, external reminder addresses, and form-encoded field reports.
  */
+import { randomUUID } from 'node:crypto';
+import jwt from 'jsonwebtoken';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
-import { makeTestApp, type TestApp } from '../helpers/testApp';
+import { makeTestApp, TEST_SECRET, type TestApp } from '../helpers/testApp';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -91,5 +93,45 @@ describe('bodies the parser cannot read answer 4xx naming the body', () => {
     const inString = JSON.stringify({ voltageV: 480, note: '['.repeat(500) + '\\"{'.repeat(100) });
     const res2 = await post().set('Content-Type', 'application/json').send(inString);
     expect(res2.body.error?.fields?.body).toBeUndefined();
+  });
+});
+
+describe('tokens must expire within the configured lifetime', () => {
+  const claimsOf = (token: string) => {
+    const d = jwt.decode(token) as Record<string, unknown>;
+    return { org: d.org, role: d.role, ver: d.ver, sub: d.sub };
+  };
+  const me = (token: string) => request(t.app).get('/api/auth/me').set('Authorization', `Bearer ${token}`);
+
+  it('a token signed with the secret but without exp is refused', async () => {
+    const token = jwt.sign({ ...claimsOf(t.orgA.users.engineer.token), jti: randomUUID() }, TEST_SECRET);
+    expect((jwt.decode(token) as Record<string, unknown>).exp).toBeUndefined();
+    expect((await me(token)).status).toBe(401);
+  });
+
+  it('a token without iat is refused', async () => {
+    const token = jwt.sign({ ...claimsOf(t.orgA.users.engineer.token), jti: randomUUID() }, TEST_SECRET, {
+      expiresIn: 3600,
+      noTimestamp: true,
+    });
+    expect((await me(token)).status).toBe(401);
+  });
+
+  it('a token living longer than JWT_TTL_HOURS is refused; one within it is accepted', async () => {
+    const ttl = t.config.jwtTtlHours * 3600;
+    const base = { ...claimsOf(t.orgA.users.engineer.token) };
+    const long = jwt.sign({ ...base, jti: randomUUID() }, TEST_SECRET, { expiresIn: ttl + 3600 });
+    expect((await me(long)).status).toBe(401);
+    const year = jwt.sign({ ...base, jti: randomUUID() }, TEST_SECRET, { expiresIn: '365d' });
+    expect((await me(year)).status).toBe(401);
+    // Back-dated iat with a far exp: exp - iat within the limit but exp far beyond now + lifetime is refused too.
+    const now = Math.floor(Date.now() / 1000);
+    const future = jwt.sign(
+      { ...base, jti: randomUUID(), iat: now + 30 * 86400, exp: now + 30 * 86400 + 60 },
+      TEST_SECRET,
+    );
+    expect((await me(future)).status).toBe(401);
+    const ok = jwt.sign({ ...base, jti: randomUUID() }, TEST_SECRET, { expiresIn: ttl });
+    expect((await me(ok)).status).toBe(200);
   });
 });
