@@ -144,9 +144,14 @@ async function findInvitation(actor: AuthUser, invitationId: string, transaction
   return row;
 }
 
-async function assertEmailFree(email: string, transaction?: Transaction): Promise<void> {
-  if (await User.findOne({ where: { email }, transaction }))
-    throw new ApiError('conflict', EMAIL_TAKEN, { email: 'Already in use' });
+/**
+ * Refuses an address that is already a user of the inviting organization. An address that belongs to another
+ * organization is treated like a new one: saying so would tell one organization about another's people. Such an
+ * invitation simply stays pending; its link tells the person (who owns the address) to sign in instead.
+ */
+async function assertEmailFree(email: string, organizationId: string, transaction?: Transaction): Promise<void> {
+  if (await User.findOne({ where: { email, organizationId }, attributes: ['id'], transaction }))
+    throw new ApiError('conflict', `${EMAIL_TAKEN} in your organization`, { email: 'Already in use' });
 }
 
 async function organizationName(organizationId: string): Promise<string> {
@@ -181,7 +186,7 @@ export async function createInvitation(
   const token = newLinkToken();
   const now = ctx.now();
   const row = await ctx.db.sequelize.transaction(WRITE_LOCK, async (transaction) => {
-    await assertEmailFree(input.email, transaction);
+    await assertEmailFree(input.email, actor.organizationId, transaction);
     const pending = await LinkToken.findOne({
       where: {
         organizationId: actor.organizationId,
@@ -239,7 +244,7 @@ export async function resendInvitation(ctx: AppContext, actor: AuthUser, invitat
     const status = invitationStatus(inv, now);
     if (status === 'accepted') throw ApiError.conflict('This invitation has already been accepted');
     if (status === 'revoked') throw ApiError.conflict('This invitation was revoked: invite the person again');
-    await assertEmailFree(inv.email, transaction);
+    await assertEmailFree(inv.email, actor.organizationId, transaction);
     const expiresAt = new Date(now.getTime() + INVITATION_TTL_MS);
     const [affected] = await LinkToken.update(
       { tokenHash: hashLinkToken(token), expiresAt },

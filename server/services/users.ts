@@ -26,8 +26,18 @@ export async function listUsers(actor: AuthUser): Promise<UserAdmin[]> {
 }
 
 export async function createUser(ctx: AppContext, actor: AuthUser, input: CreateUser): Promise<UserAdmin> {
-  if (await User.findOne({ where: { email: input.email } })) {
-    throw new ApiError('conflict', 'A user with that e-mail address already exists', { email: 'Already in use' });
+  const existing = await User.findOne({ where: { email: input.email }, attributes: ['organizationId'] });
+  if (existing?.organizationId === actor.organizationId) {
+    throw new ApiError('conflict', 'A user with that e-mail address already exists in your organization', {
+      email: 'Already in use',
+    });
+  }
+  if (existing) {
+    // Another organization's address: a message that does not say so (nor which), pointing to the invitation,
+    // whose answer is the same as for a new address.
+    throw new ApiError('conflict', 'An account cannot be created here for this address: invite the person by e-mail', {
+      email: 'Invite this address instead',
+    });
   }
   const passwordHash = await hashPassword(input.password);
   return ctx.db.sequelize.transaction(async (transaction) => {

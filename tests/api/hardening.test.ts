@@ -8,6 +8,7 @@ import jwt from 'jsonwebtoken';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
+import { CapturedMail, User } from '../../server/db/models';
 import { makeTestApp, TEST_SECRET, type TestApp } from '../helpers/testApp';
 
 let t: TestApp;
@@ -133,5 +134,60 @@ describe('tokens must expire within the configured lifetime', () => {
     expect((await me(future)).status).toBe(401);
     const ok = jwt.sign({ ...base, jti: randomUUID() }, TEST_SECRET, { expiresIn: ttl });
     expect((await me(ok)).status).toBe(200);
+  });
+});
+
+describe("another organization's people are not revealed by invitations or new users", () => {
+  const adminA = () => ['Authorization', `Bearer ${t.orgA.users.admin.token}`] as [string, string];
+  const invite = (email: string) =>
+    request(t.app)
+      .post('/api/invitations')
+      .set(...adminA())
+      .send({ email, name: 'Someone', role: 'electrician' });
+
+  it('inviting an address of another organization answers like a new address; accepting tells the owner to sign in', async () => {
+    const fresh = await invite('nobody.yet@org-a.example');
+    const foreign = await invite(t.orgB.users.engineer.email);
+    expect(foreign.status).toBe(fresh.status);
+    expect(foreign.status).toBe(201);
+    expect(Object.keys(foreign.body).sort()).toEqual(Object.keys(fresh.body).sort());
+    expect(foreign.body.status).toBe(fresh.body.status);
+    // The invitation mail goes to the address (its owner decides); the link then says to sign in, and changes nothing.
+    const mails = (await CapturedMail.findAll({ where: { kind: 'invitation' } })).filter((r) =>
+      (JSON.parse(r.to) as string[]).includes(t.orgB.users.engineer.email),
+    );
+    expect(mails).toHaveLength(1);
+    const token = /\/welcome\/([A-Za-z0-9_-]+)/.exec(mails[0].text)![1];
+    const accept = await request(t.app)
+      .post('/api/auth/accept-invitation')
+      .send({ token, password: 'a-brand-new-passphrase' });
+    expect(accept.status).toBe(409);
+    expect(accept.body.error.message).toMatch(/sign in/);
+    const owner = await User.findOne({ where: { email: t.orgB.users.engineer.email } });
+    expect(owner!.organizationId).toBe(t.orgB.id);
+    expect(await User.count({ where: { email: t.orgB.users.engineer.email } })).toBe(1);
+  });
+
+  it('within the same organization a duplicate still says so', async () => {
+    const dup = await invite(t.orgA.users.safety.email);
+    expect(dup.status).toBe(409);
+    expect(dup.body.error.message).toMatch(/already exists in your organization/);
+    const user = await request(t.app)
+      .post('/api/users')
+      .set(...adminA())
+      .send({ email: t.orgA.users.safety.email, name: 'Dup', role: 'engineer', password: 'a-long-password-1' });
+    expect(user.status).toBe(409);
+    expect(user.body.error.message).toMatch(/already exists in your organization/);
+  });
+
+  it("creating a user with another organization's address says neither that it exists nor where", async () => {
+    const res = await request(t.app)
+      .post('/api/users')
+      .set(...adminA())
+      .send({ email: t.orgB.users.admin.email, name: 'Probe', role: 'engineer', password: 'a-long-password-1' });
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).not.toMatch(/exist|organization B|another organization/i);
+    expect(res.body.error.message).toMatch(/invite/i);
+    expect(await User.count({ where: { email: t.orgB.users.admin.email } })).toBe(1);
   });
 });

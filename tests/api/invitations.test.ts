@@ -193,8 +193,9 @@ describe('invitations', () => {
     expect(outcome.users).toBe(1);
   });
 
-  it('refuses an address that already has an account, or a pending invitation, naming the field', async () => {
-    const taken = await invite(t.orgB.users.engineer.email);
+  it('refuses an address that already has an account here, or a pending invitation, naming the field', async () => {
+    // Another organization's address is answered like a new one (tests/api/hardening.test.ts).
+    const taken = await invite(t.orgA.users.engineer.email);
     expect(taken.status).toBe(409);
     expect(taken.body.error.fields).toHaveProperty('email');
     await invite('twice@org-a.example');
