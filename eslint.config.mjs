@@ -5,12 +5,12 @@ import expoConfig from 'eslint-config-expo/flat.js';
 import prettier from 'eslint-config-prettier';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
-import tseslint from 'typescript-eslint';
+import { configs as typescriptEslint } from 'typescript-eslint';
 
 export default defineConfig([
   { ignores: ['dist/**', 'data/**', '.expo/**', 'node_modules/**', 'tests/screenshots/**', 'coverage/**'] },
   expoConfig,
-  ...tseslint.configs.recommended,
+  ...typescriptEslint.recommended,
   reactHooks.configs.flat.recommended,
   {
     rules: {

@@ -60,7 +60,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
             {items.map((item) => {
               const on = isActive(item.href, pathname);
               return (
-                <Link key={item.href} href={item.href as never} asChild>
+                <Link key={item.href} href={item.href} asChild>
                   <Pressable
                     accessibilityRole="link"
                     accessibilityState={{ selected: on }}
@@ -153,7 +153,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
           const on =
             item === MORE_ITEM ? !direct.some((i) => isActive(i.href, pathname)) : isActive(item.href, pathname);
           return (
-            <Link key={item.href} href={item.href as never} asChild>
+            <Link key={item.href} href={item.href} asChild>
               <Pressable
                 accessibilityRole="tab"
                 accessibilityState={{ selected: on }}

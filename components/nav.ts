@@ -1,7 +1,11 @@
+import type { Href } from 'expo-router';
 import type { Role } from '../shared/schemas/common';
 
+/** A path inside the app, checked against Expo Router's generated route types. */
+export type AppHref = Extract<Href, string>;
+
 export interface NavItem {
-  href: string;
+  href: AppHref;
   label: string;
   /** A single glyph drawn in the navigation (no icon font needed). */
   glyph: string;

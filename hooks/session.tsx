@@ -17,11 +17,25 @@ interface SessionValue {
 
 const SessionContext = createContext<SessionValue | null>(null);
 
+/** The user stored beside a token, or nobody (an unreadable entry is dropped). */
+function readStoredUser(): User | null {
+  const saved = storage.get(USER_KEY);
+  if (!saved || !storage.get(TOKEN_KEY)) return null;
+  try {
+    return JSON.parse(saved) as User;
+  } catch {
+    storage.remove(TOKEN_KEY);
+    storage.remove(USER_KEY);
+    return null;
+  }
+}
+
 /** Keeps the signed-in user across reloads (token in storage), and drops it when the server says 401. */
 export function SessionProvider({ children }: { children: React.ReactNode }) {
   const queryClient = useQueryClient();
-  const [user, setUser] = useState<User | null>(null);
-  const [ready, setReady] = useState(false);
+  // The stored session is read synchronously on the first render (local storage), so the app is ready at once.
+  const [user, setUser] = useState<User | null>(readStoredUser);
+  const ready = true;
 
   const clear = useCallback(() => {
     storage.remove(TOKEN_KEY);
@@ -31,15 +45,6 @@ export function SessionProvider({ children }: { children: React.ReactNode }) {
   }, [queryClient]);
 
   useEffect(() => {
-    const saved = storage.get(USER_KEY);
-    if (saved && storage.get(TOKEN_KEY)) {
-      try {
-        setUser(JSON.parse(saved) as User);
-      } catch {
-        clear();
-      }
-    }
-    setReady(true);
     // Check the stored token once: a deactivated user or an expired token signs out.
     if (storage.get(TOKEN_KEY)) apiFetch<User>('/auth/me').catch(() => undefined);
     return onUnauthorized(clear);

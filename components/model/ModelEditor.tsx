@@ -7,7 +7,7 @@
  * callbacks, inputs keep their text locally, and what a row needs from the rest of the model (bus lists, library
  * types) is rebuilt only when that part changes.
  */
-import React, { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import React, { memo, useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import { Platform, Pressable, ScrollView, TextInput, View, type ViewStyle } from 'react-native';
 import type { DeviceType } from '../../shared/schemas/deviceLibrary';
 import { DEVICE_KIND_LABELS } from '../../shared/schemas/deviceLibrary';
@@ -99,12 +99,14 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
   const [focus, setFocus] = useState<Focus | null>(null);
   const [filter, setFilter] = useState('');
   const [undo, setUndo] = useState<{ text: string; before: ModelInput; after: ModelInput } | null>(null);
-  const nonce = useRef(0);
 
+  // The latest model and callback for the stable row actions below (synced after each render, before any event).
   const modelRef = useRef(model);
-  modelRef.current = model;
   const onChangeRef = useRef(onChange);
-  onChangeRef.current = onChange;
+  useLayoutEffect(() => {
+    modelRef.current = model;
+    onChangeRef.current = onChange;
+  });
   const commit = useCallback((next: ModelInput) => {
     if (next === modelRef.current) return;
     modelRef.current = next;
@@ -112,8 +114,8 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
   }, []);
 
   const focusOn = useCallback((key: string, expand: boolean) => {
-    nonce.current += 1;
-    setFocus({ key, nonce: nonce.current });
+    // A new nonce each time, so asking for the same element again scrolls to it again.
+    setFocus((f) => ({ key, nonce: (f?.nonce ?? 0) + 1 }));
     if (expand) setExpanded((s) => (s.has(key) ? s : new Set(s).add(key)));
   }, []);
 
@@ -160,8 +162,8 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
     focusOn(elementKey(collection, r.index), true);
   };
 
-  // Issues: grouped when they change (not on every keystroke); the latest model only resolves stale indexes.
-  const grouped = useMemo(() => groupIssues(issues, modelRef.current), [issues]);
+  // Issues are grouped against the model they may point into (indexes resolved to the current elements).
+  const grouped = useMemo(() => groupIssues(issues, model), [issues, model]);
 
   const jump = useCallback(
     (li: LocatedIssue) => {
@@ -173,13 +175,16 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
     [focusOn],
   );
 
-  useEffect(() => {
+  // A focus request from outside (the system tree) opens its element once per request.
+  const [seenRequest, setSeenRequest] = useState(focusRequest);
+  if (focusRequest !== seenRequest) {
+    setSeenRequest(focusRequest);
     if (focusRequest && isCollection(focusRequest.collection)) {
       setSection(focusRequest.collection);
       setFilter('');
       focusOn(elementKey(focusRequest.collection, focusRequest.index), true);
     }
-  }, [focusRequest, focusOn]);
+  }
 
   const ctx = useSectionContext(model, section, deviceTypes);
   const showUndo = undo !== null && undo.after === model;

@@ -2,7 +2,7 @@
  * The system as an indented tree, from each source down to the buses it feeds, with motors and protective devices
  * marked where they sit. Connector lines are plain Views, so rows wrap and stay readable on a 390 px phone.
  */
-import React, { memo, useCallback, useDeferredValue, useMemo, useRef } from 'react';
+import React, { memo, useCallback, useDeferredValue, useLayoutEffect, useMemo, useRef } from 'react';
 import { Pressable, View } from 'react-native';
 import Svg, { Circle, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
 import type { ModelInput } from '../../shared/schemas/model';
@@ -28,7 +28,9 @@ export function SystemTree({ model, onSelect }: SystemTreeProps) {
   const rows = useMemo(() => buildSystemTree(deferred).map((row) => ({ row, sig: JSON.stringify(row) })), [deferred]);
   // Rows keep a stable callback, so a parent passing a new arrow function each render does not redraw them all.
   const onSelectRef = useRef(onSelect);
-  onSelectRef.current = onSelect;
+  useLayoutEffect(() => {
+    onSelectRef.current = onSelect;
+  });
   const stableSelect = useCallback((ref: { collection: string; index: number }) => onSelectRef.current?.(ref), []);
   const select = onSelect ? stableSelect : undefined;
   if (rows.length === 0) {

@@ -1,3 +1,4 @@
+import type { AppHref } from '../nav';
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
 import { Pressable, View } from 'react-native';
@@ -19,7 +20,7 @@ import { AttentionCaution, SiteFilter, useSiteParam } from './AttentionScreen';
 import { kindLabel } from './ReportsScreen';
 
 /** Where a row of a list opens: its study, its label (by the code in its cells) or its field report. */
-export function rowHref(row: AttentionRow): string {
+export function rowHref(row: AttentionRow): AppHref {
   switch (row.link.kind) {
     case 'study':
       return `/studies/${encodeURIComponent(row.link.id)}`;
@@ -75,7 +76,7 @@ function RowCard({
 }) {
   const [first, ...rest] = columns;
   return (
-    <Link href={rowHref(row) as never} asChild>
+    <Link href={rowHref(row)} asChild>
       <Pressable accessibilityRole="link" testID={`attention-row-${row.id}`} style={{ ...cardStyle, gap: space.xs }}>
         <T variant="subheading">{first ? cellText(row.cells[first.key], first, list) : row.id}</T>
         {showSite ? <T variant="small">{row.siteName}</T> : null}
@@ -130,7 +131,7 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
       }
     >
       <Link
-        href={(siteId ? `/attention?siteId=${encodeURIComponent(siteId)}` : '/attention') as never}
+        href={siteId ? `/attention?siteId=${encodeURIComponent(siteId)}` : '/attention'}
         style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}
         testID="back-to-dashboard"
       >

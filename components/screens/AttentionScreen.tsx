@@ -1,3 +1,4 @@
+import type { AppHref } from '../nav';
 import { Link, useLocalSearchParams, useRouter } from 'expo-router';
 import React from 'react';
 import { Pressable, View } from 'react-native';
@@ -31,7 +32,7 @@ const SEVERITY = {
   low: { word: 'Low priority', bar: colors.accent },
 } as const;
 
-export function attentionHref(list: AttentionList, siteId: string | null): string {
+export function attentionHref(list: AttentionList, siteId: string | null): AppHref {
   return `/attention/${list}${siteId ? `?siteId=${encodeURIComponent(siteId)}` : ''}`;
 }
 
@@ -87,7 +88,7 @@ function CountCard({
   const sev = SEVERITY[info.severity];
   const some = count > 0;
   return (
-    <Link href={attentionHref(list, siteId) as never} asChild>
+    <Link href={attentionHref(list, siteId)} asChild>
       <Pressable
         accessibilityRole="link"
         accessibilityLabel={`${info.title}: ${count}`}
@@ -157,7 +158,7 @@ export function OpenReportAges({ summary, siteId }: { summary: AttentionSummary;
       <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
         <T variant="subheading">Open field reports by age</T>
         <Link
-          href={attentionHref('open-reports', siteId) as never}
+          href={attentionHref('open-reports', siteId)}
           style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}
         >
           {total ? 'Open the list →' : 'See the list →'}
@@ -203,7 +204,7 @@ function SiteBreakdown({ summary }: { summary: AttentionSummary }) {
                   l,
                   <Link
                     key={l}
-                    href={attentionHref(l, s.siteId) as never}
+                    href={attentionHref(l, s.siteId)}
                     style={{
                       textAlign: 'right',
                       fontFamily: fonts.numbers,
@@ -230,7 +231,7 @@ function SiteBreakdown({ summary }: { summary: AttentionSummary }) {
             {ATTENTION_LISTS.map((l) => {
               const n = s.counts[l] ?? 0;
               return (
-                <Link key={l} href={attentionHref(l, s.siteId) as never} asChild>
+                <Link key={l} href={attentionHref(l, s.siteId)} asChild>
                   <Pressable accessibilityRole="link" style={{ minHeight: 40, justifyContent: 'center' }}>
                     <ValueRow label={ATTENTION_LIST_INFO[l].title}>
                       <Num value={String(n)} bold={n > 0} style={{ color: n ? colors.ink : colors.muted }} />

@@ -1,6 +1,6 @@
 import { useQueries } from '@tanstack/react-query';
 import { Link } from 'expo-router';
-import React, { useMemo, useState } from 'react';
+import React, { useState } from 'react';
 import { View } from 'react-native';
 import type { Device } from '../../shared/schemas/device';
 import type { BandCurvesResponse } from '../../shared/schemas/deviceLibrary';
@@ -137,16 +137,12 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
       : undefined;
 
   // Devices of the selected case that clear, fastest first (at most six on the plot).
-  const plotted = useMemo(
-    () =>
-      current
-        ? current.devices
-            .filter((d) => d.clearingTimeS !== null)
-            .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))
-            .slice(0, 6)
-        : [],
-    [current],
-  );
+  const plotted = current
+    ? current.devices
+        .filter((d) => d.clearingTimeS !== null)
+        .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))
+        .slice(0, 6)
+    : [];
   const modelDevices = (results.data?.model.devices ?? []) as { id: string; device: Device }[];
   const curves = useQueries({
     queries: plotted.map((d) => {
@@ -278,7 +274,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
       title={`${bus.busId} · ${bus.busName}`}
       subtitle={`Clearing trace · ${fmt(busKv)} kV · bolted fault ${fmt(bus.boltedFaultKa)} kA (X/R ${fmt(bus.xr)})`}
     >
-      <Link href={`/studies/${studyId}?tab=results` as never} style={{ color: colors.accent, fontSize: 16 }}>
+      <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
         ← All results
       </Link>
       {!reviewed ? (

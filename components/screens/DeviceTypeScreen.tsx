@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useRouter } from 'expo-router';
-import React, { useEffect, useMemo, useState } from 'react';
+import React, { useMemo, useState } from 'react';
 import { View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS, deviceDefinitionSchema, type DeviceDefinition } from '../../shared/schemas/deviceLibrary';
@@ -113,14 +113,15 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
   );
   const [reading, setReading] = useState<{ currentA: number; timeS: number | null } | null>(null);
 
-  useEffect(() => {
-    if (existing.data) {
-      setName(existing.data.name);
-      setDescription(existing.data.description);
-      setSource(existing.data.source);
-      setDef(existing.data.definition);
-    }
-  }, [existing.data]);
+  // The form starts from the stored device type once it has loaded (and follows it when it changes on the server).
+  const [loadedFrom, setLoadedFrom] = useState<typeof existing.data>(undefined);
+  if (existing.data && existing.data !== loadedFrom) {
+    setLoadedFrom(existing.data);
+    setName(existing.data.name);
+    setDescription(existing.data.description);
+    setSource(existing.data.source);
+    setDef(existing.data.definition);
+  }
 
   // Only a definition that passes the shared schema is plotted; the form shows what is wrong otherwise.
   const check = useMemo(() => (def ? validate(deviceDefinitionSchema, def) : null), [def]);
@@ -140,7 +141,7 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
         onSuccess: (saved) => {
           setErrors({});
           setMessage({ tone: 'ok', text: 'Saved to the device library.' });
-          if (!id) router.replace(`/devices/${saved.id}?saved=1` as never);
+          if (!id) router.replace(`/devices/${saved.id}?saved=1`);
         },
         onError: (e) => {
           const s = serverErrors(e);
@@ -265,7 +266,7 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
               title="Remove from library"
               kind="secondary"
               busy={remove.isPending}
-              onPress={() => remove.mutate(id, { onSuccess: () => router.replace('/devices' as never) })}
+              onPress={() => remove.mutate(id, { onSuccess: () => router.replace('/devices') })}
             />
           ) : null}
         </View>

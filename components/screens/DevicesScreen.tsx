@@ -55,7 +55,7 @@ export function DevicesScreen() {
                 title={DEVICE_KIND_LABELS[k]}
                 kind="secondary"
                 testID={`new-${k}`}
-                onPress={() => router.push(`/devices/new?kind=${k}` as never)}
+                onPress={() => router.push(`/devices/new?kind=${k}`)}
               />
             ))}
           </View>
@@ -72,7 +72,7 @@ export function DevicesScreen() {
       {types.data && shown.length === 0 ? <Notice>No device types of this kind yet.</Notice> : null}
       <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.md }}>
         {shown.map((t) => (
-          <Link key={t.id} href={`/devices/${t.id}` as never} asChild>
+          <Link key={t.id} href={`/devices/${t.id}`} asChild>
             <Pressable
               accessibilityRole="link"
               style={{ flexBasis: wide ? '48%' : 'auto', flexGrow: 1 }}

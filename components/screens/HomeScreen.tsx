@@ -1,3 +1,4 @@
+import type { AppHref } from '../nav';
 import { Link } from 'expo-router';
 import React from 'react';
 import { Pressable, View } from 'react-native';
@@ -14,7 +15,7 @@ import { AttentionCards, AttentionCaution, OpenReportAges } from './AttentionScr
 interface Step {
   title: string;
   detail: string;
-  href: string;
+  href: AppHref;
 }
 
 /** What each role does, and where it goes next. */
@@ -54,7 +55,7 @@ const ROLE_HOME: Record<Role, { duty: string; steps: Step[] }> = {
 
 function StepCard({ step, inRow }: { step: Step; inRow: boolean }) {
   return (
-    <Link href={step.href as never} asChild>
+    <Link href={step.href} asChild>
       <Pressable
         accessibilityRole="link"
         style={{
@@ -162,7 +163,7 @@ export function HomeScreen() {
         {sites.data?.slice(0, 5).map((s) => (
           <Link
             key={s.id}
-            href={`/sites/${s.id}` as never}
+            href={`/sites/${s.id}`}
             style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium, paddingVertical: 6 }}
           >
             {s.name}

@@ -85,7 +85,7 @@ export function LabelCheckScreen({ code }: { code: string }) {
               reviewed={check.data.status === 'current'}
               incidentEnergyCalPerCm2={check.data.content.incidentEnergyCalPerCm2}
             />
-            <Link href={`/labels/${check.data.code}` as never} style={{ color: colors.accent, fontSize: 16 }}>
+            <Link href={`/labels/${check.data.code}`} style={{ color: colors.accent, fontSize: 16 }}>
               Electricians: sign in to mark this label installed or report what does not match
             </Link>
           </>

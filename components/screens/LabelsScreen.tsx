@@ -1,5 +1,5 @@
 import { Link, useLocalSearchParams } from 'expo-router';
-import React, { useEffect, useMemo, useState } from 'react';
+import React, { useMemo, useState } from 'react';
 import { Pressable, View } from 'react-native';
 import { LABEL_STATUS_LABELS, type LabelDto, type LabelSize } from '../../shared/schemas/labels';
 import { downloadFile } from '../../hooks/download';
@@ -77,7 +77,7 @@ function Row({
           {l.installedAt ? `installed ${l.installedAt.slice(0, 10)}` : 'not installed'}
         </T>
       </Pressable>
-      <Link href={`/labels/${l.code}` as never} style={{ color: colors.accent, fontSize: 15, padding: space.sm }}>
+      <Link href={`/labels/${l.code}`} style={{ color: colors.accent, fontSize: 15, padding: space.sm }}>
         Open
       </Link>
     </View>
@@ -91,16 +91,15 @@ export function LabelsScreen() {
   const sites = useSites();
   // `/labels?site=<id>` opens one site's labels (links from the dashboard and the site screen).
   const params = useLocalSearchParams<{ site?: string }>();
-  const [siteId, setSiteId] = useState<string | null>(
+  const [chosenSiteId, setSiteId] = useState<string | null>(
     typeof params.site === 'string' && params.site ? params.site : null,
   );
-  useEffect(() => {
-    if (!siteId && sites.data?.length) setSiteId(sites.data[0].id);
-  }, [sites.data, siteId]);
+  // Until one is chosen, the first site is shown.
+  const siteId = chosenSiteId ?? sites.data?.[0]?.id ?? null;
   const labels = useSiteLabels(siteId);
   const [filter, setFilter] = useState<Filter>('all');
   const [selected, setSelected] = useState<Set<string>>(new Set());
-  const [preview, setPreview] = useState<LabelDto | null>(null);
+  const [chosenPreview, setPreview] = useState<LabelDto | null>(null);
   const [size, setSize] = useState<LabelSize>('4x6');
   const create = useCreateBatch();
   const [batchId, setBatchId] = useState<string | null>(null);
@@ -115,7 +114,8 @@ export function LabelsScreen() {
       ),
     [labels.data, filter],
   );
-  useEffect(() => setPreview((p) => p ?? shown[0] ?? null), [shown]);
+  // Until one is chosen, the first label shown is previewed.
+  const preview = chosenPreview ?? shown[0] ?? null;
 
   const toggle = (id: string) =>
     setSelected((s) => {

@@ -74,7 +74,7 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
 
   const forward = (
     <Link
-      href={(purpose === 'password-reset' ? '/forgot-password' : '/sign-in') as never}
+      href={purpose === 'password-reset' ? '/forgot-password' : '/sign-in'}
       style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}
       testID="link-forward"
     >

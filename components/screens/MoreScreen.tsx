@@ -15,7 +15,7 @@ export function MoreScreen() {
     <Screen title="Menu" subtitle={`${user.name} · ${ROLE_LABELS[user.role]}`}>
       <View style={{ gap: space.sm }}>
         {navFor(user.role).map((item) => (
-          <Link key={item.href} href={item.href as never} asChild>
+          <Link key={item.href} href={item.href} asChild>
             <Pressable
               accessibilityRole="link"
               style={{

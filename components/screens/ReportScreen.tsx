@@ -171,7 +171,7 @@ export function ReportScreen({ reportId }: { reportId: string }) {
           {r.reporter.name} · {fmtDateTime(r.createdAt)} ({fmtAgeDays(r.ageDays)})
         </T>
         <Link
-          href={`/labels/${encodeURIComponent(r.labelCode)}` as never}
+          href={`/labels/${encodeURIComponent(r.labelCode)}`}
           style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}
           testID="report-label-link"
         >

@@ -28,7 +28,7 @@ type StatusFilter = FieldReportStatus | 'all';
 
 function ReportCard({ r, showReporter }: { r: FieldReportDto; showReporter: boolean }) {
   return (
-    <Link href={`/reports/${r.id}` as never} asChild>
+    <Link href={`/reports/${r.id}`} asChild>
       <Pressable accessibilityRole="link" testID={`report-${r.id}`} style={{ ...cardStyle, gap: space.xs }}>
         <View
           style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, alignItems: 'flex-start' }}

@@ -13,8 +13,12 @@ export function codeFromScan(text: string): string | null {
 
 function Camera({ onCode }: { onCode: (code: string) => void }) {
   const videoRef = useRef<HTMLVideoElement | null>(null);
-  const [error, setError] = useState<string | null>(null);
+  const supported = typeof navigator !== 'undefined' && typeof navigator.mediaDevices?.getUserMedia === 'function';
+  const [error, setError] = useState<string | null>(
+    supported ? null : 'This browser cannot use the camera. Type the code instead.',
+  );
   useEffect(() => {
+    if (!supported) return;
     let stream: MediaStream | null = null;
     let timer: ReturnType<typeof setInterval> | null = null;
     let stopped = false;
@@ -44,14 +48,13 @@ function Camera({ onCode }: { onCode: (code: string) => void }) {
         if (code) onCode(code);
       }, 300);
     };
-    if (typeof navigator !== 'undefined' && typeof navigator.mediaDevices?.getUserMedia === 'function') void start();
-    else setError('This browser cannot use the camera. Type the code instead.');
+    void start();
     return () => {
       stopped = true;
       if (timer) clearInterval(timer);
       stream?.getTracks().forEach((t) => t.stop());
     };
-  }, [onCode]);
+  }, [onCode, supported]);
   if (error)
     return (
       <Notice tone="warning" testID="camera-unavailable">
@@ -86,7 +89,7 @@ export function ScanScreen() {
   const [typed, setTyped] = useState('');
   const [error, setError] = useState<string | undefined>();
   const [camera, setCamera] = useState(false);
-  const open = useCallback((code: string) => router.push(`/labels/${code.toUpperCase()}` as never), [router]);
+  const open = useCallback((code: string) => router.push(`/labels/${code.toUpperCase()}`), [router]);
   const submit = () => {
     const code = codeFromScan(typed);
     if (!code) return setError('Enter the 16-character code printed under the QR code');

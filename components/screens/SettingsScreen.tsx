@@ -1,4 +1,4 @@
-import React, { useEffect, useState } from 'react';
+import React, { useState } from 'react';
 import { Pressable, View } from 'react-native';
 import { organizationSettingsSchema, type OrganizationSettings } from '../../shared/schemas/organization';
 import { serverErrors, validate } from '../../hooks/forms';
@@ -26,8 +26,10 @@ export function SettingsScreen() {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
 
-  useEffect(() => {
-    if (!org.data) return;
+  // The form starts from the stored settings, and follows them when they change on the server.
+  const [loadedFrom, setLoadedFrom] = useState<typeof org.data>(undefined);
+  if (org.data && org.data !== loadedFrom) {
+    setLoadedFrom(org.data);
     const s: OrganizationSettings = org.data.settings;
     setReview(String(s.reviewIntervalMonths));
     setDanger(String(s.signalWord.dangerAboveCalPerCm2));
@@ -38,7 +40,7 @@ export function SettingsScreen() {
     setLevels(
       s.ppeLevels.map((l) => ({ name: l.name, max: String(l.maxCalPerCm2), description: l.description ?? '' })),
     );
-  }, [org.data]);
+  }
 
   const submit = () => {
     setMessage(null);

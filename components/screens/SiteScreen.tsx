@@ -22,7 +22,7 @@ function NewStudy({ siteId, onCancel }: { siteId: string; onCancel: () => void }
     const v = validate(createStudySchema, { title });
     if (!v.ok) return setError(v.errors.title);
     create.mutate(v.data, {
-      onSuccess: (s) => router.push(`/studies/${s.id}?tab=model` as never),
+      onSuccess: (s) => router.push(`/studies/${s.id}?tab=model`),
       onError: (e) => setError(serverErrors(e).message),
     });
   };

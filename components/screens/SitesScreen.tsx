@@ -28,7 +28,7 @@ export function SitesScreen() {
       {creating ? (
         <Card>
           <T variant="subheading">New site</T>
-          <SiteForm onDone={(s) => router.push(`/sites/${s.id}` as never)} onCancel={() => setCreating(false)} />
+          <SiteForm onDone={(s) => router.push(`/sites/${s.id}`)} onCancel={() => setCreating(false)} />
         </Card>
       ) : null}
       {sites.error ? <Notice tone="error">{sites.error.message}</Notice> : null}
@@ -66,7 +66,7 @@ export function SitesScreen() {
             </T>
           </View>
           {sites.data.map((s) => (
-            <Link key={s.id} href={`/sites/${s.id}` as never} asChild>
+            <Link key={s.id} href={`/sites/${s.id}`} asChild>
               <Pressable
                 accessibilityRole="link"
                 style={{
@@ -91,7 +91,7 @@ export function SitesScreen() {
         </View>
       ) : (
         sites.data?.map((s) => (
-          <Link key={s.id} href={`/sites/${s.id}` as never} asChild>
+          <Link key={s.id} href={`/sites/${s.id}`} asChild>
             <Pressable accessibilityRole="link">
               <Card>
                 <T variant="subheading">{s.name}</T>

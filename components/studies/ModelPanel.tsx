@@ -1,4 +1,4 @@
-import React, { useDeferredValue, useEffect, useMemo, useState } from 'react';
+import React, { useDeferredValue, useMemo, useState } from 'react';
 import { Platform, View } from 'react-native';
 import { parseModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
 import type { StudyDto } from '../../shared/schemas/studies';
@@ -115,13 +115,14 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   const [focus, setFocus] = useState<{ collection: string; index: number } | null>(null);
   const [showTree, setShowTree] = useState(true);
 
-  useEffect(() => {
-    // Only a clean editor follows the server; unsaved edits are never overwritten silently.
-    if (envelope.data && !dirty) {
-      setDraft(envelope.data.model as ModelInput);
-      setBaseVersion(envelope.data.version);
-    }
-  }, [envelope.data, dirty]);
+  // Only a clean editor follows the server; unsaved edits are never overwritten silently. (State adjusted while
+  // rendering when the server's copy changes, rather than in an effect that would render twice.)
+  const [syncedFrom, setSyncedFrom] = useState<typeof envelope.data>(undefined);
+  if (envelope.data && !dirty && envelope.data !== syncedFrom) {
+    setSyncedFrom(envelope.data);
+    setDraft(envelope.data.model as ModelInput);
+    setBaseVersion(envelope.data.version);
+  }
 
   const deferred = useDeferredValue(draft);
   const issues: ModelIssue[] = useMemo(() => {

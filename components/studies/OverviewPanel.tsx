@@ -198,7 +198,7 @@ function ReviewPanel({ study }: { study: StudyDto }) {
         testID="revise"
         kind="secondary"
         busy={revise.isPending}
-        onPress={() => revise.mutate(undefined, { onSuccess: (s) => router.push(`/studies/${s.id}` as never) })}
+        onPress={() => revise.mutate(undefined, { onSuccess: (s) => router.push(`/studies/${s.id}`) })}
       />
     </Card>
   );
@@ -248,7 +248,7 @@ export function OverviewPanel({ study }: { study: StudyDto }) {
       <Card>
         <View style={{ gap: 6 }}>
           <T variant="label">SITE</T>
-          <Link href={`/sites/${study.siteId}` as never} style={{ color: colors.accent, fontSize: 16 }}>
+          <Link href={`/sites/${study.siteId}`} style={{ color: colors.accent, fontSize: 16 }}>
             {study.siteName}
           </Link>
           <T variant="label">LAST EDITED</T>

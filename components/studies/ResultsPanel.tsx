@@ -205,7 +205,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
               ))}
             </View>
             {rows.map((b) => (
-              <Link key={b.busId} href={`/studies/${study.id}/bus/${encodeURIComponent(b.busId)}` as never} asChild>
+              <Link key={b.busId} href={`/studies/${study.id}/bus/${encodeURIComponent(b.busId)}`} asChild>
                 <Pressable
                   accessibilityRole="link"
                   testID={`result-${b.busId}`}
@@ -258,7 +258,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
       ) : (
         <View style={{ gap: space.sm }}>
           {rows.map((b) => (
-            <Link key={b.busId} href={`/studies/${study.id}/bus/${encodeURIComponent(b.busId)}` as never} asChild>
+            <Link key={b.busId} href={`/studies/${study.id}/bus/${encodeURIComponent(b.busId)}`} asChild>
               <Pressable accessibilityRole="link" testID={`result-${b.busId}`}>
                 <Card style={{ gap: 6 }}>
                   <View

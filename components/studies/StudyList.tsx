@@ -39,7 +39,7 @@ export function StudyList({ studies }: { studies: StudyDto[] }) {
           ))}
         </View>
         {studies.map((s) => (
-          <Link key={s.id} href={`/studies/${s.id}` as never} asChild>
+          <Link key={s.id} href={`/studies/${s.id}`} asChild>
             <Pressable
               accessibilityRole="link"
               testID={`study-${s.revision}`}
@@ -71,7 +71,7 @@ export function StudyList({ studies }: { studies: StudyDto[] }) {
   return (
     <View style={{ gap: space.sm }}>
       {studies.map((s) => (
-        <Link key={s.id} href={`/studies/${s.id}` as never} asChild>
+        <Link key={s.id} href={`/studies/${s.id}`} asChild>
           <Pressable
             accessibilityRole="link"
             testID={`study-${s.revision}`}

@@ -1,3 +1,4 @@
+import type { AppHref } from '../nav';
 import { Link } from 'expo-router';
 import React from 'react';
 import { Pressable, View } from 'react-native';
@@ -18,7 +19,7 @@ export interface TableColumn {
 export interface TableRow {
   key: string;
   /** Where the row goes when pressed. */
-  href?: string;
+  href?: AppHref;
   testID?: string;
   cells: Record<string, React.ReactNode>;
 }
@@ -105,7 +106,7 @@ export function Table({
           );
         }
         return (
-          <Link key={r.key} href={r.href as never} asChild>
+          <Link key={r.key} href={r.href} asChild>
             <Pressable accessibilityRole="link" testID={r.testID} style={rowStyle}>
               {content}
             </Pressable>
