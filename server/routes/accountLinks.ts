@@ -10,6 +10,7 @@ import {
   passwordResetRequestSchema,
   tokenInfoSchema,
 } from '../../shared/schemas/invitations';
+import { AccountQuota } from '../auth/accountThrottle';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { acceptInvitation, confirmPasswordReset, linkInfo, requestPasswordReset } from '../services/invitations';
 import { changePassword } from '../services/users';
@@ -28,9 +29,13 @@ function limiter(perMinute: number, what: string): RequestHandler {
   });
 }
 
+/** Password-reset mails per account and hour. */
+export const RESET_MAILS_PER_HOUR = 3;
+
 /** One-time links (invitation, password reset) and password change. */
 export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
   const perMinute = opts.signInLimitPerMinute;
+  const resetMails = new AccountQuota(RESET_MAILS_PER_HOUR, 3600_000);
   return [
     defineRoute({
       method: 'post',
@@ -67,6 +72,8 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
       body: passwordResetRequestSchema,
       response: z.object({ ok: z.literal(true) }),
       handler: ({ ctx, body }) => {
+        // At most 3 reset mails an hour per address, whatever the client address; beyond, the same answer and no mail.
+        if (!resetMails.take(body.email, ctx.now().getTime())) return { ok: true as const };
         // In the background: the answer and its timing are the same whether or not the account exists.
         ctx.jobs.start(() => requestPasswordReset(ctx, body.email));
         return { ok: true as const };

@@ -1,6 +1,7 @@
 import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 import { meSchema, signInRequestSchema, signInResponseSchema } from '../../shared/schemas/auth';
+import { SignInThrottle } from '../auth/accountThrottle';
 import { dummyPasswordHash, verifyPassword } from '../auth/passwords';
 import { Organization, RevokedToken, User } from '../db/models';
 import { ApiError } from '../http/errors';
@@ -23,6 +24,9 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
         .json({ error: { code: 'rate_limited', message: 'Too many sign-in attempts; wait a minute and try again' } }),
   });
 
+  // Per account, on top of the per-address limit: a growing delay after repeated failures (server/auth/accountThrottle).
+  const throttle = new SignInThrottle();
+
   return [
     defineRoute({
       method: 'post',
@@ -33,14 +37,29 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
       before: [signInLimiter],
       body: signInRequestSchema,
       response: signInResponseSchema,
-      handler: async ({ ctx, body }) => {
+      handler: async ({ ctx, body, res }) => {
+        const nowMs = ctx.now().getTime();
+        const waitMs = throttle.waitMs(body.email, nowMs);
+        if (waitMs > 0) {
+          const seconds = Math.ceil(waitMs / 1000);
+          res.setHeader('Retry-After', String(seconds));
+          throw new ApiError(
+            'rate_limited',
+            `Too many failed sign-ins for this account; try again in ${seconds} s (or reset your password)`,
+          );
+        }
         const user = await User.findOne({ where: { email: body.email } });
         if (!user) {
           await verifyPassword(await dummyPasswordHash(), body.password);
+          throttle.failed(body.email, nowMs);
           throw new ApiError('unauthorized', BAD_CREDENTIALS);
         }
         const ok = await verifyPassword(user.passwordHash, body.password);
-        if (!ok || !user.active) throw new ApiError('unauthorized', BAD_CREDENTIALS);
+        if (!ok || !user.active) {
+          throttle.failed(body.email, nowMs);
+          throw new ApiError('unauthorized', BAD_CREDENTIALS);
+        }
+        throttle.succeeded(body.email);
         await recordAudit({
           organizationId: user.organizationId,
           actorId: user.id,

@@ -9,7 +9,7 @@ import request from 'supertest';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { CapturedMail, User } from '../../server/db/models';
-import { makeTestApp, TEST_SECRET, type TestApp } from '../helpers/testApp';
+import { makeTestApp, TEST_PASSWORD, TEST_SECRET, type TestApp } from '../helpers/testApp';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -189,5 +189,81 @@ describe("another organization's people are not revealed by invitations or new u
     expect(res.body.error.message).not.toMatch(/exist|organization B|another organization/i);
     expect(res.body.error.message).toMatch(/invite/i);
     expect(await User.count({ where: { email: t.orgB.users.admin.email } })).toBe(1);
+  });
+});
+
+describe('per-account sign-in backoff and reset-mail limit', () => {
+  // The limits are common practice, no source: 10 free failures, then 5 s doubling to at most 5 min; 3 reset mails/hour.
+  const signIn = (email: string, password: string) =>
+    request(t.app).post('/api/auth/sign-in').send({ email, password });
+  let now = Date.now();
+  const advance = (ms: number) => {
+    now += ms;
+    t.setNow(new Date(now));
+  };
+  afterEach(() => t.setNow(null));
+
+  it('10 failures in 15 min delay the next attempt (even the right password), then the delay passes and a success resets', async () => {
+    now = Date.now();
+    t.setNow(new Date(now));
+    const email = t.orgA.users.electrician.email;
+    for (let i = 0; i < 10; i++) expect((await signIn(email, `wrong-${i}-password`)).status).toBe(401);
+    const held = await signIn(email, TEST_PASSWORD);
+    expect(held.status).toBe(429);
+    expect(held.body.error.code).toBe('rate_limited');
+    expect(Number(held.headers['retry-after'])).toBe(5);
+    // Another account, from the same address, is not held.
+    expect((await signIn(t.orgA.users.safety.email, TEST_PASSWORD)).status).toBe(200);
+    advance(5_001);
+    expect((await signIn(email, TEST_PASSWORD)).status).toBe(200);
+    // Success forgot the failures: one wrong password is a plain 401 again, and the right one works at once.
+    expect((await signIn(email, 'wrong-again-password')).status).toBe(401);
+    expect((await signIn(email, TEST_PASSWORD)).status).toBe(200);
+  });
+
+  it('the delay grows with each failure but never exceeds 5 minutes; an unknown address is treated the same', async () => {
+    now = Date.now();
+    t.setNow(new Date(now));
+    for (const email of [t.orgA.users.engineer.email, 'nobody-at-all@org-a.example']) {
+      const waits: number[] = [];
+      for (let i = 0; i < 20; i++) {
+        let res = await signIn(email, `wrong-${i}-password`);
+        if (res.status === 429) {
+          waits.push(Number(res.headers['retry-after']));
+          advance(Number(res.headers['retry-after']) * 1000 + 1);
+          res = await signIn(email, `wrong-${i}-password`);
+        }
+        expect(res.status).toBe(401);
+      }
+      expect(waits.length).toBe(10);
+      expect(waits.slice(0, 4)).toEqual([5, 10, 20, 40]);
+      expect(Math.max(...waits)).toBe(300);
+      for (let i = 1; i < waits.length; i++) expect(waits[i]).toBeGreaterThanOrEqual(waits[i - 1]);
+      // 15 minutes of quiet forget the failures.
+      advance(15 * 60_000 + 1);
+      if (email === t.orgA.users.engineer.email) expect((await signIn(email, TEST_PASSWORD)).status).toBe(200);
+      else expect((await signIn(email, 'still-wrong-password')).status).toBe(401);
+    }
+  });
+
+  it('password-reset mails: 3 per account and hour, the answer always the same', async () => {
+    const email = t.orgB.users.electrician.email;
+    const countMails = async () =>
+      (await CapturedMail.findAll({ where: { kind: 'password-reset' } })).filter((r) =>
+        (JSON.parse(r.to) as string[]).includes(email),
+      ).length;
+    const before = await countMails();
+    for (let i = 0; i < 6; i++) {
+      const res = await request(t.app).post('/api/auth/password-reset').send({ email });
+      expect(res.status).toBe(200);
+      expect(res.body).toEqual({ ok: true });
+      await t.ctx.jobs.idle();
+    }
+    await t.ctx.jobs.idle();
+    expect((await countMails()) - before).toBe(3);
+    t.setNow(new Date(Date.now() + 3600_000 + 1000));
+    await request(t.app).post('/api/auth/password-reset').send({ email });
+    await t.ctx.jobs.idle();
+    expect((await countMails()) - before).toBe(4);
   });
 });
