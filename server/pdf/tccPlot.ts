@@ -52,9 +52,13 @@ export const CURVE_COLORS: RGB[] = [
 
 /** Decade limits that contain [lo, hi]. */
 export function decadeRange(lo: number, hi: number): [number, number] {
-  const a = Math.floor(Math.log10(lo) + 1e-9);
+  let a = Math.floor(Math.log10(lo) + 1e-9);
   let b = Math.ceil(Math.log10(hi) - 1e-9);
+  // Bounded grid whatever the data: at most 16 decades, never an infinite or NaN end.
+  if (!Number.isFinite(a)) a = Number.isFinite(b) ? b - 1 : 0;
+  if (!Number.isFinite(b)) b = a + 1;
   if (b <= a) b = a + 1;
+  if (b - a > 16) a = b - 16;
   return [10 ** a, 10 ** b];
 }
 

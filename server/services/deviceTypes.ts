@@ -11,6 +11,7 @@ import {
 import { DeviceType } from '../db/models';
 import { EngineError } from '../engine/errors';
 import { resolveElectronicSettings } from '../engine/trip';
+import { clampStoredCurves } from '../engine/trip/clampCurves';
 import {
   EXAMPLE_BAND,
   EXAMPLE_ELECTRONIC_TYPE,
@@ -32,7 +33,8 @@ export function resolveDefinition(definition: DeviceDefinition): Device {
 }
 
 function toDto(row: DeviceType): DeviceTypeDto {
-  const definition = deviceDefinitionSchema.parse(JSON.parse(row.definition));
+  // Rows saved before the curve limits existed are clamped into them (they would otherwise fail to read).
+  const definition = deviceDefinitionSchema.parse(clampStoredCurves(JSON.parse(row.definition)));
   return {
     id: row.id,
     name: row.name,

@@ -8,10 +8,36 @@ import { z } from 'zod';
  * The engine (server/engine/trip/) checks the same rules again, so it is safe to call without zod.
  */
 
+/**
+ * Realistic bounds of published time-current data (common practice, no source: published curves span roughly
+ * 0.01–1000 s and a few amperes to a few hundred kiloamperes). Values outside them are typing errors or abuse,
+ * and unbounded magnitudes would make plotting and sampling unbounded work.
+ */
+export const CURVE_LIMITS = {
+  /** Lowest current of a point, amperes or multiple of rating. */
+  minCurrent: 1e-3,
+  /** Highest current of a point given in amperes. */
+  maxCurrentA: 1e7,
+  /** Highest current of a point given as a multiple of rating. */
+  maxMultiple: 1e5,
+  minTimeS: 1e-3,
+  maxTimeS: 1e5,
+  /** Most points in one curve. */
+  maxPoints: 500,
+} as const;
+
 /** One published point of a time-current curve: `[current, seconds]` (amperes or multiples of rating). */
 export const curvePointSchema = z.tuple([
-  z.number().positive().describe('Current (amperes or multiple of rating)'),
-  z.number().positive().describe('Time in seconds'),
+  z
+    .number()
+    .min(CURVE_LIMITS.minCurrent, `Current must be at least ${CURVE_LIMITS.minCurrent}`)
+    .max(CURVE_LIMITS.maxCurrentA, `Current must be at most ${CURVE_LIMITS.maxCurrentA} A`)
+    .describe('Current (amperes or multiple of rating)'),
+  z
+    .number()
+    .min(CURVE_LIMITS.minTimeS, `Time must be at least ${CURVE_LIMITS.minTimeS} s`)
+    .max(CURVE_LIMITS.maxTimeS, `Time must be at most ${CURVE_LIMITS.maxTimeS} s`)
+    .describe('Time in seconds'),
 ]);
 export type CurvePoint = z.infer<typeof curvePointSchema>;
 
@@ -19,6 +45,7 @@ export type CurvePoint = z.infer<typeof curvePointSchema>;
 export const curvePointsSchema = z
   .array(curvePointSchema)
   .min(1, 'Give at least one point')
+  .max(CURVE_LIMITS.maxPoints, `Give at most ${CURVE_LIMITS.maxPoints} points`)
   .superRefine((points, ctx) => {
     for (let i = 1; i < points.length; i += 1) {
       const [prevCurrent, prevTime] = points[i - 1];
@@ -41,6 +68,19 @@ export const curvePointsSchema = z
   })
   .describe('Points [current, seconds], current strictly increasing, time not increasing');
 export type CurvePoints = z.infer<typeof curvePointsSchema>;
+
+/** Issues for points whose current, as a multiple of rating, exceeds CURVE_LIMITS.maxMultiple. */
+function checkMultiples(points: readonly CurvePoint[], path: (string | number)[], ctx: z.RefinementCtx): void {
+  points.forEach(([current], i) => {
+    if (current > CURVE_LIMITS.maxMultiple) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [...path, i, 0],
+        message: `Current ${current} × rating exceeds ${CURVE_LIMITS.maxMultiple} × rating`,
+      });
+    }
+  });
+}
 
 const positive = z.number().positive();
 const nonNegative = z.number().nonnegative();
@@ -147,6 +187,11 @@ export const bandDeviceSchema = z
     min: curvePointsSchema.describe('Minimum curve [current, seconds]'),
     max: curvePointsSchema.describe('Maximum (total clearing) curve [current, seconds]'),
   })
+  .superRefine((d, ctx) => {
+    if (d.currentUnit !== 'multiple') return;
+    checkMultiples(d.min, ['min'], ctx);
+    checkMultiples(d.max, ['max'], ctx);
+  })
   .meta({ id: 'BandDevice' });
 export type BandDevice = z.infer<typeof bandDeviceSchema>;
 
@@ -160,6 +205,10 @@ export const thermalMagneticDeviceSchema = z
       .object({
         min: curvePointsSchema.describe('Thermal minimum curve [multiple of rating, seconds]'),
         max: curvePointsSchema.describe('Thermal maximum curve [multiple of rating, seconds]'),
+      })
+      .superRefine((t, ctx) => {
+        checkMultiples(t.min, ['min'], ctx);
+        checkMultiples(t.max, ['max'], ctx);
       })
       .describe('Thermal (overload) band in multiples of rating'),
     instantaneous: z

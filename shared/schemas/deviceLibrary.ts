@@ -73,11 +73,30 @@ export type DeviceType = z.infer<typeof deviceTypeSchema>;
 
 export const deviceTypeListSchema = z.object({ deviceTypes: z.array(deviceTypeSchema) });
 
+/** Bounds of a time-current plot's current axis: sampling work grows with the decades it spans. */
+export const PLOT_LIMITS = { minA: 1e-3, maxA: 1e9, maxDecades: 10 } as const;
+const plotCurrentA = z
+  .number()
+  .min(PLOT_LIMITS.minA, `Must be at least ${PLOT_LIMITS.minA} A`)
+  .max(PLOT_LIMITS.maxA, `Must be at most ${PLOT_LIMITS.maxA} A`);
+
 export const bandCurvesRequestSchema = z
   .object({
     device: deviceSchema,
-    fromA: z.number().positive().optional(),
-    toA: z.number().positive().optional(),
+    fromA: plotCurrentA.optional().describe('Lowest current of the plot, amperes'),
+    toA: plotCurrentA.optional().describe('Highest current of the plot, amperes'),
+  })
+  .superRefine((d, ctx) => {
+    if (d.fromA === undefined || d.toA === undefined) return;
+    if (!(d.toA > d.fromA)) {
+      ctx.addIssue({ code: 'custom', path: ['toA'], message: 'toA must be greater than fromA' });
+    } else if (d.toA / d.fromA > 10 ** PLOT_LIMITS.maxDecades) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['toA'],
+        message: `The plot may span at most ${PLOT_LIMITS.maxDecades} decades of current (toA / fromA ≤ 1e${PLOT_LIMITS.maxDecades})`,
+      });
+    }
   })
   .meta({ id: 'BandCurvesRequest' });
 

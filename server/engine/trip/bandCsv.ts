@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import type { CurrentUnit } from '../../../shared/schemas/device';
+import { CURVE_LIMITS, type CurrentUnit } from '../../../shared/schemas/device';
 import type { TimeCurrentPoint } from './interpolate';
 
 /** A problem in an uploaded band CSV, by 1-based line number of the file. */
@@ -24,6 +24,19 @@ const UNIT_HEADERS: Record<string, CurrentUnit> = {
 };
 const MIN_HEADERS = new Set(['min_s', 'min', 'minimum_s', 'minimum']);
 const MAX_HEADERS = new Set(['max_s', 'max', 'maximum_s', 'maximum']);
+
+/** Why a cell's value lies outside CURVE_LIMITS (column 0 current, 1–2 seconds), or null when it is inside. */
+function outOfLimits(column: number, v: number, unit: CurrentUnit): string | null {
+  if (column === 0) {
+    const max = unit === 'multiple' ? CURVE_LIMITS.maxMultiple : CURVE_LIMITS.maxCurrentA;
+    if (v < CURVE_LIMITS.minCurrent) return `is below ${CURVE_LIMITS.minCurrent}`;
+    if (v > max) return `is above ${max}${unit === 'multiple' ? ' × rating' : ' A'}`;
+    return null;
+  }
+  if (v < CURVE_LIMITS.minTimeS) return `is below ${CURVE_LIMITS.minTimeS} s`;
+  if (v > CURVE_LIMITS.maxTimeS) return `is above ${CURVE_LIMITS.maxTimeS} s`;
+  return null;
+}
 
 function parseNumber(cell: string): number | null {
   const trimmed = cell.trim();
@@ -101,6 +114,10 @@ export function parseBandCsv(text: string, options: { currentUnit?: CurrentUnit 
         errors.push({ line, message: `${names[i]} ${cell} must be positive (log-log axes)` });
         rowOk = false;
         values.push(null);
+      } else if (outOfLimits(i, v, currentUnit)) {
+        errors.push({ line, message: `${names[i]} ${cell} ${outOfLimits(i, v, currentUnit)}` });
+        rowOk = false;
+        values.push(null);
       } else {
         values.push(v);
       }
@@ -155,6 +172,17 @@ export function parseBandCsv(text: string, options: { currentUnit?: CurrentUnit 
   });
 
   const lastLine = Math.max(1, rows.length);
+  for (const [name, list, lines] of [
+    ['min_s', min, minLines],
+    ['max_s', max, maxLines],
+  ] as const) {
+    if (list.length > CURVE_LIMITS.maxPoints) {
+      errors.push({
+        line: lines[CURVE_LIMITS.maxPoints],
+        message: `More than ${CURVE_LIMITS.maxPoints} ${name} points: a curve may have at most ${CURVE_LIMITS.maxPoints}`,
+      });
+    }
+  }
   if (errors.length === 0) {
     if (min.length === 0) errors.push({ line: lastLine, message: 'No minimum-curve points (min_s)' });
     if (max.length === 0) errors.push({ line: lastLine, message: 'No maximum-curve points (max_s)' });

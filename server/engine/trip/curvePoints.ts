@@ -5,6 +5,12 @@ import { electronicSettings } from './electronic';
 import { relaySettings } from './relay';
 import { thermalMagneticSettings } from './thermalMagnetic';
 
+/** Most decades of current one plot may span (sampling is at most MAX_PLOT_DECADES × pointsPerDecade points). */
+export const MAX_PLOT_DECADES = 12;
+/** Bounds of the default plot range, amperes. */
+const PLOT_MIN_A = 1e-3;
+const PLOT_MAX_A = 1e9;
+
 export interface BandCurvesOptions {
   /** Lowest current of the plot, amperes (default: a little below the lowest pickup or published point). */
   fromA?: number;
@@ -77,18 +83,33 @@ export function bandFeatureCurrentsA(device: Device): number[] {
  * steps of instantaneous and pickup edges are drawn vertical. Currents where a curve shows no trip are left out.
  */
 export function bandCurves(device: Device, options: BandCurvesOptions = {}): BandCurves {
-  const featuresA = bandFeatureCurrentsA(device);
+  // Features outside the plot bounds (stored rows from before the curve limits) are left off: they would only
+  // stretch the default range.
+  const featuresA = bandFeatureCurrentsA(device).filter((f) => f >= PLOT_MIN_A && f <= PLOT_MAX_A);
   const lowestA = featuresA[0] ?? 1;
   const highestA = featuresA[featuresA.length - 1] ?? 10;
-  const fromA = options.fromA ?? lowestA * 0.8;
-  const toA = options.toA ?? Math.max(highestA * 2, fromA * 50);
+  const fromA = options.fromA ?? Math.max(PLOT_MIN_A, lowestA * 0.8);
+  const defaultToA = Math.min(Math.max(highestA * 2, fromA * 50), PLOT_MAX_A, fromA * 10 ** MAX_PLOT_DECADES);
+  const toA = options.toA ?? defaultToA;
   const perDecade = options.pointsPerDecade ?? 40;
-  if (!(fromA > 0) || !(toA > fromA) || !Number.isFinite(toA)) {
+  if (!(fromA > 0) || !Number.isFinite(fromA)) {
+    throw new EngineError('invalid-input', 'BAD_RANGE', `fromA must be a positive number (got ${fromA})`, 'fromA');
+  }
+  if (!(toA > fromA) || !Number.isFinite(toA)) {
     throw new EngineError(
       'invalid-input',
       'BAD_RANGE',
       `Plot range must satisfy 0 < fromA < toA (got ${fromA}, ${toA})`,
-      'fromA',
+      'toA',
+    );
+  }
+  // Bounded work whatever the input: the number of samples grows with the decades spanned.
+  if (Math.log10(toA) - Math.log10(fromA) > MAX_PLOT_DECADES) {
+    throw new EngineError(
+      'invalid-input',
+      'RANGE_TOO_WIDE',
+      `The plot may span at most ${MAX_PLOT_DECADES} decades of current (got ${fromA} A to ${toA} A)`,
+      'toA',
     );
   }
   if (!(perDecade >= 1 && perDecade <= 1000)) {
@@ -99,7 +120,7 @@ export function bandCurves(device: Device, options: BandCurvesOptions = {}): Ban
       'pointsPerDecade',
     );
   }
-  const decades = Math.log10(toA / fromA);
+  const decades = Math.log10(toA) - Math.log10(fromA);
   const n = Math.max(2, Math.ceil(decades * perDecade) + 1);
   const currents = new Set<number>();
   for (let i = 0; i < n; i += 1) currents.add(fromA * Math.pow(toA / fromA, i / (n - 1)));
