@@ -291,22 +291,42 @@ function useSectionContext(model: ModelInput, section: Section, deviceTypes: Dev
     return { options, byId: new Map(deviceTypes.map((t) => [t.id, t])) };
   }, [deviceTypes]);
 
+  // Buses with a main: a device at the load-side ('to') end of a branch that ends at the bus.
+  const mainSig =
+    section === 'buses'
+      ? (model.devices ?? [])
+          .filter((d) => d.branch && d.end === 'to')
+          .map((d) => `${d.id}\u0001${d.branch}`)
+          .join('\u0002') + JSON.stringify(branches.map((b) => [b[1], b[3]]))
+      : '';
+  const busMains = useMemo(() => {
+    const out = new Map<string, string[]>();
+    if (!mainSig) return out;
+    const toBus = new Map(branches.map((b) => [b[1], b[3]]));
+    for (const d of model.devices ?? []) {
+      const at = d.branch && d.end === 'to' ? toBus.get(d.branch) : undefined;
+      if (at) out.set(at, [...(out.get(at) ?? []), d.id]);
+    }
+    return out;
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- rebuilt when branch-end devices or branch ends change
+  }, [mainSig]);
+
   const usesBuses = section !== 'general' && section !== 'buses' && section !== 'devices';
   const isDevices = section === 'devices';
+  // Each part only where its section uses it, so the other sections' rows do not re-render.
+  const busPart = usesBuses ? bus : null;
+  const locationPart = isDevices ? location : null;
+  const typesPart = isDevices ? types : null;
+  const mainsPart = section === 'buses' ? busMains : null;
   return useMemo<EditorContext>(
     () => ({
       ...EMPTY_CONTEXT,
-      ...(usesBuses ? { busOptions: bus.options, busKv: bus.kv } : {}),
-      ...(isDevices
-        ? {
-            locationOptions: location.options,
-            branchBuses: location.ends,
-            typeOptions: types.options,
-            typesById: types.byId,
-          }
-        : {}),
+      ...(busPart ? { busOptions: busPart.options, busKv: busPart.kv } : {}),
+      ...(mainsPart ? { busMains: mainsPart } : {}),
+      ...(locationPart ? { locationOptions: locationPart.options, branchBuses: locationPart.ends } : {}),
+      ...(typesPart ? { typeOptions: typesPart.options, typesById: typesPart.byId } : {}),
     }),
-    [usesBuses ? bus : null, isDevices ? location : null, isDevices ? types : null, usesBuses, isDevices], // eslint-disable-line react-hooks/exhaustive-deps
+    [busPart, locationPart, typesPart, mainsPart],
   );
 }
 
@@ -878,7 +898,7 @@ const TableRow = memo(function TableRow({
   const rowBg = focused ? colors.accentSoft : bad ? '#FFF8F8' : colors.surface;
   const cell = (c: Column<AnyElement>, ci: number) => (
     <View key={c.key} style={{ width: c.width, paddingHorizontal: CELL_PAD }}>
-      {!c.applies || c.applies(element) ? (
+      {!c.applies || c.applies(element, ctx) ? (
         c.render({
           e: element,
           size: 'cell',
@@ -1116,7 +1136,7 @@ const CardRow = memo(function CardRow({
             }}
           >
             {columns.map((c, ci) => {
-              if (c.applies && !c.applies(element)) return null;
+              if (c.applies && !c.applies(element, ctx)) return null;
               const problems = byColumn.get(ci);
               return (
                 <FormField

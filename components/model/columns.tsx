@@ -16,7 +16,7 @@ import type { Device } from '../../shared/schemas/device';
 import { CONDUCTOR_SIZES, normalizeConductorSize } from '../../shared/schemas/model';
 import { colors, fonts, space } from '../theme';
 import { T } from '../ui';
-import { CheckCell, NumCell, PickCell, SegCell, TextCell, type PickOption, type Size } from './controls';
+import { NumCell, PickCell, SegCell, TextCell, type PickOption, type Size } from './controls';
 import { withField } from './edit';
 import {
   CONDUIT_LABELS,
@@ -48,6 +48,8 @@ export interface EditorContext {
   branchBuses: ReadonlyMap<string, { from: string; to: string }>;
   typeOptions: readonly PickOption[];
   typesById: ReadonlyMap<string, DeviceType>;
+  /** Buses section: the devices at the load-side end of a branch ending at each bus (its main devices). */
+  busMains: ReadonlyMap<string, readonly string[]>;
 }
 
 export const EMPTY_CONTEXT: EditorContext = {
@@ -57,6 +59,7 @@ export const EMPTY_CONTEXT: EditorContext = {
   branchBuses: new Map(),
   typeOptions: [],
   typesById: new Map(),
+  busMains: new Map(),
 };
 
 export interface CellProps<E> {
@@ -84,7 +87,7 @@ export interface Column<E> {
   basis?: number;
   issueKeys: readonly string[];
   /** False where the field does not apply to this element (hidden on a card, a dash in the table). */
-  applies?: (e: E) => boolean;
+  applies?: (e: E, ctx: EditorContext) => boolean;
   hint?: (e: E, ctx: EditorContext) => string | undefined;
   render: (p: CellProps<E>) => React.ReactNode;
 }
@@ -256,6 +259,15 @@ const ELECTRODE_OPTIONS: PickOption[] = ELECTRODE_CONFIGS.map((c) => ({
 }));
 
 const equipmentOf = (b: BusInput) => b.equipment;
+
+type MainIsolation = 'isolated' | 'not-isolated' | 'unstated';
+const MAIN_ISOLATION_OPTIONS: readonly { value: MainIsolation; label: string }[] = [
+  { value: 'isolated', label: 'Isolated' },
+  { value: 'not-isolated', label: 'Not isolated' },
+  { value: 'unstated', label: 'Not stated' },
+];
+const mainIsolationOf = (b: BusInput): MainIsolation =>
+  b.equipment?.mainIsolated === true ? 'isolated' : b.equipment?.mainIsolated === false ? 'not-isolated' : 'unstated';
 const classOf = (b: BusInput) => (b.equipment ? findEquipmentClass(b.equipment.class) : undefined);
 
 function patchEquipment<K extends keyof EquipmentInput>(
@@ -438,21 +450,35 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
   {
     key: 'mainIsolated',
     label: 'Main device',
-    formLabel: 'Line side of the main',
-    width: 124,
-    basis: 200,
+    formLabel: 'Main device isolated from the bus?',
+    width: 250,
+    basis: 320,
     issueKeys: ['equipment.mainIsolated'],
-    applies: (b) => !!equipmentOf(b),
-    hint: (b) =>
-      b.equipment?.mainIsolated === false ? 'Line-side arcs are cleared by the next device upstream' : undefined,
-    render: ({ e, size, editable, patch, testID }) => (
-      <CheckCell
-        value={e.equipment?.mainIsolated !== false}
-        onChange={(v) => patch((b) => patchEquipment(b, 'mainIsolated', v))}
-        label={size === 'cell' ? 'Isolated' : 'Main device isolated from the bus'}
+    // Shown where a main sits at the bus (or a value was stated before); elsewhere there is no line side to evaluate.
+    applies: (b, ctx) =>
+      !!equipmentOf(b) && ((ctx.busMains.get(b.id)?.length ?? 0) > 0 || b.equipment?.mainIsolated !== undefined),
+    hint: (b, ctx) => {
+      const mains = ctx.busMains.get(b.id)?.join(', ');
+      const v = b.equipment?.mainIsolated;
+      if (v === true)
+        return `Isolated: an arc at the bus is cleared by the main${mains ? ` (${mains})` : ''}; no line-side case`;
+      if (v === false)
+        return 'Not isolated: an arc on the line side of the main is cleared by the next device upstream; both sides are evaluated';
+      return 'Not stated: treated as not isolated — the line side is evaluated (the higher hazard) and the result says so';
+    },
+    render: ({ e, size, editable, patch, testID, label }) => (
+      <SegCell<MainIsolation>
+        value={mainIsolationOf(e)}
+        options={MAIN_ISOLATION_OPTIONS}
+        onChange={(v) =>
+          patch((b) =>
+            patchEquipment(b, 'mainIsolated', v === 'isolated' ? true : v === 'not-isolated' ? false : undefined),
+          )
+        }
         size={size}
         editable={editable}
         testID={testID}
+        accessibilityLabel={`${label}: main device isolated from the bus`}
       />
     ),
   },

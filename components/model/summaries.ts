@@ -100,6 +100,7 @@ export function busSummary(b: BusInput): string {
     ).length;
     if (overrides) parts.push(`${overrides} override${overrides === 1 ? '' : 's'}`);
     if (eq.mainIsolated === false) parts.push('main not isolated');
+    else if (eq.mainIsolated === true) parts.push('main isolated');
   }
   return parts.join(' · ');
 }

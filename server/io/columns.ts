@@ -111,7 +111,9 @@ export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
     col('equipment.enclosureMm.height', 'number', { note: 'Enclosure height, mm' }),
     col('equipment.enclosureMm.width', 'number', { note: 'Enclosure width, mm' }),
     col('equipment.enclosureMm.depth', 'number', { note: 'Enclosure depth, mm' }),
-    col('equipment.mainIsolated', 'boolean', { note: 'FALSE: the main device shares the enclosure without isolation' }),
+    col('equipment.mainIsolated', 'boolean', {
+      note: 'TRUE: main isolated from the bus; FALSE: shares the enclosure; empty: not stated, treated as FALSE',
+    }),
   ],
   sources: [
     id,

@@ -346,7 +346,7 @@ function methodItems(results: StudyResults, model: Model): string[] {
     'Several sources: the energy is accumulated interval by interval; each interval ends when a device opens and cuts off a source, and the arcing current of the next interval is that of the sources still connected (time-stepped energy).',
     `Motor contribution: induction motors feed the arc until their contribution has decayed, taken as ${formatSeconds(results.motorDecayS)} (common practice, no source).`,
     `Arc duration cap: ${formatSig(capS, 3)} s (${results.maxArcDurationMs} ms), after IEEE 1584 guidance that a worker can move away from the arc within 2 s; not valid where the worker cannot move away. Cases cut off at the cap are marked.`,
-    'Line side of the main: where a bus’s main device shares the enclosure without isolation, an arc on its line side is cleared by the next device upstream; both sides are evaluated and the worse governs the label.',
+    'Line side of the main: where a bus’s main device shares the enclosure without isolation, an arc on its line side is cleared by the next device upstream; both sides are evaluated and the worse governs the label. Where the isolation of the main is not stated it is taken as not isolated (the conservative choice) and listed among the defaulted values.',
     'Arc-flash boundary: the distance at which the incident energy falls to 5.0 J/cm² (1.2 cal/cm²).',
   ];
   if (firstLv) {

@@ -104,7 +104,9 @@ export const equipmentSchema = z
     mainIsolated: z
       .boolean()
       .optional()
-      .describe('false: the main device shares the enclosure without isolation (line-side arc cleared upstream)'),
+      .describe(
+        'true: the main device is isolated from the bus; false: it shares the enclosure (a line-side arc is cleared by the next device upstream). Omitted: treated as false (the conservative choice) and reported as defaulted',
+      ),
   })
   .meta({ id: 'Equipment' });
 export type Equipment = z.infer<typeof equipmentSchema>;

@@ -8,6 +8,10 @@ export interface ResolvedEquipment {
   gapMm: number;
   workingDistanceMm: number;
   enclosureMm: EnclosureSizeMm | null;
+  /**
+   * Whether the main device is isolated from the bus (an arc on its line side cannot occur in the same compartment).
+   * Omitted on the bus: false, the conservative choice (the line side of the main is evaluated).
+   */
   mainIsolated: boolean;
   /** Fields taken from the class's typical values (IEEE 1584-2018 typical gaps, enclosures, working distances). */
   typicalValuesUsed: string[];
@@ -47,7 +51,9 @@ export function resolveEquipment(bus: Bus): ResolvedEquipment {
     enclosureMm: openAir
       ? null
       : (eq.enclosureMm ?? (cls.enclosureMm ? (typical.push('enclosureMm'), cls.enclosureMm) : null)),
-    mainIsolated: eq.mainIsolated ?? true,
+    // Not stated: treated as NOT isolated (the line side is evaluated wherever a main device sits) — the higher
+    // hazard; listed among the defaulted values so the result says so.
+    mainIsolated: eq.mainIsolated ?? (typical.push('mainIsolated'), false),
     typicalValuesUsed: typical,
   };
 }

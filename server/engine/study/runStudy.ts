@@ -436,16 +436,26 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
       const cases: ArcCaseTrace[] = [];
       for (const arcCase of ['full', 'reduced'] as const)
         cases.push(evaluateCase({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings));
+      const mainStated = bus.equipment?.mainIsolated !== undefined;
       if (!equipment.mainIsolated) {
         const mains = mainDevices(picture);
         if (mains.size) {
           for (const arcCase of ['full', 'reduced'] as const)
             cases.push(evaluateCase({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings));
-        } else {
+          if (!mainStated) {
+            warnings.push({
+              code: 'MAIN_ISOLATION_NOT_STATED',
+              message: `Whether the main (${[...mains].join(', ')}) is isolated from ${bus.id} is not stated: it is treated as not isolated and the line side is evaluated (the higher hazard). State it on the bus.`,
+            });
+          }
+        } else if (mainStated) {
           warnings.push({
             code: 'NO_MAIN_DEVICE',
             message: `The main is marked not isolated, but no device sits at ${bus.id}'s end of a feeding branch; the line side equals the load side.`,
           });
+        } else {
+          // No main at this bus: the unstated isolation changes nothing, so it is not listed as a defaulted value.
+          equipment.typicalValuesUsed = equipment.typicalValuesUsed.filter((f) => f !== 'mainIsolated');
         }
       }
       const governing = cases.reduce((g, c) => (c.incidentEnergyJPerCm2 > g.incidentEnergyJPerCm2 ? c : g));
