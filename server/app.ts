@@ -8,6 +8,7 @@ import type { AppContext } from './http/context';
 import { jsonDepthGuard } from './http/bodyParsing';
 import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';
+import { httpLogger, log, type Logger } from './log';
 import { createMailer, type Mailer } from './mail';
 import { mountRoutes, type AnyRoute } from './http/route';
 import { securityHeaders } from './http/securityHeaders';
@@ -27,6 +28,8 @@ export interface CreateAppOptions {
   storage?: FileStore;
   /** Defaults to the mailer the config asks for (SMTP_URL, or the local sink, started on first use). */
   mail?: Mailer;
+  /** Defaults to the process logger (server/log.ts). */
+  logger?: Logger;
 }
 
 /** Builds the Express app (no listening): /api plus the exported web build on the same origin. */
@@ -46,18 +49,9 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  // First: every request gets its id (X-Request-Id) and `req.log` before anything can fail.
+  app.use(httpLogger(opts.logger ?? log, opts.config.logRequests));
   app.use(securityHeaders(opts.config.publicBaseUrl));
-  if (opts.config.logRequests) {
-    app.use((req, res, next) => {
-      const start = process.hrtime.bigint();
-      res.on('finish', () =>
-        console.log(
-          `${req.method} ${req.originalUrl} ${res.statusCode} ${Number(process.hrtime.bigint() - start) / 1e6}ms`,
-        ),
-      );
-      next();
-    });
-  }
 
   const api = express.Router();
   api.use(express.json({ limit: opts.config.jsonLimit, verify: jsonDepthGuard() }));

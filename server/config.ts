@@ -16,7 +16,10 @@ const envSchema = z.object({
   WEB_DIR: z.string().default(path.resolve(process.cwd(), 'dist/web')),
   PUBLIC_BASE_URL: z.string().url().optional(),
   DEMO_PASSWORD: z.string().min(10).default('ember-demo-2026'),
-  LOG_REQUESTS: z.enum(['0', '1']).default('0'),
+  LOG_REQUESTS: z.enum(['0', '1']).optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+  SEED_DEMO: z.enum(['0', '1']).optional(),
+  SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(100).max(600_000).default(20_000),
   SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(20),
   SMTP_URL: z.preprocess(
     (v) => (v === '' ? undefined : v),
@@ -44,7 +47,12 @@ export interface Config {
   webDir: string;
   publicBaseUrl: string;
   demoPassword: string;
+  /** One log line per request (default: on in production). */
   logRequests: boolean;
+  /** SEED_DEMO: '1' seeds the demo into an empty database even in production, '0' never; unset: outside production. */
+  seedDemo: '0' | '1' | null;
+  /** How long a stopping server waits for requests and jobs before it gives up (and exits non-zero). */
+  shutdownTimeoutMs: number;
   /** Sign-in, password-reset and link attempts per minute and client address. */
   signInLimitPerMinute: number;
   /** Outgoing mail server (smtp:// or smtps://); null: the local mail sink (development and tests only). */
@@ -98,7 +106,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     webDir: e.WEB_DIR,
     publicBaseUrl,
     demoPassword: e.DEMO_PASSWORD,
-    logRequests: e.LOG_REQUESTS === '1',
+    logRequests: e.LOG_REQUESTS ? e.LOG_REQUESTS === '1' : e.NODE_ENV === 'production',
+    seedDemo: e.SEED_DEMO ?? null,
+    shutdownTimeoutMs: e.SHUTDOWN_TIMEOUT_MS,
     signInLimitPerMinute: e.SIGN_IN_LIMIT_PER_MINUTE,
     smtpUrl: e.SMTP_URL ?? null,
     mailFrom: e.MAIL_FROM ?? `Emberline <no-reply@${new URL(overrides.publicBaseUrl ?? publicBaseUrl).hostname}>`,

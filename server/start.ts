@@ -3,12 +3,18 @@ import { createApp } from './app';
 import { buildWeb, webBuildIsStale } from './cli/webBuild';
 import { ConfigError, loadConfig } from './config';
 import { migrate, openDb } from './db';
+import { User } from './db/models';
+import { log } from './log';
+import { shouldSeedDemo } from './seed/decision';
 import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
+import { failInterruptedJobs, failOwnJobs } from './services/jobs';
 import { startReminderScheduler } from './services/reminders';
-import { failInterruptedRuns } from './services/runs';
 import { openFileStore, storageConfigFromEnv } from './storage';
 
-/** `npm start`: migrate, seed the demo when the database is empty, build the web app when stale, serve. */
+/**
+ * `npm start`: migrate, fail the jobs a stopped server left behind, seed the demo into an empty database (outside
+ * production, or with SEED_DEMO=1), build the web app when stale, serve; stop gracefully on SIGTERM/SIGINT.
+ */
 async function main(): Promise<void> {
   let config;
   try {
@@ -22,16 +28,20 @@ async function main(): Promise<void> {
   }
   const db = await openDb(config.databaseUrl);
   const applied = await migrate(db);
-  if (applied.length) console.log(`Migrations applied: ${applied.join(', ')}`);
-  const interrupted = await failInterruptedRuns(new Date());
-  if (interrupted) console.log(`${interrupted} interrupted study run(s) marked failed.`);
+  if (applied.length) log.info({ migrations: applied }, `Migrations applied: ${applied.join(', ')}`);
+  const interrupted = await failInterruptedJobs(new Date());
+  if (interrupted.runs) log.warn(`${interrupted.runs} interrupted study run(s) marked failed.`);
+  if (interrupted.batches) log.warn(`${interrupted.batches} interrupted label print batch(es) marked failed.`);
   const files = await openFileStore(storageConfigFromEnv(process.env, config.dataDir));
   const { app, ctx } = createApp({ config, db, storage: files.store });
-  console.log(await ctx.mail.start());
-  if (await isEmpty()) {
+  log.info(await ctx.mail.start());
+  const empty = await isEmpty();
+  if (shouldSeedDemo(config, empty)) {
     await seedDemo(ctx, config.demoPassword);
-    console.log('Seeded the invented demo organization, its site and an approved study.');
+    log.info('Seeded the invented demo organization, its site and an approved study.');
   }
+  const demoPresent = (await User.count({ where: { email: DEMO_USERS.map((u) => u.email) } })) > 0;
+  const noUsers = (await User.count()) === 0;
   if (process.env.SKIP_WEB_BUILD !== '1' && webBuildIsStale(process.cwd(), config.webDir))
     buildWeb(process.cwd(), config.webDir);
   // The daily reminders: checked every 5 minutes; each rule goes out once a day after the organization's hour.
@@ -39,25 +49,68 @@ async function main(): Promise<void> {
   const server = createServer(app);
   server.listen(config.port, config.host, () => {
     console.log(`\nEmberline is serving http://localhost:${config.port}`);
-    console.log(`Demo accounts (password: ${config.demoPassword}):`);
-    for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(12)} ${u.email}`);
+    if (demoPresent) {
+      console.log(`Demo accounts (password: ${config.demoPassword}):`);
+      for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(12)} ${u.email}`);
+    } else if (noUsers) {
+      console.log('No accounts yet. Create the organization and its first admin:');
+      console.log('  npm run create-admin -- --org "Organization name" --email admin@example.net --name "Full Name"');
+    }
   });
-  const stop = (): void => {
-    server.close(
-      () =>
-        void reminders
-          .stop()
-          .then(() => ctx.mail.close())
-          .then(() => Promise.all([db.close(), files.close()]))
-          .then(() => process.exit(0)),
-    );
-    setTimeout(() => process.exit(0), 3000).unref();
+
+  /**
+   * Graceful stop: no new connections; running jobs are asked to stop (a study run fails at its next step, a print
+   * batch not yet started fails) and waited for; requests in flight finish; idle keep-alive sockets are closed. Exit 0
+   * when everything drained within SHUTDOWN_TIMEOUT_MS; else the unfinished jobs are marked failed, the remaining
+   * sockets cut, and the exit code is 1. A second signal exits at once.
+   */
+  let stopping = false;
+  const stop = (signal: NodeJS.Signals): void => {
+    if (stopping) {
+      log.warn(`${signal} again: exiting without waiting`);
+      process.exit(1);
+    }
+    stopping = true;
+    const started = Date.now();
+    const deadline = started + config.shutdownTimeoutMs;
+    log.info({ signal, timeoutMs: config.shutdownTimeoutMs }, `${signal}: stopping`);
+    const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+    server.closeIdleConnections();
+    // Sockets of finished requests become idle while the others drain: close them as they do.
+    const sweep = setInterval(() => server.closeIdleConnections(), 100);
+    const remaining = () => Math.max(0, deadline - Date.now());
+    // Whatever hangs while closing (a database, the mailer), the process does not outlive its deadline by much.
+    setTimeout(() => process.exit(1), config.shutdownTimeoutMs + 5_000).unref();
+    void (async () => {
+      let drained = true;
+      const timedOut = new Promise<false>((resolve) => setTimeout(() => resolve(false), remaining()).unref());
+      drained = (await Promise.race([closed.then(() => true as const), timedOut])) && drained;
+      drained = (await ctx.jobs.drain(remaining())) && drained;
+      drained = (await Promise.race([reminders.stop().then(() => true as const), timedOut])) && drained;
+      clearInterval(sweep);
+      if (!drained) {
+        const failed = await failOwnJobs(ctx.jobs, new Date()).catch((err: unknown) => {
+          log.error({ err }, 'could not mark the unfinished jobs failed');
+          return 0;
+        });
+        log.error(
+          { failedJobs: failed, openJobs: ctx.jobs.size },
+          `Shutdown timed out after ${config.shutdownTimeoutMs} ms; ${failed} unfinished job(s) marked failed`,
+        );
+      }
+      server.closeAllConnections();
+      await ctx.mail.close().catch((err: unknown) => log.error({ err }, 'closing the mailer failed'));
+      await Promise.all([db.close(), files.close()]).catch((err: unknown) => log.error({ err }, 'closing failed'));
+      log.info(`Stopped in ${Date.now() - started} ms${drained ? '' : ' (timed out)'}`);
+      process.exit(drained ? 0 : 1);
+    })();
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
 }
 
 void main().catch((e: unknown) => {
+  log.fatal({ err: e }, 'the server could not start');
   console.error(e);
   process.exit(1);
 });

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { fieldPath } from '../../shared/fieldPath';
 import type { ErrorCode } from '../../shared/schemas/common';
 import { EngineError } from '../engine/errors';
+import { log } from '../log';
 import { bodyParserError } from './bodyParsing';
 
 const STATUS: Record<ErrorCode, number> = {
@@ -85,7 +86,7 @@ export function fromEngineError(e: EngineError): ApiError {
   return new ApiError(code, e.message, e.field ? { [e.field]: e.message } : undefined);
 }
 
-export const errorMiddleware: ErrorRequestHandler = (err, _req, res, _next) => {
+export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
   let apiError: ApiError;
   if (err instanceof ApiError) apiError = err;
   else if (err instanceof EngineError) apiError = fromEngineError(err);
@@ -106,12 +107,17 @@ export const errorMiddleware: ErrorRequestHandler = (err, _req, res, _next) => {
   } else if (err && typeof err === 'object' && (err as { name?: string }).name === 'SequelizeUniqueConstraintError') {
     apiError = new ApiError('conflict', 'That record already exists');
   } else {
-    console.error(err);
     apiError = new ApiError('internal', 'Something went wrong on the server; nothing was changed');
   }
-  const body: { error: { code: ErrorCode; message: string; fields?: Record<string, string> } } = {
+  const body: { error: { code: ErrorCode; message: string; fields?: Record<string, string>; requestId?: string } } = {
     error: { code: apiError.code, message: apiError.message },
   };
   if (apiError.fields) body.error.fields = apiError.fields;
+  if (apiError.status >= 500) {
+    // Every 5xx: the error and its stack go to the log under the request id; the client gets the id, never the stack.
+    const requestId = req.id === undefined ? undefined : String(req.id);
+    (req.log ?? log).error({ err, reqId: requestId }, `${req.method} ${req.originalUrl} failed`);
+    if (requestId) body.error.requestId = requestId;
+  }
   res.status(apiError.status).json(body);
 };

@@ -1,8 +1,13 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { Config } from '../config';
+import { log } from '../log';
+import { withRetry } from '../db/retry';
 import { recordAudit } from '../services/audit';
 import { startMailSink, type MailSink } from './sink';
 import { MAIL_HEADERS, type MailMessage, type Mailer, type MailResult, type MailTransportKind } from './types';
+
+/** Tries of one message before it counts as failed (transient failures only; see server/db/retry.ts). */
+const MAIL_ATTEMPTS = 4;
 
 /** Timeouts for a real SMTP server, so a request never hangs for minutes (the URL's query string may override them). */
 const SMTP_DEFAULTS = { connectionTimeout: 15_000, greetingTimeout: 15_000, socketTimeout: 30_000 };
@@ -37,6 +42,7 @@ class SmtpMailer implements Mailer {
     readonly transport: MailTransportKind,
     private readonly from: string,
     private readonly connect: () => Promise<Connected>,
+    private readonly retryDelayMs = 200,
   ) {}
 
   async start(): Promise<string> {
@@ -55,14 +61,19 @@ class SmtpMailer implements Mailer {
       if (this.closed) throw new Error('Mail is shut down');
       if (!to.length) throw new Error('No recipient');
       const { transporter } = await this.connection();
-      const info = await transporter.sendMail({
-        from: this.from,
-        to,
-        subject: message.subject,
-        text: message.text,
-        html: message.html,
-        headers: { [MAIL_HEADERS.organization]: message.organizationId, [MAIL_HEADERS.kind]: message.kind },
-      });
+      // A busy store, a dropped connection or an SMTP 4xx is tried again a few times before the send counts as failed.
+      const info = await withRetry(
+        () =>
+          transporter.sendMail({
+            from: this.from,
+            to,
+            subject: message.subject,
+            text: message.text,
+            html: message.html,
+            headers: { [MAIL_HEADERS.organization]: message.organizationId, [MAIL_HEADERS.kind]: message.kind },
+          }),
+        { attempts: MAIL_ATTEMPTS, baseDelayMs: this.retryDelayMs },
+      );
       const accepted = addressesOf(info.accepted);
       const rejected = addressesOf(info.rejected);
       result = {
@@ -82,24 +93,27 @@ class SmtpMailer implements Mailer {
       };
     }
     try {
-      await recordAudit({
-        organizationId: message.organizationId,
-        actorId: message.actorId ?? null,
-        action: result.ok ? 'mail.sent' : 'mail.failed',
-        entityType: 'mail',
-        entityId: null,
-        summary: {
-          to,
-          subject: message.subject,
-          kind: message.kind,
-          transport: this.transport,
-          ...(result.messageId ? { messageId: result.messageId } : {}),
-          ...(result.error ? { error: result.error } : {}),
-        },
-      });
+      // mail.failed in particular must reach the audit log (the admin's only sign of a lost message): retried too.
+      await withRetry(() =>
+        recordAudit({
+          organizationId: message.organizationId,
+          actorId: message.actorId ?? null,
+          action: result.ok ? 'mail.sent' : 'mail.failed',
+          entityType: 'mail',
+          entityId: null,
+          summary: {
+            to,
+            subject: message.subject,
+            kind: message.kind,
+            transport: this.transport,
+            ...(result.messageId ? { messageId: result.messageId } : {}),
+            ...(result.error ? { error: result.error } : {}),
+          },
+        }),
+      );
     } catch (e) {
       // The message is gone either way; losing its audit line must not turn a sent mail into a failure.
-      console.error('could not record the mail audit event', e);
+      log.error({ err: e }, 'could not record the mail audit event');
     }
     return result;
   }

@@ -3,6 +3,7 @@ import type { AddressInfo } from 'node:net';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { CapturedMail } from '../db/models';
+import { log } from '../log';
 import { MAIL_HEADERS } from './types';
 
 /** A message as the sink received it. */
@@ -123,7 +124,7 @@ export async function startMailSink(opts: MailSinkOptions = {}): Promise<MailSin
     });
   });
   // A connection that goes wrong after start must not bring the process down.
-  server.on('error', (e: Error) => console.error('mail sink:', e.message));
+  server.on('error', (e: Error) => log.warn({ err: e }, `mail sink: ${e.message}`));
   const { port } = server.server.address() as AddressInfo;
   return {
     host,

@@ -7,7 +7,7 @@ import { ApiError } from '../http/errors';
 import { renderLabels } from '../pdf/labels';
 import { makeFileKey } from '../storage';
 import { recordAudit } from './audit';
-import { yieldToLoop } from './jobs';
+import { yieldToLoop, type JobRef } from './jobs';
 
 function toDto(b: LabelBatch): LabelBatchDto {
   return {
@@ -79,8 +79,10 @@ export async function createBatch(ctx: AppContext, actor: AuthUser, input: Creat
     status: 'queued',
     message: `Waiting to make ${labels.length} label${labels.length === 1 ? '' : 's'}`,
   });
+  const job: JobRef = { kind: 'label-batch', id: batch.id };
   ctx.jobs.start(async () => {
     try {
+      ctx.jobs.throwIfStopping('label-batch');
       await batch.update({ status: 'running', message: 'Making the PDF', progress: 0.02 });
       let last = Date.now();
       const pdf = await renderLabelPdf(ctx, actor, labels, input.size, (done, total) => {
@@ -104,7 +106,7 @@ export async function createBatch(ctx: AppContext, actor: AuthUser, input: Creat
         message: e instanceof Error ? e.message.slice(0, 390) : 'The PDF could not be made',
       });
     }
-  });
+  }, job);
   return toDto(batch);
 }
 

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import type { z } from 'zod';
+import { log } from '../log';
 import {
   ATTENTION_LIST_INFO,
   ATTENTION_LISTS,
@@ -445,9 +446,10 @@ export function startReminderScheduler(
     if (running || stopped) return;
     running = runDueReminders(ctx)
       .then((d) => {
-        if (d.length) console.log(`Reminders: ${d.map((x) => `${x.ruleName} ${x.status}`).join(', ')}`);
+        if (d.length)
+          log.info({ deliveries: d.length }, `Reminders: ${d.map((x) => `${x.ruleName} ${x.status}`).join(', ')}`);
       })
-      .catch((e: unknown) => console.error('reminder job failed', e))
+      .catch((err: unknown) => log.error({ err }, 'reminder job failed'))
       .finally(() => {
         running = null;
       });

@@ -71,7 +71,7 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
     );
     return r;
   });
-  ctx.jobs.start(() => executeRun(ctx, run.id));
+  ctx.jobs.start(() => executeRun(ctx, run.id), { kind: 'study-run', id: run.id });
   return toRunDto(run);
 }
 
@@ -80,6 +80,7 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
   const run = await StudyRun.findByPk(runId);
   if (!run || run.status !== 'queued') return;
   try {
+    ctx.jobs.throwIfStopping('study-run');
     await run.update({ status: 'running', message: 'Computing short-circuit currents', progress: 0.01 });
     const model = JSON.parse(run.modelSnapshot) as Model;
     const settings = JSON.parse(run.settingsSnapshot) as RunSettings;
@@ -88,7 +89,11 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
     let lastWrite = Date.now();
     for (let i = 0; i < runner.busIds.length; i++) {
       buses.push(runner.runBus(runner.busIds[i]));
-      if (i % 10 === 9) await yieldToLoop();
+      if (i % 10 === 9) {
+        await yieldToLoop();
+        // A stopping server: the run fails now (no partial results), rather than hold up the shutdown.
+        ctx.jobs.throwIfStopping('study-run');
+      }
       if (Date.now() - lastWrite > 250) {
         lastWrite = Date.now();
         await run.update({
@@ -129,15 +134,6 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
       summary: { runId: run.id, message },
     });
   }
-}
-
-/** Runs left queued or running by a stopped server are marked failed at start (they can be run again). */
-export async function failInterruptedRuns(now: Date): Promise<number> {
-  const [count] = await StudyRun.update(
-    { status: 'failed', message: 'Interrupted by a server restart; run the study again', finishedAt: now },
-    { where: { status: { [Op.in]: ['queued', 'running'] } } },
-  );
-  return count;
 }
 
 export async function latestRun(actor: AuthUser, studyId: string): Promise<RunDto> {

@@ -32,6 +32,8 @@ export const errorResponseSchema = z
       code: z.enum(ERROR_CODES),
       message: z.string(),
       fields: z.record(z.string(), z.string()).optional(),
+      /** On a server error (5xx): the request id, as in the X-Request-Id header and the server log. */
+      requestId: z.string().optional(),
     }),
   })
   .meta({ id: 'Error' });

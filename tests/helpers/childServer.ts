@@ -11,6 +11,8 @@ export interface ChildServer {
   log(): string;
   /** SIGKILL of the launcher and the server it spawned: no shutdown handler runs. Resolves when both are gone. */
   kill(): Promise<void>;
+  /** A signal to the launcher (tsx relays it to the server); resolves with the exit code once both are gone. */
+  stop(signal?: NodeJS.Signals): Promise<number | null>;
 }
 
 const ROOT = path.resolve(__dirname, '../..');
@@ -24,6 +26,8 @@ export async function startChildServer(opts: {
   demoPassword: string;
   port?: number;
   timeoutMs?: number;
+  /** More environment (applied last: e.g. NODE_ENV=production with JWT_SECRET and SMTP_URL). */
+  env?: Record<string, string>;
 }): Promise<ChildServer> {
   const port = opts.port ?? (await freePort());
   const env: NodeJS.ProcessEnv = { ...process.env };
@@ -38,6 +42,7 @@ export async function startChildServer(opts: {
     DEMO_PASSWORD: opts.demoPassword,
     LOG_REQUESTS: '0',
   });
+  Object.assign(env, opts.env ?? {});
   const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/start.ts'], {
     cwd: ROOT,
     env,
@@ -48,7 +53,13 @@ export async function startChildServer(opts: {
   child.stdout!.on('data', (d: Buffer) => (output += d.toString()));
   child.stderr!.on('data', (d: Buffer) => (output += d.toString()));
   // 'close': the launcher has exited and every holder of its stdio (the tsx-spawned server process) is gone too.
-  const exited = new Promise<void>((resolve) => child.once('close', () => resolve()));
+  let exitCode: number | null = null;
+  const exited = new Promise<void>((resolve) =>
+    child.once('close', (code) => {
+      exitCode = code;
+      resolve();
+    }),
+  );
   let gone = false;
   void exited.then(() => (gone = true));
   const baseUrl = `http://127.0.0.1:${port}`;
@@ -67,6 +78,11 @@ export async function startChildServer(opts: {
         }
       }
       await exited;
+    },
+    stop: async (signal = 'SIGTERM') => {
+      if (!gone) child.kill(signal);
+      await exited;
+      return exitCode;
     },
   };
 
