@@ -20,13 +20,13 @@ function PhotoInput({ onFile, testID, label }: { onFile: (f: File | null) => voi
       <T variant="label">{label}</T>
       {React.createElement('input', {
         type: 'file',
-        accept: 'image/*',
+        accept: 'image/jpeg,image/png',
         capture: 'environment',
         'data-testid': testID,
         onChange: (e: { target: { files?: FileList | null } }) => onFile(e.target.files?.[0] ?? null),
         style: { fontSize: 15, padding: 8 },
       })}
-      <T variant="small">JPEG, PNG, WebP or HEIC, at most 10 MB.</T>
+      <T variant="small">JPEG or PNG, at most 10 MB.</T>
     </View>
   );
 }

@@ -1,5 +1,5 @@
 /**
- * Label values (DESIGN.md §3.6) from an incident-energy result, the nominal voltage and the organization's settings:
+ * Label values (docs/ARCHITECTURE.md, Label values) from an incident-energy result, the nominal voltage and the organization's settings:
  * minimum arc rating of clothing, site-specific PPE level, NFPA 70E shock approach boundaries, voltage-rated glove
  * class, signal word and the "no adequate PPE" flag. Facts and their sources: server/engine/data/label-facts.json.
  */
@@ -188,7 +188,7 @@ export function noAdequatePpe(incidentEnergyCalPerCm2: number): boolean {
   return incidentEnergyCalPerCm2 > NO_ADEQUATE_PPE_CAL_PER_CM2;
 }
 
-/** All label values of one equipment (DESIGN.md §3.6). */
+/** All label values of one equipment (docs/ARCHITECTURE.md, Label values). */
 export function computeLabelValues(
   result: Pick<
     IncidentEnergyResult,

@@ -5,7 +5,7 @@ import { MODEL_FORMAT, MODEL_VERSION, type Model, type ModelIssue } from '../../
  * (modelWorkbook.ts) and the CSV files (modelCsv.ts) share these tables; this module turns elements into rows and
  * rows back into elements, and maps a model issue back to the sheet (or file), row and column it came from.
  *
- * Headers are the field paths of the JSON format (DESIGN.md §4), nested fields joined by dots
+ * Headers are the field paths of the JSON format (docs/MODEL-FORMAT.md), nested fields joined by dots
  * (`equipment.enclosureMm.height`); units are part of the names (`nominalKv`, `gapMm`, `lengthM`).
  * Device settings are too deep for flat columns: a device row carries its device object as JSON.
  */

@@ -1,7 +1,7 @@
 import type { Model, ModelIssue } from '../../shared/schemas/model';
 import type { ImportError, ParsedModelFile } from './columns';
 
-/** The system model as JSON (DESIGN.md §4): `"format": "emberline-model", "version": 1`. */
+/** The system model as JSON (docs/MODEL-FORMAT.md): `"format": "emberline-model", "version": 1`. */
 
 /** Pretty-printed JSON of the model (two-space indent, final newline). */
 export function exportModelJson(model: Model): string {

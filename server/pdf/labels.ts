@@ -1,5 +1,5 @@
 /**
- * Arc-flash equipment labels as PDF (DESIGN.md §3.6, §7). One label per page at 4×6 in (portrait) and 4×4 in;
+ * Arc-flash equipment labels as PDF (docs/ARCHITECTURE.md, Label values; Labels and field checks). One label per page at 4×6 in (portrait) and 4×4 in;
  * on letter and A4 sheets, six labels per page in a 2 × 3 grid with cut lines.
  *
  * What a label says is `LabelContent` and nothing else, plus the QR code of its public check address. The layout

@@ -1,5 +1,5 @@
 /**
- * The engineer's study report (DESIGN.md §7): cover, scope, method and assumptions, inputs, results, a clearing
+ * The engineer's study report (docs/ARCHITECTURE.md, Data path of a study run, step 13): cover, scope, method and assumptions, inputs, results, a clearing
  * trace per bus with a time-current plot drawn as vectors, warnings, cautions and the approval block (or the
  * preliminary notice). US letter pages, page numbers and a footer on every page; tables continue on the next page
  * with their header repeated. Layout is a convention (common practice, no source).

@@ -19,7 +19,7 @@ import { attentionList, attentionSummary } from '../services/attention';
 import { exportAudit, searchAudit } from '../services/auditLog';
 import { fieldReportPhoto, getFieldReport, listFieldReports, triageFieldReport } from '../services/fieldReports';
 
-/** Who reads the dashboard and the audit log: everyone but electricians (DESIGN §1). */
+/** Who reads the dashboard and the audit log: everyone but electricians (docs/ARCHITECTURE.md, Roles). */
 const AUDITORS = ['admin', 'engineer', 'safety'] as const;
 
 function listParam(raw: string): AttentionList {

@@ -122,7 +122,7 @@ export const labelFieldRoutes: AnyRoute[] = [
     method: 'post',
     path: '/labels/:code/installed',
     summary:
-      'Mark a label installed, with a photo of it in place (multipart field "photo": JPEG, PNG, WebP or HEIC, at most 10 MB).',
+      'Mark a label installed, with a photo of it in place (multipart field "photo": JPEG or PNG, at most 10 MB; stored re-encoded, without metadata).',
     tag: 'labels',
     access: ['electrician', 'engineer'],
     middleware: [imageUpload('photo', { required: true })],

@@ -13,7 +13,7 @@ import { approveStudy, createStudy, saveModel, submitForReview } from '../servic
 import { larkspurModel } from './larkspurModel';
 import { pumpStationModel } from './pumpStationModel';
 
-/** The invented demo scenario (DESIGN.md §9). Every name here is fictional. */
+/** The invented demo scenario (docs/ARCHITECTURE.md, Demo data). Every name here is fictional. */
 export const DEMO_ORGANIZATION = 'Larkspur Valley Utility District';
 export const DEMO_SITE = {
   name: 'Larkspur Valley Water Reclamation Facility',

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { ApiError } from '../http/errors';
+import { PhotoRefused, reencodePhoto } from './imageReencode';
 
 export type ImageType = 'image/jpeg' | 'image/png' | 'image/webp' | 'image/heic' | 'image/heif';
 export type ImageExtension = 'jpg' | 'png' | 'webp' | 'heic' | 'heif';
@@ -60,8 +61,10 @@ function describeSize(bytes: number): string {
 
 /**
  * One photo from the multipart field `field`, held in memory as `req.file`.
- * Accepted: JPEG, PNG, WebP, HEIC/HEIF, judged by the declared type AND the file's first bytes; on success
- * `req.file.mimetype` is set to the type the bytes show, so it can be stored as is.
+ * Accepted: JPEG and PNG, judged by the declared type AND the file's first bytes, then decoded and encoded again
+ * (`reencodePhoto`: no metadata kept, EXIF orientation applied, at most 10 000 px a side and 50 MP, reduced to 3 000 px);
+ * WebP and HEIC are recognized but refused (no decoder here). On success `req.file` holds the re-encoded photo and its
+ * type, so it can be stored as is.
  * Too large → 413 `payload_too_large`; not an accepted image → 415 `unsupported_media_type`;
  * missing while `required` (the default) → 400; other malformed uploads → 400. Errors name the field.
  */
@@ -112,6 +115,37 @@ export function imageUpload(field: string, opts: { maxBytes?: number; required?:
           }),
         );
       }
+      if (detected.type !== 'image/jpeg' && detected.type !== 'image/png') {
+        // No decoder for WebP or HEIC here: such a file could not be checked nor cleaned of its metadata.
+        delete req.file;
+        return next(
+          new ApiError(
+            'unsupported_media_type',
+            `The photo in "${field}" is ${detected.extension.toUpperCase()}: send a JPEG or PNG`,
+            {
+              [field]: 'Send a JPEG or PNG photo',
+            },
+          ),
+        );
+      }
+      try {
+        file.buffer = reencodePhoto(file.buffer, detected.type);
+      } catch (e) {
+        delete req.file;
+        if (!(e instanceof PhotoRefused)) return next(e);
+        return next(
+          e.reason === 'too-large'
+            ? new ApiError('payload_too_large', `${e.message} ("${field}")`, { [field]: e.message })
+            : new ApiError(
+                'unsupported_media_type',
+                `The file in "${field}" is not a readable JPEG or PNG: ${e.message}`,
+                {
+                  [field]: 'Not a readable JPEG or PNG image',
+                },
+              ),
+        );
+      }
+      file.size = file.buffer.length;
       file.mimetype = detected.type;
       next();
     });

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 
 /**
- * The safety officer's dashboard: lists of what needs attention (DESIGN.md §8). Each list has a fixed key; the
+ * The safety officer's dashboard: lists of what needs attention (docs/ARCHITECTURE.md, Audit and attention). Each list has a fixed key; the
  * dashboard shows the count of each, per site; each count opens its list; each list exports as CSV.
  */
 export const ATTENTION_LISTS = [

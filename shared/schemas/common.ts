@@ -25,7 +25,7 @@ export const ERROR_CODES = [
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];
 
-/** The one error shape of every API response that is not a success (DESIGN.md §5). */
+/** The one error shape of every API response that is not a success (docs/API.md, Errors). */
 export const errorResponseSchema = z
   .object({
     error: z.object({

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 
 /**
- * Protective devices and their trip bands (DESIGN.md §3.3, §5 `POST /api/calc/clearing-time`).
+ * Protective devices and their trip bands (docs/ARCHITECTURE.md, Clearing time from a trip band; docs/MODEL-FORMAT.md, Devices; `POST /api/calc/clearing-time`).
  *
  * A band is a minimum curve and a maximum (total clearing) curve of time against current on log-log axes.
  * Point lists are `[current, seconds]` pairs with current strictly increasing and time not increasing.

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { ELECTRODE_CONFIGS } from '../equipmentClasses';
 
 /**
- * Contract of `POST /api/calc/incident-energy` (DESIGN.md §5): IEEE Std 1584-2018 incident energy of one equipment.
+ * Contract of `POST /api/calc/incident-energy` (docs/API.md, Calculations): IEEE Std 1584-2018 incident energy of one equipment.
  * The server validates with these schemas, the client pre-validates its forms, OpenAPI is generated from them.
  */
 

@@ -11,7 +11,7 @@ export const LABEL_STATUS_LABELS: Record<LabelStatus, string> = {
 };
 
 /**
- * What a printed label says (DESIGN.md §3.6, §7): a snapshot of the approved values. The public check page shows
+ * What a printed label says (docs/ARCHITECTURE.md, Label values; Labels and field checks): a snapshot of the approved values. The public check page shows
  * exactly these fields and nothing more.
  */
 export const labelContentSchema = z

@@ -3,7 +3,7 @@ import { deviceSchema, electronicPositionsSchema } from './device';
 import { ELECTRODE_CONFIGS, EQUIPMENT_CLASSES, type ElectrodeConfig } from '../equipmentClasses';
 
 /**
- * The system model of a site (DESIGN.md §4): `"format": "emberline-model", "version": 1`.
+ * The system model of a site (docs/MODEL-FORMAT.md): `"format": "emberline-model", "version": 1`.
  *
  * Two layers of checks:
  * - `modelSchema` (zod): shapes and non-physical values (every physical quantity is a positive finite number);

@@ -20,7 +20,7 @@ describe('sign-in', () => {
     expect(res.status).toBe(200);
     expect(res.body.user).toMatchObject({ email: 'engineer@org-a.example', role: 'engineer' });
     const claims = jwt.decode(res.body.token) as { exp: number; iat: number };
-    // DESIGN/issue: expiry at most 12 h.
+    // Expiry at most 12 h (the product's rule, docs/API.md, Authentication and access).
     expect(claims.exp - claims.iat).toBeLessThanOrEqual(12 * 3600);
   });
 

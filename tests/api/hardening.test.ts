@@ -4,11 +4,15 @@
  * the audit log's database triggers, external reminder addresses, and form-encoded field reports.
  */
 import { randomUUID } from 'node:crypto';
+import jpeg from 'jpeg-js';
 import jwt from 'jsonwebtoken';
+import { PNG } from 'pngjs';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { CapturedMail, User } from '../../server/db/models';
+import { smallModel } from '../fixtures/smallModel';
+import { approveStudy } from '../helpers/flows';
 import { makeTestApp, TEST_PASSWORD, TEST_SECRET, type TestApp } from '../helpers/testApp';
 
 let t: TestApp;
@@ -267,3 +271,178 @@ describe('per-account sign-in backoff and reset-mail limit', () => {
     expect((await countMails()) - before).toBe(4);
   });
 });
+
+describe('photos are decoded and encoded again', () => {
+  let code = '';
+  beforeAll(async () => {
+    const siteId = (
+      await request(t.app)
+        .post('/api/sites')
+        .set('Authorization', `Bearer ${t.orgA.users.engineer.token}`)
+        .send({ name: 'Photo site' })
+    ).body.id as string;
+    await approveStudy(t, siteId, smallModel());
+    const labels = await request(t.app)
+      .get(`/api/sites/${siteId}/labels?current=1`)
+      .set('Authorization', `Bearer ${t.orgA.users.engineer.token}`);
+    code = labels.body.labels[0].code as string;
+  }, 60_000);
+
+  /** A 4 × 2 JPEG, left half red and right half blue, with an EXIF block (orientation `orientation`) and a comment. */
+  function jpegWithMetadata(orientation: number): Buffer {
+    const w = 4;
+    const h = 2;
+    const data = Buffer.alloc(w * h * 4);
+    for (let y = 0; y < h; y++)
+      for (let x = 0; x < w; x++) data.set(x < 2 ? [255, 0, 0, 255] : [0, 0, 255, 255], (y * w + x) * 4);
+    const plain = jpeg.encode({ width: w, height: h, data }, 95).data;
+    // EXIF (TIFF big-endian): one IFD0 entry, tag 0x0112 Orientation, type SHORT, count 1.
+    const tiff = Buffer.from([
+      0x4d,
+      0x4d,
+      0,
+      0x2a,
+      0,
+      0,
+      0,
+      8,
+      0,
+      1,
+      0x01,
+      0x12,
+      0,
+      3,
+      0,
+      0,
+      0,
+      1,
+      0,
+      orientation,
+      0,
+      0,
+      0,
+      0,
+      0,
+      0,
+    ]);
+    const exifBody = Buffer.concat([Buffer.from('Exif\0\0', 'latin1'), tiff, Buffer.from('GPS 48.8584N 2.2945E')]);
+    const app1 = Buffer.concat([Buffer.from([0xff, 0xe1]), u16(exifBody.length + 2), exifBody]);
+    const comment = Buffer.from('SECRET-CAMERA-SERIAL-123');
+    const com = Buffer.concat([Buffer.from([0xff, 0xfe]), u16(comment.length + 2), comment]);
+    return Buffer.concat([plain.subarray(0, 2), app1, com, plain.subarray(2), Buffer.from('TRAILING-PAYLOAD')]);
+  }
+  const u16 = (n: number) => Buffer.from([n >> 8, n & 0xff]);
+
+  async function report(photo: Buffer, name: string, type: string) {
+    return request(t.app)
+      .post(`/api/labels/${code}/reports`)
+      .set('Authorization', `Bearer ${t.orgA.users.electrician.token}`)
+      .field('kind', 'device')
+      .field('text', 'Photo check')
+      .attach('photo', photo, { filename: name, contentType: type });
+  }
+  async function storedPhoto(reportId: string): Promise<Buffer> {
+    const res = await request(t.app)
+      .get(`/api/field-reports/${reportId}/photo`)
+      .set('Authorization', `Bearer ${t.orgA.users.safety.token}`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(res.status).toBe(200);
+    return res.body as Buffer;
+  }
+
+  it('strips EXIF, comments and trailing bytes, and applies the orientation to the pixels', async () => {
+    const sent = jpegWithMetadata(6); // 6: rotate 90° clockwise to show upright (EXIF 2.3, Orientation tag)
+    const res = await report(sent, 'p.jpg', 'image/jpeg');
+    expect(res.status).toBe(201);
+    const stored = await storedPhoto(res.body.id);
+    const text = stored.toString('latin1');
+    for (const secret of ['Exif', 'GPS 48.8584N', 'SECRET-CAMERA-SERIAL', 'TRAILING-PAYLOAD'])
+      expect(text).not.toContain(secret);
+    const img = jpeg.decode(stored, { useTArray: true });
+    // Rotated clockwise: 2 wide and 4 tall, red (the left half) now on top.
+    expect([img.width, img.height]).toEqual([2, 4]);
+    expect(img.data[0]).toBeGreaterThan(200); // top-left red
+    expect(img.data[2]).toBeLessThan(60);
+    const last = (img.width * img.height - 1) * 4;
+    expect(img.data[last + 2]).toBeGreaterThan(200); // bottom-right blue
+    expect(img.data[last]).toBeLessThan(60);
+  });
+
+  it('a PNG keeps its pixels without its text chunks', async () => {
+    const png = new PNG({ width: 3, height: 3 });
+    png.data.fill(200);
+    const withText = PNG.sync.write(png);
+    // A tEXt chunk before IEND (its CRC is not checked by decoders that ignore ancillary chunks; pngjs checks it).
+    const iend = withText.length - 12;
+    const chunk = textChunk('Comment', 'SECRET-PNG-NOTE');
+    const sent = Buffer.concat([withText.subarray(0, iend), chunk, withText.subarray(iend)]);
+    const res = await report(sent, 'p.png', 'image/png');
+    expect(res.status).toBe(201);
+    const stored = await storedPhoto(res.body.id);
+    expect(stored.toString('latin1')).not.toContain('SECRET-PNG-NOTE');
+    const back = PNG.sync.read(stored);
+    expect([back.width, back.height, back.data[0]]).toEqual([3, 3, 200]);
+  });
+
+  it('a file that only starts like an image is refused with 415 naming the photo; nothing is stored', async () => {
+    const before = await request(t.app)
+      .get('/api/field-reports')
+      .set('Authorization', `Bearer ${t.orgA.users.safety.token}`);
+    for (const [bytes, name, type] of [
+      [
+        Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0]), Buffer.from('<script>alert(1)</script>')]),
+        'x.jpg',
+        'image/jpeg',
+      ],
+      [
+        Buffer.concat([Buffer.from('89504e470d0a1a0a', 'hex'), Buffer.from('not really a png at all')]),
+        'x.png',
+        'image/png',
+      ],
+      [jpegWithMetadata(1).subarray(0, 200), 'cut.jpg', 'image/jpeg'],
+    ] as const) {
+      const res = await report(bytes, name, type);
+      expect(res.status).toBe(415);
+      expect(Object.keys(res.body.error.fields)).toEqual(['photo']);
+    }
+    const after = await request(t.app)
+      .get('/api/field-reports')
+      .set('Authorization', `Bearer ${t.orgA.users.safety.token}`);
+    expect(after.body.reports.length).toBe(before.body.reports.length);
+  });
+
+  it('a PNG declaring 20 000 × 20 000 px is refused before it is decoded (413 naming the photo)', async () => {
+    const png = new PNG({ width: 1, height: 1 });
+    const small = PNG.sync.write(png);
+    const huge = Buffer.from(small);
+    huge.writeUInt32BE(20_000, 16);
+    huge.writeUInt32BE(20_000, 20);
+    const res = await report(huge, 'huge.png', 'image/png');
+    expect(res.status).toBe(413);
+    expect(res.body.error.fields.photo).toMatch(/20000 × 20000 px/);
+  });
+});
+
+/** A PNG chunk with its CRC-32 (ISO 3309 / PNG specification, section 5.3). */
+function textChunk(keyword: string, text: string): Buffer {
+  const type = Buffer.from('tEXt', 'latin1');
+  const data = Buffer.from(`${keyword}\0${text}`, 'latin1');
+  const len = Buffer.alloc(4);
+  len.writeUInt32BE(data.length);
+  const crc = Buffer.alloc(4);
+  crc.writeUInt32BE(crc32(Buffer.concat([type, data])));
+  return Buffer.concat([len, type, data, crc]);
+}
+function crc32(buf: Buffer): number {
+  let c = 0xffffffff;
+  for (const b of buf) {
+    c ^= b;
+    for (let k = 0; k < 8; k++) c = c & 1 ? (c >>> 1) ^ 0xedb88320 : c >>> 1;
+  }
+  return (c ^ 0xffffffff) >>> 0;
+}

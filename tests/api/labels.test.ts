@@ -41,7 +41,7 @@ describe('labels', () => {
     expect(labels.map((l) => l.equipmentTag).sort()).toEqual(['MCC', 'PNL', 'SWBD']);
     for (const l of labels) {
       expect(l.status).toBe('current');
-      // 16 base32 characters = 80 random bits (DESIGN §7: at least 64 bits).
+      // 16 base32 characters = 80 random bits (docs/ARCHITECTURE.md, Labels and field checks: at least 64 bits).
       expect(l.code).toMatch(/^[0-9A-HJKMNP-TV-Z]{16}$/);
     }
     const results = await request(t.app)

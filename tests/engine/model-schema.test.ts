@@ -1,7 +1,7 @@
 import { modelSchema, parseModel, validateModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
 
 /*
- * The system model format and its checks (DESIGN.md §4): unknown references, duplicate ids, islands without a
+ * The system model format and its checks (docs/MODEL-FORMAT.md, Validation): unknown references, duplicate ids, islands without a
  * source and non-physical values are rejected with an error naming the element and field. These are the
  * product's own format rules, not published values; no float is compared here.
  */
@@ -15,7 +15,7 @@ const fuse = {
   ] as [number, number][],
 };
 
-/** The DESIGN.md §4 example, completed with the buses it refers to. */
+/** The example of docs/MODEL-FORMAT.md, completed with the buses it refers to. */
 function example(): ModelInput {
   return {
     format: 'emberline-model',
@@ -73,7 +73,7 @@ const issuesOf = (input: unknown): ModelIssue[] => {
   return result.success ? [] : result.issues;
 };
 
-describe('the DESIGN.md §4 example', () => {
+describe('the example of docs/MODEL-FORMAT.md', () => {
   it('parses and passes every check', () => {
     const result = parseModel(example());
     expect(result.issues).toEqual([]);

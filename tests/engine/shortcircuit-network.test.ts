@@ -467,7 +467,7 @@ describe('frequency', () => {
 
 describe('errors', () => {
   it('an invalid model throws EngineError naming the element path', () => {
-    // DESIGN.md §4: unknown references are rejected with an error naming the element and field.
+    // docs/MODEL-FORMAT.md, Validation: unknown references are rejected with an error naming the element and field.
     const model = unitSubstation({
       cables: [
         {

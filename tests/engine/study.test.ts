@@ -218,7 +218,7 @@ describe('small radial study, step by step', () => {
   });
 });
 
-describe('line side of the main (DESIGN §3.5)', () => {
+describe('line side of the main (docs/ARCHITECTURE.md, Data path of a study run, step 8)', () => {
   it('evaluates an arc on the line side of a non-isolated main as cleared by the next device upstream, and labels the worse', () => {
     const r = runStudy(parse(radial({ mainIsolated: false }))).buses.find((b) => b.busId === 'SWBD')!;
     const loadFull = r.cases.find((c) => c.location === 'load-side' && c.arcCase === 'full')!;

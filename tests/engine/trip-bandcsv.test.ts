@@ -2,7 +2,7 @@ import { formatBandCsv, parseBandCsv } from '../../server/engine/trip/bandCsv';
 import { clearingTime } from '../../server/engine/trip/clearingTime';
 import { EXAMPLE_BAND } from '../../server/engine/trip/exampleDevices';
 
-// Digitized band CSV (DESIGN.md §3.3: any device given as min/max point lists, CSV upload). Values are invented.
+// Digitized band CSV (the product's own format, docs/MODEL-FORMAT.md, Devices: band). Values are invented.
 
 describe('worked example: a digitized band CSV', () => {
   it('reads current,min_s,max_s with a header into ampere point lists', () => {

@@ -38,7 +38,7 @@ describe('worked example: thermal-magnetic breaker', () => {
   });
 });
 
-describe('thermal-magnetic instantaneous pickup tolerance (DESIGN.md §3.3)', () => {
+describe('thermal-magnetic instantaneous pickup tolerance (docs/ARCHITECTURE.md, Clearing time from a trip band)', () => {
   // 10 × ± 20 %: low edge 8 ×, high edge 12 × rating
   it('between the low and high edge the maximum curve stays on the thermal band', () => {
     const r = clearingTime(TM, 9 * 20);

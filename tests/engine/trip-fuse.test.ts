@@ -26,7 +26,7 @@ const codes = (r: { warnings: { code: string }[] }) => r.warnings.map((w) => w.c
 
 describe('worked example: a fuse band', () => {
   it('reads the total-clearing curve as the maximum and the minimum-melt curve as the minimum', () => {
-    // DESIGN.md §3.3 / IEEE 1584-2002: use the total clearing curve for the arc duration
+    // IEEE 1584-2002 (read in a published reprint): use the total clearing curve for the arc duration
     const r = clearingTime(FUSE, 400);
     expect(r.clearingTimeS).toBe(30); // published point: exact
     expect(r.region).toBe('curve-segment');
@@ -36,7 +36,7 @@ describe('worked example: a fuse band', () => {
   });
 });
 
-describe('the 0.01 s rule (IEEE 1584-2002, read in a published reprint; DESIGN.md: common practice, half a cycle)', () => {
+describe('the 0.01 s rule (IEEE 1584-2002, read in a published reprint; half a cycle: common practice, no source)', () => {
   it('above the current at the bottom of the total-clearing curve (0.01 s) the clearing time is 0.01 s', () => {
     expect(facts.fuse.halfCycleRule.seconds).toBe(0.01);
     const r = clearingTime(FUSE, 20000);

@@ -1,5 +1,5 @@
 /**
- * Three-phase bolted short-circuit study (DESIGN.md §3.1).
+ * Three-phase bolted short-circuit study (docs/ARCHITECTURE.md, Data path of a study run, step 4).
  *
  * Method (superposition with the equivalent voltage source at the fault, IEEE 141 / IEEE 551 practice):
  * - per-unit network (network.ts), bus admittance matrix Ybus, factored once (sparse LDLᵀ, sparse.ts);

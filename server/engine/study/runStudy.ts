@@ -1,5 +1,5 @@
 /**
- * The study run (DESIGN.md §3): for a fault at each labelled bus — bolted fault current → both arcing currents →
+ * The study run (docs/ARCHITECTURE.md, Data path of a study run): for a fault at each labelled bus — bolted fault current → both arcing currents →
  * the protective devices carrying fault current, each read at the current it sees during the arc → arc duration
  * (the first device to clear with one source; time-stepped energy as each source is cut off with several) → the
  * line-side case where the bus's main device is not isolated → the arc-duration cap → incident energy, arc-flash

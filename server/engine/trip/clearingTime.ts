@@ -8,7 +8,7 @@ import { fmt } from './interpolate';
 import { relayBand } from './relay';
 import { thermalMagneticBand } from './thermalMagnetic';
 
-/** The chain behind a clearing time: shown on the clearing trace (DESIGN.md §2.1). Plain JSON. */
+/** The chain behind a clearing time: shown on the clearing trace (docs/ARCHITECTURE.md, Principles: traceable numbers). Plain JSON. */
 export interface ClearingTrace {
   kind: Device['kind'];
   currentA: number;
@@ -94,7 +94,7 @@ const TOLERANCE_EDGES: Record<Device['kind'], { maximum: string; minimum: string
 };
 
 /**
- * Clearing time of a protective device at the current it sees (DESIGN.md §3.3): the device's MAXIMUM
+ * Clearing time of a protective device at the current it sees (docs/ARCHITECTURE.md, Clearing time from a trip band): the device's MAXIMUM
  * (total clearing) curve read at `currentA` — for relays including the breaker interrupting time. This is
  * the arc duration. Below pickup the result is region 'no-trip' with clearingTimeS null and a NO_TRIP warning:
  * the device does not clear that current.

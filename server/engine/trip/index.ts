@@ -1,4 +1,4 @@
-/** Clearing time from trip bands (DESIGN.md §3.3): pure functions. */
+/** Clearing time from trip bands (docs/ARCHITECTURE.md, Clearing time from a trip band): pure functions. */
 export { clearingTime, readBand, type ClearingTimeResult, type ClearingTrace } from './clearingTime';
 export { interpolateLogLog, validateCurvePoints, type TimeCurrentPoint, type CurveReading } from './interpolate';
 export {

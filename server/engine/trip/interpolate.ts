@@ -83,7 +83,7 @@ export interface CurveReading {
 /**
  * Log-log interpolation between points of a time-current curve:
  *   log t = log t_i + (log x − log x_i) / (log x_{i+1} − log x_i) · (log t_{i+1} − log t_i),
- * i.e. a straight line between neighbouring points on log-log axes (DESIGN.md §3.3: interpolate log-log).
+ * i.e. a straight line between neighbouring points on log-log axes (docs/ARCHITECTURE.md, Clearing time from a trip band).
  * Exact at the points. Outside the points the end point's time is used (clamped) and a BAND_BEYOND_DATA
  * warning says so: the curve is never extrapolated.
  * The points must already be valid (see validateCurvePoints); `field` names the curve in warnings.
