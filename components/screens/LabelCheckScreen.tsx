@@ -3,6 +3,8 @@ import { Link } from 'expo-router';
 import React from 'react';
 import { ScrollView, View } from 'react-native';
 import { LABEL_STATUS_LABELS, type LabelCheck } from '../../shared/schemas/labels';
+import { LABEL_STATUS_NOTICES } from '../../shared/labelDisplay';
+import { parseLabelCode } from '../../shared/labelCode';
 import { apiFetch, ApiClientError } from '../../hooks/api';
 import { Cautions } from '../Cautions';
 import { LabelView } from '../labels/LabelView';
@@ -10,22 +12,16 @@ import { colors, fonts, radius, space } from '../theme';
 import { Notice, T } from '../ui';
 
 const STATUS_STYLE = {
-  current: { bg: colors.ok, text: 'This label is current.' },
-  superseded: {
-    bg: colors.danger,
-    text: 'This label is superseded: the values below it are no longer valid. Replace it with the current label.',
-  },
-  'past-review': {
-    bg: colors.caution,
-    text: 'This label is past its review date: the study must be reviewed before relying on it.',
-  },
+  current: { bg: colors.ok },
+  superseded: { bg: colors.danger },
+  'past-review': { bg: colors.caution },
 } as const;
 
 /** The public page a label's QR code opens: what the label says and whether it still holds. No sign-in. */
 export function LabelCheckScreen({ code }: { code: string }) {
   const check = useQuery({
     queryKey: ['label-check', code],
-    queryFn: () => apiFetch<LabelCheck>(`/labels/${encodeURIComponent(code)}`),
+    queryFn: () => apiFetch<LabelCheck>(`/labels/${encodeURIComponent(parseLabelCode(code) ?? code)}`),
     retry: false,
   });
   const notFound = check.error instanceof ApiClientError && check.error.status === 404;
@@ -64,7 +60,9 @@ export function LabelCheckScreen({ code }: { code: string }) {
               <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 34, letterSpacing: 1 }}>
                 {LABEL_STATUS_LABELS[check.data.status].toUpperCase()}
               </T>
-              <T style={{ color: '#fff', fontSize: 17 }}>{STATUS_STYLE[check.data.status].text}</T>
+              <T style={{ color: '#fff', fontSize: 17 }} testID="label-status-notice">
+                {LABEL_STATUS_NOTICES[check.data.status]}
+              </T>
               <T style={{ color: '#fff', fontSize: 13, fontFamily: fonts.numbers }}>
                 Checked {check.data.checkedAt.slice(0, 16).replace('T', ' ')} UTC · code {check.data.code}
               </T>
@@ -75,15 +73,21 @@ export function LabelCheckScreen({ code }: { code: string }) {
                 <LabelView content={check.data.current} />
               </View>
             ) : null}
+            {check.data.status === 'superseded' && !check.data.current ? (
+              <Notice tone="warning">
+                No current label has been issued for this equipment yet: ask the engineer before working on it.
+              </Notice>
+            ) : null}
             <View style={{ gap: space.sm }}>
               <T variant="heading">
                 {check.data.status === 'superseded' ? 'This (old) label says' : 'This label says'}
               </T>
               <LabelView content={check.data.content} code={check.data.code} />
             </View>
+            {/* Labels are issued by approved studies only: never the "preliminary" wording of drafts here. */}
             <Cautions
-              reviewed={check.data.status === 'current'}
-              incidentEnergyCalPerCm2={check.data.content.incidentEnergyCalPerCm2}
+              reviewed
+              incidentEnergyCalPerCm2={(check.data.current ?? check.data.content).incidentEnergyCalPerCm2}
             />
             <Link href={`/labels/${check.data.code}`} style={{ color: colors.accent, fontSize: 16 }}>
               Electricians: sign in to mark this label installed or report what does not match

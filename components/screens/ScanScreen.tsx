@@ -2,14 +2,12 @@ import { useRouter } from 'expo-router';
 import jsQR from 'jsqr';
 import React, { useCallback, useEffect, useRef, useState } from 'react';
 import { Platform, View } from 'react-native';
+import { parseLabelCode } from '../../shared/labelCode';
 import { colors, radius } from '../theme';
 import { Button, Card, Field, Notice, Screen, T } from '../ui';
 
-/** The label code from a scanned QR text (the check address …/l/<code>) or from what was typed. */
-export function codeFromScan(text: string): string | null {
-  const m = /\/l\/([0-9A-Za-z-]{8,40})\s*$/.exec(text.trim()) ?? /^([0-9A-Za-z-]{8,40})$/.exec(text.trim());
-  return m ? m[1] : null;
-}
+/** The label code from a scanned QR text (the check address …/l/<code>) or from what was typed, as printed. */
+export const codeFromScan = parseLabelCode;
 
 function Camera({ onCode }: { onCode: (code: string) => void }) {
   const videoRef = useRef<HTMLVideoElement | null>(null);

@@ -5,7 +5,8 @@ import type { StudyDto } from '../../shared/schemas/studies';
 import type { BusResult } from '../../shared/schemas/studyResults';
 import { useResults } from '../../hooks/studies';
 import { useLayout } from '../../hooks/useLayout';
-import { fmt, fmtLength } from '../../hooks/units';
+import { fmt } from '../../hooks/units';
+import { formatBoundary, formatCalPerCm2 } from '../../shared/labelDisplay';
 import { Cautions } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space, touch } from '../theme';
@@ -230,10 +231,10 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                   </T>
                   <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(b.arcDurationS)}</T>
                   <T style={{ flex: 0.9, fontFamily: fonts.numbersBold, fontSize: 15 }}>
-                    {fmt(b.incidentEnergyCalPerCm2)}
+                    {b.incidentEnergyCalPerCm2 !== undefined ? formatCalPerCm2(b.incidentEnergyCalPerCm2) : '—'}
                   </T>
                   <T style={{ flex: 1, fontFamily: fonts.numbers, fontSize: 14 }}>
-                    {b.arcFlashBoundaryMm !== undefined ? fmtLength(b.arcFlashBoundaryMm, 'mm') : '—'}
+                    {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm) : '—'}
                   </T>
                   <T style={{ flex: 1, fontSize: 13 }}>
                     {b.labelValues ? (b.labelValues.ppeLevel?.name ?? 'None adequate') : '—'}
@@ -285,10 +286,17 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                         gap: space.sm,
                       }}
                     >
-                      <Num value={fmt(b.incidentEnergyCalPerCm2)} unit="cal/cm²" size={24} bold />
+                      <Num
+                        value={
+                          b.incidentEnergyCalPerCm2 !== undefined ? formatCalPerCm2(b.incidentEnergyCalPerCm2) : '—'
+                        }
+                        unit="cal/cm²"
+                        size={24}
+                        bold
+                      />
                       <T variant="small">
                         {b.clearingDeviceId ?? 'capped'} · {fmt(b.arcDurationS)} s ·{' '}
-                        {b.arcFlashBoundaryMm !== undefined ? fmtLength(b.arcFlashBoundaryMm, 'mm') : ''}
+                        {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm) : ''}
                       </T>
                     </View>
                   )}

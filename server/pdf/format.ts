@@ -1,60 +1,19 @@
 /**
- * How numbers read on labels and in the report. Hazard values (energy, boundary) are rounded UP at the shown
- * precision, so a printed value is never below the computed one (common practice, no source).
+ * How numbers read on labels and in the report. The label formats (hazard values rounded UP at the shown precision)
+ * live in shared/labelDisplay.ts, the one place for what a label prints; re-exported here for the PDFs.
  */
+import { groupLabelCode, parseLabelCode } from '../../shared/labelCode';
 
-const MM_PER_IN = 25.4;
-
-/** Rounds up to `decimals` places (guarding against float noise such as 4.2000000001). */
-export function ceilTo(value: number, decimals: number): number {
-  const f = 10 ** decimals;
-  return Math.ceil(value * f - 1e-9) / f;
-}
-
-/** Incident energy in cal/cm²: two decimals below 1, one decimal from 1 (rounded up). */
-export function formatCalPerCm2(value: number): string {
-  if (!Number.isFinite(value)) return '—';
-  const decimals = value < 1 ? 2 : 1;
-  return ceilTo(value, decimals).toFixed(decimals);
-}
-
-/** Incident energy in J/cm²: one decimal (rounded up). */
-export function formatJPerCm2(value: number): string {
-  if (!Number.isFinite(value)) return '—';
-  return ceilTo(value, 1).toFixed(1);
-}
-
-/** Feet and inches of a length, inches rounded up ("15 ft 2 in"; "11 in" below a foot). */
-export function feetInchesUp(mm: number): string {
-  const totalIn = Math.ceil(mm / MM_PER_IN - 1e-9);
-  const ft = Math.floor(totalIn / 12);
-  const inches = totalIn - ft * 12;
-  return ft === 0 ? `${inches} in` : `${ft} ft ${inches} in`;
-}
-
-/** A boundary distance, metres rounded up to the centimetre ("4.61 m"). */
-export function formatMetresUp(mm: number): string {
-  if (!Number.isFinite(mm)) return '—';
-  return `${ceilTo(mm / 1000, 2).toFixed(2)} m`;
-}
-
-/** A boundary distance in both systems, each rounded up: "4.61 m (15 ft 2 in)". */
-export function formatBoundary(mm: number): string {
-  if (!Number.isFinite(mm)) return '—';
-  return `${formatMetresUp(mm)} (${feetInchesUp(mm)})`;
-}
-
-/** The working distance as entered, rounded to the millimetre and the inch: "610 mm (24 in)". */
-export function formatWorkingDistance(mm: number): string {
-  return `${Math.round(mm)} mm (${Math.round(mm / MM_PER_IN)} in)`;
-}
-
-/** Nominal voltage: "480 V", "4.16 kV", "12.47 kV". */
-export function formatVoltage(volts: number): string {
-  if (!Number.isFinite(volts)) return '—';
-  if (volts < 1000) return `${Math.round(volts)} V`;
-  return `${Number((volts / 1000).toFixed(3)).toString()} kV`;
-}
+export {
+  ceilTo,
+  feetInchesUp,
+  formatBoundary,
+  formatCalPerCm2,
+  formatJPerCm2,
+  formatMetresUp,
+  formatVoltage,
+  formatWorkingDistance,
+} from '../../shared/labelDisplay';
 
 /** A number with `sig` significant figures, without exponent for ordinary magnitudes ("20.9", "0.786", "1500"). */
 export function formatSig(value: number, sig = 3): string {
@@ -71,12 +30,9 @@ export function formatSeconds(s: number | null): string {
 }
 
 /** The label code in groups of four for reading aloud or typing: "7K3M 9QXW 2R4T BH6N". */
-export function groupCode(code: string): string {
-  return code.replace(/(.{4})(?=.)/g, '$1 ');
-}
+export const groupCode = groupLabelCode;
 
-/** The code at the end of a check address `/l/<code>` (or the whole text when it has no such end). */
+/** The code at the end of a check address `/l/<code>` (or the whole text when it has no well-formed code). */
 export function codeFromCheckUrl(url: string): string {
-  const m = /\/l\/([^/?#\s]+)\/?(?:[?#].*)?$/.exec(url);
-  return m ? decodeURIComponent(m[1]) : url;
+  return parseLabelCode(url) ?? url;
 }

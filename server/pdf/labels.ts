@@ -14,16 +14,14 @@ import type { LabelContent, LabelSize } from '../../shared/schemas/labels';
 import { SAFETY_COLORS, signalPanelColors } from '../../shared/safetyColors';
 import { BLACK, Canvas, WHITE, hexColor, safetyAlertPaths, safetyAlertWidth } from './canvas';
 import { embedFonts, printable, type PdfFonts } from './fonts';
+import { codeFromCheckUrl, groupCode } from './format';
 import {
-  codeFromCheckUrl,
-  feetInchesUp,
-  formatCalPerCm2,
-  formatJPerCm2,
-  formatMetresUp,
-  formatVoltage,
-  formatWorkingDistance,
-  groupCode,
-} from './format';
+  clearedByText,
+  displayText,
+  labelDisplay,
+  type DisplayValue,
+  type LabelDisplay,
+} from '../../shared/labelDisplay';
 import { embedQrImage } from './qr';
 import { textWidth } from './text';
 
@@ -83,27 +81,11 @@ export function sheetCells(size: 'letter' | 'a4'): { left: number; top: number; 
 // ---------------------------------------------------------------------------------------------
 // Values as printed
 
-const HAZARD_STATEMENT = 'ARC FLASH AND SHOCK HAZARD';
-const HAZARD_SUBLINE = 'Qualified persons only. Use the protection below inside the arc-flash boundary.';
-const HAZARD_SUBLINE_NO_PPE = 'Qualified persons only. Do not work on this equipment while it is energized.';
-export const NO_ADEQUATE_PPE_TEXT = 'NO ARC-RATED PPE IS ADEQUATE — DE-ENERGIZE';
+export { NO_ADEQUATE_PPE_TEXT } from '../../shared/labelDisplay';
 
-/** "3.0 m (10 ft 0 in)" → ["3.0 m", "10 ft 0 in"]; anything else stays one part. */
-function splitDistance(text: string | null): [string, string | null] {
-  if (text === null || text.trim() === '') return ['—', null];
-  const m = /^(.*?)\s*\((.*)\)\s*$/.exec(text);
-  return m ? [m[1], m[2]] : [text, null];
-}
-
-function gloveText(glove: string | null): string {
-  if (glove === null || glove.trim() === '') return '—';
-  return glove.replace(/^class\s+/i, '');
-}
-
-function clearingText(c: LabelContent): string {
-  return c.clearingDevice
-    ? `${c.clearingDevice} — ${c.governingCase}`
-    : `No device clears before the arc-duration limit — ${c.governingCase}`;
+/** A printed distance: value with its unit, and the other system on the line below. */
+function distanceParts(d: DisplayValue): [string, string | null] {
+  return [displayText(d), d.secondary ?? null];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -112,6 +94,9 @@ function clearingText(c: LabelContent): string {
 interface Ctx {
   fonts: PdfFonts;
 }
+
+/** A label's printed strings: every text drawn below comes from shared/labelDisplay.ts. */
+type D = LabelDisplay;
 
 function drawSignalPanel(
   cv: Canvas,
@@ -208,20 +193,24 @@ function valueCell(
   sizes: { caption: number; value: number; second: number },
 ): void {
   const h = caption(cv, ctx, label, x, y, w, sizes.caption);
+  // Words ("No arc-rated PPE is adequate", "Avoid contact") in the text face on up to two lines; numbers in mono.
+  const wordy = !/\d/.test(value) && /[a-z]{3}/i.test(value);
   const v = cv.text(value, x, y + h + 1, w, {
-    font: ctx.fonts.monoBold,
-    size: sizes.value,
-    minSize: sizes.value * 0.6,
+    font: wordy ? ctx.fonts.textBold : ctx.fonts.monoBold,
+    size: wordy ? Math.min(sizes.value, 9) : sizes.value,
+    minSize: wordy ? 6 : Math.max(6, sizes.value * 0.6),
+    maxLines: wordy ? 2 : 1,
+    lineHeight: 1.1,
   });
   if (second)
     cv.text(second, x, y + h + 1 + v.height, w, {
       font: ctx.fonts.mono,
       size: sizes.second,
-      minSize: sizes.second * 0.7,
+      minSize: Math.max(6, sizes.second * 0.7),
     });
 }
 
-function noPpeBox(cv: Canvas, ctx: Ctx, x: number, y: number, w: number, h: number, size: number): void {
+function noPpeBox(cv: Canvas, ctx: Ctx, text: string, x: number, y: number, w: number, h: number, size: number): void {
   cv.rect(x, y, w, h, { stroke: BLACK, lineWidth: 1.5 });
   const pad = 3;
   const opts = {
@@ -232,7 +221,7 @@ function noPpeBox(cv: Canvas, ctx: Ctx, x: number, y: number, w: number, h: numb
     align: 'center' as const,
     lineHeight: 1.1,
   };
-  const fitted = cv.fit(NO_ADEQUATE_PPE_TEXT, w - 2 * pad, opts);
+  const fitted = cv.fit(text, w - 2 * pad, opts);
   cv.drawFitted(fitted, x + pad, y + (h - fitted.height) / 2, w - 2 * pad, opts);
 }
 
@@ -262,8 +251,14 @@ function drawQr(
   }
 }
 
+/** True when the PPE cell shows a refusal (no adequate PPE, no level) instead of a level. */
+function ppeRefused(d: D, c: LabelContent): boolean {
+  return c.noAdequatePpe || c.ppeLevel === null || c.incidentEnergyCalPerCm2 > 40 || d.ppeLevel.value === '';
+}
+
 /** 4 × 6 in, portrait (288 × 432 pt). */
 function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: string): void {
+  const d = labelDisplay(c);
   const W = TALL_W;
   const H = TALL_H;
   const f = ctx.fonts;
@@ -275,14 +270,9 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   drawSignalPanel(cv, ctx, c, 7, 7, W - 14, 54, 36);
 
   let y = 66;
-  cv.text(HAZARD_STATEMENT, L, y, CW, { font: f.textBold, size: 16, minSize: 10, align: 'center' });
+  cv.text(d.hazardStatement.value, L, y, CW, { font: f.textBold, size: 16, minSize: 10, align: 'center' });
   y += 20;
-  cv.text(c.noAdequatePpe ? HAZARD_SUBLINE_NO_PPE : HAZARD_SUBLINE, L, y, CW, {
-    font: f.text,
-    size: 7.5,
-    minSize: 5.5,
-    align: 'center',
-  });
+  cv.text(d.hazardCaution.value, L, y, CW, { font: f.text, size: 7.5, minSize: 6, align: 'center', maxLines: 2 });
   y += 13;
   cv.line(L, y, R, y, { width: 1 });
 
@@ -292,35 +282,63 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   const rightX = L + leftW + 8;
   const rightW = R - rightX;
   caption(cv, ctx, 'Incident energy', L, y, leftW, 7);
-  numberWithUnit(cv, ctx, formatCalPerCm2(c.incidentEnergyCalPerCm2), 'cal/cm²', L, y + 10, leftW, 30, 11);
-  cv.text(`${formatJPerCm2(c.incidentEnergyJPerCm2)} J/cm²`, L, y + 40, leftW, { font: f.mono, size: 9, minSize: 6 });
-  cv.text(`at a working distance of ${formatWorkingDistance(c.workingDistanceMm)}`, L, y + 51, leftW, {
-    font: f.text,
-    size: 7,
-    minSize: 5.5,
-  });
+  numberWithUnit(cv, ctx, d.incidentEnergy.value, d.incidentEnergy.unit, L, y + 10, leftW, 30, 11);
+  cv.text(d.incidentEnergy.secondary ?? '', L, y + 40, leftW, { font: f.mono, size: 9, minSize: 6 });
+  cv.text(
+    `at a working distance of ${displayText(d.workingDistance)} (${d.workingDistance.secondary})`,
+    L,
+    y + 51,
+    leftW,
+    {
+      font: f.text,
+      size: 7,
+      minSize: 6,
+    },
+  );
   cv.line(rightX - 4, y, rightX - 4, y + 60, { width: 0.5 });
   caption(cv, ctx, 'Arc-flash boundary', rightX, y, rightW, 7);
-  cv.text(formatMetresUp(c.arcFlashBoundaryMm), rightX, y + 12, rightW, { font: f.monoBold, size: 18, minSize: 9 });
-  cv.text(feetInchesUp(c.arcFlashBoundaryMm), rightX, y + 34, rightW, { font: f.mono, size: 10, minSize: 6 });
+  cv.text(displayText(d.arcFlashBoundary), rightX, y + 12, rightW, { font: f.monoBold, size: 18, minSize: 9 });
+  cv.text(d.arcFlashBoundary.secondary ?? '', rightX, y + 34, rightW, { font: f.mono, size: 10, minSize: 6 });
   y += 64;
 
   // Minimum arc rating and PPE level.
   cv.line(L, y, R, y, { width: 0.5 });
   y += 4;
   const arcW = CW * 0.36;
-  valueCell(cv, ctx, 'Minimum arc rating', `${c.minimumArcRatingCalPerCm2} cal/cm²`, null, L, y, arcW, {
-    caption: 6.5,
-    value: 12,
-    second: 8,
-  });
+  valueCell(
+    cv,
+    ctx,
+    'Minimum arc rating',
+    displayText(d.minimumArcRating),
+    d.minimumArcRating.secondary ?? null,
+    L,
+    y,
+    arcW,
+    {
+      caption: 6.5,
+      value: 12,
+      second: 8,
+    },
+  );
   const ppeX = L + arcW + 8;
   const ppeW = R - ppeX;
-  if (c.noAdequatePpe) {
-    noPpeBox(cv, ctx, ppeX, y - 1, ppeW, 28, 10);
+  if (ppeRefused(d, c)) {
+    noPpeBox(cv, ctx, d.ppeLevel.value, ppeX, y - 1, ppeW, 28, 10);
   } else {
     caption(cv, ctx, 'PPE level', ppeX, y, ppeW, 6.5);
-    cv.text(c.ppeLevel ?? '—', ppeX, y + 8, ppeW, { font: f.textBold, size: 11, minSize: 6.5, maxLines: 2 });
+    const lv = cv.text(d.ppeLevel.value, ppeX, y + 8, ppeW, {
+      font: f.textBold,
+      size: 11,
+      minSize: 6.5,
+      maxLines: d.ppeLevel.secondary ? 1 : 2,
+    });
+    if (d.ppeLevel.secondary)
+      cv.text(d.ppeLevel.secondary, ppeX, y + 8 + lv.height, ppeW, {
+        font: f.text,
+        size: 6.5,
+        minSize: 6,
+        maxLines: 2,
+      });
   }
   y += 31;
   cv.line(L, y, R, y, { width: 1 });
@@ -329,14 +347,14 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   y += 5;
   const third = (CW - 16) / 3;
   const sizes = { caption: 6, value: 10, second: 8 };
-  valueCell(cv, ctx, 'Nominal voltage', formatVoltage(c.nominalVoltageV), null, L, y, third, { ...sizes, value: 14 });
-  valueCell(cv, ctx, 'Glove class', gloveText(c.gloveClass), null, L + third + 8, y, third, { ...sizes, value: 14 });
-  const [rm, ri] = splitDistance(c.restrictedApproach);
+  valueCell(cv, ctx, 'Nominal voltage', displayText(d.nominalVoltage), null, L, y, third, { ...sizes, value: 14 });
+  valueCell(cv, ctx, 'Glove class', displayText(d.gloveClass), null, L + third + 8, y, third, { ...sizes, value: 14 });
+  const [rm, ri] = distanceParts(d.restrictedApproach);
   valueCell(cv, ctx, 'Restricted approach', rm, ri, L + 2 * (third + 8), y, third, sizes);
   y += 34;
   const half = (CW - 8) / 2;
-  const [mm, mi] = splitDistance(c.limitedApproachMovable);
-  const [fm, fi] = splitDistance(c.limitedApproachFixed);
+  const [mm, mi] = distanceParts(d.limitedApproachMovable);
+  const [fm, fi] = distanceParts(d.limitedApproachFixed);
   valueCell(cv, ctx, 'Limited approach, movable conductor', mm, mi, L, y, half, sizes);
   valueCell(cv, ctx, 'Limited approach, fixed circuit part', fm, fi, L + half + 8, y, half, sizes);
   y += 34;
@@ -350,31 +368,32 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   const eqW = qrX - L - 2;
   caption(cv, ctx, 'Equipment', L, y, eqW, 6.5);
   y += 8;
-  y += cv.text(c.equipmentTag, L, y, eqW, { font: f.monoBold, size: 13, minSize: 7 }).height;
-  y += cv.text(c.equipmentName, L, y, eqW, { font: f.textBold, size: 10, minSize: 6.5, maxLines: 2 }).height;
-  y += cv.text(c.siteName, L, y, eqW, { font: f.text, size: 7.5, minSize: 5.5 }).height + 3;
+  y += cv.text(d.equipmentTag.value, L, y, eqW, { font: f.monoBold, size: 13, minSize: 7 }).height;
+  y += cv.text(d.equipmentName.value, L, y, eqW, { font: f.textBold, size: 10, minSize: 6.5, maxLines: 2 }).height;
+  y += cv.text(d.siteName.value, L, y, eqW, { font: f.text, size: 7.5, minSize: 6 }).height + 3;
   caption(cv, ctx, 'Cleared by', L, y, eqW, 6);
   y += 7;
-  cv.text(clearingText(c), L, y, eqW, { font: f.text, size: 7, minSize: 5, maxLines: 2 });
+  cv.text(clearedByText(d.clearedBy), L, y, eqW, { font: f.text, size: 7, minSize: 6, maxLines: 3 });
   y = top + 84;
   const third3 = (eqW - 8) / 3;
-  const small = { caption: 5.5, value: 8.5, second: 7 };
-  valueCell(cv, ctx, 'Study date', c.studyDate, null, L, y, third3 + 6, small);
-  valueCell(cv, ctx, 'Review by', c.reviewByDate, null, L + third3 + 10, y, third3 + 6, small);
-  valueCell(cv, ctx, 'Revision', String(c.studyRevision), null, L + 2 * third3 + 20, y, third3 - 12, small);
+  const small = { caption: 6, value: 8.5, second: 7 };
+  valueCell(cv, ctx, 'Study date', d.studyDate.value, null, L, y, third3 + 6, small);
+  valueCell(cv, ctx, 'Review by', d.reviewByDate.value, null, L + third3 + 10, y, third3 + 6, small);
+  valueCell(cv, ctx, 'Revision', d.studyRevision.value, null, L + 2 * third3 + 20, y, third3 - 12, small);
   drawQr(cv, ctx, qr, checkUrl, qrX, top - 3, qrSize, true);
 
   // Study, approval and caution, at the foot.
   y = top + 106;
   cv.line(L, y, R, y, { width: 0.5 });
   y += 3;
-  y += cv.text(`Study: ${c.studyTitle}`, L, y, CW, { font: f.text, size: 6.5, minSize: 5 }).height;
-  cv.text(`Approved by ${c.approvedBy}`, L, y, CW, { font: f.text, size: 6.5, minSize: 4.5 });
-  cv.text(c.caution, L, H - 24, CW, { font: f.text, size: 6, minSize: 4.5, maxLines: 2 });
+  y += cv.text(`Study: ${d.studyTitle.value}`, L, y, CW, { font: f.text, size: 6.5, minSize: 6 }).height;
+  cv.text(`Approved by ${d.approvedBy.value}`, L, y, CW, { font: f.text, size: 6.5, minSize: 6 });
+  cv.text(d.caution.value, L, H - 24, CW, { font: f.text, size: 6, minSize: 6, maxLines: 2 });
 }
 
 /** 4 × 4 in (288 × 288 pt); also drawn scaled into sheet cells. */
 function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: string): void {
+  const d = labelDisplay(c);
   const W = COMPACT;
   const H = COMPACT;
   const f = ctx.fonts;
@@ -383,11 +402,13 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   const R = W - 9;
   const CW = R - L;
 
-  drawSignalPanel(cv, ctx, c, 6, 6, W - 12, 38, 26);
+  drawSignalPanel(cv, ctx, c, 6, 6, W - 12, 34, 24);
 
-  let y = 47;
-  cv.text(HAZARD_STATEMENT, L, y, CW, { font: f.textBold, size: 12.5, minSize: 8, align: 'center' });
-  y += 16;
+  let y = 42;
+  cv.text(d.hazardStatement.value, L, y, CW, { font: f.textBold, size: 12, minSize: 8, align: 'center' });
+  y += 14;
+  cv.text(d.hazardCaution.value, L, y, CW, { font: f.text, size: 6.5, minSize: 6, align: 'center', maxLines: 1 });
+  y += 9;
   cv.line(L, y, R, y, { width: 1 });
 
   y += 3;
@@ -395,53 +416,72 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   const rightX = L + leftW + 7;
   const rightW = R - rightX;
   caption(cv, ctx, 'Incident energy', L, y, leftW, 6);
-  numberWithUnit(cv, ctx, formatCalPerCm2(c.incidentEnergyCalPerCm2), 'cal/cm²', L, y + 8, leftW, 22, 9);
+  numberWithUnit(cv, ctx, d.incidentEnergy.value, d.incidentEnergy.unit, L, y + 8, leftW, 22, 9);
   cv.text(
-    `${formatJPerCm2(c.incidentEnergyJPerCm2)} J/cm² at ${formatWorkingDistance(c.workingDistanceMm)}`,
+    `${d.incidentEnergy.secondary ?? ''} at ${displayText(d.workingDistance)} (${d.workingDistance.secondary})`,
     L,
     y + 31,
     leftW,
     {
       font: f.mono,
       size: 6.5,
-      minSize: 4.8,
+      minSize: 6,
+      maxLines: 2,
     },
   );
   cv.line(rightX - 3.5, y, rightX - 3.5, y + 40, { width: 0.5 });
   caption(cv, ctx, 'Arc-flash boundary', rightX, y, rightW, 6);
-  cv.text(formatMetresUp(c.arcFlashBoundaryMm), rightX, y + 9, rightW, { font: f.monoBold, size: 14, minSize: 8 });
-  cv.text(feetInchesUp(c.arcFlashBoundaryMm), rightX, y + 27, rightW, { font: f.mono, size: 8, minSize: 5 });
+  cv.text(displayText(d.arcFlashBoundary), rightX, y + 9, rightW, { font: f.monoBold, size: 14, minSize: 8 });
+  cv.text(d.arcFlashBoundary.secondary ?? '', rightX, y + 27, rightW, { font: f.mono, size: 8, minSize: 6 });
   y += 42;
 
   cv.line(L, y, R, y, { width: 0.5 });
   y += 3;
   const arcW = CW * 0.34;
-  valueCell(cv, ctx, 'Minimum arc rating', `${c.minimumArcRatingCalPerCm2} cal/cm²`, null, L, y, arcW, {
-    caption: 5.5,
+  valueCell(cv, ctx, 'Minimum arc rating', displayText(d.minimumArcRating), null, L, y, arcW, {
+    caption: 6,
     value: 9.5,
     second: 7,
   });
   const ppeX = L + arcW + 6;
   const ppeW = R - ppeX;
-  if (c.noAdequatePpe) {
-    noPpeBox(cv, ctx, ppeX, y, ppeW, 19, 8.5);
+  if (ppeRefused(d, c)) {
+    noPpeBox(cv, ctx, d.ppeLevel.value, ppeX, y, ppeW, 19, 8.5);
   } else {
-    caption(cv, ctx, 'PPE level', ppeX, y, ppeW, 5.5);
-    cv.text(c.ppeLevel ?? '—', ppeX, y + 7, ppeW, { font: f.textBold, size: 9, minSize: 5.5, maxLines: 2 });
+    caption(cv, ctx, 'PPE level', ppeX, y, ppeW, 6);
+    const lv = cv.text(d.ppeLevel.value, ppeX, y + 7, ppeW, {
+      font: f.textBold,
+      size: 9,
+      minSize: 6,
+      maxLines: d.ppeLevel.secondary ? 1 : 2,
+    });
+    if (d.ppeLevel.secondary)
+      cv.text(d.ppeLevel.secondary, ppeX, y + 7 + lv.height, ppeW, { font: f.text, size: 6, minSize: 6, maxLines: 1 });
   }
   y += 23;
   cv.line(L, y, R, y, { width: 1 });
 
   y += 3;
   const third = (CW - 10) / 3;
-  const sizes = { caption: 5, value: 8, second: 6.5 };
-  valueCell(cv, ctx, 'Nominal voltage', formatVoltage(c.nominalVoltageV), null, L, y, third, { ...sizes, value: 10 });
-  valueCell(cv, ctx, 'Glove class', gloveText(c.gloveClass), null, L + third + 5, y, third, { ...sizes, value: 10 });
-  valueCell(cv, ctx, 'Restricted approach', c.restrictedApproach ?? '—', null, L + 2 * (third + 5), y, third, sizes);
+  const sizes = { caption: 6, value: 8, second: 6.5 };
+  valueCell(cv, ctx, 'Nominal voltage', displayText(d.nominalVoltage), null, L, y, third, { ...sizes, value: 10 });
+  valueCell(cv, ctx, 'Glove class', displayText(d.gloveClass), null, L + third + 5, y, third, { ...sizes, value: 10 });
+  const approach = (a: DisplayValue) => (a.secondary ? `${displayText(a)} (${a.secondary})` : displayText(a));
+  valueCell(cv, ctx, 'Restricted approach', approach(d.restrictedApproach), null, L + 2 * (third + 5), y, third, sizes);
   y += 20;
   const half = (CW - 6) / 2;
-  valueCell(cv, ctx, 'Limited approach, movable', c.limitedApproachMovable ?? '—', null, L, y, half, sizes);
-  valueCell(cv, ctx, 'Limited approach, fixed part', c.limitedApproachFixed ?? '—', null, L + half + 6, y, half, sizes);
+  valueCell(cv, ctx, 'Limited approach, movable', approach(d.limitedApproachMovable), null, L, y, half, sizes);
+  valueCell(
+    cv,
+    ctx,
+    'Limited approach, fixed part',
+    approach(d.limitedApproachFixed),
+    null,
+    L + half + 6,
+    y,
+    half,
+    sizes,
+  );
   y += 20;
   cv.line(L, y, R, y, { width: 1 });
 
@@ -450,26 +490,26 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   const qrSize = 72;
   const qrX = R - qrSize + 2.5;
   const eqW = qrX - L - 1;
-  y += cv.text(c.equipmentTag, L, y, eqW, { font: f.monoBold, size: 10.5, minSize: 6 }).height;
-  y += cv.text(c.equipmentName, L, y, eqW, { font: f.textBold, size: 8.5, minSize: 5.5, maxLines: 2 }).height;
-  y += cv.text(c.siteName, L, y, eqW, { font: f.text, size: 6.5, minSize: 4.8 }).height + 2;
+  y += cv.text(d.equipmentTag.value, L, y, eqW, { font: f.monoBold, size: 10.5, minSize: 6 }).height;
+  y += cv.text(d.equipmentName.value, L, y, eqW, { font: f.textBold, size: 8.5, minSize: 6, maxLines: 2 }).height;
+  y += cv.text(d.siteName.value, L, y, eqW, { font: f.text, size: 6.5, minSize: 6 }).height + 2;
   y +=
-    cv.text(`Cleared by ${clearingText(c)}`, L, y, eqW, { font: f.text, size: 5.8, minSize: 4.5, maxLines: 2 }).height +
-    2;
-  y += cv.text(`Study date ${c.studyDate}  ·  Review by ${c.reviewByDate}`, L, y, eqW, {
+    cv.text(`Cleared by ${clearedByText(d.clearedBy)}`, L, y, eqW, { font: f.text, size: 6, minSize: 6, maxLines: 2 })
+      .height + 2;
+  y += cv.text(`Study date ${d.studyDate.value}  ·  Review by ${d.reviewByDate.value}`, L, y, eqW, {
     font: f.monoBold,
     size: 6,
-    minSize: 4.5,
+    minSize: 6,
   }).height;
-  y += cv.text(`Study: ${c.studyTitle}, revision ${c.studyRevision}`, L, y, eqW, {
+  y += cv.text(`Study: ${d.studyTitle.value}, revision ${d.studyRevision.value}`, L, y, eqW, {
     font: f.text,
-    size: 5.8,
-    minSize: 4.5,
+    size: 6,
+    minSize: 6,
   }).height;
-  cv.text(`Approved by ${c.approvedBy}`, L, y, eqW, { font: f.text, size: 5.8, minSize: 4.2, maxLines: 2 });
+  cv.text(`Approved by ${d.approvedBy.value}`, L, y, eqW, { font: f.text, size: 6, minSize: 6, maxLines: 2 });
   drawQr(cv, ctx, qr, checkUrl, qrX, top - 2, qrSize, false);
 
-  cv.text(c.caution, L, H - 19.5, CW, { font: f.text, size: 5.2, minSize: 4.2, maxLines: 2 });
+  cv.text(d.caution.value, L, H - 19.5, CW, { font: f.text, size: 6, minSize: 6, maxLines: 2 });
 }
 
 function drawCutLines(page: PDFPage, size: 'letter' | 'a4'): void {

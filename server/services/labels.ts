@@ -2,6 +2,8 @@ import { randomBytes, randomUUID } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import { REPORT_KINDS } from '../../shared/schemas/fieldReports';
 import type { LabelCheck, LabelContent, LabelDto, LabelStatus } from '../../shared/schemas/labels';
+import { LABEL_CODE_ALPHABET, isLabelCode, normalizeLabelCode, parseLabelCode } from '../../shared/labelCode';
+import { LABEL_STATUS_NOTICES, labelDisplay, type UnitOrder } from '../../shared/labelDisplay';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { FieldReport, Label, Site, type Study, User } from '../db/models';
 import type { AppContext, AuthUser } from '../http/context';
@@ -11,10 +13,7 @@ import { addMonths } from './dates';
 import { findSite } from './sites';
 import { findStudy } from './studies';
 
-/** Crockford base32: no I, L, O, U, so a code read aloud or typed from a label is unambiguous. */
-const ALPHABET = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
-
-/** 80 random bits as 16 base32 characters (DESIGN §7: an unguessable code, at least 64 bits). */
+/** 80 random bits as 16 base32 characters (an unguessable code, at least 64 bits). */
 export function newLabelCode(): string {
   const bytes = randomBytes(10);
   let bits = 0;
@@ -24,7 +23,7 @@ export function newLabelCode(): string {
     value = (value << 8) | b;
     bits += 8;
     while (bits >= 5) {
-      out += ALPHABET[(value >>> (bits - 5)) & 31];
+      out += LABEL_CODE_ALPHABET[(value >>> (bits - 5)) & 31];
       bits -= 5;
     }
   }
@@ -32,14 +31,29 @@ export function newLabelCode(): string {
 }
 
 /** Codes are typed by people: accept lower case, spaces and dashes, and the look-alikes O→0, I/L→1. */
-export function normalizeCode(raw: string): string {
-  return raw.toUpperCase().replace(/[\s-]/g, '').replace(/O/g, '0').replace(/[IL]/g, '1');
-}
+export const normalizeCode = normalizeLabelCode;
 
 const day = (d: Date) => d.toISOString().slice(0, 10);
 
 export const LABEL_CAUTION =
   'Values from an engineering study (IEEE 1584-2018). De-energize where possible; follow the electrical safety program.';
+
+type Trace = StudyResults['buses'][number]['cases'][number];
+
+/** "CB-2 (Main breaker)": a device of a clearing trace by id and name, the same words everywhere. */
+function deviceName(trace: Trace, deviceId: string): string {
+  const name = trace.devices.find((d) => d.deviceId === deviceId)?.name;
+  return name && name !== deviceId ? `${deviceId} (${name})` : deviceId;
+}
+
+/** With several sources: the devices that cut off the sources other than the one the clearing device ends. */
+function otherSourcesClearedBy(trace: Trace): string[] {
+  const ids = new Set<string>();
+  for (const s of trace.sources)
+    if (s.reason === 'device' && s.cutByDeviceId && s.cutByDeviceId !== trace.clearingDeviceId)
+      ids.add(s.cutByDeviceId);
+  return [...ids].map((id) => deviceName(trace, id));
+}
 
 /** Label content of every labelled bus of an approved run (a snapshot: it never changes afterwards). */
 export function labelContents(
@@ -48,6 +62,7 @@ export function labelContents(
   site: Site,
   approvedAt: Date,
   reviewBy: Date,
+  unitOrder?: UnitOrder,
 ): { tag: string; content: LabelContent }[] {
   const out: { tag: string; content: LabelContent }[] = [];
   for (const b of results.buses) {
@@ -73,9 +88,7 @@ export function labelContents(
         limitedApproachFixed: lv.shockApproach?.limitedApproachFixed.text ?? null,
         restrictedApproach: lv.shockApproach?.restrictedApproach.text ?? null,
         gloveClass: lv.gloveClass ? `Class ${lv.gloveClass.class}` : null,
-        clearingDevice: governing?.clearingDeviceId
-          ? `${governing.clearingDeviceId}${governing.devices.find((d) => d.deviceId === governing.clearingDeviceId)?.name ? ` (${governing.devices.find((d) => d.deviceId === governing.clearingDeviceId)?.name})` : ''}`
-          : null,
+        clearingDevice: governing?.clearingDeviceId ? deviceName(governing, governing.clearingDeviceId) : null,
         governingCase: `${b.governing?.arcCase === 'reduced' ? 'reduced' : 'full'} arcing current${b.governing?.location === 'line-side' ? ', line side of the main' : ''}`,
         studyTitle: study.title,
         studyRevision: study.revision,
@@ -83,6 +96,10 @@ export function labelContents(
         reviewByDate: day(reviewBy),
         approvedBy: `${study.approverName ?? ''}, licence ${study.licenceNumber ?? ''} (${study.jurisdiction ?? ''})`,
         caution: LABEL_CAUTION,
+        otherSourcesClearedBy: governing ? otherSourcesClearedBy(governing) : [],
+        arcDurationCapS: results.maxArcDurationMs / 1000,
+        ppeDescription: lv.noAdequatePpe ? null : (lv.ppeLevel?.description ?? null),
+        ...(unitOrder ? { unitOrder } : {}),
       },
     });
   }
@@ -99,6 +116,7 @@ export async function issueLabels(
   approvedAt: Date,
   reviewIntervalMonths: number,
   transaction: Transaction,
+  unitOrder?: UnitOrder,
 ): Promise<number> {
   const site = await Site.findByPk(study.siteId, { transaction });
   if (!site) throw ApiError.notFound('No such site');
@@ -107,7 +125,7 @@ export async function issueLabels(
     { where: { siteId: study.siteId, studyId: { [Op.ne]: study.id }, supersededAt: null }, transaction },
   );
   const reviewBy = addMonths(approvedAt, reviewIntervalMonths);
-  const contents = labelContents(results, study, site, approvedAt, reviewBy);
+  const contents = labelContents(results, study, site, approvedAt, reviewBy, unitOrder);
   for (const c of contents) {
     await Label.create(
       {
@@ -136,20 +154,24 @@ export function labelStatus(label: Pick<Label, 'supersededAt' | 'reviewBy'>, now
 export async function toLabelDtos(labels: Label[], now: Date): Promise<LabelDto[]> {
   const ids = [...new Set(labels.map((l) => l.installedById).filter((x): x is string => !!x))];
   const users = new Map((await User.findAll({ where: { id: ids } })).map((u) => [u.id, u.name]));
-  return labels.map((l) => ({
-    id: l.id,
-    code: l.code,
-    siteId: l.siteId,
-    studyId: l.studyId,
-    equipmentTag: l.equipmentTag,
-    status: labelStatus(l, now),
-    content: JSON.parse(l.content) as LabelContent,
-    issuedAt: l.issuedAt.toISOString(),
-    printedAt: l.printedAt ? l.printedAt.toISOString() : null,
-    installedAt: l.installedAt ? l.installedAt.toISOString() : null,
-    installedBy: l.installedById ? (users.get(l.installedById) ?? null) : null,
-    supersededAt: l.supersededAt ? l.supersededAt.toISOString() : null,
-  }));
+  return labels.map((l) => {
+    const content = JSON.parse(l.content) as LabelContent;
+    return {
+      id: l.id,
+      code: l.code,
+      siteId: l.siteId,
+      studyId: l.studyId,
+      equipmentTag: l.equipmentTag,
+      status: labelStatus(l, now),
+      content,
+      display: labelDisplay(content),
+      issuedAt: l.issuedAt.toISOString(),
+      printedAt: l.printedAt ? l.printedAt.toISOString() : null,
+      installedAt: l.installedAt ? l.installedAt.toISOString() : null,
+      installedBy: l.installedById ? (users.get(l.installedById) ?? null) : null,
+      supersededAt: l.supersededAt ? l.supersededAt.toISOString() : null,
+    };
+  });
 }
 
 export async function listLabels(
@@ -185,8 +207,8 @@ export async function findLabel(actor: AuthUser, labelId: string, transaction?: 
  * current label of the same equipment says. Nothing else of the organization is revealed.
  */
 export async function checkLabel(ctx: AppContext, rawCode: string): Promise<LabelCheck> {
-  const code = normalizeCode(rawCode);
-  const label = /^[0-9A-Z]{16}$/.test(code) ? await Label.findOne({ where: { code } }) : null;
+  const code = parseLabelCode(rawCode);
+  const label = code && isLabelCode(code) ? await Label.findOne({ where: { code } }) : null;
   if (!label) throw ApiError.notFound('No label has this code. Check the code, or report the label as not matching.');
   const now = ctx.now();
   const status = labelStatus(label, now);
@@ -198,11 +220,15 @@ export async function checkLabel(ctx: AppContext, rawCode: string): Promise<Labe
     });
     current = newer ? (JSON.parse(newer.content) as LabelContent) : null;
   }
+  const content = JSON.parse(label.content) as LabelContent;
   return {
     code: label.code,
     status,
-    content: JSON.parse(label.content) as LabelContent,
+    statusNotice: LABEL_STATUS_NOTICES[status],
+    content,
+    display: labelDisplay(content),
     current,
+    currentDisplay: current ? labelDisplay(current) : null,
     checkedAt: now.toISOString(),
   };
 }

@@ -360,6 +360,7 @@ export async function approveStudy(
       now,
       settings.reviewIntervalMonths,
       transaction,
+      settings.labelUnitOrder,
     );
     await recordAudit(
       {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { LABEL_DISPLAY_FIELDS, type LabelDisplayField } from '../labelDisplay';
 
 export const LABEL_STATUSES = ['current', 'superseded', 'past-review'] as const;
 export const labelStatusSchema = z.enum(LABEL_STATUSES);
@@ -40,9 +41,30 @@ export const labelContentSchema = z
     reviewByDate: z.string().describe('YYYY-MM-DD'),
     approvedBy: z.string().describe('Approving engineer, licence number and jurisdiction'),
     caution: z.string(),
+    otherSourcesClearedBy: z
+      .array(z.string())
+      .optional()
+      .describe(
+        'With several sources: the devices that cut off the sources other than the one the clearing device ends',
+      ),
+    arcDurationCapS: z.number().optional().describe('The arc-duration cap of the study, s'),
+    ppeDescription: z.string().nullable().optional().describe('The clothing and equipment of the PPE level'),
+    unitOrder: z.enum(['us-first', 'si-first']).optional().describe('Units printed first: US customary or SI'),
   })
   .meta({ id: 'LabelContent' });
 export type LabelContent = z.infer<typeof labelContentSchema>;
+
+const displayValueSchema = z.object({ value: z.string(), unit: z.string(), secondary: z.string().optional() });
+
+/** Every printed field of a label as the exact strings printed (shared/labelDisplay.ts). */
+export const labelDisplaySchema = z
+  .object(
+    Object.fromEntries(LABEL_DISPLAY_FIELDS.map((f) => [f, displayValueSchema])) as Record<
+      LabelDisplayField,
+      typeof displayValueSchema
+    >,
+  )
+  .meta({ id: 'LabelDisplay' });
 
 export const labelSchema = z
   .object({
@@ -53,6 +75,7 @@ export const labelSchema = z
     equipmentTag: z.string(),
     status: labelStatusSchema,
     content: labelContentSchema,
+    display: labelDisplaySchema.describe('What the label prints, field by field'),
     issuedAt: z.string(),
     printedAt: z.string().nullable(),
     installedAt: z.string().nullable(),
@@ -68,9 +91,12 @@ export const labelCheckSchema = z
     code: z.string(),
     status: labelStatusSchema,
     content: labelContentSchema,
+    display: labelDisplaySchema.describe('What this label prints, field by field'),
     current: labelContentSchema
       .nullable()
       .describe('When superseded: what the current label of the same equipment says'),
+    currentDisplay: labelDisplaySchema.nullable().describe('When superseded: what the current label prints'),
+    statusNotice: z.string().describe('What the check says about the status'),
     checkedAt: z.string(),
   })
   .meta({ id: 'LabelCheck' });

@@ -69,6 +69,10 @@ export const organizationSettingsSchema = z
       .max(365)
       .default(30)
       .describe('An approved label not marked installed this many days after issue needs attention'),
+    labelUnitOrder: z
+      .enum(['us-first', 'si-first'])
+      .default('si-first')
+      .describe('Units printed first on labels: US customary (ft-in, then m) or SI (m, then ft-in)'),
     reminderHourUtc: z
       .number()
       .int('Whole hours')

@@ -58,7 +58,16 @@ describe('labels', () => {
     const res = await request(t.app).get(`/api/labels/${oldCode}`);
     expect(res.status).toBe(200);
     expect(res.body.status).toBe('current');
-    expect(Object.keys(res.body).sort()).toEqual(['checkedAt', 'code', 'content', 'current', 'status']);
+    expect(Object.keys(res.body).sort()).toEqual([
+      'checkedAt',
+      'code',
+      'content',
+      'current',
+      'currentDisplay',
+      'display',
+      'status',
+      'statusNotice',
+    ]);
     // Exactly the label's fields, nothing more (strict parse fails on any extra key).
     expect(labelContentSchema.strict().safeParse(res.body.content).success).toBe(true);
     // Lower case and dashes as people type them.
