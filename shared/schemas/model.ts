@@ -152,6 +152,60 @@ export const generatorSourceSchema = z
     kv: positive.describe('Rated line-to-line kV'),
     subtransientPct: positive.max(100).describe('Subtransient reactance X"d, percent on the machine rating'),
     xr: positive.describe('X/R ratio'),
+    transientPct: positive
+      .max(1000)
+      .optional()
+      .describe("Transient reactance X'd, percent on the machine rating; omitted: a typical value, with a warning"),
+    synchronousPct: positive
+      .max(1000)
+      .optional()
+      .describe('Synchronous reactance Xd, percent on the machine rating; omitted: a typical value, with a warning'),
+    sustainedCurrentMultiple: positive
+      .max(20)
+      .optional()
+      .describe('Sustained fault current with excitation support, multiple of rated current (instead of Xd)'),
+    subtransientTimeConstantS: positive
+      .max(10)
+      .optional()
+      .describe('Short-circuit subtransient time constant T"d, s; omitted: a typical value, with a warning'),
+    transientTimeConstantS: positive
+      .max(100)
+      .optional()
+      .describe("Short-circuit transient time constant T'd, s; omitted: a typical value, with a warning"),
+  })
+  .superRefine((g, ctx) => {
+    if (g.synchronousPct !== undefined && g.sustainedCurrentMultiple !== undefined) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['sustainedCurrentMultiple'],
+        message: 'Give synchronousPct or sustainedCurrentMultiple, not both',
+      });
+    }
+    if (g.transientPct !== undefined && g.transientPct < g.subtransientPct) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['transientPct'],
+        message: 'transientPct must not be below subtransientPct',
+      });
+    }
+    if (g.synchronousPct !== undefined && g.synchronousPct < (g.transientPct ?? g.subtransientPct)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['synchronousPct'],
+        message: 'synchronousPct must not be below transientPct (or subtransientPct)',
+      });
+    }
+    if (
+      g.subtransientTimeConstantS !== undefined &&
+      g.transientTimeConstantS !== undefined &&
+      g.subtransientTimeConstantS >= g.transientTimeConstantS
+    ) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['subtransientTimeConstantS'],
+        message: 'subtransientTimeConstantS must be below transientTimeConstantS',
+      });
+    }
   })
   .meta({ id: 'GeneratorSource' });
 

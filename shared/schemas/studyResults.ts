@@ -20,10 +20,31 @@ export const deviceReadingSchema = z.object({
   minimumTimeS: z.number().nullable(),
   region: tripRegionSchema,
   warnings: z.array(warning),
+  /** When it operates as the current it sees changes during the arc (∫ dt / t(I) = 1, IEEE C37.112); null if not before the arc ends. */
+  operatedAtS: z.number().nullable().default(null),
+  /** The element that operated and its region. */
+  operatingElement: z.string().nullable().default(null),
+  operatingRegion: tripRegionSchema.nullable().default(null),
+  /** Elements that had started timing and stopped because the current fell below their pickup. */
+  dropouts: z.array(z.object({ element: z.string(), atS: z.number() })).default([]),
 });
 export type DeviceReading = z.infer<typeof deviceReadingSchema>;
 
-/** A stretch of the arc during which the same sources feed it (time-stepped energy with several sources). */
+/** One time step of the arc: its currents (the higher of its two ends) and its energy. */
+export const arcStepSchema = z.object({
+  fromS: z.number(),
+  toS: z.number(),
+  boltedFaultKa: z.number(),
+  arcingCurrentKa: z.number(),
+  incidentEnergyJPerCm2: z.number(),
+  /** Devices that operate at the end of this step. */
+  openedDeviceIds: z.array(z.string()).default([]),
+});
+
+/**
+ * A stretch of the arc during which the same sources feed it. Its currents are those of its first step (they fall
+ * within the stretch while a generator or motor contribution decays); its energy is the sum of its steps.
+ */
 export const arcIntervalSchema = z.object({
   fromS: z.number(),
   toS: z.number(),
@@ -32,6 +53,9 @@ export const arcIntervalSchema = z.object({
   boltedFaultKa: z.number(),
   arcingCurrentKa: z.number(),
   incidentEnergyJPerCm2: z.number(),
+  /** Devices that operate within or at the end of the stretch. */
+  openedDeviceIds: z.array(z.string()).default([]),
+  steps: z.array(arcStepSchema).default([]),
 });
 
 export const sourceCutSchema = z.object({
@@ -109,6 +133,8 @@ export const studyResultsSchema = z
     method: z.string(),
     maxArcDurationMs: z.number(),
     motorDecayS: z.number(),
+    /** 'step': motors feed in full for motorDecayS then stop; 'exponential': e^(−t/τ), τ = motorDecayS. */
+    motorDecayModel: z.enum(['step', 'exponential']).default('step'),
     buses: z.array(busResultSchema),
     warnings: z.array(warning),
   })

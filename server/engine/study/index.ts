@@ -2,8 +2,19 @@ export {
   createStudyRunner,
   runStudy,
   DEFAULT_MOTOR_DECAY_CYCLES,
+  DEFAULT_MOTOR_DECAY_MODEL,
+  type MotorDecayModel,
   type StudyOptions,
   type StudyRunner,
 } from './runStudy';
 export { resolveEquipment, type ResolvedEquipment } from './equipment';
 export { boundaryDistanceMm, BOUNDARY_ENERGY_J_PER_CM2 } from './boundary';
+export {
+  generatorDecrementProfile,
+  motorExponentialProfile,
+  motorStepProfile,
+  resolveGenerator,
+  TYPICAL_GENERATOR,
+  type ContributionProfile,
+} from './decrement';
+export { createTripIntegrator, operatingTimeS, type TripIntegrator } from './tripIntegration';

@@ -9,12 +9,22 @@
  * - Each device sees the bolted current through its branch (from the short-circuit solution, at its own voltage)
  *   scaled by I_arc / I_bf of the case: the arc current divides among the paths as the bolted current does.
  * - Several sources: each source's (and motor's) share of the fault is its bolted contribution referred to the bus
- *   voltage over their sum (magnitudes). A source stops feeding the arc when every path from it to the bus is opened
- *   by devices in order of their clearing times. Between those instants the remaining sources give a smaller
- *   bolted and arcing current; the energy of each interval is added (E is proportional to T for a given current,
- *   IEEE 1584-2018 Eqs. 3-6). Clearing times are read once at the initial currents (not re-read as the currents
- *   change after a source drops): a first-order approximation, stated on the result.
- * - Induction motors feed the arc for `motorDecayCycles` at most (common practice, no source).
+ *   voltage over their sum (magnitudes). Each device's current is split among the sources by proportional sharing
+ *   along the fault-current flow (each bus passes on the mix of the currents that enter it).
+ * - Time-varying currents: a generator's contribution follows its decrement (subtransient → transient →
+ *   sustained, `decrement.ts`), a motor's stops after `motorDecayCycles` (step model, the default) or decays
+ *   exponentially with that time constant (option), and a source stops when every path from it to the bus is
+ *   opened. The arc is followed in steps (one step between events while every current is constant; fractions of
+ *   the fastest active time constant while a current decays): in each step the bolted current is the sum of the
+ *   contributions still feeding, the arcing current follows from it (IEEE 1584-2018 Eqs. 1, 25), and each device
+ *   advances its operation by dt / t(I) at the current it then sees (IEEE C37.112 integral for time-varying
+ *   current, `tripIntegration.ts`); a device opens when that integral reaches 1. A step is an eighth of the fastest
+ *   time constant still acting, lengthened while the bolted current changes by at most 1 % over it. Within a step
+ *   the device is read at the lower and the energy at the higher of the step's end currents (the higher hazard
+ *   either way).
+ * - Energy: IEEE 1584-2018 energy is proportional to the arc duration at a constant arcing current (Eqs. 3-6), so
+ *   with a varying current the energy of each step is computed with that step's arcing current and duration and
+ *   the steps are added.
  */
 import type { EnclosureSizeMm } from '../../../shared/equipmentClasses';
 import type { Device, TripRegion } from '../../../shared/schemas/device';
@@ -33,20 +43,47 @@ import { computeLabelValues, type LabelSettings } from '../labelValues';
 import { createShortCircuitSolver, type BusFault, type ShortCircuitSolver } from '../shortcircuit';
 import { clearingTime } from '../trip';
 import { boundaryDistanceMm } from './boundary';
+import {
+  CONSTANT_PROFILE,
+  generatorDecrementProfile,
+  motorExponentialProfile,
+  motorStepProfile,
+  resolveGenerator,
+  type ContributionProfile,
+} from './decrement';
 import { resolveEquipment, type ResolvedEquipment } from './equipment';
+import { createTripIntegrator, type TripIntegrator } from './tripIntegration';
 
 export interface StudyOptions {
   /** Cap of the arc duration, ms (IEEE 1584 2 s guidance; an organization setting). */
   maxArcDurationMs?: number;
   /** Cycles an induction motor keeps feeding the arc (common practice, no source). */
   motorDecayCycles?: number;
+  /**
+   * 'step' (default): a motor feeds its full first-cycle contribution for `motorDecayCycles`, then stops.
+   * 'exponential': it decays as e^(−t/τ) with τ = `motorDecayCycles` cycles, dropped after 5 τ (common practice,
+   * no source). The step stays the default so results stay comparable; both give the same ampere-seconds.
+   */
+  motorDecayModel?: MotorDecayModel;
   labelSettings?: LabelSettings;
 }
 
+export type MotorDecayModel = 'step' | 'exponential';
 export const DEFAULT_MOTOR_DECAY_CYCLES = 5;
+export const DEFAULT_MOTOR_DECAY_MODEL: MotorDecayModel = 'step';
 const J_PER_CAL = 4.184;
 /** A share of the fault current below this counts as zero. */
 const NEGLIGIBLE = 1e-9;
+/** While a current decays, a step is this fraction of the fastest active time constant. */
+const STEP_FRACTION_OF_TIME_CONSTANT = 0.125;
+/** A step is lengthened while the bolted current changes by at most this fraction over it. */
+const MAX_STEP_CHANGE = 0.01;
+/** Shortest step, s. */
+const MIN_STEP_S = 1e-4;
+/** Two instants closer than this are one event, s. */
+const EVENT_SLACK_S = 1e-12;
+/** Guard against a run-away loop (never reached with the steps above below a 10 s cap). */
+const MAX_STEPS = 20000;
 
 const fmt = (v: number, digits = 3) => Number(v.toPrecision(digits)).toString();
 
@@ -55,6 +92,8 @@ interface Contributor {
   kind: 'utility' | 'generator' | 'motor';
   bus: string;
   share: number;
+  /** Its contribution over time as a ratio to the first-cycle contribution. */
+  profile: ContributionProfile;
 }
 
 interface PathDevice {
@@ -65,12 +104,16 @@ interface PathDevice {
   boltedCurrentA: number;
   kv: number;
   location: string;
+  /** The mix of sources in its current (contributor id → fraction, summing to 1). */
+  mix: Map<string, number>;
 }
 
 interface Edge {
   id: string;
   from: string;
   to: string;
+  /** Its current referred to the fault bus voltage, as a share of the bolted fault current. */
+  share: number;
 }
 
 /** The flow of fault current for a fault at one bus: directed edges toward the fault, contributors, devices. */
@@ -80,29 +123,104 @@ interface FaultPicture {
   edges: Edge[];
   contributors: Contributor[];
   devices: PathDevice[];
+  /** Generator data taken from typical values (`<id>.<field>`), with their warnings. */
+  typicalValuesUsed: string[];
+  warnings: EngineWarning[];
 }
 
-function kvOf(model: Model, busId: string): number {
-  return model.buses.find((b) => b.id === busId)?.nominalKv ?? NaN;
+interface PictureContext {
+  model: Model;
+  solver: ShortCircuitSolver;
+  kvByBus: Map<string, number>;
+  motorIds: Set<string>;
+  sourceById: Map<string, Model['sources'][number]>;
+  motorProfile: ContributionProfile;
 }
 
-function faultPicture(model: Model, solver: ShortCircuitSolver, bus: Bus): FaultPicture {
+/**
+ * Proportional sharing along the fault-current flow: every bus passes on, to each branch leaving it toward the
+ * fault, the mix of the currents entering it (injections and incoming branches, weighted by their shares). One pass
+ * in topological order over the directed edges; a bus on a circulating loop (no order) gets the mix of the whole
+ * fault. Returns the mix leaving each bus.
+ */
+function traceMixes(edges: Edge[], contributors: Contributor[]): Map<string, Map<string, number>> {
+  const incoming = new Map<string, Edge[]>();
+  const outgoing = new Map<string, Edge[]>();
+  const indegree = new Map<string, number>();
+  for (const e of edges) {
+    (incoming.get(e.to) ?? incoming.set(e.to, []).get(e.to)!).push(e);
+    (outgoing.get(e.from) ?? outgoing.set(e.from, []).get(e.from)!).push(e);
+    indegree.set(e.to, (indegree.get(e.to) ?? 0) + 1);
+    if (!indegree.has(e.from)) indegree.set(e.from, 0);
+  }
+  const injections = new Map<string, Contributor[]>();
+  for (const c of contributors) (injections.get(c.bus) ?? injections.set(c.bus, []).get(c.bus)!).push(c);
+  const mixes = new Map<string, Map<string, number>>();
+  const queue = [...indegree].filter(([, n]) => n === 0).map(([b]) => b);
+  while (queue.length) {
+    const bus = queue.pop() as string;
+    const sum = new Map<string, number>();
+    for (const c of injections.get(bus) ?? []) sum.set(c.id, (sum.get(c.id) ?? 0) + c.share);
+    for (const e of incoming.get(bus) ?? []) {
+      for (const [id, f] of mixes.get(e.from) ?? []) sum.set(id, (sum.get(id) ?? 0) + f * e.share);
+    }
+    const total = [...sum.values()].reduce((a, b) => a + b, 0);
+    if (total > 0) for (const [id, v] of sum) sum.set(id, v / total);
+    mixes.set(bus, sum);
+    for (const e of outgoing.get(bus) ?? []) {
+      const n = (indegree.get(e.to) as number) - 1;
+      indegree.set(e.to, n);
+      if (n === 0) queue.push(e.to);
+    }
+  }
+  return mixes;
+}
+
+function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
+  const { model, solver, kvByBus } = ctx;
+  const kvOf = (id: string) => kvByBus.get(id) ?? NaN;
   const fault = solver.faultAt(bus.id);
+  const kvFault = bus.nominalKv;
+  const ibfA = fault.boltedFaultKa * 1000;
   const edges: Edge[] = [];
   const branchById = new Map(fault.branches.map((b) => [b.id, b]));
   for (const b of fault.branches) {
     if (b.direction === 'none' || !b.towardBus) continue;
-    edges.push({ id: b.id, from: b.towardBus === b.toBus ? b.fromBus : b.toBus, to: b.towardBus });
+    const atFaultSide = b.towardBus === b.toBus ? b.toCurrentA : b.fromCurrentA;
+    edges.push({
+      id: b.id,
+      from: b.towardBus === b.toBus ? b.fromBus : b.toBus,
+      to: b.towardBus,
+      share: ibfA > 0 ? (atFaultSide * kvOf(b.towardBus)) / kvFault / ibfA : 0,
+    });
   }
-  const kvFault = bus.nominalKv;
-  const kindOf = (id: string): Contributor['kind'] =>
-    model.motors.some((m) => m.id === id) ? 'motor' : (model.sources.find((s) => s.id === id)?.kind ?? 'utility');
-  const referred = fault.injections.map((i) => ({ i, a: (i.currentA * kvOf(model, i.bus)) / kvFault }));
+  const referred = fault.injections.map((i) => ({ i, a: (i.currentA * kvOf(i.bus)) / kvFault }));
   const total = referred.reduce((s, r) => s + r.a, 0);
+  const typicalValuesUsed: string[] = [];
+  const warnings: EngineWarning[] = [];
   const contributors: Contributor[] = referred
     .filter((r) => total > 0 && r.a / total > NEGLIGIBLE)
-    .map((r) => ({ id: r.i.id, kind: kindOf(r.i.id), bus: r.i.bus, share: r.a / total }));
+    .map((r) => {
+      const source = ctx.sourceById.get(r.i.id);
+      const kind: Contributor['kind'] = ctx.motorIds.has(r.i.id) ? 'motor' : (source?.kind ?? 'utility');
+      let profile = CONSTANT_PROFILE;
+      if (kind === 'motor') profile = ctx.motorProfile;
+      else if (source?.kind === 'generator') {
+        const g = resolveGenerator(source);
+        typicalValuesUsed.push(...g.typicalValuesUsed);
+        warnings.push(...g.warnings);
+        // Reactance between the terminals and the fault from the first-cycle contribution: X"d + Xe = E / I(0).
+        const ratedA = (source.kva * 1000) / (Math.sqrt(3) * kvOf(r.i.bus) * 1000);
+        const i0Pu = r.i.currentA / ratedA;
+        const externalPu = (model.prefaultPu ?? 1) / i0Pu - g.subtransientPu;
+        profile = generatorDecrementProfile({ ...g, externalPu });
+      }
+      return { id: r.i.id, kind, bus: r.i.bus, share: r.a / total, profile };
+    });
 
+  const mixes = traceMixes(edges, contributors);
+  const wholeFault = new Map(contributors.map((c) => [c.id, c.share]));
+  const edgeById = new Map(edges.map((e) => [e.id, e]));
   const injectionById = new Map(fault.injections.map((i) => [i.id, i]));
   const devices: PathDevice[] = [];
   for (const placed of model.devices) {
@@ -110,13 +228,15 @@ function faultPicture(model: Model, solver: ShortCircuitSolver, bus: Bus): Fault
       const b = branchById.get(placed.branch);
       if (!b || b.direction === 'none') continue;
       const atBus = placed.end === 'from' ? b.fromBus : b.toBus;
+      const e = edgeById.get(b.id);
       devices.push({
         placed,
         branchId: b.id,
         sourceId: null,
         boltedCurrentA: placed.end === 'from' ? b.fromCurrentA : b.toCurrentA,
-        kv: kvOf(model, atBus),
+        kv: kvOf(atBus),
         location: `${b.id} (${placed.end} end, at ${atBus})`,
+        mix: (e && mixes.get(e.from)) ?? wholeFault,
       });
     } else if (placed.source) {
       const inj = injectionById.get(placed.source);
@@ -126,12 +246,13 @@ function faultPicture(model: Model, solver: ShortCircuitSolver, bus: Bus): Fault
         branchId: null,
         sourceId: inj.id,
         boltedCurrentA: inj.currentA,
-        kv: kvOf(model, inj.bus),
+        kv: kvOf(inj.bus),
         location: `${inj.id} at ${inj.bus}`,
+        mix: new Map([[inj.id, 1]]),
       });
     }
   }
-  return { bus, fault, edges, contributors, devices };
+  return { bus, fault, edges, contributors, devices, typicalValuesUsed, warnings };
 }
 
 /** Whether `from` still reaches `to` over the edges not opened. */
@@ -160,7 +281,6 @@ interface CaseInput {
   location: 'load-side' | 'line-side';
   excluded: Set<string>;
   maxArcDurationS: number;
-  motorDecayS: number;
 }
 
 function readDevices(input: CaseInput, scale: number): DeviceReading[] {
@@ -181,91 +301,237 @@ function readDevices(input: CaseInput, scale: number): DeviceReading[] {
         minimumTimeS: r.minimumTimeS,
         region: r.region,
         warnings: r.warnings,
+        operatedAtS: null,
+        operatingElement: null,
+        operatingRegion: null,
+        dropouts: [],
       };
     });
 }
 
-/** One arcing case at one location: device readings, source cut-off times, intervals, energy and boundary. */
+type StopReason = 'device' | 'motor-decay' | 'cap';
+interface Stop {
+  t: number;
+  by: string | null;
+  reason: StopReason;
+}
+
+/** The state of the arc at one instant with a given set of live contributors. */
+interface ArcState {
+  /** Live contributors' current ratios (id → I(t)/I(0)); missing = not feeding. */
+  ratio: Map<string, number>;
+  /** Bolted fault current of the live contributors, as a share of the first-cycle bolted current. */
+  share: number;
+  arcing: ArcingCurrents | null;
+  /** I_arc / I_bf of this instant (the factor on each device's bolted current). */
+  arcOverBolted: number;
+}
+
+/** One arcing case at one location: the arc followed in time, devices operating, energy and boundary. */
 function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace {
   const { picture, equipment, arcing, arcCase } = input;
   const iarcKa = arcing.arcingCurrentKa[arcCase];
-  const readings = readDevices(input, iarcKa / picture.fault.boltedFaultKa);
+  const ibfKa = picture.fault.boltedFaultKa;
+  const readings = readDevices(input, iarcKa / ibfKa);
+  const readingById = new Map(readings.map((r) => [r.deviceId, r]));
   const byId = new Map(picture.devices.map((d) => [d.placed.id, d]));
+  const active = picture.devices.filter((d) => !input.excluded.has(d.placed.id));
+  const integrators = new Map(active.map((d) => [d.placed.id, createTripIntegrator(d.placed.device as Device)]));
+  const capS = input.maxArcDurationS;
 
-  // Open devices in order of their (maximum-curve) clearing times; a source stops when it can no longer reach the bus.
-  const order = readings
-    .filter((r) => r.clearingTimeS !== null && r.clearingTimeS < input.maxArcDurationS)
-    .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number));
+  const stop = new Map<string, Stop>();
+  const live = () => picture.contributors.filter((c) => !stop.has(c.id));
+  const arcingCache = new Map<number, ArcingCurrents>();
+  const stateAt = (t: number, feeding: Contributor[]): ArcState => {
+    const ratio = new Map<string, number>();
+    let share = 0;
+    let untouched = feeding.length === picture.contributors.length;
+    for (const c of feeding) {
+      const r = c.profile.ratioAt(t);
+      if (r !== 1) untouched = false;
+      ratio.set(c.id, r);
+      share += c.share * r;
+    }
+    if (untouched) return { ratio, share: 1, arcing, arcOverBolted: iarcKa / ibfKa };
+    if (!(share > NEGLIGIBLE)) return { ratio, share: 0, arcing: null, arcOverBolted: 0 };
+    const ibf = ibfKa * Math.min(1, share);
+    let a = arcingCache.get(ibf);
+    if (!a) {
+      a = computeArcingCurrents({
+        voltageV: arcing.voltageV,
+        boltedFaultKa: ibf,
+        electrodeConfig: arcing.electrodeConfig,
+        gapMm: arcing.gapMm,
+      });
+      arcingCache.set(ibf, a);
+    }
+    return { ratio, share, arcing: a, arcOverBolted: a.arcingCurrentKa[arcCase] / ibf };
+  };
+  const deviceCurrentA = (d: PathDevice, s: ArcState): number => {
+    if (s.share === 1 && s.ratio.size === picture.contributors.length) return d.boltedCurrentA * s.arcOverBolted;
+    let w = 0;
+    for (const [id, f] of d.mix) w += f * (s.ratio.get(id) ?? 0);
+    return d.boltedCurrentA * w * s.arcOverBolted;
+  };
+
+  interface Step {
+    fromS: number;
+    toS: number;
+    sourceIds: string[];
+    boltedFaultKa: number;
+    arcingCurrentKa: number;
+    arcing: ArcingCurrents;
+    incidentEnergyJPerCm2: number;
+    opened: string[];
+  }
+  const steps: Step[] = [];
+  const stepWarningCodes = new Set(arcing.warnings.map((w) => w.code));
   const openedEdges = new Set<string>();
   const openedSources = new Set<string>();
-  const stop = new Map<string, { t: number; by: string | null; reason: 'device' | 'motor-decay' | 'cap' }>();
-  const live = () => picture.contributors.filter((c) => !stop.has(c.id));
-  for (const r of order) {
-    const d = byId.get(r.deviceId) as PathDevice;
-    if (d.branchId) openedEdges.add(d.branchId);
-    if (d.sourceId) openedSources.add(d.sourceId);
-    for (const c of live()) {
-      if (openedSources.has(c.id) || !reaches(c.bus, picture.bus.id, picture.edges, openedEdges)) {
-        stop.set(c.id, { t: r.clearingTimeS as number, by: r.deviceId, reason: 'device' });
+  const opened = new Set<string>();
+  let t = 0;
+  for (let guard = 0; guard < MAX_STEPS; guard++) {
+    const feeding = live();
+    if (!feeding.length) break;
+    if (t >= capS - EVENT_SLACK_S) {
+      for (const c of feeding) stop.set(c.id, { t: capS, by: null, reason: 'cap' });
+      break;
+    }
+    // The step: to the next scheduled event, or a fraction of the fastest time constant still acting.
+    let next = capS;
+    let scale = Infinity;
+    for (const c of feeding) {
+      if (c.profile.endS > t + EVENT_SLACK_S) next = Math.min(next, c.profile.endS);
+      scale = Math.min(scale, c.profile.scaleS(t));
+    }
+    let tEnd = next;
+    if (Number.isFinite(scale)) {
+      // A fraction of the time constant, lengthened while the bolted current changes by at most 1 % over the step.
+      const shareAt = (x: number) => feeding.reduce((sum, c) => sum + c.share * c.profile.ratioAt(x), 0);
+      const s0 = shareAt(t);
+      let dt = Math.max(MIN_STEP_S, STEP_FRACTION_OF_TIME_CONSTANT * scale);
+      for (let k = 0; k < 8 && t + 2 * dt < next && Math.abs(shareAt(t + 2 * dt) - s0) <= MAX_STEP_CHANGE * s0; k++)
+        dt *= 2;
+      tEnd = Math.min(next, t + dt);
+    }
+    const start = stateAt(t, feeding);
+    const end0 = stateAt(tEnd, feeding);
+    // Each device is read at the lower of its currents at the two ends of the step (the slower operation).
+    const tripCurrent = new Map<string, number>();
+    let firstOp = Infinity;
+    for (const d of active) {
+      if (opened.has(d.placed.id)) continue;
+      const i = Math.min(deviceCurrentA(d, start), deviceCurrentA(d, end0));
+      tripCurrent.set(d.placed.id, i);
+      firstOp = Math.min(firstOp, (integrators.get(d.placed.id) as TripIntegrator).timeToOperateS(i));
+    }
+    if (t + firstOp < tEnd) tEnd = t + firstOp;
+    const dt = tEnd - t;
+    const justOpened: string[] = [];
+    for (const [id, i] of tripCurrent) {
+      if ((integrators.get(id) as TripIntegrator).advance(i, t, dt)) justOpened.push(id);
+    }
+    // Energy of the step at the higher of its end currents (the higher hazard).
+    const end = tEnd === t + dt && dt > 0 ? stateAt(tEnd, feeding) : end0;
+    if (dt > 0 && start.arcing) {
+      const candidates = [start, end].filter((s): s is ArcState & { arcing: ArcingCurrents } => s.arcing !== null);
+      let best: { s: ArcState & { arcing: ArcingCurrents }; e: number } | null = null;
+      for (const s of candidates) {
+        const e = computeCaseEnergy(
+          s.arcing,
+          arcCase,
+          input.enclosureCorrectionFactor,
+          dt * 1000,
+          equipment.workingDistanceMm,
+        ).incidentEnergyJPerCm2;
+        if (!best || e > best.e) best = { s, e };
+      }
+      if (best) {
+        // Model-range notes that first appear as the current falls (e.g. a bolted current below the model range).
+        for (const w of best.s.arcing.warnings) {
+          if (stepWarningCodes.has(w.code)) continue;
+          stepWarningCodes.add(w.code);
+          warnings.push({ code: w.code, message: `${arcCase} case, from ${fmt(t)} s into the arc: ${w.message}` });
+        }
+        steps.push({
+          fromS: t,
+          toS: tEnd,
+          sourceIds: feeding.map((c) => c.id),
+          boltedFaultKa: ibfKa * Math.min(1, best.s.share),
+          arcingCurrentKa: best.s.arcing.arcingCurrentKa[arcCase],
+          arcing: best.s.arcing,
+          incidentEnergyJPerCm2: best.e,
+          opened: [],
+        });
       }
     }
-    if (!live().length) break;
-  }
-  for (const c of picture.contributors) {
-    const s = stop.get(c.id);
-    if (c.kind === 'motor' && (!s || s.t > input.motorDecayS))
-      stop.set(c.id, { t: input.motorDecayS, by: null, reason: 'motor-decay' });
-    else if (!s) stop.set(c.id, { t: input.maxArcDurationS, by: null, reason: 'cap' });
-  }
-
-  // Intervals between successive stops; energy adds up (E ∝ T at a given current).
-  const times = [...new Set([...stop.values()].map((s) => Math.min(s.t, input.maxArcDurationS)))].sort((a, b) => a - b);
-  const intervals: ArcCaseTrace['intervals'] = [];
-  const parts: { arcing: ArcingCurrents; durationMs: number }[] = [];
-  let from = 0;
-  for (const t of times) {
-    const feeding = picture.contributors.filter((c) => (stop.get(c.id) as { t: number }).t >= t);
-    const share = feeding.reduce((s, c) => s + c.share, 0);
-    if (t > from && share > NEGLIGIBLE) {
-      const ibf = picture.fault.boltedFaultKa * Math.min(1, share);
-      const a =
-        Math.abs(share - 1) < 1e-12
-          ? arcing
-          : computeArcingCurrents({
-              voltageV: arcing.voltageV,
-              boltedFaultKa: ibf,
-              electrodeConfig: arcing.electrodeConfig,
-              gapMm: arcing.gapMm,
-            });
-      const durationMs = (t - from) * 1000;
-      const e = computeCaseEnergy(
-        a,
-        arcCase,
-        input.enclosureCorrectionFactor,
-        durationMs,
-        equipment.workingDistanceMm,
-      ).incidentEnergyJPerCm2;
-      intervals.push({
-        fromS: from,
-        toS: t,
-        sourceIds: feeding.map((c) => c.id),
-        boltedFaultKa: ibf,
-        arcingCurrentKa: a.arcingCurrentKa[arcCase],
-        incidentEnergyJPerCm2: e,
-      });
-      parts.push({ arcing: a, durationMs });
+    t = tEnd;
+    // Devices that operated open their branch or source; a source stops when it no longer reaches the bus.
+    for (const id of justOpened) {
+      opened.add(id);
+      const d = byId.get(id) as PathDevice;
+      const op = (integrators.get(id) as TripIntegrator).operated;
+      const r = readingById.get(id) as DeviceReading;
+      r.operatedAtS = t;
+      r.operatingElement = op?.element ?? null;
+      r.operatingRegion = op?.region ?? null;
+      if (d.branchId) openedEdges.add(d.branchId);
+      if (d.sourceId) openedSources.add(d.sourceId);
+      if (steps.length && steps[steps.length - 1].toS === t) steps[steps.length - 1].opened.push(id);
+      for (const c of live()) {
+        if (openedSources.has(c.id) || !reaches(c.bus, picture.bus.id, picture.edges, openedEdges))
+          stop.set(c.id, { t, by: id, reason: 'device' });
+      }
     }
-    from = t;
+    for (const c of live()) {
+      if (c.profile.endS <= t + EVENT_SLACK_S) stop.set(c.id, { t: c.profile.endS, by: null, reason: 'motor-decay' });
+    }
   }
+  for (const c of live()) stop.set(c.id, { t: capS, by: null, reason: 'cap' });
+  for (const r of readings)
+    r.dropouts = [...(integrators.get(r.deviceId)?.dropouts ?? [])].map((x) => ({ element: x.element, atS: x.atS }));
+
+  // Intervals: the steps grouped while the same sources feed the arc.
+  const intervals: ArcCaseTrace['intervals'] = [];
+  for (const s of steps) {
+    const last = intervals[intervals.length - 1];
+    const key = s.sourceIds.join('\u0000');
+    const stepOut = {
+      fromS: s.fromS,
+      toS: s.toS,
+      boltedFaultKa: s.boltedFaultKa,
+      arcingCurrentKa: s.arcingCurrentKa,
+      incidentEnergyJPerCm2: s.incidentEnergyJPerCm2,
+      openedDeviceIds: s.opened,
+    };
+    if (last && last.sourceIds.join('\u0000') === key) {
+      last.toS = s.toS;
+      last.incidentEnergyJPerCm2 += s.incidentEnergyJPerCm2;
+      last.openedDeviceIds = [...(last.openedDeviceIds ?? []), ...s.opened];
+      last.steps = [...(last.steps ?? []), stepOut];
+    } else {
+      intervals.push({
+        fromS: s.fromS,
+        toS: s.toS,
+        sourceIds: s.sourceIds,
+        boltedFaultKa: s.boltedFaultKa,
+        arcingCurrentKa: s.arcingCurrentKa,
+        incidentEnergyJPerCm2: s.incidentEnergyJPerCm2,
+        openedDeviceIds: [...s.opened],
+        steps: [stepOut],
+      });
+    }
+  }
+  const parts = steps.map((s) => ({ arcing: s.arcing, durationMs: (s.toS - s.fromS) * 1000 }));
   const energyAt = (dMm: number) =>
     parts.reduce(
-      (s, p) =>
-        s +
+      (sum, p) =>
+        sum +
         computeCaseEnergy(p.arcing, arcCase, input.enclosureCorrectionFactor, p.durationMs, dMm).incidentEnergyJPerCm2,
       0,
     );
-  const energyJ = intervals.reduce((s, i) => s + i.incidentEnergyJPerCm2, 0);
-  // One interval: the published boundary equation (Eqs. 7-10, 22-24); several: the distance where the sum is 5.0 J/cm².
+  const energyJ = steps.reduce((s, i) => s + i.incidentEnergyJPerCm2, 0);
+  // One step: the published boundary equation (Eqs. 7-10, 22-24); several: the distance where the sum is 5.0 J/cm².
   const boundaryMm =
     parts.length === 1
       ? computeCaseEnergy(
@@ -279,11 +545,11 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
         ? 0
         : boundaryDistanceMm(energyAt);
 
-  const arcEnd = times.length ? Math.min(times[times.length - 1], input.maxArcDurationS) : 0;
+  const stopTimes = [...stop.values()].map((s) => Math.min(s.t, capS));
+  const arcEnd = stopTimes.length ? Math.max(...stopTimes) : 0;
   // The clearing device is the one that cuts off the last utility or generator source; motors on the faulted side
   // may keep feeding the arc until their contribution decays (stated in the sentence).
-  const stopOf = (c: Contributor) =>
-    stop.get(c.id) as { t: number; by: string | null; reason: 'device' | 'motor-decay' | 'cap' };
+  const stopOf = (c: Contributor) => stop.get(c.id) as Stop;
   const mains = picture.contributors.filter((c) => c.kind !== 'motor');
   const lastMain = mains.reduce<Contributor | null>((m, c) => (!m || stopOf(c).t > stopOf(m).t ? c : m), null);
   const ender = lastMain && stopOf(lastMain).reason === 'device' ? stopOf(lastMain).by : null;
@@ -292,25 +558,40 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const motorTail = picture.contributors.filter(
     (c) => c.kind === 'motor' && stopOf(c).reason === 'motor-decay' && (!lastMain || stopOf(c).t > stopOf(lastMain).t),
   );
+  const varying = picture.contributors.filter((c) => c.kind === 'generator');
   const busLabel = picture.bus.id;
   const caseName = arcCase === 'full' ? 'arcing current' : 'reduced arcing current';
   const side = input.location === 'line-side' ? ' (line side of the main)' : '';
+  const dropoutText = (r: DeviceReading) =>
+    r.dropouts.length
+      ? ` ${r.deviceId}'s ${r.dropouts.map((x) => `${x.element} element stopped timing at ${fmt(x.atS)} s`).join(', ')} as the current it sees fell below the pickup.`
+      : '';
   let sentence: string;
   if (endReading && !capped) {
     const dev = byId.get(endReading.deviceId) as PathDevice;
     const many = mains.length > 1 ? `; it cuts off the last of ${mains.length} sources` : '';
+    const at = endReading.operatedAtS as number;
+    const region = endReading.operatingRegion ?? endReading.region;
+    const initial =
+      endReading.clearingTimeS === null || Math.abs(endReading.clearingTimeS - at) > 1e-9 * Math.max(1, at)
+        ? ` At the first-cycle current its band gives ${endReading.clearingTimeS === null ? 'no trip' : `${fmt(endReading.clearingTimeS)} s`}; the current it sees changes during the arc${varying.length ? ` (generator decrement: ${varying.map((g) => g.id).join(', ')})` : ''} and its operation is integrated over time (IEEE C37.112).`
+        : '';
     sentence =
-      `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, ${dev.placed.id} clears in its ${REGION_LABELS[endReading.region]} ` +
-      `at ${fmt(endReading.clearingTimeS as number)} s (it sees ${fmt(endReading.currentA / 1000)} kA${dev.kv !== picture.bus.nominalKv ? ` at ${fmt(dev.kv)} kV` : ''}${many}).`;
+      `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, ${dev.placed.id} clears in its ${REGION_LABELS[region]} ` +
+      `at ${fmt(at)} s (it sees ${fmt(endReading.currentA / 1000)} kA at first${dev.kv !== picture.bus.nominalKv ? ` at ${fmt(dev.kv)} kV` : ''}${many}).` +
+      initial +
+      dropoutText(endReading);
   } else if (capped) {
     const late = readings
-      .filter((r) => r.clearingTimeS !== null && r.clearingTimeS >= input.maxArcDurationS)
+      .filter((r) => r.clearingTimeS !== null && r.operatedAtS === null)
       .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))[0];
+    const dropped = readings.filter((r) => r.dropouts.length).slice(0, 2);
     sentence =
-      `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, no protective device clears every source before the ${fmt(input.maxArcDurationS)} s cap; the arc duration is capped` +
+      `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, no protective device clears every source before the ${fmt(capS)} s cap; the arc duration is capped` +
       (late
-        ? ` (${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s).`
-        : '.');
+        ? ` (at the first-cycle current ${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s${varying.length ? `; the generator current decays (${varying.map((g) => g.id).join(', ')})` : ''}).`
+        : '.') +
+      dropped.map(dropoutText).join('');
   } else {
     sentence = `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, only motors feed the arc; it ends at ${fmt(arcEnd)} s as their contribution decays.`;
   }
@@ -320,7 +601,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   if (capped) {
     warnings.push({
       code: 'ARC_DURATION_CAPPED',
-      message: `${input.location === 'line-side' ? 'Line side: ' : ''}${arcCase} case: no device clears every source within ${fmt(input.maxArcDurationS)} s; the arc duration is capped there (IEEE 1584 2 s guidance; not valid where the worker cannot move away).`,
+      message: `${input.location === 'line-side' ? 'Line side: ' : ''}${arcCase} case: no device clears every source within ${fmt(capS)} s; the arc duration is capped there (IEEE 1584 2 s guidance; not valid where the worker cannot move away).`,
     });
   }
   // Warnings of the devices that decide the arc duration (the others are in the trace, e.g. a feeder that only
@@ -328,11 +609,14 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const deciding = new Set([...stop.values()].map((s) => s.by).filter((x): x is string => !!x));
   for (const r of readings) {
     if (!deciding.has(r.deviceId)) continue;
-    for (const w of r.warnings)
+    for (const w of r.warnings) {
+      // NO_TRIP at the first-cycle current does not hold for a device that operated later at another current.
+      if (w.code === 'NO_TRIP' && r.operatedAtS !== null) continue;
       warnings.push({
         code: w.code,
         message: `${r.deviceId} (${arcCase}${input.location === 'line-side' ? ', line side' : ''}): ${w.message}`,
       });
+    }
   }
   return {
     arcCase,
@@ -340,12 +624,12 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     arcingCurrentKa: iarcKa,
     devices: readings,
     sources: picture.contributors.map((c) => {
-      const s = stop.get(c.id) as { t: number; by: string | null; reason: 'device' | 'motor-decay' | 'cap' };
+      const s = stopOf(c);
       return {
         sourceId: c.id,
         kind: c.kind,
         share: c.share,
-        stopsAtS: Math.min(s.t, input.maxArcDurationS),
+        stopsAtS: Math.min(s.t, capS),
         cutByDeviceId: s.by,
         reason: s.reason,
       };
@@ -354,7 +638,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     arcDurationS: arcEnd,
     arcDurationCapped: capped,
     clearingDeviceId: ender,
-    clearingRegion: (endReading?.region ?? null) as TripRegion | null,
+    clearingRegion: (endReading ? (endReading.operatingRegion ?? endReading.region) : null) as TripRegion | null,
     incidentEnergyJPerCm2: energyJ,
     incidentEnergyCalPerCm2: energyJ / J_PER_CAL,
     arcFlashBoundaryMm: boundaryMm,
@@ -390,7 +674,17 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
   const maxArcDurationMs = options.maxArcDurationMs ?? 2000;
   const motorDecayCycles = options.motorDecayCycles ?? DEFAULT_MOTOR_DECAY_CYCLES;
   const motorDecayS = motorDecayCycles / (model.frequencyHz ?? 60);
+  const motorDecayModel = options.motorDecayModel ?? DEFAULT_MOTOR_DECAY_MODEL;
   const scByBus = new Map(solver.result.buses.map((b) => [b.id, b]));
+  const pictureContext: PictureContext = {
+    model,
+    solver,
+    kvByBus: new Map(model.buses.map((b) => [b.id, b.nominalKv])),
+    motorIds: new Set(model.motors.map((m) => m.id)),
+    sourceById: new Map(model.sources.map((s) => [s.id, s])),
+    motorProfile:
+      motorDecayModel === 'exponential' ? motorExponentialProfile(motorDecayS) : motorStepProfile(motorDecayS),
+  };
   const busIds = model.buses.filter((b) => b.equipment).map((b) => b.id);
 
   function runBus(busId: string): BusResult {
@@ -424,14 +718,15 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
           message: `Working distance ${fmt(equipment.workingDistanceMm)} mm is below the IEEE 1584-2018 model range (305 mm).`,
         });
       }
-      const picture = faultPicture(model, solver, bus);
+      const picture = faultPicture(pictureContext, bus);
+      warnings.push(...picture.warnings);
+      equipment.typicalValuesUsed = [...equipment.typicalValuesUsed, ...picture.typicalValuesUsed];
       const common = {
         picture,
         equipment,
         arcing,
         enclosureCorrectionFactor: enclosure.enclosureCorrectionFactor,
         maxArcDurationS: maxArcDurationMs / 1000,
-        motorDecayS,
       };
       const cases: ArcCaseTrace[] = [];
       for (const arcCase of ['full', 'reduced'] as const)
@@ -498,9 +793,11 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
     shortCircuitWarnings: solver.result.warnings,
     runBus,
     finish: (buses) => ({
-      method: 'IEEE 1584-2018 with clearing times read from the trip bands of the devices carrying fault current',
+      method:
+        'IEEE 1584-2018 with the arc followed in time: generator decrement and motor decay, each device operating when the integral of dt / t(I) of its trip band reaches 1 (IEEE C37.112), energy added step by step',
       maxArcDurationMs,
       motorDecayS,
+      motorDecayModel,
       buses,
       warnings: solver.result.warnings,
     }),

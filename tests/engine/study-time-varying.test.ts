@@ -1,0 +1,408 @@
+/**
+ * Time-varying currents during the arc: generator decrement, motor decay, each device's operation integrated over
+ * the current it sees, and the energy added step by step. Sources beside each check.
+ */
+import type { Device } from '../../shared/schemas/device';
+import type { ModelInput } from '../../shared/schemas/model';
+import { modelSchema } from '../../shared/schemas/model';
+import { computeArcingCurrents, computeCaseEnergy, resolveEnclosure } from '../../server/engine/ieee1584/compute';
+import {
+  createStudyRunner,
+  generatorDecrementProfile,
+  motorExponentialProfile,
+  operatingTimeS,
+  resolveGenerator,
+} from '../../server/engine/study';
+import { clearingTime } from '../../server/engine/trip';
+import { expectClose } from '../helpers/approx';
+
+const parse = (m: ModelInput) => modelSchema.parse(m);
+
+describe('operation under a time-varying current (IEEE C37.112 integral ∫ dt / t(I) = 1)', () => {
+  const devices: [string, Device][] = [
+    ['relay IEEE-VI', { kind: 'relay', curve: 'IEEE-VI', pickupA: 100, timeDial: 1, breakerCycles: 5 }],
+    [
+      'electronic LT/ST',
+      {
+        kind: 'electronic',
+        sensorA: 2000,
+        longTime: { pickup: 1, delayS: 10, delayMultiple: 6 },
+        shortTime: { pickup: 4, delayS: 0.3, i2t: true },
+        pickupTolerancePct: 10,
+        clearingS: 0.05,
+      },
+    ],
+    [
+      'fuse',
+      {
+        kind: 'fuse',
+        ratingA: 30,
+        minimumMelt: [
+          [45, 300],
+          [60, 60],
+          [90, 10],
+          [150, 1],
+        ],
+        totalClearing: [
+          [55, 600],
+          [75, 100],
+          [110, 15],
+          [190, 1.5],
+        ],
+      },
+    ],
+  ];
+  const currents: Record<string, number[]> = {
+    'relay IEEE-VI': [250, 800, 2500],
+    'electronic LT/ST': [3000, 6000, 12000],
+    fuse: [80, 120, 170],
+  };
+
+  it.each(devices)(
+    '%s: a constant current gives exactly the constant-current time (the integral of a constant)',
+    (name, device) => {
+      for (const i of currents[name]) {
+        const expected = clearingTime(device, i).clearingTimeS as number;
+        const r = operatingTimeS(device, [{ untilS: Infinity, currentA: i }]);
+        expect(r).not.toBeNull();
+        expectClose(r!.timeS, expected, 1e-12);
+      }
+    },
+  );
+
+  /** Digitized band whose maximum curve passes through (1000 A, 2 s) and (2000 A, 0.5 s). */
+  const band: Device = {
+    kind: 'band',
+    ratingA: 100,
+    currentUnit: 'ampere',
+    min: [
+      [900, 1.5],
+      [1800, 0.4],
+      [4000, 0.2],
+    ],
+    max: [
+      [900, 3],
+      [1000, 2],
+      [2000, 0.5],
+      [4000, 0.25],
+    ],
+  };
+
+  it('a current stepping down mid-arc: the integral worked by hand (IEEE C37.112 integral form)', () => {
+    // t(I1 = 2000 A) = 0.5 s, t(I2 = 1000 A) = 2 s (points of the band). Step at 0.2 s:
+    // consumed 0.2 / 0.5 = 0.4; remaining 1 − 0.4 = 0.6 → 0.6 × 2 s = 1.2 s at I2 → operates at 0.2 + 1.2 = 1.4 s.
+    expectClose(clearingTime(band, 2000).clearingTimeS as number, 0.5, 1e-12);
+    expectClose(clearingTime(band, 1000).clearingTimeS as number, 2, 1e-12);
+    const r = operatingTimeS(band, [
+      { untilS: 0.2, currentA: 2000 },
+      { untilS: Infinity, currentA: 1000 },
+    ]);
+    expectClose(r!.timeS, 1.4, 1e-12);
+    // The other way round (a rising current): 0.2 / 2 = 0.1 consumed; 0.9 × 0.5 s = 0.45 s → 0.65 s.
+    const up = operatingTimeS(band, [
+      { untilS: 0.2, currentA: 1000 },
+      { untilS: Infinity, currentA: 2000 },
+    ]);
+    expectClose(up!.timeS, 0.65, 1e-12);
+  });
+
+  it('a current that falls below the pickup stops the element and its progress is lost (conservative reset, from memory)', () => {
+    // 2000 A for 0.3 s (0.3 / 0.5 = 0.6 consumed), 500 A (below the band's lowest current: no trip) until 0.5 s,
+    // then 2000 A again: it starts over, 0.5 s more → 1.0 s.
+    const r = operatingTimeS(band, [
+      { untilS: 0.3, currentA: 2000 },
+      { untilS: 0.5, currentA: 500 },
+      { untilS: Infinity, currentA: 2000 },
+    ]);
+    expectClose(r!.timeS, 1.0, 1e-12);
+    // Below the pickup for good: it never operates.
+    expect(
+      operatingTimeS(band, [
+        { untilS: 0.3, currentA: 2000 },
+        { untilS: Infinity, currentA: 500 },
+      ]),
+    ).toBeNull();
+  });
+});
+
+describe("generator decrement: i(t) = E[(1/X\"d − 1/X'd)e^(−t/T\"d) + (1/X'd − 1/Xd)e^(−t/T'd) + 1/Xd] (classic envelope, from memory)", () => {
+  it('at the terminals: the ratio to the first-cycle current worked by hand', () => {
+    const p = generatorDecrementProfile({
+      subtransientPu: 0.15,
+      transientPu: 0.25,
+      synchronousPu: 2,
+      subtransientTimeConstantS: 0.02,
+      transientTimeConstantS: 0.2,
+      externalPu: 0,
+    });
+    expectClose(p.ratioAt(0), 1, 1e-12);
+    // t = 0.1 s: (6.6667 − 4) e^(−5) + (4 − 0.5) e^(−0.5) + 0.5 = 0.0179677 + 2.1228572 + 0.5 = 2.6408249;
+    // over 1/X"d = 6.6666667 → 0.3961237.
+    expectClose(p.ratioAt(0.1), 0.3961237, 1e-6);
+    // Sustained: (1/Xd) / (1/X"d) = 0.15 / 2 = 0.075.
+    expectClose(p.ratioAt(100), 0.075, 1e-9);
+  });
+
+  it('behind an external reactance the reactances and time constants are referred to the fault (from memory)', () => {
+    const p = generatorDecrementProfile({
+      subtransientPu: 0.15,
+      transientPu: 0.25,
+      synchronousPu: 2,
+      subtransientTimeConstantS: 0.02,
+      transientTimeConstantS: 0.2,
+      externalPu: 0.1,
+    });
+    // X" = 0.25, X' = 0.35, X = 2.1; T' = 0.2 × 0.35/0.25 × 2/2.1 = 0.2666667 s; T" = 0.02 × 0.25/0.15 × 0.25/0.35
+    // = 0.0238095 s. At t = T' : (4 − 2.8571429) e^(−0.2666667/0.0238095) + (2.8571429 − 0.4761905) e^(−1) + 0.4761905
+    // = 1.1428571 × 0.0000137 + 2.3809524 × 0.3678794 + 0.4761905 = 0.0000157 + 0.8759034 + 0.4761905 = 1.3521096;
+    // over 1/X" = 4 → 0.3380274.
+    expectClose(p.ratioAt(0.2666667), 0.3380274, 1e-6);
+    expectClose(p.ratioAt(100), 0.25 / 2.1, 1e-9);
+  });
+
+  it('takes typical values when the data are missing, each flagged (typical value, from memory)', () => {
+    const g = resolveGenerator({
+      id: 'G',
+      kind: 'generator',
+      bus: 'B',
+      kva: 500,
+      kv: 0.48,
+      subtransientPct: 12,
+      xr: 20,
+    });
+    expect(g.typicalValuesUsed.sort()).toEqual(
+      ['G.subtransientTimeConstantS', 'G.synchronousPct', 'G.transientPct', 'G.transientTimeConstantS'].sort(),
+    );
+    expect(g.warnings.map((w) => w.code)).toEqual(['GENERATOR_TYPICAL_VALUE']);
+    expect(g.warnings[0].message).toContain('from memory');
+    const given = resolveGenerator({
+      id: 'G',
+      kind: 'generator',
+      bus: 'B',
+      kva: 500,
+      kv: 0.48,
+      subtransientPct: 12,
+      xr: 20,
+      transientPct: 20,
+      sustainedCurrentMultiple: 3,
+      subtransientTimeConstantS: 0.02,
+      transientTimeConstantS: 0.3,
+    });
+    expect(given.typicalValuesUsed).toEqual([]);
+    // A sustained-current multiple k stands for Xd = 1/k.
+    expectClose(given.synchronousPu, 1 / 3, 1e-12);
+  });
+
+  it('the model refuses inconsistent generator data, naming the field', () => {
+    const base = {
+      format: 'emberline-model',
+      version: 1,
+      buses: [{ id: 'B', nominalKv: 0.48 }],
+    } as const;
+    const gen = { id: 'G', kind: 'generator', bus: 'B', kva: 500, kv: 0.48, subtransientPct: 12, xr: 20 } as const;
+    const bad = modelSchema.safeParse({ ...base, sources: [{ ...gen, transientPct: 10 }] });
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues[0].path).toContain('transientPct');
+    const both = modelSchema.safeParse({
+      ...base,
+      sources: [{ ...gen, synchronousPct: 200, sustainedCurrentMultiple: 3 }],
+    });
+    expect(both.success).toBe(false);
+    expect(both.error!.issues[0].path).toContain('sustainedCurrentMultiple');
+  });
+});
+
+/** A standby generator alone feeding a switchboard through its breaker. */
+function generatorOnly(): ModelInput {
+  return {
+    format: 'emberline-model',
+    version: 1,
+    frequencyHz: 60,
+    buses: [
+      { id: 'GEN-T', nominalKv: 0.48 },
+      { id: 'SWBD', nominalKv: 0.48, equipment: { class: 'switchgear-lv', mainIsolated: true } },
+    ],
+    sources: [
+      {
+        id: 'GEN',
+        kind: 'generator',
+        bus: 'GEN-T',
+        kva: 500,
+        kv: 0.48,
+        subtransientPct: 12,
+        xr: 20,
+        transientPct: 20,
+        sustainedCurrentMultiple: 3,
+        subtransientTimeConstantS: 0.015,
+        transientTimeConstantS: 0.15,
+      },
+    ],
+    cables: [
+      {
+        id: 'F-GEN',
+        fromBus: 'GEN-T',
+        toBus: 'SWBD',
+        lengthM: 10,
+        sets: 2,
+        size: '500',
+        material: 'Cu',
+        conduit: 'steel',
+      },
+    ],
+    devices: [
+      {
+        id: 'CB-GEN',
+        branch: 'F-GEN',
+        end: 'from',
+        device: {
+          kind: 'electronic',
+          sensorA: 800,
+          longTime: { pickup: 1, delayS: 0.5, delayMultiple: 6 },
+          shortTime: { pickup: 3, delayS: 0.3, i2t: false },
+          pickupTolerancePct: 10,
+          clearingS: 0.05,
+        },
+      },
+    ],
+  } as ModelInput;
+}
+
+describe('a generator-only bus whose sustained current falls below the short-time pickup', () => {
+  // First-cycle current ≈ 1/X"d ≈ 8 × rated (601 A) → above the short-time pickup (3 × 800 A = 2400 A, high edge
+  // 2640 A); it decays toward 3 × rated ≈ 1800 A (sustained multiple), below that pickup but above the long-time
+  // pickup (800 A, high edge 880 A).
+  it('the short-time element stops timing and the arc lasts to the cap, the trace saying why', () => {
+    const bus = createStudyRunner(parse(generatorOnly())).runBus('SWBD');
+    const full = bus.cases.find((c) => c.arcCase === 'full')!;
+    const cb = full.devices.find((d) => d.deviceId === 'CB-GEN')!;
+    // At the first-cycle current its band gives the short-time delay (0.3 s + clearing): no longer true over time.
+    expect(cb.region).toBe('short-time');
+    expect(cb.dropouts.map((d) => d.element)).toContain('short-time');
+    const drop = cb.dropouts.find((d) => d.element === 'short-time')!;
+    expect(drop.atS).toBeLessThan(cb.clearingTimeS as number);
+    expect(full.arcDurationCapped).toBe(true);
+    expectClose(full.arcDurationS, 2, 1e-12);
+    expect(full.sentence).toMatch(
+      /short-time element stopped timing at [0-9.]+ s as the current it sees fell below the pickup/,
+    );
+    expect(full.sentence).toContain('generator current decays');
+    expect(bus.warnings.map((w) => w.code)).toContain('ARC_DURATION_CAPPED');
+  });
+
+  it('with a longer cap, the long-time band clears it, later than its short-time band would at the first-cycle current', () => {
+    const bus = createStudyRunner(parse(generatorOnly()), { maxArcDurationMs: 30000 }).runBus('SWBD');
+    const full = bus.cases.find((c) => c.arcCase === 'full')!;
+    const cb = full.devices.find((d) => d.deviceId === 'CB-GEN')!;
+    expect(full.arcDurationCapped).toBe(false);
+    expect(full.clearingDeviceId).toBe('CB-GEN');
+    expect(cb.operatingElement).toBe('long-time');
+    expect(full.clearingRegion).toBe('long-time');
+    expect(cb.operatedAtS!).toBeGreaterThan(cb.clearingTimeS as number);
+    expectClose(full.arcDurationS, cb.operatedAtS!, 1e-12);
+    // Upper bound: the current only falls, never below the sustained current, whose bolted value is at least
+    // Ibf × X"d/Xd = Ibf × 0.12 × 3 (an external reactance only raises the ratio); the long-time band at the arcing
+    // current of that bolted current (IEEE 1584-2018 Eq. 1) is then the latest it can operate.
+    const sustained = computeArcingCurrents({
+      voltageV: 480,
+      boltedFaultKa: bus.boltedFaultKa * 0.12 * 3,
+      electrodeConfig: 'VCB',
+      gapMm: bus.equipment!.gapMm,
+    }).arcingCurrentKa.full;
+    const latest = clearingTime(generatorOnly().devices![0].device as Device, sustained * 1000).clearingTimeS as number;
+    expect(cb.operatedAtS!).toBeLessThanOrEqual(latest);
+    expect(full.sentence).toContain('long-time');
+  });
+
+  it('adds the energy step by step, each step at its own arcing current (IEEE 1584-2018: E ∝ T at a given current)', () => {
+    const bus = createStudyRunner(parse(generatorOnly())).runBus('SWBD');
+    const eq = bus.equipment!;
+    const full = bus.cases.find((c) => c.arcCase === 'full')!;
+    const enclosure = resolveEnclosure(
+      { electrodeConfig: 'VCB', voltageV: 480, gapMm: eq.gapMm },
+      eq.enclosureMm ?? undefined,
+    );
+    let sum = 0;
+    let steps = 0;
+    for (const i of full.intervals)
+      for (const s of i.steps) {
+        steps++;
+        const a = computeArcingCurrents({
+          voltageV: 480,
+          boltedFaultKa: s.boltedFaultKa,
+          electrodeConfig: 'VCB',
+          gapMm: eq.gapMm,
+        });
+        sum += computeCaseEnergy(
+          a,
+          'full',
+          enclosure.enclosureCorrectionFactor,
+          (s.toS - s.fromS) * 1000,
+          eq.workingDistanceMm,
+        ).incidentEnergyJPerCm2;
+      }
+    expect(steps).toBeGreaterThan(3);
+    expectClose(full.incidentEnergyJPerCm2, sum, 1e-9);
+    // The bolted current of the steps falls with the decrement: the first step holds the first-cycle current.
+    const first = full.intervals[0].steps[0];
+    expectClose(first.boltedFaultKa, bus.boltedFaultKa, 1e-12);
+    const last = full.intervals[full.intervals.length - 1].steps.at(-1)!;
+    expect(last.boltedFaultKa).toBeLessThan(first.boltedFaultKa / 2);
+  });
+});
+
+describe('motor contribution decaying exponentially (common practice, no source)', () => {
+  /** A panel fed by the utility through a transformer, with one large motor on it, no protective devices. */
+  function withMotor(): ModelInput {
+    return {
+      format: 'emberline-model',
+      version: 1,
+      frequencyHz: 60,
+      buses: [
+        { id: 'SVC', nominalKv: 12.47 },
+        { id: 'MCC', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep' } },
+      ],
+      sources: [{ id: 'UTIL', kind: 'utility', bus: 'SVC', shortCircuitMva: 250, xr: 10 }],
+      transformers: [
+        {
+          id: 'TX',
+          fromBus: 'SVC',
+          toBus: 'MCC',
+          kva: 1000,
+          primaryKv: 12.47,
+          secondaryKv: 0.48,
+          impedancePct: 5.75,
+          xr: 6,
+        },
+      ],
+      motors: [{ id: 'M-1', bus: 'MCC', hp: 300, kv: 0.46 }],
+    } as ModelInput;
+  }
+
+  it('I(t) = I(0)·e^(−t/τ), τ = the set cycles: after n cycles the contribution is e^(−1) of the first cycle', () => {
+    const tau = 5 / 60;
+    const p = motorExponentialProfile(tau);
+    expectClose(p.ratioAt(tau), Math.exp(-1), 1e-12);
+    expectClose(p.ratioAt(2 * tau), Math.exp(-2), 1e-12);
+    expect(p.ratioAt(5 * tau)).toBe(0);
+  });
+
+  it('in the study the bolted current of each step is the utility share plus the motor share × e^(−t/τ)', () => {
+    const runner = createStudyRunner(parse(withMotor()), { motorDecayModel: 'exponential', motorDecayCycles: 5 });
+    const bus = runner.runBus('MCC');
+    const full = bus.cases.find((c) => c.arcCase === 'full')!;
+    const tau = 5 / 60;
+    const motor = full.sources.find((s) => s.sourceId === 'M-1')!;
+    const util = full.sources.find((s) => s.sourceId === 'UTIL')!;
+    expect(motor.reason).toBe('motor-decay');
+    expectClose(motor.stopsAtS, 5 * tau, 1e-12);
+    const steps = full.intervals.flatMap((i) => i.steps);
+    const during = steps.filter((s) => s.toS <= 5 * tau + 1e-12);
+    expect(during.length).toBeGreaterThan(3);
+    for (const s of during) {
+      // Each step carries the higher of its two ends: the start, as the contribution falls.
+      expectClose(s.boltedFaultKa, bus.boltedFaultKa * (util.share + motor.share * Math.exp(-s.fromS / tau)), 1e-9);
+    }
+    // The step model is the default (results comparable with earlier studies).
+    expect(createStudyRunner(parse(withMotor())).finish([]).motorDecayModel).toBe('step');
+  });
+});
