@@ -72,7 +72,9 @@ export const createStudySchema = z
 
 export const modelEnvelopeSchema = z
   .object({
-    model: z.record(z.string(), z.unknown()).describe('The system model (docs/MODEL-FORMAT.md); a draft may be incomplete'),
+    model: z
+      .record(z.string(), z.unknown())
+      .describe('The system model (docs/MODEL-FORMAT.md); a draft may be incomplete'),
     version: z
       .number()
       .int()
