@@ -7,6 +7,7 @@ import * as m002 from './migrations/002-device-types';
 import * as m003 from './migrations/003-studies';
 import * as m004 from './migrations/004-labels';
 import * as m005 from './migrations/005-attention-mail';
+import * as m006 from './migrations/006-audit-append-only';
 import { initModels } from './models';
 
 /** Migrations in order. Add new ones at the end; never edit one that has shipped. */
@@ -16,6 +17,7 @@ const MIGRATIONS = [
   { name: '003-studies', ...m003 },
   { name: '004-labels', ...m004 },
   { name: '005-attention-mail', ...m005 },
+  { name: '006-audit-append-only', ...m006 },
 ];
 
 export interface Db {

@@ -10,7 +10,7 @@ import { PNG } from 'pngjs';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
-import { CapturedMail, User } from '../../server/db/models';
+import { AuditEvent, CapturedMail, User } from '../../server/db/models';
 import { smallModel } from '../fixtures/smallModel';
 import { approveStudy } from '../helpers/flows';
 import { makeTestApp, TEST_PASSWORD, TEST_SECRET, type TestApp } from '../helpers/testApp';
@@ -446,3 +446,46 @@ function crc32(buf: Buffer): number {
   }
   return (c ^ 0xffffffff) >>> 0;
 }
+
+describe('the audit log is append-only in the database', () => {
+  /** The database's own message (Sequelize wraps SQLite's constraint errors as a "Validation error"). */
+  async function refusal(p: Promise<unknown>): Promise<string> {
+    try {
+      await p;
+    } catch (e) {
+      const err = e as { message: string; original?: { message?: string } };
+      return err.original?.message ?? err.message;
+    }
+    return 'not refused';
+  }
+
+  it('a raw UPDATE or DELETE of an audit event is refused by the database, and the event is unchanged', async () => {
+    const row = await AuditEvent.findOne({ where: { organizationId: t.orgA.id }, order: [['createdAt', 'ASC']] });
+    expect(row).not.toBeNull();
+    const q = t.db.sequelize.getQueryInterface().quoteIdentifier.bind(t.db.sequelize.getQueryInterface());
+    const table = q('audit_events');
+    const id = row!.id;
+    const bind = t.db.dialect === 'postgres' ? '$1' : '?';
+    const opts = t.db.dialect === 'postgres' ? { bind: [id] } : { replacements: [id] };
+    expect(
+      await refusal(
+        t.db.sequelize.query(`UPDATE ${table} SET ${q('action')} = 'tampered' WHERE ${q('id')} = ${bind}`, opts),
+      ),
+    ).toMatch(/append-only/);
+    expect(await refusal(t.db.sequelize.query(`DELETE FROM ${table} WHERE ${q('id')} = ${bind}`, opts))).toMatch(
+      /append-only/,
+    );
+    expect(await refusal(t.db.sequelize.query(`DELETE FROM ${table}`))).toMatch(/append-only/);
+    if (t.db.dialect === 'postgres')
+      expect(await refusal(t.db.sequelize.query(`TRUNCATE ${table}`))).toMatch(/append-only/);
+    const again = await AuditEvent.findByPk(id);
+    expect(again!.action).toBe(row!.action);
+    // Appending still works.
+    const before = await AuditEvent.count();
+    await request(t.app)
+      .post('/api/sites')
+      .set('Authorization', `Bearer ${t.orgA.users.engineer.token}`)
+      .send({ name: 'Audit trigger site' });
+    expect(await AuditEvent.count()).toBe(before + 1);
+  });
+});
