@@ -1,4 +1,7 @@
-/** The cautions shown wherever a result is shown (docs/ARCHITECTURE.md, Principles). One source for the app, the PDFs and the API. */
+/**
+ * The cautions shown wherever a result is shown (docs/ARCHITECTURE.md, Principles). One source for the app, the PDFs
+ * and the API.
+ */
 export const CAUTIONS = [
   'Results come from a published empirical model (IEEE 1584-2018) and the data entered; they are estimates, not measurements.',
   'A number is not final until a qualified, licensed engineer has reviewed and approved the study.',

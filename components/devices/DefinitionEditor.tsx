@@ -196,6 +196,28 @@ function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
           editable={editable}
         />
       </View>
+      <View style={row}>
+        <NumberInput
+          label="Curve limit"
+          unit="× pickup"
+          value={def.curveLimitMultiple}
+          onChange={(v) => onChange({ ...def, curveLimitMultiple: v })}
+          error={errors.curveLimitMultiple}
+          editable={editable}
+          testID="curveLimitMultiple"
+          hint="Above this multiple the inverse curve keeps its time (as the relay declares). Empty: 20"
+        />
+        <NumberInput
+          label="Instantaneous tolerance"
+          unit="± %"
+          value={def.instantaneousTolerancePct}
+          onChange={(v) => onChange({ ...def, instantaneousTolerancePct: v })}
+          error={errors.instantaneousTolerancePct}
+          editable={editable}
+          testID="instantaneousTolerancePct"
+          hint="Within it the maximum curve stays on the slower element. Empty: 10"
+        />
+      </View>
       <T variant="label">DEFINITE-TIME ELEMENT (OPTIONAL)</T>
       <View style={row}>
         <NumberInput

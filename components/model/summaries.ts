@@ -158,6 +158,7 @@ export function deviceSettingsSummary(d: Device | undefined): string {
       if (d.instantaneousA !== undefined) parts.push(`inst. ${num(d.instantaneousA)} A`);
       else if (d.instantaneousSecondaryA !== undefined) parts.push(`inst. ${num(d.instantaneousSecondaryA)} A sec.`);
       parts.push(`${num(d.breakerCycles)}-cycle breaker`);
+      parts.push(`curve to ${num(d.curveLimitMultiple ?? 20)} × pickup`);
       return parts.join(' · ');
     }
     case 'fuse': {

@@ -1,7 +1,8 @@
 /**
- * Label values (docs/ARCHITECTURE.md, Label values) from an incident-energy result, the nominal voltage and the organization's settings:
- * minimum arc rating of clothing, site-specific PPE level, NFPA 70E shock approach boundaries, voltage-rated glove
- * class, signal word and the "no adequate PPE" flag. Facts and their sources: server/engine/data/label-facts.json.
+ * Label values (docs/ARCHITECTURE.md, Label values) from an incident-energy result, the nominal voltage and the
+ * organization's settings: minimum arc rating of clothing, site-specific PPE level, NFPA 70E shock approach boundaries,
+ * voltage-rated glove class, signal word and the "no adequate PPE" flag. Facts and their sources:
+ * server/engine/data/label-facts.json.
  */
 import { CAUTIONS, NO_ADEQUATE_PPE_CAL_PER_CM2, NO_ADEQUATE_PPE_CAUTION } from '../../shared/cautions';
 import facts from './data/label-facts.json';

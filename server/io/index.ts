@@ -6,10 +6,10 @@ import { exportModelJson, importModelJson } from './modelJson';
 import { exportModelWorkbook, importModelWorkbook } from './modelWorkbook';
 
 /**
- * Import and export of the system model (docs/MODEL-FORMAT.md, Import and export) as JSON, an .xlsx workbook or CSV files. Pure: buffers
- * in, buffers out. An import gives either a whole valid model (zod shapes and the semantic checks of
- * `parseModel`) or every problem found, each located in the upload: sheet or file, row and column for tables,
- * model path (or line and column for a syntax error) for JSON.
+ * Import and export of the system model (docs/MODEL-FORMAT.md, Import and export) as JSON, an .xlsx workbook or CSV
+ * files. Pure: buffers in, buffers out. An import gives either a whole valid model (zod shapes and the semantic checks
+ * of `parseModel`) or every problem found, each located in the upload: sheet or file, row and column for tables, model
+ * path (or line and column for a syntax error) for JSON.
  */
 
 export type { ImportError, ModelTable, ParsedModelFile } from './columns';

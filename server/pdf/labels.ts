@@ -1,6 +1,6 @@
 /**
- * Arc-flash equipment labels as PDF (docs/ARCHITECTURE.md, Label values; Labels and field checks). One label per page at 4×6 in (portrait) and 4×4 in;
- * on letter and A4 sheets, six labels per page in a 2 × 3 grid with cut lines.
+ * Arc-flash equipment labels as PDF (docs/ARCHITECTURE.md, Label values; Labels and field checks). One label per page
+ * at 4×6 in (portrait) and 4×4 in; on letter and A4 sheets, six labels per page in a 2 × 3 grid with cut lines.
  *
  * What a label says is `LabelContent` and nothing else, plus the QR code of its public check address. The layout
  * is our own: an ANSI Z535.4 signal-word panel (DANGER: white on safety red; WARNING: black on safety orange) with

@@ -1,8 +1,8 @@
 /**
- * The engineer's study report (docs/ARCHITECTURE.md, Data path of a study run, step 13): cover, scope, method and assumptions, inputs, results, a clearing
- * trace per bus with a time-current plot drawn as vectors, warnings, cautions and the approval block (or the
- * preliminary notice). US letter pages, page numbers and a footer on every page; tables continue on the next page
- * with their header repeated. Layout is a convention (common practice, no source).
+ * The engineer's study report (docs/ARCHITECTURE.md, Data path of a study run, step 13): cover, scope, method and
+ * assumptions, inputs, results, a clearing trace per bus with a time-current plot drawn as vectors, warnings, cautions
+ * and the approval block (or the preliminary notice). US letter pages, page numbers and a footer on every page; tables
+ * continue on the next page with their header repeated. Layout is a convention (common practice, no source).
  */
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
 import { STUDY_STATUS_LABELS, type StudyDto } from '../../shared/schemas/studies';
@@ -11,6 +11,7 @@ import type { Model, PlacedDevice } from '../../shared/schemas/model';
 import type { ArcCaseTrace, BusResult, StudyResults } from '../../shared/schemas/studyResults';
 import { UNREVIEWED_CAUTION } from '../../shared/cautions';
 import { bandCurves } from '../engine/trip';
+import { relaySettings } from '../engine/trip/relay';
 import { BLACK, Canvas, LINE_HEIGHT, type Align } from './canvas';
 import { embedFonts, type PdfFonts } from './fonts';
 import { formatBoundary, formatCalPerCm2, formatSeconds, formatSig, formatVoltage } from './format';
@@ -397,6 +398,24 @@ export function tracePlotData(
     label: `${c.arcCase === 'full' ? 'Iarc' : 'Iarc reduced'} ${formatSig(c.arcingCurrentKa, 3)} kA`,
     dash: c.arcCase === 'reduced',
   }));
+  // Where a relay's inverse-time curve stops (its time is held above this current): a dashed line and a note.
+  for (const reading of gov.devices) {
+    const placed = model.devices.find((d) => d.id === reading.deviceId);
+    if (placed?.device.kind !== 'relay') continue;
+    try {
+      const s = relaySettings(placed.device);
+      const limitA = s.pickupA * s.curveLimitMultiple * (reading.kv / busKv);
+      if (limitA >= fromA && limitA <= toA) {
+        markers.push({
+          currentA: limitA,
+          label: `${reading.deviceId} curve limit ${formatSig(s.curveLimitMultiple, 3)} × pickup`,
+          dash: true,
+        });
+      }
+    } catch {
+      // Settings that do not resolve are reported on the reading.
+    }
+  }
   const points: PlotPoint[] = [];
   for (const c of sameSide) {
     const r = c.devices.find((d) => d.deviceId === c.clearingDeviceId);

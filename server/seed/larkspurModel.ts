@@ -1,10 +1,10 @@
 import type { ModelInput } from '../../shared/schemas/model';
 
 /**
- * The invented Larkspur Valley Water Reclamation Facility (docs/ARCHITECTURE.md, Demo data): a 12.47 kV utility service into the main
- * switchgear, two unit substations (1500 kVA and 750 kVA, 480 V), a 480 V switchboard with a standby generator
- * paralleled for testing, two motor control centres with pump and blower motors, a power panel and a 208 V lighting
- * panel. Every device and setting here is invented for the demonstration; none is a maker's data.
+ * The invented Larkspur Valley Water Reclamation Facility (docs/ARCHITECTURE.md, Demo data): a 12.47 kV utility service
+ * into the main switchgear, two unit substations (1500 kVA and 750 kVA, 480 V), a 480 V switchboard with a standby
+ * generator paralleled for testing, two motor control centres with pump and blower motors, a power panel and a 208 V
+ * lighting panel. Every device and setting here is invented for the demonstration; none is a maker's data.
  */
 export function larkspurModel(): ModelInput {
   const tm = (ratingA: number, instMultiple: number) => ({

@@ -1,8 +1,9 @@
 import { z } from 'zod';
 
 /**
- * The safety officer's dashboard: lists of what needs attention (docs/ARCHITECTURE.md, Audit and attention). Each list has a fixed key; the
- * dashboard shows the count of each, per site; each count opens its list; each list exports as CSV.
+ * The safety officer's dashboard: lists of what needs attention (docs/ARCHITECTURE.md, Audit and attention). Each list
+ * has a fixed key; the dashboard shows the count of each, per site; each count opens its list; each list exports as
+ * CSV.
  */
 export const ATTENTION_LISTS = [
   'review-overdue',

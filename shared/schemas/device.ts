@@ -1,7 +1,8 @@
 import { z } from 'zod';
 
 /**
- * Protective devices and their trip bands (docs/ARCHITECTURE.md, Clearing time from a trip band; docs/MODEL-FORMAT.md, Devices; `POST /api/calc/clearing-time`).
+ * Protective devices and their trip bands (docs/ARCHITECTURE.md, Clearing time from a trip band; docs/MODEL-FORMAT.md,
+ * Devices; `POST /api/calc/clearing-time`).
  *
  * A band is a minimum curve and a maximum (total clearing) curve of time against current on log-log axes.
  * Point lists are `[current, seconds]` pairs with current strictly increasing and time not increasing.
@@ -122,6 +123,18 @@ export const relayDeviceSchema = z
       .describe('Definite-time overcurrent element'),
     breakerCycles: positive.describe('Breaker interrupting time in cycles (IEEE 1584 table: 1.5 / 3 / 5 / 8)'),
     frequencyHz: positive.optional().describe('System frequency, default 60 Hz'),
+    curveLimitMultiple: z
+      .number()
+      .gt(1)
+      .optional()
+      .describe(
+        'Multiple of pickup above which the inverse-time element stops following its curve and keeps the time at this multiple (IEC 60255-151 lets the relay declare it); default 20',
+      ),
+    instantaneousTolerancePct: pct
+      .optional()
+      .describe(
+        'Instantaneous pickup tolerance, ± percent: up to pickup × (1 + tolerance) the maximum curve stays on the slower element; default 10',
+      ),
   })
   .superRefine((d, ctx) => {
     if (d.pickupA === undefined && (d.ctRatio === undefined || d.pickupSecondaryA === undefined)) {

@@ -2,8 +2,9 @@ import { z } from 'zod';
 import { ELECTRODE_CONFIGS } from '../equipmentClasses';
 
 /**
- * Contract of `POST /api/calc/incident-energy` (docs/API.md, Calculations): IEEE Std 1584-2018 incident energy of one equipment.
- * The server validates with these schemas, the client pre-validates its forms, OpenAPI is generated from them.
+ * Contract of `POST /api/calc/incident-energy` (docs/API.md, Calculations): IEEE Std 1584-2018 incident energy of one
+ * equipment. The server validates with these schemas, the client pre-validates its forms, OpenAPI is generated from
+ * them.
  */
 
 /** A positive, finite number (zod 4 numbers reject Infinity and NaN). */

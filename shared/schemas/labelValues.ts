@@ -8,7 +8,10 @@ const approachDistanceSchema = z.object({
   text: z.string(),
 });
 
-/** The values a label carries (docs/ARCHITECTURE.md, Label values), computed from a result, the nominal voltage and organization settings. */
+/**
+ * The values a label carries (docs/ARCHITECTURE.md, Label values), computed from a result, the nominal voltage and
+ * organization settings.
+ */
 export const labelValuesSchema = z
   .object({
     nominalVoltageV: z.number(),

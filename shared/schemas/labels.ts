@@ -12,8 +12,8 @@ export const LABEL_STATUS_LABELS: Record<LabelStatus, string> = {
 };
 
 /**
- * What a printed label says (docs/ARCHITECTURE.md, Label values; Labels and field checks): a snapshot of the approved values. The public check page shows
- * exactly these fields and nothing more.
+ * What a printed label says (docs/ARCHITECTURE.md, Label values; Labels and field checks): a snapshot of the approved
+ * values. The public check page shows exactly these fields and nothing more.
  */
 export const labelContentSchema = z
   .object({

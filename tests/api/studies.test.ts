@@ -83,7 +83,7 @@ describe('study flow: create → model → run → results → submit → approv
     expect(res.status).toBe(200);
     expect(res.body.results.buses.map((b: { busId: string }) => b.busId)).toEqual(['SWBD', 'MCC', 'PNL']);
     const swbd = res.body.results.buses[0];
-    // Not isolated main: both sides evaluated, the worse labelled (docs/ARCHITECTURE.md, Data path of a study run, step 8).
+    // Not isolated main: both sides evaluated, the worse labelled (docs/ARCHITECTURE.md, study run step 8).
     expect(swbd.cases.some((c: { location: string }) => c.location === 'line-side')).toBe(true);
     expect(swbd.labelValues.signalWord).toMatch(/DANGER|WARNING/);
     expect(res.body.model.name).toBe('Test plant');

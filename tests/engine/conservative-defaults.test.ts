@@ -7,6 +7,8 @@
 import type { ModelInput } from '../../shared/schemas/model';
 import { modelSchema } from '../../shared/schemas/model';
 import { runStudy } from '../../server/engine/study';
+import { bandFeatureCurrentsA, clearingTime } from '../../server/engine/trip';
+import type { RelayDevice } from '../../shared/schemas/device';
 import { expectClose } from '../helpers/approx';
 
 const parse = (m: ModelInput) => modelSchema.parse(m);
@@ -111,5 +113,71 @@ describe('main device isolation: not stated means not isolated', () => {
     const omitted = runStudy(parse(plant())).buses.find((b) => b.busId === 'SWBD')!;
     const explicit = runStudy(parse(plant({ mainIsolated: false }))).buses.find((b) => b.busId === 'SWBD')!;
     expectClose(omitted.incidentEnergyJPerCm2!, explicit.incidentEnergyJPerCm2!, 1e-12);
+  });
+});
+
+describe('relay curve limit: the inverse-time element stops following its curve above curveLimitMultiple', () => {
+  // IEC 60255-151 Table 1, curve C (extremely inverse): k = 80, α = 2. Breaker: 5 cycles at 60 Hz = 0.083333 s.
+  const ei: RelayDevice = { kind: 'relay', curve: 'IEC-EI', pickupA: 200, timeDial: 0.4, breakerCycles: 5 };
+
+  it('at 21.4 kA (107 × pickup) with the default limit (20 ×): 0.4 × 80/(20² − 1) + 5/60 = 0.1635 s', () => {
+    const r = clearingTime(ei, 21400);
+    // IEC 60255-151 Table 1 EI constants; 20 × the setting is common practice, no source.
+    expectClose(r.clearingTimeS as number, (0.4 * 80) / (20 ** 2 - 1) + 5 / 60, 1e-12);
+    expectClose(r.clearingTimeS as number, 0.1635, 1e-3);
+    expect(r.region).toBe('inverse-time');
+    expect(r.warnings.map((w) => w.code)).toContain('RELAY_CURVE_LIMIT');
+  });
+
+  it('with curveLimitMultiple 200 the curve is followed to 107 ×: 0.4 × 80/(107² − 1) + 5/60 = 0.0861 s', () => {
+    const r = clearingTime({ ...ei, curveLimitMultiple: 200 }, 21400);
+    // IEC 60255-151 Table 1 EI constants (k = 80, α = 2); breaker 5 cycles.
+    expectClose(r.clearingTimeS as number, (0.4 * 80) / (107 ** 2 - 1) + 5 / 60, 1e-12);
+    expectClose(r.clearingTimeS as number, 0.0861, 1e-3);
+    expect(r.warnings.map((w) => w.code)).not.toContain('RELAY_CURVE_LIMIT');
+  });
+
+  it('below the limit nothing changes: at 10 × pickup the IEC EI equation holds (0.4 × 80/99 + 5/60)', () => {
+    // IEC 60255-151 Table 1 EI constants.
+    expectClose(clearingTime(ei, 2000).clearingTimeS as number, (0.4 * 80) / 99 + 5 / 60, 1e-12);
+  });
+
+  it('the band plot has a corner at the limit (20 × 200 A = 4 000 A)', () => {
+    expect(bandFeatureCurrentsA(ei)).toContain(4000);
+  });
+});
+
+describe('relay instantaneous pickup tolerance (default ±10 %)', () => {
+  // IEEE C37.112-2018 very inverse: A = 19.61, B = 0.491, p = 2; t = TD (A/(M^p − 1) + B). Breaker 5 cycles at 60 Hz.
+  const vi: RelayDevice = {
+    kind: 'relay',
+    curve: 'IEEE-VI',
+    pickupA: 400,
+    timeDial: 2,
+    instantaneousA: 4000,
+    breakerCycles: 5,
+  };
+  const breakerS = 5 / 60;
+
+  it('at 4 200 A (within 4 000 A ± 10 %) the maximum curve is the inverse element plus the breaker, with a warning', () => {
+    const r = clearingTime(vi, 4200);
+    const m = 4200 / 400;
+    // IEEE C37.112-2018 VI constants.
+    expectClose(r.clearingTimeS as number, 2 * (19.61 / (m ** 2 - 1) + 0.491) + breakerS, 1e-12);
+    expect(r.region).toBe('inverse-time');
+    expect(r.warnings.map((w) => w.code)).toContain('WITHIN_PICKUP_TOLERANCE');
+    // The minimum curve already drops to the instantaneous element above the low edge (3 600 A).
+    expectClose(r.minimumTimeS as number, 0.016, 1e-12);
+  });
+
+  it('at 4 500 A (above the high edge 4 400 A) the instantaneous element plus the breaker', () => {
+    const r = clearingTime(vi, 4500);
+    // IEEE 1584-2002: 16 ms relay time in the instantaneous region, plus the breaker time.
+    expectClose(r.clearingTimeS as number, 0.016 + breakerS, 1e-12);
+    expect(r.region).toBe('instantaneous');
+  });
+
+  it('instantaneousTolerancePct 0 restores the element at its pickup', () => {
+    expect(clearingTime({ ...vi, instantaneousTolerancePct: 0 }, 4200).region).toBe('instantaneous');
   });
 });

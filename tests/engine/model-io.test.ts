@@ -21,9 +21,9 @@ import { tableOfFileName } from '../../server/io/modelCsv';
 import { isClose } from '../helpers/approx';
 
 /*
- * Import and export of the system model (docs/MODEL-FORMAT.md, Import and export) as JSON, .xlsx workbook and CSV. These are the product's own
- * file-format conventions (common practice, no source): no published value is involved. Numbers are compared
- * through the relative-tolerance helper only; a round trip is expected to keep them to 1e-12.
+ * Import and export of the system model (docs/MODEL-FORMAT.md, Import and export) as JSON, .xlsx workbook and CSV.
+ * These are the product's own file-format conventions (common practice, no source): no published value is involved.
+ * Numbers are compared through the relative-tolerance helper only; a round trip is expected to keep them to 1e-12.
  */
 
 const REL_TOL = 1e-12; // common practice, no source: a text round trip of a double keeps it to the last digit

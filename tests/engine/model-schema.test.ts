@@ -1,8 +1,8 @@
 import { modelSchema, parseModel, validateModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
 
 /*
- * The system model format and its checks (docs/MODEL-FORMAT.md, Validation): unknown references, duplicate ids, islands without a
- * source and non-physical values are rejected with an error naming the element and field. These are the
+ * The system model format and its checks (docs/MODEL-FORMAT.md, Validation): unknown references, duplicate ids, islands
+ * without a source and non-physical values are rejected with an error naming the element and field. These are the
  * product's own format rules, not published values; no float is compared here.
  */
 

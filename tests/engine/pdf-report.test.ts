@@ -225,7 +225,17 @@ describe('clearing-trace plot data', () => {
     expectClose(point.currentA, gov.arcingCurrentKa * 1000 * relay.share, 1e-6);
     expectClose(point.timeS, relay.clearingTimeS as number, 1e-12);
     // Vertical lines at the full and reduced arcing currents of the governing side.
-    const currents = plot!.markers.map((m) => m.currentA).sort((a, b) => a - b);
+    const currents = plot!.markers
+      .filter((m) => m.label.startsWith('Iarc'))
+      .map((m) => m.currentA)
+      .sort((a, b) => a - b);
+    // A dashed line where the relay's inverse curve stops (default 20 × pickup, common practice, no source),
+    // referred to the bus voltage like its curve.
+    const limit = plot!.markers.find((m) => m.label.startsWith('R-TX curve limit'));
+    if (placed.device.kind !== 'relay' || placed.device.pickupA === undefined) throw new Error('R-TX is a relay');
+    const limitA = placed.device.pickupA * (placed.device.curveLimitMultiple ?? 20) * ratio;
+    if (limitA <= plot!.toA) expectClose(limit!.currentA, limitA, 1e-12);
+    else expect(limit).toBeUndefined();
     const expected = bus!.cases
       .filter((c) => c.location === 'line-side')
       .map((c) => c.arcingCurrentKa * 1000)

@@ -6,7 +6,8 @@ import { clearingTime } from '../../server/engine/trip/clearingTime';
 import type { BandDevice } from '../../shared/schemas/device';
 
 // Log-log interpolation, the product's rule (docs/ARCHITECTURE.md, Clearing time from a trip band): straight lines
-// between points on log-log axes; beyond the data clamp and warn, never invent (common practice, no source). A straight line on log-log axes is t = t0·(x/x0)^s with s the slope between points.
+// between points on log-log axes; beyond the data clamp and warn, never invent (common practice, no source).
+// A straight line on log-log axes is t = t0·(x/x0)^s with s the slope between points.
 
 const CURVE: [number, number][] = [
   [100, 1000],

@@ -5,8 +5,9 @@ import { EXAMPLE_DEVICES } from '../../server/engine/trip/exampleDevices';
 import type { Device, ElectronicDevice, RelayDevice, ThermalMagneticDevice } from '../../shared/schemas/device';
 import { RELAY_CURVES } from '../../shared/schemas/device';
 
-// Properties of every trip band (docs/ARCHITECTURE.md, Clearing time from a trip band): the maximum (total clearing) curve does not rise with current,
-// and it never lies below the minimum curve. Checked on the example devices and on generated settings.
+// Properties of every trip band (docs/ARCHITECTURE.md, Clearing time from a trip band): the maximum (total clearing)
+// curve does not rise with current, and it never lies below the minimum curve. Checked on the example devices and on
+// generated settings.
 
 /** Random point list: currents increasing, times not increasing. */
 const curveArb = fc

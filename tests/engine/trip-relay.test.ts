@@ -195,8 +195,11 @@ describe('relay elements', () => {
     expect(dt.region).toBe('definite-time');
     expectClose(dt.clearingTimeS as number, 0.5 + breakerS, 1e-12);
     expect(clearingTime(base, 9990).region).toBe('definite-time');
-    const inst = clearingTime(base, 10000);
+    // With no instantaneous pickup tolerance the element operates at its pickup; with the default ±10 % the maximum
+    // curve stays on the slower element up to 11 000 A (see tests/engine/conservative-defaults.test.ts).
+    const inst = clearingTime({ ...base, instantaneousTolerancePct: 0 }, 10000);
     expect(inst.region).toBe('instantaneous');
+    expect(clearingTime(base, 10000).region).toBe('definite-time');
     // IEEE 1584-2002: relay in its instantaneous region: allow 16 ms relay time, then add the breaker opening time
     expectClose(inst.clearingTimeS as number, 0.016 + breakerS, 1e-12);
     expectClose(inst.minimumTimeS as number, 0.016, 1e-12);

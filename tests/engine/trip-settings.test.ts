@@ -10,7 +10,8 @@ import {
   electronicTripTypeSchema,
 } from '../../shared/schemas/device';
 
-// Settings as named switch positions mapped to numbers (docs/MODEL-FORMAT.md, Devices; docs/ARCHITECTURE.md, Clearing time from a trip band). The example type is invented.
+// Settings as named switch positions mapped to numbers (docs/MODEL-FORMAT.md, Devices; docs/ARCHITECTURE.md, Clearing
+// time from a trip band). The example type is invented.
 
 describe('worked example: resolving switch positions into an electronic device', () => {
   it('turns the chosen positions into numbers, rating plug as In', () => {

@@ -1,9 +1,10 @@
 /**
- * The study run (docs/ARCHITECTURE.md, Data path of a study run): for a fault at each labelled bus — bolted fault current → both arcing currents →
- * the protective devices carrying fault current, each read at the current it sees during the arc → arc duration
- * (the first device to clear with one source; time-stepped energy as each source is cut off with several) → the
- * line-side case where the bus's main device is not isolated → the arc-duration cap → incident energy, arc-flash
- * boundary and label values. Pure: no clock, no I/O; the caller drives it bus by bus to report progress.
+ * The study run (docs/ARCHITECTURE.md, Data path of a study run): for a fault at each labelled bus — bolted fault
+ * current → both arcing currents → the protective devices carrying fault current, each read at the current it sees
+ * during the arc → arc duration (the first device to clear with one source; time-stepped energy as each source is cut
+ * off with several) → the line-side case where the bus's main device is not isolated → the arc-duration cap → incident
+ * energy, arc-flash boundary and label values. Pure: no clock, no I/O; the caller drives it bus by bus to report
+ * progress.
  *
  * Method notes (shown in the study report):
  * - Each device sees the bolted current through its branch (from the short-circuit solution, at its own voltage)

@@ -8,7 +8,10 @@ import { fmt } from './interpolate';
 import { relayBand } from './relay';
 import { thermalMagneticBand } from './thermalMagnetic';
 
-/** The chain behind a clearing time: shown on the clearing trace (docs/ARCHITECTURE.md, Principles: traceable numbers). Plain JSON. */
+/**
+ * The chain behind a clearing time: shown on the clearing trace (docs/ARCHITECTURE.md, Principles: traceable numbers).
+ * Plain JSON.
+ */
 export interface ClearingTrace {
   kind: Device['kind'];
   currentA: number;
@@ -94,11 +97,11 @@ const TOLERANCE_EDGES: Record<Device['kind'], { maximum: string; minimum: string
 };
 
 /**
- * Clearing time of a protective device at the current it sees (docs/ARCHITECTURE.md, Clearing time from a trip band): the device's MAXIMUM
- * (total clearing) curve read at `currentA` — for relays including the breaker interrupting time. This is
- * the arc duration. Below pickup the result is region 'no-trip' with clearingTimeS null and a NO_TRIP warning:
- * the device does not clear that current.
- * Throws EngineError 'invalid-input' (field named) for bad device data or a non-positive current.
+ * Clearing time of a protective device at the current it sees (docs/ARCHITECTURE.md, Clearing time from a trip band):
+ * the device's MAXIMUM (total clearing) curve read at `currentA` — for relays including the breaker interrupting time.
+ * This is the arc duration. Below pickup the result is region 'no-trip' with clearingTimeS null and a NO_TRIP warning:
+ * the device does not clear that current. Throws EngineError 'invalid-input' (field named) for bad device data or a
+ * non-positive current.
  */
 export function clearingTime(device: Device, currentA: number): ClearingTimeResult {
   if (typeof currentA !== 'number' || !Number.isFinite(currentA) || currentA <= 0) {

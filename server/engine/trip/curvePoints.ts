@@ -37,8 +37,8 @@ export function bandFeatureCurrentsA(device: Device): number[] {
   switch (device.kind) {
     case 'relay': {
       const s = relaySettings(device);
-      out.push(s.pickupA);
-      if (s.instantaneousA !== null) out.push(s.instantaneousA);
+      out.push(s.pickupA, s.pickupA * s.curveLimitMultiple);
+      if (s.instantaneousEdges) out.push(s.instantaneousEdges.lowA, s.instantaneousEdges.highA);
       if (s.definiteTime) out.push(s.definiteTime.pickupA);
       break;
     }

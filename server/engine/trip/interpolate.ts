@@ -83,10 +83,10 @@ export interface CurveReading {
 /**
  * Log-log interpolation between points of a time-current curve:
  *   log t = log t_i + (log x − log x_i) / (log x_{i+1} − log x_i) · (log t_{i+1} − log t_i),
- * i.e. a straight line between neighbouring points on log-log axes (docs/ARCHITECTURE.md, Clearing time from a trip band).
- * Exact at the points. Outside the points the end point's time is used (clamped) and a BAND_BEYOND_DATA
- * warning says so: the curve is never extrapolated.
- * The points must already be valid (see validateCurvePoints); `field` names the curve in warnings.
+ * i.e. a straight line between neighbouring points on log-log axes (docs/ARCHITECTURE.md, Clearing time from a trip
+ * band). Exact at the points. Outside the points the end point's time is used (clamped) and a BAND_BEYOND_DATA warning
+ * says so: the curve is never extrapolated. The points must already be valid (see validateCurvePoints); `field` names
+ * the curve in warnings.
  */
 export function interpolateLogLog(points: readonly TimeCurrentPoint[], current: number, field: string): CurveReading {
   const last = points.length - 1;

@@ -9,16 +9,27 @@ import {
   type IeeeCurveName,
 } from './equations';
 import {
+  above,
   atOrAbove,
   combineElements,
+  pickupEdges,
   requireNonNegative,
+  requirePercent,
   requirePositive,
   type BandReading,
   type ElementReading,
+  type PickupEdges,
 } from './elements';
 import { fmt } from './interpolate';
 
 const DEFAULT_FREQUENCY_HZ = 60;
+/**
+ * Multiple of pickup above which the inverse-time element keeps its time (IEC 60255-151 lets the relay declare
+ * where its dependent-time characteristic ends; 20 × the setting is common practice, no source).
+ */
+export const DEFAULT_CURVE_LIMIT_MULTIPLE = 20;
+/** Instantaneous pickup tolerance, ± percent (common practice, no source). */
+export const DEFAULT_INSTANTANEOUS_TOLERANCE_PCT = 10;
 const IEEE_NAMES = ['MI', 'VI', 'EI'] as const;
 const IEC_NAMES = ['SI', 'VI', 'EI', 'LTI'] as const;
 
@@ -74,6 +85,10 @@ export interface RelaySettings {
   definiteTime: { pickupA: number; delayS: number } | null;
   breakerS: number;
   frequencyHz: number;
+  /** Multiple of pickup above which the inverse-time element keeps the time read at that multiple. */
+  curveLimitMultiple: number;
+  /** Instantaneous pickup edges (± instantaneousTolerancePct), or null without an instantaneous element. */
+  instantaneousEdges: PickupEdges | null;
 }
 
 export function relaySettings(device: RelayDevice): RelaySettings {
@@ -123,30 +138,77 @@ export function relaySettings(device: RelayDevice): RelaySettings {
         ? RELAY_INSTANTANEOUS_ALLOWANCE_S
         : cyclesToSeconds(1, frequencyHz);
   const breakerS = cyclesToSeconds(requirePositive(device.breakerCycles, 'device.breakerCycles'), frequencyHz);
-  return { pickupA, instantaneousA, instantaneousDelayS, definiteTime, breakerS, frequencyHz };
+  const curveLimitMultiple =
+    device.curveLimitMultiple === undefined
+      ? DEFAULT_CURVE_LIMIT_MULTIPLE
+      : requirePositive(device.curveLimitMultiple, 'device.curveLimitMultiple');
+  if (!(curveLimitMultiple > 1)) {
+    throw new EngineError(
+      'invalid-input',
+      'CURVE_LIMIT_AT_PICKUP',
+      `device.curveLimitMultiple must be above 1 (the curve starts at pickup), got ${curveLimitMultiple}`,
+      'device.curveLimitMultiple',
+    );
+  }
+  const tolerancePct =
+    device.instantaneousTolerancePct === undefined
+      ? DEFAULT_INSTANTANEOUS_TOLERANCE_PCT
+      : requirePercent(device.instantaneousTolerancePct, 'device.instantaneousTolerancePct', 99);
+  const instantaneousEdges = instantaneousA === null ? null : pickupEdges(instantaneousA, tolerancePct);
+  return {
+    pickupA,
+    instantaneousA,
+    instantaneousDelayS,
+    definiteTime,
+    breakerS,
+    frequencyHz,
+    curveLimitMultiple,
+    instantaneousEdges,
+  };
 }
 
 /**
  * Band of an overcurrent relay with its breaker at one current.
  * Minimum curve = relay operating time; maximum curve = relay operating time + breaker interrupting time
  * (breakerCycles at frequencyHz). Elements: inverse-time (IEEE C37.112 / IEC 60255-151), definite-time,
- * instantaneous; the fastest governs. Instantaneous and definite-time elements operate at and above pickup; the inverse-time element above pickup (M > 1).
+ * instantaneous; the fastest governs. Definite-time elements operate at and above pickup; the inverse-time element
+ * above pickup (M > 1) and, above `curveLimitMultiple` × pickup, keeps the time read at that multiple (IEC 60255-151:
+ * the dependent-time characteristic ends where the relay declares; default 20 ×). The instantaneous element has a
+ * pickup tolerance (± `instantaneousTolerancePct`, default 10 %): the maximum curve drops to it only at and above the
+ * HIGH edge (within the band it stays on the slower element, with a warning), the minimum curve above the LOW edge —
+ * as for thermal-magnetic and electronic trip units.
  */
 export function relayBand(device: RelayDevice, currentA: number): BandReading {
   const s = relaySettings(device);
   const elements: ElementReading[] = [];
   const breakerDetail = { breakerCycles: device.breakerCycles, breakerS: s.breakerS, frequencyHz: s.frequencyHz };
+  const inst = s.instantaneousEdges;
+  const withinTolerance = inst !== null && above(currentA, inst.lowA) && !atOrAbove(currentA, inst.highA);
+  const toleranceWarning = withinTolerance
+    ? [
+        {
+          code: 'WITHIN_PICKUP_TOLERANCE',
+          message: `${fmt(currentA)} A lies within the instantaneous pickup tolerance (${fmt(inst.lowA)}–${fmt(inst.highA)} A): the maximum curve stays on the slower element`,
+        },
+      ]
+    : [];
 
-  if (s.instantaneousA !== null) {
-    const trips = atOrAbove(currentA, s.instantaneousA);
+  if (inst !== null) {
+    const tripsMax = atOrAbove(currentA, inst.highA);
+    const tripsMin = above(currentA, inst.lowA) || atOrAbove(currentA, inst.highA);
     elements.push({
       element: 'instantaneous',
       region: 'instantaneous',
-      maxS: trips ? s.instantaneousDelayS + s.breakerS : null,
-      minS: trips ? s.instantaneousDelayS : null,
+      maxS: tripsMax ? s.instantaneousDelayS + s.breakerS : null,
+      minS: tripsMin ? s.instantaneousDelayS : null,
       detail: {
-        pickupA: s.instantaneousA,
-        multipleOfPickup: currentA / s.instantaneousA,
+        pickupA: inst.nominalA,
+        lowEdgeA: inst.lowA,
+        highEdgeA: inst.highA,
+        maximumEdge: 'high pickup edge',
+        minimumEdge: 'low pickup edge',
+        withinTolerance,
+        multipleOfPickup: currentA / inst.nominalA,
         relayTimeS: s.instantaneousDelayS,
         ...breakerDetail,
       },
@@ -167,12 +229,14 @@ export function relayBand(device: RelayDevice, currentA: number): BandReading {
         relayTimeS: s.definiteTime.delayS,
         ...breakerDetail,
       },
-      maxWarnings: [],
+      maxWarnings: trips ? toleranceWarning : [],
       minWarnings: [],
     });
   }
   const multipleOfPickup = currentA / s.pickupA;
-  const relayTimeS = multipleOfPickup > 1 ? relayInverseTimeS(device.curve, multipleOfPickup, device.timeDial) : null;
+  const limited = multipleOfPickup > s.curveLimitMultiple;
+  const readAtMultiple = Math.min(multipleOfPickup, s.curveLimitMultiple);
+  const relayTimeS = multipleOfPickup > 1 ? relayInverseTimeS(device.curve, readAtMultiple, device.timeDial) : null;
   elements.push({
     element: 'inverse-time',
     region: 'inverse-time',
@@ -183,13 +247,26 @@ export function relayBand(device: RelayDevice, currentA: number): BandReading {
       timeDial: device.timeDial,
       pickupA: s.pickupA,
       multipleOfPickup,
+      curveLimitMultiple: s.curveLimitMultiple,
+      readAtMultiple: relayTimeS === null ? null : readAtMultiple,
+      curveLimited: relayTimeS !== null && limited,
       relayTimeS,
       ...breakerDetail,
     },
     maxWarnings:
       relayTimeS === null
         ? [{ code: 'BELOW_PICKUP', message: `${fmt(currentA)} A is at or below the relay pickup ${fmt(s.pickupA)} A` }]
-        : [],
+        : [
+            ...(limited
+              ? [
+                  {
+                    code: 'RELAY_CURVE_LIMIT',
+                    message: `${fmt(multipleOfPickup)} × pickup is above the curve limit (${fmt(s.curveLimitMultiple)} × pickup): the inverse-time element keeps its time at ${fmt(s.curveLimitMultiple)} ×, ${fmt(relayTimeS)} s`,
+                  },
+                ]
+              : []),
+            ...toleranceWarning,
+          ],
     minWarnings: [],
   });
   return combineElements(elements);
