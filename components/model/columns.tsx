@@ -489,18 +489,31 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
 
 const isUtility = (s: SourceInput): s is UtilityInput => s.kind === 'utility';
 
+type GeneratorNumberKey =
+  | 'kva'
+  | 'kv'
+  | 'subtransientPct'
+  | 'transientPct'
+  | 'synchronousPct'
+  | 'sustainedCurrentMultiple'
+  | 'subtransientTimeConstantS'
+  | 'transientTimeConstantS';
+
 function generatorNumber(
-  key: 'kva' | 'kv' | 'subtransientPct',
+  key: GeneratorNumberKey,
   label: string,
-  unit: string,
+  unit: string | undefined,
   width: number,
   hint?: string,
+  optionalTypical = false,
 ): Column<SourceInput> {
   return numberColumn<SourceInput>(key, label, unit, width, {
     applies: (s) => s.kind === 'generator',
     get: (s) => (s.kind === 'generator' ? s[key] : undefined),
     set: (s, v) => (s.kind === 'generator' ? withField(s, key, v) : s),
     ...(hint ? { hint: () => hint } : {}),
+    // Decrement data: empty means a typical value (from memory), flagged with a warning on the results.
+    ...(optionalTypical ? { placeholder: (s: SourceInput) => (s.kind === 'generator' ? 'typical' : '—') } : {}),
   });
 }
 
@@ -590,6 +603,24 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
   generatorNumber('kv', 'Rated', 'kV', 90),
   generatorNumber('subtransientPct', 'X″d', '%', 84, 'Subtransient reactance on the machine rating'),
   numberColumn<SourceInput>('xr', 'X/R', undefined, 80),
+  generatorNumber('transientPct', 'X′d', '%', 84, 'Transient reactance on the machine rating', true),
+  generatorNumber(
+    'synchronousPct',
+    'Xd',
+    '%',
+    84,
+    'Synchronous reactance on the machine rating (or give I sustained)',
+    true,
+  ),
+  generatorNumber(
+    'sustainedCurrentMultiple',
+    'I sustained',
+    '× rated',
+    96,
+    'Sustained fault current with excitation support, multiple of rated current (instead of Xd)',
+  ),
+  generatorNumber('subtransientTimeConstantS', 'T″d', 's', 84, 'Short-circuit subtransient time constant', true),
+  generatorNumber('transientTimeConstantS', 'T′d', 's', 84, 'Short-circuit transient time constant', true),
 ];
 
 // ---------------------------------------------------------------------------------------------

@@ -126,6 +126,26 @@ export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
     col('kva', 'number', { when: generatorOnly, note: 'Generator: rated kVA' }),
     col('kv', 'number', { when: generatorOnly, note: 'Generator: rated line-to-line kV' }),
     col('subtransientPct', 'number', { when: generatorOnly, note: 'Generator: subtransient reactance, % on rating' }),
+    col('transientPct', 'number', {
+      when: generatorOnly,
+      note: "Generator: transient reactance X'd, % on rating; empty: typical value, with a warning",
+    }),
+    col('synchronousPct', 'number', {
+      when: generatorOnly,
+      note: 'Generator: synchronous reactance Xd, % on rating; empty: typical value, with a warning',
+    }),
+    col('sustainedCurrentMultiple', 'number', {
+      when: generatorOnly,
+      note: 'Generator: sustained fault current with excitation support, × rated current (instead of Xd)',
+    }),
+    col('subtransientTimeConstantS', 'number', {
+      when: generatorOnly,
+      note: 'Generator: short-circuit subtransient time constant T"d, s; empty: typical value',
+    }),
+    col('transientTimeConstantS', 'number', {
+      when: generatorOnly,
+      note: "Generator: short-circuit transient time constant T'd, s; empty: typical value",
+    }),
   ],
   transformers: [
     id,

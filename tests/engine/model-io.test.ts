@@ -353,6 +353,28 @@ describe('round trips (common practice, no source: export then import gives the 
     expectSame(modelOf(await importModel(upload)), original);
   });
 
+  it('generator decrement data round trip through every format (common practice, no source)', async () => {
+    const withDecrement: Model = {
+      ...original,
+      sources: original.sources.map((s) =>
+        s.kind === 'generator'
+          ? {
+              ...s,
+              transientPct: 22.5,
+              sustainedCurrentMultiple: 3,
+              subtransientTimeConstantS: 0.02,
+              transientTimeConstantS: 0.35,
+            }
+          : s,
+      ),
+    };
+    for (const format of ['json', 'xlsx'] as const) {
+      const file = await exportModel(withDecrement, format);
+      expectSame(modelOf(await importModel([{ name: file.filename, buffer: asBuffer(file.body) }])), withDecrement);
+    }
+    expectSame(modelOf(await importModel(await csvUpload(withDecrement))), withDecrement);
+  });
+
   it('a minimal model (no optional tables, no About) round trips through every format', async () => {
     const minimal = parsed({
       format: 'emberline-model',
