@@ -223,7 +223,7 @@ describe('per-account sign-in backoff and reset-mail limit', () => {
     // Success forgot the failures: one wrong password is a plain 401 again, and the right one works at once.
     expect((await signIn(email, 'wrong-again-password')).status).toBe(401);
     expect((await signIn(email, TEST_PASSWORD)).status).toBe(200);
-  });
+  }, 120_000);
 
   it('the delay grows with each failure but never exceeds 5 minutes; an unknown address is treated the same', async () => {
     now = Date.now();
@@ -248,7 +248,7 @@ describe('per-account sign-in backoff and reset-mail limit', () => {
       if (email === t.orgA.users.engineer.email) expect((await signIn(email, TEST_PASSWORD)).status).toBe(200);
       else expect((await signIn(email, 'still-wrong-password')).status).toBe(401);
     }
-  });
+  }, 120_000);
 
   it('password-reset mails: 3 per account and hour, the answer always the same', async () => {
     const email = t.orgB.users.electrician.email;
