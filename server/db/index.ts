@@ -9,6 +9,7 @@ import * as m004 from './migrations/004-labels';
 import * as m005 from './migrations/005-attention-mail';
 import * as m006 from './migrations/006-audit-append-only';
 import { initModels } from './models';
+import { serializeSqliteWrites, type WriteQueue } from './writeQueue';
 
 /** Migrations in order. Add new ones at the end; never edit one that has shipped. */
 const MIGRATIONS = [
@@ -23,6 +24,8 @@ const MIGRATIONS = [
 export interface Db {
   sequelize: Sequelize;
   dialect: 'sqlite' | 'postgres';
+  /** SQLite only: the queue every write waits in (PostgreSQL handles concurrent writers itself). */
+  writeQueue?: WriteQueue;
   close(): Promise<void>;
 }
 
@@ -30,6 +33,7 @@ export interface Db {
 export async function openDb(databaseUrl: string): Promise<Db> {
   const isSqlite = databaseUrl.startsWith('sqlite:');
   let sequelize: Sequelize;
+  let writeQueue: WriteQueue | undefined;
   if (isSqlite) {
     const storage = databaseUrl.slice('sqlite:'.length) || ':memory:';
     if (storage !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(storage)), { recursive: true });
@@ -43,6 +47,8 @@ export async function openDb(databaseUrl: string): Promise<Db> {
       transactionType: Transaction.TYPES.IMMEDIATE,
     });
     configureEachSqliteConnection(sequelize);
+    // One writer at a time: overlapping writers wait in order in the process instead of spinning on the lock.
+    writeQueue = serializeSqliteWrites(sequelize);
     await sequelize.query('PRAGMA foreign_keys = ON');
     if (storage !== ':memory:') await sequelize.query('PRAGMA journal_mode = WAL');
     await sequelize.query('PRAGMA busy_timeout = 5000');
@@ -54,6 +60,7 @@ export async function openDb(databaseUrl: string): Promise<Db> {
   return {
     sequelize,
     dialect: isSqlite ? 'sqlite' : 'postgres',
+    writeQueue,
     close: () => sequelize.close(),
   };
 }

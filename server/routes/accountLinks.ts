@@ -11,6 +11,7 @@ import {
   tokenInfoSchema,
 } from '../../shared/schemas/invitations';
 import { AccountQuota } from '../auth/accountThrottle';
+import { withRetry } from '../db/retry';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { acceptInvitation, confirmPasswordReset, linkInfo, requestPasswordReset } from '../services/invitations';
 import { changePassword } from '../services/users';
@@ -75,7 +76,8 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
         // At most 3 reset mails an hour per address, whatever the client address; beyond, the same answer and no mail.
         if (!resetMails.take(body.email, ctx.now().getTime())) return { ok: true as const };
         // In the background: the answer and its timing are the same whether or not the account exists.
-        ctx.jobs.start(() => requestPasswordReset(ctx, body.email));
+        // A transient failure (database busy, connection lost) is tried again; the mail itself retries on its own.
+        ctx.jobs.start(() => withRetry(() => requestPasswordReset(ctx, body.email)));
         return { ok: true as const };
       },
     }),
