@@ -82,6 +82,58 @@ function LabelPreview({ b }: { b: BusResult }) {
   );
 }
 
+/** When the device operates over the arc's changing current (null: not before the arc ends; older results: none). */
+const operatedAt = (d: ArcCaseTrace['devices'][number]): number | null => d.operatedAtS ?? null;
+
+/** The arc's stretches (same sources feeding) and, on demand, the time steps inside each one. */
+function IntervalList({ c }: { c: ArcCaseTrace }) {
+  const [open, setOpen] = useState<number | null>(null);
+  const stepped = c.intervals.some((i) => (i.steps ?? []).length > 1);
+  if (c.intervals.length <= 1 && !stepped) return null;
+  return (
+    <View style={{ gap: 4, marginTop: space.sm }} testID="intervals">
+      <T variant="label">ENERGY BY INTERVAL (SOURCES CUT OFF ONE BY ONE, CURRENTS FOLLOWED IN TIME)</T>
+      {c.intervals.map((i, n) => {
+        const steps = i.steps ?? [];
+        const opened = i.openedDeviceIds ?? [];
+        return (
+          <View key={i.fromS} style={{ gap: 2 }}>
+            <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
+              {fmt(i.fromS)}–{fmt(i.toS)} s · {i.sourceIds.join(', ')} · Ibf {fmt(i.boltedFaultKa)} kA · Iarc{' '}
+              {fmt(i.arcingCurrentKa)} kA{steps.length > 1 ? ' at first' : ''} · {fmt(i.incidentEnergyJPerCm2 / 4.184)}{' '}
+              cal/cm²{opened.length ? ` · ${opened.join(', ')} opens` : ''}
+            </T>
+            {steps.length > 1 ? (
+              <T
+                variant="small"
+                accessibilityRole="button"
+                onPress={() => setOpen(open === n ? null : n)}
+                style={{ color: colors.accent }}
+                testID={`interval-steps-toggle-${n}`}
+              >
+                {open === n ? 'Hide' : 'Show'} the {steps.length} time steps (the current changes within this interval)
+              </T>
+            ) : null}
+            {open === n
+              ? steps.map((s) => (
+                  <T
+                    key={s.fromS}
+                    variant="small"
+                    style={{ fontFamily: fonts.numbers, fontSize: 12, paddingLeft: space.md }}
+                  >
+                    {fmt(s.fromS)}–{fmt(s.toS)} s · Ibf {fmt(s.boltedFaultKa)} kA · Iarc {fmt(s.arcingCurrentKa)} kA ·{' '}
+                    {fmt(s.incidentEnergyJPerCm2 / 4.184)} cal/cm²
+                    {(s.openedDeviceIds ?? []).length ? ` · ${s.openedDeviceIds.join(', ')} opens` : ''}
+                  </T>
+                ))
+              : null}
+          </View>
+        );
+      })}
+    </View>
+  );
+}
+
 function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
   const sorted = [...c.devices].sort((a, b) => (a.clearingTimeS ?? Infinity) - (b.clearingTimeS ?? Infinity));
   return (
@@ -105,7 +157,11 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
                 {d.deviceId === c.clearingDeviceId ? ' · clears the arc' : decides ? ' · cuts off a source' : ''}
               </T>
               <T style={{ fontFamily: fonts.numbers }}>
-                {d.clearingTimeS === null ? 'does not clear' : `${fmt(d.clearingTimeS)} s`}
+                {operatedAt(d) !== null
+                  ? `operates at ${fmt(operatedAt(d) as number)} s`
+                  : d.clearingTimeS === null
+                    ? 'does not clear'
+                    : `${fmt(d.clearingTimeS)} s at the first-cycle current`}
               </T>
             </View>
             <T variant="small">
@@ -116,7 +172,22 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
               {d.kv !== busKv ? ` at ${fmt(d.kv)} kV` : ''} ({fmt(d.share * 100)} % of the fault) ·{' '}
               {REGION_LABELS[d.region]}
               {d.minimumTimeS !== null ? ` · minimum ${fmt(d.minimumTimeS)} s` : ''}
+              {operatedAt(d) !== null && d.clearingTimeS !== null && operatedAt(d) !== d.clearingTimeS
+                ? ` · band at the first-cycle current ${fmt(d.clearingTimeS)} s`
+                : ''}
             </T>
+            {operatedAt(d) !== null && d.operatingElement ? (
+              <T variant="small">
+                Operates by its {d.operatingElement} element
+                {d.operatingRegion ? ` (${REGION_LABELS[d.operatingRegion]})` : ''}: ∫ dt / t(I) reaches 1 over the
+                current it sees during the arc (IEEE C37.112).
+              </T>
+            ) : null}
+            {(d.dropouts ?? []).map((x) => (
+              <T key={`${x.element}-${x.atS}`} variant="small">
+                Its {x.element} element stopped timing at {fmt(x.atS)} s: the current fell below its pickup.
+              </T>
+            ))}
           </View>
         );
       })}
@@ -250,17 +321,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         <ValueRow label="Arc-flash boundary">
           <Num value={fmtLength(current.arcFlashBoundaryMm, 'mm')} size={14} />
         </ValueRow>
-        {current.intervals.length > 1 ? (
-          <View style={{ gap: 4, marginTop: space.sm }} testID="intervals">
-            <T variant="label">ENERGY BY INTERVAL (SOURCES CUT OFF ONE BY ONE)</T>
-            {current.intervals.map((i) => (
-              <T key={i.fromS} variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
-                {fmt(i.fromS)}–{fmt(i.toS)} s · {i.sourceIds.join(', ')} · Ibf {fmt(i.boltedFaultKa)} kA · Iarc{' '}
-                {fmt(i.arcingCurrentKa)} kA · {fmt(i.incidentEnergyJPerCm2 / 4.184)} cal/cm²
-              </T>
-            ))}
-          </View>
-        ) : null}
+        <IntervalList c={current} />
       </Card>
       <Card>
         <T variant="subheading">Devices carrying fault current</T>
