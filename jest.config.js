@@ -4,7 +4,8 @@
  * - `api`: the HTTP API and the server services (tests/api, tests/server);
  * - `slow`: suites that take more than about 20 s on a 2-core machine (fuzzing, crash-and-restart, scaling), and any
  *   file named `*.slow.test.ts`.
- * `npm test` runs all three, then the browser tests.
+ * - `web`: app components rendered to HTML (babel, react-native-web, react-dom/server) to check what screens say.
+ * `npm test` runs all four, then the browser tests.
  */
 const SLOW = ['tests/api/fuzz.test.ts', 'tests/api/crash.test.ts'];
 
@@ -30,5 +31,23 @@ module.exports = {
       testPathIgnorePatterns: ['/node_modules/', '\\.slow\\.test\\.ts$', ...SLOW.map(escape)],
     },
     { ...base, displayName: 'slow', testMatch: [...slowPaths, '<rootDir>/tests/**/*.slow.test.ts'] },
+    {
+      displayName: 'web',
+      testEnvironment: 'node',
+      roots: ['<rootDir>/tests'],
+      testMatch: ['<rootDir>/tests/web/**/*.test.tsx'],
+      transform: { '^.+\\.[jt]sx?$': 'babel-jest' },
+      moduleNameMapper: {
+        '^react-native$': 'react-native-web',
+        '^react-native-svg$': '<rootDir>/node_modules/react-native-svg/lib/commonjs/ReactNativeSVG.web.js',
+        '^expo-router$': '<rootDir>/tests/web/stubs/expoRouter.tsx',
+        '\\.(png|jpg|jpeg|gif|ttf|otf)$': '<rootDir>/tests/web/stubs/file.js',
+      },
+      globals: { __DEV__: true },
+      moduleFileExtensions: ['web.tsx', 'web.ts', 'web.js', 'tsx', 'ts', 'js', 'json'],
+      transformIgnorePatterns: [
+        'node_modules/(?!(react-native-web|react-native-svg|react-native|@react-native|expo.*|@expo.*)/)',
+      ],
+    },
   ],
 };
