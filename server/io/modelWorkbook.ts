@@ -1,4 +1,5 @@
 import ExcelJS from 'exceljs';
+import { guardWorkbookArchive } from './zipGuard';
 import type { Model } from '../../shared/schemas/model';
 import {
   MODEL_TABLES,
@@ -68,9 +69,11 @@ function toCell(value: ExcelJS.CellValue): Cell {
  * its column's type are errors naming the sheet, the row as Excel shows it and the column (header and letter).
  */
 export async function importModelWorkbook(buffer: Buffer, fileName = 'model.xlsx'): Promise<ParsedModelFile> {
+  // Checked and stripped to its sheets before unpacking (zip bombs, large media): UnsafeArchiveError otherwise.
+  const sheetsOnly = await guardWorkbookArchive(buffer);
   const workbook = new ExcelJS.Workbook();
   try {
-    await workbook.xlsx.load(buffer as unknown as ExcelJS.Buffer);
+    await workbook.xlsx.load(sheetsOnly as unknown as ExcelJS.Buffer);
   } catch {
     return { ok: false, errors: [withPlace({ file: fileName, message: 'Not a readable .xlsx workbook' })] };
   }

@@ -15,6 +15,7 @@ import { ApiError, modelIssuesError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { multiFileUpload } from '../http/upload';
 import { exportModel, importModel } from '../io';
+import { UnsafeArchiveError } from '../io/zipGuard';
 import { latestRun, sendResults, startRun } from '../services/runs';
 import {
   approveStudy,
@@ -185,7 +186,13 @@ export const studyIoRoutes: AnyRoute[] = [
         mimeType: f.mimetype,
         buffer: f.buffer,
       }));
-      const result = await importModel(files);
+      let result: Awaited<ReturnType<typeof importModel>>;
+      try {
+        result = await importModel(files);
+      } catch (e) {
+        if (!(e instanceof UnsafeArchiveError)) throw e;
+        throw new ApiError(e.status === 413 ? 'payload_too_large' : 'unprocessable', e.message, { files: e.message });
+      }
       if (!result.ok) {
         const fields: Record<string, string> = {};
         for (const e of result.errors) fields[e.where] ??= e.message;
