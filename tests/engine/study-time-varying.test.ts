@@ -406,3 +406,22 @@ describe('motor contribution decaying exponentially (common practice, no source)
     expect(createStudyRunner(parse(withMotor())).finish([]).motorDecayModel).toBe('step');
   });
 });
+
+describe('a generator without Xd or sustained multiple: both typical sustained currents, the higher energy kept', () => {
+  it('equals the higher of the two cases entered explicitly (the higher hazard; typical values from memory)', () => {
+    const energyWith = (gen: Record<string, unknown>) => {
+      const m = generatorOnly();
+      const g = m.sources![0] as Record<string, unknown>;
+      delete g.sustainedCurrentMultiple;
+      Object.assign(g, gen);
+      const bus = createStudyRunner(parse(m)).runBus('SWBD');
+      return bus.cases.find((c) => c.arcCase === 'full')!;
+    };
+    const missing = energyWith({});
+    const low = energyWith({ synchronousPct: 200 }); // the typical Xd of the data file
+    const high = energyWith({ sustainedCurrentMultiple: 3 }); // the typical supported sustained multiple
+    expect(low.incidentEnergyJPerCm2).not.toBeCloseTo(high.incidentEnergyJPerCm2, 3);
+    expectClose(missing.incidentEnergyJPerCm2, Math.max(low.incidentEnergyJPerCm2, high.incidentEnergyJPerCm2), 1e-12);
+    expect(missing.sentence).toContain('the higher of two energies');
+  });
+});

@@ -89,6 +89,7 @@ export const TYPICAL_GENERATOR = {
   synchronousPu: typical.values.synchronousPu.value,
   subtransientTimeConstantS: typical.values.subtransientTimeConstantS.value,
   transientTimeConstantS: typical.values.transientTimeConstantS.value,
+  supportedSustainedMultiple: typical.values.supportedSustainedMultiple.value,
 } as const;
 
 export interface ResolvedGenerator {
@@ -97,6 +98,11 @@ export interface ResolvedGenerator {
   synchronousPu: number;
   subtransientTimeConstantS: number;
   transientTimeConstantS: number;
+  /**
+   * When neither Xd nor a sustained multiple is given: the equivalent Xd of a machine with excitation support
+   * (1 / the typical supported multiple). The study evaluates both sustained currents and keeps the higher energy.
+   */
+  alternateSynchronousPu: number | null;
   /** Fields taken from the typical values (typical value, from memory). */
   typicalValuesUsed: string[];
   warnings: EngineWarning[];
@@ -133,6 +139,11 @@ export function resolveGenerator(g: GeneratorSource): ResolvedGenerator {
     subtransientTimeConstantS: `T"d = ${subtransientTimeConstantS} s`,
     transientTimeConstantS: `T'd = ${transientTimeConstantS} s`,
   };
+  const alternateSynchronousPu = used.includes('synchronousPct')
+    ? Math.max(1 / TYPICAL_GENERATOR.supportedSustainedMultiple, transientPu)
+    : null;
+  if (alternateSynchronousPu !== null)
+    names.synchronousPct = `Xd = ${synchronousPu * 100} % and, as a second case, a sustained current of ${TYPICAL_GENERATOR.supportedSustainedMultiple} × rated (excitation support), the higher energy kept`;
   const warnings: EngineWarning[] = used.length
     ? [
         {
@@ -147,6 +158,7 @@ export function resolveGenerator(g: GeneratorSource): ResolvedGenerator {
     synchronousPu,
     subtransientTimeConstantS,
     transientTimeConstantS,
+    alternateSynchronousPu,
     typicalValuesUsed: used.map((u) => `${g.id}.${u}`),
     warnings,
   };

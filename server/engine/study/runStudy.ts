@@ -71,6 +71,8 @@ export interface StudyOptions {
 
 export type MotorDecayModel = 'step' | 'exponential';
 export const DEFAULT_MOTOR_DECAY_CYCLES = 5;
+/** How far an arc is followed at a bus without a cap (`arcDurationCapS: null`), s. */
+export const NO_CAP_HORIZON_S = 3600;
 export const DEFAULT_MOTOR_DECAY_MODEL: MotorDecayModel = 'step';
 const J_PER_CAL = 4.184;
 /** A share of the fault current below this counts as zero. */
@@ -124,6 +126,11 @@ interface FaultPicture {
   edges: Edge[];
   contributors: Contributor[];
   devices: PathDevice[];
+  /**
+   * The contributors again with each generator whose sustained current is not given at the typical supported
+   * sustained current instead (second case; the higher energy is kept), or null when there is none.
+   */
+  alternateContributors: Contributor[] | null;
   /** Generator data taken from typical values (`<id>.<field>`), with their warnings. */
   typicalValuesUsed: string[];
   warnings: EngineWarning[];
@@ -199,6 +206,7 @@ function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
   const total = referred.reduce((s, r) => s + r.a, 0);
   const typicalValuesUsed: string[] = [];
   const warnings: EngineWarning[] = [];
+  const alternates = new Map<string, ContributionProfile>();
   const contributors: Contributor[] = referred
     .filter((r) => total > 0 && r.a / total > NEGLIGIBLE)
     .map((r) => {
@@ -215,6 +223,11 @@ function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
         const i0Pu = r.i.currentA / ratedA;
         const externalPu = (model.prefaultPu ?? 1) / i0Pu - g.subtransientPu;
         profile = generatorDecrementProfile({ ...g, externalPu });
+        if (g.alternateSynchronousPu !== null)
+          alternates.set(
+            r.i.id,
+            generatorDecrementProfile({ ...g, synchronousPu: g.alternateSynchronousPu, externalPu }),
+          );
       }
       return { id: r.i.id, kind, bus: r.i.bus, share: r.a / total, profile };
     });
@@ -253,7 +266,12 @@ function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
       });
     }
   }
-  return { bus, fault, edges, contributors, devices, typicalValuesUsed, warnings };
+  const alternateContributors = alternates.size
+    ? contributors.map((c) =>
+        alternates.has(c.id) ? { ...c, profile: alternates.get(c.id) as ContributionProfile } : c,
+      )
+    : null;
+  return { bus, fault, edges, contributors, devices, alternateContributors, typicalValuesUsed, warnings };
 }
 
 /** Whether `from` still reaches `to` over the edges not opened. */
@@ -647,6 +665,28 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   };
 }
 
+/**
+ * The case, and where a generator's sustained current is not given, the case again with the typical supported
+ * sustained current: the higher energy is kept (the higher hazard), and the sentence says so.
+ */
+function evaluateCaseBracketed(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace {
+  const alt = input.picture.alternateContributors;
+  if (!alt) return evaluateCase(input, warnings);
+  const wA: EngineWarning[] = [];
+  const wB: EngineWarning[] = [];
+  const a = evaluateCase(input, wA);
+  const b = evaluateCase({ ...input, picture: { ...input.picture, contributors: alt } }, wB);
+  const keepB = b.incidentEnergyJPerCm2 > a.incidentEnergyJPerCm2;
+  const kept = keepB ? b : a;
+  const other = keepB ? a : b;
+  warnings.push(...(keepB ? wB : wA));
+  const ids = input.picture.contributors.filter((c) => alt.find((x) => x.id === c.id)?.profile !== c.profile);
+  kept.sentence +=
+    ` Sustained current of ${ids.map((c) => c.id).join(', ')} not entered: evaluated ${keepB ? 'with excitation support (typical sustained multiple)' : 'without excitation support (typical Xd)'}, ` +
+    `the higher of two energies (${fmt(kept.incidentEnergyCalPerCm2)} against ${fmt(other.incidentEnergyCalPerCm2)} cal/cm² ${keepB ? 'without' : 'with'} it).`;
+  return kept;
+}
+
 /** The devices at this bus's end of the branches that feed it: its main device(s). */
 function mainDevices(picture: FaultPicture): Set<string> {
   const out = new Set<string>();
@@ -722,22 +762,39 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
       const picture = faultPicture(pictureContext, bus);
       warnings.push(...picture.warnings);
       equipment.typicalValuesUsed = [...equipment.typicalValuesUsed, ...picture.typicalValuesUsed];
+      // The bus's own arc-duration cap (with its reason) replaces the study's; null: no cap, the clearing time stands
+      // (followed up to NO_CAP_HORIZON_S; a case no device clears by then is an error for the bus, not a number).
+      const busCap = bus.equipment?.arcDurationCapS;
+      const capReason = bus.equipment?.arcDurationCapReason?.trim() || null;
+      const arcDurationCap =
+        busCap === undefined
+          ? { capS: maxArcDurationMs / 1000, source: 'study' as const, reason: null }
+          : { capS: busCap, source: 'bus' as const, reason: capReason };
+      if (arcDurationCap.source === 'bus') {
+        warnings.push({
+          code: 'BUS_ARC_DURATION_CAP',
+          message:
+            arcDurationCap.capS === null
+              ? `No arc-duration cap at ${bus.id}: the clearing time stands (${capReason ?? 'no reason given'}).`
+              : `Arc-duration cap at ${bus.id}: ${fmt(arcDurationCap.capS)} s instead of the study's ${fmt(maxArcDurationMs / 1000)} s (${capReason ?? 'no reason given'}).`,
+        });
+      }
       const common = {
         picture,
         equipment,
         arcing,
         enclosureCorrectionFactor: enclosure.enclosureCorrectionFactor,
-        maxArcDurationS: maxArcDurationMs / 1000,
+        maxArcDurationS: arcDurationCap.capS ?? NO_CAP_HORIZON_S,
       };
       const cases: ArcCaseTrace[] = [];
       for (const arcCase of ['full', 'reduced'] as const)
-        cases.push(evaluateCase({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings));
+        cases.push(evaluateCaseBracketed({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings));
       const mainStated = bus.equipment?.mainIsolated !== undefined;
       if (!equipment.mainIsolated) {
         const mains = mainDevices(picture);
         if (mains.size) {
           for (const arcCase of ['full', 'reduced'] as const)
-            cases.push(evaluateCase({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings));
+            cases.push(evaluateCaseBracketed({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings));
           if (!mainStated) {
             warnings.push({
               code: 'MAIN_ISOLATION_NOT_STATED',
@@ -753,6 +810,14 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
           // No main at this bus: the unstated isolation changes nothing, so it is not listed as a defaulted value.
           equipment.typicalValuesUsed = equipment.typicalValuesUsed.filter((f) => f !== 'mainIsolated');
         }
+      }
+      if (arcDurationCap.capS === null && cases.some((c) => c.arcDurationCapped)) {
+        throw new EngineError(
+          'invalid-input',
+          'NO_CLEARING_WITHOUT_CAP',
+          `${bus.id} has no arc-duration cap, and no protective device clears every source within ${fmt(NO_CAP_HORIZON_S)} s: set a cap on the bus or check the protection`,
+          'equipment.arcDurationCapS',
+        );
       }
       const governing = cases.reduce((g, c) => (c.incidentEnergyJPerCm2 > g.incidentEnergyJPerCm2 ? c : g));
       const labelValues = computeLabelValues(
@@ -779,6 +844,7 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
         incidentEnergyJPerCm2: governing.incidentEnergyJPerCm2,
         arcFlashBoundaryMm: governing.arcFlashBoundaryMm,
         arcDurationS: governing.arcDurationS,
+        arcDurationCap,
         clearingDeviceId: governing.clearingDeviceId,
         labelValues,
         warnings: dedupe(warnings),
