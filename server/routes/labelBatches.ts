@@ -5,6 +5,7 @@ import { Label } from '../db/models';
 import { ApiError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { batchFile, createBatch, getBatch, renderLabelPdf } from '../services/labelBatches';
+import { admitLabelBatch } from '../services/labelBatchLimits';
 import { CAUTIONS } from '../../shared/cautions';
 import type { Model } from '../../shared/schemas/model';
 import { renderStudyReport } from '../pdf/studyReport';
@@ -26,7 +27,7 @@ export const labelBatchRoutes: AnyRoute[] = [
     body: createLabelBatchSchema,
     response: labelBatchSchema,
     status: 202,
-    handler: ({ ctx, user, body }) => createBatch(ctx, user, body),
+    handler: ({ ctx, user, body }) => admitLabelBatch(ctx, user, body, createBatch),
   }),
   defineRoute({
     method: 'get',
@@ -40,7 +41,7 @@ export const labelBatchRoutes: AnyRoute[] = [
   defineRoute({
     method: 'get',
     path: '/label-batches/:batchId/file',
-    summary: 'The PDF of a finished print batch.',
+    summary: 'The PDF of a finished print batch; downloading it (electrician, engineer) marks its labels printed.',
     tag: 'labels',
     access: PRINTERS,
     produces: 'application/pdf',
@@ -54,7 +55,8 @@ export const labelBatchRoutes: AnyRoute[] = [
   defineRoute({
     method: 'get',
     path: '/studies/:studyId/labels.pdf',
-    summary: 'All labels issued by an approved revision as one PDF (size=4x6|4x4|letter|a4).',
+    summary:
+      'All labels issued by an approved revision as one PDF (size=4x6|4x4|letter|a4), for review: it does not mark them printed.',
     tag: 'labels',
     access: PRINTERS,
     query: z.object({ size: labelSizeSchema.default('4x6') }),
@@ -67,7 +69,7 @@ export const labelBatchRoutes: AnyRoute[] = [
       });
       if (!labels.length)
         throw ApiError.conflict('This revision has no labels: only an approved revision issues labels');
-      const pdf = await renderLabelPdf(ctx, user, labels, query.size);
+      const pdf = await renderLabelPdf(ctx, labels, query.size);
       res.setHeader('Content-Type', 'application/pdf');
       res.setHeader('Content-Disposition', `attachment; filename="labels-rev${study.revision}-${query.size}.pdf"`);
       res.send(Buffer.from(pdf));

@@ -4,7 +4,7 @@ import type { LabelContent, LabelSize } from '../../shared/schemas/labels';
 import { Label, LabelBatch } from '../db/models';
 import type { AppContext, AuthUser } from '../http/context';
 import { ApiError } from '../http/errors';
-import { renderLabels } from '../pdf/labels';
+import { renderLabelsOffThread } from '../pdf/labelWorker';
 import { makeFileKey } from '../storage';
 import { recordAudit } from './audit';
 import { yieldToLoop, type JobRef } from './jobs';
@@ -37,34 +37,57 @@ async function labelsOf(actor: AuthUser, ids: string[]): Promise<Label[]> {
   return ids.map((id) => byId.get(id) as Label);
 }
 
-/** One PDF of the given labels, now (small batches and the study's labels.pdf). Records the printed time. */
+/**
+ * One PDF of the given labels, now (the study's labels.pdf, print batches). Making or opening a PDF does not mark
+ * anything printed: a label is printed when a print batch containing it is downloaded (`recordPrinted`).
+ */
 export async function renderLabelPdf(
   ctx: AppContext,
-  actor: AuthUser,
   labels: Label[],
   size: LabelSize,
   onProgress?: (done: number, total: number) => void,
 ): Promise<Uint8Array> {
-  const pdf = await renderLabels(
+  return renderLabelsOffThread(
     labels.map((l) => ({ content: JSON.parse(l.content) as LabelContent, checkUrl: checkUrl(ctx, l.code) })),
     size,
     { onProgress },
   );
+}
+
+/** Roles whose download of a print batch means the labels in it were printed. */
+const PRINTING_ROLES = new Set(['electrician', 'engineer']);
+
+/** Marks the labels of a downloaded print batch printed, with an audit event naming the batch. */
+async function recordPrinted(ctx: AppContext, actor: AuthUser, batch: LabelBatch): Promise<void> {
+  if (!PRINTING_ROLES.has(actor.role)) return;
+  const ids = JSON.parse(batch.labelIds) as string[];
   await ctx.db.sequelize.transaction(async (transaction) => {
-    await Label.update({ printedAt: ctx.now() }, { where: { id: labels.map((l) => l.id) }, transaction });
+    const labels = await Label.findAll({
+      where: { id: ids, organizationId: actor.organizationId },
+      attributes: ['id', 'equipmentTag'],
+      transaction,
+    });
+    await Label.update(
+      { printedAt: ctx.now() },
+      { where: { id: labels.map((l) => l.id), organizationId: actor.organizationId }, transaction },
+    );
     await recordAudit(
       {
         organizationId: actor.organizationId,
         actorId: actor.id,
         action: 'labels.printed',
-        entityType: 'label',
-        entityId: null,
-        summary: { count: labels.length, size, tags: labels.slice(0, 50).map((l) => l.equipmentTag) },
+        entityType: 'label-batch',
+        entityId: batch.id,
+        summary: {
+          batchId: batch.id,
+          count: labels.length,
+          size: batch.size,
+          tags: labels.slice(0, 50).map((l) => l.equipmentTag),
+        },
       },
       transaction,
     );
   });
-  return pdf;
 }
 
 /** A print batch: a background job that renders one PDF and stores it; the client polls its progress. */
@@ -85,7 +108,7 @@ export async function createBatch(ctx: AppContext, actor: AuthUser, input: Creat
       ctx.jobs.throwIfStopping('label-batch');
       await batch.update({ status: 'running', message: 'Making the PDF', progress: 0.02 });
       let last = Date.now();
-      const pdf = await renderLabelPdf(ctx, actor, labels, input.size, (done, total) => {
+      const pdf = await renderLabelPdf(ctx, labels, input.size, (done, total) => {
         if (Date.now() - last > 300) {
           last = Date.now();
           void batch.update({ progress: 0.02 + 0.9 * (done / total), message: `Label ${done} of ${total}` });
@@ -125,5 +148,6 @@ export async function batchFile(ctx: AppContext, actor: AuthUser, id: string): P
   if (b.status !== 'done' || !b.fileKey) throw ApiError.conflict('The PDF is not ready yet');
   const file = await ctx.storage.get(b.fileKey);
   if (!file) throw ApiError.notFound('The PDF is no longer stored; make it again');
+  await recordPrinted(ctx, actor, b);
   return file.body;
 }

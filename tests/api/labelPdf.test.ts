@@ -1,4 +1,5 @@
 import request from 'supertest';
+import { AuditEvent } from '../../server/db/models';
 import { smallModel } from '../fixtures/smallModel';
 import { approveStudy } from '../helpers/flows';
 import { pdfText } from '../helpers/pdfText';
@@ -28,7 +29,7 @@ const binary = (res: request.Response, cb: (err: Error | null, body: Buffer) => 
 const text = async (pdf: Buffer): Promise<string> => pdfText(pdf);
 
 describe('label PDFs through the API', () => {
-  it('GET /studies/:id/labels.pdf gives every label of the revision, with its values and review-by date, and records printing', async () => {
+  it('GET /studies/:id/labels.pdf gives every label of the revision, with its values and review-by date, and does not mark them printed', async () => {
     const res = await request(t.app)
       .get(`/api/studies/${studyId}/labels.pdf?size=4x6`)
       .set(...elec())
@@ -50,8 +51,45 @@ describe('label PDFs through the API', () => {
       expect(content).toContain(l.content.equipmentName);
       expect(content).toContain(l.content.reviewByDate);
       expect(content).toContain(l.content.signalWord);
-      expect(l.printedAt).not.toBeNull();
+      // Opening the study's PDF is not printing: only downloading a print batch is.
+      expect(l.printedAt).toBeNull();
     }
+  });
+
+  it('a label becomes printed when an electrician downloads a batch containing it, and the audit names the batch', async () => {
+    const labels = (
+      await request(t.app)
+        .get(`/api/studies/${studyId}/labels`)
+        .set(...elec())
+    ).body.labels as { id: string; equipmentTag: string; printedAt: string | null }[];
+    const [first, ...rest] = labels;
+    const created = await request(t.app)
+      .post('/api/label-batches')
+      .set(...elec())
+      .send({ labelIds: [first.id], size: '4x4' });
+    await t.ctx.jobs.idle();
+    const before = (
+      await request(t.app)
+        .get(`/api/studies/${studyId}/labels`)
+        .set(...elec())
+    ).body.labels as { id: string; printedAt: string | null }[];
+    // Made but not yet downloaded: nothing is printed.
+    for (const l of before) expect(l.printedAt).toBeNull();
+    await request(t.app)
+      .get(`/api/label-batches/${created.body.id}/file`)
+      .set(...elec())
+      .buffer(true)
+      .parse(binary);
+    const after = (
+      await request(t.app)
+        .get(`/api/studies/${studyId}/labels`)
+        .set(...elec())
+    ).body.labels as { id: string; printedAt: string | null }[];
+    expect(after.find((l) => l.id === first.id)!.printedAt).not.toBeNull();
+    for (const l of rest) expect(after.find((a) => a.id === l.id)!.printedAt).toBeNull();
+    const audit = await AuditEvent.findAll({ where: { action: 'labels.printed', entityId: created.body.id } });
+    expect(audit.length).toBe(1);
+    expect(JSON.parse(audit[0].summary as unknown as string)).toMatchObject({ batchId: created.body.id, count: 1 });
   });
 
   it('a print batch runs in the background and gives one PDF', async () => {
