@@ -32,6 +32,16 @@ export function useDeleteReminderRule() {
   });
 }
 
+/** An admin approves a rule's outside addresses (until then they are not mailed). */
+export function useApproveReminderEmails() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, emails }: { id: string; emails: string[] }) =>
+      apiFetch<ReminderRule>(`/reminder-rules/${enc(id)}/approve-emails`, { method: 'POST', body: { emails } }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.reminders.rules() }),
+  });
+}
+
 /** Sends one rule's reminder now, or every enabled rule's when no id is given. */
 export function useSendNow() {
   const qc = useQueryClient();

@@ -7,6 +7,7 @@ import { reminderRuleInputSchema, type ReminderDelivery, type ReminderRule } fro
 import { fmtDateTime, fmtHourUtc } from '../../hooks/dates';
 import { serverErrors, validate } from '../../hooks/forms';
 import {
+  useApproveReminderEmails,
   useDeleteReminderRule,
   useDeliveries,
   useReminderRules,
@@ -153,7 +154,7 @@ function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void })
         onChangeText={(emails) => setD({ ...d, emails })}
         autoCapitalize="none"
         error={fieldError(errors, 'emails')}
-        hint="Separate several with commas"
+        hint="Separate several with commas. Addresses outside the organization are mailed once an administrator approves them."
         placeholder="contractor@example.org"
       />
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.lg }}>
@@ -188,7 +189,8 @@ function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void })
 
 function deliveryLine(d: ReminderDelivery): string {
   const items = d.itemCount === 1 ? '1 item' : `${d.itemCount} items`;
-  if (d.status === 'sent') return `${d.ruleName}: sent to ${d.recipients.join(', ') || 'nobody'} (${items}).`;
+  if (d.status === 'sent')
+    return `${d.ruleName}: sent to ${d.recipients.join(', ') || 'nobody'} (${items})${d.message.includes('awaiting') ? ` — ${d.message}` : ''}.`;
   return `${d.ruleName}: ${DELIVERY_WORD[d.status].toLowerCase()} (${items})${d.message ? ` — ${d.message}` : ''}.`;
 }
 
@@ -203,7 +205,12 @@ function RuleCard({
 }) {
   const del = useDeleteReminderRule();
   const send = useSendNow();
+  const approve = useApproveReminderEmails();
+  const isAdmin = useUser().role === 'admin';
   const [error, setError] = useState<string | null>(null);
+  const states = rule.emailStates ?? rule.emails.map((email) => ({ email, state: 'pending' as const }));
+  const pending = states.filter((e) => e.state === 'pending').map((e) => e.email);
+  const approvedOrMember = states.filter((e) => e.state !== 'pending').map((e) => e.email);
   return (
     <Card testID={`rule-${rule.name}`} style={{ opacity: rule.enabled ? 1 : 0.8 }}>
       <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
@@ -219,9 +226,36 @@ function RuleCard({
       <View style={{ gap: 4 }}>
         <T variant="label">TO</T>
         <T style={{ fontSize: 15 }}>
-          {[...rule.roles.map((r) => `every ${ROLE_LABELS[r].toLowerCase()}`), ...rule.emails].join(', ') || '—'}
+          {[...rule.roles.map((r) => `every ${ROLE_LABELS[r].toLowerCase()}`), ...approvedOrMember].join(', ') || '—'}
         </T>
       </View>
+      {pending.length ? (
+        <Notice testID={`rule-pending-${rule.name}`} title="Awaiting an administrator's approval">
+          <View style={{ gap: space.sm }}>
+            <T>
+              Addresses outside the organization get no reminder until an administrator approves them:{' '}
+              {pending.join(', ')}.
+            </T>
+            {isAdmin ? (
+              <View style={{ flexDirection: 'row' }}>
+                <Button
+                  title={pending.length === 1 ? 'Approve the address' : `Approve ${pending.length} addresses`}
+                  kind="secondary"
+                  testID={`rule-approve-${rule.name}`}
+                  busy={approve.isPending}
+                  onPress={() => {
+                    setError(null);
+                    approve.mutate(
+                      { id: rule.id, emails: pending },
+                      { onError: (e) => setError(serverErrors(e).message) },
+                    );
+                  }}
+                />
+              </View>
+            ) : null}
+          </View>
+        </Notice>
+      ) : null}
       <T variant="small">
         {rule.onlyWhenSomething
           ? 'Skips the days when every chosen list is empty.'
@@ -313,7 +347,9 @@ function Deliveries() {
                   {d.itemCount === 1 ? '1 item' : `${d.itemCount} items`} ·{' '}
                   {d.recipients.length ? d.recipients.join(', ') : 'no recipients'}
                 </T>
-                {d.message && d.status !== 'sent' ? <T variant="small">{d.message}</T> : null}
+                {d.message && (d.status !== 'sent' || d.message.includes('awaiting')) ? (
+                  <T variant="small">{d.message}</T>
+                ) : null}
               </View>
             </View>
           ))}

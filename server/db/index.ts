@@ -8,6 +8,7 @@ import * as m003 from './migrations/003-studies';
 import * as m004 from './migrations/004-labels';
 import * as m005 from './migrations/005-attention-mail';
 import * as m006 from './migrations/006-audit-append-only';
+import * as m007 from './migrations/007-reminder-approvals';
 import { initModels } from './models';
 import { serializeSqliteWrites, type WriteQueue } from './writeQueue';
 
@@ -19,6 +20,7 @@ const MIGRATIONS = [
   { name: '004-labels', ...m004 },
   { name: '005-attention-mail', ...m005 },
   { name: '006-audit-append-only', ...m006 },
+  { name: '007-reminder-approvals', ...m007 },
 ];
 
 export interface Db {

@@ -204,6 +204,8 @@ export class ReminderRuleRow extends Model<InferAttributes<ReminderRuleRow>, Inf
   declare lists: string;
   declare roles: string;
   declare emails: string;
+  /** JSON array: the addresses of `emails` outside the organization that an admin approved. */
+  declare approvedEmails: CreationOptional<string>;
   declare onlyWhenSomething: boolean;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -462,6 +464,7 @@ export function initModels(sequelize: Sequelize): void {
       lists: { type: DataTypes.TEXT, allowNull: false },
       roles: { type: DataTypes.TEXT, allowNull: false },
       emails: { type: DataTypes.TEXT, allowNull: false },
+      approvedEmails: { type: DataTypes.TEXT, allowNull: false, defaultValue: '[]' },
       onlyWhenSomething: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       ...timestamps(),
     },

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { createInvitationSchema, invitationListSchema, invitationSchema } from '../../shared/schemas/invitations';
 import {
+  approveEmailsSchema,
   deliveryListSchema,
   outboxSchema,
   reminderRuleInputSchema,
@@ -12,6 +13,7 @@ import {
 import { defineRoute, type AnyRoute } from '../http/route';
 import { createInvitation, listInvitations, resendInvitation, revokeInvitation } from '../services/invitations';
 import {
+  approveRuleEmails,
   createRule,
   deleteRule,
   listDeliveries,
@@ -54,6 +56,17 @@ export const mailRoutes: AnyRoute[] = [
     body: reminderRuleInputSchema,
     response: reminderRuleSchema,
     handler: ({ ctx, user, body, params }) => updateRule(ctx, user, params.ruleId, body),
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/reminder-rules/:ruleId/approve-emails',
+    summary:
+      "Approve outside addresses of a rule (admin): until then they are listed as pending and not mailed. A safety officer's new addresses wait for this.",
+    tag: 'reminders',
+    access: ['admin'],
+    body: approveEmailsSchema,
+    response: reminderRuleSchema,
+    handler: ({ ctx, user, body, params }) => approveRuleEmails(ctx, user, params.ruleId, body.emails),
   }),
   defineRoute({
     method: 'delete',

@@ -10,7 +10,13 @@ import {
   type AttentionSummary,
 } from '../../shared/schemas/attention';
 import type { Role } from '../../shared/schemas/common';
-import type { OutboxMessage, ReminderDelivery, ReminderRule, ReminderRuleInput } from '../../shared/schemas/reminders';
+import type {
+  OutboxMessage,
+  ReminderDelivery,
+  ReminderEmailState,
+  ReminderRule,
+  ReminderRuleInput,
+} from '../../shared/schemas/reminders';
 import { reminderRuleInputSchema } from '../../shared/schemas/reminders';
 import { CapturedMail, Organization, ReminderDeliveryRow, ReminderRuleRow, User } from '../db/models';
 import type { AppContext, AuthUser } from '../http/context';
@@ -47,13 +53,27 @@ function valuesOf(row: ReminderRuleRow): RuleValues {
   };
 }
 
-function toRule(row: ReminderRuleRow, lastSentAt: Date | null): ReminderRule {
+function toRule(row: ReminderRuleRow, lastSentAt: Date | null, members: Set<string>): ReminderRule {
+  const values = valuesOf(row);
   return {
     id: row.id,
-    ...valuesOf(row),
+    ...values,
+    emailStates: values.emails.map((email) => ({ email, state: emailState(row, email, members) })),
     lastSentAt: lastSentAt ? lastSentAt.toISOString() : null,
     updatedAt: row.updatedAt.toISOString(),
   };
+}
+
+/** Addresses of the organization's active users (lower case): further addresses among them need no approval. */
+async function memberEmails(organizationId: string, transaction?: Transaction): Promise<Set<string>> {
+  const users = await User.findAll({ where: { organizationId, active: true }, attributes: ['email'], transaction });
+  return new Set(users.map((u) => u.email.toLowerCase()));
+}
+
+/** A further address is mailed when it belongs to a user of the organization or an admin approved it. */
+function emailState(row: ReminderRuleRow, email: string, members: Set<string>): ReminderEmailState {
+  if (members.has(email.toLowerCase())) return 'member';
+  return parseArray<string>(row.approvedEmails).includes(email.toLowerCase()) ? 'approved' : 'pending';
 }
 
 function toDelivery(row: ReminderDeliveryRow): ReminderDelivery {
@@ -96,7 +116,8 @@ export async function listRules(actor: AuthUser): Promise<{ rules: ReminderRule[
     order: [['name', 'ASC']],
   });
   const rules: ReminderRule[] = [];
-  for (const r of rows) rules.push(toRule(r, await lastSent(r.id)));
+  const members = await memberEmails(actor.organizationId);
+  for (const r of rows) rules.push(toRule(r, await lastSent(r.id), members));
   const org = await Organization.findByPk(actor.organizationId, { attributes: ['settings'] });
   return { rules, reminderHourUtc: parseSettings(org?.settings ?? '{}').reminderHourUtc };
 }
@@ -110,13 +131,36 @@ const stored = (v: RuleValues) => ({
   onlyWhenSomething: v.onlyWhenSomething,
 });
 
+/**
+ * The approved outside addresses after a save: those approved before and still on the rule, plus, when an admin saves,
+ * the addresses the admin added (an admin adding an address approves it). A safety officer's new addresses wait.
+ */
+function approvalsAfterSave(
+  actor: AuthUser | null,
+  values: RuleValues,
+  before: { emails: string[]; approved: string[] },
+) {
+  const emails = new Set(values.emails.map((e) => e.toLowerCase()));
+  const approved = before.approved.filter((e) => emails.has(e));
+  if (actor?.role === 'admin') {
+    const had = new Set(before.emails.map((e) => e.toLowerCase()));
+    for (const e of emails) if (!had.has(e) && !approved.includes(e)) approved.push(e);
+  }
+  return approved.sort();
+}
+
 async function insertRule(
   organizationId: string,
-  actorId: string | null,
+  actor: AuthUser | null,
   values: RuleValues,
   transaction: Transaction,
 ): Promise<ReminderRuleRow> {
-  const row = await ReminderRuleRow.create({ id: randomUUID(), organizationId, ...stored(values) }, { transaction });
+  const actorId = actor?.id ?? null;
+  const approvedEmails = JSON.stringify(approvalsAfterSave(actor, values, { emails: [], approved: [] }));
+  const row = await ReminderRuleRow.create(
+    { id: randomUUID(), organizationId, ...stored(values), approvedEmails },
+    { transaction },
+  );
   await recordAudit(
     {
       organizationId,
@@ -124,7 +168,7 @@ async function insertRule(
       action: 'reminder-rule.created',
       entityType: 'reminder-rule',
       entityId: row.id,
-      summary: { ...valuesOf(row) },
+      summary: { ...valuesOf(row), approvedEmails: parseArray<string>(row.approvedEmails) },
     },
     transaction,
   );
@@ -133,9 +177,9 @@ async function insertRule(
 
 export async function createRule(ctx: AppContext, actor: AuthUser, input: RuleValues): Promise<ReminderRule> {
   const row = await ctx.db.sequelize.transaction((transaction) =>
-    insertRule(actor.organizationId, actor.id, input, transaction),
+    insertRule(actor.organizationId, actor, input, transaction),
   );
-  return toRule(row, null);
+  return toRule(row, null, await memberEmails(actor.organizationId));
 }
 
 export async function updateRule(
@@ -147,7 +191,9 @@ export async function updateRule(
   const row = await ctx.db.sequelize.transaction(async (transaction) => {
     const r = await findRule(actor, ruleId, transaction);
     const before = valuesOf(r);
-    await r.update(stored(input), { transaction });
+    const approvedBefore = parseArray<string>(r.approvedEmails);
+    const approved = approvalsAfterSave(actor, input, { emails: before.emails, approved: approvedBefore });
+    await r.update({ ...stored(input), approvedEmails: JSON.stringify(approved) }, { transaction });
     await recordAudit(
       {
         organizationId: actor.organizationId,
@@ -155,13 +201,51 @@ export async function updateRule(
         action: 'reminder-rule.updated',
         entityType: 'reminder-rule',
         entityId: r.id,
-        summary: { before, after: valuesOf(r) },
+        summary: {
+          before: { ...before, approvedEmails: approvedBefore },
+          after: { ...valuesOf(r), approvedEmails: approved },
+        },
       },
       transaction,
     );
     return r;
   });
-  return toRule(row, await lastSent(row.id));
+  return toRule(row, await lastSent(row.id), await memberEmails(actor.organizationId));
+}
+
+/** An admin approves outside addresses of a rule: from then on reminders go to them too. */
+export async function approveRuleEmails(
+  ctx: AppContext,
+  actor: AuthUser,
+  ruleId: string,
+  emails: string[],
+): Promise<ReminderRule> {
+  const row = await ctx.db.sequelize.transaction(async (transaction) => {
+    const r = await findRule(actor, ruleId, transaction);
+    const onRule = new Set(valuesOf(r).emails.map((e) => e.toLowerCase()));
+    const notOnRule = emails.filter((e) => !onRule.has(e.toLowerCase()));
+    if (notOnRule.length)
+      throw new ApiError('bad_request', `Not an address of this rule: ${notOnRule.join(', ')}`, {
+        emails: `Not on the rule: ${notOnRule.join(', ')}`,
+      });
+    const approved = [
+      ...new Set([...parseArray<string>(r.approvedEmails), ...emails.map((e) => e.toLowerCase())]),
+    ].sort();
+    await r.update({ approvedEmails: JSON.stringify(approved) }, { transaction });
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'reminder-rule.emails-approved',
+        entityType: 'reminder-rule',
+        entityId: r.id,
+        summary: { name: r.name, approved: emails },
+      },
+      transaction,
+    );
+    return r;
+  });
+  return toRule(row, await lastSent(row.id), await memberEmails(actor.organizationId));
 }
 
 /** Deletes a rule; its past deliveries stay (they carry the rule's name). */
@@ -276,12 +360,23 @@ async function buildDigest(
   };
 }
 
-/** Every active user of the rule's roles in the organization, plus its further addresses; each once. */
-async function recipientsOf(organizationId: string, rule: RuleValues): Promise<string[]> {
+/**
+ * Every active user of the rule's roles in the organization, plus its further addresses that belong to a user of the
+ * organization or that an admin approved; each once. `pending`: outside addresses awaiting approval (not mailed).
+ */
+async function recipientsOf(
+  organizationId: string,
+  row: ReminderRuleRow,
+  rule: RuleValues,
+): Promise<{ recipients: string[]; pending: string[] }> {
   const users = rule.roles.length
     ? await User.findAll({ where: { organizationId, role: rule.roles, active: true }, attributes: ['email'] })
     : [];
-  return [...new Set([...users.map((u) => u.email.toLowerCase()), ...rule.emails.map((e) => e.toLowerCase())])].sort();
+  const members = await memberEmails(organizationId);
+  const further = rule.emails.map((e) => e.toLowerCase());
+  const pending = further.filter((e) => emailState(row, e, members) === 'pending');
+  const allowed = further.filter((e) => !pending.includes(e));
+  return { recipients: [...new Set([...users.map((u) => u.email.toLowerCase()), ...allowed])].sort(), pending };
 }
 
 /**
@@ -321,14 +416,20 @@ async function deliver(
   try {
     const digest = await buildDigest(ctx, org.id, org.name, values, utcDayKey(ctx.now()), cache);
     itemCount = digest.itemCount;
-    recipients = await recipientsOf(org.id, values);
+    const who = await recipientsOf(org.id, rule, values);
+    recipients = who.recipients;
+    const pendingNote = who.pending.length
+      ? `; not mailed, awaiting an admin's approval: ${who.pending.join(', ')}`
+      : '';
     if (itemCount === 0 && values.onlyWhenSomething) {
       status = 'skipped';
       message = 'Nothing to report: every chosen list is empty';
       recipients = [];
     } else if (!recipients.length) {
       status = 'skipped';
-      message = 'Nobody to tell: no active user has the chosen roles and no address is set';
+      message = who.pending.length
+        ? `Nobody to tell: no active user has the chosen roles${pendingNote}`
+        : 'Nobody to tell: no active user has the chosen roles and no address is set';
     } else {
       const failures: string[] = [];
       for (const to of recipients) {
@@ -338,10 +439,10 @@ async function deliver(
       }
       if (!failures.length) {
         status = 'sent';
-        message = `Sent to ${recipients.length} ${recipients.length === 1 ? 'recipient' : 'recipients'}`;
+        message = `Sent to ${recipients.length} ${recipients.length === 1 ? 'recipient' : 'recipients'}${pendingNote}`;
       } else {
         status = 'failed';
-        message = `Sent to ${recipients.length - failures.length} of ${recipients.length}; not sent to ${failures.join('; ')}`;
+        message = `Sent to ${recipients.length - failures.length} of ${recipients.length}; not sent to ${failures.join('; ')}${pendingNote}`;
       }
     }
   } catch (e) {

@@ -34,12 +34,32 @@ export const reminderRuleSchema = z
     lists: z.array(attentionListSchema),
     roles: z.array(roleSchema),
     emails: z.array(z.string()),
+    emailStates: z
+      .array(z.object({ email: z.string(), state: z.enum(['member', 'approved', 'pending']) }))
+      .describe(
+        "Each further address: a user of the organization, an outside address an admin approved, or one awaiting an admin's approval (not mailed)",
+      ),
     onlyWhenSomething: z.boolean(),
     lastSentAt: z.string().nullable(),
     updatedAt: z.string(),
   })
   .meta({ id: 'ReminderRule' });
 export type ReminderRule = z.infer<typeof reminderRuleSchema>;
+
+export type ReminderEmailState = ReminderRule['emailStates'][number]['state'];
+
+export const approveEmailsSchema = z.object({
+  emails: z
+    .array(
+      z
+        .string()
+        .trim()
+        .toLowerCase()
+        .pipe(z.email({ message: 'Enter a valid e-mail address' })),
+    )
+    .min(1, 'Name at least one address')
+    .max(20),
+});
 
 export const reminderRuleListSchema = z.object({ rules: z.array(reminderRuleSchema), reminderHourUtc: z.number() });
 

@@ -489,3 +489,95 @@ describe('the audit log is append-only in the database', () => {
     expect(await AuditEvent.count()).toBe(before + 1);
   });
 });
+
+describe('reminder addresses outside the organization need an admin’s approval', () => {
+  const safety = () => ['Authorization', `Bearer ${t.orgA.users.safety.token}`] as [string, string];
+  const admin = () => ['Authorization', `Bearer ${t.orgA.users.admin.token}`] as [string, string];
+  const mailsTo = async (address: string) =>
+    (await CapturedMail.findAll({ where: { kind: 'reminder' } })).filter((r) =>
+      (JSON.parse(r.to) as string[]).includes(address),
+    ).length;
+
+  it('a safety officer adds them pending; they are not mailed until an admin approves; members need no approval', async () => {
+    const created = await request(t.app)
+      .post('/api/reminder-rules')
+      .set(...safety())
+      .send({
+        name: 'Outside review',
+        lists: ['open-reports'],
+        roles: [],
+        emails: ['auditor@outside-firm.example', t.orgA.users.engineer.email],
+        onlyWhenSomething: false,
+      });
+    expect(created.status).toBe(201);
+    expect(created.body.emailStates).toEqual([
+      { email: 'auditor@outside-firm.example', state: 'pending' },
+      { email: t.orgA.users.engineer.email, state: 'member' },
+    ]);
+    const id = created.body.id as string;
+
+    const first = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...safety())
+      .send({ ruleId: id });
+    expect(first.status).toBe(200);
+    expect(first.body.deliveries[0].recipients).toEqual([t.orgA.users.engineer.email]);
+    expect(first.body.deliveries[0].message).toMatch(/awaiting an admin's approval: auditor@outside-firm\.example/);
+    expect(await mailsTo('auditor@outside-firm.example')).toBe(0);
+
+    // The safety officer cannot approve; an admin can, and an address not on the rule is refused naming the field.
+    const bySafety = await request(t.app)
+      .post(`/api/reminder-rules/${id}/approve-emails`)
+      .set(...safety())
+      .send({ emails: ['auditor@outside-firm.example'] });
+    expect(bySafety.status).toBe(403);
+    const notOnRule = await request(t.app)
+      .post(`/api/reminder-rules/${id}/approve-emails`)
+      .set(...admin())
+      .send({ emails: ['someone@else.example'] });
+    expect(notOnRule.status).toBe(400);
+    expect(notOnRule.body.error.fields).toHaveProperty('emails');
+    const ok = await request(t.app)
+      .post(`/api/reminder-rules/${id}/approve-emails`)
+      .set(...admin())
+      .send({ emails: ['auditor@outside-firm.example'] });
+    expect(ok.status).toBe(200);
+    expect(ok.body.emailStates[0]).toEqual({ email: 'auditor@outside-firm.example', state: 'approved' });
+
+    const second = await request(t.app)
+      .post('/api/reminders/send-now')
+      .set(...safety())
+      .send({ ruleId: id });
+    expect(second.body.deliveries[0].recipients).toEqual(
+      ['auditor@outside-firm.example', t.orgA.users.engineer.email].sort(),
+    );
+    expect(await mailsTo('auditor@outside-firm.example')).toBe(1);
+
+    // A further address the safety officer adds later waits again; the approved one stays approved.
+    const put = await request(t.app)
+      .put(`/api/reminder-rules/${id}`)
+      .set(...safety())
+      .send({
+        name: 'Outside review',
+        lists: ['open-reports'],
+        roles: [],
+        emails: ['auditor@outside-firm.example', 'second@outside-firm.example'],
+        onlyWhenSomething: false,
+      });
+    expect(put.body.emailStates).toEqual([
+      { email: 'auditor@outside-firm.example', state: 'approved' },
+      { email: 'second@outside-firm.example', state: 'pending' },
+    ]);
+    const audit = await AuditEvent.findOne({ where: { action: 'reminder-rule.emails-approved', entityId: id } });
+    expect(audit).not.toBeNull();
+  });
+
+  it('an address an admin adds is approved by that act', async () => {
+    const created = await request(t.app)
+      .post('/api/reminder-rules')
+      .set(...admin())
+      .send({ name: 'Admin outside', lists: ['open-reports'], emails: ['partner@outside-firm.example'] });
+    expect(created.status).toBe(201);
+    expect(created.body.emailStates).toEqual([{ email: 'partner@outside-firm.example', state: 'approved' }]);
+  });
+});

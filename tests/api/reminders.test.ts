@@ -200,6 +200,12 @@ describe('reminder content, received by the local SMTP sink', () => {
       });
     expect(res.status).toBe(201);
     ruleId = res.body.id;
+    // An address outside the organization, added by the safety officer, is mailed once an admin approves it.
+    const approved = await request(t.app)
+      .post(`/api/reminder-rules/${ruleId}/approve-emails`)
+      .set(...adminA())
+      .send({ emails: ['contractor@outside.example'] });
+    expect(approved.status).toBe(200);
   });
 
   it('goes to every active user of the roles plus the further addresses, one message each, with counts, rows and links', async () => {
