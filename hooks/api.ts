@@ -24,10 +24,13 @@ export function onUnauthorized(l: Listener): () => void {
   return () => unauthorizedListeners.delete(l);
 }
 
-/** Base URL: same origin on the web (the server serves the app), overridable for development. */
-function baseUrl(): string {
-  const env = (process.env as Record<string, string | undefined>).EXPO_PUBLIC_API_URL;
-  return env ?? '';
+/**
+ * Origin of the API: the page's own by default (the server serves the exported app; `npm run dev:web` proxies /api),
+ * or EXPO_PUBLIC_API_URL when set at build time. Written out as `process.env.EXPO_PUBLIC_API_URL` so that Expo inlines
+ * it into the bundle (a computed access to process.env is not replaced and reads nothing in the browser).
+ */
+export function apiBaseUrl(): string {
+  return (process.env.EXPO_PUBLIC_API_URL ?? '').replace(/\/+$/, '');
 }
 
 export async function apiFetch<T>(
@@ -45,7 +48,7 @@ export async function apiFetch<T>(
   }
   let res: Response;
   try {
-    res = await fetch(`${baseUrl()}/api${path}`, { method: init.method ?? (body ? 'POST' : 'GET'), headers, body });
+    res = await fetch(`${apiBaseUrl()}/api${path}`, { method: init.method ?? (body ? 'POST' : 'GET'), headers, body });
   } catch {
     throw new ApiClientError(0, 'network', 'Cannot reach the server. Check the connection and try again.');
   }

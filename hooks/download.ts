@@ -1,12 +1,12 @@
 import { Platform } from 'react-native';
-import { ApiClientError, TOKEN_KEY } from './api';
+import { ApiClientError, apiBaseUrl, TOKEN_KEY } from './api';
 import { storage } from './storage';
 
 /** Downloads an API file with the session's token (web: a blob link the browser saves). */
 export async function downloadFile(path: string, fallbackName: string): Promise<void> {
   if (Platform.OS !== 'web') throw new ApiClientError(0, 'bad_request', 'Downloads are available in the web app');
   const token = storage.get(TOKEN_KEY);
-  const res = await fetch(`/api${path}`, { headers: token ? { Authorization: `Bearer ${token}` } : {} });
+  const res = await fetch(`${apiBaseUrl()}/api${path}`, { headers: token ? { Authorization: `Bearer ${token}` } : {} });
   if (!res.ok) {
     let message = `The server answered ${res.status}`;
     try {

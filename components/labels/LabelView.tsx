@@ -12,6 +12,7 @@ import {
 import { groupLabelCode } from '../../shared/labelCode';
 import { HazardMark } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
+import { apiBaseUrl } from '../../hooks/api';
 import { fonts } from '../theme';
 import { T } from '../ui';
 
@@ -186,7 +187,7 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
         {code ? (
           <View style={{ width: 112, padding: 6, alignItems: 'center', gap: 2 }}>
             <Image
-              source={{ uri: `/api/labels/${code}/qr.png` }}
+              source={{ uri: `${apiBaseUrl()}/api/labels/${code}/qr.png` }}
               style={{ width: 96, height: 96 }}
               accessibilityLabel="QR code of the label check address"
             />
