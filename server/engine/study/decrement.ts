@@ -9,6 +9,7 @@ import typical from '../data/generator-typical.json';
 
 /** A contribution over time: ratio(t) = I(t) / I(0); `scaleS(t)` is the fastest time constant still acting at t. */
 export interface ContributionProfile {
+  /** I(t) / I(0), the limit from the left at a step (a contribution ending at `endS` still counts at `endS`). */
   ratioAt(tS: number): number;
   /** Time over which the ratio changes noticeably from t on, s; Infinity once it is (practically) constant. */
   scaleS(tS: number): number;
@@ -73,7 +74,7 @@ export function generatorDecrementProfile(input: GeneratorDecrementInput): Contr
 export function motorExponentialProfile(timeConstantS: number): ContributionProfile {
   const endS = TIME_CONSTANTS_TO_SETTLE * timeConstantS;
   return {
-    ratioAt: (tS) => (tS >= endS ? 0 : Math.exp(-tS / timeConstantS)),
+    ratioAt: (tS) => (tS > endS ? 0 : Math.exp(-tS / timeConstantS)),
     scaleS: (tS) => (tS < endS ? timeConstantS : Infinity),
     endS,
   };
@@ -81,7 +82,7 @@ export function motorExponentialProfile(timeConstantS: number): ContributionProf
 
 /** Induction motor contribution fed in full and stopped after `decayS` (the step model). Common practice, no source. */
 export function motorStepProfile(decayS: number): ContributionProfile {
-  return { ratioAt: (tS) => (tS >= decayS ? 0 : 1), scaleS: () => Infinity, endS: decayS };
+  return { ratioAt: (tS) => (tS > decayS ? 0 : 1), scaleS: () => Infinity, endS: decayS };
 }
 
 export const TYPICAL_GENERATOR = {

@@ -506,6 +506,15 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       if (c.profile.endS <= t + EVENT_SLACK_S) stop.set(c.id, { t: c.profile.endS, by: null, reason: 'motor-decay' });
     }
   }
+  if (live().length && t < capS - EVENT_SLACK_S) {
+    // Never a silently short arc: a run that did not reach its end is an error of this bus.
+    throw new EngineError(
+      'invalid-input',
+      'ARC_STEP_LIMIT',
+      `The arc could not be followed to its end within ${MAX_STEPS} steps (stopped at ${fmt(t)} s)`,
+      'model',
+    );
+  }
   for (const c of live()) stop.set(c.id, { t: capS, by: null, reason: 'cap' });
   for (const r of readings)
     r.dropouts = [...(integrators.get(r.deviceId)?.dropouts ?? [])].map((x) => ({ element: x.element, atS: x.atS }));
