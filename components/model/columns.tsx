@@ -268,6 +268,14 @@ const MAIN_ISOLATION_OPTIONS: readonly { value: MainIsolation; label: string }[]
 ];
 const mainIsolationOf = (b: BusInput): MainIsolation =>
   b.equipment?.mainIsolated === true ? 'isolated' : b.equipment?.mainIsolated === false ? 'not-isolated' : 'unstated';
+type CapChoice = 'study' | 'own' | 'none';
+const CAP_OPTIONS: readonly { value: CapChoice; label: string }[] = [
+  { value: 'study', label: 'Study' },
+  { value: 'own', label: 'Own' },
+  { value: 'none', label: 'None' },
+];
+const capChoiceOf = (b: BusInput): CapChoice =>
+  b.equipment?.arcDurationCapS === undefined ? 'study' : b.equipment.arcDurationCapS === null ? 'none' : 'own';
 const classOf = (b: BusInput) => (b.equipment ? findEquipmentClass(b.equipment.class) : undefined);
 
 function patchEquipment<K extends keyof EquipmentInput>(
@@ -481,6 +489,72 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
         accessibilityLabel={`${label}: main device isolated from the bus`}
       />
     ),
+  },
+  {
+    key: 'arcDurationCap',
+    label: 'Arc-duration cap',
+    formLabel: 'Arc-duration cap at this bus',
+    width: 380,
+    basis: 420,
+    issueKeys: ['equipment.arcDurationCapS', 'equipment.arcDurationCapReason'],
+    applies: (b) => !!equipmentOf(b),
+    hint: (b) => {
+      const c = capChoiceOf(b);
+      if (c === 'study') return "The study's cap (2 s unless the organization sets another)";
+      if (c === 'none') return 'No cap: the clearing time stands, however long. Give the reason';
+      return 'Own cap for this bus (e.g. escape not possible). Give the reason';
+    },
+    render: ({ e, size, invalid, editable, patch, testID, label }) => {
+      const c = capChoiceOf(e);
+      return (
+        <View style={{ flexDirection: 'row', alignItems: 'center', gap: 4 }}>
+          <SegCell<CapChoice>
+            value={c}
+            options={CAP_OPTIONS}
+            onChange={(v) =>
+              patch((b) =>
+                patchEquipment(
+                  b,
+                  'arcDurationCapS',
+                  v === 'study' ? undefined : v === 'none' ? null : (b.equipment?.arcDurationCapS ?? 2),
+                ),
+              )
+            }
+            size={size}
+            editable={editable}
+            testID={testID}
+            accessibilityLabel={`${label}: arc-duration cap`}
+            style={{ width: 150 }}
+          />
+          {c === 'own' ? (
+            <NumCell
+              value={e.equipment?.arcDurationCapS ?? undefined}
+              onChange={(v) => patch((b) => patchEquipment(b, 'arcDurationCapS', v ?? Number.NaN))}
+              placeholder="s"
+              size={size}
+              invalid={invalid}
+              editable={editable}
+              testID={`${testID}-seconds`}
+              accessibilityLabel={`${label} arc-duration cap, seconds`}
+              style={{ width: 64 }}
+            />
+          ) : null}
+          {c !== 'study' ? (
+            <TextCell
+              value={e.equipment?.arcDurationCapReason}
+              onChange={(v) => patch((b) => patchEquipment(b, 'arcDurationCapReason', v === '' ? undefined : v))}
+              placeholder="Reason (required)"
+              size={size}
+              invalid={invalid && !e.equipment?.arcDurationCapReason}
+              editable={editable}
+              testID={`${testID}-reason`}
+              accessibilityLabel={`${label} arc-duration cap reason`}
+              style={{ flex: 1 }}
+            />
+          ) : null}
+        </View>
+      );
+    },
   },
 ];
 

@@ -315,6 +315,15 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         <ValueRow label="Arc duration">
           <Num value={`${fmt(current.arcDurationS)} s${current.arcDurationCapped ? ' (capped)' : ''}`} size={14} />
         </ValueRow>
+        {bus.arcDurationCap ? (
+          <ValueRow label="Arc-duration cap">
+            <T testID="trace-cap" style={{ fontSize: 14, textAlign: 'right', flexShrink: 1 }}>
+              {bus.arcDurationCap.source === 'study'
+                ? `${fmt(bus.arcDurationCap.capS as number)} s (the study's)`
+                : `${bus.arcDurationCap.capS === null ? 'none: the clearing time stands' : `${fmt(bus.arcDurationCap.capS)} s at this bus`} — ${bus.arcDurationCap.reason ?? 'no reason given'}`}
+            </T>
+          </ValueRow>
+        ) : null}
         <ValueRow label="Incident energy">
           <Num value={fmt(current.incidentEnergyCalPerCm2)} unit="cal/cm²" size={14} />
         </ValueRow>

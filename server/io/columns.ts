@@ -67,8 +67,11 @@ export const TABLE_TITLES: Record<ModelTable, string> = {
   devices: 'Devices',
 };
 
-/** How a cell is read: text, number, boolean, a JSON object, or (About `value` only) as it is. */
-export type ColumnType = 'string' | 'number' | 'boolean' | 'json' | 'raw';
+/**
+ * How a cell is read: text, number, boolean, a JSON object, or (About `value` only) as it is. `number-or-none`: a
+ * number, or the word `none` for an explicit null (e.g. no arc-duration cap at a bus); empty means omitted.
+ */
+export type ColumnType = 'string' | 'number' | 'number-or-none' | 'boolean' | 'json' | 'raw';
 
 export interface Column {
   /** Header text, the field path joined by dots. */
@@ -114,6 +117,10 @@ export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
     col('equipment.mainIsolated', 'boolean', {
       note: 'TRUE: main isolated from the bus; FALSE: shares the enclosure; empty: not stated, treated as FALSE',
     }),
+    col('equipment.arcDurationCapS', 'number-or-none', {
+      note: "Arc-duration cap at this bus, s; none: no cap (the clearing time stands); empty: the study's cap",
+    }),
+    col('equipment.arcDurationCapReason', 'string', { note: 'Why this bus has its own cap (required with a cap)' }),
   ],
   sources: [
     id,
@@ -255,6 +262,7 @@ function getPath(value: unknown, path: readonly string[]): unknown {
 }
 
 function toCell(column: Column, value: unknown): string | number | boolean | null {
+  if (value === null && column.type === 'number-or-none') return 'none';
   if (value === undefined || value === null) return null;
   if (column.type === 'json') return JSON.stringify(value);
   if (typeof value === 'string' || typeof value === 'number' || typeof value === 'boolean') return value;
@@ -331,6 +339,11 @@ function readCell(type: ColumnType, cell: Exclude<Cell, null>): { value: unknown
               ? String(cell).toUpperCase()
               : String(cell),
       };
+    case 'number-or-none':
+      if (typeof cell === 'string' && cell.trim().toLowerCase() === 'none') return { value: null };
+      if (typeof cell === 'number') return Number.isFinite(cell) ? { value: cell } : 'Enter a number or none';
+      if (typeof cell === 'string' && NUMBER.test(cell.trim())) return { value: Number(cell.trim()) };
+      return 'Enter a number or none';
     case 'number': {
       if (typeof cell === 'number') return Number.isFinite(cell) ? { value: cell } : 'Enter a number';
       if (typeof cell === 'string' && NUMBER.test(cell.trim())) return { value: Number(cell.trim()) };

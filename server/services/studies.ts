@@ -201,6 +201,56 @@ function requireDraft(study: Study, what: string): void {
   }
 }
 
+type CapState = { capS: number | null; reason: string | null } | null;
+
+/**
+ * Buses whose own arc-duration cap (or its reason) changes, with the value before and after (null: the study's cap),
+ * for the audit log: a cap that differs from the organization's is a safety decision and is recorded as such.
+ */
+export function arcDurationCapChanges(
+  beforeJson: string | null | undefined,
+  after: Record<string, unknown>,
+): { busId: string; before: CapState; after: CapState }[] {
+  const caps = (m: unknown): Map<string, CapState> => {
+    const out = new Map<string, CapState>();
+    const buses = (m as { buses?: unknown })?.buses;
+    if (!Array.isArray(buses)) return out;
+    for (const b of buses as {
+      id?: unknown;
+      equipment?: { arcDurationCapS?: unknown; arcDurationCapReason?: unknown };
+    }[]) {
+      if (typeof b?.id !== 'string') continue;
+      const e = b.equipment;
+      const capS = e?.arcDurationCapS;
+      out.set(
+        b.id,
+        capS === undefined
+          ? null
+          : {
+              capS: typeof capS === 'number' ? capS : null,
+              reason: typeof e?.arcDurationCapReason === 'string' ? e.arcDurationCapReason : null,
+            },
+      );
+    }
+    return out;
+  };
+  let before: Map<string, CapState>;
+  try {
+    before = caps(beforeJson ? JSON.parse(beforeJson) : null);
+  } catch {
+    before = new Map();
+  }
+  const now = caps(after);
+  const changes: { busId: string; before: CapState; after: CapState }[] = [];
+  for (const id of new Set([...before.keys(), ...now.keys()])) {
+    const a = before.get(id) ?? null;
+    const b = now.get(id) ?? null;
+    if (JSON.stringify(a) !== JSON.stringify(b) && (a !== null || b !== null))
+      changes.push({ busId: id, before: a, after: b });
+  }
+  return changes;
+}
+
 /**
  * Replaces the model of a draft. `expectedVersion` guards against lost updates: a PUT based on an older version
  * gets 409 and changes nothing. Imports pass no version (they replace the model whole).
@@ -223,6 +273,7 @@ export async function saveModel(
       );
     }
     const version = study.modelVersion + 1;
+    const capChanges = arcDurationCapChanges(study.model, model);
     // Conditional update: a concurrent writer that read the same version loses here instead of overwriting.
     const [count] = await Study.update(
       { model: JSON.stringify(model), modelVersion: version, modelUpdatedAt: ctx.now(), lastEditedById: actor.id },
@@ -236,7 +287,7 @@ export async function saveModel(
         action,
         entityType: 'study',
         entityId: study.id,
-        summary: { version, ...summary },
+        summary: { version, ...summary, ...(capChanges.length ? { arcDurationCaps: capChanges } : {}) },
       },
       transaction,
     );

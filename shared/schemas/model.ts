@@ -107,6 +107,30 @@ export const equipmentSchema = z
       .describe(
         'true: the main device is isolated from the bus; false: it shares the enclosure (a line-side arc is cleared by the next device upstream). Omitted: treated as false (the conservative choice) and reported as defaulted',
       ),
+    arcDurationCapS: z
+      .number()
+      .positive()
+      .max(3600)
+      .nullable()
+      .optional()
+      .describe(
+        "Arc-duration cap at this bus, s, instead of the study's (e.g. where escape is not possible); null: no cap, the clearing time stands. Needs arcDurationCapReason",
+      ),
+    arcDurationCapReason: z
+      .string()
+      .trim()
+      .max(500)
+      .optional()
+      .describe('Why this bus has its own arc-duration cap (required with arcDurationCapS)'),
+  })
+  .superRefine((e, ctx) => {
+    if (e.arcDurationCapS !== undefined && !e.arcDurationCapReason) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['arcDurationCapReason'],
+        message: 'Give the reason for the arc-duration cap of this bus (e.g. confined space, escape not possible)',
+      });
+    }
   })
   .meta({ id: 'Equipment' });
 export type Equipment = z.infer<typeof equipmentSchema>;

@@ -121,6 +121,14 @@ export const busResultSchema = z
     incidentEnergyJPerCm2: z.number().optional(),
     arcFlashBoundaryMm: z.number().optional(),
     arcDurationS: z.number().optional(),
+    /** The arc-duration cap applied at this bus: the study's, or the bus's own (or none) with its reason. */
+    arcDurationCap: z
+      .object({
+        capS: z.number().nullable(),
+        source: z.enum(['study', 'bus']),
+        reason: z.string().nullable(),
+      })
+      .optional(),
     clearingDeviceId: z.string().nullable().optional(),
     labelValues: labelValuesSchema.optional(),
     warnings: z.array(warning),

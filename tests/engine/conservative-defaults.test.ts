@@ -8,6 +8,7 @@ import type { ModelInput } from '../../shared/schemas/model';
 import { modelSchema } from '../../shared/schemas/model';
 import { runStudy } from '../../server/engine/study';
 import { bandFeatureCurrentsA, clearingTime } from '../../server/engine/trip';
+import { arcDurationCapChanges } from '../../server/services/studies';
 import type { RelayDevice } from '../../shared/schemas/device';
 import { expectClose } from '../helpers/approx';
 
@@ -179,5 +180,87 @@ describe('relay instantaneous pickup tolerance (default ±10 %)', () => {
 
   it('instantaneousTolerancePct 0 restores the element at its pickup', () => {
     expect(clearingTime({ ...vi, instantaneousTolerancePct: 0 }, 4200).region).toBe('instantaneous');
+  });
+});
+
+describe('arc-duration cap per bus', () => {
+  /** The switchboard cleared only by a slow primary relay (no main): IEEE VI, TD 10 — several seconds. */
+  function slow(equipment: Record<string, unknown>): ModelInput {
+    const m = plant({ mainIsolated: true, ...equipment });
+    m.devices = [
+      {
+        id: 'R-TX',
+        branch: 'TX',
+        end: 'from',
+        device: { kind: 'relay', curve: 'IEEE-VI', pickupA: 100, timeDial: 10, breakerCycles: 5 },
+      },
+    ];
+    return m;
+  }
+  const swbd = (m: ModelInput) => runStudy(parse(m)).buses.find((b) => b.busId === 'SWBD')!;
+  const reason = 'Confined vault: escape not possible within 2 s';
+
+  it('the study cap (2 s) applies where the bus has none of its own', () => {
+    const r = swbd(slow({}));
+    expect(r.arcDurationS).toBe(2);
+    expect(r.arcDurationCap).toEqual({ capS: 2, source: 'study', reason: null });
+  });
+
+  it('a bus cap of 5 s with a reason: the arc lasts up to 5 s, the reason is in the trace', () => {
+    const r = swbd(slow({ arcDurationCapS: 5, arcDurationCapReason: reason }));
+    const study = swbd(slow({}));
+    expect(r.status).toBe('ok');
+    expect(r.arcDurationS).toBe(5);
+    expect(r.arcDurationCap).toEqual({ capS: 5, source: 'bus', reason });
+    expect(r.warnings.find((w) => w.code === 'BUS_ARC_DURATION_CAP')!.message).toContain(reason);
+    // One source at a constant current: IEEE 1584-2018 energy is proportional to the arc duration (Eqs. 3-6).
+    expectClose(r.incidentEnergyJPerCm2! / study.incidentEnergyJPerCm2!, 5 / 2, 1e-9);
+  });
+
+  it('no cap (null) with a reason: the relay clearing time stands', () => {
+    const r = swbd(slow({ arcDurationCapS: null, arcDurationCapReason: 'Bucket truck: no escape' }));
+    expect(r.status).toBe('ok');
+    const full = r.cases.find((c) => c.arcCase === 'full')!;
+    const relay = full.devices.find((d) => d.deviceId === 'R-TX')!;
+    // IEEE C37.112-2018 VI: t = TD (19.61/(M² − 1) + 0.491), plus 5 cycles at 60 Hz; M at the current it sees.
+    const m = relay.currentA / 100;
+    expectClose(full.arcDurationS, 10 * (19.61 / (m * m - 1) + 0.491) + 5 / 60, 1e-6);
+    expect(full.arcDurationS).toBeGreaterThan(5);
+    expect(full.arcDurationCapped).toBe(false);
+    expect(r.arcDurationCap).toEqual({ capS: null, source: 'bus', reason: 'Bucket truck: no escape' });
+  });
+
+  it('a bus cap needs its reason (schema), and a bus with no cap and no clearing device is an error naming the field', () => {
+    const bad = modelSchema.safeParse(slow({ arcDurationCapS: 5 }));
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues[0].path).toEqual(['buses', 1, 'equipment', 'arcDurationCapReason']);
+    const m = slow({ arcDurationCapS: null, arcDurationCapReason: 'no escape' });
+    m.devices = [];
+    const r = swbd(m);
+    expect(r.status).toBe('error');
+    expect(r.error!.code).toBe('NO_CLEARING_WITHOUT_CAP');
+  });
+});
+
+describe('arc-duration cap changes for the audit log', () => {
+  it('records each bus whose own cap or reason changes, before and after (null: the study cap)', () => {
+    const before = JSON.stringify({
+      buses: [
+        { id: 'A', equipment: { class: 'switchgear-lv' } },
+        { id: 'B', equipment: { class: 'switchgear-lv', arcDurationCapS: 5, arcDurationCapReason: 'vault' } },
+        { id: 'C', equipment: { class: 'switchgear-lv', arcDurationCapS: 3, arcDurationCapReason: 'x' } },
+      ],
+    });
+    const after = {
+      buses: [
+        { id: 'A', equipment: { class: 'switchgear-lv', arcDurationCapS: null, arcDurationCapReason: 'bucket truck' } },
+        { id: 'B', equipment: { class: 'switchgear-lv' } },
+        { id: 'C', equipment: { class: 'switchgear-lv', arcDurationCapS: 3, arcDurationCapReason: 'x' } },
+      ],
+    };
+    expect(arcDurationCapChanges(before, after)).toEqual([
+      { busId: 'A', before: null, after: { capS: null, reason: 'bucket truck' } },
+      { busId: 'B', before: { capS: 5, reason: 'vault' }, after: null },
+    ]);
   });
 });

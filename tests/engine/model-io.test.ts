@@ -435,6 +435,26 @@ describe('round trips (common practice, no source: export then import gives the 
   });
 });
 
+describe('arc-duration cap per bus in the flat files', () => {
+  it('a bus cap and "no cap" (null) survive the workbook and the CSV files, with their reasons', async () => {
+    const m = plant();
+    m.buses[1].equipment = { ...m.buses[1].equipment!, arcDurationCapS: 5, arcDurationCapReason: 'Confined vault' };
+    m.buses[2].equipment = { ...m.buses[2].equipment!, arcDurationCapS: null, arcDurationCapReason: 'Bucket truck' };
+    const model = parsed(m);
+    const fromWorkbook = modelOf(await editedWorkbook(model, () => undefined));
+    const fromCsv = modelOf(await importModel(await csvUpload(model)));
+    for (const back of [fromWorkbook, fromCsv]) {
+      expect(back.buses[1].equipment).toEqual(
+        expect.objectContaining({ arcDurationCapS: 5, arcDurationCapReason: 'Confined vault' }),
+      );
+      expect(back.buses[2].equipment).toEqual(
+        expect.objectContaining({ arcDurationCapS: null, arcDurationCapReason: 'Bucket truck' }),
+      );
+      expect(back.buses[0].equipment?.arcDurationCapS).toBeUndefined();
+    }
+  });
+});
+
 describe('workbook layout', () => {
   it('has an About sheet first, then one sheet per element type, header bold and frozen', async () => {
     const workbook = await loadWorkbook(await exportModelWorkbook(original));
@@ -466,6 +486,8 @@ describe('workbook layout', () => {
       'equipment.enclosureMm.width',
       'equipment.enclosureMm.depth',
       'equipment.mainIsolated',
+      'equipment.arcDurationCapS',
+      'equipment.arcDurationCapReason',
     ]);
     const devices = workbook.getWorksheet('Devices')!;
     expect(devices.getRow(1).values).toEqual([
