@@ -5,7 +5,7 @@ import { authenticate } from './auth/middleware';
 import type { Config } from './config';
 import type { Db } from './db';
 import type { AppContext } from './http/context';
-import { jsonDepthGuard } from './http/bodyParsing';
+import { jsonDepthGuard, requireJsonOrMultipart } from './http/bodyParsing';
 import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';
 import { httpLogger, log, type Logger } from './log';
@@ -54,6 +54,7 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
   app.use(securityHeaders(opts.config.publicBaseUrl));
 
   const api = express.Router();
+  api.use(requireJsonOrMultipart);
   api.use(express.json({ limit: opts.config.jsonLimit, verify: jsonDepthGuard() }));
   api.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');

@@ -1,4 +1,5 @@
 import type { IncomingMessage } from 'node:http';
+import type { RequestHandler } from 'express';
 import { ApiError } from './errors';
 
 /** Deepest nesting of objects and arrays accepted in a JSON body (no legitimate body comes near it). */
@@ -68,3 +69,31 @@ export function bodyParserError(err: unknown): ApiError | null {
     },
   );
 }
+
+/**
+ * A request body must be JSON or multipart/form-data, the only kinds the API reads: anything else (a form-encoded
+ * body, text, no Content-Type) is a 415 naming the body, instead of reaching the route as an empty object and being
+ * refused for a missing field it did send.
+ */
+export const requireJsonOrMultipart: RequestHandler = (req, _res, next) => {
+  const length = Number(req.headers['content-length'] ?? 0);
+  const hasBody = req.headers['transfer-encoding'] !== undefined || (Number.isFinite(length) && length > 0);
+  if (!hasBody) return next();
+  const media = String(req.headers['content-type'] ?? '')
+    .split(';')[0]
+    .trim()
+    .toLowerCase();
+  if (
+    media === 'application/json' ||
+    /^application\/[a-z0-9.+-]+\+json$/.test(media) ||
+    media === 'multipart/form-data'
+  )
+    return next();
+  next(
+    new ApiError(
+      'unsupported_media_type',
+      `Send the request body as JSON (Content-Type: application/json) or as multipart/form-data, not ${media || 'without a Content-Type'}`,
+      { body: `Must be JSON or multipart/form-data, not ${media || 'untyped'}` },
+    ),
+  );
+};

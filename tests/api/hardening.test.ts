@@ -581,3 +581,53 @@ describe('reminder addresses outside the organization need an admin’s approval
     expect(created.body.emailStates).toEqual([{ email: 'partner@outside-firm.example', state: 'approved' }]);
   });
 });
+
+describe('a body that is neither JSON nor multipart', () => {
+  it('a form-encoded field report is a 415 naming the body, not a misleading "kind" error', async () => {
+    const siteId = (
+      await request(t.app)
+        .post('/api/sites')
+        .set('Authorization', `Bearer ${t.orgA.users.engineer.token}`)
+        .send({ name: 'Form site' })
+    ).body.id as string;
+    await approveStudy(t, siteId, smallModel());
+    const code = (
+      await request(t.app)
+        .get(`/api/sites/${siteId}/labels?current=1`)
+        .set('Authorization', `Bearer ${t.orgA.users.engineer.token}`)
+    ).body.labels[0].code as string;
+    const res = await request(t.app)
+      .post(`/api/labels/${code}/reports`)
+      .set('Authorization', `Bearer ${t.orgA.users.electrician.token}`)
+      .type('form')
+      .send('kind=device&text=Feeder+breaker+differs');
+    expect(res.status).toBe(415);
+    expect(Object.keys(res.body.error.fields)).toEqual(['body']);
+    expect(res.body.error.message).toMatch(/JSON.*multipart/);
+    expect(res.body.error.fields.kind).toBeUndefined();
+    // The same report as JSON and as multipart is accepted.
+    const json = await request(t.app)
+      .post(`/api/labels/${code}/reports`)
+      .set('Authorization', `Bearer ${t.orgA.users.electrician.token}`)
+      .send({ kind: 'device', text: 'Feeder breaker differs' });
+    expect(json.status).toBe(201);
+    const multipart = await request(t.app)
+      .post(`/api/labels/${code}/reports`)
+      .set('Authorization', `Bearer ${t.orgA.users.electrician.token}`)
+      .field('kind', 'device')
+      .field('text', 'Feeder breaker differs');
+    expect(multipart.status).toBe(201);
+  }, 60_000);
+
+  it('text/plain and XML bodies on any route are 415 naming the body', async () => {
+    for (const type of ['text/plain', 'application/xml']) {
+      const res = await request(t.app)
+        .post('/api/sites')
+        .set('Authorization', `Bearer ${t.orgA.users.engineer.token}`)
+        .set('Content-Type', type)
+        .send('{"name":"x"}');
+      expect(res.status).toBe(415);
+      expect(res.body.error.fields).toHaveProperty('body');
+    }
+  });
+});
