@@ -20,6 +20,7 @@ export function SettingsScreen() {
   const [danger, setDanger] = useState('40');
   const [cap, setCap] = useState('2000');
   const [independent, setIndependent] = useState<'yes' | 'no'>('no');
+  const [unitOrder, setUnitOrder] = useState<'us-first' | 'si-first'>('si-first');
   const [notInstalled, setNotInstalled] = useState('30');
   const [reminderHour, setReminderHour] = useState('6');
   const [levels, setLevels] = useState<LevelRow[]>([]);
@@ -35,6 +36,7 @@ export function SettingsScreen() {
     setDanger(String(s.signalWord.dangerAboveCalPerCm2));
     setCap(String(s.maxArcDurationMs));
     setIndependent(s.requireIndependentApprover ? 'yes' : 'no');
+    setUnitOrder(s.labelUnitOrder);
     setNotInstalled(String(s.notInstalledAfterDays));
     setReminderHour(String(s.reminderHourUtc));
     setLevels(
@@ -49,6 +51,7 @@ export function SettingsScreen() {
       signalWord: { dangerAboveCalPerCm2: Number(danger) },
       maxArcDurationMs: Number(cap),
       requireIndependentApprover: independent === 'yes',
+      labelUnitOrder: unitOrder,
       notInstalledAfterDays: notInstalled.trim() === '' ? Number.NaN : Number(notInstalled),
       reminderHourUtc: reminderHour.trim() === '' ? Number.NaN : Number(reminderHour),
       ppeLevels: levels.map((l) => ({
@@ -171,6 +174,20 @@ export function SettingsScreen() {
           error={errors['signalWord.dangerAboveCalPerCm2']}
           hint="Otherwise WARNING (ANSI Z535.4 signal words). Default 40 cal/cm², common practice."
         />
+      </Card>
+      <Card>
+        <T variant="subheading">Units on labels</T>
+        <Choice
+          label="Printed first"
+          value={unitOrder}
+          options={[
+            { value: 'us-first', label: 'US customary first (ft-in, then m)' },
+            { value: 'si-first', label: 'SI first (m, then ft-in)' },
+          ]}
+          onChange={setUnitOrder}
+          testID="label-unit-order"
+        />
+        <T variant="small">Applies to labels issued from now on; a printed label keeps the units it was issued with.</T>
       </Card>
       <Card testID="ppe-levels">
         <T variant="subheading">Site PPE levels</T>

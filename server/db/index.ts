@@ -9,6 +9,7 @@ import * as m004 from './migrations/004-labels';
 import * as m005 from './migrations/005-attention-mail';
 import * as m006 from './migrations/006-audit-append-only';
 import * as m007 from './migrations/007-reminder-approvals';
+import * as m008 from './migrations/008-label-settings';
 import { initModels } from './models';
 import { serializeSqliteWrites, type WriteQueue } from './writeQueue';
 
@@ -21,6 +22,7 @@ const MIGRATIONS = [
   { name: '005-attention-mail', ...m005 },
   { name: '006-audit-append-only', ...m006 },
   { name: '007-reminder-approvals', ...m007 },
+  { name: '008-label-settings', ...m008 },
 ];
 
 export interface Db {
