@@ -28,7 +28,7 @@ async function main(): Promise<void> {
   }
   const db = await openDb(config.databaseUrl);
   const applied = await migrate(db);
-  if (applied.length) log.info({ migrations: applied }, `Migrations applied: ${applied.join(', ')}`);
+  if (applied.length) log.info(`Migrations applied: ${applied.join(', ')}`);
   const interrupted = await failInterruptedJobs(new Date());
   if (interrupted.runs) log.warn(`${interrupted.runs} interrupted study run(s) marked failed.`);
   if (interrupted.batches) log.warn(`${interrupted.batches} interrupted label print batch(es) marked failed.`);

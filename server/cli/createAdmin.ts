@@ -22,8 +22,9 @@ function fail(message: string, code: number): never {
 function promptHidden(question: string): Promise<string> {
   return new Promise((resolve, reject) => {
     const stdin = process.stdin;
-    process.stdout.write(question);
+    // No echo before the question shows: what is typed after it is never on the screen.
     stdin.setRawMode(true);
+    process.stdout.write(question);
     stdin.resume();
     stdin.setEncoding('utf8');
     let value = '';

@@ -9,16 +9,17 @@ export interface ChildServer {
   baseUrl: string;
   /** Everything the child wrote to stdout and stderr so far. */
   log(): string;
-  /** SIGKILL of the launcher and the server it spawned: no shutdown handler runs. Resolves when both are gone. */
+  /** SIGKILL of the server and anything it spawned: no shutdown handler runs. Resolves when all are gone. */
   kill(): Promise<void>;
-  /** A signal to the launcher (tsx relays it to the server); resolves with the exit code once both are gone. */
+  /** A signal to the server; resolves with its exit code once it is gone. */
   stop(signal?: NodeJS.Signals): Promise<number | null>;
 }
 
 const ROOT = path.resolve(__dirname, '../..');
 
 /**
- * Starts `node node_modules/tsx/dist/cli.mjs server/start.ts` with PORT, HOST=127.0.0.1, DATA_DIR, SKIP_WEB_BUILD=1 and
+ * Starts `node --import tsx server/start.ts` (one process, as `npm start` runs it: signals reach the server itself)
+ * with PORT, HOST=127.0.0.1, DATA_DIR, SKIP_WEB_BUILD=1 and
  * DEMO_PASSWORD, and waits for the "is serving" log line and a 200 from GET /api/health.
  */
 export async function startChildServer(opts: {
@@ -43,7 +44,7 @@ export async function startChildServer(opts: {
     LOG_REQUESTS: '0',
   });
   Object.assign(env, opts.env ?? {});
-  const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/start.ts'], {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/start.ts'], {
     cwd: ROOT,
     env,
     stdio: ['ignore', 'pipe', 'pipe'],
@@ -52,7 +53,7 @@ export async function startChildServer(opts: {
   let output = '';
   child.stdout!.on('data', (d: Buffer) => (output += d.toString()));
   child.stderr!.on('data', (d: Buffer) => (output += d.toString()));
-  // 'close': the launcher has exited and every holder of its stdio (the tsx-spawned server process) is gone too.
+  // 'close': the server has exited and every holder of its stdio is gone too.
   let exitCode: number | null = null;
   const exited = new Promise<void>((resolve) =>
     child.once('close', (code) => {
@@ -69,7 +70,7 @@ export async function startChildServer(opts: {
     baseUrl,
     log: () => output,
     kill: async () => {
-      // tsx's CLI runs the server in a child process of its own: SIGKILL the whole process group, not only the launcher.
+      // SIGKILL the whole process group: nothing the server started outlives it.
       if (!gone && child.pid) {
         try {
           process.kill(-child.pid, 'SIGKILL');
