@@ -590,9 +590,15 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const busLabel = picture.bus.id;
   const caseName = arcCase === 'full' ? 'arcing current' : 'reduced arcing current';
   const side = input.location === 'line-side' ? ' (line side of the main)' : '';
+  // Elements that stopped because the current fell (not because a device cut their source off: that is said apart).
+  const cutTimes = [...stop.values()].filter((x) => x.reason === 'device').map((x) => x.t);
+  const fell = (r: DeviceReading) =>
+    r.dropouts.filter((x) => !cutTimes.some((tc) => Math.abs(tc - x.atS) <= EVENT_SLACK_S * Math.max(1, tc)));
   const dropoutText = (r: DeviceReading) =>
-    r.dropouts.length
-      ? ` ${r.deviceId}'s ${r.dropouts.map((x) => `${x.element} element stopped timing at ${fmt(x.atS)} s`).join(', ')} as the current it sees fell below the pickup.`
+    fell(r).length
+      ? ` ${r.deviceId}'s ${fell(r)
+          .map((x) => `${x.element} element stopped timing at ${fmt(x.atS)} s`)
+          .join(', ')} as the current it sees fell below the pickup.`
       : '';
   let sentence: string;
   if (endReading && !capped) {
@@ -613,12 +619,26 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     const late = readings
       .filter((r) => r.clearingTimeS !== null && r.operatedAtS === null)
       .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))[0];
-    const dropped = readings.filter((r) => r.dropouts.length).slice(0, 2);
+    const dropped = readings.filter((r) => fell(r).length).slice(0, 2);
+    // Which devices did cut sources off before the cap, and which sources still feed the arc there.
+    const cuts = new Map<string, { t: number; ids: string[] }>();
+    for (const c of picture.contributors) {
+      const st = stopOf(c);
+      if (st.reason !== 'device' || !st.by) continue;
+      const e = cuts.get(st.by) ?? { t: st.t, ids: [] };
+      e.ids.push(c.id);
+      cuts.set(st.by, e);
+    }
+    const still = picture.contributors.filter((c) => stopOf(c).reason === 'cap').map((c) => c.id);
+    const cutText = cuts.size
+      ? ` ${[...cuts].map(([dev, e]) => `${dev} cuts off ${e.ids.join(', ')} at ${fmt(e.t)} s`).join('; ')}; ${still.join(', ')} still ${still.length === 1 ? 'feeds' : 'feed'} the arc.`
+      : '';
     sentence =
       `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, no protective device clears every source before the ${fmt(capS)} s cap; the arc duration is capped` +
       (late
         ? ` (at the first-cycle current ${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s${varying.length ? `; the generator current decays (${varying.map((g) => g.id).join(', ')})` : ''}).`
         : '.') +
+      cutText +
       dropped.map(dropoutText).join('');
   } else {
     sentence = `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, only motors feed the arc; it ends at ${fmt(arcEnd)} s as their contribution decays.`;
