@@ -185,7 +185,7 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
           </Cell>
         </View>
         {code ? (
-          <View style={{ width: 112, padding: 6, alignItems: 'center', gap: 2 }}>
+          <View style={{ width: 128, padding: 6, alignItems: 'center', gap: 2 }}>
             <Image
               source={{ uri: `${apiBaseUrl()}/api/labels/${code}/qr.png` }}
               style={{ width: 96, height: 96 }}

@@ -1,6 +1,9 @@
 import { PNG } from 'pngjs';
+import { displayText, LABEL_STATUS_NOTICES, type LabelDisplay } from '../../../shared/labelDisplay';
+import { smallModel } from '../../fixtures/smallModel';
+import { readPdf } from '../../helpers/pdfText';
 import type { Harness } from '../harness';
-import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE } from '../harness';
+import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -8,14 +11,67 @@ function assert(cond: unknown, message: string): asserts cond {
   if (!cond) throw new Error(message);
 }
 
-async function electricianAuth(h: Harness): Promise<Record<string, string>> {
+async function authAs(h: Harness, email: string): Promise<Record<string, string>> {
   const signIn = await fetch(`${h.baseUrl}/api/auth/sign-in`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: 'electrician@larkspur.example', password: DEMO_PASSWORD }),
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
   });
   const { token } = (await signIn.json()) as { token: string };
   return { Authorization: `Bearer ${token}` };
+}
+
+const electricianAuth = (h: Harness) => authAs(h, 'electrician@larkspur.example');
+
+async function api<T>(h: Harness, auth: Record<string, string>, method: string, path: string, body?: unknown) {
+  const res = await fetch(`${h.baseUrl}/api${path}`, {
+    method,
+    headers: { ...auth, ...(body !== undefined ? { 'Content-Type': 'application/json' } : {}) },
+    body: body !== undefined ? JSON.stringify(body) : undefined,
+  });
+  assert(res.status < 300, `${method} ${path}: ${res.status} ${await res.clone().text()}`);
+  return (await res.json()) as T;
+}
+
+/** Models, runs and approves a study of a new site through the API as the engineer; `reviseFrom` revises one. */
+async function approvedStudy(h: Harness, siteId: string, reviseFrom?: string): Promise<string> {
+  const eng = await authAs(h, 'engineer@larkspur.example');
+  const { id } = reviseFrom
+    ? await api<{ id: string }>(h, eng, 'POST', `/studies/${reviseFrom}/revise`)
+    : await api<{ id: string }>(h, eng, 'POST', `/sites/${siteId}/studies`, { title: 'Label check study' });
+  const env = await api<{ version: number }>(h, eng, 'GET', `/studies/${id}/model`);
+  const model = smallModel();
+  const utility = model.sources?.[0];
+  if (reviseFrom && utility?.kind === 'utility') utility.shortCircuitMva = 400; // a changed utility: new label values
+  await api(h, eng, 'PUT', `/studies/${id}/model`, { model, version: env.version });
+  await api(h, eng, 'POST', `/studies/${id}/run`);
+  await pollUntil(
+    async () => (await api<{ status: string }>(h, eng, 'GET', `/studies/${id}/run`)).status === 'done',
+    'the study run',
+    120_000,
+  );
+  await api(h, eng, 'POST', `/studies/${id}/submit`);
+  await api(h, eng, 'POST', `/studies/${id}/approve`, {
+    approverName: 'Rowan Vale',
+    licenceNumber: 'PE-55120',
+    jurisdiction: 'Oregon',
+    confirm: true,
+  });
+  return id;
+}
+
+type LabelWithDisplay = { id: string; code: string; equipmentTag: string; display: LabelDisplay };
+
+/** What the public page shows in the label of `scope` (the first label view, or the current values). */
+async function shownOnPage(scope: import('playwright-core').Locator) {
+  return {
+    energy: await scope.getByTestId('label-energy').innerText(),
+    energyUnit: await scope.getByTestId('label-energy-unit').innerText(),
+    boundary: await scope.getByTestId('label-boundary').innerText(),
+    boundarySecondary: await scope.getByTestId('label-boundary-secondary').innerText(),
+    caution: await scope.getByTestId('label-hazard-caution').innerText(),
+    arcRating: await scope.getByTestId('label-arc-rating').innerText(),
+  };
 }
 
 /** The id of the demo's main site (the facility), read through the API. */
@@ -117,6 +173,104 @@ export const specs: Spec[] = [
       await page.goto(`${h.baseUrl}/l/0000000000000000`);
       await page.getByTestId('label-not-found').waitFor();
       await h.shot(page, 'public-check-unknown-phone');
+      await page.close();
+    },
+  },
+  {
+    name: 'the public check page of a label shows the same energy, boundary and caution as its PDF (phone, desktop)',
+    run: async (h) => {
+      const eng = await authAs(h, 'engineer@larkspur.example');
+      const site = await api<{ id: string }>(h, eng, 'POST', '/sites', { name: 'Label check substation' });
+      const studyId = await approvedStudy(h, site.id);
+      const { labels } = await api<{ labels: LabelWithDisplay[] }>(h, eng, 'GET', `/studies/${studyId}/labels`);
+      const label = labels.find((l) => l.equipmentTag === 'SWBD');
+      assert(label, 'a label for SWBD');
+      const pdfRes = await fetch(`${h.baseUrl}/api/studies/${studyId}/labels.pdf?size=4x6`, { headers: eng });
+      const pdf = readPdf(Buffer.from(await pdfRes.arrayBuffer())).text.replace(/\s+/g, '');
+      for (const [label_, viewport] of [
+        ['phone', PHONE],
+        ['desktop', DESKTOP],
+      ] as const) {
+        const page = await h.newPage(viewport);
+        await page.goto(`${h.baseUrl}/sign-in`);
+        await clearLocalStorage(page);
+        await page.goto(`${h.baseUrl}/l/${label.code}`);
+        await page.getByTestId('label-status').getByText('CURRENT', { exact: true }).waitFor();
+        const shown = await shownOnPage(page.getByTestId('label-view').first());
+        const d = label.display;
+        assert(
+          shown.energy === d.incidentEnergy.value,
+          `energy on the page ${shown.energy} = ${d.incidentEnergy.value}`,
+        );
+        assert(shown.energyUnit === d.incidentEnergy.unit, `energy unit ${shown.energyUnit}`);
+        assert(shown.boundary === displayText(d.arcFlashBoundary), `boundary on the page ${shown.boundary}`);
+        assert(shown.caution === d.hazardCaution.value, `caution on the page: ${shown.caution}`);
+        for (const s of [
+          `${shown.energy} ${shown.energyUnit}`,
+          shown.boundary,
+          shown.boundarySecondary,
+          shown.caution,
+          shown.arcRating,
+        ])
+          assert(pdf.includes(s.replace(/\s+/g, '')), `the PDF prints "${s}" as the page shows it`);
+        assert((await page.getByTestId('caution-unreviewed').count()) === 0, 'no "preliminary" wording');
+        await h.shot(page, `public-check-pdf-${label_}`);
+        await page.close();
+      }
+    },
+  },
+  {
+    name: 'a superseded label shows the replacement notice and the current values (phone, desktop)',
+    run: async (h) => {
+      const eng = await authAs(h, 'engineer@larkspur.example');
+      const site = await api<{ id: string }>(h, eng, 'POST', '/sites', { name: 'Superseded label substation' });
+      const first = await approvedStudy(h, site.id);
+      const old = (await api<{ labels: LabelWithDisplay[] }>(h, eng, 'GET', `/studies/${first}/labels`)).labels.find(
+        (l) => l.equipmentTag === 'SWBD',
+      );
+      assert(old, 'a first label for SWBD');
+      const second = await approvedStudy(h, site.id, first);
+      const current = (
+        await api<{ labels: LabelWithDisplay[] }>(h, eng, 'GET', `/studies/${second}/labels`)
+      ).labels.find((l) => l.equipmentTag === 'SWBD');
+      assert(current, 'a current label for SWBD');
+      for (const [label_, viewport] of [
+        ['phone', PHONE],
+        ['desktop', DESKTOP],
+      ] as const) {
+        const page = await h.newPage(viewport);
+        await page.goto(`${h.baseUrl}/sign-in`);
+        await clearLocalStorage(page);
+        await page.goto(`${h.baseUrl}/l/${old.code}`);
+        await page.getByTestId('label-status').getByText('SUPERSEDED', { exact: true }).waitFor();
+        const notice = await page.getByTestId('label-status-notice').innerText();
+        assert(notice === LABEL_STATUS_NOTICES.superseded, `replacement notice: ${notice}`);
+        const shown = await shownOnPage(page.getByTestId('label-current-values'));
+        assert(
+          shown.energy === current.display.incidentEnergy.value,
+          `current energy ${shown.energy} = ${current.display.incidentEnergy.value}`,
+        );
+        assert(shown.boundary === displayText(current.display.arcFlashBoundary), `current boundary ${shown.boundary}`);
+        assert((await page.getByTestId('caution-unreviewed').count()) === 0, 'no "preliminary" wording');
+        assert((await page.getByText(/preliminary/i).count()) === 0, 'no "preliminary" anywhere on the page');
+        await h.shot(page, `public-check-superseded-${label_}`);
+        await page.close();
+      }
+    },
+  },
+  {
+    name: 'the scan screen accepts a label code typed with spaces as printed (phone)',
+    run: async (h) => {
+      const code = await demoLabelCode(h, 'USS-1');
+      const page = await h.newPage(PHONE);
+      await h.signIn(page, 'electrician@larkspur.example');
+      await page.getByTestId('home-electrician').waitFor();
+      await page.goto(`${h.baseUrl}/scan`);
+      // As printed under the QR code, in groups of four, with an O typed for a 0 where there is one.
+      await page.getByTestId('label-code').fill(code.replace(/(.{4})(?!$)/g, '$1 ').replace(/0/g, 'O'));
+      await page.getByTestId('open-label').click();
+      await page.getByTestId('label-status').getByText('CURRENT', { exact: true }).waitFor();
+      await page.getByTestId('label-view').waitFor();
       await page.close();
     },
   },
