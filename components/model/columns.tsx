@@ -905,6 +905,13 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
     placeholder: (m) => (m.lockedRotorMultiple === undefined ? 'typical' : '—'),
   }),
   numberColumn<MotorInput>('xr', 'X/R', undefined, 80, { placeholder: () => 'typical' }),
+  numberColumn<MotorInput>('rpm', 'Speed', 'rpm', 90, {
+    placeholder: (m) => (m.kv >= 1 ? '3600' : '—'),
+    hint: (m) =>
+      m.kv >= 1
+        ? 'Medium voltage: 3600 rpm motors of 250 hp and up take the 1.0 first-cycle multiplier; empty: 3600 assumed'
+        : undefined,
+  }),
 ];
 
 // ---------------------------------------------------------------------------------------------

@@ -379,6 +379,7 @@ const FIELD_LABELS: Record<string, string> = {
   hp: 'Rating',
   lockedRotorMultiple: 'Locked-rotor current',
   firstCycleMultiplier: 'First-cycle multiplier',
+  rpm: 'Speed',
   closed: 'State',
   branch: 'Location',
   source: 'Location',

@@ -188,6 +188,7 @@ export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
     col('lockedRotorMultiple', 'number', { note: 'Locked-rotor current, multiple of rated' }),
     col('subtransientPct', 'number', { note: 'Subtransient reactance, % on motor kVA' }),
     col('firstCycleMultiplier', 'number', { note: 'Multiplier on X" for the first-cycle network' }),
+    col('rpm', 'number', { note: 'Synchronous speed, rpm (medium-voltage multipliers); empty: 3600 where it matters' }),
     col('xr', 'number', { note: 'X/R ratio; empty: typical value' }),
   ],
   ties: [

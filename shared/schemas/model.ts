@@ -310,10 +310,18 @@ export const motorSchema = z
       .optional()
       .describe('Locked-rotor current as a multiple of rated current (X" = 1/multiple)'),
     subtransientPct: positive.max(100).optional().describe('Subtransient reactance X", percent on the motor kVA'),
+    rpm: positive
+      .max(100000)
+      .optional()
+      .describe(
+        'Synchronous speed, rpm (medium-voltage first-cycle multiplier: 3600 rpm motors of 250 hp and above take 1.0); omitted: 3600 assumed where it matters, with a warning',
+      ),
     firstCycleMultiplier: positive
       .max(10)
       .optional()
-      .describe('Multiplier on X" for the first-cycle network; omitted: IEEE 551 practice by size'),
+      .describe(
+        'Multiplier on X" for the first-cycle network; omitted: by size (IEEE 551 below 1 kV, IEEE C37.010 practice above)',
+      ),
     xr: positive.optional().describe('X/R ratio; omitted: a typical value, with a warning'),
   })
   .superRefine((m, ctx) => {

@@ -6,6 +6,8 @@
  */
 import type { ModelInput } from '../../shared/schemas/model';
 import { modelSchema } from '../../shared/schemas/model';
+import { createShortCircuitSolver } from '../../server/engine/shortcircuit';
+import { motorFirstCycleMultiplier } from '../../server/engine/shortcircuit/impedance';
 import { runStudy } from '../../server/engine/study';
 import { bandFeatureCurrentsA, clearingTime } from '../../server/engine/trip';
 import { arcDurationCapChanges } from '../../server/services/studies';
@@ -262,5 +264,51 @@ describe('arc-duration cap changes for the audit log', () => {
       { busId: 'A', before: null, after: { capS: null, reason: 'bucket truck' } },
       { busId: 'B', before: { capS: 5, reason: 'vault' }, after: null },
     ]);
+  });
+});
+
+describe('medium-voltage motor first-cycle multipliers', () => {
+  /** A 4.16 kV bus fed by the utility, one induction motor on it (X" 16.7 %, X/R 15, kVA given). */
+  function mvMotor(hp: number, rpm?: number): ModelInput {
+    return {
+      format: 'emberline-model',
+      version: 1,
+      frequencyHz: 60,
+      buses: [{ id: 'MV', nominalKv: 4.16 }],
+      sources: [{ id: 'UTIL', kind: 'utility', bus: 'MV', shortCircuitMva: 100, xr: 10 }],
+      motors: [{ id: 'M', bus: 'MV', hp, kv: 4.16, subtransientPct: 16.7, xr: 15, ...(rpm ? { rpm } : {}) }],
+    } as ModelInput;
+  }
+  const motorCurrentA = (m: ModelInput) => {
+    const fault = createShortCircuitSolver(parse(m)).faultAt('MV');
+    return fault.injections.find((i) => i.id === 'M')!.currentA;
+  };
+  /**
+   * Hand-worked: a motor at the faulted bus feeds V / |Z| with V = 1 pu; on its own base (1 kVA per hp, common
+   * practice, no source) I = (kVA / (√3 · kV)) / (m · X" · √(1 + 1/(X/R)²)).
+   */
+  const hand = (hp: number, multiplier: number) =>
+    hp / (Math.sqrt(3) * 4.16) / (multiplier * 0.167 * Math.sqrt(1 + 1 / 15 ** 2));
+
+  it('300 hp, 1800 rpm, 4.16 kV: × 1.2 (IEEE C37.010 practice, 50–1000 hp)', () => {
+    expectClose(motorCurrentA(mvMotor(300, 1800)), hand(300, 1.2), 1e-9);
+    // 300 / (√3 × 4.16) = 41.64 A rated; / (1.2 × 0.167 × 1.0022) = 207.3 A (worked by hand).
+    expectClose(motorCurrentA(mvMotor(300, 1800)), 207.3, 1e-3);
+  });
+  it('1500 hp: × 1.0 (above 1000 hp)', () => {
+    expectClose(motorCurrentA(mvMotor(1500, 1800)), hand(1500, 1.0), 1e-9);
+  });
+  it('40 hp: × 1.67 (below 50 hp)', () => {
+    expectClose(motorCurrentA(mvMotor(40, 1800)), hand(40, 1.67), 1e-9);
+  });
+  it('300 hp at 3600 rpm: × 1.0; speed not given: 3600 assumed (the larger contribution) with a warning', () => {
+    expectClose(motorCurrentA(mvMotor(300, 3600)), hand(300, 1.0), 1e-9);
+    expectClose(motorCurrentA(mvMotor(300)), hand(300, 1.0), 1e-9);
+    const w = createShortCircuitSolver(parse(mvMotor(300))).result.warnings.map((x) => x.code);
+    expect(w).toContain('motor-rpm-assumed');
+  });
+  it('low voltage unchanged: a 300 hp 480 V motor keeps 1.2 whatever its speed (IEEE 551-2006 Table 9-1)', () => {
+    expect(motorFirstCycleMultiplier(300, 0.48, 3600)).toBe(1.2);
+    expect(motorFirstCycleMultiplier(40, 0.48)).toBe(1.67);
   });
 });

@@ -256,14 +256,24 @@ export function motorSubtransientPu(p: { lockedRotorMultiple?: number; subtransi
 }
 
 /**
- * First-cycle multiplier on X" of an induction motor (IEEE 551-2006 Table 9-1, low-voltage first-cycle network):
- * 1.2 X" for motors above 50 hp, 1.67 X" for motors below 50 hp (50 hp itself is taken with the larger motors).
- * Motors above 1 kV: 1.0 (no multiplier; common practice, no source — the Table 9-1 excerpt at hand gives the
- * medium-voltage multipliers only for the interrupting network).
+ * First-cycle multiplier on X" of an induction motor.
+ * Low voltage (below 1 kV), IEEE 551-2006 Table 9-1 first-cycle network: 1.2 X" for motors of 50 hp and above,
+ * 1.67 X" below 50 hp.
+ * Medium voltage (1 kV and above), IEEE C37.010 first-cycle (momentary) network practice: 1.0 X" above 1000 hp and
+ * for 3600 rpm motors of 250 hp and above; 1.2 X" for 50–1000 hp; 1.67 X" below 50 hp.
+ * `rpm` unknown for a medium-voltage motor of 250–1000 hp: taken as 3600 rpm (1.0, the larger contribution; see
+ * `motorRpmAssumed`).
  */
-export function motorFirstCycleMultiplier(sizeHp: number, ratedKv: number): number {
-  if (ratedKv >= 1) return 1.0;
+export function motorFirstCycleMultiplier(sizeHp: number, ratedKv: number, rpm?: number): number {
+  if (ratedKv < 1) return sizeHp >= 50 ? 1.2 : 1.67;
+  if (sizeHp > 1000) return 1.0;
+  if (sizeHp >= 250 && (rpm === undefined || rpm >= 3600)) return 1.0;
   return sizeHp >= 50 ? 1.2 : 1.67;
+}
+
+/** Whether the multiplier of a medium-voltage motor rests on an assumed 3600 rpm (rpm not given, 250–1000 hp). */
+export function motorRpmAssumed(sizeHp: number, ratedKv: number, rpm?: number): boolean {
+  return ratedKv >= 1 && rpm === undefined && sizeHp >= 250 && sizeHp <= 1000;
 }
 
 /**

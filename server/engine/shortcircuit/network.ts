@@ -19,6 +19,7 @@ import {
   cableImpedanceFromTableOhm,
   generatorImpedancePu,
   motorFirstCycleMultiplier,
+  motorRpmAssumed,
   motorImpedancePu,
   motorKvaFromHp,
   motorSubtransientPu,
@@ -279,12 +280,14 @@ export function buildNetwork(model: Model): Network {
 
   const hpAsKva: string[] = [];
   const motorTypicalXr: string[] = [];
+  const rpmAssumed: string[] = [];
   (model.motors ?? []).forEach((m, i) => {
     const bus = busOf(m.bus, 'motors', i, 'bus');
     const ratingKva = m.kva ?? motorKvaFromHp(m.hp ?? Number.NaN);
     if (m.kva === undefined) hpAsKva.push(`"${m.id}"`);
     // Size class for IEEE 551 multipliers: hp, or kVA taken as hp (1 kVA per hp, common practice).
     const sizeHp = m.hp ?? ratingKva;
+    if (m.firstCycleMultiplier === undefined && motorRpmAssumed(sizeHp, m.kv, m.rpm)) rpmAssumed.push(`"${m.id}"`);
     let xr = m.xr;
     if (xr === undefined) {
       xr = typicalMotorXr(m.kv);
@@ -294,7 +297,7 @@ export function buildNetwork(model: Model): Network {
       ratingKva,
       ratedKv: m.kv,
       subtransientPu: motorSubtransientPu(m),
-      multiplier: m.firstCycleMultiplier ?? motorFirstCycleMultiplier(sizeHp, m.kv),
+      multiplier: m.firstCycleMultiplier ?? motorFirstCycleMultiplier(sizeHp, m.kv, m.rpm),
       xr,
       baseMva,
       baseKv: busKv[bus],
@@ -306,6 +309,12 @@ export function buildNetwork(model: Model): Network {
     warnings.push({
       code: 'motor-kva-from-hp',
       message: `Motor kVA taken as 1 kVA per hp (common practice, no source) for ${hpAsKva.join(', ')}`,
+    });
+  }
+  if (rpmAssumed.length > 0) {
+    warnings.push({
+      code: 'motor-rpm-assumed',
+      message: `Motor speed not given: taken as 3600 rpm (first-cycle multiplier 1.0, the larger contribution, IEEE C37.010 practice) for ${rpmAssumed.join(', ')}`,
     });
   }
   if (motorTypicalXr.length > 0) {
