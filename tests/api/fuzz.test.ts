@@ -6,9 +6,12 @@
  *
  * Generated values are kept small (arrays up to 1 500 items, nesting up to 300 levels, raw texts up to a few kB) so the
  * 10 000 requests stay cheap; the extreme sizes (20 000 items, 1 500 levels, 20 000 brackets) are sent once each by a
- * test of their own.
+ * test of their own. A last group sends numbers of absurd magnitude (±1e300, ±1e-300, 1e308, 5e-324, ±1e400), nesting
+ * up to 10 000 levels anywhere in a body, and bad encodings, charsets and content types: still no 5xx, and every
+ * request must be answered within 30 s (a hang fails the property; no timing is asserted otherwise).
  */
 import http from 'node:http';
+import zlib from 'node:zlib';
 import * as fc from 'fast-check';
 import request from 'supertest';
 import { modelSchema } from '../../shared/schemas/model';
@@ -593,4 +596,168 @@ describe('generated bad bodies never make the server fail', () => {
   it('sent at least 10 000 generated bodies in all', () => {
     expect(sent).toBeGreaterThanOrEqual(10_000);
   });
+});
+
+describe('absurd magnitudes, deep nesting and bad encodings: still no 5xx and no hang', () => {
+  /** A response must arrive within this; a request that waits longer counts as a hang (not a timing assertion). */
+  const HANG_MS = 30_000;
+  const routes = (): { route: string; method: 'post' | 'put'; url: string; valid: () => unknown }[] => [
+    { route: 'incident-energy', method: 'post', url: '/api/calc/incident-energy', valid: ie },
+    { route: 'incident-energy (clearing)', method: 'post', url: '/api/calc/incident-energy', valid: ieClearing },
+    { route: 'clearing-time', method: 'post', url: '/api/calc/clearing-time', valid: clearing(0) },
+    { route: 'clearing-time (2)', method: 'post', url: '/api/calc/clearing-time', valid: clearing(1) },
+    { route: 'short-circuit', method: 'post', url: '/api/calc/short-circuit', valid: () => ({ model: smallModel() }) },
+    {
+      route: 'put-model',
+      method: 'put',
+      url: `/api/studies/${draftId}/model`,
+      valid: () => ({ model: smallModel(), version: modelVersion }),
+    },
+  ];
+  const send = (method: 'post' | 'put', url: string) =>
+    call(method, url)
+      .set(...eng())
+      .timeout({ response: HANG_MS, deadline: HANG_MS });
+
+  /** Numbers far outside any physical range, as JSON can carry them (1e400 parses to Infinity, 1e-400 to 0). */
+  const ABSURD = ['1e300', '-1e300', '1e-300', '-1e-300', '1e308', '-1e308', '5e-324', '1e400', '-1e400', '1e-400'];
+  /** Number tokens after `:`, `[` or `,` in JSON text (digits inside strings are left alone by the lookbehind). */
+  const NUMBER = /(?<=[:[,])-?\d+(?:\.\d+)?(?:[eE][+-]?\d+)?/g;
+
+  it('every number of a valid body replaced by ±1e300, ±1e-300, 1e308, 5e-324 or ±1e400', async () => {
+    const cases = routes();
+    await fc.assert(
+      fc.asyncProperty(
+        fc.nat(cases.length - 1),
+        fc.array(fc.tuple(fc.nat(), fc.constantFrom(...ABSURD)), { minLength: 1, maxLength: 4 }),
+        fc.boolean(),
+        async (which, picks, all) => {
+          const c = cases[which];
+          let text = JSON.stringify(c.valid());
+          const count = (text.match(NUMBER) ?? []).length;
+          if (all) {
+            let k = 0;
+            text = text.replace(NUMBER, () => picks[k++ % picks.length][1]);
+          } else {
+            const chosen = new Map(picks.map(([i, v]) => [i % Math.max(count, 1), v]));
+            let k = 0;
+            text = text.replace(NUMBER, (m) => chosen.get(k++) ?? m);
+          }
+          const res = await send(c.method, c.url).set('Content-Type', 'application/json').send(text);
+          checkResponse(c.route, res, text.slice(0, 300));
+          if (c.route === 'put-model' && res.status === 200) modelVersion = res.body.version as number;
+        },
+      ),
+      { numRuns: 240 },
+    );
+  }, 300_000);
+
+  it('nesting deeper than 64 levels anywhere in the body is a 400 naming `body`; up to 64 is left to the schema', async () => {
+    const cases = routes();
+    await fc.assert(
+      fc.asyncProperty(
+        fc.nat(cases.length - 1),
+        fc.integer({ min: 1, max: 10_000 }),
+        fc.constantFrom<'array' | 'object'>('array', 'object'),
+        fc.constantFrom('first', 'last', 'alone'),
+        async (which, depth, kind, where) => {
+          const c = cases[which];
+          // Built as text: a value 10 000 levels deep would overflow the test's own JSON.stringify.
+          const deep =
+            kind === 'array' ? '['.repeat(depth) + ']'.repeat(depth) : '{"a":'.repeat(depth) + '1' + '}'.repeat(depth);
+          const validText = JSON.stringify(c.valid());
+          const text =
+            where === 'alone'
+              ? deep
+              : where === 'first'
+                ? `{"__deep":${deep},${validText.slice(1)}`
+                : `${validText.slice(0, -1)},"__deep":${deep}}`;
+          const levels = depth + (where === 'alone' ? 0 : 1); // the wrapping object is one level more
+          const res = await send(c.method, c.url).set('Content-Type', 'application/json').send(text);
+          checkResponse(c.route, res, `${kind} nested ${depth} (${where})`);
+          if (levels > 64) {
+            if (res.status !== 400 || typeof res.body.error?.fields?.body !== 'string')
+              throw new Error(`${c.route}: ${levels} levels → ${res.status} ${preview(res.body, 300)}`);
+          }
+        },
+      ),
+      { numRuns: 150 },
+    );
+  }, 300_000);
+
+  it('bad encodings, charsets and content types are 4xx naming the body', async () => {
+    const valid = JSON.stringify(ie());
+    const encodings = fc.oneof(
+      // Labelled compressed but not (or corrupt).
+      fc.tuple(fc.constantFrom('gzip', 'deflate', 'br'), fc.uint8Array({ maxLength: 300 })).map(([enc, bytes]) => ({
+        headers: { 'Content-Encoding': enc, 'Content-Type': 'application/json' },
+        body: Buffer.from(bytes),
+      })),
+      fc.constantFrom('gzip', 'deflate', 'br').map((enc) => ({
+        headers: { 'Content-Encoding': enc, 'Content-Type': 'application/json' },
+        body: Buffer.from(valid),
+      })),
+      // A real gzip cut short.
+      fc.integer({ min: 1, max: 30 }).map((n) => ({
+        headers: { 'Content-Encoding': 'gzip', 'Content-Type': 'application/json' },
+        body: zlib.gzipSync(valid).subarray(0, n),
+      })),
+      // Properly compressed JSON, valid or not: the route decides (4xx or 200), never 5xx.
+      fc
+        .tuple(fc.constantFrom('gzip', 'deflate', 'br'), fc.oneof(fc.constant(valid), fc.string({ maxLength: 80 })))
+        .map(([enc, text]) => ({
+          headers: { 'Content-Encoding': enc, 'Content-Type': 'application/json' },
+          body:
+            enc === 'gzip'
+              ? zlib.gzipSync(text)
+              : enc === 'deflate'
+                ? zlib.deflateSync(text)
+                : zlib.brotliCompressSync(text),
+        })),
+      // 20 MB of spaces compressed to a few kB: refused for size (the JSON limit counts inflated bytes).
+      fc.constant({
+        headers: { 'Content-Encoding': 'gzip', 'Content-Type': 'application/json' },
+        body: zlib.gzipSync(Buffer.alloc(20 * 1024 * 1024, 0x20)),
+      }),
+      // Unknown encodings and charsets.
+      fc.constantFrom('x-squeeze', 'compress', 'gzip, gzip', 'identity, br', '*').map((enc) => ({
+        headers: { 'Content-Encoding': enc, 'Content-Type': 'application/json' },
+        body: Buffer.from(valid),
+      })),
+      fc.constantFrom('klingon-8', 'utf-99', 'latin1', 'utf-16', 'utf-32', 'ebcdic', '').map((cs) => ({
+        headers: { 'Content-Type': `application/json; charset=${cs}` },
+        body: Buffer.from(valid),
+      })),
+      // Bytes that are not UTF-8.
+      fc.uint8Array({ minLength: 1, maxLength: 200 }).map((bytes) => ({
+        headers: { 'Content-Type': 'application/json; charset=utf-8' },
+        body: Buffer.concat([Buffer.from('{"voltageV":"'), Buffer.from(bytes), Buffer.from('"}')]),
+      })),
+      // Other content types.
+      fc
+        .constantFrom(
+          'application/x-www-form-urlencoded',
+          'text/plain',
+          'application/xml',
+          'application/octet-stream',
+          'multipart/form-data; boundary=nothing-here',
+          'multipart/form-data',
+          'application/json-patch+json',
+        )
+        .map((type) => ({ headers: { 'Content-Type': type }, body: Buffer.from(valid) })),
+    );
+    await fc.assert(
+      fc.asyncProperty(encodings, async ({ headers, body }) => {
+        let req = send('post', '/api/calc/incident-energy');
+        for (const [k, v] of Object.entries(headers)) req = req.set(k, v);
+        const res = await req.send(body);
+        checkResponse('encodings', res, { headers, bytes: body.length });
+        if (res.status >= 400 && res.status !== 400 && res.status !== 413 && res.status !== 415)
+          throw new Error(`unexpected ${res.status} for ${JSON.stringify(headers)}: ${preview(res.body, 300)}`);
+        if ((res.status === 415 || res.status === 400) && !res.body.error.fields)
+          throw new Error(`no field named for ${JSON.stringify(headers)}: ${preview(res.body, 300)}`);
+      }),
+      { numRuns: 200 },
+    );
+  }, 300_000);
 });
