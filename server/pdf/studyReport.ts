@@ -584,9 +584,20 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
         ? s.shortCircuitMva !== undefined
           ? `${num(s.shortCircuitMva)} MVA short circuit`
           : `${num(s.shortCircuitKa)} kA short circuit`
-        : `${num(s.kva)} kVA, ${num(s.kv)} kV, X"d ${num(s.subtransientPct)} %`,
+        : `${num(s.kva)} kVA, ${num(s.kv)} kV, X"d ${num(s.subtransientPct)} %` +
+          `, X'd ${s.transientPct !== undefined ? `${num(s.transientPct)} %` : 'typical *'}` +
+          (s.sustainedCurrentMultiple !== undefined
+            ? `, sustained ${num(s.sustainedCurrentMultiple)} × rated`
+            : `, Xd ${s.synchronousPct !== undefined ? `${num(s.synchronousPct)} %` : 'typical *'}`) +
+          `, T"d ${s.subtransientTimeConstantS !== undefined ? `${num(s.subtransientTimeConstantS)} s` : 'typical *'}` +
+          `, T'd ${s.transientTimeConstantS !== undefined ? `${num(s.transientTimeConstantS)} s` : 'typical *'}`,
       num(s.xr),
     ]),
+    model.sources.some((s) => s.kind === 'generator')
+      ? {
+          note: '* typical generator value, from memory (not entered): the study warnings list each; without Xd or a sustained multiple the higher energy of a low and a supported sustained current is kept.',
+        }
+      : undefined,
   );
 
   // Method.
