@@ -17,7 +17,7 @@ afterAll(async () => {
   await t.close();
 });
 
-const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+const sleep = (ms: number) => new Promise<void>((r) => setTimeout(r, ms));
 
 describe('Jobs', () => {
   it('drain: a job that checks the stop request ends with JobStopped and the drain reports all done', async () => {
