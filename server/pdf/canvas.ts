@@ -20,7 +20,7 @@ import {
   type PDFRef,
   type RGB,
 } from 'pdf-lib';
-import { encodeForFont, printable } from './fonts';
+import { encodeForFont, fontFor, printable } from './fonts';
 import { fitText, textWidth, type FittedText } from './text';
 
 export const BLACK = rgb(0, 0, 0);
@@ -185,7 +185,8 @@ export class Canvas {
 
   /** Fits `text` into a box `w` wide without drawing it. */
   fit(text: string, w: number, opts: TextBoxOptions): FittedText & { height: number } {
-    const fitted = fitText(opts.font, printable(text, opts.font), {
+    const font = fontFor(text, opts.font);
+    const fitted = fitText(font, printable(text, font), {
       maxWidth: w,
       size: opts.size,
       minSize: opts.minSize,
@@ -208,8 +209,9 @@ export class Canvas {
    * Fits `text` into a box `w` wide starting at `top`, and draws it. Returns the fitted text and the height used.
    */
   text(text: string, x: number, top: number, w: number, opts: TextBoxOptions): FittedText & { height: number } {
-    const fitted = this.fit(text, w, opts);
-    this.drawFitted(fitted, x, top, w, opts);
+    const o = { ...opts, font: fontFor(text, opts.font) };
+    const fitted = this.fit(text, w, o);
+    this.drawFitted(fitted, x, top, w, o);
     return fitted;
   }
 }

@@ -93,6 +93,31 @@ const NO_FEATURES: Record<string, false> = Object.fromEntries(
 );
 
 const fontKeyOf = new WeakMap<PDFFont, FontKey>();
+const familyOf = new WeakMap<PDFFont, PdfFonts>();
+
+/** The text face of the same weight, for text the mono face has no glyphs for (Greek, for one). */
+const TEXT_FALLBACK: Partial<Record<FontKey, FontKey>> = { mono: 'text', monoBold: 'textBold' };
+
+/**
+ * The font to draw `text` with: `font` itself, or — when it lacks glyphs the document's text face of the same
+ * weight has — that text face, so names in other scripts print instead of turning into "?".
+ */
+export function fontFor(text: string, font: PDFFont): PDFFont {
+  const key = fontKeyOf.get(font);
+  const fallbackKey = key ? TEXT_FALLBACK[key] : undefined;
+  const family = familyOf.get(font);
+  if (!key || !fallbackKey || !family) return font;
+  const fonts = loadFonts();
+  let missing = 0;
+  let fallbackMissing = 0;
+  for (const ch of text) {
+    const cp = ch.codePointAt(0) as number;
+    if (cp <= 0x20) continue;
+    if (!fonts[key].hasGlyph(cp)) missing += 1;
+    if (!fonts[fallbackKey].hasGlyph(cp)) fallbackMissing += 1;
+  }
+  return missing > fallbackMissing ? family[fallbackKey] : font;
+}
 
 /**
  * Registers fontkit on the document and embeds each font once (remembering which key each PDFFont has, so that
@@ -109,6 +134,7 @@ export async function embedFonts(doc: PDFDocument): Promise<PdfFonts> {
     });
     fontKeyOf.set(out[key], key);
   }
+  for (const key of FONT_KEYS) familyOf.set(out[key], out);
   return out;
 }
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { printableName } from './text';
 import {
   bandDeviceSchema,
   deviceSchema,
@@ -42,7 +43,7 @@ export const DEVICE_KIND_LABELS = {
 
 export const deviceTypeInputSchema = z
   .object({
-    name: z.string().trim().min(1, 'Enter a name').max(160),
+    name: printableName(z.string().trim().min(1, 'Enter a name').max(160)),
     description: z.string().trim().max(2000).default(''),
     source: z
       .string()

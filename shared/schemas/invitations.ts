@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { printableName } from './text';
 import { passwordSchema } from './auth';
 import { roleSchema } from './common';
 
@@ -9,7 +10,7 @@ const email = z
   .pipe(z.email({ message: 'Enter a valid e-mail address' }));
 
 export const createInvitationSchema = z
-  .object({ email, name: z.string().trim().min(1, 'Enter a name').max(120), role: roleSchema })
+  .object({ email, name: printableName(z.string().trim().min(1, 'Enter a name').max(120)), role: roleSchema })
   .meta({ id: 'CreateInvitation' });
 export type CreateInvitation = z.infer<typeof createInvitationSchema>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { printableName } from './text';
 import { deviceSchema, electronicPositionsSchema } from './device';
 import { ELECTRODE_CONFIGS, EQUIPMENT_CLASSES, type ElectrodeConfig } from '../equipmentClasses';
 
@@ -17,7 +18,7 @@ import { ELECTRODE_CONFIGS, EQUIPMENT_CLASSES, type ElectrodeConfig } from '../e
 // Primitives
 
 const elementIdSchema = z.string().trim().min(1, 'Give an id').max(64);
-const nameSchema = z.string().trim().max(160).optional();
+const nameSchema = printableName(z.string().trim().max(160).optional());
 /** A physical quantity: finite and greater than zero (zod 4 numbers already reject ±Infinity and NaN). */
 const positive = z.number().positive();
 

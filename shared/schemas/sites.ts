@@ -1,8 +1,9 @@
 import { z } from 'zod';
+import { printableName } from './text';
 
 export const siteInputSchema = z
   .object({
-    name: z.string().trim().min(1, 'Enter a site name').max(160),
+    name: printableName(z.string().trim().min(1, 'Enter a site name').max(160)),
     address: z.string().trim().max(400).default(''),
     description: z.string().trim().max(2000).default(''),
   })

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { printableName } from './text';
 import { modelIssueSchema } from './model';
 import { studyResultsSchema } from './studyResults';
 
@@ -66,7 +67,7 @@ export const studyListSchema = z.object({ studies: z.array(studySchema) });
 
 export const createStudySchema = z
   .object({
-    title: z.string().trim().min(1, 'Enter a title').max(200),
+    title: printableName(z.string().trim().min(1, 'Enter a title').max(200)),
   })
   .meta({ id: 'CreateStudy' });
 
@@ -93,9 +94,9 @@ export const putModelSchema = z
 
 export const approveSchema = z
   .object({
-    approverName: z.string().trim().min(1, 'Enter the approving engineer’s name').max(120),
-    licenceNumber: z.string().trim().min(1, 'Enter the licence number').max(60),
-    jurisdiction: z.string().trim().min(1, 'Enter the licensing jurisdiction').max(120),
+    approverName: printableName(z.string().trim().min(1, 'Enter the approving engineer’s name').max(120)),
+    licenceNumber: printableName(z.string().trim().min(1, 'Enter the licence number').max(60)),
+    jurisdiction: printableName(z.string().trim().min(1, 'Enter the licensing jurisdiction').max(120)),
     confirm: z.literal(true, { error: 'Confirm that you reviewed the results' }),
   })
   .meta({ id: 'Approve' });

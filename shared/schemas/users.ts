@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { printableName } from './text';
 import { roleSchema } from './common';
 import { passwordSchema } from './auth';
 
@@ -23,7 +24,7 @@ export const createUserSchema = z
       .trim()
       .toLowerCase()
       .pipe(z.email({ message: 'Enter a valid e-mail address' })),
-    name: z.string().trim().min(1, 'Enter a name').max(120),
+    name: printableName(z.string().trim().min(1, 'Enter a name').max(120)),
     role: roleSchema,
     password: passwordSchema,
   })
@@ -32,7 +33,7 @@ export type CreateUser = z.infer<typeof createUserSchema>;
 
 export const updateUserSchema = z
   .object({
-    name: z.string().trim().min(1).max(120).optional(),
+    name: printableName(z.string().trim().min(1).max(120).optional()),
     role: roleSchema.optional(),
     active: z.boolean().optional(),
   })
