@@ -5,7 +5,6 @@ import { z } from 'zod';
  * invisible text-direction controls (LRM/RLM, embeddings, overrides and isolates) that can make a printed name
  * read differently from what is stored.
  */
-// eslint-disable-next-line no-control-regex
 export const NAME_FORBIDDEN = /[\u0000-\u001f\u007f-\u009f\u200e\u200f\u202a-\u202e\u2066-\u2069]/;
 
 export const NAME_FORBIDDEN_MESSAGE =
