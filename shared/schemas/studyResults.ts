@@ -55,6 +55,7 @@ export const arcIntervalSchema = z.object({
   incidentEnergyJPerCm2: z.number(),
   /** Devices that operate within or at the end of the stretch. */
   openedDeviceIds: z.array(z.string()).default([]),
+  /** The time steps within the stretch; empty when the stretch is a single step (constant currents). */
   steps: z.array(arcStepSchema).default([]),
 });
 

@@ -550,6 +550,8 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       });
     }
   }
+  // A stretch of one step is its own step: not repeated (keeps the stored trace small).
+  for (const i of intervals) if (i.steps.length === 1) i.steps = [];
   const parts = steps.map((s) => ({ arcing: s.arcing, durationMs: (s.toS - s.fromS) * 1000 }));
   const energyAt = (dMm: number) =>
     parts.reduce(
