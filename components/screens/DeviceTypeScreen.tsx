@@ -203,7 +203,10 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
             ? [{ id: 'dev', label: name || DEVICE_KIND_LABELS[def.kind], min: curves.data.min, max: curves.data.max }]
             : []
         }
-        verticals={reading ? [{ currentA: reading.currentA, label: 'Read at', tone: 'full' }] : []}
+        verticals={[
+          ...(reading ? [{ currentA: reading.currentA, label: 'Read at', tone: 'full' as const }] : []),
+          ...curveLimitVertical(def),
+        ]}
         marks={
           reading && reading.timeS !== null
             ? [{ currentA: reading.currentA, timeS: reading.timeS, label: 'clears', seriesId: 'dev' }]
@@ -296,4 +299,15 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
       )}
     </Screen>
   );
+}
+
+/** A relay's curve limit: above pickup × curveLimitMultiple (default 20) the inverse-time element keeps its time. */
+function curveLimitVertical(def: DeviceDefinition): { currentA: number; label: string; tone: 'neutral' }[] {
+  if (def.kind !== 'relay') return [];
+  const pickupA =
+    def.pickupA ??
+    (def.pickupSecondaryA !== undefined && def.ctRatio !== undefined ? def.pickupSecondaryA * def.ctRatio : undefined);
+  const multiple = def.curveLimitMultiple ?? 20;
+  if (!(pickupA !== undefined && pickupA > 0 && Number.isFinite(pickupA * multiple))) return [];
+  return [{ currentA: pickupA * multiple, label: `Curve limit ${multiple} × pickup`, tone: 'neutral' }];
 }
