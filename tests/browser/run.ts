@@ -9,11 +9,20 @@ import { specs as calcSpecs } from './specs/calc';
 import { specs as studySpecs } from './specs/studies';
 import { specs as labelSpecs } from './specs/labels';
 import { specs as attentionSpecs } from './specs/attention.spec';
+import { specs as reminderApprovalSpecs } from './specs/reminderApproval';
 
 export type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
 async function main(): Promise<void> {
-  const all: Spec[] = [...signInSpecs, ...adminSpecs, ...calcSpecs, ...studySpecs, ...labelSpecs, ...attentionSpecs];
+  const all: Spec[] = [
+    ...signInSpecs,
+    ...adminSpecs,
+    ...calcSpecs,
+    ...studySpecs,
+    ...labelSpecs,
+    ...attentionSpecs,
+    ...reminderApprovalSpecs,
+  ];
   const only = process.argv[2];
   const selected = only ? all.filter((s) => s.name.includes(only)) : all;
   const h = await startHarness();
