@@ -444,14 +444,15 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       tripCurrent.set(d.placed.id, i);
       firstOp = Math.min(firstOp, (integrators.get(d.placed.id) as TripIntegrator).timeToOperateS(i));
     }
-    if (t + firstOp < tEnd) tEnd = t + firstOp;
+    const truncated = t + firstOp < tEnd;
+    if (truncated) tEnd = t + firstOp;
     const dt = tEnd - t;
     const justOpened: string[] = [];
     for (const [id, i] of tripCurrent) {
       if ((integrators.get(id) as TripIntegrator).advance(i, t, dt)) justOpened.push(id);
     }
     // Energy of the step at the higher of its end currents (the higher hazard).
-    const end = tEnd === t + dt && dt > 0 ? stateAt(tEnd, feeding) : end0;
+    const end = truncated && dt > 0 ? stateAt(tEnd, feeding) : end0;
     if (dt > 0 && start.arcing) {
       const candidates = [start, end].filter((s): s is ArcState & { arcing: ArcingCurrents } => s.arcing !== null);
       let best: { s: ArcState & { arcing: ArcingCurrents }; e: number } | null = null;
