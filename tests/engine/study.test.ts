@@ -248,7 +248,21 @@ describe('two sources: time-stepped energy', () => {
   function twoSource(): ModelInput {
     const m = radial();
     m.buses.push({ id: 'GEN-BUS', name: 'Generator terminals', nominalKv: 0.48 });
-    m.sources!.push({ id: 'GEN', kind: 'generator', bus: 'GEN-BUS', kva: 1000, kv: 0.48, subtransientPct: 15, xr: 20 });
+    // A machine without decrement (X'd = Xd = X"d, time constants given): its current stays constant, so these checks
+    // isolate the time stepping. A decaying machine is checked in study-time-varying.test.ts.
+    m.sources!.push({
+      id: 'GEN',
+      kind: 'generator',
+      bus: 'GEN-BUS',
+      kva: 1000,
+      kv: 0.48,
+      subtransientPct: 15,
+      transientPct: 15,
+      synchronousPct: 15,
+      subtransientTimeConstantS: 0.02,
+      transientTimeConstantS: 0.5,
+      xr: 20,
+    });
     m.cables!.push({
       id: 'F-GEN',
       fromBus: 'GEN-BUS',
