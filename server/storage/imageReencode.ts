@@ -1,9 +1,13 @@
 import jpeg from 'jpeg-js';
 import { PNG } from 'pngjs';
 
-/** Photos larger than this on either side, or in total, are refused before they are decoded. */
-export const MAX_PHOTO_SIDE_PX = 10_000;
-export const MAX_PHOTO_MEGAPIXELS = 50;
+/**
+ * Photos larger than this on either side, or in total, are refused before they are decoded. Decoding runs on the
+ * server's main thread (pure JS, about a second or more per 12 MP on a small machine), so the cap also bounds how long
+ * one upload holds the server; phone cameras save 12 MP by default.
+ */
+export const MAX_PHOTO_SIDE_PX = 8000;
+export const MAX_PHOTO_MEGAPIXELS = 25;
 /** Stored photos are reduced (by a whole factor) until their longer side is at most this. */
 export const STORED_PHOTO_MAX_SIDE_PX = 3000;
 

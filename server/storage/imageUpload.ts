@@ -62,7 +62,7 @@ function describeSize(bytes: number): string {
 /**
  * One photo from the multipart field `field`, held in memory as `req.file`.
  * Accepted: JPEG and PNG, judged by the declared type AND the file's first bytes, then decoded and encoded again
- * (`reencodePhoto`: no metadata kept, EXIF orientation applied, at most 10 000 px a side and 50 MP, reduced to 3 000 px);
+ * (`reencodePhoto`: no metadata kept, EXIF orientation applied, at most 8 000 px a side and 25 MP, reduced to 3 000 px);
  * WebP and HEIC are recognized but refused (no decoder here). On success `req.file` holds the re-encoded photo and its
  * type, so it can be stored as is.
  * Too large → 413 `payload_too_large`; not an accepted image → 415 `unsupported_media_type`;

@@ -424,6 +424,12 @@ describe('photos are decoded and encoded again', () => {
     const res = await report(huge, 'huge.png', 'image/png');
     expect(res.status).toBe(413);
     expect(res.body.error.fields.photo).toMatch(/20000 × 20000 px/);
+    // Within 8 000 px a side but 30 megapixels: refused too (the cap is 25 MP).
+    huge.writeUInt32BE(6000, 16);
+    huge.writeUInt32BE(5000, 20);
+    const wide = await report(huge, 'wide.png', 'image/png');
+    expect(wide.status).toBe(413);
+    expect(wide.body.error.fields.photo).toMatch(/6000 × 5000 px; at most 8000 px a side and 25 megapixels/);
   });
 });
 
