@@ -2,11 +2,44 @@ import type { RequestHandler } from 'express';
 import { RevokedToken, User } from '../db/models';
 import type { AppContext } from '../http/context';
 import { ApiError } from '../http/errors';
+import { authCacheEpoch, cachedRevoked, cachedUser, rememberRevoked, rememberUser, type CachedUser } from './cache';
 import { verifyToken } from './tokens';
+
+/** The user a token names, from the short-lived cache (server/auth/cache.ts) or the database. */
+async function userOf(id: string): Promise<CachedUser | null> {
+  const hit = cachedUser(id);
+  if (hit) return hit;
+  const at = authCacheEpoch();
+  const u = await User.findByPk(id, {
+    attributes: ['id', 'organizationId', 'role', 'email', 'name', 'active', 'tokenVersion'],
+  });
+  if (!u) return null;
+  const user: CachedUser = {
+    id: u.id,
+    organizationId: u.organizationId,
+    role: u.role,
+    email: u.email,
+    name: u.name,
+    active: u.active,
+    tokenVersion: u.tokenVersion,
+  };
+  rememberUser(user, at);
+  return user;
+}
+
+async function isRevoked(jti: string): Promise<boolean> {
+  const hit = cachedRevoked(jti);
+  if (hit !== undefined) return hit;
+  const at = authCacheEpoch();
+  const revoked = !!(await RevokedToken.findByPk(jti, { attributes: ['jti'] }));
+  rememberRevoked(jti, revoked, at);
+  return revoked;
+}
 
 /**
  * Bearer-token authentication. A token is refused when it is missing, malformed, expired, signed with another
- * secret, revoked by sign-out, or older than the user's last password change or deactivation.
+ * secret, revoked by sign-out, or older than the user's last password change, role change or deactivation. The user
+ * and revocation look-ups are cached for a few seconds and invalidated on change (server/auth/cache.ts).
  */
 export function authenticate(ctx: AppContext): RequestHandler {
   return async (req, _res, next) => {
@@ -15,11 +48,11 @@ export function authenticate(ctx: AppContext): RequestHandler {
     if (!match) return next(ApiError.unauthorized('Sign in to continue'));
     const claims = verifyToken(ctx.config.jwtSecret, match[1], ctx.config.jwtTtlHours);
     if (!claims) return next(ApiError.unauthorized('Your session is invalid or has expired; sign in again'));
-    const user = await User.findByPk(claims.sub);
+    const user = await userOf(claims.sub);
     if (!user || !user.active || user.tokenVersion !== claims.ver || user.organizationId !== claims.org) {
       return next(ApiError.unauthorized('Your session is no longer valid; sign in again'));
     }
-    if (await RevokedToken.findByPk(claims.jti)) {
+    if (await isRevoked(claims.jti)) {
       return next(ApiError.unauthorized('You have signed out; sign in again'));
     }
     req.user = {
