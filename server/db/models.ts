@@ -7,6 +7,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 import type { Role } from '../../shared/schemas/common';
+import { forgetUser } from '../auth/cache';
 
 export class Organization extends Model<InferAttributes<Organization>, InferCreationAttributes<Organization>> {
   declare id: string;
@@ -289,7 +290,30 @@ export function initModels(sequelize: Sequelize): void {
       tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       ...timestamps(),
     },
-    { sequelize, tableName: 'users' },
+    {
+      sequelize,
+      tableName: 'users',
+      // Signed-in requests read users through a short-lived cache (server/auth/cache.ts): any change drops the entry,
+      // when saved and again when its transaction commits (a request in between may have read the old row).
+      hooks: {
+        afterSave: (u, options) => {
+          forgetUser(u.id);
+          options.transaction?.afterCommit(() => forgetUser(u.id));
+        },
+        afterDestroy: (u, options) => {
+          forgetUser(u.id);
+          options.transaction?.afterCommit(() => forgetUser(u.id));
+        },
+        afterBulkUpdate: (options) => {
+          forgetUser();
+          options.transaction?.afterCommit(() => forgetUser());
+        },
+        afterBulkDestroy: (options) => {
+          forgetUser();
+          options.transaction?.afterCommit(() => forgetUser());
+        },
+      },
+    },
   );
   Site.init(
     {

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { meSchema, signInRequestSchema, signInResponseSchema } from '../../shared/schemas/auth';
 import { SignInThrottle } from '../auth/accountThrottle';
 import { dummyPasswordHash, verifyPassword } from '../auth/passwords';
+import { markRevoked } from '../auth/cache';
 import { Organization, RevokedToken, User } from '../db/models';
 import { ApiError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
@@ -101,6 +102,7 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
           where: { jti: user.jti },
           defaults: { jti: user.jti, expiresAt: user.tokenExpiresAt },
         });
+        markRevoked(user.jti);
         return { ok: true as const };
       },
     }),
