@@ -189,6 +189,16 @@ export function clearedByDisplay(
   };
 }
 
+/** The caption over the clearing line: "Cleared by" only when a device clears (never "Cleared by No device…"). */
+export function clearedByCaption(c: Pick<LabelContent, 'clearingDevice'>): string {
+  return c.clearingDevice ? 'Cleared by' : 'Arc clearing';
+}
+
+/** The clearing line with its caption in running text: "Cleared by CB-2 (Main) — …" or "No device clears …". */
+export function clearedByLine(c: Pick<LabelContent, 'clearingDevice'>, d: DisplayValue): string {
+  return c.clearingDevice ? `Cleared by ${clearedByText(d)}` : clearedByText(d);
+}
+
 /** The clearing line as one text: "CB-2 (Main) — full arcing current". */
 export function clearedByText(d: DisplayValue): string {
   return d.secondary ? `${d.value} — ${d.secondary}` : d.value;

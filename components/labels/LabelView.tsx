@@ -4,6 +4,7 @@ import type { LabelContent } from '../../shared/schemas/labels';
 import {
   NO_ADEQUATE_PPE_TEXT,
   NO_PPE_LEVEL_TEXT,
+  clearedByCaption,
   clearedByText,
   displayText,
   labelDisplay,
@@ -178,7 +179,7 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
             </T>
             <T style={{ fontSize: 11, lineHeight: 14, color: INK }}>{d.siteName.value}</T>
           </Cell>
-          <Cell title="Cleared by">
+          <Cell title={clearedByCaption(content)}>
             <T style={{ fontSize: 11, lineHeight: 14, color: INK }} testID="label-cleared-by">
               {clearedByText(d.clearedBy)}
             </T>

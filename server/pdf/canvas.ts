@@ -71,18 +71,28 @@ function fontName(page: PDFPage, font: PDFFont): PDFName {
 }
 
 export class Canvas {
+  /** Smallest text size as printed, points: text is never fitted or drawn smaller than this on the page. */
+  minPrintedPt = 0;
+
   constructor(
     readonly page: PDFPage,
     /** Local height of the box, points (before scaling). */
     readonly height: number,
+    /** Scale from local points to page points (labels drawn into sheet cells). */
+    readonly scale = 1,
   ) {}
+
+  /** The smallest local text size that prints at `minPrintedPt`. */
+  private get floorPt(): number {
+    return this.minPrintedPt / this.scale;
+  }
 
   /** A canvas for a box whose top-left corner is at (left, top) in page points (top-down), drawn at `scale`. */
   static at(page: PDFPage, box: { left: number; top: number; width: number; height: number }, scale = 1): Canvas {
     const pageHeight = page.getHeight();
     const bottom = pageHeight - box.top - box.height * scale;
     page.pushOperators(pushGraphicsState(), concatTransformationMatrix(scale, 0, 0, scale, box.left, bottom));
-    return new Canvas(page, box.height);
+    return new Canvas(page, box.height, scale);
   }
 
   /** Ends a canvas opened with `at`. */
@@ -171,6 +181,7 @@ export class Canvas {
   /** One line of already-fitting text with its baseline at `baseline` (top-down). */
   textAt(text: string, x: number, baseline: number, font: PDFFont, size: number, color: RGB = BLACK): void {
     if (text === '') return;
+    size = Math.max(size, this.floorPt);
     this.page.pushOperators(
       pushGraphicsState(),
       setFillingColor(color),
@@ -186,10 +197,11 @@ export class Canvas {
   /** Fits `text` into a box `w` wide without drawing it. */
   fit(text: string, w: number, opts: TextBoxOptions): FittedText & { height: number } {
     const font = fontFor(text, opts.font);
+    const floor = this.floorPt;
     const fitted = fitText(font, printable(text, font), {
       maxWidth: w,
-      size: opts.size,
-      minSize: opts.minSize,
+      size: Math.max(opts.size, floor),
+      minSize: Math.max(opts.minSize ?? opts.size * 0.6, floor),
       maxLines: opts.maxLines ?? 1,
     });
     return { ...fitted, height: fitted.lines.length * fitted.size * (opts.lineHeight ?? LINE_HEIGHT) };

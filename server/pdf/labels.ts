@@ -1,6 +1,7 @@
 /**
  * Arc-flash equipment labels as PDF (docs/ARCHITECTURE.md, Label values; Labels and field checks). One label per page
- * at 4×6 in (portrait) and 4×4 in; on letter and A4 sheets, six labels per page in a 2 × 3 grid with cut lines.
+ * at 4×6 in (portrait) and 4×4 in; on letter and A4 sheets, four 4×4 labels per page in a 2 × 2 grid with cut
+ * lines, drawn at 95–98 % so that no text prints below 6 pt.
  *
  * What a label says is `LabelContent` and nothing else, plus the QR code of its public check address. The layout
  * is our own: an ANSI Z535.4 signal-word panel (DANGER: white on safety red; WARNING: black on safety orange) with
@@ -16,6 +17,8 @@ import { BLACK, Canvas, WHITE, hexColor, safetyAlertPaths, safetyAlertWidth } fr
 import { embedFonts, printable, type PdfFonts } from './fonts';
 import { codeFromCheckUrl, groupCode } from './format';
 import {
+  clearedByCaption,
+  clearedByLine,
   clearedByText,
   displayText,
   labelDisplay,
@@ -49,7 +52,10 @@ const PAGE = {
 } as const;
 
 /** Sheet grid: columns × rows, page margin and gutter between labels, points (common practice, no source). */
-export const SHEET_GRID = { columns: 2, rows: 3, margin: 0.3 * PT_PER_IN, gutter: 0.2 * PT_PER_IN } as const;
+export const SHEET_GRID = { columns: 2, rows: 2, margin: 0.25 * PT_PER_IN, gutter: 0.2 * PT_PER_IN } as const;
+
+/** No text on a label prints smaller than this, points (sheets included: the cell scale is taken into account). */
+export const MIN_PRINTED_TEXT_PT = 6;
 
 /** The compact layout is drawn in a 288 × 288 pt box (4 × 4 in) and scaled to a sheet cell. */
 const COMPACT = 4 * PT_PER_IN;
@@ -197,7 +203,7 @@ function valueCell(
   const wordy = !/\d/.test(value) && /[a-z]{3}/i.test(value);
   const v = cv.text(value, x, y + h + 1, w, {
     font: wordy ? ctx.fonts.textBold : ctx.fonts.monoBold,
-    size: wordy ? Math.min(sizes.value, 9) : sizes.value,
+    size: wordy ? Math.min(sizes.value * 0.75, 9) : sizes.value,
     minSize: wordy ? 6 : Math.max(6, sizes.value * 0.6),
     maxLines: wordy ? 2 : 1,
     lineHeight: 1.1,
@@ -238,7 +244,12 @@ function drawQr(
   // The image carries its own 4-module quiet zone.
   cv.xObject(qr, x, y, size, size);
   const code = groupCode(codeFromCheckUrl(checkUrl));
-  const t = cv.text(code, x, y + size, size, { font: ctx.fonts.monoBold, size: 7, minSize: 4.5, align: 'center' });
+  const t = cv.text(code, x - 8, y + size, size + 8, {
+    font: ctx.fonts.monoBold,
+    size: 7,
+    minSize: 4.5,
+    align: 'center',
+  });
   if (withUrl) {
     const shown = checkUrl.replace(/^https?:\/\//, '');
     cv.text(shown, x, y + size + t.height, size, {
@@ -355,8 +366,8 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   const half = (CW - 8) / 2;
   const [mm, mi] = distanceParts(d.limitedApproachMovable);
   const [fm, fi] = distanceParts(d.limitedApproachFixed);
-  valueCell(cv, ctx, 'Limited approach, movable conductor', mm, mi, L, y, half, sizes);
-  valueCell(cv, ctx, 'Limited approach, fixed circuit part', fm, fi, L + half + 8, y, half, sizes);
+  valueCell(cv, ctx, 'Limited approach, movable', mm, mi, L, y, half, sizes);
+  valueCell(cv, ctx, 'Limited approach, fixed part', fm, fi, L + half + 8, y, half, sizes);
   y += 34;
   cv.line(L, y, R, y, { width: 1 });
 
@@ -371,7 +382,7 @@ function drawTall(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl: s
   y += cv.text(d.equipmentTag.value, L, y, eqW, { font: f.monoBold, size: 13, minSize: 7 }).height;
   y += cv.text(d.equipmentName.value, L, y, eqW, { font: f.textBold, size: 10, minSize: 6.5, maxLines: 2 }).height;
   y += cv.text(d.siteName.value, L, y, eqW, { font: f.text, size: 7.5, minSize: 6 }).height + 3;
-  caption(cv, ctx, 'Cleared by', L, y, eqW, 6);
+  caption(cv, ctx, clearedByCaption(c), L, y, eqW, 6);
   y += 7;
   cv.text(clearedByText(d.clearedBy), L, y, eqW, { font: f.text, size: 7, minSize: 6, maxLines: 3 });
   y = top + 84;
@@ -402,13 +413,20 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   const R = W - 9;
   const CW = R - L;
 
-  drawSignalPanel(cv, ctx, c, 6, 6, W - 12, 34, 24);
+  drawSignalPanel(cv, ctx, c, 6, 6, W - 12, 30, 22);
 
-  let y = 42;
-  cv.text(d.hazardStatement.value, L, y, CW, { font: f.textBold, size: 12, minSize: 8, align: 'center' });
-  y += 14;
-  cv.text(d.hazardCaution.value, L, y, CW, { font: f.text, size: 6.5, minSize: 6, align: 'center', maxLines: 1 });
-  y += 9;
+  let y = 38;
+  cv.text(d.hazardStatement.value, L, y, CW, { font: f.textBold, size: 11, minSize: 8, align: 'center' });
+  y += 13;
+  const hc = cv.text(d.hazardCaution.value, L, y, CW, {
+    font: f.text,
+    size: 6.2,
+    minSize: 6,
+    align: 'center',
+    maxLines: 2,
+    lineHeight: 1.1,
+  });
+  y += Math.max(9, hc.height + 1.5);
   cv.line(L, y, R, y, { width: 1 });
 
   y += 3;
@@ -451,14 +469,20 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
     caption(cv, ctx, 'PPE level', ppeX, y, ppeW, 6);
     const lv = cv.text(d.ppeLevel.value, ppeX, y + 7, ppeW, {
       font: f.textBold,
-      size: 9,
+      size: d.ppeLevel.secondary ? 8 : 9,
       minSize: 6,
       maxLines: d.ppeLevel.secondary ? 1 : 2,
     });
     if (d.ppeLevel.secondary)
-      cv.text(d.ppeLevel.secondary, ppeX, y + 7 + lv.height, ppeW, { font: f.text, size: 6, minSize: 6, maxLines: 1 });
+      cv.text(d.ppeLevel.secondary, ppeX, y + 7 + lv.height, ppeW, {
+        font: f.text,
+        size: 6,
+        minSize: 6,
+        maxLines: 2,
+        lineHeight: 1.1,
+      });
   }
-  y += 23;
+  y += d.ppeLevel.secondary ? 29 : 23;
   cv.line(L, y, R, y, { width: 1 });
 
   y += 3;
@@ -493,9 +517,7 @@ function drawCompact(cv: Canvas, ctx: Ctx, c: LabelContent, qr: PDFRef, checkUrl
   y += cv.text(d.equipmentTag.value, L, y, eqW, { font: f.monoBold, size: 10.5, minSize: 6 }).height;
   y += cv.text(d.equipmentName.value, L, y, eqW, { font: f.textBold, size: 8.5, minSize: 6, maxLines: 2 }).height;
   y += cv.text(d.siteName.value, L, y, eqW, { font: f.text, size: 6.5, minSize: 6 }).height + 2;
-  y +=
-    cv.text(`Cleared by ${clearedByText(d.clearedBy)}`, L, y, eqW, { font: f.text, size: 6, minSize: 6, maxLines: 2 })
-      .height + 2;
+  y += cv.text(clearedByLine(c, d.clearedBy), L, y, eqW, { font: f.text, size: 6, minSize: 6, maxLines: 3 }).height + 2;
   y += cv.text(`Study date ${d.studyDate.value}  ·  Review by ${d.reviewByDate.value}`, L, y, eqW, {
     font: f.monoBold,
     size: 6,
@@ -556,10 +578,14 @@ export async function renderLabels(
     const qr = embedQrImage(doc, checkUrl).ref;
     if (size === '4x6') {
       page = doc.addPage([PAGE['4x6'].width, PAGE['4x6'].height]);
-      drawTall(new Canvas(page, TALL_H), ctx, content, qr, checkUrl);
+      const cv = new Canvas(page, TALL_H);
+      cv.minPrintedPt = MIN_PRINTED_TEXT_PT;
+      drawTall(cv, ctx, content, qr, checkUrl);
     } else if (size === '4x4') {
       page = doc.addPage([PAGE['4x4'].width, PAGE['4x4'].height]);
-      drawCompact(new Canvas(page, COMPACT), ctx, content, qr, checkUrl);
+      const cv = new Canvas(page, COMPACT);
+      cv.minPrintedPt = MIN_PRINTED_TEXT_PT;
+      drawCompact(cv, ctx, content, qr, checkUrl);
     } else {
       const slot = i % cells.length;
       if (slot === 0 || page === null) {
@@ -575,6 +601,7 @@ export async function renderLabels(
         height: COMPACT,
       };
       const cv = Canvas.at(page, box, scale);
+      cv.minPrintedPt = MIN_PRINTED_TEXT_PT;
       drawCompact(cv, ctx, content, qr, checkUrl);
       cv.close();
     }

@@ -395,12 +395,12 @@ describe('renderLabels', () => {
     expect(text).toContain('??? Panel 3');
   });
 
-  it('sheets: six labels a page in a 2 × 3 grid inside the page, each with its own QR code, in order', async () => {
-    expect(labelsPerPage('letter')).toBe(6);
+  it('sheets: four labels a page in a 2 × 2 grid inside the page (no text below 6 pt), each with its own QR code, in order', async () => {
+    expect(labelsPerPage('letter')).toBe(4);
     expect(labelsPerPage('4x6')).toBe(1);
     expect(pageCountFor('letter', 7)).toBe(2);
-    expect(pageCountFor('a4', 12)).toBe(2);
-    expect(pageCountFor('a4', 13)).toBe(3);
+    expect(pageCountFor('a4', 12)).toBe(3);
+    expect(pageCountFor('a4', 13)).toBe(4);
     for (const size of ['letter', 'a4'] as const) {
       const page = size === 'letter' ? { w: 612, h: 792 } : { w: (210 * 72) / 25.4, h: (297 * 72) / 25.4 };
       for (const cell of sheetCells(size)) {
@@ -426,10 +426,10 @@ describe('renderLabels', () => {
     const { text } = await pdfText(bytes);
     for (let i = 1; i <= 7; i += 1) expect(text).toContain(`EQ-${i}`);
     const codes = await pdfQrCodes(bytes);
-    expect(codes.map((p) => p.length)).toEqual([6, 1]);
+    expect(codes.map((p) => p.length)).toEqual([4, 3]);
     expect(codes.flat()).toEqual(seven.map((l) => l.checkUrl));
 
-    const a4 = await PDFDocument.load(await renderLabels(seven.slice(0, 6), 'a4'));
+    const a4 = await PDFDocument.load(await renderLabels(seven.slice(0, 4), 'a4'));
     expect(a4.getPageCount()).toBe(1);
     expectClose(a4.getPage(0).getWidth(), (210 * 72) / 25.4); // ISO 216 A4, 210 × 297 mm
     expectClose(a4.getPage(0).getHeight(), (297 * 72) / 25.4);
