@@ -291,20 +291,22 @@ function useSectionContext(model: ModelInput, section: Section, deviceTypes: Dev
     return { options, byId: new Map(deviceTypes.map((t) => [t.id, t])) };
   }, [deviceTypes]);
 
-  // Buses with a main: a device at the load-side ('to') end of a branch that ends at the bus.
+  // Devices at each bus's end of a branch: its possible main devices. Which branch feeds a bus depends on the fault,
+  // so every branch end at the bus counts here (a superset of the mains the study finds).
   const mainSig =
     section === 'buses'
       ? (model.devices ?? [])
-          .filter((d) => d.branch && d.end === 'to')
-          .map((d) => `${d.id}\u0001${d.branch}`)
-          .join('\u0002') + JSON.stringify(branches.map((b) => [b[1], b[3]]))
+          .filter((d) => d.branch && d.end)
+          .map((d) => `${d.id}\u0001${d.branch}\u0001${d.end}`)
+          .join('\u0002') + JSON.stringify(branches.map((b) => [b[1], b[2], b[3]]))
       : '';
   const busMains = useMemo(() => {
     const out = new Map<string, string[]>();
     if (!mainSig) return out;
-    const toBus = new Map(branches.map((b) => [b[1], b[3]]));
+    const ends = new Map(branches.map((b) => [b[1], { from: b[2], to: b[3] }]));
     for (const d of model.devices ?? []) {
-      const at = d.branch && d.end === 'to' ? toBus.get(d.branch) : undefined;
+      const e = d.branch ? ends.get(d.branch) : undefined;
+      const at = e && d.end ? e[d.end] : undefined;
       if (at) out.set(at, [...(out.get(at) ?? []), d.id]);
     }
     return out;

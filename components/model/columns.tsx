@@ -48,7 +48,7 @@ export interface EditorContext {
   branchBuses: ReadonlyMap<string, { from: string; to: string }>;
   typeOptions: readonly PickOption[];
   typesById: ReadonlyMap<string, DeviceType>;
-  /** Buses section: the devices at the load-side end of a branch ending at each bus (its main devices). */
+  /** Buses section: the devices at each bus's end of a branch (its possible main devices). */
   busMains: ReadonlyMap<string, readonly string[]>;
 }
 
@@ -469,7 +469,7 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
       const mains = ctx.busMains.get(b.id)?.join(', ');
       const v = b.equipment?.mainIsolated;
       if (v === true)
-        return `Isolated: an arc at the bus is cleared by the main${mains ? ` (${mains})` : ''}; no line-side case`;
+        return `Isolated: an arc at the bus is cleared by its main; no line-side case${mains ? ` (devices here: ${mains})` : ''}`;
       if (v === false)
         return 'Not isolated: an arc on the line side of the main is cleared by the next device upstream; both sides are evaluated';
       return 'Not stated: treated as not isolated — the line side is evaluated (the higher hazard) and the result says so';
