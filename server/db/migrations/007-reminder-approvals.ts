@@ -2,7 +2,8 @@ import { DataTypes, type QueryInterface } from 'sequelize';
 
 /**
  * Reminder addresses outside the organization need an admin's approval before mail goes to them: the approved ones
- * of each rule (JSON array). Addresses already on a rule start unapproved, so an admin reviews them once.
+ * of each rule (JSON array). Addresses already on a rule were set up before approval existed and were being mailed:
+ * they stay approved, so no reminder stops silently at the upgrade (new outside addresses wait for an admin).
  */
 export async function up({ context: qi }: { context: QueryInterface }): Promise<void> {
   await qi.addColumn('reminder_rules', 'approvedEmails', {
@@ -10,6 +11,7 @@ export async function up({ context: qi }: { context: QueryInterface }): Promise<
     allowNull: false,
     defaultValue: '[]',
   });
+  await qi.sequelize.query('UPDATE reminder_rules SET "approvedEmails" = emails');
 }
 
 export async function down({ context: qi }: { context: QueryInterface }): Promise<void> {
