@@ -274,7 +274,8 @@ export function labelDisplay(c: LabelContent): LabelDisplay {
       ? { value: feetInchesUp(boundaryMm), unit: '', secondary: formatMetresUp(boundaryMm) }
       : { value: metresUp(boundaryMm), unit: 'm', secondary: feetInchesUp(boundaryMm) };
   return {
-    signalWord: text(c.signalWord),
+    // Above 40 cal/cm² a label is DANGER whatever was stored (no arc-rated PPE is adequate; the higher hazard wins).
+    signalWord: text(c.incidentEnergyCalPerCm2 > NO_ADEQUATE_PPE_CAL_PER_CM2 ? 'DANGER' : c.signalWord),
     hazardStatement: text(HAZARD_STATEMENT),
     hazardCaution: text(hazardCaution(c)),
     incidentEnergy: {

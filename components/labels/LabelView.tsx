@@ -53,7 +53,7 @@ const Row = ({ children }: { children: React.ReactNode }) => (
  */
 export function LabelView({ content, code, width = 380 }: { content: LabelContent; code?: string; width?: number }) {
   const d = labelDisplay(content);
-  const panel = signalPanelColors(content.signalWord);
+  const panel = signalPanelColors(d.signalWord.value as LabelContent['signalWord']);
   const refused =
     content.noAdequatePpe ||
     content.ppeLevel === null ||

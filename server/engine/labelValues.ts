@@ -170,7 +170,8 @@ export function gloveClass(nominalVoltageV: number): GloveClass | null {
 }
 
 /**
- * Signal word by the organization's rule: DANGER above the rule's energy (or voltage, if set), otherwise WARNING.
+ * Signal word by the organization's rule: DANGER above the rule's energy (or voltage, if set), otherwise WARNING;
+ * always DANGER above 40 cal/cm², where no arc-rated PPE is adequate, even under a higher organization threshold.
  * Default rule: DANGER above 40 cal/cm² (common practice, no source). Colours per ANSI Z535.4.
  */
 export function signalWord(
@@ -179,6 +180,8 @@ export function signalWord(
   rule: SignalWordRule = DEFAULT_SIGNAL_WORD_RULE,
 ): SignalWord {
   requirePositive(rule.dangerAboveCalPerCm2, 'signalWordRule.dangerAboveCalPerCm2');
+  // Above 40 cal/cm² no arc-rated PPE is adequate: DANGER whatever the organization's threshold (the higher hazard).
+  if (incidentEnergyCalPerCm2 > NO_ADEQUATE_PPE_CAL_PER_CM2) return 'DANGER';
   if (incidentEnergyCalPerCm2 > rule.dangerAboveCalPerCm2) return 'DANGER';
   if (rule.dangerAboveVoltageV !== undefined && nominalVoltageV > rule.dangerAboveVoltageV) return 'DANGER';
   return 'WARNING';

@@ -114,7 +114,8 @@ function drawSignalPanel(
   h: number,
   wordSize: number,
 ): void {
-  const colors = signalPanelColors(c.signalWord);
+  const word = labelDisplay(c).signalWord.value as LabelContent['signalWord'];
+  const colors = signalPanelColors(word);
   cv.rect(x, y, w, h, { fill: hexColor(colors.background) });
   const symbolH = h * 0.7;
   const symbolW = safetyAlertWidth(symbolH);
@@ -123,8 +124,8 @@ function drawSignalPanel(
   // The word is fitted to what the symbol leaves; the pair is centred in the panel.
   let size = wordSize;
   const room = w - symbolW - gap - h * 0.5;
-  while (size > 8 && textWidth(font, c.signalWord, size) > room) size -= 0.5;
-  const wordW = textWidth(font, c.signalWord, size);
+  while (size > 8 && textWidth(font, word, size) > room) size -= 0.5;
+  const wordW = textWidth(font, word, size);
   const startX = x + (w - (symbolW + gap + wordW)) / 2;
   const symbolY = y + (h - symbolH) / 2 - h * 0.01;
   // Safety alert symbol as in ANSI Z535.4 (from memory): on DANGER a white triangle with a safety-red mark, on
@@ -136,7 +137,7 @@ function drawSignalPanel(
   cv.path(p.mark, startX, symbolY, { fill: mark });
   cv.circle(startX + p.dot.cx, symbolY + p.dot.cy, p.dot.r, { fill: mark });
   const capH = size * 0.73;
-  cv.textAt(c.signalWord, startX + symbolW + gap, y + (h + capH) / 2, font, size, hexColor(colors.text));
+  cv.textAt(word, startX + symbolW + gap, y + (h + capH) / 2, font, size, hexColor(colors.text));
 }
 
 /** Small bold uppercase caption. */

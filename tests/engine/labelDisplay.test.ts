@@ -114,6 +114,9 @@ describe('the label display', () => {
       HAZARD_CAUTION_BELOW_THRESHOLD,
     );
     const danger = labelDisplay({ ...base, incidentEnergyCalPerCm2: 40.01, noAdequatePpe: true, ppeLevel: null });
+    // Above 40 cal/cm² the label says DANGER even if the stored word (an organization threshold above 40) did not.
+    expect(danger.signalWord.value).toBe('DANGER');
+    expect(labelDisplay({ ...base, incidentEnergyCalPerCm2: 40.0 }).signalWord.value).toBe('WARNING');
     expect(danger.minimumArcRating.value).toBe('No arc-rated PPE is adequate');
     expect(danger.ppeLevel.value).toBe('NO ARC-RATED PPE IS ADEQUATE — DE-ENERGIZE');
   });

@@ -231,6 +231,10 @@ describe('signal word (organization rule; default DANGER above 40 cal/cm² — c
     expect(signalWord(10, 480, { dangerAboveCalPerCm2: 8 })).toBe('DANGER');
     expect(signalWord(2, 4160, { dangerAboveCalPerCm2: 40, dangerAboveVoltageV: 600 })).toBe('DANGER');
     expect(signalWord(2, 480, { dangerAboveCalPerCm2: 40, dangerAboveVoltageV: 600 })).toBe('WARNING');
+    // Above 40 cal/cm² no arc-rated PPE is adequate: DANGER even when the organization sets a higher threshold
+    // (common practice, no source; the higher hazard wins).
+    expect(signalWord(45, 480, { dangerAboveCalPerCm2: 60 })).toBe('DANGER');
+    expect(signalWord(40, 480, { dangerAboveCalPerCm2: 60 })).toBe('WARNING');
     const label = computeLabelValues(resultWith(10), 480, { signalWordRule: { dangerAboveCalPerCm2: 8 } });
     expect(label.signalWord).toBe('DANGER');
     expect(label.signalColor).toBe('safety red'); // ANSI Z535.4: DANGER in safety red
