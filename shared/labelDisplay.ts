@@ -166,6 +166,14 @@ export const LABEL_STATUS_NOTICES: Record<LabelStatus, string> = {
 // ---------------------------------------------------------------------------------------------
 // Cleared by
 
+/** When no device clears before the arc-duration cap: "No device clears within 2 s — arc duration limited to 2 s". */
+export function noDeviceClearsText(capS: number | null | undefined): string {
+  if (capS === undefined || capS === null || !Number.isFinite(capS))
+    return 'No device clears before the arc-duration limit — arc duration limited to it';
+  const cap = `${Number(capS.toPrecision(3))} s`;
+  return `No device clears within ${cap} — arc duration limited to ${cap}`;
+}
+
 /** "Cleared by" of a label, the same words everywhere. */
 export function clearedByDisplay(
   c: Pick<LabelContent, 'clearingDevice' | 'governingCase'> & {
@@ -176,17 +184,7 @@ export function clearedByDisplay(
   const others = (c.otherSourcesClearedBy ?? []).filter((d) => d && d !== c.clearingDevice);
   const notes = [c.governingCase, ...(others.length ? [`other sources cut off by ${others.join(', ')}`] : [])];
   if (c.clearingDevice) return { value: c.clearingDevice, unit: '', secondary: notes.join('; ') };
-  const cap =
-    c.arcDurationCapS !== undefined && c.arcDurationCapS !== null && Number.isFinite(c.arcDurationCapS)
-      ? `${Number(c.arcDurationCapS.toPrecision(3))} s`
-      : null;
-  return {
-    value: cap
-      ? `No device clears within ${cap} — arc duration limited to ${cap}`
-      : 'No device clears before the arc-duration limit — arc duration limited to it',
-    unit: '',
-    secondary: notes.join('; '),
-  };
+  return { value: noDeviceClearsText(c.arcDurationCapS), unit: '', secondary: notes.join('; ') };
 }
 
 /** The caption over the clearing line: "Cleared by" only when a device clears (never "Cleared by No device…"). */

@@ -15,6 +15,7 @@ import { relaySettings } from '../engine/trip/relay';
 import { BLACK, Canvas, LINE_HEIGHT, type Align } from './canvas';
 import { embedFonts, type PdfFonts } from './fonts';
 import { formatBoundary, formatCalPerCm2, formatSeconds, formatSig, formatVoltage } from './format';
+import { noDeviceClearsText } from '../../shared/labelDisplay';
 import { drawTimeCurrentPlot, type PlotCurve, type PlotMarker, type PlotPoint } from './tccPlot';
 
 export interface StudyReportInput {
@@ -770,7 +771,7 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
         num(b.nominalKv, 4),
         ka(b.boltedFaultKa),
         b.arcingCurrentKa ? `${ka(b.arcingCurrentKa.full)} / ${ka(b.arcingCurrentKa.reduced)}` : '—',
-        `${b.clearingDeviceId ?? 'none before the cap'} (${g ? caseName(g).toLowerCase() : '—'})`,
+        `${b.clearingDeviceId ?? noDeviceClearsText(results.maxArcDurationMs / 1000)} (${g ? caseName(g).toLowerCase() : '—'})`,
         `${num(b.arcDurationS)}${g?.arcDurationCapped ? ' (cap)' : ''}`,
         formatCalPerCm2(b.incidentEnergyCalPerCm2 ?? NaN),
         formatBoundary(b.arcFlashBoundaryMm ?? NaN),
@@ -822,7 +823,7 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       b.cases.map((c) => [
         `${caseName(c)}${c === g ? ' (governs)' : ''}`,
         ka(c.arcingCurrentKa),
-        c.clearingDeviceId ?? 'none',
+        c.clearingDeviceId ?? noDeviceClearsText(results.maxArcDurationMs / 1000),
         c.clearingRegion ?? '—',
         `${num(c.arcDurationS)}${c.arcDurationCapped ? ' (cap)' : ''}`,
         formatCalPerCm2(c.incidentEnergyCalPerCm2),
