@@ -3,6 +3,7 @@ import React from 'react';
 import { Pressable, ScrollView, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
 import { ROLE_LABELS } from '../shared/schemas/common';
+import { confirmDiscardingDrafts, useWarnBeforeUnload } from '../hooks/modelDrafts';
 import { useSession, useUser } from '../hooks/session';
 import { useLayout } from '../hooks/useLayout';
 import { isActive, MORE_ITEM, navFor, phoneTabsFor } from './nav';
@@ -32,6 +33,10 @@ export function AppShell({ children }: { children: React.ReactNode }) {
   const { wide } = useLayout();
   const user = useUser();
   const { signOut } = useSession();
+  useWarnBeforeUnload();
+  const onSignOut = () => {
+    if (confirmDiscardingDrafts()) void signOut();
+  };
   const pathname = usePathname();
   const insets = useSafeAreaInsets();
   const items = navFor(user.role);
@@ -105,7 +110,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
           </View>
           <Pressable
             accessibilityRole="button"
-            onPress={() => void signOut()}
+            onPress={onSignOut}
             style={{ minHeight: touch.min, justifyContent: 'center', paddingHorizontal: space.sm }}
           >
             <T style={{ color: colors.navMuted, textDecorationLine: 'underline' }}>Sign out</T>
@@ -132,7 +137,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
         <Wordmark light />
         <Pressable
           accessibilityRole="button"
-          onPress={() => void signOut()}
+          onPress={onSignOut}
           style={{ minHeight: touch.min, justifyContent: 'center', paddingLeft: space.md }}
         >
           <T style={{ color: colors.navMuted, fontSize: 14 }}>{ROLE_LABELS[user.role]} · Sign out</T>

@@ -2,19 +2,13 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { CreateLabelBatch, LabelBatchDto } from '../shared/schemas/labelBatches';
 import type { LabelCheck, LabelDto } from '../shared/schemas/labels';
 import { apiFetch } from './api';
+import { queryKeys } from './queryKeys';
 
 const enc = encodeURIComponent;
 
-export const labelKeys = {
-  all: () => ['labels'] as const,
-  detail: (code: string) => ['labels', 'detail', code] as const,
-  check: (code: string) => ['labels', 'check', code] as const,
-  site: (siteId: string) => ['labels', 'site', siteId] as const,
-};
-
 export function useLabelDetail(code: string) {
   return useQuery({
-    queryKey: labelKeys.detail(code),
+    queryKey: queryKeys.labels.detail(code),
     queryFn: () => apiFetch<LabelDto>(`/labels/${enc(code)}/detail`),
     retry: false,
   });
@@ -22,7 +16,7 @@ export function useLabelDetail(code: string) {
 
 export function useLabelCheck(code: string) {
   return useQuery({
-    queryKey: labelKeys.check(code),
+    queryKey: queryKeys.labels.check(code),
     queryFn: () => apiFetch<LabelCheck>(`/labels/${enc(code)}`),
     retry: false,
   });
@@ -30,7 +24,7 @@ export function useLabelCheck(code: string) {
 
 export function useSiteLabels(siteId: string | null) {
   return useQuery({
-    queryKey: labelKeys.site(siteId ?? ''),
+    queryKey: queryKeys.labels.site(siteId ?? ''),
     queryFn: async () =>
       (await apiFetch<{ labels: LabelDto[] }>(`/sites/${enc(siteId as string)}/labels?current=1`)).labels,
     enabled: !!siteId,
@@ -45,7 +39,7 @@ export function useMarkInstalled(code: string) {
       form.append('photo', photo);
       return apiFetch<LabelDto>(`/labels/${enc(code)}/installed`, { method: 'POST', formData: form });
     },
-    onSuccess: () => qc.invalidateQueries({ queryKey: labelKeys.all() }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.labels.all() }),
   });
 }
 
@@ -62,7 +56,7 @@ export function useReportMismatch(code: string) {
         formData: form,
       });
     },
-    onSuccess: () => qc.invalidateQueries({ queryKey: labelKeys.all() }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.labels.all() }),
   });
 }
 
@@ -76,10 +70,10 @@ export function useCreateBatch() {
 export function useBatch(id: string | null) {
   const qc = useQueryClient();
   return useQuery({
-    queryKey: ['label-batches', id],
+    queryKey: queryKeys.labelBatch(id),
     queryFn: async () => {
       const b = await apiFetch<LabelBatchDto>(`/label-batches/${enc(id as string)}`);
-      if (b.status === 'done') void qc.invalidateQueries({ queryKey: labelKeys.all() });
+      if (b.status === 'done') void qc.invalidateQueries({ queryKey: queryKeys.labels.all() });
       return b;
     },
     enabled: !!id,

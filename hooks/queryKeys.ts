@@ -9,6 +9,7 @@ export const queryKeys = {
     detail: (id: string) => ['device-types', 'detail', id] as const,
   },
   bandCurves: (deviceJson: string) => ['band-curves', deviceJson] as const,
+  resolvedTripUnit: (definitionJson: string) => ['resolve-trip-unit', definitionJson] as const,
   studies: {
     all: () => ['studies'] as const,
     bySite: (siteId: string) => ['studies', 'site', siteId] as const,
@@ -17,6 +18,13 @@ export const queryKeys = {
     run: (id: string) => ['studies', 'run', id] as const,
     results: (id: string) => ['studies', 'results', id] as const,
   },
+  labels: {
+    all: () => ['labels'] as const,
+    detail: (code: string) => ['labels', 'detail', code] as const,
+    check: (code: string) => ['labels', 'check', code] as const,
+    site: (siteId: string) => ['labels', 'site', siteId] as const,
+  },
+  labelBatch: (id: string | null) => ['label-batches', id ?? ''] as const,
   equipment: (siteId: string) => ['equipment', siteId] as const,
   sites: {
     all: () => ['sites'] as const,

@@ -2,6 +2,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import React, { createContext, useCallback, useContext, useEffect, useMemo, useState } from 'react';
 import type { SignInResponse, User } from '../shared/schemas/auth';
 import { apiFetch, onUnauthorized, TOKEN_KEY } from './api';
+import { clearModelDrafts } from './modelDrafts';
 import { storage } from './storage';
 
 const USER_KEY = 'emberline.user';
@@ -42,6 +43,7 @@ export function SessionProvider({ children }: { children: React.ReactNode }) {
     storage.remove(USER_KEY);
     setUser(null);
     queryClient.clear();
+    clearModelDrafts();
   }, [queryClient]);
 
   useEffect(() => {

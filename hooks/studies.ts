@@ -8,6 +8,7 @@ import type {
   StudyDto,
 } from '../shared/schemas/studies';
 import { apiFetch } from './api';
+import { settleModelDraft } from './modelDrafts';
 import { queryKeys } from './queryKeys';
 
 const enc = encodeURIComponent;
@@ -52,8 +53,10 @@ export function useSaveModel(id: string) {
   return useMutation({
     mutationFn: (input: { model: Record<string, unknown>; version: number }) =>
       apiFetch<ModelEnvelope>(`/studies/${enc(id)}/model`, { method: 'PUT', body: input }),
-    onSuccess: (env) => {
+    onSuccess: (env, input) => {
       qc.setQueryData(queryKeys.studies.model(id), env);
+      // Here rather than in the panel, so that it holds even when the panel has gone (another tab) by the answer.
+      settleModelDraft(id, input.model, input.version, env.version);
       void qc.invalidateQueries({ queryKey: queryKeys.studies.detail(id) });
     },
   });
@@ -74,20 +77,33 @@ export function useImportModel(id: string) {
   });
 }
 
-/** The latest run; polls every second while it is queued or running. */
+const isActive = (run: RunDto | null | undefined) => !!run && (run.status === 'queued' || run.status === 'running');
+
+/**
+ * The latest run; polls every second while it is queued or running. When a run this client watched finishes (done
+ * or failed), the study, its results and the labels are fetched again: the run changes all three.
+ */
 export function useRun(id: string) {
+  const qc = useQueryClient();
   return useQuery({
     queryKey: queryKeys.studies.run(id),
     queryFn: async () => {
+      const before = qc.getQueryData<RunDto | null>(queryKeys.studies.run(id));
+      let run: RunDto | null;
       try {
-        return await apiFetch<RunDto>(`/studies/${enc(id)}/run`);
+        run = await apiFetch<RunDto>(`/studies/${enc(id)}/run`);
       } catch (e) {
-        if ((e as { status?: number }).status === 404) return null;
-        throw e;
+        if ((e as { status?: number }).status !== 404) throw e;
+        run = null;
       }
+      if (isActive(before) && run && !isActive(run)) {
+        void qc.invalidateQueries({ queryKey: queryKeys.studies.detail(id) });
+        void qc.invalidateQueries({ queryKey: queryKeys.studies.results(id) });
+        void qc.invalidateQueries({ queryKey: queryKeys.labels.all() });
+      }
+      return run;
     },
-    refetchInterval: (q) =>
-      q.state.data && (q.state.data.status === 'queued' || q.state.data.status === 'running') ? 1000 : false,
+    refetchInterval: (q) => (isActive(q.state.data) ? 1000 : false),
   });
 }
 

@@ -5,6 +5,7 @@ import { View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS, deviceDefinitionSchema, type DeviceDefinition } from '../../shared/schemas/deviceLibrary';
 import { apiFetch } from '../../hooks/api';
+import { queryKeys } from '../../hooks/queryKeys';
 import { serverErrors, validate } from '../../hooks/forms';
 import {
   useBandCurves,
@@ -29,7 +30,7 @@ import { Button, Card, Field, Notice, Screen, T } from '../ui';
 function useResolvedDevice(def: DeviceDefinition | null): { device: Device | null; error: string | null } {
   const key = def ? JSON.stringify(def) : '';
   const resolved = useQuery({
-    queryKey: ['resolve-trip-unit', key],
+    queryKey: queryKeys.resolvedTripUnit(key),
     queryFn: () =>
       apiFetch<{ device: Device }>('/calc/resolve-trip-unit', {
         method: 'POST',

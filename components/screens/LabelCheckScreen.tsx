@@ -6,6 +6,7 @@ import { LABEL_STATUS_LABELS, type LabelCheck } from '../../shared/schemas/label
 import { LABEL_STATUS_NOTICES } from '../../shared/labelDisplay';
 import { parseLabelCode } from '../../shared/labelCode';
 import { apiFetch, ApiClientError } from '../../hooks/api';
+import { queryKeys } from '../../hooks/queryKeys';
 import { Cautions } from '../Cautions';
 import { LabelView } from '../labels/LabelView';
 import { colors, fonts, radius, space } from '../theme';
@@ -20,7 +21,7 @@ const STATUS_STYLE = {
 /** The public page a label's QR code opens: what the label says and whether it still holds. No sign-in. */
 export function LabelCheckScreen({ code }: { code: string }) {
   const check = useQuery({
-    queryKey: ['label-check', code],
+    queryKey: queryKeys.labels.check(code),
     queryFn: () => apiFetch<LabelCheck>(`/labels/${encodeURIComponent(parseLabelCode(code) ?? code)}`),
     retry: false,
   });

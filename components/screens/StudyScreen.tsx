@@ -1,6 +1,7 @@
 import { useLocalSearchParams, useRouter } from 'expo-router';
 import React from 'react';
 import { View } from 'react-native';
+import { useConfirmLeavingStudy } from '../../hooks/modelDrafts';
 import { useStudy } from '../../hooks/studies';
 import { ModelPanel } from '../studies/ModelPanel';
 import { OverviewPanel } from '../studies/OverviewPanel';
@@ -22,6 +23,7 @@ export function StudyScreen({ studyId }: { studyId: string }) {
   const params = useLocalSearchParams<{ tab?: string }>();
   const tab: Tab = TABS.some((t) => t.value === params.tab) ? (params.tab as Tab) : 'overview';
   const study = useStudy(studyId);
+  useConfirmLeavingStudy(studyId);
   if (study.error)
     return (
       <Screen title="Study">

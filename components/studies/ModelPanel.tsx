@@ -5,6 +5,7 @@ import type { StudyDto } from '../../shared/schemas/studies';
 import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useDeviceTypes } from '../../hooks/queries';
+import { clearModelDraft, setModelDraft, useModelDraft } from '../../hooks/modelDrafts';
 import { useUser } from '../../hooks/session';
 import { useImportModel, useSaveModel, useStudyModel } from '../../hooks/studies';
 import { ModelEditor } from '../model/ModelEditor';
@@ -107,22 +108,17 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   const envelope = useStudyModel(study.id);
   const deviceTypes = useDeviceTypes();
   const save = useSaveModel(study.id);
-  const [draft, setDraft] = useState<ModelInput | null>(null);
-  const [baseVersion, setBaseVersion] = useState(0);
-  const [dirty, setDirty] = useState(false);
   const [conflict, setConflict] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
   const [focus, setFocus] = useState<{ collection: string; index: number } | null>(null);
   const [showTree, setShowTree] = useState(true);
 
-  // Only a clean editor follows the server; unsaved edits are never overwritten silently. (State adjusted while
-  // rendering when the server's copy changes, rather than in an effect that would render twice.)
-  const [syncedFrom, setSyncedFrom] = useState<typeof envelope.data>(undefined);
-  if (envelope.data && !dirty && envelope.data !== syncedFrom) {
-    setSyncedFrom(envelope.data);
-    setDraft(envelope.data.model as ModelInput);
-    setBaseVersion(envelope.data.version);
-  }
+  // Unsaved edits live in the draft store (kept across the study's tabs); without them the editor shows the server's
+  // copy, so a clean editor follows the server and unsaved edits are never overwritten silently.
+  const stored = useModelDraft(study.id);
+  const dirty = stored?.dirty ?? false;
+  const draft: ModelInput | null = stored?.draft ?? (envelope.data ? (envelope.data.model as ModelInput) : null);
+  const baseVersion = stored?.baseVersion ?? envelope.data?.version ?? 0;
 
   const deferred = useDeferredValue(draft);
   const issues: ModelIssue[] = useMemo(() => {
@@ -141,8 +137,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
       { model: draft as Record<string, unknown>, version: baseVersion },
       {
         onSuccess: (env) => {
-          setBaseVersion(env.version);
-          setDirty(false);
+          // useSaveModel has put the saved model in the cache and dropped the draft.
           setSaved(
             `Saved as model version ${env.version}${env.issues.length ? ` — ${env.issues.length} problem(s) to fix before a run` : ''}.`,
           );
@@ -153,14 +148,9 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   };
 
   const reload = () => {
-    setDirty(false);
+    clearModelDraft(study.id);
     setConflict(null);
-    void envelope.refetch().then((r) => {
-      if (r.data) {
-        setDraft(r.data.model as ModelInput);
-        setBaseVersion(r.data.version);
-      }
-    });
+    void envelope.refetch();
   };
 
   return (
@@ -212,8 +202,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
       <ModelEditor
         model={draft}
         onChange={(m) => {
-          setDraft(m);
-          setDirty(true);
+          setModelDraft(study.id, { draft: m, baseVersion, dirty: true });
           setSaved(null);
         }}
         issues={issues}

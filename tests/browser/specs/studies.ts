@@ -2,7 +2,7 @@ import { modelSchema } from '../../../shared/schemas/model';
 import { exportModelWorkbook } from '../../../server/io';
 import { larkspurModel } from '../../../server/seed/larkspurModel';
 import type { Harness } from '../harness';
-import { DESKTOP, PHONE } from '../harness';
+import { DESKTOP, PHONE, pollUntil } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -65,13 +65,11 @@ export const specs: Spec[] = [
       const workbook = await exportModelWorkbook(
         modelSchema.parse({ ...larkspurModel(), name: 'Larkspur, revision 2' }),
       );
-      await page
-        .getByTestId('model-file-input')
-        .setInputFiles({
-          name: 'larkspur.xlsx',
-          mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-          buffer: workbook,
-        });
+      await page.getByTestId('model-file-input').setInputFiles({
+        name: 'larkspur.xlsx',
+        mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+        buffer: workbook,
+      });
       await page.getByText('Imported larkspur.xlsx').waitFor();
       await h.shot(page, 'study-model-desktop');
       await page.getByTestId('study-tab-overview').click();
@@ -107,6 +105,89 @@ export const specs: Spec[] = [
       await openDemoSite(h, page);
       await page.getByTestId('study-1').getByText('Superseded').waitFor();
       await page.close();
+    },
+  },
+  {
+    name: 'engineer edits the model, switches study tabs and back: the edit and "Unsaved changes" stay; leaving asks first',
+    run: async (h) => {
+      const page = await h.newPage(DESKTOP);
+      await h.signIn(page, 'engineer@larkspur.example');
+      await page.getByTestId('home-engineer').waitFor();
+      // The pump station's approved study: a new revision is a draft the engineer may edit.
+      await page.goto(`${h.baseUrl}/sites`);
+      await page.getByText('Larkspur Valley Raw Water Pump Station').first().click();
+      await page.getByRole('heading', { name: 'Larkspur Valley Raw Water Pump Station' }).waitFor();
+      await page.getByTestId('study-1').click();
+      await page.getByTestId('revise').click();
+      await page.getByText('rev 2').first().waitFor();
+      const studyUrl = page.url().split('?')[0];
+      await page.getByTestId('study-tab-model').click();
+      const state = page.getByTestId('model-state');
+      await state.getByText('Saved · model version').waitFor();
+      const edited = 'Pump station, edited before a tab switch';
+      await page.getByTestId('model-section-general').click();
+      await page.getByTestId('model-name').fill(edited);
+      await state.getByText('Unsaved changes').waitFor();
+
+      // Another tab unmounts the model panel; coming back finds the edit from the draft store.
+      await page.getByTestId('study-tab-overview').click();
+      await page.getByTestId('run-panel').waitFor();
+      assert((await page.getByTestId('model-name').count()) === 0, 'the model panel is gone on the overview tab');
+      await page.getByTestId('study-tab-model').click();
+      await state.getByText('Unsaved changes').waitFor();
+      await page.getByTestId('model-section-general').click();
+      const value = await page.getByTestId('model-name').inputValue();
+      assert(value === edited, `the edit survives the tab switch (${value})`);
+      await state.scrollIntoViewIfNeeded();
+      await h.shot(page, 'model-unsaved-after-tab-switch-desktop');
+      await page.setViewportSize(PHONE);
+      await page.getByTestId('study-tab-results').click();
+      await page.getByTestId('study-tab-model').click();
+      await state.getByText('Unsaved changes').waitFor();
+      await page.getByTestId('model-section-general').click();
+      assert((await page.getByTestId('model-name').inputValue()) === edited, 'the edit survives on the phone layout');
+      await state.scrollIntoViewIfNeeded();
+      await h.shot(page, 'model-unsaved-after-tab-switch-phone');
+      await page.setViewportSize(DESKTOP);
+
+      // A link out of the study asks; staying keeps the page and the edit.
+      const answers: string[] = [];
+      let accept = false;
+      const onDialog = (d: import('playwright-core').Dialog) => {
+        answers.push(`${d.type()}: ${d.message()}`);
+        void (accept ? d.accept() : d.dismiss());
+      };
+      page.on('dialog', onDialog);
+      await page.getByTestId('side-nav').getByRole('link', { name: 'Sites' }).click();
+      await pollUntil(async () => answers.length === 1, 'the confirm before leaving the study');
+      assert(answers[0].startsWith('confirm: ') && answers[0].includes('unsaved changes'), `asked (${answers[0]})`);
+      await page.waitForTimeout(300);
+      assert(page.url().startsWith(studyUrl), `stayed on the study (${page.url()})`);
+      await state.getByText('Unsaved changes').waitFor();
+
+      // Closing the page while the draft is dirty: the browser's own leave prompt.
+      accept = true;
+      const closed = page.close({ runBeforeUnload: true });
+      await pollUntil(async () => answers.length === 2, 'the prompt before closing the page');
+      assert(answers[1].startsWith('beforeunload'), `beforeunload prompt (${answers[1]})`);
+      await closed;
+      page.off('dialog', onDialog);
+
+      // Leaving after agreeing discards the draft: the study shows the saved model again.
+      const again = await h.newPage(DESKTOP);
+      await again.goto(`${studyUrl}?tab=model`);
+      await again.getByTestId('model-section-general').click();
+      await again.getByTestId('model-name').fill(edited);
+      await again.getByTestId('model-state').getByText('Unsaved changes').waitFor();
+      again.on('dialog', (d) => void d.accept());
+      await again.getByTestId('side-nav').getByRole('link', { name: 'Sites' }).click();
+      await again.getByRole('heading', { name: 'Sites' }).first().waitFor();
+      // Back in the browser's history (no page load: the draft store would keep an edit that was not discarded).
+      await again.goBack();
+      await again.getByTestId('model-state').getByText('Saved · model version').waitFor();
+      await again.getByTestId('model-section-general').click();
+      assert((await again.getByTestId('model-name').inputValue()) !== edited, 'the discarded edit is gone');
+      await again.close();
     },
   },
 ];
