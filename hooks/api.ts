@@ -33,12 +33,16 @@ export function apiBaseUrl(): string {
   return (process.env.EXPO_PUBLIC_API_URL ?? '').replace(/\/+$/, '');
 }
 
-export async function apiFetch<T>(
+/**
+ * One request to the API with the session's token: a network failure, a 401 (the session has ended) and an error
+ * answer become an ApiClientError; anything else is the Response.
+ */
+async function apiRequest(
   path: string,
-  init: { method?: string; body?: unknown; formData?: FormData; raw?: boolean } = {},
-): Promise<T> {
+  init: { method?: string; body?: unknown; formData?: FormData; accept?: string } = {},
+): Promise<Response> {
   const token = storage.get(TOKEN_KEY);
-  const headers: Record<string, string> = { Accept: 'application/json' };
+  const headers: Record<string, string> = { Accept: init.accept ?? 'application/json' };
   if (token) headers.Authorization = `Bearer ${token}`;
   let body: BodyInit | undefined;
   if (init.formData) body = init.formData;
@@ -67,7 +71,22 @@ export async function apiFetch<T>(
       payload.error?.fields,
     );
   }
+  return res;
+}
+
+export async function apiFetch<T>(
+  path: string,
+  init: { method?: string; body?: unknown; formData?: FormData; raw?: boolean } = {},
+): Promise<T> {
+  const res = await apiRequest(path, init);
   if (init.raw) return (await res.blob()) as unknown as T;
   if (res.status === 204) return undefined as T;
   return (await res.json()) as T;
+}
+
+/** A file the API serves (PDF, CSV, workbook): its bytes and the name from Content-Disposition, if any. */
+export async function apiFile(path: string): Promise<{ blob: Blob; name: string | null }> {
+  const res = await apiRequest(path, { accept: '*/*' });
+  const disposition = res.headers.get('Content-Disposition') ?? '';
+  return { blob: await res.blob(), name: /filename="([^"]+)"/.exec(disposition)?.[1] ?? null };
 }

@@ -150,7 +150,6 @@ export const specs: Spec[] = [
       await h.shot(page, 'model-unsaved-after-tab-switch-phone');
       await page.setViewportSize(DESKTOP);
 
-      // A link out of the study asks; staying keeps the page and the edit.
       const answers: string[] = [];
       let accept = false;
       const onDialog = (d: import('playwright-core').Dialog) => {
@@ -158,6 +157,13 @@ export const specs: Spec[] = [
         void (accept ? d.accept() : d.dismiss());
       };
       page.on('dialog', onDialog);
+      // An export (a download through the API client) leaves nothing: no question, the edit stays.
+      const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-json').click()]);
+      assert(download.suggestedFilename().endsWith('.json'), `exported JSON (${download.suggestedFilename()})`);
+      assert(answers.length === 0, `no question for a download (${answers.join('; ')})`);
+      await state.getByText('Unsaved changes').waitFor();
+
+      // A link out of the study asks; staying keeps the page and the edit.
       await page.getByTestId('side-nav').getByRole('link', { name: 'Sites' }).click();
       await pollUntil(async () => answers.length === 1, 'the confirm before leaving the study');
       assert(answers[0].startsWith('confirm: ') && answers[0].includes('unsaved changes'), `asked (${answers[0]})`);
