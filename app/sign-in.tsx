@@ -1,3 +1,8 @@
+import React from 'react';
 import { SignInScreen } from '../components/screens/SignInScreen';
+import { useDocumentTitle } from '../hooks/useDocumentTitle';
 
-export default SignInScreen;
+export default function SignInRoute() {
+  useDocumentTitle('Sign in');
+  return <SignInScreen />;
+}

@@ -140,6 +140,7 @@ export function HomeScreen() {
   return (
     <Screen
       title={`Hello, ${user.name.split(' ')[0]}`}
+      documentTitle="Home"
       subtitle={`${ROLE_LABELS[user.role]}${me.data ? ` · ${me.data.organization.name}` : ''}`}
     >
       <Card testID={`home-${user.role}`} style={{ backgroundColor: colors.nav, borderColor: colors.nav }}>

@@ -1,5 +1,6 @@
 import React from 'react';
 import { KeyboardAvoidingView, ScrollView, View } from 'react-native';
+import { useDocumentTitle } from '../../hooks/useDocumentTitle';
 import { colors, fonts, radius, space } from '../theme';
 import { T } from './Text';
 
@@ -13,9 +14,10 @@ export function PublicPage({
   children: React.ReactNode;
   footer?: React.ReactNode;
 }) {
+  useDocumentTitle(title);
   return (
     <KeyboardAvoidingView style={{ flex: 1, backgroundColor: colors.nav }}>
-      <ScrollView contentContainerStyle={{ flexGrow: 1, justifyContent: 'center', padding: space.lg }}>
+      <ScrollView role="main" contentContainerStyle={{ flexGrow: 1, justifyContent: 'center', padding: space.lg }}>
         <View style={{ width: '100%', maxWidth: 420, alignSelf: 'center', gap: space.xl }}>
           <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
             <View style={{ width: 14, height: 34, borderRadius: 7, backgroundColor: colors.accent }} />

@@ -1,6 +1,7 @@
 import React from 'react';
 import { ScrollView, View } from 'react-native';
 import { useLayout } from '../../hooks/useLayout';
+import { useDocumentTitle } from '../../hooks/useDocumentTitle';
 import { colors, space } from '../theme';
 import { T } from './Text';
 
@@ -11,16 +12,24 @@ export function Screen({
   actions,
   children,
   maxWidth = 1200,
+  documentTitle,
 }: {
   title: string;
+  /** The browser tab's name for the page when the heading is not a good one (default: the heading). */
+  documentTitle?: string;
   subtitle?: string;
   actions?: React.ReactNode;
   children: React.ReactNode;
   maxWidth?: number;
 }) {
   const { wide } = useLayout();
+  useDocumentTitle(documentTitle ?? title);
   return (
+    // The page's main landmark; focusable so a keyboard can scroll it when it holds no control (axe:
+    // scrollable-region-focusable).
     <ScrollView
+      role="main"
+      focusable
       style={{ flex: 1, backgroundColor: colors.canvas }}
       contentContainerStyle={{ padding: wide ? space.xxl : space.lg, paddingBottom: 96 }}
     >
