@@ -6,6 +6,8 @@ import { ActivityIndicator, View } from 'react-native';
 import { colors } from '../components/theme';
 import { SessionProvider } from '../hooks/session';
 
+export { ErrorBoundary } from '../components/ErrorBoundary';
+
 export default function RootLayout() {
   const [queryClient] = useState(
     () =>

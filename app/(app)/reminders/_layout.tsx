@@ -2,6 +2,8 @@ import { Redirect, Slot } from 'expo-router';
 import React from 'react';
 import { useUser } from '../../../hooks/session';
 
+export { ErrorBoundary } from '../../../components/ErrorBoundary';
+
 /** Guard: reminder rules are for administrators and safety officers. */
 export default function RemindersLayout() {
   const user = useUser();

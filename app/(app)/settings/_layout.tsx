@@ -2,6 +2,8 @@ import { Redirect, Slot } from 'expo-router';
 import React from 'react';
 import { useUser } from '../../../hooks/session';
 
+export { ErrorBoundary } from '../../../components/ErrorBoundary';
+
 /** Guard: organization settings are for admins. */
 export default function SettingsLayout() {
   const user = useUser();

@@ -2,6 +2,8 @@ import { Redirect, Slot } from 'expo-router';
 import React from 'react';
 import { useUser } from '../../../hooks/session';
 
+export { ErrorBoundary } from '../../../components/ErrorBoundary';
+
 /** Guard: team management is for admins. */
 export default function TeamLayout() {
   const user = useUser();
