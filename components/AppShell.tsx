@@ -6,7 +6,7 @@ import { ROLE_LABELS } from '../shared/schemas/common';
 import { confirmDiscardingDrafts, useWarnBeforeUnload } from '../hooks/modelDrafts';
 import { useSession, useUser } from '../hooks/session';
 import { useLayout } from '../hooks/useLayout';
-import { isActive, MORE_ITEM, navFor, phoneTabsFor } from './nav';
+import { currentPageProps, decorative, isActive, MORE_ITEM, navFor, phoneTabsFor } from './nav';
 import { colors, fonts, space, touch } from './theme';
 import { T } from './ui';
 
@@ -49,6 +49,8 @@ export function AppShell({ children }: { children: React.ReactNode }) {
       <View style={{ flex: 1, flexDirection: 'row', backgroundColor: colors.canvas }}>
         <View
           testID="side-nav"
+          role="navigation"
+          aria-label="Main"
           style={{
             width: 248,
             backgroundColor: colors.nav,
@@ -68,7 +70,8 @@ export function AppShell({ children }: { children: React.ReactNode }) {
                 <Link key={item.href} href={item.href} asChild>
                   <Pressable
                     accessibilityRole="link"
-                    accessibilityState={{ selected: on }}
+                    accessibilityLabel={item.label}
+                    {...currentPageProps(on)}
                     style={{
                       minHeight: touch.min,
                       flexDirection: 'row',
@@ -80,6 +83,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
                     }}
                   >
                     <T
+                      {...decorative}
                       style={{
                         color: on ? colors.navInk : colors.navMuted,
                         fontSize: 18,
@@ -144,8 +148,11 @@ export function AppShell({ children }: { children: React.ReactNode }) {
         </Pressable>
       </View>
       <View style={{ flex: 1 }}>{children}</View>
+      {/* Route links, not tabs over panels: a navigation landmark whose current link has aria-current="page". */}
       <View
         testID="bottom-tabs"
+        role="navigation"
+        aria-label="Main"
         style={{
           flexDirection: 'row',
           backgroundColor: colors.surface,
@@ -160,8 +167,9 @@ export function AppShell({ children }: { children: React.ReactNode }) {
           return (
             <Link key={item.href} href={item.href} asChild>
               <Pressable
-                accessibilityRole="tab"
-                accessibilityState={{ selected: on }}
+                accessibilityRole="link"
+                accessibilityLabel={item.label}
+                {...currentPageProps(on)}
                 style={{
                   flex: 1,
                   minHeight: 60,
@@ -172,7 +180,9 @@ export function AppShell({ children }: { children: React.ReactNode }) {
                   borderTopColor: on ? colors.accent : 'transparent',
                 }}
               >
-                <T style={{ fontSize: 20, color: on ? colors.accent : colors.muted }}>{item.glyph}</T>
+                <T {...decorative} style={{ fontSize: 20, color: on ? colors.accent : colors.muted }}>
+                  {item.glyph}
+                </T>
                 <T
                   style={{
                     fontSize: 12,

@@ -1,4 +1,5 @@
 import type { Href } from 'expo-router';
+import { Platform } from 'react-native';
 import type { Role } from '../shared/schemas/common';
 
 /** A path inside the app, checked against Expo Router's generated route types. */
@@ -59,3 +60,15 @@ export function isActive(href: string, pathname: string): boolean {
 
 /** The phone's last tab when there are more items than tabs. */
 export const MORE_ITEM: NavItem = { href: '/more', label: 'More', glyph: '☰', roles: 'all' };
+
+/**
+ * A navigation link's "you are here": on the web `aria-current="page"` (react-native-web passes it through; its types
+ * do not list it), elsewhere the selected state. `aria-selected` belongs to tabs and options, not to links.
+ */
+export function currentPageProps(on: boolean): { 'aria-current'?: 'page'; accessibilityState?: { selected: boolean } } {
+  if (Platform.OS === 'web') return on ? { 'aria-current': 'page' } : {};
+  return { accessibilityState: { selected: on } };
+}
+
+/** A glyph beside a label is decoration: screen readers read the label alone. */
+export const decorative = { 'aria-hidden': true, importantForAccessibility: 'no-hide-descendants' } as const;
