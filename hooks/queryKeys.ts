@@ -17,6 +17,9 @@ export const queryKeys = {
     model: (id: string) => ['studies', 'model', id] as const,
     run: (id: string) => ['studies', 'run', id] as const,
     results: (id: string) => ['studies', 'results', id] as const,
+    /** Under `results(id)`, so invalidating the results drops every page and bus too. */
+    resultsPage: (id: string, params: Record<string, unknown>) => ['studies', 'results', id, 'page', params] as const,
+    busResult: (id: string, busId: string) => ['studies', 'results', id, 'bus', busId] as const,
   },
   labels: {
     all: () => ['labels'] as const,

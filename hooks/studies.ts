@@ -1,12 +1,5 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type {
-  ApproveInput,
-  EquipmentDto,
-  ModelEnvelope,
-  ResultsResponse,
-  RunDto,
-  StudyDto,
-} from '../shared/schemas/studies';
+import type { ApproveInput, EquipmentDto, ModelEnvelope, RunDto, StudyDto } from '../shared/schemas/studies';
 import { apiFetch } from './api';
 import { settleModelDraft } from './modelDrafts';
 import { queryKeys } from './queryKeys';
@@ -114,22 +107,6 @@ export function useStartRun(id: string) {
     onSuccess: (run) => {
       qc.setQueryData(queryKeys.studies.run(id), run);
     },
-  });
-}
-
-export function useResults(id: string, enabled = true) {
-  return useQuery({
-    queryKey: queryKeys.studies.results(id),
-    queryFn: async () => {
-      try {
-        return await apiFetch<ResultsResponse>(`/studies/${enc(id)}/results`);
-      } catch (e) {
-        if ((e as { status?: number }).status === 404) return null;
-        throw e;
-      }
-    },
-    enabled,
-    staleTime: 60_000,
   });
 }
 

@@ -10,7 +10,7 @@ import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';
 import { httpLogger, log, type Logger } from './log';
 import { createMailer, type Mailer } from './mail';
-import { mountRoutes, type AnyRoute } from './http/route';
+import { largeBodyMarker, mountRoutes, type AnyRoute } from './http/route';
 import { securityHeaders } from './http/securityHeaders';
 import { allRoutes } from './routes';
 import { Jobs } from './services/jobs';
@@ -55,7 +55,10 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
 
   const api = express.Router();
   api.use(requireJsonOrMultipart);
-  api.use(express.json({ limit: opts.config.jsonLimit, verify: jsonDepthGuard() }));
+  // Routes with their own JSON limit (a whole model) read their body after authentication; the rest share this one.
+  api.use(largeBodyMarker(routes));
+  const json = express.json({ limit: opts.config.jsonLimit, verify: jsonDepthGuard() });
+  api.use((req, res, next) => (req.routeJsonLimit ? next() : json(req, res, next)));
   api.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
     next();

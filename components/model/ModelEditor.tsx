@@ -472,7 +472,7 @@ function SectionTabs({
           refs.current.set(s, node);
         }}
         accessibilityRole="tab"
-        accessibilityState={{ selected: on }}
+        aria-selected={on}
         onPress={() => onChange(s)}
         testID={`model-section-${s}`}
         style={({ hovered }: { pressed: boolean; hovered?: boolean }) => ({
@@ -1064,7 +1064,7 @@ const CardRow = memo(function CardRow({
     <View ref={ref} style={cardStyle} testID={`card-${base}`}>
       <Pressable
         accessibilityRole="button"
-        accessibilityState={{ expanded }}
+        aria-expanded={expanded}
         accessibilityLabel={`${element.id}, ${expanded ? 'collapse' : 'expand'}`}
         onPress={() => actions.toggle(key)}
         testID={`${base}-toggle`}

@@ -41,7 +41,7 @@ export function SystemTree({ model, onSelect }: SystemTreeProps) {
     );
   }
   return (
-    <View testID="system-tree" accessibilityRole="list" style={{ gap: 0 }}>
+    <View testID="system-tree" style={{ gap: 0 }}>
       {rows.map(({ row, sig }) => (
         <TreeRowView key={row.key} row={row} sig={sig} onSelect={select} />
       ))}
@@ -169,6 +169,7 @@ function Tap({
   target?: ElementRef;
   onSelect?: SystemTreeProps['onSelect'];
   children: React.ReactNode;
+  /** The element's kind, then the text shown inside (a name that differs from the visible text fails WCAG 2.5.3). */
   label: string;
   testID?: string;
   shrink?: boolean;
@@ -293,7 +294,10 @@ const TreeRowView = memo(
 function Head({ glyph, children }: { glyph: GlyphKind; children: React.ReactNode }) {
   return (
     <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.sm, minHeight: 20 }}>
-      <Glyph kind={glyph} />
+      {/* The glyph repeats the kind the name already says ("Motor …"): hidden from screen readers. */}
+      <View aria-hidden importantForAccessibility="no-hide-descendants">
+        <Glyph kind={glyph} />
+      </View>
       <T style={{ flex: 1, fontSize: 15, lineHeight: 20 }}>{children}</T>
     </View>
   );
@@ -313,7 +317,12 @@ function RowContent({
     case 'source':
       return (
         <>
-          <Tap target={row.ref} onSelect={onSelect} label={`Source ${row.id}`} testID={`tree-select-${row.key}`}>
+          <Tap
+            target={row.ref}
+            onSelect={onSelect}
+            label={`Source ${row.id} ${row.text}`}
+            testID={`tree-select-${row.key}`}
+          >
             <Head glyph={row.label === 'GEN' ? 'generator' : 'utility'}>
               <T style={idStyle}>{row.id}</T>
               <T style={mutedStyle}>{`  ${row.text}`}</T>
@@ -330,7 +339,12 @@ function RowContent({
     case 'bus':
       return (
         <>
-          <Tap target={row.ref} onSelect={onSelect} label={`Bus ${row.id}`} testID={`tree-select-${row.key}`}>
+          <Tap
+            target={row.ref}
+            onSelect={onSelect}
+            label={`Bus ${row.id} ${row.kv}${row.name ? ` ${row.name}` : ''}`}
+            testID={`tree-select-${row.key}`}
+          >
             <Head glyph="bus">
               <T style={idStyle}>{row.id}</T>
               <T style={{ fontFamily: fonts.numbers, fontSize: 14, color: colors.accent }}>{`  ${row.kv}`}</T>
@@ -343,7 +357,7 @@ function RowContent({
               <Tap
                 target={row.via}
                 onSelect={onSelect}
-                label={`Branch ${row.via.id}`}
+                label={`Branch: via ${row.via.id} ${row.via.text}`}
                 testID={`tree-select-${row.via.collection}[${row.via.index}]`}
                 shrink
               >
@@ -365,7 +379,7 @@ function RowContent({
       );
     case 'seen-bus':
       return (
-        <Tap target={row.ref} onSelect={onSelect} label={`Bus ${row.id}`}>
+        <Tap target={row.ref} onSelect={onSelect} label={`Bus ${row.id} ${row.text}`}>
           <Head glyph="bus-seen">
             <T style={{ ...idStyle, color: colors.inkSoft }}>{row.id}</T>
             <T style={mutedStyle}>{`  ${row.text}`}</T>
@@ -379,7 +393,7 @@ function RowContent({
           <Tap
             target={row.ref}
             onSelect={onSelect}
-            label={`${row.kind === 'motor' ? 'Motor' : 'Tie'} ${row.id}`}
+            label={`${row.kind === 'motor' ? 'Motor' : 'Tie'} ${row.id} ${row.text}`}
             testID={`tree-select-${row.key}`}
           >
             <Head glyph={row.kind === 'motor' ? 'motor' : 'tie'}>
@@ -396,7 +410,7 @@ function RowContent({
       );
     case 'unconnected':
       return (
-        <Tap target={row.ref} onSelect={onSelect} label={`${row.id}`} testID={`tree-select-${row.key}`}>
+        <Tap target={row.ref} onSelect={onSelect} label={`${row.id} ${row.text}`} testID={`tree-select-${row.key}`}>
           <Head glyph="missing">
             <T style={idStyle}>{row.id}</T>
             <T style={{ fontSize: 14, color: colors.danger }}>{`  ${row.text}`}</T>

@@ -323,7 +323,8 @@ export function SegCell<V extends string>({
           <Pressable
             key={o.value}
             accessibilityRole="radio"
-            accessibilityState={{ checked: on, disabled: !editable }}
+            aria-checked={on}
+            aria-disabled={!editable}
             disabled={!editable}
             testID={testID ? `${testID}-${o.value}` : undefined}
             onPress={() => !on && onChange(o.value)}
@@ -373,7 +374,8 @@ export function CheckCell({
   return (
     <Pressable
       accessibilityRole="checkbox"
-      accessibilityState={{ checked: value, disabled: !editable }}
+      aria-checked={value}
+      aria-disabled={!editable}
       accessibilityLabel={label}
       disabled={!editable}
       testID={testID}
@@ -465,7 +467,8 @@ export const PickCell = memo(function PickCell({
       <Pressable
         accessibilityRole="button"
         accessibilityLabel={`${accessibilityLabel}: ${shown}`}
-        accessibilityState={{ disabled: !editable, expanded: open }}
+        aria-disabled={!editable}
+        aria-expanded={open}
         disabled={!editable}
         testID={testID}
         onPress={() => setOpen(true)}
@@ -666,7 +669,7 @@ function OptionRow({
   return (
     <Pressable
       accessibilityRole="button"
-      accessibilityState={{ selected }}
+      aria-pressed={selected}
       onPress={onPress}
       testID={testID}
       style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => ({

@@ -91,7 +91,6 @@ function CountCard({
     <Link href={attentionHref(list, siteId)} asChild>
       <Pressable
         accessibilityRole="link"
-        accessibilityLabel={`${info.title}: ${count}`}
         testID={`attention-card-${list}`}
         style={{
           flexGrow: 1,

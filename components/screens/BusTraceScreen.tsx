@@ -8,7 +8,8 @@ import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults'
 import { REGION_LABELS } from '../../shared/tripRegions';
 import { apiFetch } from '../../hooks/api';
 import { queryKeys } from '../../hooks/queryKeys';
-import { useResults, useStudy } from '../../hooks/studies';
+import { useBusResult } from '../../hooks/results';
+import { useStudy } from '../../hooks/studies';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt, fmtLength } from '../../hooks/units';
 import { Cautions, HazardMark } from '../Cautions';
@@ -199,8 +200,8 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
 export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: string }) {
   const { wide } = useLayout();
   const study = useStudy(studyId);
-  const results = useResults(studyId);
-  const bus = results.data?.results.buses.find((b) => b.busId === busId);
+  const results = useBusResult(studyId, busId);
+  const bus = results.data?.bus;
   const [selected, setSelected] = useState<string | null>(null);
   const current =
     bus && bus.governing
@@ -214,7 +215,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))
         .slice(0, 6)
     : [];
-  const modelDevices = (results.data?.model.devices ?? []) as { id: string; device: Device }[];
+  const modelDevices = (results.data?.devices ?? []) as unknown as { id: string; device: Device }[];
   const curves = useQueries({
     queries: plotted.map((d) => {
       const device = modelDevices.find((m) => m.id === d.deviceId)?.device;
@@ -234,7 +235,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         <T variant="small">Loading…</T>
       </Screen>
     );
-  if (results.error)
+  if (results.error && (results.error as { status?: number }).status !== 404)
     return (
       <Screen title={busId}>
         <Notice tone="error">{results.error.message}</Notice>

@@ -43,7 +43,8 @@ function Row({
     >
       <Pressable
         accessibilityRole="checkbox"
-        accessibilityState={{ checked: selected }}
+        aria-checked={selected}
+        accessibilityLabel={`Select ${l.equipmentTag}`}
         onPress={onToggle}
         testID={`select-${l.equipmentTag}`}
         style={{ width: touch.min, height: touch.min, alignItems: 'center', justifyContent: 'center' }}

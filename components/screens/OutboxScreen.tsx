@@ -56,7 +56,7 @@ function MessageRow({ m, on, onPress }: { m: OutboxMessage; on: boolean; onPress
   return (
     <Pressable
       accessibilityRole="button"
-      accessibilityState={{ selected: on }}
+      aria-pressed={on}
       onPress={onPress}
       testID={`outbox-row-${m.id}`}
       style={({ pressed }) => ({

@@ -129,7 +129,7 @@ function ApproveForm({ study }: { study: StudyDto }) {
       </View>
       <Pressable
         accessibilityRole="checkbox"
-        accessibilityState={{ checked: form.confirm }}
+        aria-checked={form.confirm}
         testID="confirm-review"
         onPress={() => setForm((f) => ({ ...f, confirm: !f.confirm }))}
         style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', minHeight: touch.min }}

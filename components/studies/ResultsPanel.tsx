@@ -1,30 +1,46 @@
 import { Link } from 'expo-router';
-import React, { useMemo, useState } from 'react';
+import React, { useState } from 'react';
 import { Pressable, ScrollView, View } from 'react-native';
+import {
+  DEFAULT_ORDER,
+  RESULTS_PAGE_SIZE_DEFAULT,
+  type BusResultRow,
+  type ResultsPageParams,
+  type ResultsSort,
+} from '../../shared/schemas/resultsPage';
 import type { StudyDto } from '../../shared/schemas/studies';
-import type { BusResult } from '../../shared/schemas/studyResults';
-import { useResults } from '../../hooks/studies';
+import { useResultsPage } from '../../hooks/results';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt } from '../../hooks/units';
 import { formatBoundary, formatCalPerCm2 } from '../../shared/labelDisplay';
 import { Cautions } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space, touch } from '../theme';
-import { Card, Choice, Notice, Num, T } from '../ui';
+import { Button, Card, Choice, Notice, Num, T } from '../ui';
 
-type Sort = 'bus' | 'energy' | 'boundary' | 'time';
 type Show = 'all' | 'warnings' | 'errors';
 type Band = 'all' | 'le1.2' | 'le8' | 'le40' | 'gt40';
 
-const BANDS: { value: Band; label: string; test: (e: number) => boolean }[] = [
-  { value: 'all', label: 'Any energy', test: () => true },
-  { value: 'le1.2', label: '≤ 1.2 cal/cm²', test: (e) => e <= 1.2 },
-  { value: 'le8', label: '1.2–8', test: (e) => e > 1.2 && e <= 8 },
-  { value: 'le40', label: '8–40', test: (e) => e > 8 && e <= 40 },
-  { value: 'gt40', label: '> 40', test: (e) => e > 40 },
+/** Energy bands as the server filters them: more than `minCal`, at most `maxCal` (cal/cm²). */
+const BANDS: { value: Band; label: string; minCal?: number; maxCal?: number }[] = [
+  { value: 'all', label: 'Any energy' },
+  { value: 'le1.2', label: '≤ 1.2 cal/cm²', maxCal: 1.2 },
+  { value: 'le8', label: '1.2–8', minCal: 1.2, maxCal: 8 },
+  { value: 'le40', label: '8–40', minCal: 8, maxCal: 40 },
+  { value: 'gt40', label: '> 40', minCal: 40 },
 ];
 
-function SignalChip({ b }: { b: BusResult }) {
+const SORTS: { value: ResultsSort; label: string }[] = [
+  { value: 'busId', label: 'Bus' },
+  { value: 'energy', label: 'Energy' },
+  { value: 'boundary', label: 'Boundary' },
+  { value: 'duration', label: 'Arc duration' },
+  { value: 'kv', label: 'kV' },
+];
+
+const PAGE_SIZES = [String(RESULTS_PAGE_SIZE_DEFAULT), '100', '200'] as const;
+
+function SignalChip({ b }: { b: BusResultRow }) {
   if (!b.labelValues) return <T style={{ color: colors.danger, fontFamily: fonts.textBold }}>ERROR</T>;
   const p = signalPanelColors(b.labelValues.signalWord);
   return (
@@ -57,55 +73,101 @@ const COLS: { key: string; label: string; flex: number }[] = [
   { key: 'w', label: '!', flex: 0.4 },
 ];
 
-function governingIarc(b: BusResult): number | undefined {
-  return b.cases.find((c) => c.arcCase === b.governing?.arcCase && c.location === b.governing?.location)
-    ?.arcingCurrentKa;
+/** Previous / page x of y / next. */
+function Pager({
+  page,
+  pages,
+  onPage,
+  busy,
+}: {
+  page: number;
+  pages: number;
+  onPage: (p: number) => void;
+  busy: boolean;
+}) {
+  if (pages <= 1) return null;
+  return (
+    <View
+      style={{ flexDirection: 'row', alignItems: 'center', justifyContent: 'center', gap: space.md }}
+      testID="results-pager"
+    >
+      <Button
+        title="‹ Previous"
+        kind="secondary"
+        disabled={page <= 1}
+        onPress={() => onPage(page - 1)}
+        testID="results-prev"
+      />
+      <T variant="small" testID="results-page">
+        Page {page} of {pages}
+        {busy ? ' …' : ''}
+      </T>
+      <Button
+        title="Next ›"
+        kind="secondary"
+        disabled={page >= pages}
+        onPress={() => onPage(page + 1)}
+        testID="results-next"
+      />
+    </View>
+  );
 }
 
-/** Results of the latest run (or the approved run): sortable, filterable; each bus opens its clearing trace. */
+/**
+ * Results of the latest run (or the approved run), a page at a time from the server: sortable, filterable; each bus
+ * opens its clearing trace. The counts and the cautions are over the whole study, whatever the page.
+ */
 export function ResultsPanel({ study }: { study: StudyDto }) {
   const { wide } = useLayout();
-  const results = useResults(study.id);
-  const [sort, setSort] = useState<Sort>('bus');
+  const [sort, setSortState] = useState<ResultsSort>('busId');
+  const [order, setOrder] = useState<'asc' | 'desc'>(DEFAULT_ORDER.busId);
   const [show, setShow] = useState<Show>('all');
   const [band, setBand] = useState<Band>('all');
   const [ppe, setPpe] = useState<string>('all');
+  const [pageSize, setPageSize] = useState<(typeof PAGE_SIZES)[number]>(PAGE_SIZES[0]);
+  const [page, setPage] = useState(1);
+  // Any change of sort or filter starts again at the first page.
+  const reset =
+    <V,>(set: (v: V) => void) =>
+    (v: V) => {
+      set(v);
+      setPage(1);
+    };
+  const setSort = (v: ResultsSort) => {
+    setSortState(v);
+    setOrder(DEFAULT_ORDER[v]);
+    setPage(1);
+  };
+
+  const bandDef = BANDS.find((b) => b.value === band)!;
+  const params: ResultsPageParams = {
+    sort,
+    order,
+    ...(bandDef.minCal !== undefined ? { minCal: bandDef.minCal } : {}),
+    ...(bandDef.maxCal !== undefined ? { maxCal: bandDef.maxCal } : {}),
+    ...(ppe !== 'all' ? { ppe } : {}),
+    ...(show === 'warnings' ? { warnings: true } : show === 'errors' ? { errors: true } : {}),
+    page,
+    pageSize: Number(pageSize),
+  };
+  const results = useResultsPage(study.id, params);
 
   const data = results.data;
-  const ppeNames = useMemo(() => {
-    const names = new Set<string>();
-    for (const b of data?.results.buses ?? [])
-      names.add(b.labelValues ? (b.labelValues.ppeLevel?.name ?? 'Above every level') : 'Error');
-    return [...names];
-  }, [data]);
-  const rows = useMemo(() => {
-    if (!data) return [];
-    const bandTest = BANDS.find((b) => b.value === band)!.test;
-    const out = data.results.buses.filter((b) => {
-      if (show === 'warnings' && !b.warnings.length) return false;
-      if (show === 'errors' && b.status !== 'error') return false;
-      if (band !== 'all' && !(b.incidentEnergyCalPerCm2 !== undefined && bandTest(b.incidentEnergyCalPerCm2)))
-        return false;
-      if (ppe !== 'all') {
-        const name = b.labelValues ? (b.labelValues.ppeLevel?.name ?? 'Above every level') : 'Error';
-        if (name !== ppe) return false;
-      }
-      return true;
-    });
-    const key = (b: BusResult): number | string =>
-      sort === 'energy'
-        ? -(b.incidentEnergyCalPerCm2 ?? -1)
-        : sort === 'boundary'
-          ? -(b.arcFlashBoundaryMm ?? -1)
-          : sort === 'time'
-            ? -(b.arcDurationS ?? -1)
-            : b.busId;
-    return [...out].sort((a, b) => (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0));
-  }, [data, sort, show, band, ppe]);
-
   if (results.isLoading) return <T variant="small">Loading results…</T>;
   if (results.error) return <Notice tone="error">{results.error.message}</Notice>;
   if (!data) return <Notice>No results yet: run the study from the Overview.</Notice>;
+  const rows = data.rows;
+  const first = data.total ? (data.page - 1) * data.pageSize + 1 : 0;
+  const last = (data.page - 1) * data.pageSize + rows.length;
+  const numeric = sort !== 'busId';
+  const pager = (
+    <Pager
+      page={data.page}
+      pages={data.pages}
+      onPage={setPage}
+      busy={results.isFetching && results.isPlaceholderData}
+    />
+  );
 
   const reviewed = study.status === 'approved';
   const stale = data.run.modelVersion !== study.modelVersion && study.status === 'draft';
@@ -122,10 +184,10 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
           Run again.
         </Notice>
       ) : null}
-      {data.results.warnings.length ? (
+      {data.study.warnings.length ? (
         <Notice tone="warning" title="Short-circuit warnings">
           <View style={{ gap: 2 }}>
-            {data.results.warnings.map((w) => (
+            {data.study.warnings.map((w) => (
               <T key={w.code + w.message} variant="small" style={{ color: colors.caution }}>
                 {w.code}: {w.message}
               </T>
@@ -134,22 +196,21 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
         </Notice>
       ) : null}
       <Card style={{ gap: space.sm, flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', columnGap: space.xl }}>
+        <Choice label="Sort by" value={sort} onChange={setSort} testID="sort" options={SORTS} />
         <Choice
-          label="Sort by"
-          value={sort}
-          onChange={setSort}
-          testID="sort"
+          label="Order"
+          value={order}
+          onChange={reset(setOrder)}
+          testID="order"
           options={[
-            { value: 'bus', label: 'Bus' },
-            { value: 'energy', label: 'Energy' },
-            { value: 'boundary', label: 'Boundary' },
-            { value: 'time', label: 'Arc duration' },
+            { value: 'asc', label: numeric ? 'Lowest first' : 'A to Z' },
+            { value: 'desc', label: numeric ? 'Highest first' : 'Z to A' },
           ]}
         />
         <Choice
           label="Show"
           value={show}
-          onChange={setShow}
+          onChange={reset(setShow)}
           testID="show"
           options={[
             { value: 'all', label: 'All buses' },
@@ -160,22 +221,35 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
         <Choice
           label="Incident energy"
           value={band}
-          onChange={setBand}
+          onChange={reset(setBand)}
           testID="band"
           options={BANDS.map(({ value, label }) => ({ value, label }))}
         />
         <Choice
           label="PPE level"
           value={ppe}
-          onChange={setPpe}
+          onChange={reset(setPpe)}
           testID="ppe"
-          options={[{ value: 'all', label: 'Any' }, ...ppeNames.map((n) => ({ value: n, label: n }))]}
+          options={[
+            { value: 'all', label: 'Any' },
+            ...data.summary.byPpeLevel.map((p) => ({ value: p.name, label: `${p.name} (${p.count})` })),
+          ]}
         />
-        <T variant="small" style={{ flexBasis: '100%' }}>
-          {rows.length} of {data.results.buses.length} buses · arc duration capped at{' '}
-          {fmt(data.results.maxArcDurationMs / 1000)} s · run {data.run.finishedAt?.slice(0, 16).replace('T', ' ')}
+        <Choice
+          label="Rows per page"
+          value={pageSize}
+          onChange={reset(setPageSize)}
+          testID="page-size"
+          options={PAGE_SIZES.map((n) => ({ value: n, label: n }))}
+        />
+        <T variant="small" style={wide ? { flexBasis: '100%' } : undefined} testID="results-count">
+          {data.total} of {data.summary.buses} buses{data.total ? ` · showing ${first}–${last}` : ''} ·{' '}
+          {data.summary.bySignalWord.DANGER} DANGER, {data.summary.bySignalWord.WARNING} WARNING
+          {data.summary.errors ? `, ${data.summary.errors} not evaluated` : ''} · arc duration capped at{' '}
+          {fmt(data.study.maxArcDurationMs / 1000)} s · run {data.run.finishedAt?.slice(0, 16).replace('T', ' ')}
         </T>
       </Card>
+      {data.total === 0 ? <Notice>No bus matches these filters.</Notice> : null}
 
       {wide ? (
         <ScrollView horizontal contentContainerStyle={{ minWidth: '100%' }}>
@@ -225,7 +299,9 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                   </T>
                   <T style={{ flex: 0.6, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(b.nominalKv)}</T>
                   <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(b.boltedFaultKa)}</T>
-                  <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(governingIarc(b))}</T>
+                  <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>
+                    {fmt(b.governingArcingCurrentKa)}
+                  </T>
                   <T style={{ flex: 1.2, fontFamily: fonts.numbers, fontSize: 14 }}>
                     {b.status === 'error' ? '—' : (b.clearingDeviceId ?? 'none (capped)')}
                   </T>
@@ -311,10 +387,8 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
           ))}
         </View>
       )}
-      <Cautions
-        reviewed={reviewed}
-        incidentEnergyCalPerCm2={Math.max(0, ...data.results.buses.map((b) => b.incidentEnergyCalPerCm2 ?? 0))}
-      />
+      {pager}
+      <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={data.summary.maxIncidentEnergyCalPerCm2 ?? 0} />
     </View>
   );
 }

@@ -19,7 +19,8 @@ export function Button({
   return (
     <Pressable
       accessibilityRole="button"
-      accessibilityState={{ disabled: !!off, busy: !!busy }}
+      aria-disabled={!!off}
+      aria-busy={!!busy}
       disabled={off}
       {...rest}
       style={({ pressed }) => [

@@ -27,7 +27,7 @@ export function Choice<V extends string>({
             <Pressable
               key={o.value}
               accessibilityRole="radio"
-              accessibilityState={{ checked: on }}
+              aria-checked={on}
               onPress={() => onChange(o.value)}
               testID={testID ? `${testID}-${o.value}` : undefined}
               style={{

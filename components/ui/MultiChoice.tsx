@@ -30,7 +30,7 @@ export function MultiChoice<V extends string>({
             <Pressable
               key={o.value}
               accessibilityRole="checkbox"
-              accessibilityState={{ checked: on }}
+              aria-checked={on}
               onPress={() => toggle(o.value)}
               testID={testID ? `${testID}-${o.value}` : undefined}
               style={{

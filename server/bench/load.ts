@@ -1,5 +1,6 @@
 /**
- * `npm run bench:load`: HTTP load on three routes of an in-process server (SQLite in a temp folder, the demo seeded).
+ * `npm run bench:load`: HTTP load on four routes of an in-process server (SQLite in a temp folder, the demo seeded, and
+ * a generated plant of about 2 000 buses run for the results routes).
  * 50 connections, LOAD_SECONDS (default 20) per route, one route after the other. Prints p50/p99 latency, requests
  * per second, errors and non-2xx responses per route; asserts nothing.
  */
@@ -12,6 +13,7 @@ import { createApp } from '../app';
 import { loadConfig } from '../config';
 import { migrate, openDb } from '../db';
 import { DEMO_USERS, seedDemo } from '../seed/demo';
+import { generatedPlant } from './study';
 
 /** The part of autocannon's API used here (the package ships no types). */
 interface AutocannonOptions {
@@ -118,8 +120,53 @@ async function main(): Promise<void> {
     const code = labels.labels[0]?.code;
     if (!code) throw new Error('demo study has no labels');
 
+    // A generated plant (about 2 000 labelled buses) saved, run and read a page at a time: the results page under
+    // load is one of a large study, sorted by energy, past the first page.
+    console.log('Running a generated plant…');
+    const big = await json<{ id: string }>(
+      await fetch(`${base}/sites/${siteId}/studies`, {
+        method: 'POST',
+        headers: { ...auth, 'content-type': 'application/json' },
+        body: JSON.stringify({ title: 'Generated plant (load)' }),
+      }),
+      'create study',
+    );
+    const envelope = await json<{ version: number }>(
+      await fetch(`${base}/studies/${big.id}/model`, { headers: auth }),
+      'read model',
+    );
+    await json(
+      await fetch(`${base}/studies/${big.id}/model`, {
+        method: 'PUT',
+        headers: { ...auth, 'content-type': 'application/json' },
+        body: JSON.stringify({ model: generatedPlant(), version: envelope.version }),
+      }),
+      'save model',
+    );
+    await json(await fetch(`${base}/studies/${big.id}/run`, { method: 'POST', headers: auth }), 'start run');
+    for (;;) {
+      const run = await json<{ status: string; message: string }>(
+        await fetch(`${base}/studies/${big.id}/run`, { headers: auth }),
+        'poll run',
+      );
+      if (run.status === 'failed') throw new Error(`generated plant run failed: ${run.message}`);
+      if (run.status === 'done') break;
+      await new Promise((r) => setTimeout(r, 250));
+    }
+    const page = await json<{ summary: { buses: number } }>(
+      await fetch(`${base}/studies/${big.id}/results?pageSize=1`, { headers: auth }),
+      'results page',
+    );
+
     const targets: { name: string; opts: Omit<AutocannonOptions, 'connections' | 'duration'> }[] = [
-      { name: `GET /api/studies/:id/results`, opts: { url: `${base}/studies/${study.id}/results`, headers: auth } },
+      {
+        name: `GET …/results page (${page.summary.buses} buses)`,
+        opts: { url: `${base}/studies/${big.id}/results?sort=energy&page=3&pageSize=50`, headers: auth },
+      },
+      {
+        name: `GET …/results/buses/:busId`,
+        opts: { url: `${base}/studies/${big.id}/results/buses/MCC-7-42`, headers: auth },
+      },
       { name: `GET /api/labels/:code (public)`, opts: { url: `${base}/labels/${encodeURIComponent(code)}` } },
       {
         name: `POST /api/calc/incident-energy`,

@@ -135,7 +135,7 @@ export async function benchStudyThroughApi(): Promise<{ name: string; opsPerSeco
   fs.rmSync(dir, { recursive: true, force: true });
   const total = (t3 - t0) / 1000;
   return {
-    name: `study through the API (${busCount} buses, ${results.body.results.buses.length} labelled)`,
+    name: `study through the API (${busCount} buses, ${results.body.summary.buses} labelled)`,
     opsPerSecond: busCount / total,
     detail: `import ${((t1 - t0) / 1000).toFixed(2)} s · run and store ${((t2 - t1) / 1000).toFixed(2)} s · read results ${((t3 - t2) / 1000).toFixed(2)} s · total ${total.toFixed(2)} s (target under 10 s)`,
   };

@@ -42,6 +42,20 @@ export function buildOpenApi(routes: AnyRoute[], version: string): JsonSchema {
       required: true,
       schema: { type: 'string' },
     }));
+    // Query parameters, one per property of the route's query schema (what the caller sends: the input form).
+    if (r.query) {
+      const q = toJsonSchema(r.query, 'input') as { properties?: Record<string, JsonSchema>; required?: string[] };
+      for (const [name, schema] of Object.entries(q.properties ?? {})) {
+        const { description, ...rest } = schema as JsonSchema & { description?: string };
+        params.push({
+          name,
+          in: 'query',
+          required: (q.required ?? []).includes(name),
+          schema: rest as { type: string },
+          ...(description ? { description } : {}),
+        });
+      }
+    }
     const op: Record<string, unknown> = {
       summary: r.summary,
       tags: [r.tag],

@@ -1,7 +1,8 @@
-import type { Request, RequestHandler, Response, Router } from 'express';
+import express, { type Request, type RequestHandler, type Response, type Router } from 'express';
 import type { z } from 'zod';
 import type { Role } from '../../shared/schemas/common';
 import type { AppContext, AuthUser } from './context';
+import { jsonDepthGuard } from './bodyParsing';
 import { ApiError, validationError } from './errors';
 
 /** Who may call a route: nobody signed in, any signed-in user, or the listed roles. */
@@ -36,6 +37,11 @@ export interface RouteDef<B = unknown, Q = unknown> {
   produces?: string;
   /** Multipart or other pre-handler middleware (runs after auth). */
   middleware?: RequestHandler[];
+  /**
+   * A larger JSON body limit than the API's (e.g. '25mb' for a whole model). The body of such a route is read after
+   * authentication and the role check, with the same depth guard; every other route keeps the small global limit.
+   */
+  jsonLimit?: string;
   /** Extra middleware that runs before auth (e.g. rate limiting). */
   before?: RequestHandler[];
   status?: number;
@@ -52,6 +58,22 @@ export function defineRoute<B = undefined, Q = undefined>(def: RouteDef<B, Q>): 
   return def as unknown as AnyRoute;
 }
 
+/**
+ * A router that marks the requests of routes with their own `jsonLimit` (Express's own path matching), so the global
+ * JSON parser leaves their body to the route. Mount it before the global parser.
+ */
+export function largeBodyMarker(routes: AnyRoute[]): Router {
+  const marker = express.Router();
+  for (const def of routes) {
+    if (!def.jsonLimit) continue;
+    marker[def.method](def.path, (req, _res, next) => {
+      req.routeJsonLimit = def.jsonLimit;
+      next();
+    });
+  }
+  return marker;
+}
+
 export function mountRoutes(router: Router, ctx: AppContext, routes: AnyRoute[], authenticate: RequestHandler): void {
   for (const def of routes) {
     const chain: RequestHandler[] = [...(def.before ?? [])];
@@ -66,6 +88,7 @@ export function mountRoutes(router: Router, ctx: AppContext, routes: AnyRoute[],
         });
       }
     }
+    if (def.jsonLimit) chain.push(express.json({ limit: def.jsonLimit, verify: jsonDepthGuard() }));
     chain.push(...(def.middleware ?? []));
     chain.push(async (req, res) => {
       let body: unknown = undefined;
@@ -100,5 +123,7 @@ export function mountRoutes(router: Router, ctx: AppContext, routes: AnyRoute[],
 declare module 'express-serve-static-core' {
   interface Request {
     user?: AuthUser;
+    /** Set by `largeBodyMarker`: the route reads its JSON body itself, with this limit. */
+    routeJsonLimit?: string;
   }
 }

@@ -5,18 +5,19 @@ import {
   equipmentSchema,
   modelEnvelopeSchema,
   putModelSchema,
-  resultsResponseSchema,
   runSchema,
   studyListSchema,
   studySchema,
 } from '../../shared/schemas/studies';
 import { parseModel } from '../../shared/schemas/model';
+import { busResultResponseSchema, resultsPageQuerySchema, resultsPageSchema } from '../../shared/schemas/resultsPage';
 import { ApiError, modelIssuesError } from '../http/errors';
 import { defineRoute, type AnyRoute } from '../http/route';
 import { multiFileUpload } from '../http/upload';
 import { exportModel, importModel } from '../io';
 import { UnsafeArchiveError } from '../io/zipGuard';
-import { latestRun, sendResults, startRun } from '../services/runs';
+import { sendBusResult, sendResultsPage } from '../services/results';
+import { latestRun, startRun } from '../services/runs';
 import {
   approveStudy,
   createStudy,
@@ -87,6 +88,8 @@ export const studyRoutes: AnyRoute[] = [
       'Save the model of a draft. Send the version you read: 409 when another edit came first (nothing is lost).',
     tag: 'studies',
     access: ENGINEER,
+    // A 10 000-bus model is about 5.5 MB of JSON; room for several times that.
+    jsonLimit: '25mb',
     body: putModelSchema,
     response: modelEnvelopeSchema,
     handler: ({ ctx, user, params, body }) => saveModel(ctx, user, params.studyId, body.model, body.version),
@@ -113,12 +116,24 @@ export const studyRoutes: AnyRoute[] = [
   defineRoute({
     method: 'get',
     path: '/studies/:studyId/results',
-    summary: 'Results with their whole clearing trace, and the model snapshot they were computed from.',
+    summary:
+      'One page of the results, without clearing traces: sorted and filtered rows, the paging, the run, and counts ' +
+      'over the whole study. ETag per run and query (304 on a match).',
     tag: 'studies',
     access: 'signed-in',
-    response: resultsResponseSchema,
-    // Sent by the service: a cached serialized body with its ETag (the schema above documents it).
-    handler: ({ res, user, params }) => sendResults(res, user, params.studyId),
+    query: resultsPageQuerySchema,
+    response: resultsPageSchema,
+    // Sent by the service with its ETag (the schema above documents the body).
+    handler: ({ req, res, user, params, query }) => sendResultsPage(req, res, user, params.studyId, query),
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/studies/:studyId/results/buses/:busId',
+    summary: 'One bus of the results with its whole clearing trace and the model devices it names (404: no such bus).',
+    tag: 'studies',
+    access: 'signed-in',
+    response: busResultResponseSchema,
+    handler: ({ req, res, user, params }) => sendBusResult(req, res, user, params.studyId, params.busId),
   }),
   defineRoute({
     method: 'post',

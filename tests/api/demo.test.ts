@@ -21,9 +21,10 @@ describe('the invented demo', () => {
       .set('Authorization', `Bearer ${token}`);
     expect(studies.body.studies.map((s: { status: string }) => s.status)).toEqual(['approved']);
     const results = await request(t.app)
-      .get(`/api/studies/${seeded.studyId}/results`)
+      .get(`/api/studies/${seeded.studyId}/results?pageSize=500`)
       .set('Authorization', `Bearer ${token}`);
-    const buses = results.body.results.buses as {
+    expect(results.body.total).toBe(results.body.summary.buses);
+    const buses = results.body.rows as {
       busId: string;
       status: string;
       incidentEnergyCalPerCm2: number;

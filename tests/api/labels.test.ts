@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { labelContentSchema } from '../../shared/schemas/labels';
 import { Label } from '../../server/db/models';
-import { decodeQrPng } from '../../server/pdf/qr';
+import { decodeQrPng } from '../helpers/qr';
 import { newLabelCode, normalizeCode } from '../../server/services/labels';
 import { smallModel } from '../fixtures/smallModel';
 import { approveStudy } from '../helpers/flows';
@@ -45,9 +45,9 @@ describe('labels', () => {
       expect(l.code).toMatch(/^[0-9A-HJKMNP-TV-Z]{16}$/);
     }
     const results = await request(t.app)
-      .get(`/api/studies/${firstStudy}/results`)
+      .get(`/api/studies/${firstStudy}/results/buses/SWBD`)
       .set(...elec());
-    const swbd = results.body.results.buses.find((b: { busId: string }) => b.busId === 'SWBD');
+    const swbd = results.body.bus;
     expect(labels.find((l) => l.equipmentTag === 'SWBD')!.content.incidentEnergyCalPerCm2).toBe(
       swbd.incidentEnergyCalPerCm2,
     );

@@ -1,11 +1,12 @@
 /**
- * GET /api/studies/:id/results answers from a cache of serialized responses (server/services/runs.ts). These checks
- * hold it to what the database says: a cached answer is the cold answer byte for byte and matches the run row, a newer
- * run replaces it at once, and being cached never lets another organization or a role that may not see the study read it.
+ * GET /api/studies/:id/results (pages) and /results/buses/:busId answer from caches of the parsed run
+ * (server/services/results.ts). These checks hold them to what the database says: a cached answer is the cold answer
+ * byte for byte and matches the run row, a newer run replaces it at once, and being cached never lets another
+ * organization or a role that may not see the study read it.
  */
 import request from 'supertest';
 import { StudyRun } from '../../server/db/models';
-import { clearResultsCache } from '../../server/services/runs';
+import { clearResultsCache } from '../../server/services/results';
 import { smallModel } from '../fixtures/smallModel';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
 
@@ -13,9 +14,9 @@ let t: TestApp;
 let studyId = '';
 
 const eng = () => bearer(t.orgA.users.engineer.token);
-const results = (token: string, headers: Record<string, string> = {}) =>
+const results = (token: string, headers: Record<string, string> = {}, path = '') =>
   request(t.app)
-    .get(`/api/studies/${studyId}/results`)
+    .get(`/api/studies/${studyId}/results${path}`)
     .set(...bearer(token))
     .set(headers);
 
@@ -70,8 +71,12 @@ describe('cached study results', () => {
     const row = await StudyRun.findByPk(cold.body.run.id as string);
     expect(row?.status).toBe('done');
     expect(cold.body.run.finishedAt).toBe(row!.finishedAt!.toISOString());
-    expect(cold.body.model).toEqual(JSON.parse(row!.modelSnapshot));
-    expect(cold.body.results).toEqual(JSON.parse(row!.results!));
+    const stored = JSON.parse(row!.results!) as { buses: { busId: string; cases: unknown }[] };
+    expect(cold.body.rows.map((r: { busId: string }) => r.busId)).toEqual(stored.buses.map((b) => b.busId).sort());
+    for (const r of cold.body.rows as { busId: string }[]) {
+      const { cases: _cases, ...rest } = stored.buses.find((b) => b.busId === r.busId)!;
+      expect(r).toMatchObject(rest);
+    }
 
     const notModified = await results(t.orgA.users.engineer.token, { 'If-None-Match': cold.headers.etag });
     expect(notModified.status).toBe(304);
@@ -79,6 +84,22 @@ describe('cached study results', () => {
     const otherTag = await results(t.orgA.users.engineer.token, { 'If-None-Match': '"not-this-one"' });
     expect(otherTag.status).toBe(200);
     expect(otherTag.text).toBe(cold.text);
+
+    // Another query is another entity.
+    const sorted = await results(t.orgA.users.engineer.token, { 'If-None-Match': cold.headers.etag }, '?sort=energy');
+    expect(sorted.status).toBe(200);
+    expect(sorted.headers.etag).not.toBe(cold.headers.etag);
+
+    // One bus: cold and warm alike, with its own tag.
+    clearResultsCache();
+    const busCold = await results(t.orgA.users.engineer.token, {}, '/buses/PNL');
+    expect(busCold.status).toBe(200);
+    const busWarm = await results(t.orgA.users.engineer.token, {}, '/buses/PNL');
+    expect(busWarm.text).toBe(busCold.text);
+    expect(busCold.body.bus).toEqual(stored.buses.find((b) => b.busId === 'PNL'));
+    expect(
+      (await results(t.orgA.users.engineer.token, { 'If-None-Match': busCold.headers.etag }, '/buses/PNL')).status,
+    ).toBe(304);
   });
 
   it('after another run finishes, the answer is the new run’s, not the cached one', async () => {
@@ -94,22 +115,25 @@ describe('cached study results', () => {
     expect(after.status).toBe(200);
     expect(after.body.run.id).toBe(newRunId);
     expect(after.headers.etag).not.toBe(before.headers.etag);
-    expect((after.body.model.cables as { id: string; lengthM: number }[]).find((c) => c.id === 'F-PNL')!.lengthM).toBe(
-      60,
-    );
-    const pnl = (r: { body: { results: { buses: { busId: string }[] } } }) =>
-      JSON.stringify(r.body.results.buses.find((b) => b.busId === 'PNL'));
+    const pnl = (r: { body: { rows: { busId: string }[] } }) =>
+      JSON.stringify(r.body.rows.find((b) => b.busId === 'PNL'));
     expect(pnl(after)).not.toBe(pnl(before));
+    const bus = await results(t.orgA.users.engineer.token, {}, '/buses/PNL');
+    expect(bus.body.run.id).toBe(newRunId);
     // The old ETag no longer matches.
     expect((await results(t.orgA.users.engineer.token, { 'If-None-Match': before.headers.etag })).status).toBe(200);
   }, 60_000);
 
   it('another organization and an electrician (draft) get 404 even while the answer is cached', async () => {
     expect((await results(t.orgA.users.engineer.token)).status).toBe(200);
+    expect((await results(t.orgA.users.engineer.token, {}, '/buses/PNL')).status).toBe(200);
     for (const token of [t.orgB.users.engineer.token, t.orgB.users.admin.token, t.orgA.users.electrician.token]) {
       const res = await results(token);
       expect(res.status).toBe(404);
-      expect(res.text).not.toContain('"results"');
+      expect(res.text).not.toContain('"rows"');
+      const bus = await results(token, {}, '/buses/PNL');
+      expect(bus.status).toBe(404);
+      expect(bus.text).not.toContain('"bus"');
     }
     expect((await results(t.orgA.users.safety.token)).status).toBe(200);
   });

@@ -81,12 +81,18 @@ describe('study flow: create → model → run → results → submit → approv
       .get(`/api/studies/${studyId}/results`)
       .set(...eng());
     expect(res.status).toBe(200);
-    expect(res.body.results.buses.map((b: { busId: string }) => b.busId)).toEqual(['SWBD', 'MCC', 'PNL']);
-    const swbd = res.body.results.buses[0];
+    // Pages are sorted by bus id unless asked otherwise, and carry no trace.
+    expect(res.body.rows.map((b: { busId: string }) => b.busId)).toEqual(['MCC', 'PNL', 'SWBD']);
+    expect(res.body.rows[0].cases).toBeUndefined();
+    const one = await request(t.app)
+      .get(`/api/studies/${studyId}/results/buses/SWBD`)
+      .set(...eng());
+    expect(one.status).toBe(200);
+    const swbd = one.body.bus;
     // Not isolated main: both sides evaluated, the worse labelled (docs/ARCHITECTURE.md, study run step 8).
     expect(swbd.cases.some((c: { location: string }) => c.location === 'line-side')).toBe(true);
     expect(swbd.labelValues.signalWord).toMatch(/DANGER|WARNING/);
-    expect(res.body.model.name).toBe('Test plant');
+    expect(res.body.study.method).toBeTruthy();
     const study = await request(t.app)
       .get(`/api/studies/${studyId}`)
       .set(...eng());

@@ -37,13 +37,14 @@ async function runResults(studyId: string) {
     ).status,
   ).toBe(202);
   await t.ctx.jobs.idle();
-  return (
+  const page = (
     await request(t.app)
-      .get(`/api/studies/${studyId}/results`)
+      .get(`/api/studies/${studyId}/results?pageSize=500`)
       .set(...eng())
-  ).body.results as {
-    buses: { busId: string; incidentEnergyCalPerCm2: number; arcFlashBoundaryMm: number; clearingDeviceId: string }[];
+  ).body as {
+    rows: { busId: string; incidentEnergyCalPerCm2: number; arcFlashBoundaryMm: number; clearingDeviceId: string }[];
   };
+  return { buses: page.rows };
 }
 
 function sameResults(a: Awaited<ReturnType<typeof runResults>>, b: Awaited<ReturnType<typeof runResults>>): void {

@@ -1,0 +1,416 @@
+import { createHash } from 'node:crypto';
+import type { Request, Response } from 'express';
+import { LRUCache } from 'lru-cache';
+import { QueryTypes } from 'sequelize';
+import {
+  DEFAULT_ORDER,
+  PPE_ABOVE_EVERY_LEVEL,
+  PPE_ERROR,
+  type BusResultRow,
+  type ResultsPage,
+  type ResultsPageQuery,
+  type ResultsSort,
+  type ResultsSummary,
+} from '../../shared/schemas/resultsPage';
+import type { RunDto } from '../../shared/schemas/studies';
+import type { BusResult, StudyResults } from '../../shared/schemas/studyResults';
+import { StudyRun } from '../db/models';
+import type { AuthUser } from '../http/context';
+import { ApiError } from '../http/errors';
+import { findStudy } from './studies';
+
+/**
+ * Study results served in pages (GET /studies/:id/results) and one bus at a time with its trace
+ * (GET /studies/:id/results/buses/:busId). A run's model snapshot and results are written once, when it finishes; the
+ * run row is read on every request (organization-scoped, role-checked, and its DTO compared with the cached one), so
+ * the caches below only save reading and parsing the large columns again. Server-side code that needs the whole
+ * results (label PDFs, the study report) reads them through `getResults` in runs.ts, not through these routes.
+ */
+
+/** The DTO columns of a run row, read by `resultsRunOf` without Sequelize's per-query overhead. */
+interface RunDtoRow {
+  id: string;
+  organizationId: string;
+  status: RunDto['status'];
+  progress: number | string;
+  message: string;
+  modelVersion: number | string;
+  startedAt: Date | string;
+  finishedAt: Date | string | null;
+}
+
+const RUN_DTO_COLUMNS =
+  '"id", "organizationId", "status", "progress", "message", "modelVersion", "startedAt", "finishedAt"';
+
+/** A DATE column read raw: a Date from PostgreSQL, `YYYY-MM-DD HH:MM:SS.SSS +00:00` text from SQLite. */
+function dateOf(v: Date | string): Date {
+  const d = v instanceof Date ? v : new Date(v);
+  if (Number.isNaN(d.getTime())) throw new Error(`Unreadable date in study_runs: ${String(v)}`);
+  return d;
+}
+
+/**
+ * The run the study's results stand on: for an approved study the approved run; otherwise the latest finished run.
+ * The study is found the usual way (organization and role checked); the run by one plain SELECT of its DTO columns
+ * (no large column, no model instance). Null when there is none.
+ */
+async function resultsRunOf(actor: AuthUser, studyId: string): Promise<{ id: string; dto: RunDto } | null> {
+  const study = await findStudy(actor, studyId);
+  const sql = study.approvedRunId
+    ? `SELECT ${RUN_DTO_COLUMNS} FROM "study_runs" WHERE "id" = :runId AND "studyId" = :studyId AND "organizationId" = :organizationId`
+    : `SELECT ${RUN_DTO_COLUMNS} FROM "study_runs" WHERE "studyId" = :studyId AND "organizationId" = :organizationId AND "status" = 'done' ORDER BY "startedAt" DESC LIMIT 1`;
+  const rows = await StudyRun.sequelize!.query<RunDtoRow>(sql, {
+    type: QueryTypes.SELECT,
+    replacements: { runId: study.approvedRunId ?? '', studyId: study.id, organizationId: actor.organizationId },
+  });
+  const r = rows[0];
+  if (!r) return null;
+  return {
+    id: r.id,
+    dto: {
+      id: r.id,
+      status: r.status,
+      progress: Number(r.progress),
+      message: r.message,
+      modelVersion: Number(r.modelVersion),
+      startedAt: dateOf(r.startedAt).toISOString(),
+      finishedAt: r.finishedAt === null ? null : dateOf(r.finishedAt).toISOString(),
+    },
+  };
+}
+
+const NO_RESULTS = 'No results yet: run the study';
+
+type StudyPart = Omit<StudyResults, 'buses'>;
+
+/** What the pages of one run are made from: the rows without traces, the study-wide part and the summary. */
+interface ResultsIndex {
+  /** JSON of the run DTO the index was built with: used only while the run still reads the same. */
+  runJson: string;
+  study: StudyPart;
+  summary: ResultsSummary;
+  /** Rows in the results' own order (the model's bus order). */
+  rows: BusResultRow[];
+  /** Row order per sort and direction, made on first use. */
+  orders: Map<string, BusResultRow[]>;
+  /** Each row's serialized JSON, made on first use. */
+  rowJson: Map<BusResultRow, string>;
+  /** Rough size in bytes (for the cache's budget). */
+  bytes: number;
+}
+
+/** Indexes by organization and run, least recently used out first. */
+const indexCache = new LRUCache<string, ResultsIndex>({
+  maxSize: 96 * 1024 * 1024,
+  sizeCalculation: (v) => Math.max(1, v.bytes),
+});
+
+/** One bus's serialized trace and the devices it names, by organization, run and bus. */
+interface BusEntry {
+  runJson: string;
+  body: string;
+}
+const busCache = new LRUCache<string, BusEntry>({
+  maxSize: 128 * 1024 * 1024,
+  maxEntrySize: 16 * 1024 * 1024,
+  sizeCalculation: (v) => Math.max(1, v.body.length * 2),
+});
+
+/** Empties the results caches (tests start from a cold cache with it). */
+export function clearResultsCache(): void {
+  indexCache.clear();
+  busCache.clear();
+}
+
+function governingCase(b: BusResult) {
+  return b.cases.find((c) => c.arcCase === b.governing?.arcCase && c.location === b.governing?.location);
+}
+
+function ppeNameOf(b: BusResult): string {
+  if (!b.labelValues) return PPE_ERROR;
+  return b.labelValues.ppeLevel?.name ?? PPE_ABOVE_EVERY_LEVEL;
+}
+
+/** A bus result without its trace (`cases`), with what the table and filters need. */
+export function rowOf(b: BusResult): BusResultRow {
+  const { cases: _cases, ...rest } = b;
+  const scenarioId = (b as { scenarioId?: unknown }).scenarioId;
+  return {
+    ...rest,
+    governingArcingCurrentKa: governingCase(b)?.arcingCurrentKa ?? null,
+    ppeName: ppeNameOf(b),
+    scenarioId: typeof scenarioId === 'string' ? scenarioId : null,
+  };
+}
+
+/** Counts over every bus of the results. */
+export function summaryOf(buses: BusResult[]): ResultsSummary {
+  const s: ResultsSummary = {
+    buses: buses.length,
+    ok: 0,
+    errors: 0,
+    withWarnings: 0,
+    maxIncidentEnergyCalPerCm2: null,
+    maxArcFlashBoundaryMm: null,
+    bySignalWord: { DANGER: 0, WARNING: 0 },
+    byPpeLevel: [],
+    byEnergyBand: { le1_2: 0, le8: 0, le40: 0, gt40: 0 },
+    scenarioIds: [],
+  };
+  const ppe = new Map<string, { count: number; rank: number }>();
+  const scenarios = new Set<string>();
+  for (const b of buses) {
+    if (b.status === 'error') s.errors++;
+    else s.ok++;
+    if (b.warnings.length) s.withWarnings++;
+    const e = b.incidentEnergyCalPerCm2;
+    if (e !== undefined) {
+      s.maxIncidentEnergyCalPerCm2 = Math.max(s.maxIncidentEnergyCalPerCm2 ?? e, e);
+      if (e <= 1.2) s.byEnergyBand.le1_2++;
+      else if (e <= 8) s.byEnergyBand.le8++;
+      else if (e <= 40) s.byEnergyBand.le40++;
+      else s.byEnergyBand.gt40++;
+    }
+    if (b.arcFlashBoundaryMm !== undefined)
+      s.maxArcFlashBoundaryMm = Math.max(s.maxArcFlashBoundaryMm ?? b.arcFlashBoundaryMm, b.arcFlashBoundaryMm);
+    if (b.labelValues) s.bySignalWord[b.labelValues.signalWord]++;
+    const name = ppeNameOf(b);
+    const rank = !b.labelValues ? Infinity : (b.labelValues.ppeLevel?.maxCalPerCm2 ?? Number.MAX_VALUE);
+    const p = ppe.get(name);
+    if (p) p.count++;
+    else ppe.set(name, { count: 1, rank });
+    const scenarioId = (b as { scenarioId?: unknown }).scenarioId;
+    if (typeof scenarioId === 'string') scenarios.add(scenarioId);
+  }
+  s.byPpeLevel = [...ppe]
+    .sort((a, b) => a[1].rank - b[1].rank || a[0].localeCompare(b[0]))
+    .map(([name, { count }]) => ({ name, count }));
+  s.scenarioIds = [...scenarios].sort();
+  return s;
+}
+
+/** Reads and parses the run's results once: the index is cached, and each bus's trace goes to the bus cache. */
+async function loadRun(
+  actor: AuthUser,
+  run: { id: string; dto: RunDto },
+  runJson: string,
+  wantBusId?: string,
+): Promise<{ index: ResultsIndex; wanted?: string }> {
+  const key = `${actor.organizationId}/${run.id}`;
+  const large = await StudyRun.findOne({
+    where: { id: run.id, organizationId: actor.organizationId },
+    attributes: ['id', 'modelSnapshot', 'results'],
+  });
+  if (!large?.results) {
+    indexCache.delete(key);
+    throw ApiError.notFound(NO_RESULTS);
+  }
+  const results = JSON.parse(large.results) as StudyResults;
+  const { buses, ...study } = results;
+  const rows = buses.map(rowOf);
+  const index: ResultsIndex = {
+    runJson,
+    study,
+    summary: summaryOf(buses),
+    rows,
+    orders: new Map(),
+    rowJson: new Map(),
+    bytes: 0,
+  };
+  // Rows are about a third of a bus's serialized size at most; a cheap estimate keeps the budget honest.
+  index.bytes = Math.round(large.results.length / 3) + 4096;
+  indexCache.set(key, index);
+
+  // Each bus with the devices of the model its trace names, serialized once.
+  const model = JSON.parse(large.modelSnapshot) as { devices?: { id: string; device: unknown }[] };
+  const devices = new Map((model.devices ?? []).map((d) => [d.id, d]));
+  const studyJson = JSON.stringify(study);
+  let wanted: string | undefined;
+  for (const b of buses) {
+    const ids = new Set<string>();
+    for (const c of b.cases) for (const d of c.devices) ids.add(d.deviceId);
+    const named = [...ids].flatMap((id) => {
+      const d = devices.get(id);
+      return d ? [{ id: d.id, device: d.device }] : [];
+    });
+    const body = `{"run":${runJson},"study":${studyJson},"bus":${JSON.stringify(b)},"devices":${JSON.stringify(named)}}`;
+    busCache.set(`${key}/${b.busId}`, { runJson, body });
+    if (b.busId === wantBusId) wanted = body;
+  }
+  return { index, wanted };
+}
+
+async function indexOf(
+  actor: AuthUser,
+  studyId: string,
+): Promise<{ run: RunDto; runJson: string; index: ResultsIndex }> {
+  const run = await resultsRunOf(actor, studyId);
+  if (!run) throw ApiError.notFound(NO_RESULTS);
+  const runJson = JSON.stringify(run.dto);
+  const hit = indexCache.get(`${actor.organizationId}/${run.id}`);
+  if (hit && hit.runJson === runJson) return { run: run.dto, runJson, index: hit };
+  return { run: run.dto, runJson, index: (await loadRun(actor, run, runJson)).index };
+}
+
+const sortKeys: Record<ResultsSort, (r: BusResultRow) => number | string | undefined> = {
+  busId: (r) => r.busId,
+  name: (r) => r.busName,
+  kv: (r) => r.nominalKv,
+  ibf: (r) => r.boltedFaultKa,
+  energy: (r) => r.incidentEnergyCalPerCm2,
+  boundary: (r) => r.arcFlashBoundaryMm,
+  duration: (r) => r.arcDurationS,
+};
+
+/**
+ * The rows in the asked order. Rows without the value (a bus that could not be evaluated) come first in a
+ * descending order and last in an ascending one: an error is never hidden below the lowest hazards. Ties by bus id.
+ */
+function ordered(index: ResultsIndex, sort: ResultsSort, order: 'asc' | 'desc'): BusResultRow[] {
+  const k = `${sort}:${order}`;
+  let rows = index.orders.get(k);
+  if (rows) return rows;
+  const key = sortKeys[sort];
+  const sign = order === 'asc' ? 1 : -1;
+  rows = [...index.rows].sort((a, b) => {
+    const x = key(a);
+    const y = key(b);
+    if (x !== y) {
+      if (x === undefined) return -sign;
+      if (y === undefined) return sign;
+      const c = typeof x === 'string' && typeof y === 'string' ? (x < y ? -1 : 1) : (x as number) - (y as number);
+      if (c !== 0) return sign * c;
+    }
+    return a.busId < b.busId ? -1 : a.busId > b.busId ? 1 : 0;
+  });
+  index.orders.set(k, rows);
+  return rows;
+}
+
+function matches(r: BusResultRow, q: ResultsPageQuery): boolean {
+  if (q.minCal !== undefined || q.maxCal !== undefined) {
+    const e = r.incidentEnergyCalPerCm2;
+    if (e === undefined) return false;
+    if (q.minCal !== undefined && !(e > q.minCal)) return false;
+    if (q.maxCal !== undefined && !(e <= q.maxCal)) return false;
+  }
+  if (q.ppe !== undefined && r.ppeName !== q.ppe) return false;
+  if (q.warnings !== undefined && r.warnings.length > 0 !== q.warnings) return false;
+  if (q.errors !== undefined && (r.status === 'error') !== q.errors) return false;
+  if (q.scenarioId !== undefined && r.scenarioId !== q.scenarioId) return false;
+  return true;
+}
+
+/** One page of a study's results: rows without traces, the paging and the whole study's summary. */
+export async function resultsPage(actor: AuthUser, studyId: string, q: ResultsPageQuery): Promise<ResultsPage> {
+  const { run, index } = await indexOf(actor, studyId);
+  return pageOf(run, index, q);
+}
+
+function pageOf(run: RunDto, index: ResultsIndex, q: ResultsPageQuery): ResultsPage {
+  const all = ordered(index, q.sort, q.order ?? DEFAULT_ORDER[q.sort]);
+  const filtering =
+    q.minCal !== undefined ||
+    q.maxCal !== undefined ||
+    q.ppe !== undefined ||
+    q.warnings !== undefined ||
+    q.errors !== undefined ||
+    q.scenarioId !== undefined;
+  const rows = filtering ? all.filter((r) => matches(r, q)) : all;
+  const start = (q.page - 1) * q.pageSize;
+  const pageRows = rows.slice(start, start + q.pageSize);
+  return {
+    run,
+    study: index.study,
+    summary: index.summary,
+    rows: pageRows,
+    total: rows.length,
+    page: q.page,
+    pageSize: q.pageSize,
+    pages: Math.max(1, Math.ceil(rows.length / q.pageSize)),
+  };
+}
+
+/** The query in one canonical string (part of the page's entity tag). */
+function canonicalQuery(q: ResultsPageQuery): string {
+  return JSON.stringify([
+    q.sort,
+    q.order ?? DEFAULT_ORDER[q.sort],
+    q.minCal ?? null,
+    q.maxCal ?? null,
+    q.ppe ?? null,
+    q.warnings ?? null,
+    q.errors ?? null,
+    q.scenarioId ?? null,
+    q.page,
+    q.pageSize,
+  ]);
+}
+
+/**
+ * Sends with an entity tag; a matching If-None-Match gets 304 before any body is made (Express's `req.fresh` compares
+ * the request's validators with the response's ETag header).
+ */
+function sendTagged(req: Request, res: Response, etagSource: string, body: () => string): void {
+  res.setHeader('ETag', `"${createHash('sha1').update(etagSource).digest('base64url')}"`);
+  if (req.fresh) {
+    res.status(304).end();
+    return;
+  }
+  res.setHeader('Content-Type', 'application/json; charset=utf-8');
+  res.status(200).send(body());
+}
+
+/** GET /studies/:studyId/results: one page, tagged by the run and the query. */
+export async function sendResultsPage(
+  req: Request,
+  res: Response,
+  actor: AuthUser,
+  studyId: string,
+  q: ResultsPageQuery,
+): Promise<void> {
+  const { run, runJson, index } = await indexOf(actor, studyId);
+  sendTagged(req, res, `page\n${runJson}\n${canonicalQuery(q)}`, () => {
+    const { rows, ...rest } = pageOf(run, index, q);
+    const rowsJson = rows.map((r) => {
+      let j = index.rowJson.get(r);
+      if (j === undefined) index.rowJson.set(r, (j = JSON.stringify(r)));
+      return j;
+    });
+    const head = JSON.stringify(rest);
+    return `${head.slice(0, -1)},"rows":[${rowsJson.join(',')}]}`;
+  });
+}
+
+/** One bus of the study's results with its whole trace; 404 for a bus the results do not have. */
+export async function busResultBody(
+  actor: AuthUser,
+  studyId: string,
+  busId: string,
+): Promise<{ runJson: string; body: string }> {
+  const run = await resultsRunOf(actor, studyId);
+  if (!run) throw ApiError.notFound(NO_RESULTS);
+  const runJson = JSON.stringify(run.dto);
+  const key = `${actor.organizationId}/${run.id}`;
+  const hit = busCache.get(`${key}/${busId}`);
+  if (hit && hit.runJson === runJson) return { runJson, body: hit.body };
+  const index = indexCache.get(key);
+  // A bus the (current) index does not list does not exist: no need to read the run again.
+  if (index && index.runJson === runJson && !index.rows.some((r) => r.busId === busId))
+    throw ApiError.notFound(`No bus ${busId} in the results`);
+  const { wanted } = await loadRun(actor, run, runJson, busId);
+  if (wanted === undefined) throw ApiError.notFound(`No bus ${busId} in the results`);
+  return { runJson, body: wanted };
+}
+
+/** GET /studies/:studyId/results/buses/:busId, tagged by the run and the bus. */
+export async function sendBusResult(
+  req: Request,
+  res: Response,
+  actor: AuthUser,
+  studyId: string,
+  busId: string,
+): Promise<void> {
+  const { runJson, body } = await busResultBody(actor, studyId, busId);
+  sendTagged(req, res, `bus\n${runJson}\n${busId}`, () => body);
+}
