@@ -2,14 +2,12 @@
  * QR codes of label check addresses (error-correction level M, 4-module quiet zone), from bwip-js:
  * - `qrPng`: a PNG (bwip-js `toBuffer`), for anything that wants a picture;
  * - `qrModules` + `embedQrImage`: the module matrix (bwip-js `raw`) embedded in a PDF as a grey image, which
- *   skips drawing, compressing and decoding a PNG per label (measured: about 3 ms a label instead of 11);
- * - `decodeQrPng`: reads a QR code from a PNG (pngjs + jsQR), for tests.
+ *   skips drawing, compressing and decoding a PNG per label (measured: about 3 ms a label instead of 11).
+ * Tests read the codes back with `decodeQrPng` in tests/helpers/qr.ts.
  */
 import { deflateSync } from 'node:zlib';
 import bwipjs from 'bwip-js';
-import jsQR from 'jsqr';
 import type { PDFDocument, PDFRef } from 'pdf-lib';
-import { PNG } from 'pngjs';
 
 /**
  * bwip-js scale: BWIPP draws a QR module 2 units wide, so scale 1 gives 2 px per module. Drawn in the PDF without
@@ -81,37 +79,4 @@ export function embedQrImage(doc: PDFDocument, text: string): { ref: PDFRef; pix
     BitsPerComponent: 8,
   });
   return { ref: doc.context.register(stream), pixels: n };
-}
-
-function upscale(png: PNG, factor: number): { data: Uint8ClampedArray; width: number; height: number } {
-  const width = png.width * factor;
-  const height = png.height * factor;
-  const data = new Uint8ClampedArray(width * height * 4);
-  for (let y = 0; y < height; y += 1) {
-    const sy = Math.floor(y / factor);
-    for (let x = 0; x < width; x += 1) {
-      const s = (sy * png.width + Math.floor(x / factor)) * 4;
-      const d = (y * width + x) * 4;
-      data[d] = png.data[s];
-      data[d + 1] = png.data[s + 1];
-      data[d + 2] = png.data[s + 2];
-      data[d + 3] = png.data[s + 3];
-    }
-  }
-  return { data, width, height };
-}
-
-/** Reads a QR code from a PNG; null when none is found. Small images are enlarged (nearest neighbour) first. */
-export function decodeQrPng(png: Buffer): string | null {
-  const image = PNG.sync.read(png);
-  const attempts = image.width < 200 ? [4, 1] : [1];
-  for (const factor of attempts) {
-    const { data, width, height } =
-      factor === 1
-        ? { data: new Uint8ClampedArray(image.data), width: image.width, height: image.height }
-        : upscale(image, factor);
-    const found = jsQR(data, width, height);
-    if (found) return found.data;
-  }
-  return null;
 }

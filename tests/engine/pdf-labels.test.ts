@@ -25,7 +25,8 @@ import {
   groupCode,
 } from '../../server/pdf/format';
 import { NO_ADEQUATE_PPE_TEXT, labelsPerPage, pageCountFor, renderLabels, sheetCells } from '../../server/pdf/labels';
-import { decodeQrPng, qrModules, qrPng } from '../../server/pdf/qr';
+import { qrModules, qrPng } from '../../server/pdf/qr';
+import { decodeQrPng } from '../helpers/qr';
 import { fitText, wrapText, type MeasuringFont } from '../../server/pdf/text';
 import { readPdf } from '../helpers/pdfText';
 import { expectClose } from '../helpers/approx';
