@@ -4,7 +4,7 @@ import React from 'react';
 import { ScrollView, View } from 'react-native';
 import { LABEL_STATUS_LABELS, type LabelCheck } from '../../shared/schemas/labels';
 import { LABEL_STATUS_NOTICES } from '../../shared/labelDisplay';
-import { parseLabelCode } from '../../shared/labelCode';
+import { groupLabelCode, parseLabelCode } from '../../shared/labelCode';
 import { apiFetch, ApiClientError } from '../../hooks/api';
 import { queryKeys } from '../../hooks/queryKeys';
 import { Cautions } from '../Cautions';
@@ -65,7 +65,8 @@ export function LabelCheckScreen({ code }: { code: string }) {
                 {LABEL_STATUS_NOTICES[check.data.status]}
               </T>
               <T style={{ color: '#fff', fontSize: 13, fontFamily: fonts.numbers }}>
-                Checked {check.data.checkedAt.slice(0, 16).replace('T', ' ')} UTC · code {check.data.code}
+                Checked {check.data.checkedAt.slice(0, 16).replace('T', ' ')} UTC · code{' '}
+                {groupLabelCode(check.data.code)}
               </T>
             </View>
             {check.data.status === 'superseded' && check.data.current ? (

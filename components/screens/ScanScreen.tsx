@@ -116,7 +116,7 @@ export function ScanScreen() {
           autoCapitalize="characters"
           error={error}
           onSubmitEditing={submit}
-          hint="16 characters, e.g. 7K2M-Q9XD-4TRV-B1PH"
+          hint="16 characters as printed under the QR code, e.g. 7K2M Q9XD 4TRV B1PH (spaces, dashes and lower case are fine)"
         />
         <Button title="Open the label" testID="open-label" onPress={submit} />
       </Card>
