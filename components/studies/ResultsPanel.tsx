@@ -126,6 +126,9 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
   const [ppe, setPpe] = useState<string>('all');
   const [pageSize, setPageSize] = useState<(typeof PAGE_SIZES)[number]>(PAGE_SIZES[0]);
   const [page, setPage] = useState(1);
+  // On a phone the sort and filter controls fold away behind one button, so the first rows show at once.
+  const [filtersOpen, setFiltersOpen] = useState(false);
+  const filtered = show !== 'all' || band !== 'all' || ppe !== 'all';
   // Any change of sort or filter starts again at the first page.
   const reset =
     <V,>(set: (v: V) => void) =>
@@ -196,52 +199,64 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
         </Notice>
       ) : null}
       <Card style={{ gap: space.sm, flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', columnGap: space.xl }}>
-        <Choice label="Sort by" value={sort} onChange={setSort} testID="sort" options={SORTS} />
-        <Choice
-          label="Order"
-          value={order}
-          onChange={reset(setOrder)}
-          testID="order"
-          options={[
-            { value: 'asc', label: numeric ? 'Lowest first' : 'A to Z' },
-            { value: 'desc', label: numeric ? 'Highest first' : 'Z to A' },
-          ]}
-        />
-        <Choice
-          label="Show"
-          value={show}
-          onChange={reset(setShow)}
-          testID="show"
-          options={[
-            { value: 'all', label: 'All buses' },
-            { value: 'warnings', label: 'With warnings' },
-            { value: 'errors', label: 'With errors' },
-          ]}
-        />
-        <Choice
-          label="Incident energy"
-          value={band}
-          onChange={reset(setBand)}
-          testID="band"
-          options={BANDS.map(({ value, label }) => ({ value, label }))}
-        />
-        <Choice
-          label="PPE level"
-          value={ppe}
-          onChange={reset(setPpe)}
-          testID="ppe"
-          options={[
-            { value: 'all', label: 'Any' },
-            ...data.summary.byPpeLevel.map((p) => ({ value: p.name, label: `${p.name} (${p.count})` })),
-          ]}
-        />
-        <Choice
-          label="Rows per page"
-          value={pageSize}
-          onChange={reset(setPageSize)}
-          testID="page-size"
-          options={PAGE_SIZES.map((n) => ({ value: n, label: n }))}
-        />
+        {wide ? null : (
+          <Button
+            title={filtersOpen ? 'Hide sort and filters' : `Sort and filter${filtered ? ' (filtered)' : ''}`}
+            kind="secondary"
+            onPress={() => setFiltersOpen(!filtersOpen)}
+            testID="results-filters-toggle"
+          />
+        )}
+        {wide || filtersOpen ? (
+          <>
+            <Choice label="Sort by" value={sort} onChange={setSort} testID="sort" options={SORTS} />
+            <Choice
+              label="Order"
+              value={order}
+              onChange={reset(setOrder)}
+              testID="order"
+              options={[
+                { value: 'asc', label: numeric ? 'Lowest first' : 'A to Z' },
+                { value: 'desc', label: numeric ? 'Highest first' : 'Z to A' },
+              ]}
+            />
+            <Choice
+              label="Show"
+              value={show}
+              onChange={reset(setShow)}
+              testID="show"
+              options={[
+                { value: 'all', label: 'All buses' },
+                { value: 'warnings', label: 'With warnings' },
+                { value: 'errors', label: 'With errors' },
+              ]}
+            />
+            <Choice
+              label="Incident energy"
+              value={band}
+              onChange={reset(setBand)}
+              testID="band"
+              options={BANDS.map(({ value, label }) => ({ value, label }))}
+            />
+            <Choice
+              label="PPE level"
+              value={ppe}
+              onChange={reset(setPpe)}
+              testID="ppe"
+              options={[
+                { value: 'all', label: 'Any' },
+                ...data.summary.byPpeLevel.map((p) => ({ value: p.name, label: `${p.name} (${p.count})` })),
+              ]}
+            />
+            <Choice
+              label="Rows per page"
+              value={pageSize}
+              onChange={reset(setPageSize)}
+              testID="page-size"
+              options={PAGE_SIZES.map((n) => ({ value: n, label: n }))}
+            />
+          </>
+        ) : null}
         <T variant="small" style={wide ? { flexBasis: '100%' } : undefined} testID="results-count">
           {data.total} of {data.summary.buses} buses{data.total ? ` · showing ${first}–${last}` : ''} ·{' '}
           {data.summary.bySignalWord.DANGER} DANGER, {data.summary.bySignalWord.WARNING} WARNING

@@ -240,6 +240,8 @@ async function loadRun(
   return { index, wanted };
 }
 
+const inFlight = new Map<string, Promise<ResultsIndex>>();
+
 async function indexOf(
   actor: AuthUser,
   studyId: string,
@@ -249,7 +251,18 @@ async function indexOf(
   const runJson = JSON.stringify(run.dto);
   const hit = indexCache.get(`${actor.organizationId}/${run.id}`);
   if (hit && hit.runJson === runJson) return { run: run.dto, runJson, index: hit };
-  return { run: run.dto, runJson, index: (await loadRun(actor, run, runJson)).index };
+  // Concurrent cold requests for the same run share one read and parse.
+  const key = `${actor.organizationId}/${run.id}\n${runJson}`;
+  let loading = inFlight.get(key);
+  if (!loading) {
+    loading = loadRun(actor, run, runJson).then((r) => r.index);
+    inFlight.set(key, loading);
+    void loading.then(
+      () => inFlight.delete(key),
+      () => inFlight.delete(key),
+    );
+  }
+  return { run: run.dto, runJson, index: await loading };
 }
 
 const sortKeys: Record<ResultsSort, (r: BusResultRow) => number | string | undefined> = {
