@@ -99,6 +99,16 @@ export interface ShortCircuitSolver {
    * `injectionIds` to report only those (e.g. the ones carrying protective devices) on large models.
    */
   faultAt(busId: string, options?: FaultOptions): BusFault;
+  /**
+   * The same fault, reporting only the elements that can carry its current: the branches, ties, sources and motors
+   * of the parts of the network between the fault and the sources (the 2-edge-connected components on the path to
+   * the reference in the bridge tree). Every other element carries no current (each of its branches joins two
+   * nodes at one voltage). The voltages are solved only at the nodes needed (their elimination-tree paths), so the
+   * work is proportional to what the fault touches, not to the model. Values equal `faultAt`'s (same operations).
+   */
+  faultPath(busId: string): BusFault;
+  /** Work counters (tests): nodes solved and elements visited by `faultPath` since the solver was made. */
+  readonly work: { faults: number; nodeVisits: number; elementVisits: number };
 }
 
 /** Relative threshold under which a branch current counts as zero (direction 'none'). */
@@ -164,6 +174,178 @@ function buildTieTree(network: Network): TieTree {
     for (let h = bfs.length - 1; h >= 0; h -= 1) postOrder.push(bfs[h]);
   }
   return { postOrder, parentBus, parentTie, inGroup };
+}
+
+/**
+ * Where a fault's current can flow. The graph: the network's nodes and the reference (ground), with an edge for each
+ * series branch (ends on two nodes) and for each source or motor (node to reference). Its bridges split it into
+ * 2-edge-connected components, which form a tree (the bridge tree) rooted at the reference's component. Current from
+ * the sources to a fault at node k flows only in the components on the tree path from k's component to the root and
+ * in the bridges between them; a component off that path is joined to it at one point and carries none.
+ */
+interface CarryStructure {
+  /** Component of each vertex (nodes 0…n−1, the reference n). */
+  comp: Int32Array;
+  /** Parent component in the bridge tree (−1 at the root). */
+  parentComp: Int32Array;
+  /** Edge joining a component to its parent (−1 at the root). */
+  parentBridge: Int32Array;
+  /** Edges inside each component (CSR). Edge e < branch count: branch e; otherwise injection e − branch count. */
+  compEdgeStart: Int32Array;
+  compEdges: Int32Array;
+  /** Nodes of each component (CSR; the reference left out). */
+  compNodeStart: Int32Array;
+  compNodes: Int32Array;
+  /** Parent of each node in the elimination tree of the factor (−1 at a root). */
+  etreeParent: Int32Array;
+}
+
+function buildCarryStructure(network: Network, factor: LdltFactor): CarryStructure {
+  const n = network.nodeCount;
+  const ground = n;
+  const vCount = n + 1;
+  const nBranch = network.branches.length;
+  const edgeCount = nBranch + network.injections.length;
+  const ea = new Int32Array(edgeCount).fill(-1);
+  const eb = new Int32Array(edgeCount).fill(-1);
+  network.branches.forEach((br, k) => {
+    if (br.fromNode === br.toNode) return;
+    ea[k] = br.fromNode;
+    eb[k] = br.toNode;
+  });
+  network.injections.forEach((s, k) => {
+    ea[nBranch + k] = s.node;
+    eb[nBranch + k] = ground;
+  });
+  const degree = new Int32Array(vCount + 1);
+  for (let e = 0; e < edgeCount; e += 1) {
+    if (ea[e] < 0) continue;
+    degree[ea[e] + 1] += 1;
+    degree[eb[e] + 1] += 1;
+  }
+  for (let v = 0; v < vCount; v += 1) degree[v + 1] += degree[v];
+  const adjStart = degree;
+  const adjEdge = new Int32Array(adjStart[vCount]);
+  const fill = adjStart.slice(0, vCount);
+  for (let e = 0; e < edgeCount; e += 1) {
+    if (ea[e] < 0) continue;
+    adjEdge[fill[ea[e]]++] = e;
+    adjEdge[fill[eb[e]]++] = e;
+  }
+  const other = (e: number, v: number) => (ea[e] === v ? eb[e] : ea[e]);
+
+  // Bridges: iterative depth-first search with low links (parallel edges told apart by edge index).
+  const disc = new Int32Array(vCount).fill(-1);
+  const low = new Int32Array(vCount);
+  const parentEdge = new Int32Array(vCount).fill(-1);
+  const cursor = adjStart.slice(0, vCount);
+  const isBridge = new Uint8Array(edgeCount);
+  const stack = new Int32Array(vCount);
+  let time = 0;
+  for (let root = 0; root < vCount; root += 1) {
+    if (disc[root] >= 0) continue;
+    let top = 0;
+    stack[0] = root;
+    disc[root] = low[root] = time++;
+    while (top >= 0) {
+      const v = stack[top];
+      if (cursor[v] < adjStart[v + 1]) {
+        const e = adjEdge[cursor[v]++];
+        if (e === parentEdge[v]) continue;
+        const w = other(e, v);
+        if (disc[w] < 0) {
+          disc[w] = low[w] = time++;
+          parentEdge[w] = e;
+          stack[++top] = w;
+        } else if (disc[w] < low[v]) low[v] = disc[w];
+      } else {
+        top -= 1;
+        const pe = parentEdge[v];
+        if (pe >= 0) {
+          const u = other(pe, v);
+          if (low[v] < low[u]) low[u] = low[v];
+          if (low[v] > disc[u]) isBridge[pe] = 1;
+        }
+      }
+    }
+  }
+
+  // Components: flood fill over the edges that are not bridges.
+  const comp = new Int32Array(vCount).fill(-1);
+  let compCount = 0;
+  for (let start = 0; start < vCount; start += 1) {
+    if (comp[start] >= 0) continue;
+    const c = compCount++;
+    comp[start] = c;
+    let top = 0;
+    stack[0] = start;
+    while (top >= 0) {
+      const v = stack[top--];
+      for (let a = adjStart[v]; a < adjStart[v + 1]; a += 1) {
+        const e = adjEdge[a];
+        if (isBridge[e]) continue;
+        const w = other(e, v);
+        if (comp[w] < 0) {
+          comp[w] = c;
+          stack[++top] = w;
+        }
+      }
+    }
+  }
+  const compEdgeStart = new Int32Array(compCount + 1);
+  const compNodeStart = new Int32Array(compCount + 1);
+  for (let e = 0; e < edgeCount; e += 1) if (ea[e] >= 0 && !isBridge[e]) compEdgeStart[comp[ea[e]] + 1] += 1;
+  for (let v = 0; v < n; v += 1) compNodeStart[comp[v] + 1] += 1;
+  for (let c = 0; c < compCount; c += 1) {
+    compEdgeStart[c + 1] += compEdgeStart[c];
+    compNodeStart[c + 1] += compNodeStart[c];
+  }
+  const compEdges = new Int32Array(compEdgeStart[compCount]);
+  const compNodes = new Int32Array(compNodeStart[compCount]);
+  const edgeFill = compEdgeStart.slice(0, compCount);
+  const nodeFill = compNodeStart.slice(0, compCount);
+  for (let e = 0; e < edgeCount; e += 1) if (ea[e] >= 0 && !isBridge[e]) compEdges[edgeFill[comp[ea[e]]]++] = e;
+  for (let v = 0; v < n; v += 1) compNodes[nodeFill[comp[v]]++] = v;
+
+  // The bridge tree, rooted at the reference's component (breadth first over the bridges).
+  const parentComp = new Int32Array(compCount).fill(-1);
+  const parentBridge = new Int32Array(compCount).fill(-1);
+  const seen = new Uint8Array(compCount);
+  const queue = new Int32Array(vCount);
+  let head = 0;
+  let tail = 0;
+  queue[tail++] = ground;
+  seen[comp[ground]] = 1;
+  const visited = new Uint8Array(vCount);
+  visited[ground] = 1;
+  while (head < tail) {
+    const v = queue[head++];
+    for (let a = adjStart[v]; a < adjStart[v + 1]; a += 1) {
+      const e = adjEdge[a];
+      const w = other(e, v);
+      if (visited[w]) continue;
+      visited[w] = 1;
+      queue[tail++] = w;
+      if (isBridge[e] && !seen[comp[w]]) {
+        seen[comp[w]] = 1;
+        parentComp[comp[w]] = comp[v];
+        parentBridge[comp[w]] = e;
+      }
+    }
+  }
+
+  // Elimination tree: the parent of a pivot is the first-eliminated node of its column of L.
+  const { pos, order, colPtr, rowNode } = factor;
+  const etreeParent = new Int32Array(n).fill(-1);
+  for (let s = 0; s < n; s += 1) {
+    let best = -1;
+    for (let e = colPtr[s]; e < colPtr[s + 1]; e += 1) {
+      const i = rowNode[e];
+      if (best < 0 || pos[i] < pos[best]) best = i;
+    }
+    etreeParent[order[s]] = best;
+  }
+  return { comp, parentComp, parentBridge, compEdgeStart, compEdges, compNodeStart, compNodes, etreeParent };
 }
 
 function direction(
@@ -365,6 +547,228 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
     };
   }
 
+  const work = { faults: 0, nodeVisits: 0, elementVisits: 0 };
+  let carry: CarryStructure | undefined;
+  let scratch: { re: Float64Array; im: Float64Array; mark: Int32Array; stamp: number } | undefined;
+  /** Buses of each tied group in the tie tree's post order, by node (built on first use). */
+  let groupBuses: Map<number, number[]> | undefined;
+
+  function faultPath(busId: string): BusFault {
+    const b = index().bus.get(busId);
+    if (b === undefined) throw new EngineError('invalid-input', 'unknown-bus', `unknown bus "${busId}"`, 'busId');
+    const cs = (carry ??= buildCarryStructure(network, factor));
+    const sc = (scratch ??= {
+      re: new Float64Array(network.nodeCount),
+      im: new Float64Array(network.nodeCount),
+      mark: new Int32Array(network.nodeCount),
+      stamp: 0,
+    });
+    const stamp = ++sc.stamp;
+    const { re, im, mark } = sc;
+    const node = busNode[b];
+    const nBranch = netBranches.length;
+
+    // The elements that can carry current: the components on the bridge-tree path to the reference, and the bridges.
+    const edgeList: number[] = [];
+    const nodeList: number[] = [];
+    for (let c = cs.comp[node]; c >= 0; c = cs.parentComp[c]) {
+      for (let a = cs.compEdgeStart[c]; a < cs.compEdgeStart[c + 1]; a += 1) edgeList.push(cs.compEdges[a]);
+      for (let a = cs.compNodeStart[c]; a < cs.compNodeStart[c + 1]; a += 1) nodeList.push(cs.compNodes[a]);
+      if (cs.parentBridge[c] >= 0) edgeList.push(cs.parentBridge[c]);
+    }
+    edgeList.sort((x, y) => x - y);
+
+    // The nodes whose voltage is needed, with their elimination-tree ancestors (the back substitution reads those).
+    const solveNodes: number[] = [];
+    for (const v of nodeList) {
+      for (let p = v; p >= 0 && mark[p] !== stamp; p = cs.etreeParent[p]) {
+        mark[p] = stamp;
+        solveNodes.push(factor.pos[p]);
+      }
+    }
+    const steps = Int32Array.from(solveNodes).sort();
+    // Column `node` of Zbus at those nodes: the same operations as `LdltFactor.solveInPlace` on the unit vector,
+    // restricted to the elimination path of `node` (forward) and to the marked nodes (backward).
+    const { order, colPtr, rowNode, lRe, lIm, dRe, dIm } = factor;
+    re[node] = 1;
+    for (let p = node; p >= 0; p = cs.etreeParent[p]) {
+      const s = factor.pos[p];
+      const vr = re[p];
+      const vi = im[p];
+      if (vr === 0 && vi === 0) continue;
+      for (let e = colPtr[s]; e < colPtr[s + 1]; e += 1) {
+        const i = rowNode[e];
+        re[i] -= lRe[e] * vr - lIm[e] * vi;
+        im[i] -= lRe[e] * vi + lIm[e] * vr;
+      }
+    }
+    for (let p = node; p >= 0; p = cs.etreeParent[p]) {
+      const s = factor.pos[p];
+      const den = dRe[s] * dRe[s] + dIm[s] * dIm[s];
+      const vr = re[p];
+      const vi = im[p];
+      re[p] = (vr * dRe[s] + vi * dIm[s]) / den;
+      im[p] = (vi * dRe[s] - vr * dIm[s]) / den;
+    }
+    for (let q = steps.length - 1; q >= 0; q -= 1) {
+      const s = steps[q];
+      const p = order[s];
+      let xr = re[p];
+      let xi = im[p];
+      for (let e = colPtr[s]; e < colPtr[s + 1]; e += 1) {
+        const i = rowNode[e];
+        xr -= lRe[e] * re[i] - lIm[e] * im[i];
+        xi -= lRe[e] * im[i] + lIm[e] * re[i];
+      }
+      re[p] = xr;
+      im[p] = xi;
+    }
+    work.faults += 1;
+    work.nodeVisits += steps.length;
+    work.elementVisits += edgeList.length;
+
+    const zkk: Complex = { re: re[node], im: im[node] };
+    const zkkMag2 = zkk.re * zkk.re + zkk.im * zkk.im;
+    const fault: Complex = { re: (prefaultPu * zkk.re) / zkkMag2, im: (-prefaultPu * zkk.im) / zkkMag2 };
+    const faultMag = cAbs(fault);
+    if (!Number.isFinite(faultMag) || !(faultMag > 0)) {
+      for (const s of steps) re[order[s]] = im[order[s]] = 0;
+      throw new EngineError(
+        'out-of-range',
+        'non-finite-result',
+        `fault current at bus "${busId}" is not finite`,
+        'busId',
+      );
+    }
+    // ΔV_i = −Z_ik · I_f at the solved nodes.
+    for (const s of steps) {
+      const i = order[s];
+      const zr = re[i];
+      const zi = im[i];
+      re[i] = -(zr * fault.re - zi * fault.im);
+      im[i] = -(zr * fault.im + zi * fault.re);
+    }
+    const faultPhasorA = { re: fault.re * busBaseA[b], im: fault.im * busBaseA[b] };
+
+    const branches: BranchFaultCurrent[] = [];
+    const injections: InjectionFaultCurrent[] = [];
+    const flows: { bus: number; re: number; im: number }[] = [];
+    for (const e of edgeList) {
+      if (e < nBranch) {
+        const br = netBranches[e];
+        const ur = re[br.fromNode] / br.ratio - re[br.toNode];
+        const ui = im[br.fromNode] / br.ratio - im[br.toNode];
+        const sr = br.admittancePu.re * ur - br.admittancePu.im * ui;
+        const si = br.admittancePu.re * ui + br.admittancePu.im * ur;
+        const fromA = busBaseA[br.fromBus] / br.ratio;
+        const toA = busBaseA[br.toBus];
+        const fromPhasorA = { re: sr * fromA, im: si * fromA };
+        const toPhasorA = { re: sr * toA, im: si * toA };
+        const dir = direction(sr, si, Math.hypot(sr, si), fault, faultMag);
+        branches.push({
+          id: br.id,
+          kind: br.kind,
+          fromBus: busIds[br.fromBus],
+          toBus: busIds[br.toBus],
+          fromCurrentA: Math.hypot(fromPhasorA.re, fromPhasorA.im),
+          toCurrentA: Math.hypot(toPhasorA.re, toPhasorA.im),
+          fromPhasorA,
+          toPhasorA,
+          direction: dir,
+          towardBus: dir === 'none' ? null : dir === 'from-to' ? busIds[br.toBus] : busIds[br.fromBus],
+        });
+        flows.push({ bus: br.fromBus, re: -fromPhasorA.re, im: -fromPhasorA.im });
+        flows.push({ bus: br.toBus, re: sr * toA, im: si * toA });
+      } else {
+        const s = netInjections[e - nBranch];
+        const vr = re[s.node];
+        const vi = im[s.node];
+        const base = busBaseA[s.bus];
+        const gr = -(s.admittancePu.re * vr - s.admittancePu.im * vi) * base;
+        const gi = -(s.admittancePu.re * vi + s.admittancePu.im * vr) * base;
+        injections.push({
+          id: s.id,
+          kind: s.kind,
+          bus: busIds[s.bus],
+          currentA: Math.hypot(gr, gi),
+          phasorA: { re: gr, im: gi },
+        });
+        flows.push({ bus: s.bus, re: gr, im: gi });
+      }
+    }
+    for (const s of steps) re[order[s]] = im[order[s]] = 0;
+
+    // Ties inside the nodes of the path (the tie tree of each tied group, as in `faultAt`).
+    if (netTies.length > 0) {
+      const tree = tieTree ?? (tieTree = buildTieTree(network));
+      if (!groupBuses) {
+        groupBuses = new Map();
+        for (const bus of tree.postOrder) {
+          const list = groupBuses.get(busNode[bus]) ?? [];
+          list.push(bus);
+          groupBuses.set(busNode[bus], list);
+        }
+      }
+      const groups = nodeList.filter((v) => groupBuses!.has(v));
+      if (groups.length > 0) {
+        const net = new Map<number, { re: number; im: number }>();
+        const at = (bus: number) => net.get(bus) ?? net.set(bus, { re: 0, im: 0 }).get(bus)!;
+        for (const f of flows) {
+          if (!tree.inGroup[f.bus]) continue;
+          const x = at(f.bus);
+          x.re += f.re;
+          x.im += f.im;
+        }
+        if (tree.inGroup[b]) {
+          const x = at(b);
+          x.re -= faultPhasorA.re;
+          x.im -= faultPhasorA.im;
+        }
+        const tieOut: [number, Phasor][] = [];
+        for (const g of groups) {
+          for (const bus of groupBuses.get(g)!) {
+            const parent = tree.parentBus[bus];
+            if (parent < 0) continue;
+            const tieIndex = tree.parentTie[bus];
+            const sign = netTies[tieIndex].fromBus === bus ? 1 : -1;
+            const x = at(bus);
+            tieOut.push([tieIndex, { re: sign * x.re, im: sign * x.im }]);
+            const y = at(parent);
+            y.re += x.re;
+            y.im += x.im;
+          }
+        }
+        tieOut.sort((x, y) => x[0] - y[0]);
+        for (const [i, phasor] of tieOut) {
+          const tie = netTies[i];
+          const magnitude = Math.hypot(phasor.re, phasor.im);
+          const dir = direction(phasor.re, phasor.im, magnitude, faultPhasorA, cAbs(faultPhasorA));
+          branches.push({
+            id: tie.id,
+            kind: 'tie',
+            fromBus: busIds[tie.fromBus],
+            toBus: busIds[tie.toBus],
+            fromCurrentA: magnitude,
+            toCurrentA: magnitude,
+            fromPhasorA: phasor,
+            toPhasorA: { ...phasor },
+            direction: dir,
+            towardBus: dir === 'none' ? null : dir === 'from-to' ? busIds[tie.toBus] : busIds[tie.fromBus],
+          });
+        }
+      }
+    }
+
+    return {
+      ...buses[b],
+      prefaultPu,
+      faultCurrentA: faultMag * busBaseA[b],
+      faultPhasorA,
+      branches,
+      injections,
+    };
+  }
+
   /**
    * Tie currents (amperes, positive from → to) by Kirchhoff's current law on the tie tree of each group of
    * tied buses, from the leaves up: a bus passes to its parent everything entering it and its subtree
@@ -417,7 +821,7 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
     return out;
   }
 
-  return { result, busIds, faultAt };
+  return { result, busIds, faultAt, faultPath, work };
 }
 
 /**

@@ -143,6 +143,9 @@ interface PictureContext {
   motorIds: Set<string>;
   sourceById: Map<string, Model['sources'][number]>;
   motorProfile: ContributionProfile;
+  /** Indices in `model.devices` of the devices on each branch (or tie) and on each source or motor. */
+  devicesByBranch: Map<string, number[]>;
+  devicesBySource: Map<string, number[]>;
 }
 
 /**
@@ -187,7 +190,8 @@ function traceMixes(edges: Edge[], contributors: Contributor[]): Map<string, Map
 function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
   const { model, solver, kvByBus } = ctx;
   const kvOf = (id: string) => kvByBus.get(id) ?? NaN;
-  const fault = solver.faultAt(bus.id);
+  // Only the elements that can carry this fault's current (the others carry none and would be skipped below).
+  const fault = solver.faultPath(bus.id);
   const kvFault = bus.nominalKv;
   const ibfA = fault.boltedFaultKa * 1000;
   const edges: Edge[] = [];
@@ -237,7 +241,13 @@ function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
   const edgeById = new Map(edges.map((e) => [e.id, e]));
   const injectionById = new Map(fault.injections.map((i) => [i.id, i]));
   const devices: PathDevice[] = [];
-  for (const placed of model.devices) {
+  // The devices on the elements carrying current, in model order.
+  const deviceIndices: number[] = [];
+  for (const b of fault.branches)
+    if (b.direction !== 'none') deviceIndices.push(...(ctx.devicesByBranch.get(b.id) ?? []));
+  for (const i of fault.injections) deviceIndices.push(...(ctx.devicesBySource.get(i.id) ?? []));
+  deviceIndices.sort((x, y) => x - y);
+  for (const placed of deviceIndices.map((k) => model.devices[k])) {
     if (placed.branch) {
       const b = branchById.get(placed.branch);
       if (!b || b.direction === 'none') continue;
@@ -274,15 +284,15 @@ function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
   return { bus, fault, edges, contributors, devices, alternateContributors, typicalValuesUsed, warnings };
 }
 
-/** Whether `from` still reaches `to` over the edges not opened. */
-function reaches(from: string, to: string, edges: Edge[], opened: Set<string>): boolean {
+/** Whether `from` still reaches `to` over the edges not opened (`outgoing`: the edges by their from bus). */
+function reaches(from: string, to: string, outgoing: Map<string, Edge[]>, opened: Set<string>): boolean {
   if (from === to) return true;
   const seen = new Set([from]);
   const stack = [from];
   while (stack.length) {
     const at = stack.pop() as string;
-    for (const e of edges) {
-      if (e.from !== at || opened.has(e.id) || seen.has(e.to)) continue;
+    for (const e of outgoing.get(at) ?? []) {
+      if (opened.has(e.id) || seen.has(e.to)) continue;
       if (e.to === to) return true;
       seen.add(e.to);
       stack.push(e.to);
@@ -357,6 +367,8 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const active = picture.devices.filter((d) => !input.excluded.has(d.placed.id));
   const integrators = new Map(active.map((d) => [d.placed.id, createTripIntegrator(d.placed.device as Device)]));
   const capS = input.maxArcDurationS;
+  const outgoing = new Map<string, Edge[]>();
+  for (const e of picture.edges) (outgoing.get(e.from) ?? outgoing.set(e.from, []).get(e.from)!).push(e);
 
   const stop = new Map<string, Stop>();
   const live = () => picture.contributors.filter((c) => !stop.has(c.id));
@@ -499,7 +511,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       if (d.sourceId) openedSources.add(d.sourceId);
       if (steps.length && steps[steps.length - 1].toS === t) steps[steps.length - 1].opened.push(id);
       for (const c of live()) {
-        if (openedSources.has(c.id) || !reaches(c.bus, picture.bus.id, picture.edges, openedEdges))
+        if (openedSources.has(c.id) || !reaches(c.bus, picture.bus.id, outgoing, openedEdges))
           stop.set(c.id, { t, by: id, reason: 'device' });
       }
     }
@@ -722,9 +734,10 @@ function evaluateCaseBracketed(input: CaseInput, warnings: EngineWarning[]): Arc
 /** The devices at this bus's end of the branches that feed it: its main device(s). */
 function mainDevices(picture: FaultPicture): Set<string> {
   const out = new Set<string>();
+  const branchById = new Map(picture.fault.branches.map((b) => [b.id, b]));
   for (const d of picture.devices) {
     if (!d.branchId) continue;
-    const b = picture.fault.branches.find((x) => x.id === d.branchId);
+    const b = branchById.get(d.branchId);
     if (!b || b.towardBus !== picture.bus.id) continue;
     const atBus = d.placed.end === 'from' ? b.fromBus : b.toBus;
     if (atBus === picture.bus.id) out.add(d.placed.id);
@@ -757,11 +770,21 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
     sourceById: new Map(model.sources.map((s) => [s.id, s])),
     motorProfile:
       motorDecayModel === 'exponential' ? motorExponentialProfile(motorDecayS) : motorStepProfile(motorDecayS),
+    devicesByBranch: new Map(),
+    devicesBySource: new Map(),
   };
+  model.devices.forEach((d, k) => {
+    const [map, key] = d.branch
+      ? [pictureContext.devicesByBranch, d.branch]
+      : [pictureContext.devicesBySource, d.source];
+    if (!key) return;
+    (map.get(key) ?? map.set(key, []).get(key)!).push(k);
+  });
+  const busById = new Map(model.buses.map((b) => [b.id, b]));
   const busIds = model.buses.filter((b) => b.equipment).map((b) => b.id);
 
   function runBus(busId: string): BusResult {
-    const bus = model.buses.find((b) => b.id === busId);
+    const bus = busById.get(busId);
     if (!bus) throw new EngineError('invalid-input', 'UNKNOWN_BUS', `No bus ${busId}`, 'busId');
     const sc = scByBus.get(busId);
     const base = {
