@@ -4,7 +4,7 @@
  */
 import React, { memo, useCallback, useDeferredValue, useLayoutEffect, useMemo, useRef } from 'react';
 import { Pressable, View } from 'react-native';
-import Svg, { Circle, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
+import Svg, { Circle, Line, Path, Rect } from 'react-native-svg';
 import type { ModelInput } from '../../shared/schemas/model';
 import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui';
@@ -74,17 +74,15 @@ function Glyph({ kind }: { kind: GlyphKind }) {
       {kind === 'generator' || kind === 'motor' ? (
         <>
           <Circle cx={12} cy={10} r={8.5} stroke={c} strokeWidth={1.6} fill={colors.surface} />
-          <SvgText
-            x={12}
-            y={14}
-            fontSize={11}
-            fontWeight="bold"
-            textAnchor="middle"
-            fill={c}
-            fontFamily={fonts.textBold}
-          >
-            {kind === 'generator' ? 'G' : 'M'}
-          </SvgText>
+          {/* The letter is drawn as a path, not text: a screen reader reads the row's name ("Motor P-1 …"), and the
+              visible text of the row is its name alone (WCAG 2.5.3, label in name). */}
+          <Path
+            d={kind === 'generator' ? 'M14.8 7.2A3.9 3.9 0 1 0 15.9 10.7H12.6' : 'M8.4 14V6.2l3.6 5.1 3.6-5.1V14'}
+            stroke={c}
+            strokeWidth={1.7}
+            strokeLinejoin="miter"
+            fill="none"
+          />
         </>
       ) : null}
       {kind === 'bus' || kind === 'bus-seen' ? (
