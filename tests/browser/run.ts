@@ -10,6 +10,8 @@ import { specs as studySpecs } from './specs/studies';
 import { specs as labelSpecs } from './specs/labels';
 import { specs as attentionSpecs } from './specs/attention.spec';
 import { specs as reminderApprovalSpecs } from './specs/reminderApproval';
+import { specs as a11ySpecs } from './specs/a11y';
+import { closeAxe } from './axe';
 
 export type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -22,6 +24,7 @@ async function main(): Promise<void> {
     ...labelSpecs,
     ...attentionSpecs,
     ...reminderApprovalSpecs,
+    ...a11ySpecs,
   ];
   const only = process.argv[2];
   const selected = only ? all.filter((s) => s.name.includes(only)) : all;
@@ -39,6 +42,7 @@ async function main(): Promise<void> {
       console.log(`  ✗ ${spec.name}\n    ${(e as Error).stack?.split('\n').slice(0, 6).join('\n    ')}`);
     }
   }
+  await closeAxe();
   await h.stop();
   console.log(`\nbrowser: ${passed} passed, ${failed} failed`);
   process.exit(failed ? 1 : 0);
