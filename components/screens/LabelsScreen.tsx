@@ -8,8 +8,8 @@ import { useBatch, useCreateBatch, useSiteLabels } from '../../hooks/labels';
 import { useSites } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
-import { fmt } from '../../hooks/units';
 import { LabelView } from '../labels/LabelView';
+import { displayText } from '../../shared/labelDisplay';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Button, Card, Choice, Notice, ProgressBar, Screen, T } from '../ui';
@@ -70,7 +70,7 @@ function Row({
           <View style={{ backgroundColor: panel.background, paddingHorizontal: 5, borderRadius: 3 }}>
             <T style={{ color: panel.text, fontSize: 11, fontFamily: fonts.textBold }}>{l.content.signalWord}</T>
           </View>
-          <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(l.content.incidentEnergyCalPerCm2)} cal/cm²</T>
+          <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{displayText(l.display.incidentEnergy)}</T>
         </View>
         <T variant="small" numberOfLines={1}>
           {l.content.equipmentName} · {LABEL_STATUS_LABELS[l.status]} ·{' '}
@@ -218,9 +218,10 @@ export function LabelsScreen() {
               testID="download-pdf"
               kind="secondary"
               onPress={() =>
-                void downloadFile(`/label-batches/${b.id}/file`, 'labels.pdf').catch((e) =>
-                  setError(serverErrors(e).message),
-                )
+                void downloadFile(`/label-batches/${b.id}/file`, 'labels.pdf')
+                  // Downloading the batch is what marks its labels printed: show it.
+                  .then(() => labels.refetch())
+                  .catch((e) => setError(serverErrors(e).message))
               }
             />
           ) : null}
