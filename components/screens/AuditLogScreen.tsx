@@ -2,14 +2,14 @@ import { Link, useLocalSearchParams } from 'expo-router';
 import React, { useMemo, useState } from 'react';
 import { View } from 'react-native';
 import { auditQuerySchema, type AuditEventDto } from '../../shared/schemas/auditLog';
-import { auditCsvPath, useAuditEvents, type AuditFilters } from '../../hooks/attention';
+import { AUDIT_PAGE_SIZE, auditCsvPath, useAuditEvents, type AuditFilters } from '../../hooks/attention';
 import { fmtDateTime } from '../../hooks/dates';
 import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useDebounced } from '../../hooks/useDebounced';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Choice, Empty, Field, Loading, Notice, QueryError, Screen, T } from '../ui';
+import { Button, Choice, Empty, Field, ListScreen, Loading, Notice, QueryError, T } from '../ui';
 
 /** Action prefixes (ending in a dot: the API matches them as prefixes; several comma-separated) to narrow the log by what was acted on. */
 const ACTION_CHIPS = [
@@ -135,12 +135,53 @@ export function AuditLogScreen() {
       .finally(() => setDownloading(false));
   };
 
+  const rowFrame = (i: number) => ({
+    backgroundColor: colors.surface,
+    borderLeftWidth: 1,
+    borderRightWidth: 1,
+    borderColor: colors.lineSoft,
+    ...(i === 0 && !wide
+      ? { marginTop: space.lg, borderTopWidth: 1, borderTopLeftRadius: radius.lg, borderTopRightRadius: radius.lg }
+      : {}),
+    ...(i === all.length - 1
+      ? {
+          borderBottomWidth: 1,
+          borderBottomLeftRadius: radius.lg,
+          borderBottomRightRadius: radius.lg,
+          overflow: 'hidden' as const,
+        }
+      : {}),
+  });
+
+  // The events are the rows of a virtualized list (the log grows a page at a time as "Load more" is pressed).
   return (
-    <Screen
+    <ListScreen
       title="Audit log"
       subtitle="Every change to studies, labels, reports, people and settings: who, what and when. The log cannot be edited."
       actions={
         <Button title="Export CSV" kind="secondary" testID="audit-export" busy={downloading} onPress={exportCsv} />
+      }
+      data={all}
+      keyExtractor={(e) => e.id}
+      renderItem={(e, i) => (
+        <View style={rowFrame(i)}>
+          <EventRow e={e} wide={wide} />
+        </View>
+      )}
+      listTestID={all.length ? 'audit-events' : undefined}
+      initialNumToRender={AUDIT_PAGE_SIZE}
+      footer={
+        events.hasNextPage ? (
+          <View style={{ flexDirection: 'row' }}>
+            <Button
+              title="Load more"
+              kind="secondary"
+              testID="audit-load-more"
+              busy={events.isFetchingNextPage}
+              onPress={() => void events.fetchNextPage()}
+            />
+          </View>
+        ) : null
       }
     >
       {scoped ? (
@@ -224,54 +265,34 @@ export function AuditLogScreen() {
             : 'Changes to studies, labels, field reports, people, invitations and settings are recorded here as they happen.'}
         </Empty>
       ) : null}
-      {all.length ? (
+      {all.length > 0 && wide ? (
         <View
           style={{
+            flexDirection: 'row',
+            gap: space.md,
+            paddingHorizontal: space.lg,
+            paddingVertical: space.md,
             backgroundColor: colors.surface,
-            borderRadius: radius.lg,
             borderWidth: 1,
-            borderColor: colors.lineSoft,
+            borderBottomColor: colors.line,
+            borderTopColor: colors.lineSoft,
+            borderLeftColor: colors.lineSoft,
+            borderRightColor: colors.lineSoft,
+            borderTopLeftRadius: radius.lg,
+            borderTopRightRadius: radius.lg,
           }}
-          testID="audit-events"
         >
-          {wide ? (
-            <View
-              style={{
-                flexDirection: 'row',
-                gap: space.md,
-                paddingHorizontal: space.lg,
-                paddingVertical: space.md,
-                borderBottomWidth: 1,
-                borderBottomColor: colors.line,
-              }}
-            >
-              <T variant="label" style={{ width: 130 }}>
-                WHEN (UTC)
-              </T>
-              <T variant="label" style={{ width: 170 }}>
-                WHO
-              </T>
-              <T variant="label" style={{ flex: 1 }}>
-                WHAT
-              </T>
-            </View>
-          ) : null}
-          {all.map((e) => (
-            <EventRow key={e.id} e={e} wide={wide} />
-          ))}
+          <T variant="label" style={{ width: 130 }}>
+            WHEN (UTC)
+          </T>
+          <T variant="label" style={{ width: 170 }}>
+            WHO
+          </T>
+          <T variant="label" style={{ flex: 1 }}>
+            WHAT
+          </T>
         </View>
       ) : null}
-      {events.hasNextPage ? (
-        <View style={{ flexDirection: 'row' }}>
-          <Button
-            title="Load more"
-            kind="secondary"
-            testID="audit-load-more"
-            busy={events.isFetchingNextPage}
-            onPress={() => void events.fetchNextPage()}
-          />
-        </View>
-      ) : null}
-    </Screen>
+    </ListScreen>
   );
 }

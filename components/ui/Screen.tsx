@@ -1,19 +1,11 @@
 import React from 'react';
-import { ScrollView, View } from 'react-native';
+import { FlatList, ScrollView, View } from 'react-native';
 import { useLayout } from '../../hooks/useLayout';
 import { useDocumentTitle } from '../../hooks/useDocumentTitle';
 import { colors, space } from '../theme';
 import { T } from './Text';
 
-/** A scrolling page with a title; wide screens get a readable maximum width. */
-export function Screen({
-  title,
-  subtitle,
-  actions,
-  children,
-  maxWidth = 1200,
-  documentTitle,
-}: {
+interface ScreenProps {
   title: string;
   /** The browser tab's name for the page when the heading is not a good one (default: the heading). */
   documentTitle?: string;
@@ -21,7 +13,36 @@ export function Screen({
   actions?: React.ReactNode;
   children: React.ReactNode;
   maxWidth?: number;
-}) {
+}
+
+function ScreenHeading({
+  title,
+  subtitle,
+  actions,
+  wide,
+}: Pick<ScreenProps, 'title' | 'subtitle' | 'actions'> & { wide: boolean }) {
+  return (
+    <View
+      style={{
+        flexDirection: wide ? 'row' : 'column',
+        justifyContent: 'space-between',
+        gap: space.md,
+        alignItems: wide ? 'flex-end' : 'stretch',
+      }}
+    >
+      <View style={{ gap: space.xs, flexShrink: 1 }}>
+        <T variant="title" accessibilityRole="header">
+          {title}
+        </T>
+        {subtitle ? <T variant="small">{subtitle}</T> : null}
+      </View>
+      {actions ? <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>{actions}</View> : null}
+    </View>
+  );
+}
+
+/** A scrolling page with a title; wide screens get a readable maximum width. */
+export function Screen({ title, subtitle, actions, children, maxWidth = 1200, documentTitle }: ScreenProps) {
   const { wide } = useLayout();
   useDocumentTitle(documentTitle ?? title);
   return (
@@ -34,24 +55,65 @@ export function Screen({
       contentContainerStyle={{ padding: wide ? space.xxl : space.lg, paddingBottom: 96 }}
     >
       <View style={{ width: '100%', maxWidth, alignSelf: 'center', gap: space.lg }}>
-        <View
-          style={{
-            flexDirection: wide ? 'row' : 'column',
-            justifyContent: 'space-between',
-            gap: space.md,
-            alignItems: wide ? 'flex-end' : 'stretch',
-          }}
-        >
-          <View style={{ gap: space.xs, flexShrink: 1 }}>
-            <T variant="title" accessibilityRole="header">
-              {title}
-            </T>
-            {subtitle ? <T variant="small">{subtitle}</T> : null}
-          </View>
-          {actions ? <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>{actions}</View> : null}
-        </View>
+        <ScreenHeading title={title} subtitle={subtitle} actions={actions} wide={wide} />
         {children}
       </View>
     </ScrollView>
+  );
+}
+
+/**
+ * A Screen whose long list is virtualized: the page scrolls as one FlatList (heading and `children` above the rows,
+ * `footer` below), so only the rows near the viewport are mounted. A FlatList inside a Screen's ScrollView would not
+ * virtualize.
+ */
+export function ListScreen<Item>({
+  title,
+  subtitle,
+  actions,
+  children,
+  maxWidth = 1200,
+  documentTitle,
+  data,
+  keyExtractor,
+  renderItem,
+  footer,
+  initialNumToRender = 30,
+  listTestID,
+}: ScreenProps & {
+  data: readonly Item[];
+  keyExtractor: (item: Item) => string;
+  renderItem: (item: Item, index: number) => React.ReactElement;
+  footer?: React.ReactNode;
+  /** Rows mounted at first (and per batch afterwards): a page of the list is a good size. */
+  initialNumToRender?: number;
+  /** A test id on the scrolling list (it holds the heading, the rows and the footer). */
+  listTestID?: string;
+}) {
+  const { wide } = useLayout();
+  useDocumentTitle(documentTitle ?? title);
+  const column = { width: '100%', maxWidth, alignSelf: 'center' } as const;
+  return (
+    <FlatList
+      role="main"
+      focusable
+      style={{ flex: 1, backgroundColor: colors.canvas }}
+      contentContainerStyle={{ padding: wide ? space.xxl : space.lg, paddingBottom: 96 }}
+      testID={listTestID}
+      data={data}
+      // Rows may draw differently by width and by position (the first and last close a card): redraw on either change.
+      extraData={`${wide}:${data.length}`}
+      keyExtractor={keyExtractor}
+      renderItem={({ item, index }) => <View style={column}>{renderItem(item, index)}</View>}
+      initialNumToRender={initialNumToRender}
+      maxToRenderPerBatch={initialNumToRender}
+      ListHeaderComponent={
+        <View style={[column, { gap: space.lg }]}>
+          <ScreenHeading title={title} subtitle={subtitle} actions={actions} wide={wide} />
+          {children}
+        </View>
+      }
+      ListFooterComponent={footer ? <View style={[column, { paddingTop: space.lg }]}>{footer}</View> : null}
+    />
   );
 }

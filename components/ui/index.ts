@@ -4,7 +4,7 @@ export { Choice } from './Choice';
 export { Field } from './Field';
 export { Notice } from './Notice';
 export { ProgressBar } from './ProgressBar';
-export { Screen } from './Screen';
+export { ListScreen, Screen } from './Screen';
 export { ValueRow } from './ValueRow';
 export { Num, T } from './Text';
 export { ConfirmButton } from './ConfirmButton';
