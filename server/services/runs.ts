@@ -4,13 +4,14 @@ import { parseModel, type Model } from '../../shared/schemas/model';
 import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
-import { createStudyRunner, DEFAULT_MOTOR_DECAY_CYCLES } from '../engine/study';
+import { DEFAULT_MOTOR_DECAY_CYCLES } from '../engine/study';
 import type { AppContext, AuthUser } from '../http/context';
 import { ApiError, modelIssuesError } from '../http/errors';
 import { recordAudit } from './audit';
-import { yieldToLoop } from './jobs';
+import { JobStopped, STOPPED_BY_SHUTDOWN } from './jobs';
 import { getSettings, labelSettingsOf } from './organization';
 import { findStudy, toRunDto } from './studies';
+import { runStudyOffThread } from './studyWorker';
 
 interface RunSettings {
   maxArcDurationMs: number;
@@ -74,7 +75,7 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
   return toRunDto(run);
 }
 
-/** The job: short circuit once, then bus by bus, yielding to the event loop and recording progress as it goes. */
+/** The job: the whole run in a worker thread (short circuit once, then bus by bus), recording progress as it goes. */
 export async function executeRun(ctx: AppContext, runId: string): Promise<void> {
   const run = await StudyRun.findByPk(runId);
   if (!run || run.status !== 'queued') return;
@@ -83,30 +84,29 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
     await run.update({ status: 'running', message: 'Computing short-circuit currents', progress: 0.01 });
     const model = JSON.parse(run.modelSnapshot) as Model;
     const settings = JSON.parse(run.settingsSnapshot) as RunSettings;
-    const runner = createStudyRunner(model, settings);
-    const buses = [];
-    let lastWrite = Date.now();
-    for (let i = 0; i < runner.busIds.length; i++) {
-      buses.push(runner.runBus(runner.busIds[i]));
-      if (i % 10 === 9) {
-        await yieldToLoop();
-        // A stopping server: the run fails now (no partial results), rather than hold up the shutdown.
-        ctx.jobs.throwIfStopping('study-run');
-      }
-      if (Date.now() - lastWrite > 250) {
+    // Computed in a worker thread (the API keeps answering); progress is written at most every 250 ms, one write at a time.
+    let lastWrite = 0;
+    let writing: Promise<unknown> = Promise.resolve();
+    const outcome = await runStudyOffThread(model, settings, {
+      signal: ctx.jobs.signal,
+      // A stopping server: the run fails now (no partial results), rather than hold up the shutdown.
+      stopError: () => new JobStopped(STOPPED_BY_SHUTDOWN['study-run']),
+      onProgress: (done, total) => {
+        if (Date.now() - lastWrite < 250 || done === 0) return;
         lastWrite = Date.now();
-        await run.update({
-          progress: 0.02 + 0.96 * ((i + 1) / runner.busIds.length),
-          message: `Bus ${i + 1} of ${runner.busIds.length}`,
-        });
-      }
-    }
-    const results: StudyResults = runner.finish(buses);
-    const failed = buses.filter((b) => b.status === 'error').length;
-    const message = `${buses.length} buses evaluated${failed ? `, ${failed} with errors` : ''}`;
+        writing = writing.then(() =>
+          // A progress write that fails is not the run failing (the final write reports the outcome).
+          run.update({ progress: 0.02 + 0.96 * (done / total), message: `Bus ${done} of ${total}` }).catch(() => null),
+        );
+      },
+    });
+    await writing;
+    ctx.jobs.throwIfStopping('study-run');
+    const failed = outcome.failed;
+    const message = `${outcome.buses} buses evaluated${failed ? `, ${failed} with errors` : ''}`;
     await ctx.db.sequelize.transaction(async (transaction) => {
       await run.update(
-        { status: 'done', progress: 1, message, results: JSON.stringify(results), finishedAt: ctx.now() },
+        { status: 'done', progress: 1, message, results: outcome.resultsJson, finishedAt: ctx.now() },
         { transaction },
       );
       await recordAudit(
@@ -116,7 +116,7 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
           action: 'study.run-finished',
           entityType: 'study',
           entityId: run.studyId,
-          summary: { runId: run.id, buses: buses.length, busErrors: failed },
+          summary: { runId: run.id, buses: outcome.buses, busErrors: failed },
         },
         transaction,
       );

@@ -1,0 +1,102 @@
+/**
+ * Study runs in a worker thread: the same results as the engine in the test's own thread (the reference), progress
+ * reported, a stop request ends the worker, and the API answers while a run is in progress.
+ */
+import request from 'supertest';
+import { generatedPlant } from '../../server/bench/study';
+import { runStudy } from '../../server/engine/study';
+import { JobStopped } from '../../server/services/jobs';
+import { runStudyOffThread, studyRunStats } from '../../server/services/studyWorker';
+import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
+import { larkspurModel } from '../../server/seed/larkspurModel';
+import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+
+const parsed = (input: ModelInput): Model => {
+  const p = parseModel(input);
+  if (!p.success) throw new Error(JSON.stringify(p.issues.slice(0, 3)));
+  return p.model;
+};
+
+describe('runStudyOffThread', () => {
+  it('gives the results of runStudy in this thread, byte for byte, and reports progress', async () => {
+    const model = parsed(larkspurModel());
+    const options = { maxArcDurationMs: 2000, motorDecayCycles: 5 };
+    const before = studyRunStats.worker;
+    const progress: number[] = [];
+    const outcome = await runStudyOffThread(model, options, { onProgress: (done) => progress.push(done) });
+    expect(studyRunStats.worker).toBe(before + 1);
+    const reference = runStudy(model, options);
+    expect(outcome.resultsJson).toBe(JSON.stringify(reference));
+    expect(outcome.buses).toBe(reference.buses.length);
+    expect(outcome.failed).toBe(reference.buses.filter((b) => b.status === 'error').length);
+    expect(progress[0]).toBe(0);
+  }, 60_000);
+
+  it('a stop request terminates the worker and rejects with the stop reason', async () => {
+    const controller = new AbortController();
+    const running = runStudyOffThread(
+      parsed(generatedPlant(30, 99)),
+      {},
+      {
+        signal: controller.signal,
+        stopError: () => new JobStopped('stopped for the test'),
+        onProgress: () => controller.abort(),
+      },
+    );
+    await expect(running).rejects.toThrow('stopped for the test');
+  }, 60_000);
+});
+
+describe('the API while a large study runs', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await makeTestApp();
+  }, 60_000);
+  afterAll(async () => {
+    await t.close();
+  });
+
+  it('answers the health check and run status while the run is in progress, then stores the results', async () => {
+    const eng = bearer(t.orgA.users.engineer.token);
+    const site = await request(t.app)
+      .post('/api/sites')
+      .set(...eng)
+      .send({ name: 'Worker yard' });
+    const study = await request(t.app)
+      .post(`/api/sites/${site.body.id}/studies`)
+      .set(...eng)
+      .send({ title: 'Worker run' });
+    const env = await request(t.app)
+      .get(`/api/studies/${study.body.id}/model`)
+      .set(...eng);
+    const put = await request(t.app)
+      .put(`/api/studies/${study.body.id}/model`)
+      .set(...eng)
+      .send({ model: generatedPlant(20, 99), version: env.body.version });
+    expect(put.status).toBe(200);
+    const run = await request(t.app)
+      .post(`/api/studies/${study.body.id}/run`)
+      .set(...eng);
+    expect(run.status).toBe(202);
+    let answeredWhileRunning = 0;
+    for (;;) {
+      const status = await request(t.app)
+        .get(`/api/studies/${study.body.id}/run`)
+        .set(...eng);
+      if (status.body.status === 'done' || status.body.status === 'failed') {
+        expect(status.body.status).toBe('done');
+        break;
+      }
+      const health = await request(t.app).get('/api/health');
+      expect(health.status).toBe(200);
+      if (status.body.status === 'running') answeredWhileRunning += 1;
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    expect(answeredWhileRunning).toBeGreaterThan(0);
+    await t.ctx.jobs.idle();
+    const results = await request(t.app)
+      .get(`/api/studies/${study.body.id}/results`)
+      .set(...eng);
+    expect(results.status).toBe(200);
+  }, 120_000);
+});
