@@ -17,7 +17,7 @@ import type { BusResult, StudyResults } from '../../shared/schemas/studyResults'
 import { StudyRun } from '../db/models';
 import type { AuthUser } from '../http/context';
 import { ApiError } from '../http/errors';
-import { findStudy } from './studies';
+import { findStudyHead } from './studies';
 
 /**
  * Study results served in pages (GET /studies/:id/results) and one bus at a time with its trace
@@ -55,7 +55,7 @@ function dateOf(v: Date | string): Date {
  * (no large column, no model instance). Null when there is none.
  */
 async function resultsRunOf(actor: AuthUser, studyId: string): Promise<{ id: string; dto: RunDto } | null> {
-  const study = await findStudy(actor, studyId);
+  const study = await findStudyHead(actor, studyId);
   const sql = study.approvedRunId
     ? `SELECT ${RUN_DTO_COLUMNS} FROM "study_runs" WHERE "id" = :runId AND "studyId" = :studyId AND "organizationId" = :organizationId`
     : `SELECT ${RUN_DTO_COLUMNS} FROM "study_runs" WHERE "studyId" = :studyId AND "organizationId" = :organizationId AND "status" = 'done' ORDER BY "startedAt" DESC LIMIT 1`;

@@ -117,6 +117,25 @@ export async function findStudy(actor: AuthUser, studyId: string, transaction?: 
   return study;
 }
 
+/**
+ * The same look-up and visibility rule as `findStudy`, reading only the columns a results request needs (never the
+ * model, which can be megabytes): for the routes every results page and bus goes through.
+ */
+export async function findStudyHead(
+  actor: AuthUser,
+  studyId: string,
+): Promise<{ id: string; status: string; approvedRunId: string | null }> {
+  const study = await Study.findOne({
+    where: { id: studyId, organizationId: actor.organizationId },
+    attributes: ['id', 'status', 'approvedRunId'],
+    raw: true,
+  });
+  if (!study || (actor.role === 'electrician' && !VISIBLE_TO_ELECTRICIANS.includes(study.status))) {
+    throw ApiError.notFound('No such study');
+  }
+  return { id: study.id, status: study.status, approvedRunId: study.approvedRunId ?? null };
+}
+
 async function findSiteOf(actor: AuthUser, siteId: string): Promise<Site> {
   const site = await Site.findOne({ where: { id: siteId, organizationId: actor.organizationId } });
   if (!site) throw ApiError.notFound('No such site');
