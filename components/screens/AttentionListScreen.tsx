@@ -15,7 +15,22 @@ import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, space } from '../theme';
-import { Button, cardStyle, Empty, Loading, Notice, QueryError, Screen, T, Table, ValueRow } from '../ui';
+import {
+  Button,
+  cardStyle,
+  Empty,
+  ListScreen,
+  Loading,
+  Notice,
+  QueryError,
+  T,
+  TableRowView,
+  tableRowFrame,
+  TableTop,
+  ValueRow,
+  type TableColumn,
+  type TableRow,
+} from '../ui';
 import { AttentionCaution, SiteFilter, useSiteParam } from './AttentionScreen';
 import { kindLabel } from './ReportsScreen';
 
@@ -115,8 +130,32 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
       .finally(() => setDownloading(false));
   };
 
+  const rows = d?.rows ?? [];
+  const tableColumns: TableColumn[] = d
+    ? [
+        ...d.columns.map((c) => ({
+          key: c.key,
+          label: c.label,
+          flex: columnFlex(c, d.rows),
+          numeric: c.kind === 'number',
+          mono: c.kind === 'date',
+        })),
+        { key: '__site', label: 'Site', flex: 1.6 },
+      ]
+    : [];
+  const tableRow = (r: AttentionRow): TableRow => ({
+    key: r.id,
+    href: rowHref(r),
+    testID: `attention-row-${r.id}`,
+    cells: {
+      ...Object.fromEntries((d?.columns ?? []).map((c) => [c.key, cellText(r.cells[c.key], c, list)])),
+      __site: r.siteName,
+    },
+  });
+
+  // The rows are items of a virtualized list: a table on wide screens, cards on a phone.
   return (
-    <Screen
+    <ListScreen
       title={d?.title ?? info.title}
       subtitle={d?.description ?? info.description}
       actions={
@@ -129,6 +168,20 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
           onPress={download}
         />
       }
+      data={rows}
+      keyExtractor={(r) => r.id}
+      renderItem={(r, i) =>
+        wide ? (
+          <View style={tableRowFrame(i, rows.length)}>
+            <TableRowView row={tableRow(r)} columns={tableColumns} />
+          </View>
+        ) : (
+          <View style={{ marginTop: space.md }}>
+            <RowCard row={r} columns={d?.columns ?? []} showSite={!siteId} list={list} />
+          </View>
+        )
+      }
+      listTestID={!wide && rows.length ? 'attention-cards-list' : undefined}
     >
       <Link
         href={siteId ? `/attention?siteId=${encodeURIComponent(siteId)}` : '/attention'}
@@ -152,37 +205,10 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
               {`Items appear here when there are ${info.title.toLowerCase()}${siteId ? ' at this site' : ''}. ${info.description}`}
             </Empty>
           ) : wide ? (
-            <Table
-              testID="attention-table"
-              columns={[
-                ...d.columns.map((c) => ({
-                  key: c.key,
-                  label: c.label,
-                  flex: columnFlex(c, d.rows),
-                  numeric: c.kind === 'number',
-                  mono: c.kind === 'date',
-                })),
-                { key: '__site', label: 'Site', flex: 1.6 },
-              ]}
-              rows={d.rows.map((r) => ({
-                key: r.id,
-                href: rowHref(r),
-                testID: `attention-row-${r.id}`,
-                cells: {
-                  ...Object.fromEntries(d.columns.map((c) => [c.key, cellText(r.cells[c.key], c, list)])),
-                  __site: r.siteName,
-                },
-              }))}
-            />
-          ) : (
-            <View style={{ gap: space.md }} testID="attention-cards-list">
-              {d.rows.map((r) => (
-                <RowCard key={r.id} row={r} columns={d.columns} showSite={!siteId} list={list} />
-              ))}
-            </View>
-          )}
+            <TableTop columns={tableColumns} testID="attention-table" />
+          ) : null}
         </>
       ) : null}
-    </Screen>
+    </ListScreen>
   );
 }

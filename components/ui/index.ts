@@ -12,4 +12,4 @@ export { MultiChoice } from './MultiChoice';
 export { Pill, type PillTone } from './Pill';
 export { PublicPage } from './PublicPage';
 export { Empty, errorText, Loading, QueryError } from './States';
-export { Table, type TableColumn, type TableRow } from './Table';
+export { Table, TableRowView, tableRowFrame, TableTop, type TableColumn, type TableRow } from './Table';
