@@ -10,6 +10,7 @@ import * as m005 from './migrations/005-attention-mail';
 import * as m006 from './migrations/006-audit-append-only';
 import * as m007 from './migrations/007-reminder-approvals';
 import * as m008 from './migrations/008-label-settings';
+import * as m009 from './migrations/009-study-run-dto-index';
 import { initModels } from './models';
 import { serializeSqliteWrites, type WriteQueue } from './writeQueue';
 
@@ -23,6 +24,7 @@ const MIGRATIONS = [
   { name: '006-audit-append-only', ...m006 },
   { name: '007-reminder-approvals', ...m007 },
   { name: '008-label-settings', ...m008 },
+  { name: '009-study-run-dto-index', ...m009 },
 ];
 
 export interface Db {
