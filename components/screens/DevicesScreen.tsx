@@ -7,7 +7,7 @@ import { useDeviceTypes } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Card, Choice, Notice, Screen, T } from '../ui';
+import { Button, Card, Choice, ListScreen, Notice, T } from '../ui';
 
 const KINDS = Object.keys(DEVICE_KIND_LABELS) as DeviceKind[];
 
@@ -37,47 +37,21 @@ export function DevicesScreen() {
   const [choosing, setChoosing] = useState(false);
   const shown = types.data?.filter((t) => filter === 'all' || t.kind === filter) ?? [];
 
+  // The library grows with every device type an organization adds: its cards are a virtualized list.
   return (
-    <Screen
+    <ListScreen
       title="Device library"
       subtitle="Protective devices and their trip bands: the clearing time of every label is read from one of these."
       actions={
         canEdit ? <Button title="New device type" testID="new-device" onPress={() => setChoosing((c) => !c)} /> : null
       }
-    >
-      {choosing ? (
-        <Card testID="choose-kind">
-          <T variant="subheading">What kind of device?</T>
-          <View style={{ flexDirection: wide ? 'row' : 'column', gap: space.sm, flexWrap: 'wrap' }}>
-            {KINDS.map((k) => (
-              <Button
-                key={k}
-                title={DEVICE_KIND_LABELS[k]}
-                kind="secondary"
-                testID={`new-${k}`}
-                onPress={() => router.push(`/devices/new?kind=${k}`)}
-              />
-            ))}
-          </View>
-        </Card>
-      ) : null}
-      <Choice
-        value={filter}
-        options={[{ value: 'all', label: 'All' }, ...KINDS.map((k) => ({ value: k, label: DEVICE_KIND_LABELS[k] }))]}
-        onChange={setFilter}
-        testID="kind-filter"
-      />
-      {types.error ? <Notice tone="error">{types.error.message}</Notice> : null}
-      {types.isLoading ? <T variant="small">Loading…</T> : null}
-      {types.data && shown.length === 0 ? <Notice>No device types of this kind yet.</Notice> : null}
-      <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.md }}>
-        {shown.map((t) => (
-          <Link key={t.id} href={`/devices/${t.id}`} asChild>
-            <Pressable
-              accessibilityRole="link"
-              style={{ flexBasis: wide ? '48%' : 'auto', flexGrow: 1 }}
-              testID={`device-${t.name}`}
-            >
+      data={shown}
+      keyExtractor={(t) => t.id}
+      numColumns={wide ? 2 : 1}
+      renderItem={(t) => (
+        <View style={{ flex: 1, marginTop: space.md }}>
+          <Link href={`/devices/${t.id}`} asChild>
+            <Pressable accessibilityRole="link" style={{ flexGrow: 1 }} testID={`device-${t.name}`}>
               <Card style={{ height: '100%' }}>
                 <View
                   style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}
@@ -105,8 +79,34 @@ export function DevicesScreen() {
               </Card>
             </Pressable>
           </Link>
-        ))}
-      </View>
-    </Screen>
+        </View>
+      )}
+    >
+      {choosing ? (
+        <Card testID="choose-kind">
+          <T variant="subheading">What kind of device?</T>
+          <View style={{ flexDirection: wide ? 'row' : 'column', gap: space.sm, flexWrap: 'wrap' }}>
+            {KINDS.map((k) => (
+              <Button
+                key={k}
+                title={DEVICE_KIND_LABELS[k]}
+                kind="secondary"
+                testID={`new-${k}`}
+                onPress={() => router.push(`/devices/new?kind=${k}`)}
+              />
+            ))}
+          </View>
+        </Card>
+      ) : null}
+      <Choice
+        value={filter}
+        options={[{ value: 'all', label: 'All' }, ...KINDS.map((k) => ({ value: k, label: DEVICE_KIND_LABELS[k] }))]}
+        onChange={setFilter}
+        testID="kind-filter"
+      />
+      {types.error ? <Notice tone="error">{types.error.message}</Notice> : null}
+      {types.isLoading ? <T variant="small">Loading…</T> : null}
+      {types.data && shown.length === 0 ? <Notice>No device types of this kind yet.</Notice> : null}
+    </ListScreen>
   );
 }

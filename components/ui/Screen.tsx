@@ -80,6 +80,7 @@ export function ListScreen<Item>({
   footer,
   initialNumToRender = 30,
   listTestID,
+  numColumns = 1,
 }: ScreenProps & {
   data: readonly Item[];
   keyExtractor: (item: Item) => string;
@@ -89,12 +90,19 @@ export function ListScreen<Item>({
   initialNumToRender?: number;
   /** A test id on the scrolling list (it holds the heading, the rows and the footer). */
   listTestID?: string;
+  /** Items side by side (a grid of cards); each row of the grid is as wide as the page column. */
+  numColumns?: number;
 }) {
   const { wide } = useLayout();
   useDocumentTitle(documentTitle ?? title);
   const column = { width: '100%', maxWidth, alignSelf: 'center' } as const;
+  const grid = numColumns > 1;
   return (
     <FlatList
+      // FlatList cannot change its column count in place: a new count is a new list.
+      key={`columns-${numColumns}`}
+      numColumns={numColumns}
+      columnWrapperStyle={grid ? [column, { gap: space.md }] : undefined}
       role="main"
       focusable
       style={{ flex: 1, backgroundColor: colors.canvas }}
@@ -104,7 +112,7 @@ export function ListScreen<Item>({
       // Rows may draw differently by width and by position (the first and last close a card): redraw on either change.
       extraData={`${wide}:${data.length}`}
       keyExtractor={keyExtractor}
-      renderItem={({ item, index }) => <View style={column}>{renderItem(item, index)}</View>}
+      renderItem={({ item, index }) => <View style={grid ? { flex: 1 } : column}>{renderItem(item, index)}</View>}
       initialNumToRender={initialNumToRender}
       maxToRenderPerBatch={initialNumToRender}
       ListHeaderComponent={
