@@ -23,7 +23,12 @@ const escape = (p) => p.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 module.exports = {
   testTimeout: 30000,
   projects: [
-    { ...base, displayName: 'engine', testMatch: ['<rootDir>/tests/engine/**/*.test.ts'] },
+    {
+      ...base,
+      displayName: 'engine',
+      testMatch: ['<rootDir>/tests/engine/**/*.test.ts'],
+      testPathIgnorePatterns: ['/node_modules/', '\\.slow\\.test\\.ts$'],
+    },
     {
       ...base,
       displayName: 'api',

@@ -4,6 +4,7 @@
 import { benchIncidentEnergy } from './incidentEnergy';
 import { benchShortCircuit } from './shortCircuit';
 import { benchLabels } from './labels';
+import { benchScaling, benchStudyApi10k } from './scaling';
 import { benchStudyThroughApi } from './study';
 import { benchTrip } from './trip';
 
@@ -18,6 +19,8 @@ const BENCHES: [string, () => Promise<BenchResult>][] = [
   ['trip', benchTrip],
   ['short-circuit', benchShortCircuit],
   ['study', benchStudyThroughApi],
+  ['scaling', benchScaling],
+  ['api-10k', benchStudyApi10k],
   ['labels', benchLabels],
 ];
 

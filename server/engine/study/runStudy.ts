@@ -752,6 +752,11 @@ export interface StudyRunner {
   /** Evaluates one bus; never throws for a problem of that bus alone (it is reported on the result). */
   runBus(busId: string): BusResult;
   finish(buses: BusResult[]): StudyResults;
+  /**
+   * Work counters (tests of how the run scales): the short-circuit solver's (faults solved, nodes solved, elements
+   * visited) and the edges and devices of the fault pictures built.
+   */
+  readonly work: { faults: number; nodeVisits: number; elementVisits: number; pictureVisits: number };
 }
 
 /** Builds the network once (short-circuit factorization), then evaluates bus by bus. Throws for an invalid model. */
@@ -782,6 +787,7 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
   });
   const busById = new Map(model.buses.map((b) => [b.id, b]));
   const busIds = model.buses.filter((b) => b.equipment).map((b) => b.id);
+  let pictureVisits = 0;
 
   function runBus(busId: string): BusResult {
     const bus = busById.get(busId);
@@ -815,6 +821,7 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
         });
       }
       const picture = faultPicture(pictureContext, bus);
+      pictureVisits += picture.edges.length + picture.devices.length + picture.contributors.length;
       warnings.push(...picture.warnings);
       equipment.typicalValuesUsed = [...equipment.typicalValuesUsed, ...picture.typicalValuesUsed];
       // The bus's own arc-duration cap (with its reason) replaces the study's; null: no cap, the clearing time stands
@@ -914,6 +921,9 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
     busIds,
     shortCircuitWarnings: solver.result.warnings,
     runBus,
+    get work() {
+      return { ...solver.work, pictureVisits };
+    },
     finish: (buses) => ({
       method:
         'IEEE 1584-2018 with the arc followed in time: generator decrement and motor decay, each device operating when the integral of dt / t(I) of its trip band reaches 1 (IEEE C37.112), energy added step by step',
