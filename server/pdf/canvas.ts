@@ -194,8 +194,8 @@ export class Canvas {
     );
   }
 
-  /** Fits `text` into a box `w` wide without drawing it. */
-  fit(text: string, w: number, opts: TextBoxOptions): FittedText & { height: number } {
+  /** Fits `text` into a box `w` wide without drawing it (in the font that prints it, see `fontFor`). */
+  fit(text: string, w: number, opts: TextBoxOptions): FittedText & { height: number; font: PDFFont } {
     const font = fontFor(text, opts.font);
     const floor = this.floorPt;
     const fitted = fitText(font, printable(text, font), {
@@ -204,16 +204,20 @@ export class Canvas {
       minSize: Math.max(opts.minSize ?? opts.size * 0.6, floor),
       maxLines: opts.maxLines ?? 1,
     });
-    return { ...fitted, height: fitted.lines.length * fitted.size * (opts.lineHeight ?? LINE_HEIGHT) };
+    return { ...fitted, font, height: fitted.lines.length * fitted.size * (opts.lineHeight ?? LINE_HEIGHT) };
   }
 
-  /** Draws fitted lines in a box `w` wide starting at `top`. */
-  drawFitted(fitted: FittedText, x: number, top: number, w: number, opts: TextBoxOptions): void {
+  /**
+   * Draws fitted lines in a box `w` wide starting at `top`, in the font they were fitted in (`fitted.font`, else
+   * the font `fontFor` picks for the lines, which is the same one: see `fontFor`).
+   */
+  drawFitted(fitted: FittedText & { font?: PDFFont }, x: number, top: number, w: number, opts: TextBoxOptions): void {
+    const font = fitted.font ?? fontFor(fitted.lines.join(' '), opts.font);
     const lh = fitted.size * (opts.lineHeight ?? LINE_HEIGHT);
     fitted.lines.forEach((line, i) => {
-      const lw = textWidth(opts.font, line, fitted.size);
+      const lw = textWidth(font, line, fitted.size);
       const dx = opts.align === 'center' ? (w - lw) / 2 : opts.align === 'right' ? w - lw : 0;
-      this.textAt(line, x + dx, top + i * lh + fitted.size * BASELINE, opts.font, fitted.size, opts.color);
+      this.textAt(line, x + dx, top + i * lh + fitted.size * BASELINE, font, fitted.size, opts.color);
     });
   }
 
@@ -221,9 +225,8 @@ export class Canvas {
    * Fits `text` into a box `w` wide starting at `top`, and draws it. Returns the fitted text and the height used.
    */
   text(text: string, x: number, top: number, w: number, opts: TextBoxOptions): FittedText & { height: number } {
-    const o = { ...opts, font: fontFor(text, opts.font) };
-    const fitted = this.fit(text, w, o);
-    this.drawFitted(fitted, x, top, w, o);
+    const fitted = this.fit(text, w, opts);
+    this.drawFitted(fitted, x, top, w, opts);
     return fitted;
   }
 }

@@ -105,7 +105,10 @@ class ReportWriter {
     const lh = size * LINE_HEIGHT;
     for (const line of fitted.lines) {
       this.ensure(lh);
-      this.cv.drawFitted({ lines: [line], size, truncated: false }, MARGIN_X + indent, this.y, w, { font, size });
+      this.cv.drawFitted({ lines: [line], size, truncated: false, font: fitted.font }, MARGIN_X + indent, this.y, w, {
+        font,
+        size,
+      });
       this.y += lh;
     }
     this.y += opts.after ?? 4;
