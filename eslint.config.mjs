@@ -25,5 +25,11 @@ export default defineConfig([
     files: ['server/**', 'tests/**', 'scripts/**', '*.config.js', '*.config.mjs'],
     languageOptions: { globals: { ...globals.node, ...globals.jest } },
   },
+  {
+    // Tool configuration files that their tools load as CommonJS (Metro, Babel, Jest): `require` is how they import.
+    files: ['metro.config.js', 'babel.config.js', 'jest.config.js'],
+    languageOptions: { sourceType: 'commonjs', globals: globals.node },
+    rules: { '@typescript-eslint/no-require-imports': 'off' },
+  },
   prettier,
 ]);

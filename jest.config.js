@@ -18,7 +18,7 @@ const base = {
   moduleFileExtensions: ['ts', 'js', 'json'],
 };
 const slowPaths = SLOW.map((p) => `<rootDir>/${p}`);
-const escape = (p) => p.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+const escapeRegExp = (p) => p.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
 module.exports = {
   testTimeout: 30000,
@@ -33,7 +33,7 @@ module.exports = {
       ...base,
       displayName: 'api',
       testMatch: ['<rootDir>/tests/{api,server}/**/*.test.ts'],
-      testPathIgnorePatterns: ['/node_modules/', '\\.slow\\.test\\.ts$', ...SLOW.map(escape)],
+      testPathIgnorePatterns: ['/node_modules/', '\\.slow\\.test\\.ts$', ...SLOW.map(escapeRegExp)],
     },
     { ...base, displayName: 'slow', testMatch: [...slowPaths, '<rootDir>/tests/**/*.slow.test.ts'] },
     {

@@ -7,14 +7,17 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { QueryTypes, Sequelize } from 'sequelize';
+import type { Response as SupertestResponse } from 'supertest';
 import { startChildServer, type ChildServer } from '../helpers/childServer';
 
 const DEMO_PASSWORD = 'jobs-restart-demo-pw';
+/** A JSON response body, read as loosely as supertest types its own (`Response['body']`). */
+type ApiBody = SupertestResponse['body'];
 const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-jobs-'));
 const started: ChildServer[] = [];
 let srv: ChildServer;
 let token = '';
-let labelIds: string[] = [];
+const labelIds: string[] = [];
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 async function start(env: Record<string, string> = {}): Promise<ChildServer> {
@@ -23,7 +26,7 @@ async function start(env: Record<string, string> = {}): Promise<ChildServer> {
   return s;
 }
 
-async function api(method: string, url: string, body?: unknown): Promise<{ status: number; body: any }> {
+async function api(method: string, url: string, body?: unknown): Promise<{ status: number; body: ApiBody }> {
   const res = await fetch(`${srv.baseUrl}/api${url}`, {
     method,
     headers: {
