@@ -54,7 +54,6 @@ export function makeFileKey(orgId: string | number, extension: string): string {
 
 /** A content type such as `image/png` or `text/plain; charset=utf-8`: no control characters, `type/subtype` form. */
 export function assertValidContentType(contentType: string): void {
-   
   if (
     typeof contentType !== 'string' ||
     contentType.length > 200 ||

@@ -24,7 +24,10 @@ export interface ClearingTrace {
   minimumElement: string | null;
   /** Which tolerance edge each curve uses. */
   toleranceEdge: { maximum: string; minimum: string };
-  elements: ({ element: string; region: TripRegion; maxS: number | null; minS: number | null } & Record<string, unknown>)[];
+  elements: ({ element: string; region: TripRegion; maxS: number | null; minS: number | null } & Record<
+    string,
+    unknown
+  >)[];
 }
 
 export interface ClearingTimeResult {
