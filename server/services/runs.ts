@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
-import { parseModel, type Model } from '../../shared/schemas/model';
+import { parseModel } from '../../shared/schemas/model';
 import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
@@ -82,12 +82,12 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
   try {
     ctx.jobs.throwIfStopping('study-run');
     await run.update({ status: 'running', message: 'Computing short-circuit currents', progress: 0.01 });
-    const model = JSON.parse(run.modelSnapshot) as Model;
     const settings = JSON.parse(run.settingsSnapshot) as RunSettings;
     // Computed in a worker thread (the API keeps answering); progress is written at most every 250 ms, one write at a time.
     let lastWrite = 0;
     let writing: Promise<unknown> = Promise.resolve();
-    const outcome = await runStudyOffThread(model, settings, {
+    // The model's JSON text goes to the worker as stored (parsed there).
+    const outcome = await runStudyOffThread(run.modelSnapshot, settings, {
       signal: ctx.jobs.signal,
       // A stopping server: the run fails now (no partial results), rather than hold up the shutdown.
       stopError: () => new JobStopped(STOPPED_BY_SHUTDOWN['study-run']),

@@ -22,7 +22,8 @@ const { parentPort, workerData } = require('node:worker_threads');
 try { require('tsx/cjs/api').register(); } catch (e) { /* already JavaScript */ }
 const { runAllBuses } = require(workerData.modulePath);
 try {
-  const outcome = runAllBuses(workerData.model, workerData.options, (done, total) =>
+  const model = typeof workerData.model === 'string' ? JSON.parse(workerData.model) : workerData.model;
+  const outcome = runAllBuses(model, workerData.options, (done, total) =>
     parentPort.postMessage({ type: 'progress', done, total }),
   );
   parentPort.postMessage({ type: 'done', outcome });
@@ -43,7 +44,7 @@ export const studyRunStats = { worker: 0, mainThread: 0 };
 
 class WorkerUnavailable extends Error {}
 
-function runInWorker(model: Model, options: StudyOptions, opts: StudyJobOptions): Promise<StudyRunOutcome> {
+function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJobOptions): Promise<StudyRunOutcome> {
   return new Promise((resolve, reject) => {
     const stopped = () => opts.stopError?.() ?? new Error('The study run was stopped');
     if (opts.signal?.aborted) {
@@ -57,7 +58,8 @@ function runInWorker(model: Model, options: StudyOptions, opts: StudyJobOptions)
         // Plain JSON across the thread boundary.
         workerData: {
           modulePath: path.join(__dirname, '..', 'engine', 'study', 'runAll'),
-          model: JSON.parse(JSON.stringify(model)) as unknown,
+          // The model's JSON text as stored is passed as is (parsed in the worker, not here).
+          model: typeof model === 'string' ? model : (JSON.parse(JSON.stringify(model)) as unknown),
           options: JSON.parse(JSON.stringify(options)) as unknown,
         },
         resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
@@ -100,8 +102,12 @@ function runInWorker(model: Model, options: StudyOptions, opts: StudyJobOptions)
 }
 
 /** The same run in the main thread, bus by bus, yielding to the event loop and checking the stop request. */
-async function runInMainThread(model: Model, options: StudyOptions, opts: StudyJobOptions): Promise<StudyRunOutcome> {
-  const runner = createStudyRunner(model, options);
+async function runInMainThread(
+  model: Model | string,
+  options: StudyOptions,
+  opts: StudyJobOptions,
+): Promise<StudyRunOutcome> {
+  const runner = createStudyRunner(typeof model === 'string' ? (JSON.parse(model) as Model) : model, options);
   const total = runner.busIds.length;
   const buses = [];
   let last = Date.now();
@@ -125,7 +131,8 @@ async function runInMainThread(model: Model, options: StudyOptions, opts: StudyJ
 
 /** A whole study run off the main thread (in the main thread only when no worker can start). */
 export async function runStudyOffThread(
-  model: Model,
+  /** The model, or its JSON text (as stored on the run: parsed in the worker). */
+  model: Model | string,
   options: StudyOptions,
   opts: StudyJobOptions = {},
 ): Promise<StudyRunOutcome> {
