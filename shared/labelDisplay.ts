@@ -202,6 +202,17 @@ export function clearedByText(d: DisplayValue): string {
   return d.secondary ? `${d.value} — ${d.secondary}` : d.value;
 }
 
+/**
+ * The arc-duration cap that applied at a bus, s: the one its result records (the study's or the bus's own; null
+ * where the bus has none), else — results from before the record — the study's.
+ */
+export function busArcDurationCapS(
+  b: { arcDurationCap?: { capS: number | null } | null },
+  studyMaxArcDurationMs: number,
+): number | null {
+  return b.arcDurationCap ? b.arcDurationCap.capS : studyMaxArcDurationMs / 1000;
+}
+
 // ---------------------------------------------------------------------------------------------
 // Whole label
 

@@ -6,6 +6,7 @@ import type { Device } from '../../shared/schemas/device';
 import type { BandCurvesResponse } from '../../shared/schemas/deviceLibrary';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
 import { REGION_LABELS } from '../../shared/tripRegions';
+import { busArcDurationCapS, clearedByCaption, clearedByDisplay, clearedByText } from '../../shared/labelDisplay';
 import { apiFetch } from '../../hooks/api';
 import { queryKeys } from '../../hooks/queryKeys';
 import { useBusResult } from '../../hooks/results';
@@ -22,9 +23,36 @@ const caseKey = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) => `${c.location
 const caseTitle = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) =>
   `${c.arcCase === 'full' ? 'Full' : 'Reduced'} arcing current${c.location === 'line-side' ? ', line side of the main' : ''}`;
 
-function LabelPreview({ b }: { b: BusResult }) {
+/**
+ * The bus's clearing in the label's words: "Cleared by" the device that ends the governing arc (with its name and
+ * the governing case), or "Arc clearing: No device clears within 2 s — arc duration limited to 2 s".
+ */
+function clearingOf(b: BusResult, studyMaxArcDurationMs: number): { caption: string; text: string } {
+  const governing = b.governing ? b.cases.find((c) => caseKey(c) === caseKey(b.governing!)) : undefined;
+  const deviceName = (id: string) => {
+    const name = governing?.devices.find((d) => d.deviceId === id)?.name;
+    return name && name !== id ? `${id} (${name})` : id;
+  };
+  const clearingDevice = b.clearingDeviceId ? deviceName(b.clearingDeviceId) : null;
+  // With several sources, the devices that cut off the other sources (as on the label).
+  const others = new Set<string>();
+  for (const src of governing?.sources ?? [])
+    if (src.reason === 'device' && src.cutByDeviceId && src.cutByDeviceId !== governing?.clearingDeviceId)
+      others.add(src.cutByDeviceId);
+  const governingCase = b.governing ? caseTitle(b.governing).replace(/^./, (ch) => ch.toLowerCase()) : '';
+  const display = clearedByDisplay({
+    clearingDevice,
+    governingCase,
+    otherSourcesClearedBy: [...others].map(deviceName),
+    arcDurationCapS: busArcDurationCapS(b, studyMaxArcDurationMs),
+  });
+  return { caption: clearedByCaption({ clearingDevice }), text: clearedByText(display) };
+}
+
+function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; studyMaxArcDurationMs: number }) {
   const lv = b.labelValues!;
   const panel = signalPanelColors(lv.signalWord);
+  const clearing = clearingOf(b, studyMaxArcDurationMs);
   return (
     <View
       style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }}
@@ -75,8 +103,10 @@ function LabelPreview({ b }: { b: BusResult }) {
         <ValueRow label="Gloves">
           <T>{lv.gloveClass ? `Class ${lv.gloveClass.class}` : '—'}</T>
         </ValueRow>
-        <ValueRow label="Clearing device">
-          <T style={{ fontFamily: fonts.numbersBold }}>{b.clearingDeviceId ?? 'none before the cap'}</T>
+        <ValueRow label={clearing.caption}>
+          <T style={{ fontFamily: fonts.textBold }} testID="bus-cleared-by">
+            {clearing.text}
+          </T>
         </ValueRow>
       </View>
     </View>
@@ -381,13 +411,17 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
             {detail}
           </View>
           <View style={{ flex: 1, gap: space.lg }}>
-            {bus.labelValues ? <LabelPreview b={bus} /> : null}
+            {bus.labelValues ? (
+              <LabelPreview b={bus} studyMaxArcDurationMs={results.data!.study.maxArcDurationMs} />
+            ) : null}
             <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={bus.incidentEnergyCalPerCm2} />
           </View>
         </View>
       ) : (
         <>
-          {bus.labelValues ? <LabelPreview b={bus} /> : null}
+          {bus.labelValues ? (
+            <LabelPreview b={bus} studyMaxArcDurationMs={results.data!.study.maxArcDurationMs} />
+          ) : null}
           {plot}
           {detail}
           <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={bus.incidentEnergyCalPerCm2} />

@@ -12,7 +12,14 @@ import type { StudyDto } from '../../shared/schemas/studies';
 import { useResultsPage } from '../../hooks/results';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt } from '../../hooks/units';
-import { formatBoundary, formatCalPerCm2 } from '../../shared/labelDisplay';
+import {
+  busArcDurationCapS,
+  clearedByDisplay,
+  clearedByLine,
+  clearedByText,
+  formatBoundary,
+  formatCalPerCm2,
+} from '../../shared/labelDisplay';
 import { Cautions } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space, touch } from '../theme';
@@ -56,6 +63,18 @@ function SignalChip({ b }: { b: BusResultRow }) {
       <T style={{ color: p.text, fontFamily: fonts.textBold, fontSize: 12 }}>{b.labelValues.signalWord}</T>
     </View>
   );
+}
+
+/**
+ * What ends the bus's governing arc, in the label's words: the device, or "No device clears within 2 s — arc
+ * duration limited to 2 s" (the cap that applied at the bus).
+ */
+function clearedByOf(b: BusResultRow, studyMaxArcDurationMs: number) {
+  return clearedByDisplay({
+    clearingDevice: b.clearingDeviceId ?? null,
+    governingCase: '',
+    arcDurationCapS: busArcDurationCapS(b, studyMaxArcDurationMs),
+  });
 }
 
 const COLS: { key: string; label: string; flex: number }[] = [
@@ -318,7 +337,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                     {fmt(b.governingArcingCurrentKa)}
                   </T>
                   <T style={{ flex: 1.2, fontFamily: fonts.numbers, fontSize: 14 }}>
-                    {b.status === 'error' ? '—' : (b.clearingDeviceId ?? 'none (capped)')}
+                    {b.status === 'error' ? '—' : clearedByText(clearedByOf(b, data.study.maxArcDurationMs))}
                   </T>
                   <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(b.arcDurationS)}</T>
                   <T style={{ flex: 0.9, fontFamily: fonts.numbersBold, fontSize: 15 }}>
@@ -386,7 +405,11 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                         bold
                       />
                       <T variant="small">
-                        {b.clearingDeviceId ?? 'capped'} · {fmt(b.arcDurationS)} s ·{' '}
+                        {clearedByLine(
+                          { clearingDevice: b.clearingDeviceId ?? null },
+                          clearedByOf(b, data.study.maxArcDurationMs),
+                        )}{' '}
+                        · {fmt(b.arcDurationS)} s ·{' '}
                         {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm) : ''}
                       </T>
                     </View>

@@ -8,6 +8,7 @@
  * (common practice, no source).
  */
 import {
+  busArcDurationCapS,
   clearedByDisplay,
   clearedByText,
   feetInchesUp,
@@ -135,6 +136,15 @@ describe('the label display', () => {
     const none = clearedByDisplay({ ...base, clearingDevice: null, arcDurationCapS: 2 });
     expect(none.value).toBe('No device clears within 2 s — arc duration limited to 2 s');
     expect(clearedByText(none)).not.toMatch(/Cleared by No device/);
+  });
+
+  it('the cap a bus result names: the one the run recorded at the bus (its own, or none), else the study cap', () => {
+    expect(busArcDurationCapS({ arcDurationCap: { capS: 0.5 } }, 2000)).toBe(0.5);
+    expect(busArcDurationCapS({ arcDurationCap: { capS: null } }, 2000)).toBeNull();
+    expect(busArcDurationCapS({}, 2000)).toBe(2);
+    expect(
+      clearedByText(clearedByDisplay({ ...base, clearingDevice: null, governingCase: '', arcDurationCapS: 0.5 })),
+    ).toBe('No device clears within 0.5 s — arc duration limited to 0.5 s');
   });
 });
 

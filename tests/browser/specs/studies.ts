@@ -86,6 +86,13 @@ export const specs: Spec[] = [
         await page.getByTestId('results-next').click();
         await page.getByTestId('result-SUB-0').waitFor();
         assert((await page.getByTestId('results-page').innerText()).includes('Page 2 of 2'), 'on page 2');
+        // The substations' switchgear: no device clears before the 2 s cap, in the label's words.
+        assert(
+          (await page.getByTestId('result-SUB-0').innerText()).includes(
+            'No device clears within 2 s — arc duration limited to 2 s',
+          ),
+          'SUB-0: no device clears within the cap',
+        );
         assert((await page.getByTestId('result-MCC-0-0').count()) === 0, 'MCC-0-0 is not on page 2');
         // Energy, highest first: the substations' switchgear (its arc capped at 2 s) comes first, on page 1.
         // On a phone the controls are folded away until asked for.
@@ -136,6 +143,15 @@ export const specs: Spec[] = [
         `governing line-side case cleared by R-TX1 (${text})`,
       );
       await page.getByTestId('caution-no-ppe').waitFor();
+      // The label preview says what ends the governing arc in the label's words: at USS-1 no device clears it
+      // before the study's 2 s cap (the trace's arc duration is capped), so "Arc clearing", not "Cleared by".
+      const cleared = await page.getByTestId('bus-label-values').innerText();
+      assert(
+        cleared.includes('Arc clearing') &&
+          cleared.includes('No device clears within 2 s — arc duration limited to 2 s — reduced arcing current') &&
+          !/cleared by|before the cap/i.test(cleared),
+        `label preview: no device clears within the cap ${JSON.stringify(cleared)}`,
+      );
       await page.waitForTimeout(800);
       await h.shot(page, `trace-USS-1-${label}`);
       await page.close();
