@@ -168,8 +168,11 @@ export const LABEL_STATUS_NOTICES: Record<LabelStatus, string> = {
 
 /** When no device clears before the arc-duration cap: "No device clears within 2 s — arc duration limited to 2 s". */
 export function noDeviceClearsText(capS: number | null | undefined): string {
-  if (capS === undefined || capS === null || !Number.isFinite(capS))
-    return 'No device clears before the arc-duration limit — arc duration limited to it';
+  // null: the bus has no cap (such a bus gets an error, not a label, when nothing clears); undefined: a label issued
+  // before the cap was recorded on it.
+  if (capS === null) return 'No device clears the arc, and no arc-duration limit applies';
+  if (capS === undefined || !Number.isFinite(capS))
+    return "No device clears within the study's arc-duration limit — arc duration limited to that limit";
   const cap = `${Number(capS.toPrecision(3))} s`;
   return `No device clears within ${cap} — arc duration limited to ${cap}`;
 }

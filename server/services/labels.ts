@@ -3,7 +3,7 @@ import { Op, type Transaction } from 'sequelize';
 import { REPORT_KINDS } from '../../shared/schemas/fieldReports';
 import type { LabelCheck, LabelContent, LabelDto, LabelStatus } from '../../shared/schemas/labels';
 import { LABEL_CODE_ALPHABET, isLabelCode, normalizeLabelCode, parseLabelCode } from '../../shared/labelCode';
-import { LABEL_STATUS_NOTICES, labelDisplay, type UnitOrder } from '../../shared/labelDisplay';
+import { busArcDurationCapS, LABEL_STATUS_NOTICES, labelDisplay, type UnitOrder } from '../../shared/labelDisplay';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { FieldReport, Label, Site, type Study, User } from '../db/models';
 import type { AppContext, AuthUser } from '../http/context';
@@ -97,7 +97,7 @@ export function labelContents(
         approvedBy: `${study.approverName ?? ''}, licence ${study.licenceNumber ?? ''} (${study.jurisdiction ?? ''})`,
         caution: LABEL_CAUTION,
         otherSourcesClearedBy: governing ? otherSourcesClearedBy(governing) : [],
-        arcDurationCapS: results.maxArcDurationMs / 1000,
+        arcDurationCapS: busArcDurationCapS(b, results.maxArcDurationMs),
         ppeDescription: lv.noAdequatePpe ? null : (lv.ppeLevel?.description ?? null),
         ...(unitOrder ? { unitOrder } : {}),
       },

@@ -47,7 +47,11 @@ export const labelContentSchema = z
       .describe(
         'With several sources: the devices that cut off the sources other than the one the clearing device ends',
       ),
-    arcDurationCapS: z.number().optional().describe('The arc-duration cap of the study, s'),
+    arcDurationCapS: z
+      .number()
+      .nullable()
+      .optional()
+      .describe("The arc-duration cap that applied at this bus (its own or the study's), s; null: none"),
     ppeDescription: z.string().nullable().optional().describe('The clothing and equipment of the PPE level'),
     unitOrder: z.enum(['us-first', 'si-first']).optional().describe('Units printed first: US customary or SI'),
   })

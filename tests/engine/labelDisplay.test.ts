@@ -22,6 +22,7 @@ import {
   labelDisplay,
   metresUp,
   minimumArcRatingDisplay,
+  noDeviceClearsText,
 } from '../../shared/labelDisplay';
 import { normalizeLabelCode, parseLabelCode } from '../../shared/labelCode';
 import type { LabelContent } from '../../shared/schemas/labels';
@@ -136,6 +137,14 @@ describe('the label display', () => {
     const none = clearedByDisplay({ ...base, clearingDevice: null, arcDurationCapS: 2 });
     expect(none.value).toBe('No device clears within 2 s — arc duration limited to 2 s');
     expect(clearedByText(none)).not.toMatch(/Cleared by No device/);
+  });
+
+  it('says which limit ended the arc: the bus cap in seconds, no limit at all, or the study limit on old labels', () => {
+    // The product's wording (no source): the number is the cap recorded at the bus, never another bus's or a guess.
+    expect(noDeviceClearsText(5)).toBe('No device clears within 5 s — arc duration limited to 5 s');
+    expect(noDeviceClearsText(null)).not.toMatch(/limited to/);
+    expect(noDeviceClearsText(undefined)).toMatch(/study's arc-duration limit/);
+    expect(noDeviceClearsText(undefined)).not.toMatch(/limited to it$/);
   });
 
   it('the cap a bus result names: the one the run recorded at the bus (its own, or none), else the study cap', () => {
