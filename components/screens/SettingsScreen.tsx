@@ -12,13 +12,16 @@ interface LevelRow {
   description: string;
 }
 
-/** Organization settings (admin): review interval, signal-word rule, site PPE levels, arc-duration cap. */
+/**
+ * Organization settings (admin): review interval, signal-word rule, site PPE levels, arc-duration cap, motor decay.
+ */
 export function SettingsScreen() {
   const org = useOrganization();
   const save = useUpdateSettings();
   const [review, setReview] = useState('60');
   const [danger, setDanger] = useState('40');
   const [cap, setCap] = useState('2000');
+  const [motorDecay, setMotorDecay] = useState<OrganizationSettings['motorDecayModel']>('step');
   const [independent, setIndependent] = useState<'yes' | 'no'>('no');
   const [unitOrder, setUnitOrder] = useState<'us-first' | 'si-first'>('si-first');
   const [notInstalled, setNotInstalled] = useState('30');
@@ -35,6 +38,7 @@ export function SettingsScreen() {
     setReview(String(s.reviewIntervalMonths));
     setDanger(String(s.signalWord.dangerAboveCalPerCm2));
     setCap(String(s.maxArcDurationMs));
+    setMotorDecay(s.motorDecayModel);
     setIndependent(s.requireIndependentApprover ? 'yes' : 'no');
     setUnitOrder(s.labelUnitOrder);
     setNotInstalled(String(s.notInstalledAfterDays));
@@ -50,6 +54,7 @@ export function SettingsScreen() {
       reviewIntervalMonths: Number(review),
       signalWord: { dangerAboveCalPerCm2: Number(danger) },
       maxArcDurationMs: Number(cap),
+      motorDecayModel: motorDecay,
       requireIndependentApprover: independent === 'yes',
       labelUnitOrder: unitOrder,
       notInstalledAfterDays: notInstalled.trim() === '' ? Number.NaN : Number(notInstalled),
@@ -130,6 +135,27 @@ export function SettingsScreen() {
           onChange={setIndependent}
           testID="independent"
         />
+      </Card>
+      <Card testID="motor-decay-settings">
+        <T variant="subheading">Motor contribution</T>
+        <Choice
+          label="A motor’s contribution to the arc over its decay time"
+          value={motorDecay}
+          options={[
+            { value: 'step', label: 'Full, then stops (default)' },
+            { value: 'exponential', label: 'Decays exponentially' },
+          ]}
+          onChange={setMotorDecay}
+          testID="motor-decay-model"
+        />
+        {errors.motorDecayModel ? <Notice tone="error">{errors.motorDecayModel}</Notice> : null}
+        <T variant="small">
+          Full, then stops (default): each motor feeds its full first-cycle current until its decay time, then nothing —
+          the higher current while it lasts. Decays exponentially: the current falls as e^(−t/τ), τ the decay time, and
+          is dropped after 5 τ, so a smaller current flows for longer; where a motor keeps the arc going or slows a
+          device, this can give the higher energy. Neither is always higher: where motors matter, run both and keep the
+          higher. Applies to runs started from now on; each run’s report states the model it used.
+        </T>
       </Card>
       <Card testID="attention-settings">
         <T variant="subheading">Attention and reminders</T>

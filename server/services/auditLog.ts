@@ -68,6 +68,7 @@ const KEY_WORDS: Record<string, string> = {
   notInstalledAfterDays: 'not installed after (days)',
   reminderHourUtc: 'reminder hour (UTC)',
   maxArcDurationMs: 'arc duration cap (ms)',
+  motorDecayModel: 'motor contribution decay',
   requireIndependentApprover: 'independent approver',
   expiresAt: 'expires',
 };

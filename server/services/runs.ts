@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
 import { parseModel } from '../../shared/schemas/model';
+import type { OrganizationSettings } from '../../shared/schemas/organization';
 import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
@@ -16,6 +17,8 @@ import { runStudyOffThread } from './studyWorker';
 interface RunSettings {
   maxArcDurationMs: number;
   motorDecayCycles: number;
+  /** The organization's choice; absent in runs started before the setting existed (the engine's default, step). */
+  motorDecayModel?: OrganizationSettings['motorDecayModel'];
   labelSettings: ReturnType<typeof labelSettingsOf>;
 }
 
@@ -40,6 +43,7 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
   const runSettings: RunSettings = {
     maxArcDurationMs: settings.maxArcDurationMs,
     motorDecayCycles: DEFAULT_MOTOR_DECAY_CYCLES,
+    motorDecayModel: settings.motorDecayModel,
     labelSettings: labelSettingsOf(settings),
   };
   const run = await ctx.db.sequelize.transaction(async (transaction) => {

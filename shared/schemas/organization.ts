@@ -61,6 +61,12 @@ export const organizationSettingsSchema = z
       .max(10_000)
       .default(2000)
       .describe('Cap of the arc duration (IEEE 1584 2 s guidance)'),
+    motorDecayModel: z
+      .enum(['step', 'exponential'], { error: "Choose 'step' or 'exponential'" })
+      .default('step')
+      .describe(
+        'Motor contribution: step (full first-cycle current until the decay time, then none) or exponential (e^(−t/τ), τ the decay time, dropped after 5 τ). Neither is always the higher energy.',
+      ),
     requireIndependentApprover: z.boolean().default(false).describe('The approver must differ from the last editor'),
     notInstalledAfterDays: z
       .number()
