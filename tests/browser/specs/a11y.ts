@@ -220,7 +220,7 @@ export const specs: Spec[] = ROLES.flatMap(({ email, role, screens }) =>
             failures.push(`${screen.name}: did not load (${(e as Error).message.split('\n')[0]})`);
             continue;
           }
-          if (['study model', 'audit log', 'devices', 'attention list'].includes(screen.name)) {
+          if (['study model', 'audit log', 'devices', 'attention list', 'settings'].includes(screen.name)) {
             await h.shot(page, `a11y-${screen.name.replace(/ /g, '-')}-${size}`);
           }
           if (screen.name === 'home' && email) {
