@@ -280,7 +280,9 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
           {data.total} of {data.summary.buses} buses{data.total ? ` · showing ${first}–${last}` : ''} ·{' '}
           {data.summary.bySignalWord.DANGER} DANGER, {data.summary.bySignalWord.WARNING} WARNING
           {data.summary.errors ? `, ${data.summary.errors} not evaluated` : ''} · arc duration capped at{' '}
-          {fmt(data.study.maxArcDurationMs / 1000)} s · run {data.run.finishedAt?.slice(0, 16).replace('T', ' ')}
+          {fmt(data.study.maxArcDurationMs / 1000)} s · motors{' '}
+          {data.study.motorDecayModel === 'exponential' ? 'decay exponentially' : 'full, then stop'} · run{' '}
+          {data.run.finishedAt?.slice(0, 16).replace('T', ' ')}
         </T>
       </Card>
       {data.total === 0 ? <Notice>No bus matches these filters.</Notice> : null}
