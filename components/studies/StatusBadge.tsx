@@ -8,7 +8,7 @@ const TONES = {
   draft: { bg: colors.lineSoft, fg: colors.inkSoft },
   'in-review': { bg: colors.accentSoft, fg: colors.accent },
   approved: { bg: colors.okSoft, fg: colors.ok },
-  superseded: { bg: colors.lineSoft, fg: colors.muted },
+  superseded: { bg: colors.lineSoft, fg: colors.inkSoft },
 } as const;
 
 function Pill({ label, bg, fg, testID }: { label: string; bg: string; fg: string; testID?: string }) {
