@@ -38,8 +38,13 @@ async function generatedStudy(h: Harness): Promise<string> {
     method: 'POST',
     body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
   });
-  const { sites } = await api<{ sites: { id: string }[] }>('/sites', { token });
-  const study = await api<{ id: string }>(`/sites/${sites[0].id}/studies`, {
+  // A site of its own, so no demo site gets a draft revision that another spec would trip over.
+  const site = await api<{ id: string }>('/sites', {
+    method: 'POST',
+    token,
+    body: { name: 'Generated test plant (invented)' },
+  });
+  const study = await api<{ id: string }>(`/sites/${site.id}/studies`, {
     method: 'POST',
     token,
     body: { title: 'Generated plant, paged results' },
