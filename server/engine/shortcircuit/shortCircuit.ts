@@ -518,22 +518,7 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
     if (wantedTies.length > 0) {
       const tieCurrents = tieCurrentsA(b, faultPhasorA, sRe, sIm, gRe, gIm);
       for (const i of wantedTies) {
-        const tie = netTies[i];
-        const phasor = tieCurrents.get(i) ?? { re: 0, im: 0 };
-        const magnitude = Math.hypot(phasor.re, phasor.im);
-        const dir = direction(phasor.re, phasor.im, magnitude, faultPhasorA, cAbs(faultPhasorA));
-        branches.push({
-          id: tie.id,
-          kind: 'tie',
-          fromBus: busIds[tie.fromBus],
-          toBus: busIds[tie.toBus],
-          fromCurrentA: magnitude,
-          toCurrentA: magnitude,
-          fromPhasorA: phasor,
-          toPhasorA: { ...phasor },
-          direction: dir,
-          towardBus: dir === 'none' ? null : dir === 'from-to' ? busIds[tie.toBus] : busIds[tie.fromBus],
-        });
+        branches.push(tieFaultCurrent(i, tieCurrents.get(i) ?? { re: 0, im: 0 }, faultPhasorA));
       }
     }
 
@@ -544,6 +529,25 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
       faultPhasorA,
       branches,
       injections,
+    };
+  }
+
+  /** The row of a closed tie carrying `phasor` (the same current at both ends), with its direction of flow. */
+  function tieFaultCurrent(i: number, phasor: Phasor, faultPhasorA: Phasor): BranchFaultCurrent {
+    const tie = netTies[i];
+    const magnitude = Math.hypot(phasor.re, phasor.im);
+    const dir = direction(phasor.re, phasor.im, magnitude, faultPhasorA, cAbs(faultPhasorA));
+    return {
+      id: tie.id,
+      kind: 'tie',
+      fromBus: busIds[tie.fromBus],
+      toBus: busIds[tie.toBus],
+      fromCurrentA: magnitude,
+      toCurrentA: magnitude,
+      fromPhasorA: phasor,
+      toPhasorA: { ...phasor },
+      direction: dir,
+      towardBus: dir === 'none' ? null : dir === 'from-to' ? busIds[tie.toBus] : busIds[tie.fromBus],
     };
   }
 
@@ -740,21 +744,7 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
         }
         tieOut.sort((x, y) => x[0] - y[0]);
         for (const [i, phasor] of tieOut) {
-          const tie = netTies[i];
-          const magnitude = Math.hypot(phasor.re, phasor.im);
-          const dir = direction(phasor.re, phasor.im, magnitude, faultPhasorA, cAbs(faultPhasorA));
-          branches.push({
-            id: tie.id,
-            kind: 'tie',
-            fromBus: busIds[tie.fromBus],
-            toBus: busIds[tie.toBus],
-            fromCurrentA: magnitude,
-            toCurrentA: magnitude,
-            fromPhasorA: phasor,
-            toPhasorA: { ...phasor },
-            direction: dir,
-            towardBus: dir === 'none' ? null : dir === 'from-to' ? busIds[tie.toBus] : busIds[tie.fromBus],
-          });
+          branches.push(tieFaultCurrent(i, phasor, faultPhasorA));
         }
       }
     }
