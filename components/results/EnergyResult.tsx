@@ -6,6 +6,7 @@ import { HazardMark } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space } from '../theme';
 import { Card, Notice, Num, T, ValueRow } from '../ui';
+import { ArcRating } from '../labels/ArcRating';
 
 /** Why the governing case governs, in one sentence. */
 function governingSentence(r: IncidentEnergyResult): string {
@@ -83,7 +84,7 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
           <Num value={fmtLength(result.arcFlashBoundaryMm, unit)} />
         </ValueRow>
         <ValueRow label="Minimum arc rating of clothing">
-          <Num value={String(lv.minimumArcRatingCalPerCm2)} unit="cal/cm²" />
+          <ArcRating calPerCm2={lv.incidentEnergyCalPerCm2} />
         </ValueRow>
         <ValueRow label="PPE level (organization)">
           <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel ? lv.ppeLevel.name : 'Above every level'}</T>

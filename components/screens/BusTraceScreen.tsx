@@ -6,7 +6,15 @@ import type { Device } from '../../shared/schemas/device';
 import type { BandCurvesResponse } from '../../shared/schemas/deviceLibrary';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
 import { REGION_LABELS } from '../../shared/tripRegions';
-import { busArcDurationCapS, clearedByCaption, clearedByDisplay, clearedByText } from '../../shared/labelDisplay';
+import {
+  busArcDurationCapS,
+  clearedByCaption,
+  clearedByDisplay,
+  clearedByText,
+  formatBoundary,
+  formatCalPerCm2,
+  formatJPerCm2,
+} from '../../shared/labelDisplay';
 import { apiFetch } from '../../hooks/api';
 import { queryKeys } from '../../hooks/queryKeys';
 import { useBusResult } from '../../hooks/results';
@@ -18,6 +26,7 @@ import { signalPanelColors } from '../../shared/safetyColors';
 import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
 import { colors, fonts, radius, space } from '../theme';
 import { Card, Choice, Notice, Num, Screen, T, ValueRow } from '../ui';
+import { ArcRating } from '../labels/ArcRating';
 
 const caseKey = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) => `${c.location}:${c.arcCase}`;
 const caseTitle = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) =>
@@ -73,17 +82,20 @@ function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; studyMaxArcD
       <View style={{ backgroundColor: colors.surface, padding: space.md, gap: 2 }}>
         <T variant="label">INCIDENT ENERGY AT {fmtLength(lv.workingDistanceMm, 'in').toUpperCase()}</T>
         <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' }}>
-          <Num value={fmt(lv.incidentEnergyCalPerCm2)} unit="cal/cm²" size={32} bold testID="trace-energy" />
-          <Num value={fmt(lv.incidentEnergyJPerCm2)} unit="J/cm²" size={16} />
+          <Num
+            value={formatCalPerCm2(lv.incidentEnergyCalPerCm2)}
+            unit="cal/cm²"
+            size={32}
+            bold
+            testID="trace-energy"
+          />
+          <Num value={formatJPerCm2(lv.incidentEnergyJPerCm2)} unit="J/cm²" size={16} />
         </View>
         <ValueRow label="Arc-flash boundary">
-          <Num
-            value={`${fmtLength(lv.arcFlashBoundaryMm, 'in')} (${fmtLength(lv.arcFlashBoundaryMm, 'mm')})`}
-            size={14}
-          />
+          <Num value={formatBoundary(lv.arcFlashBoundaryMm)} size={14} />
         </ValueRow>
         <ValueRow label="Minimum arc rating">
-          <Num value={String(lv.minimumArcRatingCalPerCm2)} unit="cal/cm²" size={14} />
+          <ArcRating calPerCm2={lv.incidentEnergyCalPerCm2} size={14} />
         </ValueRow>
         <ValueRow label="PPE level">
           <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel?.name ?? 'None adequate'}</T>
