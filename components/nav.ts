@@ -1,5 +1,6 @@
 import type { Href } from 'expo-router';
 import { Platform } from 'react-native';
+import { can, type Capability } from '../shared/permissions';
 import type { Role } from '../shared/schemas/common';
 
 /** A path inside the app, checked against Expo Router's generated route types. */
@@ -10,29 +11,30 @@ export interface NavItem {
   label: string;
   /** A single glyph drawn in the navigation (no icon font needed). */
   glyph: string;
-  roles: readonly Role[] | 'all';
+  /** Shown only to the roles with this capability (shared/permissions.ts); everyone else when absent. */
+  capability?: Capability;
 }
 
-/** The navigation, in order. Items appear for the roles that use them. */
+/** The navigation, in order. Items appear for the roles that may use them. */
 export const NAV_ITEMS: NavItem[] = [
-  { href: '/', label: 'Home', glyph: '⌂', roles: 'all' },
-  { href: '/attention', label: 'Attention', glyph: '◈', roles: ['admin', 'engineer', 'safety'] },
-  { href: '/sites', label: 'Sites', glyph: '▦', roles: 'all' },
-  { href: '/labels', label: 'Labels', glyph: '▤', roles: 'all' },
-  { href: '/scan', label: 'Scan', glyph: '⌖', roles: ['electrician', 'engineer', 'safety'] },
-  { href: '/reports', label: 'Reports', glyph: '⚑', roles: 'all' },
-  { href: '/spot-check', label: 'Spot check', glyph: '◇', roles: 'all' },
-  { href: '/devices', label: 'Devices', glyph: '◔', roles: 'all' },
-  { href: '/audit-log', label: 'Audit log', glyph: '☷', roles: ['admin', 'engineer', 'safety'] },
-  { href: '/reminders', label: 'Reminders', glyph: '◷', roles: ['admin', 'safety'] },
-  { href: '/team', label: 'Team', glyph: '◎', roles: ['admin'] },
-  { href: '/outbox', label: 'Outbox', glyph: '✉', roles: ['admin'] },
-  { href: '/settings', label: 'Settings', glyph: '≡', roles: ['admin'] },
-  { href: '/account', label: 'Account', glyph: '◐', roles: 'all' },
+  { href: '/', label: 'Home', glyph: '⌂' },
+  { href: '/attention', label: 'Attention', glyph: '◈', capability: 'viewAttention' },
+  { href: '/sites', label: 'Sites', glyph: '▦' },
+  { href: '/labels', label: 'Labels', glyph: '▤' },
+  { href: '/scan', label: 'Scan', glyph: '⌖', capability: 'scanLabels' },
+  { href: '/reports', label: 'Reports', glyph: '⚑' },
+  { href: '/spot-check', label: 'Spot check', glyph: '◇' },
+  { href: '/devices', label: 'Devices', glyph: '◔' },
+  { href: '/audit-log', label: 'Audit log', glyph: '☷', capability: 'viewAudit' },
+  { href: '/reminders', label: 'Reminders', glyph: '◷', capability: 'manageReminders' },
+  { href: '/team', label: 'Team', glyph: '◎', capability: 'manageUsers' },
+  { href: '/outbox', label: 'Outbox', glyph: '✉', capability: 'readOutbox' },
+  { href: '/settings', label: 'Settings', glyph: '≡', capability: 'manageSettings' },
+  { href: '/account', label: 'Account', glyph: '◐' },
 ];
 
 export function navFor(role: Role): NavItem[] {
-  return NAV_ITEMS.filter((i) => i.roles === 'all' || i.roles.includes(role));
+  return NAV_ITEMS.filter((i) => !i.capability || can(role, i.capability));
 }
 
 /** The phone's first tabs per role: what each role reaches for most; everything else is under More. */
@@ -59,7 +61,7 @@ export function isActive(href: string, pathname: string): boolean {
 }
 
 /** The phone's last tab when there are more items than tabs. */
-export const MORE_ITEM: NavItem = { href: '/more', label: 'More', glyph: '☰', roles: 'all' };
+export const MORE_ITEM: NavItem = { href: '/more', label: 'More', glyph: '☰' };
 
 /**
  * A navigation link's "you are here": on the web `aria-current="page"` (react-native-web passes it through; its types

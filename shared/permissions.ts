@@ -53,6 +53,8 @@ export const PERMISSIONS = {
   approveReminderEmails: ['admin'],
 
   // —— The app's own ——
+  /** Run a spot check (one equipment, no model; the API's calculation routes are open to every signed-in user). */
+  spotCheck: ['engineer'],
   /** The Scan page (check a label by its code) in the navigation. */
   scanLabels: ['electrician', 'engineer', 'safety'],
   /** The label page opens with the field actions (mark installed, report a mismatch): the electrician's work. */

@@ -5,6 +5,7 @@ import { ROLE_LABELS } from '../../shared/schemas/common';
 import { useChangePassword } from '../../hooks/account';
 import { serverErrors, validate } from '../../hooks/forms';
 import { useMe } from '../../hooks/queries';
+import { useCan } from '../../hooks/permissions';
 import { useSession, useUser } from '../../hooks/session';
 import { fonts, space } from '../theme';
 import { Button, Card, Field, Notice, Screen, T, ValueRow } from '../ui';
@@ -90,6 +91,7 @@ function ChangePassword() {
 /** The signed-in person's own account: who they are, their password, signing out. */
 export function AccountScreen() {
   const user = useUser();
+  const can = useCan();
   const me = useMe();
   const { signOut } = useSession();
   return (
@@ -109,7 +111,7 @@ export function AccountScreen() {
             </ValueRow>
           ) : null}
         </View>
-        {user.role !== 'admin' ? <T variant="small">An administrator changes names and roles.</T> : null}
+        {!can('manageUsers') ? <T variant="small">An administrator changes names and roles.</T> : null}
       </Card>
       <ChangePassword />
       <Card>

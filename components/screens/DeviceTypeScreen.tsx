@@ -14,7 +14,7 @@ import {
   useDeviceType,
   useSaveDeviceType,
 } from '../../hooks/queries';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useDebounced } from '../../hooks/useDebounced';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt } from '../../hooks/units';
@@ -97,8 +97,7 @@ function BandReader({
 }
 
 export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: DeviceKind; justSaved?: boolean }) {
-  const user = useUser();
-  const canEdit = user.role === 'engineer';
+  const canEdit = useCan()('editDevices');
   const router = useRouter();
   const { wide } = useLayout();
   const existing = useDeviceType(id);

@@ -4,7 +4,7 @@ import { Pressable, View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS } from '../../shared/schemas/deviceLibrary';
 import { useDeviceTypes } from '../../hooks/queries';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
 import { Button, Card, Choice, ListScreen, Notice, T } from '../ui';
@@ -28,8 +28,7 @@ function summary(d: Device): string {
 }
 
 export function DevicesScreen() {
-  const user = useUser();
-  const canEdit = user.role === 'engineer';
+  const canEdit = useCan()('editDevices');
   const router = useRouter();
   const { wide } = useLayout();
   const types = useDeviceTypes();

@@ -18,8 +18,11 @@ interface Step {
   href: AppHref;
 }
 
-/** What each role does, and where it goes next. */
-const ROLE_HOME: Record<Role, { duty: string; steps: Step[] }> = {
+/**
+ * What each role does, where it goes next, and what its home shows first: the attention summary (the safety officer's
+ * audit) and the team by role (the administrator's people).
+ */
+const ROLE_HOME: Record<Role, { duty: string; steps: Step[]; attention?: boolean; team?: boolean }> = {
   engineer: {
     duty: 'Model each site, compute fault and arcing currents, read clearing times from the trip bands, and approve the labels.',
     steps: [
@@ -36,6 +39,7 @@ const ROLE_HOME: Record<Role, { duty: string; steps: Step[] }> = {
     ],
   },
   safety: {
+    attention: true,
     duty: 'Audit: studies nearing review, labels superseded but still installed, labels not yet installed, open field reports.',
     steps: [
       { title: 'Field reports', detail: 'Acknowledge and resolve mismatches from the field', href: '/reports' },
@@ -44,6 +48,7 @@ const ROLE_HOME: Record<Role, { duty: string; steps: Step[] }> = {
     ],
   },
   admin: {
+    team: true,
     duty: 'Manage the organization: people, roles and settings.',
     steps: [
       { title: 'Team', detail: 'Invite people, change roles, deactivate', href: '/team' },
@@ -149,14 +154,14 @@ export function HomeScreen() {
         </T>
         <T style={{ color: colors.navInk, fontSize: 18, fontFamily: fonts.textMedium, lineHeight: 26 }}>{home.duty}</T>
       </Card>
-      {user.role === 'safety' ? <AttentionHome /> : null}
+      {home.attention ? <AttentionHome /> : null}
       <T variant="heading">Next</T>
       <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap', gap: space.md }}>
         {home.steps.map((s) => (
           <StepCard key={s.title} step={s} inRow={wide} />
         ))}
       </View>
-      {user.role === 'admin' ? <TeamSummary /> : null}
+      {home.team ? <TeamSummary /> : null}
       <Card>
         <T variant="subheading">Sites</T>
         {sites.isLoading ? <T variant="small">Loading…</T> : null}

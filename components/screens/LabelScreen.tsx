@@ -4,7 +4,7 @@ import { Platform, View } from 'react-native';
 import { LABEL_STATUS_LABELS } from '../../shared/schemas/labels';
 import { serverErrors } from '../../hooks/forms';
 import { useLabelCheck, useLabelDetail, useMarkInstalled, useReportMismatch } from '../../hooks/labels';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { Cautions } from '../Cautions';
 import { LabelView } from '../labels/LabelView';
@@ -95,7 +95,7 @@ function ReportPanel({ code }: { code: string }) {
 
 /** A label of the organization: what it says, its status, and the electrician's field actions. */
 export function LabelScreen({ code }: { code: string }) {
-  const user = useUser();
+  const can = useCan();
   const { wide } = useLayout();
   const detail = useLabelDetail(code);
   const check = useLabelCheck(code);
@@ -113,7 +113,7 @@ export function LabelScreen({ code }: { code: string }) {
     );
   const l = detail.data;
   const tone = l.status === 'current' ? colors.ok : l.status === 'superseded' ? colors.danger : colors.caution;
-  const field = user.role === 'electrician';
+  const field = can('fieldWork');
   const info = (
     <View style={{ gap: space.lg }}>
       <View style={{ backgroundColor: tone, borderRadius: radius.lg, padding: space.lg }} testID="label-status">

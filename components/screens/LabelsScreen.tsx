@@ -6,7 +6,7 @@ import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useBatch, useCreateBatch, useSiteLabels } from '../../hooks/labels';
 import { useSites } from '../../hooks/queries';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { LabelView } from '../labels/LabelView';
 import { displayText } from '../../shared/labelDisplay';
@@ -87,7 +87,7 @@ function Row({
 
 /** Labels of a site: preview, choose, and print them as one PDF (with progress for large batches). */
 export function LabelsScreen() {
-  const user = useUser();
+  const can = useCan();
   const { wide } = useLayout();
   const sites = useSites();
   // `/labels?site=<id>` opens one site's labels (links from the dashboard and the site screen).
@@ -106,7 +106,7 @@ export function LabelsScreen() {
   const [batchId, setBatchId] = useState<string | null>(null);
   const batch = useBatch(batchId);
   const [error, setError] = useState<string | null>(null);
-  const canPrint = user.role === 'electrician' || user.role === 'engineer' || user.role === 'admin';
+  const canPrint = can('printLabels');
 
   const shown = useMemo(
     () =>

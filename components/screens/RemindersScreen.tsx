@@ -14,7 +14,7 @@ import {
   useSaveReminderRule,
   useSendNow,
 } from '../../hooks/mail';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
 import {
@@ -206,7 +206,7 @@ function RuleCard({
   const del = useDeleteReminderRule();
   const send = useSendNow();
   const approve = useApproveReminderEmails();
-  const isAdmin = useUser().role === 'admin';
+  const canApprove = useCan()('approveReminderEmails');
   const [error, setError] = useState<string | null>(null);
   const states = rule.emailStates ?? rule.emails.map((email) => ({ email, state: 'pending' as const }));
   const pending = states.filter((e) => e.state === 'pending').map((e) => e.email);
@@ -236,7 +236,7 @@ function RuleCard({
               Addresses outside the organization get no reminder until an administrator approves them:{' '}
               {pending.join(', ')}.
             </T>
-            {isAdmin ? (
+            {canApprove ? (
               <View style={{ flexDirection: 'row' }}>
                 <Button
                   title={pending.length === 1 ? 'Approve the address' : `Approve ${pending.length} addresses`}
@@ -361,7 +361,7 @@ function Deliveries() {
 
 /** Reminder rules (who is told about which lists, daily at the organization's hour), sending now, and what was sent. */
 export function RemindersScreen() {
-  const user = useUser();
+  const can = useCan();
   const rules = useReminderRules();
   const sendAll = useSendNow();
   const [editing, setEditing] = useState<ReminderRule | 'new' | null>(null);
@@ -399,7 +399,7 @@ export function RemindersScreen() {
         <Notice testID="reminder-hour">
           <T>
             Enabled rules run every day at <T style={{ fontFamily: fonts.numbersBold }}>{fmtHourUtc(hour)}</T>.{' '}
-            {user.role === 'admin' ? (
+            {can('manageSettings') ? (
               <Link href="/settings" style={{ color: colors.accent }}>
                 Change the hour in Settings
               </Link>

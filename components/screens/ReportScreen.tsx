@@ -5,7 +5,7 @@ import { fieldReportTriageSchema, type FieldReportDto } from '../../shared/schem
 import { useFieldReport, useTriageReport } from '../../hooks/attention';
 import { fmtAgeDays, fmtDateTime } from '../../hooks/dates';
 import { serverErrors, validate } from '../../hooks/forms';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useAuthedImage } from '../../hooks/useAuthedImage';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
@@ -129,10 +129,10 @@ function TriagePanel({ r }: { r: FieldReportDto }) {
 
 /** One field report: what was seen, on which label, the photo, and its triage. */
 export function ReportScreen({ reportId }: { reportId: string }) {
-  const user = useUser();
+  const can = useCan();
   const { wide } = useLayout();
   const report = useFieldReport(reportId);
-  const canTriage = user.role === 'engineer' || user.role === 'safety';
+  const canTriage = can('triageReports');
   if (report.error) {
     return (
       <Screen title="Field report">
@@ -188,7 +188,7 @@ export function ReportScreen({ reportId }: { reportId: string }) {
       {canTriage ? <TriagePanel r={r} /> : null}
       {!canTriage && r.status !== 'resolved' ? (
         <Notice>
-          {user.role === 'electrician'
+          {!can('seeAllFieldReports')
             ? 'The engineers and the safety officer see this report. Its status changes here when they acknowledge and resolve it.'
             : 'Engineers and safety officers acknowledge and resolve reports.'}
         </Notice>

@@ -11,7 +11,7 @@ import {
 import { useFieldReports } from '../../hooks/attention';
 import { fmtAgeDays, fmtDate } from '../../hooks/dates';
 import { useSites } from '../../hooks/queries';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { fonts, space } from '../theme';
 import { cardStyle, Choice, Empty, Loading, Pill, type PillTone, QueryError, Screen, T, Table } from '../ui';
@@ -50,10 +50,10 @@ function ReportCard({ r, showReporter }: { r: FieldReportDto; showReporter: bool
 
 /** Field reports: mismatches reported from the field and where their triage stands. Electricians see their own. */
 export function ReportsScreen() {
-  const user = useUser();
+  const can = useCan();
   const { wide } = useLayout();
   const sites = useSites();
-  const own = user.role === 'electrician';
+  const own = !can('seeAllFieldReports');
   const [status, setStatus] = useState<StatusFilter>('all');
   const [siteId, setSiteId] = useState<string>('');
   const reports = useFieldReports({

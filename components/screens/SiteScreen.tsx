@@ -5,7 +5,7 @@ import { findEquipmentClass } from '../../shared/equipmentClasses';
 import { createStudySchema } from '../../shared/schemas/studies';
 import { serverErrors, validate } from '../../hooks/forms';
 import { useSite } from '../../hooks/queries';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useCreateStudy, useEquipment, useStudies } from '../../hooks/studies';
 import { useLayout } from '../../hooks/useLayout';
 import { SiteForm } from '../SiteForm';
@@ -43,15 +43,15 @@ function NewStudy({ siteId, onCancel }: { siteId: string; onCancel: () => void }
 }
 
 export function SiteScreen({ siteId }: { siteId: string }) {
-  const user = useUser();
+  const can = useCan();
   const { wide } = useLayout();
   const site = useSite(siteId);
   const studies = useStudies(siteId);
   const equipment = useEquipment(siteId);
   const [editing, setEditing] = useState(false);
   const [starting, setStarting] = useState(false);
-  const canEdit = user.role === 'engineer' || user.role === 'admin';
-  const canStudy = user.role === 'engineer';
+  const canEdit = can('editSites');
+  const canStudy = can('startStudy');
 
   if (site.error) {
     return (
@@ -102,7 +102,7 @@ export function SiteScreen({ siteId }: { siteId: string }) {
         <T variant="heading">Studies</T>
         {studies.error ? <Notice tone="error">{studies.error.message}</Notice> : null}
         {studies.data && studies.data.length === 0 ? (
-          <Notice>{user.role === 'electrician' ? 'No approved study yet.' : 'No study yet.'}</Notice>
+          <Notice>{can('seeUnapprovedStudies') ? 'No study yet.' : 'No approved study yet.'}</Notice>
         ) : null}
         {studies.data?.length ? <StudyList studies={studies.data} /> : null}
       </View>

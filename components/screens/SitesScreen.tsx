@@ -2,19 +2,19 @@ import { Link, useLocalSearchParams, useRouter } from 'expo-router';
 import React, { useState } from 'react';
 import { Pressable, View } from 'react-native';
 import { useSites } from '../../hooks/queries';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { SiteForm } from '../SiteForm';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Button, Card, Notice, Screen, T } from '../ui';
 
 export function SitesScreen() {
-  const user = useUser();
+  const can = useCan();
   const { wide } = useLayout();
   const router = useRouter();
   const params = useLocalSearchParams<{ new?: string }>();
   const sites = useSites();
-  const canEdit = user.role === 'engineer' || user.role === 'admin';
+  const canEdit = can('editSites');
   const [creating, setCreating] = useState(params.new === '1' && canEdit);
 
   return (

@@ -9,7 +9,7 @@ import {
 import { incidentEnergyRequestSchema } from '../../shared/schemas/incidentEnergy';
 import { serverErrors, validate } from '../../hooks/forms';
 import { useIncidentEnergy } from '../../hooks/queries';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { fromDisplay, toDisplay, type LengthUnit } from '../../hooks/units';
 import { Cautions } from '../Cautions';
@@ -56,8 +56,7 @@ const num = (s: string): number | undefined => (s.trim() === '' ? undefined : Nu
 
 /** One equipment, no model: IEEE 1584-2018 incident energy with both cases and the label values. */
 export function SpotCheckScreen() {
-  const user = useUser();
-  const canRun = user.role === 'engineer';
+  const canRun = useCan()('spotCheck');
   const { wide } = useLayout();
   const [unit, setUnit] = useState<LengthUnit>('mm');
   const [form, setForm] = useState<FormState>(() => ({

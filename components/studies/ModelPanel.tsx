@@ -6,7 +6,7 @@ import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useDeviceTypes } from '../../hooks/queries';
 import { clearModelDraft, setModelDraft, useModelDraft } from '../../hooks/modelDrafts';
-import { useUser } from '../../hooks/session';
+import { useCan } from '../../hooks/permissions';
 import { useImportModel, useSaveModel, useStudyModel } from '../../hooks/studies';
 import { ModelEditor } from '../model/ModelEditor';
 import { SystemTree } from '../model/SystemTree';
@@ -103,8 +103,8 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
 
 /** The model of a revision: editor (drafts, engineers), system tree, import and export, save with a version check. */
 export function ModelPanel({ study }: { study: StudyDto }) {
-  const user = useUser();
-  const editable = user.role === 'engineer' && study.status === 'draft';
+  const can = useCan();
+  const editable = can('editModel') && study.status === 'draft';
   const envelope = useStudyModel(study.id);
   const deviceTypes = useDeviceTypes();
   const save = useSaveModel(study.id);

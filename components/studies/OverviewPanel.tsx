@@ -4,6 +4,7 @@ import { Pressable, View } from 'react-native';
 import { approveSchema, type StudyDto } from '../../shared/schemas/studies';
 import { downloadFile } from '../../hooks/download';
 import { serverErrors, validate } from '../../hooks/forms';
+import { useCan } from '../../hooks/permissions';
 import { useUser } from '../../hooks/session';
 import {
   useApproveStudy,
@@ -21,12 +22,12 @@ const when = (iso: string | null | undefined) =>
   iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' }) : '—';
 
 function RunPanel({ study }: { study: StudyDto }) {
-  const user = useUser();
+  const can = useCan();
   const run = useRun(study.id);
   const start = useStartRun(study.id);
   const r = run.data ?? study.latestRun;
   const active = r && (r.status === 'queued' || r.status === 'running');
-  const canRun = user.role === 'engineer' && study.status === 'draft';
+  const canRun = can('runStudy') && study.status === 'draft';
   return (
     <Card testID="run-panel">
       <T variant="subheading">Run</T>
@@ -166,11 +167,11 @@ function ApproveForm({ study }: { study: StudyDto }) {
 }
 
 function ReviewPanel({ study }: { study: StudyDto }) {
-  const user = useUser();
+  const can = useCan();
   const router = useRouter();
   const submit = useSubmitStudy(study.id);
   const revise = useReviseStudy(study.id);
-  if (user.role !== 'engineer') return null;
+  if (!can('approveStudy')) return null;
   if (study.status === 'draft') {
     return (
       <Card>
@@ -205,11 +206,11 @@ function ReviewPanel({ study }: { study: StudyDto }) {
 }
 
 function Documents({ study }: { study: StudyDto }) {
-  const user = useUser();
+  const can = useCan();
   const [error, setError] = useState<string | null>(null);
   const approved = study.status === 'approved' || study.status === 'superseded';
-  const canReport = user.role !== 'electrician' && (approved || study.resultsCurrent);
-  const canPrint = approved && user.role !== 'safety';
+  const canReport = can('downloadReport') && (approved || study.resultsCurrent);
+  const canPrint = approved && can('printLabels');
   if (!canReport && !canPrint) return null;
   const get = (path: string, name: string) =>
     void downloadFile(path, name).catch((e) => setError(serverErrors(e).message));

@@ -1,12 +1,14 @@
-import { Redirect, Slot } from 'expo-router';
+import { Slot } from 'expo-router';
 import React from 'react';
-import { useUser } from '../../../hooks/session';
+import { RoleGuard } from '../../../components/auth/RoleGuard';
 
 export { ErrorBoundary } from '../../../components/ErrorBoundary';
 
-/** Guard: the dashboard is for administrators, engineers and safety officers. */
+/** Guard: only the roles with the capability (shared/permissions.ts) see these pages. */
 export default function AttentionLayout() {
-  const user = useUser();
-  if (user.role === 'electrician') return <Redirect href="/" />;
-  return <Slot />;
+  return (
+    <RoleGuard capability="viewAttention" what="The attention dashboard">
+      <Slot />
+    </RoleGuard>
+  );
 }

@@ -1,12 +1,14 @@
-import { Redirect, Slot } from 'expo-router';
+import { Slot } from 'expo-router';
 import React from 'react';
-import { useUser } from '../../../hooks/session';
+import { RoleGuard } from '../../../components/auth/RoleGuard';
 
 export { ErrorBoundary } from '../../../components/ErrorBoundary';
 
-/** Guard: the captured mail is for administrators. */
+/** Guard: only the roles with the capability (shared/permissions.ts) see these pages. */
 export default function OutboxLayout() {
-  const user = useUser();
-  if (user.role !== 'admin') return <Redirect href="/" />;
-  return <Slot />;
+  return (
+    <RoleGuard capability="readOutbox" what="The Outbox (captured mail)">
+      <Slot />
+    </RoleGuard>
+  );
 }

@@ -1,12 +1,14 @@
-import { Redirect, Slot } from 'expo-router';
+import { Slot } from 'expo-router';
 import React from 'react';
-import { useUser } from '../../../hooks/session';
+import { RoleGuard } from '../../../components/auth/RoleGuard';
 
 export { ErrorBoundary } from '../../../components/ErrorBoundary';
 
-/** Guard: reminder rules are for administrators and safety officers. */
+/** Guard: only the roles with the capability (shared/permissions.ts) see these pages. */
 export default function RemindersLayout() {
-  const user = useUser();
-  if (user.role !== 'admin' && user.role !== 'safety') return <Redirect href="/" />;
-  return <Slot />;
+  return (
+    <RoleGuard capability="manageReminders" what="Reminder rules">
+      <Slot />
+    </RoleGuard>
+  );
 }

@@ -8,3 +8,7 @@ export const useRouter = () => ({ push: () => undefined, replace: () => undefine
 export const useLocalSearchParams = () => ({});
 export const usePathname = () => '/';
 export const router = { push: () => undefined, replace: () => undefined, back: () => undefined };
+/** A layout's nested page: a marker, so a test sees whether a layout let its pages through. */
+export function Slot() {
+  return <>{'[page]'}</>;
+}
