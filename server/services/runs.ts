@@ -17,7 +17,7 @@ import { runStudyOffThread } from './studyWorker';
 interface RunSettings {
   maxArcDurationMs: number;
   motorDecayCycles: number;
-  /** The organization's choice; absent in runs started before the setting existed (the engine's default, step). */
+  /** The organization's choice; absent in runs queued before the setting existed (the engine's default, higher). */
   motorDecayModel?: OrganizationSettings['motorDecayModel'];
   labelSettings: ReturnType<typeof labelSettingsOf>;
 }

@@ -62,10 +62,10 @@ export const organizationSettingsSchema = z
       .default(2000)
       .describe('Cap of the arc duration (IEEE 1584 2 s guidance)'),
     motorDecayModel: z
-      .enum(['step', 'exponential'], { error: "Choose 'step' or 'exponential'" })
-      .default('step')
+      .enum(['higher', 'step', 'exponential'], { error: "Choose 'higher', 'step' or 'exponential'" })
+      .default('higher')
       .describe(
-        'Motor contribution: step (full first-cycle current until the decay time, then none) or exponential (e^(−t/τ), τ the decay time, dropped after 5 τ). Neither is always the higher energy.',
+        'Motor contribution: higher (default: both models evaluated, the higher energy kept, since neither is always the higher), step (full first-cycle current until the decay time, then none) or exponential (e^(−t/τ), τ the decay time, dropped after 5 τ).',
       ),
     requireIndependentApprover: z.boolean().default(false).describe('The approver must differ from the last editor'),
     notInstalledAfterDays: z

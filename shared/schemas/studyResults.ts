@@ -87,6 +87,11 @@ export const arcCaseTraceSchema = z.object({
   incidentEnergyCalPerCm2: z.number(),
   arcFlashBoundaryMm: z.number(),
   sentence: z.string(),
+  /**
+   * The motor decay model of this case when motors feed the arc: the run's, or with 'higher' the one that gave the
+   * higher energy. Absent without motor contribution, and in results stored before it was recorded.
+   */
+  motorDecayModel: z.enum(['step', 'exponential']).optional(),
 });
 export type ArcCaseTrace = z.infer<typeof arcCaseTraceSchema>;
 
@@ -142,8 +147,12 @@ export const studyResultsSchema = z
     method: z.string(),
     maxArcDurationMs: z.number(),
     motorDecayS: z.number(),
-    /** 'step': motors feed in full for motorDecayS then stop; 'exponential': e^(−t/τ), τ = motorDecayS. */
-    motorDecayModel: z.enum(['step', 'exponential']).default('step'),
+    /**
+     * 'step': motors feed in full for motorDecayS then stop; 'exponential': e^(−t/τ), τ = motorDecayS; 'higher':
+     * both, the higher energy kept per case (each case's `motorDecayModel` says which). Results stored before the
+     * setting existed lack it and were computed with the step model.
+     */
+    motorDecayModel: z.enum(['step', 'exponential', 'higher']).default('step'),
     buses: z.array(busResultSchema),
     warnings: z.array(warning),
   })

@@ -1,10 +1,13 @@
 /**
- * The organization's motor-decay setting: 'step' by default (the motor feeds its full first-cycle current until the
- * decay time, then stops), 'exponential' on choice; the run records which model it used and the trace follows it.
+ * The organization's motor-decay setting: 'higher' by default (each case with motor contribution evaluated with the
+ * step and the exponential model, the higher energy kept: the product's conservative rule, where a choice is open the
+ * higher hazard), 'step' (the motor feeds its full first-cycle current until the decay time, then stops) or
+ * 'exponential' on choice (both models common practice, no source); the run records which model it used and the
+ * trace follows it.
  */
 import request from 'supertest';
 import { StudyRun } from '../../server/db/models';
-import type { StudyResults } from '../../shared/schemas/studyResults';
+import { studyResultsSchema, type StudyResults } from '../../shared/schemas/studyResults';
 import { smallModel } from '../fixtures/smallModel';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
 
@@ -58,8 +61,8 @@ async function run(): Promise<{ results: StudyResults; mcc: StudyResults['buses'
 }
 
 describe('motor contribution decay model (organization setting)', () => {
-  it('defaults to step when the stored settings do not have it', async () => {
-    expect((await settings()).motorDecayModel).toBe('step');
+  it('defaults to higher (both models, the higher energy kept) when the stored settings do not have it', async () => {
+    expect((await settings()).motorDecayModel).toBe('higher');
   });
 
   it('rejects an unknown value with a 400 naming the field, and keeps the stored settings', async () => {
@@ -74,10 +77,19 @@ describe('motor contribution decay model (organization setting)', () => {
   });
 
   it('a run records the chosen model and the motor contribution follows it in the trace', async () => {
+    const higher = await run();
+    expect(higher.results.motorDecayModel).toBe('higher');
+
+    let put = await request(t.app)
+      .put('/api/organization/settings')
+      .set(...admin())
+      .send({ ...(await settings()), motorDecayModel: 'step' });
+    expect(put.status).toBe(200);
+    expect(put.body.settings.motorDecayModel).toBe('step');
     const step = await run();
     expect(step.results.motorDecayModel).toBe('step');
 
-    const put = await request(t.app)
+    put = await request(t.app)
       .put('/api/organization/settings')
       .set(...admin())
       .send({ ...(await settings()), motorDecayModel: 'exponential' });
@@ -103,9 +115,45 @@ describe('motor contribution decay model (organization setting)', () => {
     expect(exp.mcc.arcDurationS).toBeCloseTo(5 * tau, 9);
     expect(exp.mcc.incidentEnergyCalPerCm2).not.toBeCloseTo(step.mcc.incidentEnergyCalPerCm2!, 6);
 
+    // 'higher': every case at the MCC has the energy of the higher of the two runs, names the model that governed
+    // and says so in its sentence.
+    expect(higher.mcc.cases.length).toBe(step.mcc.cases.length);
+    higher.mcc.cases.forEach((c, k) => {
+      const s = step.mcc.cases[k];
+      const e = exp.mcc.cases[k];
+      expect([s.arcCase, s.location, e.arcCase, e.location]).toEqual([c.arcCase, c.location, c.arcCase, c.location]);
+      const expHigher = e.incidentEnergyJPerCm2 > s.incidentEnergyJPerCm2;
+      expect(c.incidentEnergyJPerCm2).toBeCloseTo(Math.max(s.incidentEnergyJPerCm2, e.incidentEnergyJPerCm2), 9);
+      expect(c.motorDecayModel).toBe(expHigher ? 'exponential' : 'step');
+      expect(c.sentence).toContain(`evaluated with both decay models: the ${expHigher ? 'exponential' : 'step'} model`);
+      // The fixed models are recorded on their cases too.
+      expect(s.motorDecayModel).toBe('step');
+      expect(e.motorDecayModel).toBe('exponential');
+    });
+    expect(higher.mcc.incidentEnergyCalPerCm2).toBeCloseTo(
+      Math.max(step.mcc.incidentEnergyCalPerCm2!, exp.mcc.incidentEnergyCalPerCm2!),
+      9,
+    );
+
     await request(t.app)
       .put('/api/organization/settings')
       .set(...admin())
-      .send({ ...(await settings()), motorDecayModel: 'step' });
+      .send({ ...(await settings()), motorDecayModel: 'higher' });
+  });
+
+  it('results stored before the setting existed read as the step model (they were computed with it)', async () => {
+    const eng = bearer(t.orgA.users.engineer.token);
+    const res = await request(t.app)
+      .post(`/api/studies/${studyId}/run`)
+      .set(...eng);
+    expect(res.status).toBe(202);
+    await t.ctx.jobs.idle();
+    const row = await StudyRun.findByPk(res.body.id);
+    const stored = JSON.parse(row!.results!) as Record<string, unknown> & { buses: { cases: object[] }[] };
+    delete stored.motorDecayModel;
+    for (const b of stored.buses) for (const c of b.cases) delete (c as { motorDecayModel?: string }).motorDecayModel;
+    const parsed = studyResultsSchema.parse(stored);
+    expect(parsed.motorDecayModel).toBe('step');
+    expect(parsed.buses.flatMap((b) => b.cases).every((c) => c.motorDecayModel === undefined)).toBe(true);
   });
 });

@@ -121,6 +121,10 @@ describe('renderStudyReport', () => {
     expect(text).toContain(`Arc duration cap: 2 s (${inp.results.maxArcDurationMs} ms)`);
     expect(text).toContain('Line side of the main');
     expect(text).toContain('Motor contribution');
+    // The default motor decay ('higher'): both models evaluated, the higher kept — the report says so.
+    expect(inp.results.motorDecayModel).toBe('higher');
+    expect(text).toMatch(/evaluated\s+twice/);
+    expect(text).toMatch(/the\s+higher\s+energy\s+is\s+kept/);
 
     // Inputs: every device, with its kind.
     for (const d of inp.model.devices) expect(text).toContain(d.id);

@@ -400,9 +400,10 @@ describe('motor contribution decaying exponentially (common practice, no source)
         },
       },
     ];
-    const bus = createStudyRunner(parse(m), { motorDecayCycles: 5 }).runBus('MCC');
+    const bus = createStudyRunner(parse(m), { motorDecayModel: 'step', motorDecayCycles: 5 }).runBus('MCC');
     const full = bus.cases.find((c) => c.arcCase === 'full')!;
     const motor = full.sources.find((s) => s.sourceId === 'M-1')!;
+    expect(full.motorDecayModel).toBe('step');
     expect(motor.cutByDeviceId).toBe('MS-1');
     expectClose(motor.stopsAtS, 0.02, 1e-12);
   });
@@ -431,8 +432,139 @@ describe('motor contribution decaying exponentially (common practice, no source)
       // Each step carries the higher of its two ends: the start, as the contribution falls.
       expectClose(s.boltedFaultKa, bus.boltedFaultKa * (util.share + motor.share * Math.exp(-s.fromS / tau)), 1e-9);
     }
-    // The step model is the default (results comparable with earlier studies).
-    expect(createStudyRunner(parse(withMotor())).finish([]).motorDecayModel).toBe('step');
+  });
+});
+
+describe("motor decay 'higher' (the default): both models evaluated, the higher energy kept", () => {
+  // The rule is the product's conservative rule (where a choice is open, the higher hazard); the two decay models
+  // themselves are common practice, no source. Each expected energy is the step and the exponential run entered
+  // explicitly, so the check is against the two models, not against the bracketing code.
+  function withMotor(devices: ModelInput['devices'] = []): ModelInput {
+    return {
+      format: 'emberline-model',
+      version: 1,
+      frequencyHz: 60,
+      buses: [
+        { id: 'SVC', nominalKv: 12.47 },
+        { id: 'MCC', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep' } },
+      ],
+      sources: [{ id: 'UTIL', kind: 'utility', bus: 'SVC', shortCircuitMva: 250, xr: 10 }],
+      transformers: [
+        {
+          id: 'TX',
+          fromBus: 'SVC',
+          toBus: 'MCC',
+          kva: 1000,
+          primaryKv: 12.47,
+          secondaryKv: 0.48,
+          impedancePct: 5.75,
+          xr: 6,
+        },
+      ],
+      motors: [{ id: 'M-1', bus: 'MCC', hp: 300, kv: 0.46 }],
+      devices,
+    } as ModelInput;
+  }
+  /** A band with a flat maximum curve at `t` s from 100 A up (min curve at half of it). */
+  const flat = (t: number): Device => ({
+    kind: 'band',
+    ratingA: 100,
+    currentUnit: 'ampere',
+    min: [
+      [100, t / 2],
+      [100000, t / 2],
+    ],
+    max: [
+      [100, t],
+      [100000, t],
+    ],
+  });
+  const run = (m: ModelInput, motorDecayModel?: 'step' | 'exponential' | 'higher') =>
+    createStudyRunner(parse(m), { motorDecayCycles: 5, ...(motorDecayModel ? { motorDecayModel } : {}) }).runBus('MCC');
+  /** The sentence states the kept energy against the other one (rounded for reading, so to 0.1 %). */
+  function expectSentenceEnergies(sentence: string, kept: number, other: number) {
+    const m = /the higher of two energies \(([\d.]+) against ([\d.]+) cal\/cm²/.exec(sentence);
+    expect(m).not.toBeNull();
+    expectClose(Number(m![1]), kept, 1e-3);
+    expectClose(Number(m![2]), other, 1e-3);
+  }
+  /** Every case of 'higher' against the same case with each model chosen explicitly. */
+  function compare(m: ModelInput, chosen?: 'higher') {
+    const step = run(m, 'step');
+    const exp = run(m, 'exponential');
+    const higher = run(m, chosen);
+    expect(higher.cases.length).toBe(step.cases.length);
+    return higher.cases.map((c, k) => {
+      const s = step.cases[k];
+      const e = exp.cases[k];
+      expect([s.arcCase, s.location, e.arcCase, e.location]).toEqual([c.arcCase, c.location, c.arcCase, c.location]);
+      return { higher: c, step: s, exp: e };
+    });
+  }
+
+  it('a motor keeping the arc going with no device to clear it: the exponential model gives the higher energy and is kept', () => {
+    // Nothing clears the utility before the 2 s cap; the same ampere-seconds of motor current spread over 5 τ give
+    // the higher energy here.
+    for (const { higher, step, exp } of compare(withMotor(), 'higher')) {
+      expect(exp.incidentEnergyJPerCm2).toBeGreaterThan(step.incidentEnergyJPerCm2);
+      expectClose(higher.incidentEnergyJPerCm2, Math.max(step.incidentEnergyJPerCm2, exp.incidentEnergyJPerCm2), 1e-12);
+      expect(higher.motorDecayModel).toBe('exponential');
+      const motorStop = (c: typeof exp) => c.sources.find((x) => x.sourceId === 'M-1')!.stopsAtS;
+      expect(motorStop(higher)).toBe(motorStop(exp));
+      expect(higher.sentence).toContain('evaluated with both decay models: the exponential model');
+      expectSentenceEnergies(higher.sentence, exp.incidentEnergyCalPerCm2, step.incidentEnergyCalPerCm2);
+    }
+  });
+
+  it('a motor starter opening at 0.02 s: the step model (full current until then) gives the higher energy and is kept', () => {
+    const m = withMotor([{ id: 'MS-1', source: 'M-1', device: flat(0.02) }]);
+    for (const { higher, step, exp } of compare(m, 'higher')) {
+      expect(step.incidentEnergyJPerCm2).toBeGreaterThan(exp.incidentEnergyJPerCm2);
+      expectClose(higher.incidentEnergyJPerCm2, Math.max(step.incidentEnergyJPerCm2, exp.incidentEnergyJPerCm2), 1e-12);
+      expect(higher.motorDecayModel).toBe('step');
+      expect(higher.sentence).toContain('evaluated with both decay models: the step model');
+      expectSentenceEnergies(higher.sentence, step.incidentEnergyCalPerCm2, exp.incidentEnergyCalPerCm2);
+    }
+  });
+
+  it('each case keeps its own higher model (a fast main: load side cleared at 0.05 s, line side left to the cap)', () => {
+    const m = withMotor([{ id: 'MAIN', branch: 'TX', end: 'to', device: flat(0.05) }]);
+    const rows = compare(m); // no option: the default
+    expect(rows.map((r) => r.higher.location)).toEqual(['load-side', 'load-side', 'line-side', 'line-side']);
+    for (const { higher, step, exp } of rows) {
+      expectClose(higher.incidentEnergyJPerCm2, Math.max(step.incidentEnergyJPerCm2, exp.incidentEnergyJPerCm2), 1e-12);
+      expect(higher.motorDecayModel).toBe(
+        exp.incidentEnergyJPerCm2 > step.incidentEnergyJPerCm2 ? 'exponential' : 'step',
+      );
+    }
+    // Here the two sides are governed by different models, so the choice is made case by case, not once per bus.
+    expect(new Set(rows.map((r) => r.higher.motorDecayModel))).toEqual(new Set(['step', 'exponential']));
+    // The bus governs on the highest case of all, so its energy is the highest of both models' bus energies.
+    const bus = run(m);
+    expectClose(
+      bus.incidentEnergyJPerCm2!,
+      Math.max(run(m, 'step').incidentEnergyJPerCm2!, run(m, 'exponential').incidentEnergyJPerCm2!),
+      1e-12,
+    );
+  });
+
+  it("is the default: no option gives 'higher', the same energies as choosing it", () => {
+    expect(createStudyRunner(parse(withMotor())).finish([]).motorDecayModel).toBe('higher');
+    const m = withMotor([{ id: 'MS-1', source: 'M-1', device: flat(0.02) }]);
+    expect(run(m).cases.map((c) => c.incidentEnergyJPerCm2)).toEqual(
+      run(m, 'higher').cases.map((c) => c.incidentEnergyJPerCm2),
+    );
+  });
+
+  it('a bus without motor contribution is evaluated once: no model on its cases, no motor sentence', () => {
+    const m = withMotor();
+    m.motors = [];
+    const bus = run(m);
+    for (const c of bus.cases) {
+      expect(c.motorDecayModel).toBeUndefined();
+      expect(c.sentence).not.toContain('decay models');
+    }
+    expect(bus.incidentEnergyJPerCm2).toBe(run(m, 'step').incidentEnergyJPerCm2);
   });
 });
 
@@ -452,5 +584,52 @@ describe('a generator without Xd or sustained multiple: both typical sustained c
     expect(low.incidentEnergyJPerCm2).not.toBeCloseTo(high.incidentEnergyJPerCm2, 3);
     expectClose(missing.incidentEnergyJPerCm2, Math.max(low.incidentEnergyJPerCm2, high.incidentEnergyJPerCm2), 1e-12);
     expect(missing.sentence).toContain('the higher of two energies');
+  });
+
+  it("with a motor on the bus and motor decay 'higher': the highest of the four cases entered explicitly (both brackets)", () => {
+    // A motor starter with a 0.03 s definite time whose band starts at 0.8 × the motor's first-cycle current: in the
+    // step model it opens at 0.03 s; in the exponential model the current falls below its pickup at τ·ln(1/0.8)
+    // ≈ 0.019 s, the element stops (the conservative reset) and the motor feeds the arc until 5 τ — so here the
+    // exponential model gives the higher energy, in the generator's alternate case too.
+    const starter = (fromA: number): Device => ({
+      kind: 'band',
+      ratingA: 100,
+      currentUnit: 'ampere',
+      min: [
+        [fromA, 0.015],
+        [1e6, 0.015],
+      ],
+      max: [
+        [fromA, 0.03],
+        [1e6, 0.03],
+      ],
+    });
+    const build = (gen: Record<string, unknown>, fromA: number) => {
+      const m = generatorOnly();
+      m.motors = [{ id: 'M-1', bus: 'SWBD', hp: 100, kv: 0.46 }];
+      m.devices!.push({ id: 'MS', source: 'M-1', device: starter(fromA) });
+      const g = m.sources![0] as Record<string, unknown>;
+      delete g.sustainedCurrentMultiple;
+      Object.assign(g, gen);
+      return parse(m);
+    };
+    const full = (gen: Record<string, unknown>, fromA: number, motorDecayModel: 'step' | 'exponential' | 'higher') =>
+      createStudyRunner(build(gen, fromA), { motorDecayModel, motorDecayCycles: 5 })
+        .runBus('SWBD')
+        .cases.find((c) => c.arcCase === 'full')!;
+    // The motor's first-cycle current through its starter, from the model itself.
+    const i0 = full({}, 10, 'step').devices.find((d) => d.deviceId === 'MS')!.currentA;
+    const fromA = 0.8 * i0;
+    const explicit = [{ synchronousPct: 200 }, { sustainedCurrentMultiple: 3 }].flatMap((gen) =>
+      (['step', 'exponential'] as const).map((model) => full(gen, fromA, model)),
+    );
+    const missing = full({}, fromA, 'higher');
+    expectClose(missing.incidentEnergyJPerCm2, Math.max(...explicit.map((c) => c.incidentEnergyJPerCm2)), 1e-12);
+    const motor = (c: (typeof explicit)[number]) => c.sources.find((x) => x.sourceId === 'M-1')!;
+    expect(motor(explicit[0]).cutByDeviceId).toBe('MS'); // step: the starter opens
+    expect(motor(explicit[1]).reason).toBe('motor-decay'); // exponential: it stops timing, the motor decays out
+    expect(missing.motorDecayModel).toBe('exponential');
+    expect(missing.sentence).toContain('Sustained current of GEN not entered');
+    expect(missing.sentence).toContain('evaluated with both decay models: the exponential model');
   });
 });

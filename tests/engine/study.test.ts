@@ -390,10 +390,10 @@ describe('the arc-duration cap and motors', () => {
     expectClose(bus.arcDurationS!, 1, 1e-12);
   });
 
-  it('stops a motor contribution after the decay time (common practice, no source)', () => {
+  it('stops a motor contribution after the decay time in the step model (common practice, no source)', () => {
     const m = radial();
     m.motors = [{ id: 'P-1', bus: 'MCC', hp: 200, kv: 0.46 }];
-    const bus = createStudyRunner(parse(m), { motorDecayCycles: 5 }).runBus('MCC');
+    const bus = createStudyRunner(parse(m), { motorDecayModel: 'step', motorDecayCycles: 5 }).runBus('MCC');
     const full = bus.cases.find((c) => c.arcCase === 'full')!;
     const motor = full.sources.find((s) => s.sourceId === 'P-1')!;
     expect(motor.reason).toBe('motor-decay');

@@ -13,9 +13,9 @@
  *   voltage over their sum (magnitudes). Each device's current is split among the sources by proportional sharing
  *   along the fault-current flow (each bus passes on the mix of the currents that enter it).
  * - Time-varying currents: a generator's contribution follows its decrement (subtransient → transient →
- *   sustained, `decrement.ts`), a motor's stops after `motorDecayCycles` (step model, the default) or decays
- *   exponentially with that time constant (option), and a source stops when every path from it to the bus is
- *   opened. The arc is followed in steps (one step between events while every current is constant; fractions of
+ *   sustained, `decrement.ts`), a motor's stops after `motorDecayCycles` (step model) or decays exponentially with
+ *   that time constant; by default both are evaluated and the higher energy is kept (neither model is always the
+ *   higher), and a source stops when every path from it to the bus is opened. The arc is followed in steps (one step between events while every current is constant; fractions of
  *   the fastest active time constant while a current decays): in each step the bolted current is the sum of the
  *   contributions still feeding, the arcing current follows from it (IEEE 1584-2018 Eqs. 1, 25), and each device
  *   advances its operation by dt / t(I) at the current it then sees (IEEE C37.112 integral for time-varying
@@ -61,19 +61,21 @@ export interface StudyOptions {
   /** Cycles an induction motor keeps feeding the arc (common practice, no source). */
   motorDecayCycles?: number;
   /**
-   * 'step' (default): a motor feeds its full first-cycle contribution for `motorDecayCycles`, then stops.
-   * 'exponential': it decays as e^(−t/τ) with τ = `motorDecayCycles` cycles, dropped after 5 τ (common practice,
-   * no source). The step stays the default so results stay comparable; both give the same ampere-seconds.
+   * 'step': a motor feeds its full first-cycle contribution for `motorDecayCycles`, then stops.
+   * 'exponential': it decays as e^(−t/τ) with τ = `motorDecayCycles` cycles, dropped after 5 τ (both common
+   * practice, no source). Both give the same ampere-seconds, but neither always gives the higher energy.
+   * 'higher' (default): a case with motor contribution is evaluated with both and the higher energy is kept (the
+   * higher hazard; the case's sentence and `motorDecayModel` say which governed).
    */
   motorDecayModel?: MotorDecayModel;
   labelSettings?: LabelSettings;
 }
 
-export type MotorDecayModel = 'step' | 'exponential';
+export type MotorDecayModel = 'step' | 'exponential' | 'higher';
 export const DEFAULT_MOTOR_DECAY_CYCLES = 5;
 /** How far an arc is followed at a bus without a cap (`arcDurationCapS: null`), s. */
 export const NO_CAP_HORIZON_S = 3600;
-export const DEFAULT_MOTOR_DECAY_MODEL: MotorDecayModel = 'step';
+export const DEFAULT_MOTOR_DECAY_MODEL: MotorDecayModel = 'higher';
 const J_PER_CAL = 4.184;
 /** A share of the fault current below this counts as zero. */
 const NEGLIGIBLE = 1e-9;
@@ -310,6 +312,12 @@ interface CaseInput {
   location: 'load-side' | 'line-side';
   excluded: Set<string>;
   maxArcDurationS: number;
+  /**
+   * The motor decay model of the run; with 'higher' the picture's motors carry the step profile and `motorExponential`
+   * is the profile of the second evaluation.
+   */
+  motorDecayModel: MotorDecayModel;
+  motorExponential: ContributionProfile;
 }
 
 function readDevices(input: CaseInput, scale: number): DeviceReading[] {
@@ -731,6 +739,51 @@ function evaluateCaseBracketed(input: CaseInput, warnings: EngineWarning[]): Arc
   return kept;
 }
 
+/** The picture with every motor (in the contributors and the generator alternates) carrying `profile`. */
+function withMotorProfile(picture: FaultPicture, profile: ContributionProfile): FaultPicture {
+  const swap = (cs: Contributor[]) => cs.map((c) => (c.kind === 'motor' ? { ...c, profile } : c));
+  return {
+    ...picture,
+    contributors: swap(picture.contributors),
+    alternateContributors: picture.alternateContributors && swap(picture.alternateContributors),
+  };
+}
+
+/**
+ * The case with the run's motor decay model. With 'higher' and motor contribution at the bus, the case is evaluated
+ * with the step and with the exponential model and the higher energy is kept (ties: step), the sentence saying which
+ * governed and both energies; only the kept evaluation's warnings are reported. A bus without motor contribution is
+ * evaluated once.
+ */
+function evaluateCaseMotorModels(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace {
+  const motors = input.picture.contributors.filter((c) => c.kind === 'motor');
+  if (!motors.length) return evaluateCaseBracketed(input, warnings);
+  if (input.motorDecayModel !== 'higher') {
+    return { ...evaluateCaseBracketed(input, warnings), motorDecayModel: input.motorDecayModel };
+  }
+  const wStep: EngineWarning[] = [];
+  const wExp: EngineWarning[] = [];
+  // The picture's motors already carry the step profile (see createStudyRunner).
+  const step = evaluateCaseBracketed(input, wStep);
+  const exp = evaluateCaseBracketed(
+    { ...input, picture: withMotorProfile(input.picture, input.motorExponential) },
+    wExp,
+  );
+  const keepExp = exp.incidentEnergyJPerCm2 > step.incidentEnergyJPerCm2;
+  const kept = keepExp ? exp : step;
+  const other = keepExp ? step : exp;
+  warnings.push(...(keepExp ? wExp : wStep));
+  // Enough digits that two close energies read apart (up to 7).
+  let digits = 4;
+  while (digits < 7 && fmt(kept.incidentEnergyCalPerCm2, digits) === fmt(other.incidentEnergyCalPerCm2, digits))
+    digits += 1;
+  kept.sentence +=
+    ` Motor contribution (${motors.map((m) => m.id).join(', ')}) evaluated with both decay models: ` +
+    `${keepExp ? 'the exponential model (e^(−t/τ))' : 'the step model (full, then stop)'} governs, ` +
+    `the higher of two energies (${fmt(kept.incidentEnergyCalPerCm2, digits)} against ${fmt(other.incidentEnergyCalPerCm2, digits)} cal/cm² with the ${keepExp ? 'step' : 'exponential'} model).`;
+  return { ...kept, motorDecayModel: keepExp ? 'exponential' : 'step' };
+}
+
 /** The devices at this bus's end of the branches that feed it: its main device(s). */
 function mainDevices(picture: FaultPicture): Set<string> {
   const out = new Set<string>();
@@ -766,6 +819,7 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
   const motorDecayCycles = options.motorDecayCycles ?? DEFAULT_MOTOR_DECAY_CYCLES;
   const motorDecayS = motorDecayCycles / (model.frequencyHz ?? 60);
   const motorDecayModel = options.motorDecayModel ?? DEFAULT_MOTOR_DECAY_MODEL;
+  const motorExponential = motorExponentialProfile(motorDecayS);
   const scByBus = new Map(solver.result.buses.map((b) => [b.id, b]));
   const pictureContext: PictureContext = {
     model,
@@ -773,8 +827,8 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
     kvByBus: new Map(model.buses.map((b) => [b.id, b.nominalKv])),
     motorIds: new Set(model.motors.map((m) => m.id)),
     sourceById: new Map(model.sources.map((s) => [s.id, s])),
-    motorProfile:
-      motorDecayModel === 'exponential' ? motorExponentialProfile(motorDecayS) : motorStepProfile(motorDecayS),
+    // With 'higher' the picture is built with the step profile; the exponential one is swapped in for the second case.
+    motorProfile: motorDecayModel === 'exponential' ? motorExponential : motorStepProfile(motorDecayS),
     devicesByBranch: new Map(),
     devicesBySource: new Map(),
   };
@@ -847,16 +901,22 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
         arcing,
         enclosureCorrectionFactor: enclosure.enclosureCorrectionFactor,
         maxArcDurationS: arcDurationCap.capS ?? NO_CAP_HORIZON_S,
+        motorDecayModel,
+        motorExponential,
       };
       const cases: ArcCaseTrace[] = [];
       for (const arcCase of ['full', 'reduced'] as const)
-        cases.push(evaluateCaseBracketed({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings));
+        cases.push(
+          evaluateCaseMotorModels({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings),
+        );
       const mainStated = bus.equipment?.mainIsolated !== undefined;
       if (!equipment.mainIsolated) {
         const mains = mainDevices(picture);
         if (mains.size) {
           for (const arcCase of ['full', 'reduced'] as const)
-            cases.push(evaluateCaseBracketed({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings));
+            cases.push(
+              evaluateCaseMotorModels({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings),
+            );
           if (!mainStated) {
             warnings.push({
               code: 'MAIN_ISOLATION_NOT_STATED',
