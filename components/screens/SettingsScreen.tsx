@@ -21,7 +21,7 @@ export function SettingsScreen() {
   const [review, setReview] = useState('60');
   const [danger, setDanger] = useState('40');
   const [cap, setCap] = useState('2000');
-  const [motorDecay, setMotorDecay] = useState<OrganizationSettings['motorDecayModel']>('step');
+  const [motorDecay, setMotorDecay] = useState<OrganizationSettings['motorDecayModel']>('higher');
   const [independent, setIndependent] = useState<'yes' | 'no'>('no');
   const [unitOrder, setUnitOrder] = useState<'us-first' | 'si-first'>('si-first');
   const [notInstalled, setNotInstalled] = useState('30');
@@ -142,7 +142,8 @@ export function SettingsScreen() {
           label="A motor’s contribution to the arc over its decay time"
           value={motorDecay}
           options={[
-            { value: 'step', label: 'Full, then stops (default)' },
+            { value: 'higher', label: 'Both, keep the higher energy (default)' },
+            { value: 'step', label: 'Full, then stops' },
             { value: 'exponential', label: 'Decays exponentially' },
           ]}
           onChange={setMotorDecay}
@@ -150,11 +151,13 @@ export function SettingsScreen() {
         />
         {errors.motorDecayModel ? <Notice tone="error">{errors.motorDecayModel}</Notice> : null}
         <T variant="small">
-          Full, then stops (default): each motor feeds its full first-cycle current until its decay time, then nothing —
-          the higher current while it lasts. Decays exponentially: the current falls as e^(−t/τ), τ the decay time, and
-          is dropped after 5 τ, so a smaller current flows for longer; where a motor keeps the arc going or slows a
-          device, this can give the higher energy. Neither is always higher: where motors matter, run both and keep the
-          higher. Applies to runs started from now on; each run’s report states the model it used.
+          Full, then stops: each motor feeds its full first-cycle current until its decay time, then nothing — the
+          higher current while it lasts. Decays exponentially: the current falls as e^(−t/τ), τ the decay time, and is
+          dropped after 5 τ, so a smaller current flows for longer; where a motor keeps the arc going or slows a device,
+          this can give the higher energy. Neither is always higher, so the default evaluates every case with motor
+          contribution both ways and keeps the higher energy; each case’s trace says which model governed. Choose one
+          model only to compare with an earlier study. Applies to runs started from now on; each run’s report states the
+          model it used.
         </T>
       </Card>
       <Card testID="attention-settings">

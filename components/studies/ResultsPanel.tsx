@@ -281,8 +281,12 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
           {data.summary.bySignalWord.DANGER} DANGER, {data.summary.bySignalWord.WARNING} WARNING
           {data.summary.errors ? `, ${data.summary.errors} not evaluated` : ''} · arc duration capped at{' '}
           {fmt(data.study.maxArcDurationMs / 1000)} s · motors{' '}
-          {data.study.motorDecayModel === 'exponential' ? 'decay exponentially' : 'full, then stop'} · run{' '}
-          {data.run.finishedAt?.slice(0, 16).replace('T', ' ')}
+          {data.study.motorDecayModel === 'higher'
+            ? 'evaluated both ways (full then stop; decaying), the higher energy kept'
+            : data.study.motorDecayModel === 'exponential'
+              ? 'decay exponentially'
+              : 'full, then stop'}{' '}
+          · run {data.run.finishedAt?.slice(0, 16).replace('T', ' ')}
         </T>
       </Card>
       {data.total === 0 ? <Notice>No bus matches these filters.</Notice> : null}
