@@ -7,7 +7,9 @@
  * tests/api/permissions.test.ts checks that the roles here equal each route's access list and that every route with
  * a list of roles belongs to one capability: a change on one side without the other fails that test.
  *
- * The other capabilities are the app's own (what a role is shown; the server decides what it may read).
+ * The other capabilities are the app's own (what a role is shown; the server decides what it may read). The two that
+ * mirror what the API shows a role (`seeAllFieldReports`, `seeUnapprovedStudies`) are checked against its answers in
+ * the same test.
  */
 import { ROLES, type Role } from './schemas/common';
 
