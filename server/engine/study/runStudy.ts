@@ -42,7 +42,7 @@ import {
 } from '../ieee1584/compute';
 import { computeLabelValues, type LabelSettings } from '../labelValues';
 import { createShortCircuitSolver, type BusFault, type ShortCircuitSolver } from '../shortcircuit';
-import { clearingTime } from '../trip';
+import { createBandReader, type BandReader } from '../trip';
 import { boundaryDistanceMm } from './boundary';
 import {
   CONSTANT_PROFILE,
@@ -320,13 +320,22 @@ interface CaseInput {
   motorExponential: ContributionProfile;
 }
 
+/** One band reader per fault: a device's band is read once per current over all the cases of a bus. */
+const bandReaders = new WeakMap<BusFault, BandReader>();
+function bandReaderOf(picture: FaultPicture): BandReader {
+  let reader = bandReaders.get(picture.fault);
+  if (!reader) bandReaders.set(picture.fault, (reader = createBandReader()));
+  return reader;
+}
+
 function readDevices(input: CaseInput, scale: number): DeviceReading[] {
   const boltedKa = input.picture.fault.boltedFaultKa;
+  const bands = bandReaderOf(input.picture);
   return input.picture.devices
     .filter((d) => !input.excluded.has(d.placed.id))
     .map((d) => {
       const currentA = d.boltedCurrentA * scale;
-      const r = clearingTime(d.placed.device as Device, currentA);
+      const r = bands.clearing(d.placed.device as Device, currentA);
       return {
         deviceId: d.placed.id,
         name: d.placed.name ?? d.placed.id,
@@ -373,7 +382,13 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const readingById = new Map(readings.map((r) => [r.deviceId, r]));
   const byId = new Map(picture.devices.map((d) => [d.placed.id, d]));
   const active = picture.devices.filter((d) => !input.excluded.has(d.placed.id));
-  const integrators = new Map(active.map((d) => [d.placed.id, createTripIntegrator(d.placed.device as Device)]));
+  const bands = bandReaderOf(picture);
+  const integrators = new Map(
+    active.map((d) => {
+      const device = d.placed.device as Device;
+      return [d.placed.id, createTripIntegrator(device, (currentA) => bands.read(device, currentA))];
+    }),
+  );
   const capS = input.maxArcDurationS;
   const outgoing = new Map<string, Edge[]>();
   for (const e of picture.edges) (outgoing.get(e.from) ?? outgoing.set(e.from, []).get(e.from)!).push(e);

@@ -38,7 +38,11 @@ export interface TripIntegrator {
 /** Relative slack for "the progress reached 1" (float sums of dt/t). */
 const PROGRESS_SLACK = 1e-9;
 
-export function createTripIntegrator(device: Device): TripIntegrator {
+/** `readBand` of the device (a study passes its `BandReader`'s, which reads each current once). */
+export function createTripIntegrator(
+  device: Device,
+  readBandAt: (currentA: number) => BandReading = (currentA) => readBand(device, currentA),
+): TripIntegrator {
   const progress = new Map<string, number>();
   const dropouts: ElementDropout[] = [];
   let operated: TripIntegrator['operated'] = null;
@@ -46,7 +50,7 @@ export function createTripIntegrator(device: Device): TripIntegrator {
 
   const read = (currentA: number): BandReading | null => {
     if (cache && cache.currentA === currentA) return cache.band;
-    const band = currentA > 0 && Number.isFinite(currentA) ? readBand(device, currentA) : null;
+    const band = currentA > 0 && Number.isFinite(currentA) ? readBandAt(currentA) : null;
     cache = { currentA, band };
     return band;
   };

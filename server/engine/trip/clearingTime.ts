@@ -107,31 +107,11 @@ const TOLERANCE_EDGES: Record<Device['kind'], { maximum: string; minimum: string
  * non-positive current.
  */
 export function clearingTime(device: Device, currentA: number): ClearingTimeResult {
-  if (typeof currentA !== 'number' || !Number.isFinite(currentA) || currentA <= 0) {
-    throw new EngineError(
-      'invalid-input',
-      'NOT_POSITIVE',
-      `currentA must be a positive number, got ${String(currentA)}`,
-      'currentA',
-    );
-  }
-  if (!device || typeof device !== 'object') {
-    throw new EngineError('invalid-input', 'DEVICE_MISSING', 'Give the device', 'device');
-  }
+  checkClearingInput(device, currentA);
   const band = readBand(device, currentA);
-  const warnings = [...band.warnings];
-  if (band.maxS === null) {
-    warnings.push({
-      code: 'NO_TRIP',
-      message: `At ${fmt(currentA)} A the device's maximum curve shows no trip: this device does not clear this current`,
-    });
-  }
   const ratingA = ratingOf(device);
   return {
-    clearingTimeS: band.maxS,
-    minimumTimeS: band.minS,
-    region: band.region,
-    warnings,
+    ...clearingFromBand(band, currentA),
     trace: {
       kind: device.kind,
       currentA,
@@ -149,4 +129,31 @@ export function clearingTime(device: Device, currentA: number): ClearingTimeResu
       })),
     },
   };
+}
+
+/** The input checks of `clearingTime`: throws EngineError 'invalid-input' for a non-positive current or no device. */
+export function checkClearingInput(device: Device, currentA: number): void {
+  if (typeof currentA !== 'number' || !Number.isFinite(currentA) || currentA <= 0) {
+    throw new EngineError(
+      'invalid-input',
+      'NOT_POSITIVE',
+      `currentA must be a positive number, got ${String(currentA)}`,
+      'currentA',
+    );
+  }
+  if (!device || typeof device !== 'object') {
+    throw new EngineError('invalid-input', 'DEVICE_MISSING', 'Give the device', 'device');
+  }
+}
+
+/** The result of `clearingTime` without its trace, from the band read at `currentA`. */
+export function clearingFromBand(band: BandReading, currentA: number): Omit<ClearingTimeResult, 'trace'> {
+  const warnings = [...band.warnings];
+  if (band.maxS === null) {
+    warnings.push({
+      code: 'NO_TRIP',
+      message: `At ${fmt(currentA)} A the device's maximum curve shows no trip: this device does not clear this current`,
+    });
+  }
+  return { clearingTimeS: band.maxS, minimumTimeS: band.minS, region: band.region, warnings };
 }

@@ -113,8 +113,11 @@ function toleranceWarning(name: string, currentA: number, edges: PickupEdges): E
  * The ground-fault element responds to residual current only and is not applied to the (balanced)
  * three-phase arcing current; it is listed in the trace.
  */
-export function electronicBand(device: ElectronicDevice, currentA: number): BandReading {
-  const s = electronicSettings(device);
+export function electronicBand(
+  device: ElectronicDevice,
+  currentA: number,
+  s: ElectronicSettings = electronicSettings(device),
+): BandReading {
   const up = 1 + s.timeTolerancePct / 100;
   const down = 1 - s.timeTolerancePct / 100;
   const multipleOfIr = currentA / s.longTime.irA;

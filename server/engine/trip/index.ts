@@ -1,5 +1,6 @@
 /** Clearing time from trip bands (docs/ARCHITECTURE.md, Clearing time from a trip band): pure functions. */
 export { clearingTime, readBand, type ClearingTimeResult, type ClearingTrace } from './clearingTime';
+export { createBandReader, type BandReader } from './bandReader';
 export { interpolateLogLog, validateCurvePoints, type TimeCurrentPoint, type CurveReading } from './interpolate';
 export {
   cyclesToSeconds,

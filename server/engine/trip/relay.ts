@@ -178,8 +178,11 @@ export function relaySettings(device: RelayDevice): RelaySettings {
  * HIGH edge (within the band it stays on the slower element, with a warning), the minimum curve above the LOW edge —
  * as for thermal-magnetic and electronic trip units.
  */
-export function relayBand(device: RelayDevice, currentA: number): BandReading {
-  const s = relaySettings(device);
+export function relayBand(
+  device: RelayDevice,
+  currentA: number,
+  s: RelaySettings = relaySettings(device),
+): BandReading {
   const elements: ElementReading[] = [];
   const breakerDetail = { breakerCycles: device.breakerCycles, breakerS: s.breakerS, frequencyHz: s.frequencyHz };
   const inst = s.instantaneousEdges;

@@ -96,8 +96,11 @@ export function thermalMagneticSettings(device: ThermalMagneticDevice): ThermalM
  * curve drops above the LOW edge (at the low edge itself the breaker must not trip, as in the IEC 60898-1
  * instantaneous test). The fastest element governs each edge.
  */
-export function thermalMagneticBand(device: ThermalMagneticDevice, currentA: number): BandReading {
-  const s = thermalMagneticSettings(device);
+export function thermalMagneticBand(
+  device: ThermalMagneticDevice,
+  currentA: number,
+  s: ThermalMagneticSettings = thermalMagneticSettings(device),
+): BandReading {
   const multiple = currentA / device.ratingA;
   const elements: ElementReading[] = [];
   const withinTolerance =
