@@ -30,6 +30,8 @@ export interface CreateAppOptions {
   mail?: Mailer;
   /** Defaults to the process logger (server/log.ts). */
   logger?: Logger;
+  /** Check every JSON success body against its response schema (500 when it does not match). Default: in tests. */
+  checkResponses?: boolean;
 }
 
 /** Builds the Express app (no listening): /api plus the exported web build on the same origin. */
@@ -65,7 +67,9 @@ export function createApp(opts: CreateAppOptions): { app: Express; ctx: AppConte
   });
   const openapi = buildOpenApi(routes, API_VERSION);
   api.get('/openapi.json', (_req, res) => res.json(openapi));
-  mountRoutes(api, ctx, routes, authenticate(ctx));
+  mountRoutes(api, ctx, routes, authenticate(ctx), {
+    checkResponses: opts.checkResponses ?? opts.config.env === 'test',
+  });
   api.use((req, _res, next) => next(ApiError.notFound(`No API route ${req.method} ${req.path}`)));
   api.use(errorMiddleware);
   app.use('/api', api);

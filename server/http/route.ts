@@ -1,40 +1,25 @@
 import express, { type Request, type RequestHandler, type Response, type Router } from 'express';
 import type { z } from 'zod';
-import type { Role } from '../../shared/schemas/common';
+import type { BodyOf, Endpoint, EndpointDef, ParamsOf, QueryOf, ResponseInputOf } from '../../shared/api';
 import type { AppContext, AuthUser } from './context';
 import { jsonDepthGuard } from './bodyParsing';
+import { log } from '../log';
 import { ApiError, validationError } from './errors';
 
-/** Who may call a route: nobody signed in, any signed-in user, or the listed roles. */
-export type Access = 'public' | 'signed-in' | readonly Role[];
+export type { Access } from '../../shared/api';
 
-export interface HandlerArgs<B, Q> {
+export interface HandlerArgs<E extends EndpointDef> {
   req: Request;
   res: Response;
   ctx: AppContext;
-  body: B;
-  query: Q;
-  params: Record<string, string>;
+  body: BodyOf<E>;
+  query: QueryOf<E>;
+  params: ParamsOf<E>;
   user: AuthUser;
 }
 
-type HttpMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
-
-/**
- * One route: method, path, who may call it, its zod schemas and its handler.
- * The router, the OpenAPI document and the access-control test are all generated from these definitions.
- */
-export interface RouteDef<B = unknown, Q = unknown> {
-  method: HttpMethod;
-  path: string;
-  summary: string;
-  tag: string;
-  access: Access;
-  body?: z.ZodType<B>;
-  query?: z.ZodType<Q>;
-  response?: z.ZodType;
-  /** Content type of a non-JSON success response (e.g. application/pdf). */
-  produces?: string;
+/** Middleware around a handler. */
+export interface BindingOptions {
   /** Multipart or other pre-handler middleware (runs after auth). */
   middleware?: RequestHandler[];
   /**
@@ -44,18 +29,81 @@ export interface RouteDef<B = unknown, Q = unknown> {
   jsonLimit?: string;
   /** Extra middleware that runs before auth (e.g. rate limiting). */
   before?: RequestHandler[];
-  status?: number;
-  handler: (args: HandlerArgs<B, Q>) => unknown | Promise<unknown>;
 }
 
 /**
- * A route with its body and query types erased, so routes of different shapes fit in one table. The erasure is sound
- * because `mountRoutes` parses the body and query with the route's own schemas before its handler runs.
+ * What the server adds to a contract endpoint: either a `handler` that returns the JSON body (typed against the
+ * endpoint's response schema; nothing for a 204 or a file sent through `res`), or a `respond` that writes a JSON body
+ * itself (pre-serialized, with an ETag): the test-time response check reads what it sends.
  */
-export type AnyRoute = RouteDef<unknown, unknown>;
+export type Binding<E extends EndpointDef> = BindingOptions &
+  (
+    | { handler: (args: HandlerArgs<E>) => ResponseInputOf<E> | Promise<ResponseInputOf<E>>; respond?: never }
+    | { respond: (args: HandlerArgs<E>) => Promise<void>; handler?: never }
+  );
 
-export function defineRoute<B = undefined, Q = undefined>(def: RouteDef<B, Q>): AnyRoute {
-  return def as unknown as AnyRoute;
+/**
+ * One route of the table: a contract endpoint (shared/api) with its handler bound. The router, the OpenAPI document
+ * and the access-control test are all generated from these. Body, query and response types are erased so routes of
+ * different shapes fit in one table; the erasure is sound because `mountRoutes` parses the body and query with the
+ * endpoint's own schemas before its handler runs, and the handler was type-checked against the endpoint in `bind`.
+ */
+export type AnyRoute = Endpoint &
+  BindingOptions & {
+    handler: (args: ErasedArgs) => unknown;
+  };
+
+/** Handler arguments with the body, query and params types erased (see `AnyRoute`). */
+type ErasedArgs = Omit<HandlerArgs<EndpointDef>, 'body' | 'query' | 'params'> & {
+  body: unknown;
+  query: unknown;
+  params: Record<string, string>;
+};
+
+export function bind<E extends EndpointDef>(endpoint: E, binding: Binding<E>): AnyRoute {
+  const { handler, respond, ...options } = binding;
+  return { ...endpoint, ...options, handler: handler ?? respond } as unknown as AnyRoute;
+}
+
+export interface MountOptions {
+  /**
+   * Check every JSON success body against the endpoint's response schema; a body that does not match is logged and
+   * answered 500 instead. On in tests (every API test then checks every response), off in production.
+   */
+  checkResponses?: boolean;
+}
+
+/**
+ * Middleware that checks the JSON success body of this request against the route's response schema, whether the
+ * handler returned it or sent it itself (pre-serialized JSON through `res.send`). A body that does not match is logged
+ * with the route and the first issues, and answered 500 instead.
+ */
+function responseChecker(def: AnyRoute, response: z.ZodType): RequestHandler {
+  return (req, res, next) => {
+    const send = res.send.bind(res);
+    res.send = (payload?: unknown) => {
+      const isJson = /json/.test(String(res.getHeader('Content-Type') ?? ''));
+      const text = typeof payload === 'string' ? payload : Buffer.isBuffer(payload) ? payload.toString('utf8') : null;
+      // An object goes through res.json, which comes back here with its text.
+      if (res.statusCode >= 300 || !isJson || text === null) return send(payload);
+      const checked = response.safeParse(JSON.parse(text));
+      if (checked.success) return send(payload);
+      const detail = describeIssues(checked.error);
+      const message = `The response of ${def.method.toUpperCase()} ${def.path} does not match its schema: ${detail}`;
+      (req.log ?? log).error(message);
+      res.status(500);
+      return send(JSON.stringify({ error: { code: 'internal', message } }));
+    };
+    next();
+  };
+}
+
+/** The first few zod issues of a response that does not match its schema, as one line. */
+function describeIssues(error: z.ZodError): string {
+  return error.issues
+    .slice(0, 5)
+    .map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`)
+    .join('; ');
 }
 
 /**
@@ -74,7 +122,13 @@ export function largeBodyMarker(routes: AnyRoute[]): Router {
   return marker;
 }
 
-export function mountRoutes(router: Router, ctx: AppContext, routes: AnyRoute[], authenticate: RequestHandler): void {
+export function mountRoutes(
+  router: Router,
+  ctx: AppContext,
+  routes: AnyRoute[],
+  authenticate: RequestHandler,
+  opts: MountOptions = {},
+): void {
   for (const def of routes) {
     const chain: RequestHandler[] = [...(def.before ?? [])];
     if (def.access !== 'public') {
@@ -90,6 +144,8 @@ export function mountRoutes(router: Router, ctx: AppContext, routes: AnyRoute[],
     }
     if (def.jsonLimit) chain.push(express.json({ limit: def.jsonLimit, verify: jsonDepthGuard() }));
     chain.push(...(def.middleware ?? []));
+    const response = def.response;
+    if (opts.checkResponses && response && !def.produces) chain.push(responseChecker(def, response));
     chain.push(async (req, res) => {
       let body: unknown = undefined;
       let query: unknown = undefined;

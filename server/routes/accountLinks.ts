@@ -1,18 +1,9 @@
 import { rateLimit } from 'express-rate-limit';
 import type { RequestHandler } from 'express';
-import { z } from 'zod';
-import { signInResponseSchema } from '../../shared/schemas/auth';
-import {
-  acceptInvitationSchema,
-  changePasswordSchema,
-  linkTokenSchema,
-  passwordResetConfirmSchema,
-  passwordResetRequestSchema,
-  tokenInfoSchema,
-} from '../../shared/schemas/invitations';
 import { AccountQuota } from '../auth/accountThrottle';
 import { withRetry } from '../db/retry';
-import { defineRoute, type AnyRoute } from '../http/route';
+import { contract } from '../../shared/api';
+import { bind, type AnyRoute } from '../http/route';
 import { acceptInvitation, confirmPasswordReset, linkInfo, requestPasswordReset } from '../services/invitations';
 import { changePassword } from '../services/users';
 
@@ -38,40 +29,16 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
   const perMinute = opts.signInLimitPerMinute;
   const resetMails = new AccountQuota(RESET_MAILS_PER_HOUR, 3600_000);
   return [
-    defineRoute({
-      method: 'post',
-      path: '/auth/link-info',
-      summary:
-        'What a one-time link is for (invitation or password reset) and for whom; 404 saying why when it cannot be used.',
-      tag: 'auth',
-      access: 'public',
+    bind(contract.accountLinks.linkInfo, {
       before: [limiter(perMinute, 'link checks')],
-      body: z.object({ token: linkTokenSchema }),
-      response: tokenInfoSchema,
       handler: ({ ctx, body }) => linkInfo(ctx, body.token),
     }),
-    defineRoute({
-      method: 'post',
-      path: '/auth/accept-invitation',
-      summary:
-        'Accept an invitation with a password of your choice: creates the account and signs in. The link works once.',
-      tag: 'auth',
-      access: 'public',
+    bind(contract.accountLinks.acceptInvitation, {
       before: [limiter(perMinute, 'attempts')],
-      body: acceptInvitationSchema,
-      response: signInResponseSchema,
       handler: ({ ctx, body }) => acceptInvitation(ctx, body),
     }),
-    defineRoute({
-      method: 'post',
-      path: '/auth/password-reset',
-      summary:
-        'Ask for a password-reset link by e-mail (1 hour). Always answers ok: it never tells whether the address has an account.',
-      tag: 'auth',
-      access: 'public',
+    bind(contract.accountLinks.requestPasswordReset, {
       before: [limiter(perMinute, 'password-reset requests')],
-      body: passwordResetRequestSchema,
-      response: z.object({ ok: z.literal(true) }),
       handler: ({ ctx, body }) => {
         // At most 3 reset mails an hour per address, whatever the client address; beyond, the same answer and no mail.
         if (!resetMails.take(body.email, ctx.now().getTime())) return { ok: true as const };
@@ -81,27 +48,12 @@ export function accountLinkRoutes(opts: { signInLimitPerMinute: number }): AnyRo
         return { ok: true as const };
       },
     }),
-    defineRoute({
-      method: 'post',
-      path: '/auth/password-reset/confirm',
-      summary:
-        'Set a new password from a reset link: the link works once; every other session ends; returns a fresh one.',
-      tag: 'auth',
-      access: 'public',
+    bind(contract.accountLinks.confirmPasswordReset, {
       before: [limiter(perMinute, 'attempts')],
-      body: passwordResetConfirmSchema,
-      response: signInResponseSchema,
       handler: ({ ctx, body }) => confirmPasswordReset(ctx, body),
     }),
-    defineRoute({
-      method: 'post',
-      path: '/auth/password',
-      summary: 'Change your password (needs the current one): every other session ends; returns a fresh one.',
-      tag: 'auth',
-      access: 'signed-in',
+    bind(contract.accountLinks.changePassword, {
       before: [limiter(perMinute, 'password changes')],
-      body: changePasswordSchema,
-      response: signInResponseSchema,
       handler: ({ ctx, user, body }) => changePassword(ctx, user, body),
     }),
   ];

@@ -1,12 +1,11 @@
 import { rateLimit } from 'express-rate-limit';
-import { z } from 'zod';
-import { meSchema, signInRequestSchema, signInResponseSchema } from '../../shared/schemas/auth';
 import { SignInThrottle } from '../auth/accountThrottle';
 import { dummyPasswordHash, verifyPassword } from '../auth/passwords';
 import { markRevoked } from '../auth/cache';
 import { Organization, RevokedToken, User } from '../db/models';
 import { ApiError } from '../http/errors';
-import { defineRoute, type AnyRoute } from '../http/route';
+import { contract } from '../../shared/api';
+import { bind, type AnyRoute } from '../http/route';
 import { recordAudit } from '../services/audit';
 import { signInResponseFor } from '../services/users';
 
@@ -29,15 +28,8 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
   const throttle = new SignInThrottle();
 
   return [
-    defineRoute({
-      method: 'post',
-      path: '/auth/sign-in',
-      summary: 'Sign in with e-mail and password; returns a bearer token (at most 12 h).',
-      tag: 'auth',
-      access: 'public',
+    bind(contract.auth.signIn, {
       before: [signInLimiter],
-      body: signInRequestSchema,
-      response: signInResponseSchema,
       handler: async ({ ctx, body, res }) => {
         const nowMs = ctx.now().getTime();
         const waitMs = throttle.waitMs(body.email, nowMs);
@@ -71,13 +63,7 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
         return signInResponseFor(ctx, user);
       },
     }),
-    defineRoute({
-      method: 'get',
-      path: '/auth/me',
-      summary: 'The signed-in user and organization.',
-      tag: 'auth',
-      access: 'signed-in',
-      response: meSchema,
+    bind(contract.auth.me, {
       handler: async ({ user }) => {
         const org = await Organization.findByPk(user.organizationId);
         if (!org) throw ApiError.unauthorized();
@@ -90,13 +76,7 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
         };
       },
     }),
-    defineRoute({
-      method: 'post',
-      path: '/auth/sign-out',
-      summary: 'Revoke the token used for this request.',
-      tag: 'auth',
-      access: 'signed-in',
-      response: z.object({ ok: z.literal(true) }),
+    bind(contract.auth.signOut, {
       handler: async ({ user }) => {
         await RevokedToken.findOrCreate({
           where: { jti: user.jti },

@@ -1,33 +1,15 @@
-import { clearingTimeRequestSchema, clearingTimeResponseSchema, deviceSchema } from '../../shared/schemas/device';
-import {
-  bandCurvesRequestSchema,
-  bandCurvesResponseSchema,
-  resolveTripUnitRequestSchema,
-} from '../../shared/schemas/deviceLibrary';
-import { z } from 'zod';
 import { bandCurves, clearingTime, resolveElectronicSettings } from '../engine/trip';
-import { defineRoute, type AnyRoute } from '../http/route';
-import { incidentEnergyRequestSchema, incidentEnergyResponseSchema } from '../../shared/schemas/incidentEnergy';
-import { labelValuesSchema } from '../../shared/schemas/labelValues';
+import { contract } from '../../shared/api';
+import { bind, type AnyRoute } from '../http/route';
 import { computeIncidentEnergy } from '../engine/ieee1584';
 import { InvalidModelError, shortCircuit } from '../engine/shortcircuit';
 import { modelIssuesError } from '../http/errors';
-import { modelSchema } from '../../shared/schemas/model';
 import { computeLabelValues } from '../engine/labelValues';
 import { getSettings, labelSettingsOf } from '../services/organization';
 
 /** Stateless calculation routes: any signed-in role may call them. */
 export const calcRoutes: AnyRoute[] = [
-  defineRoute({
-    method: 'post',
-    path: '/calc/clearing-time',
-    summary:
-      'Clearing time of a protective device at a current: the maximum (total clearing) curve time, the minimum curve time, ' +
-      'the region of the band, and warnings. Device kinds: relay, fuse, band, thermal-magnetic, electronic.',
-    tag: 'calc',
-    access: 'signed-in',
-    body: clearingTimeRequestSchema,
-    response: clearingTimeResponseSchema,
+  bind(contract.calc.clearingTime, {
     handler: ({ body }) => {
       const r = clearingTime(body.device, body.currentA);
       return {
@@ -39,40 +21,16 @@ export const calcRoutes: AnyRoute[] = [
       };
     },
   }),
-  defineRoute({
-    method: 'post',
-    path: '/calc/band-curves',
-    summary: 'A device’s minimum and maximum curves sampled for plotting, amperes against seconds.',
-    tag: 'calc',
-    access: 'signed-in',
-    body: bandCurvesRequestSchema,
-    response: bandCurvesResponseSchema,
+  bind(contract.calc.bandCurves, {
     handler: ({ body }) => bandCurves(body.device, { fromA: body.fromA, toA: body.toA }),
   }),
-  defineRoute({
-    method: 'post',
-    path: '/calc/resolve-trip-unit',
-    summary: 'An electronic trip unit’s switch positions resolved to the numbers the engine uses.',
-    tag: 'calc',
-    access: 'signed-in',
-    body: resolveTripUnitRequestSchema,
-    response: z.object({ device: deviceSchema }),
+  bind(contract.calc.resolveTripUnit, {
     handler: ({ body }) => ({ device: resolveElectronicSettings(body.tripType, body.positions) }),
   }),
 ];
 
 /** Incident energy plus the label values under the organization's settings. */
-export const incidentEnergyRoute = defineRoute({
-  method: 'post',
-  path: '/calc/incident-energy',
-  summary:
-    'IEEE 1584-2018 arcing currents, incident energy and arc-flash boundary of one equipment (both the full and the reduced ' +
-    'arcing current, each with its own arc duration; the larger energy governs), plus the label values under the organization’s settings. ' +
-    'Voltage outside 208 V–15 kV → 422.',
-  tag: 'calc',
-  access: 'signed-in',
-  body: incidentEnergyRequestSchema,
-  response: incidentEnergyResponseSchema.extend({ labelValues: labelValuesSchema }),
+export const incidentEnergyRoute = bind(contract.calc.incidentEnergy, {
   handler: async ({ body, user }) => {
     const settings = await getSettings(user.organizationId);
     const result = computeIncidentEnergy({
@@ -83,22 +41,7 @@ export const incidentEnergyRoute = defineRoute({
   },
 });
 
-export const shortCircuitRoute = defineRoute({
-  method: 'post',
-  path: '/calc/short-circuit',
-  summary:
-    'Three-phase bolted fault current (symmetrical rms, kA) and X/R at every bus of a system model. ' +
-    'A bad model → 400 naming every element and field.',
-  tag: 'calc',
-  access: 'signed-in',
-  body: z.object({ model: modelSchema }).meta({ id: 'ShortCircuitRequest' }),
-  response: z
-    .object({
-      prefaultPu: z.number(),
-      buses: z.array(z.object({ id: z.string(), nominalKv: z.number(), boltedFaultKa: z.number(), xr: z.number() })),
-      warnings: z.array(z.object({ code: z.string(), message: z.string() })),
-    })
-    .meta({ id: 'ShortCircuitResponse' }),
+export const shortCircuitRoute = bind(contract.calc.shortCircuit, {
   handler: ({ body }) => {
     try {
       return shortCircuit(body.model);

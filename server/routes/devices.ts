@@ -1,13 +1,7 @@
-import { z } from 'zod';
-import {
-  bandCsvResponseSchema,
-  deviceTypeInputSchema,
-  deviceTypeListSchema,
-  deviceTypeSchema,
-} from '../../shared/schemas/deviceLibrary';
 import { parseBandCsv } from '../engine/trip';
 import { ApiError } from '../http/errors';
-import { defineRoute, type AnyRoute } from '../http/route';
+import { contract } from '../../shared/api';
+import { bind, type AnyRoute } from '../http/route';
 import { singleFileUpload } from '../http/upload';
 import {
   createDeviceType,
@@ -26,66 +20,25 @@ const csvUpload = singleFileUpload({
 });
 
 export const deviceRoutes: AnyRoute[] = [
-  defineRoute({
-    method: 'get',
-    path: '/device-types',
-    summary: 'The organization’s device library.',
-    tag: 'devices',
-    access: 'signed-in',
-    response: deviceTypeListSchema,
+  bind(contract.devices.list, {
     handler: async ({ user }) => ({ deviceTypes: await listDeviceTypes(user) }),
   }),
-  defineRoute({
-    method: 'post',
-    path: '/device-types',
-    summary: 'Add a device type (any of the five kinds).',
-    tag: 'devices',
-    access: ['engineer'],
-    body: deviceTypeInputSchema,
-    response: deviceTypeSchema,
-    status: 201,
+  bind(contract.devices.create, {
     handler: ({ ctx, user, body }) => createDeviceType(ctx, user, body),
   }),
-  defineRoute({
-    method: 'get',
-    path: '/device-types/:deviceTypeId',
-    summary: 'One device type, with its settings resolved to numbers.',
-    tag: 'devices',
-    access: 'signed-in',
-    response: deviceTypeSchema,
+  bind(contract.devices.get, {
     handler: ({ user, params }) => getDeviceType(user, params.deviceTypeId),
   }),
-  defineRoute({
-    method: 'put',
-    path: '/device-types/:deviceTypeId',
-    summary: 'Edit a device type.',
-    tag: 'devices',
-    access: ['engineer'],
-    body: deviceTypeInputSchema,
-    response: deviceTypeSchema,
+  bind(contract.devices.update, {
     handler: ({ ctx, user, body, params }) => updateDeviceType(ctx, user, params.deviceTypeId, body),
   }),
-  defineRoute({
-    method: 'delete',
-    path: '/device-types/:deviceTypeId',
-    summary: 'Remove a device type from the library (studies keep their own copy).',
-    tag: 'devices',
-    access: ['engineer'],
+  bind(contract.devices.remove, {
     handler: async ({ ctx, user, params }) => {
       await deleteDeviceType(ctx, user, params.deviceTypeId);
     },
   }),
-  defineRoute({
-    method: 'post',
-    path: '/device-types/parse-band-csv',
-    summary:
-      'Read a digitized band from a CSV upload (multipart field "file"; columns current or multiple, minimum seconds, maximum seconds). ' +
-      'Errors name the line.',
-    tag: 'devices',
-    access: ['engineer'],
+  bind(contract.devices.parseBandCsv, {
     middleware: [csvUpload],
-    query: z.object({ currentUnit: z.enum(['multiple', 'ampere']).optional() }),
-    response: bandCsvResponseSchema,
     handler: ({ req, query }) => {
       const text = (req.file as Express.Multer.File).buffer.toString('utf8');
       const result = parseBandCsv(text, { currentUnit: query.currentUnit });

@@ -1,5 +1,5 @@
-import { z } from 'zod';
-import { defineRoute, type AnyRoute } from '../http/route';
+import { contract } from '../../shared/api';
+import { bind, type AnyRoute } from '../http/route';
 import { accountLinkRoutes } from './accountLinks';
 import { attentionRoutes } from './attention';
 import { authRoutes } from './auth';
@@ -21,13 +21,7 @@ export interface RouteOptions {
 /** Every API route, in one table: the router, the OpenAPI document and the access tests read it. */
 export function allRoutes(opts: RouteOptions): AnyRoute[] {
   return [
-    defineRoute({
-      method: 'get',
-      path: '/health',
-      summary: 'Liveness and database check.',
-      tag: 'system',
-      access: 'public',
-      response: z.object({ ok: z.boolean(), database: z.string() }),
+    bind(contract.system.health, {
       handler: async ({ ctx }) => {
         await ctx.db.sequelize.query('SELECT 1');
         return { ok: true, database: ctx.db.dialect };
