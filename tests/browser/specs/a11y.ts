@@ -150,6 +150,8 @@ const ROLES: { email: string | null; role: string; screens: Screen[] }[] = [
     screens: [
       { name: 'home', path: () => '/', title: 'Home', ready: 'home-electrician' },
       { name: 'my reports', path: () => '/reports', title: 'My reports' },
+      // A section of another role: the guard's page (components/auth/RoleGuard).
+      { name: 'not available', path: () => '/audit-log', title: 'Not available', ready: 'role-guard-denied' },
       {
         name: 'device type',
         path: () => '/devices',
