@@ -351,16 +351,19 @@ export function computeCaseEnergy(
   durationMs: number,
   workingDistanceMm: number,
 ): { incidentEnergyJPerCm2: number; arcFlashBoundaryMm: number; intermediate?: CaseResult['intermediate'] } {
-  const base = {
+  // Written out rather than spread from a common part: a spread followed by more keys makes a slow object.
+  const termsOf = (iarcK3Ka: number, iarcK13Ka: number): EnergyTermsInput => ({
     config: arcing.electrodeConfig,
     gapMm: arcing.gapMm,
     boltedFaultKa: arcing.boltedFaultKa,
     enclosureCorrectionFactor: enclosureCorrectionFactorValue,
     durationMs,
-  };
+    iarcK3Ka,
+    iarcK13Ka,
+  });
   const levels = arcing.intermediateArcingCurrentKa[arcCase];
   if (arcing.voltageRegime === 'low-voltage') {
-    const terms: EnergyTermsInput = { ...base, iarcK3Ka: levels.at600V, iarcK13Ka: arcing.arcingCurrentKa[arcCase] };
+    const terms = termsOf(levels.at600V, arcing.arcingCurrentKa[arcCase]);
     return {
       incidentEnergyJPerCm2: lowVoltageIncidentEnergyJPerCm2(terms, workingDistanceMm),
       arcFlashBoundaryMm: lowVoltageArcFlashBoundaryMm(terms),
@@ -369,7 +372,7 @@ export function computeCaseEnergy(
   const voltageKv = arcing.voltageV / 1000;
   const at = (levelV: 600 | 2700 | 14300, currentKa: number | undefined) => {
     const iarc = currentKa ?? Number.NaN;
-    const terms: EnergyTermsInput = { ...base, iarcK3Ka: iarc, iarcK13Ka: iarc };
+    const terms = termsOf(iarc, iarc);
     return {
       e: intermediateIncidentEnergyJPerCm2(levelV, terms, workingDistanceMm),
       afb: intermediateArcFlashBoundaryMm(levelV, terms),

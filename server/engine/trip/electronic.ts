@@ -43,8 +43,11 @@ export function electronicSettings(device: ElectronicDevice): ElectronicSettings
     device.timeTolerancePct === undefined ? 0 : requirePercent(device.timeTolerancePct, 'device.timeTolerancePct', 99);
   const clearingS = requirePositive(device.clearingS, 'device.clearingS');
   const irA = requirePositive(device.longTime.pickup, 'device.longTime.pickup') * sensorA;
+  const ltEdges = pickupEdges(irA, tolI);
   const longTime = {
-    ...pickupEdges(irA, tolI),
+    nominalA: ltEdges.nominalA,
+    lowA: ltEdges.lowA,
+    highA: ltEdges.highA,
     irA,
     delayS: requirePositive(device.longTime.delayS, 'device.longTime.delayS'),
     delayMultiple:
@@ -52,9 +55,14 @@ export function electronicSettings(device: ElectronicDevice): ElectronicSettings
         ? ELECTRONIC_CONVENTIONS.longTimeDelayMultiple
         : requirePositive(device.longTime.delayMultiple, 'device.longTime.delayMultiple'),
   };
+  const stEdges = device.shortTime
+    ? pickupEdges(requirePositive(device.shortTime.pickup, 'device.shortTime.pickup') * irA, tolI)
+    : null;
   const shortTime = device.shortTime
     ? {
-        ...pickupEdges(requirePositive(device.shortTime.pickup, 'device.shortTime.pickup') * irA, tolI),
+        nominalA: (stEdges as PickupEdges).nominalA,
+        lowA: (stEdges as PickupEdges).lowA,
+        highA: (stEdges as PickupEdges).highA,
         delayS: requirePositive(device.shortTime.delayS, 'device.shortTime.delayS'),
         i2t: device.shortTime.i2t === true,
         i2tMultiple:
@@ -89,10 +97,6 @@ export function electronicSettings(device: ElectronicDevice): ElectronicSettings
     clearingS,
     instantaneousMinimumS,
   };
-}
-
-function edgeDetail(edges: PickupEdges) {
-  return { pickupA: edges.nominalA, lowEdgeA: edges.lowA, highEdgeA: edges.highA };
 }
 
 function toleranceWarning(name: string, currentA: number, edges: PickupEdges): EngineWarning {
@@ -133,7 +137,14 @@ export function electronicBand(
       region: 'instantaneous',
       maxS: atOrAbove(currentA, edges.highA) ? s.clearingS : null,
       minS: above(currentA, edges.lowA) ? s.instantaneousMinimumS : null,
-      detail: { ...edgeDetail(edges), multipleOfSensor: currentA / s.sensorA, clearingS: s.clearingS },
+      // Written out rather than spread: a spread followed by more keys makes a slow object (same keys, same order).
+      detail: {
+        pickupA: edges.nominalA,
+        lowEdgeA: edges.lowA,
+        highEdgeA: edges.highA,
+        multipleOfSensor: currentA / s.sensorA,
+        clearingS: s.clearingS,
+      },
       maxWarnings: [],
       minWarnings: [],
     });
@@ -149,7 +160,9 @@ export function electronicBand(
       maxS: atOrAbove(currentA, st.highA) ? nominalS * up + s.clearingS : null,
       minS: above(currentA, st.lowA) ? nominalS * down : null,
       detail: {
-        ...edgeDetail(st),
+        pickupA: st.nominalA,
+        lowEdgeA: st.lowA,
+        highEdgeA: st.highA,
         multipleOfIr,
         delayS: st.delayS,
         shape: st.i2t ? (onRamp ? 'i2t-ramp' : 'flat (i2t in, above ramp)') : 'flat',
@@ -169,7 +182,9 @@ export function electronicBand(
     maxS: atOrAbove(currentA, lt.highA) ? ltNominalS * up + s.clearingS : null,
     minS: above(currentA, lt.lowA) ? ltNominalS * down : null,
     detail: {
-      ...edgeDetail(lt),
+      pickupA: lt.nominalA,
+      lowEdgeA: lt.lowA,
+      highEdgeA: lt.highA,
       multipleOfIr,
       delayS: lt.delayS,
       delayMultiple: lt.delayMultiple,
