@@ -10,7 +10,9 @@ export interface StudyRunOutcome {
 
 /**
  * Every labelled bus in one call (the body of a study run in a worker thread): progress is reported after each bus
- * at most every `progressEveryMs`, and the results are serialized here, off the server's main thread.
+ * at most every `progressEveryMs`, and the results are serialized here, off the server's main thread. Each bus is
+ * serialized as soon as it is evaluated (its objects are dropped at once, so a large plant holds text, not object
+ * graphs); the text is the same as `JSON.stringify` of the whole results.
  */
 export function runAllBuses(
   model: Model,
@@ -20,20 +22,30 @@ export function runAllBuses(
 ): StudyRunOutcome {
   const runner = createStudyRunner(model, options);
   const total = runner.busIds.length;
-  const buses = [];
+  const busJson: string[] = [];
+  let failed = 0;
   let last = Date.now();
   onProgress(0, total);
   for (let i = 0; i < total; i++) {
-    buses.push(runner.runBus(runner.busIds[i]));
+    const bus = runner.runBus(runner.busIds[i]);
+    if (bus.status === 'error') failed += 1;
+    busJson.push(JSON.stringify(bus));
     if (Date.now() - last >= progressEveryMs) {
       last = Date.now();
       onProgress(i + 1, total);
     }
   }
-  const results = runner.finish(buses);
-  return {
-    resultsJson: JSON.stringify(results),
-    buses: buses.length,
-    failed: buses.filter((b) => b.status === 'error').length,
-  };
+  return { resultsJson: withBuses(JSON.stringify(runner.finish([])), busJson), buses: busJson.length, failed };
+}
+
+/**
+ * The results' JSON text with the buses' texts in its (empty) `buses` array. A quote outside a string value is a
+ * delimiter in JSON text (inside one it is escaped), so the first `"buses":[]` is the results' own key: the keys before
+ * it hold a string and numbers only.
+ */
+function withBuses(resultsJson: string, busJson: string[]): string {
+  const key = '"buses":[]';
+  const at = resultsJson.indexOf(key);
+  if (at < 0) throw new Error('The study results have no buses array');
+  return `${resultsJson.slice(0, at)}"buses":[${busJson.join(',')}]${resultsJson.slice(at + key.length)}`;
 }
