@@ -134,7 +134,7 @@ export function sitePpeLevel(
 type FactDistance = { m?: number; ftIn?: string; imperialMm?: number; text: string };
 
 function approach(d: FactDistance): ApproachDistance {
-  return { ...(d.m !== undefined ? { m: d.m, ftIn: d.ftIn, imperialMm: d.imperialMm } : {}), text: d.text };
+  return d.m !== undefined ? { m: d.m, ftIn: d.ftIn, imperialMm: d.imperialMm, text: d.text } : { text: d.text };
 }
 
 /**

@@ -522,8 +522,13 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
       }
     }
 
+    const summary = buses[b];
+    // Written out rather than spread: a spread followed by more keys makes a slow object (same keys, same order).
     return {
-      ...buses[b],
+      id: summary.id,
+      nominalKv: summary.nominalKv,
+      boltedFaultKa: summary.boltedFaultKa,
+      xr: summary.xr,
       prefaultPu,
       faultCurrentA: faultMag * busBaseA[b],
       faultPhasorA,
@@ -749,8 +754,13 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
       }
     }
 
+    const summary = buses[b];
+    // Written out rather than spread: a spread followed by more keys makes a slow object (same keys, same order).
     return {
-      ...buses[b],
+      id: summary.id,
+      nominalKv: summary.nominalKv,
+      boltedFaultKa: summary.boltedFaultKa,
+      xr: summary.xr,
       prefaultPu,
       faultCurrentA: faultMag * busBaseA[b],
       faultPhasorA,

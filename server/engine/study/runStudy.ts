@@ -910,7 +910,8 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
               : `Arc-duration cap at ${bus.id}: ${fmt(arcDurationCap.capS)} s instead of the study's ${fmt(maxArcDurationMs / 1000)} s (${capReason ?? 'no reason given'}).`,
         });
       }
-      const common = {
+      // Written out rather than spread from a common part: a spread followed by more keys makes a slow object.
+      const caseInput = (arcCase: ArcCase, location: CaseInput['location'], excluded: Set<string>): CaseInput => ({
         picture,
         equipment,
         arcing,
@@ -918,20 +919,19 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
         maxArcDurationS: arcDurationCap.capS ?? NO_CAP_HORIZON_S,
         motorDecayModel,
         motorExponential,
-      };
+        arcCase,
+        location,
+        excluded,
+      });
       const cases: ArcCaseTrace[] = [];
       for (const arcCase of ['full', 'reduced'] as const)
-        cases.push(
-          evaluateCaseMotorModels({ ...common, arcCase, location: 'load-side', excluded: new Set() }, warnings),
-        );
+        cases.push(evaluateCaseMotorModels(caseInput(arcCase, 'load-side', new Set()), warnings));
       const mainStated = bus.equipment?.mainIsolated !== undefined;
       if (!equipment.mainIsolated) {
         const mains = mainDevices(picture);
         if (mains.size) {
           for (const arcCase of ['full', 'reduced'] as const)
-            cases.push(
-              evaluateCaseMotorModels({ ...common, arcCase, location: 'line-side', excluded: mains }, warnings),
-            );
+            cases.push(evaluateCaseMotorModels(caseInput(arcCase, 'line-side', mains), warnings));
           if (!mainStated) {
             warnings.push({
               code: 'MAIN_ISOLATION_NOT_STATED',
@@ -968,14 +968,20 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
         voltageV,
         options.labelSettings,
       );
+      // The keys of `base` written out (in its order, `cases` in its place): a spread followed by more keys makes a slow
+      // object.
       return {
-        ...base,
+        busId: base.busId,
+        busName: base.busName,
+        nominalKv: base.nominalKv,
+        boltedFaultKa: base.boltedFaultKa,
+        xr: base.xr,
+        cases,
         status: 'ok',
         equipment: { ...equipment, enclosureMm: (enclosure.enclosure.enclosureMm as EnclosureSizeMm | null) ?? null },
         arcingCurrentKa: arcing.arcingCurrentKa,
         varCf: arcing.varCf,
         enclosureCorrectionFactor: enclosure.enclosureCorrectionFactor,
-        cases,
         governing: { arcCase: governing.arcCase, location: governing.location },
         incidentEnergyCalPerCm2: governing.incidentEnergyCalPerCm2,
         incidentEnergyJPerCm2: governing.incidentEnergyJPerCm2,
