@@ -1,7 +1,7 @@
 import { useMutation, useQuery } from '@tanstack/react-query';
-import type { SignInResponse } from '../shared/schemas/auth';
 import type { TokenInfo } from '../shared/schemas/invitations';
-import { apiFetch } from './api';
+import { contract } from '../shared/api';
+import { callApi } from './api';
 import { queryKeys } from './queryKeys';
 import { useSession } from './session';
 
@@ -9,7 +9,7 @@ import { useSession } from './session';
 export function useLinkInfo(token: string) {
   return useQuery({
     queryKey: queryKeys.linkInfo(token),
-    queryFn: () => apiFetch<TokenInfo>('/auth/link-info', { method: 'POST', body: { token } }),
+    queryFn: () => callApi(contract.accountLinks.linkInfo, { body: { token } }),
     retry: false,
     staleTime: Infinity,
   });
@@ -20,17 +20,16 @@ export function useSetPasswordFromLink(purpose: TokenInfo['purpose']) {
   const { adopt } = useSession();
   return useMutation({
     mutationFn: (input: { token: string; password: string }) =>
-      apiFetch<SignInResponse>(purpose === 'invitation' ? '/auth/accept-invitation' : '/auth/password-reset/confirm', {
-        method: 'POST',
-        body: input,
-      }),
+      purpose === 'invitation'
+        ? callApi(contract.accountLinks.acceptInvitation, { body: input })
+        : callApi(contract.accountLinks.confirmPasswordReset, { body: input }),
     onSuccess: (res) => adopt(res),
   });
 }
 
 export function useRequestPasswordReset() {
   return useMutation({
-    mutationFn: (email: string) => apiFetch<{ ok: true }>('/auth/password-reset', { method: 'POST', body: { email } }),
+    mutationFn: (email: string) => callApi(contract.accountLinks.requestPasswordReset, { body: { email } }),
   });
 }
 
@@ -39,7 +38,7 @@ export function useChangePassword() {
   const { adopt } = useSession();
   return useMutation({
     mutationFn: (input: { currentPassword: string; newPassword: string }) =>
-      apiFetch<SignInResponse>('/auth/password', { method: 'POST', body: input }),
+      callApi(contract.accountLinks.changePassword, { body: input }),
     onSuccess: (res) => adopt(res),
   });
 }

@@ -1,3 +1,13 @@
+import {
+  fillPath,
+  type BodyInputOf,
+  type Endpoint,
+  type EndpointDef,
+  type ParamsOf,
+  type PathParams,
+  type QueryInputOf,
+  type ResponseOf,
+} from '../shared/api';
 import type { ErrorCode } from '../shared/schemas/common';
 import { storage } from './storage';
 
@@ -82,6 +92,55 @@ export async function apiFetch<T>(
   if (init.raw) return (await res.blob()) as unknown as T;
   if (res.status === 204) return undefined as T;
   return (await res.json()) as T;
+}
+
+type ParamsArg<E extends EndpointDef> = [PathParams<E['path']>] extends [never]
+  ? { params?: undefined }
+  : { params: ParamsOf<E> };
+type QueryArg<E extends EndpointDef> = E extends { query: object }
+  ? { query?: QueryInputOf<E> }
+  : { query?: undefined };
+type BodyArg<E extends EndpointDef> = E extends { body: object } ? { body: BodyInputOf<E> } : { body?: undefined };
+/** What a call of an endpoint needs: its path parameters, its query and its body, each typed by the contract. */
+export type CallArgs<E extends EndpointDef> = ParamsArg<E> & QueryArg<E> & BodyArg<E>;
+
+/** A query string from a query object: absent values left out, arrays as repeated keys. */
+function encodeQuery(query: Record<string, unknown> | undefined): string {
+  const parts: string[] = [];
+  for (const [k, v] of Object.entries(query ?? {})) {
+    for (const item of Array.isArray(v) ? v : [v]) {
+      if (item === undefined || item === null) continue;
+      parts.push(`${encodeURIComponent(k)}=${encodeURIComponent(String(item))}`);
+    }
+  }
+  return parts.length ? `?${parts.join('&')}` : '';
+}
+
+/**
+ * Calls one endpoint of the contract (shared/api): the path filled from `params`, the query and the JSON body typed by
+ * the endpoint's schemas, and the answer parsed with its response schema, so the caller gets the type the server is
+ * tested against. An answer that does not match is an ApiClientError, never a silently wrong value.
+ * `callApi(contract.sites.get, { params: { siteId } })`.
+ */
+export async function callApi<E extends Endpoint>(
+  endpoint: E,
+  ...[args]: object extends CallArgs<E> ? [CallArgs<E>?] : [CallArgs<E>]
+): Promise<ResponseOf<E>> {
+  const { params, query, body } = (args ?? {}) as {
+    params?: Record<string, string>;
+    query?: Record<string, unknown>;
+    body?: unknown;
+  };
+  const path = fillPath(endpoint.path, params ?? {}) + encodeQuery(query);
+  const res = await apiRequest(path, { method: endpoint.method.toUpperCase(), body });
+  // A route without a JSON response (204) answers nothing: its ResponseOf is void.
+  if (!endpoint.response || res.status === 204) return undefined as ResponseOf<E>;
+  const parsed = endpoint.response.safeParse(await res.json());
+  if (!parsed.success) {
+    const where = `${endpoint.method.toUpperCase()} ${endpoint.path}`;
+    throw new ApiClientError(res.status, 'internal', `The server's answer to ${where} was not understood`);
+  }
+  return parsed.data as ResponseOf<E>;
 }
 
 /** A file the API serves (PDF, CSV, workbook): its bytes and the name from Content-Disposition, if any. */

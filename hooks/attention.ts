@@ -1,8 +1,9 @@
 import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { AttentionList, AttentionListResponse, AttentionSummary } from '../shared/schemas/attention';
+import type { AttentionList } from '../shared/schemas/attention';
 import type { AuditPage } from '../shared/schemas/auditLog';
-import type { FieldReportDto, FieldReportStatus, FieldReportTriage } from '../shared/schemas/fieldReports';
-import { apiFetch } from './api';
+import type { FieldReportStatus, FieldReportTriage } from '../shared/schemas/fieldReports';
+import { contract } from '../shared/api';
+import { apiFetch, callApi } from './api';
 import { queryKeys } from './queryKeys';
 
 const enc = encodeURIComponent;
@@ -18,7 +19,7 @@ export function queryString(params: Record<string, string | number | boolean | u
 export function useAttentionSummary(siteId: string | null) {
   return useQuery({
     queryKey: queryKeys.attention.summary(siteId),
-    queryFn: () => apiFetch<AttentionSummary>(`/attention${queryString({ siteId })}`),
+    queryFn: () => callApi(contract.attention.summary, { query: { siteId: siteId ?? undefined } }),
     placeholderData: (prev) => prev,
   });
 }
@@ -26,7 +27,7 @@ export function useAttentionSummary(siteId: string | null) {
 export function useAttentionList(list: AttentionList, siteId: string | null) {
   return useQuery({
     queryKey: queryKeys.attention.list(list, siteId),
-    queryFn: () => apiFetch<AttentionListResponse>(`/attention/${enc(list)}${queryString({ siteId })}`),
+    queryFn: () => callApi(contract.attention.list, { params: { list }, query: { siteId: siteId ?? undefined } }),
   });
 }
 
@@ -46,9 +47,9 @@ export function useFieldReports(filters: FieldReportFilters) {
     queryKey: queryKeys.fieldReports.list(filters),
     queryFn: async () =>
       (
-        await apiFetch<{ reports: FieldReportDto[] }>(
-          `/field-reports${queryString({ status: filters.status, siteId: filters.siteId, mine: filters.mine ? '1' : undefined })}`,
-        )
+        await callApi(contract.attention.fieldReports, {
+          query: { status: filters.status, siteId: filters.siteId || undefined, mine: filters.mine ? '1' : undefined },
+        })
       ).reports,
   });
 }
@@ -56,7 +57,7 @@ export function useFieldReports(filters: FieldReportFilters) {
 export function useFieldReport(id: string) {
   return useQuery({
     queryKey: queryKeys.fieldReports.detail(id),
-    queryFn: () => apiFetch<FieldReportDto>(`/field-reports/${enc(id)}`),
+    queryFn: () => callApi(contract.attention.fieldReport, { params: { reportId: id } }),
     retry: false,
   });
 }
@@ -65,7 +66,7 @@ export function useTriageReport(id: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (input: FieldReportTriage) =>
-      apiFetch<FieldReportDto>(`/field-reports/${enc(id)}/triage`, { method: 'POST', body: input }),
+      callApi(contract.attention.triageFieldReport, { params: { reportId: id }, body: input }),
     onSuccess: (report) => {
       qc.setQueryData(queryKeys.fieldReports.detail(id), report);
       void qc.invalidateQueries({ queryKey: queryKeys.fieldReports.all() });

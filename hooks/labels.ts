@@ -1,7 +1,8 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { CreateLabelBatch, LabelBatchDto } from '../shared/schemas/labelBatches';
-import type { LabelCheck, LabelDto } from '../shared/schemas/labels';
-import { apiFetch } from './api';
+import type { CreateLabelBatch } from '../shared/schemas/labelBatches';
+import type { LabelDto } from '../shared/schemas/labels';
+import { contract } from '../shared/api';
+import { apiFetch, callApi } from './api';
 import { queryKeys } from './queryKeys';
 
 const enc = encodeURIComponent;
@@ -9,7 +10,7 @@ const enc = encodeURIComponent;
 export function useLabelDetail(code: string) {
   return useQuery({
     queryKey: queryKeys.labels.detail(code),
-    queryFn: () => apiFetch<LabelDto>(`/labels/${enc(code)}/detail`),
+    queryFn: () => callApi(contract.labels.detail, { params: { code } }),
     retry: false,
   });
 }
@@ -17,7 +18,7 @@ export function useLabelDetail(code: string) {
 export function useLabelCheck(code: string) {
   return useQuery({
     queryKey: queryKeys.labels.check(code),
-    queryFn: () => apiFetch<LabelCheck>(`/labels/${enc(code)}`),
+    queryFn: () => callApi(contract.labels.check, { params: { code } }),
     retry: false,
   });
 }
@@ -25,8 +26,10 @@ export function useLabelCheck(code: string) {
 export function useSiteLabels(siteId: string | null) {
   return useQuery({
     queryKey: queryKeys.labels.site(siteId ?? ''),
-    queryFn: async () =>
-      (await apiFetch<{ labels: LabelDto[] }>(`/sites/${enc(siteId as string)}/labels?current=1`)).labels,
+    queryFn: async () => {
+      if (!siteId) throw new Error('No site');
+      return (await callApi(contract.labels.siteLabels, { params: { siteId }, query: { current: '1' } })).labels;
+    },
     enabled: !!siteId,
   });
 }
@@ -62,7 +65,7 @@ export function useReportMismatch(code: string) {
 
 export function useCreateBatch() {
   return useMutation({
-    mutationFn: (input: CreateLabelBatch) => apiFetch<LabelBatchDto>('/label-batches', { method: 'POST', body: input }),
+    mutationFn: (input: CreateLabelBatch) => callApi(contract.labelBatches.create, { body: input }),
   });
 }
 
@@ -72,7 +75,8 @@ export function useBatch(id: string | null) {
   return useQuery({
     queryKey: queryKeys.labelBatch(id),
     queryFn: async () => {
-      const b = await apiFetch<LabelBatchDto>(`/label-batches/${enc(id as string)}`);
+      if (!id) throw new Error('No batch');
+      const b = await callApi(contract.labelBatches.get, { params: { batchId: id } });
       if (b.status === 'done') void qc.invalidateQueries({ queryKey: queryKeys.labels.all() });
       return b;
     },

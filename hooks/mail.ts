@@ -1,15 +1,14 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { CreateInvitation, InvitationDto } from '../shared/schemas/invitations';
-import type { Outbox, ReminderDelivery, ReminderRule, ReminderRuleInput } from '../shared/schemas/reminders';
-import { apiFetch } from './api';
+import type { ReminderRuleInput } from '../shared/schemas/reminders';
+import { contract } from '../shared/api';
+import { callApi } from './api';
 import { queryKeys } from './queryKeys';
-
-const enc = encodeURIComponent;
 
 export function useReminderRules() {
   return useQuery({
     queryKey: queryKeys.reminders.rules(),
-    queryFn: () => apiFetch<{ rules: ReminderRule[]; reminderHourUtc: number }>('/reminder-rules'),
+    queryFn: () => callApi(contract.mail.reminderRules),
   });
 }
 
@@ -18,8 +17,8 @@ export function useSaveReminderRule() {
   return useMutation({
     mutationFn: ({ id, input }: { id?: string; input: ReminderRuleInput }) =>
       id
-        ? apiFetch<ReminderRule>(`/reminder-rules/${enc(id)}`, { method: 'PUT', body: input })
-        : apiFetch<ReminderRule>('/reminder-rules', { method: 'POST', body: input }),
+        ? callApi(contract.mail.updateReminderRule, { params: { ruleId: id }, body: input })
+        : callApi(contract.mail.createReminderRule, { body: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.reminders.rules() }),
   });
 }
@@ -27,7 +26,7 @@ export function useSaveReminderRule() {
 export function useDeleteReminderRule() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (id: string) => apiFetch<{ ok: true }>(`/reminder-rules/${enc(id)}`, { method: 'DELETE' }),
+    mutationFn: (id: string) => callApi(contract.mail.deleteReminderRule, { params: { ruleId: id } }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.reminders.rules() }),
   });
 }
@@ -37,7 +36,7 @@ export function useApproveReminderEmails() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ id, emails }: { id: string; emails: string[] }) =>
-      apiFetch<ReminderRule>(`/reminder-rules/${enc(id)}/approve-emails`, { method: 'POST', body: { emails } }),
+      callApi(contract.mail.approveReminderEmails, { params: { ruleId: id }, body: { emails } }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.reminders.rules() }),
   });
 }
@@ -46,11 +45,7 @@ export function useApproveReminderEmails() {
 export function useSendNow() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (ruleId?: string) =>
-      apiFetch<{ deliveries: ReminderDelivery[] }>('/reminders/send-now', {
-        method: 'POST',
-        body: ruleId ? { ruleId } : {},
-      }),
+    mutationFn: (ruleId?: string) => callApi(contract.mail.sendRemindersNow, { body: ruleId ? { ruleId } : {} }),
     onSuccess: () => {
       void qc.invalidateQueries({ queryKey: queryKeys.reminders.all() });
       void qc.invalidateQueries({ queryKey: queryKeys.outbox() });
@@ -61,18 +56,18 @@ export function useSendNow() {
 export function useDeliveries() {
   return useQuery({
     queryKey: queryKeys.reminders.deliveries(),
-    queryFn: async () => (await apiFetch<{ deliveries: ReminderDelivery[] }>('/reminders/deliveries')).deliveries,
+    queryFn: async () => (await callApi(contract.mail.deliveries)).deliveries,
   });
 }
 
 export function useOutbox() {
-  return useQuery({ queryKey: queryKeys.outbox(), queryFn: () => apiFetch<Outbox>('/outbox') });
+  return useQuery({ queryKey: queryKeys.outbox(), queryFn: () => callApi(contract.mail.outbox) });
 }
 
 export function useInvitations() {
   return useQuery({
     queryKey: queryKeys.invitations(),
-    queryFn: async () => (await apiFetch<{ invitations: InvitationDto[] }>('/invitations')).invitations,
+    queryFn: async () => (await callApi(contract.mail.invitations)).invitations,
   });
 }
 
@@ -88,19 +83,17 @@ function useInvitationMutation<I>(fn: (input: I) => Promise<InvitationDto>) {
 }
 
 export function useCreateInvitation() {
-  return useInvitationMutation((input: CreateInvitation) =>
-    apiFetch<InvitationDto>('/invitations', { method: 'POST', body: input }),
-  );
+  return useInvitationMutation((input: CreateInvitation) => callApi(contract.mail.invite, { body: input }));
 }
 
 export function useResendInvitation() {
   return useInvitationMutation((id: string) =>
-    apiFetch<InvitationDto>(`/invitations/${enc(id)}/resend`, { method: 'POST' }),
+    callApi(contract.mail.resendInvitation, { params: { invitationId: id } }),
   );
 }
 
 export function useRevokeInvitation() {
   return useInvitationMutation((id: string) =>
-    apiFetch<InvitationDto>(`/invitations/${enc(id)}`, { method: 'DELETE' }),
+    callApi(contract.mail.revokeInvitation, { params: { invitationId: id } }),
   );
 }

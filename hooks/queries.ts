@@ -1,30 +1,29 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { Me } from '../shared/schemas/auth';
-import type { ClearingTimeResponse, Device, ElectronicPositions, ElectronicTripType } from '../shared/schemas/device';
-import type { BandCurvesResponse, DeviceType, DeviceTypeInput } from '../shared/schemas/deviceLibrary';
-import type { IncidentEnergyRequest, IncidentEnergyResponse } from '../shared/schemas/incidentEnergy';
-import type { LabelValuesDto } from '../shared/schemas/labelValues';
+import type { Device, ElectronicPositions, ElectronicTripType } from '../shared/schemas/device';
+import type { DeviceTypeInput } from '../shared/schemas/deviceLibrary';
+import type { IncidentEnergyRequest } from '../shared/schemas/incidentEnergy';
 import type { OrganizationDto, OrganizationSettingsInput } from '../shared/schemas/organization';
-import type { Site, SiteInput } from '../shared/schemas/sites';
-import type { CreateUser, UpdateUser, UserAdmin } from '../shared/schemas/users';
-import { apiFetch } from './api';
+import type { SiteInput } from '../shared/schemas/sites';
+import type { CreateUser, UpdateUser } from '../shared/schemas/users';
+import { contract, type ResponseOf } from '../shared/api';
+import { apiFetch, callApi } from './api';
 import { queryKeys } from './queryKeys';
 
 export function useMe() {
-  return useQuery({ queryKey: queryKeys.me(), queryFn: () => apiFetch<Me>('/auth/me') });
+  return useQuery({ queryKey: queryKeys.me(), queryFn: () => callApi(contract.auth.me) });
 }
 
 export function useSites() {
   return useQuery({
     queryKey: queryKeys.sites.list(),
-    queryFn: async () => (await apiFetch<{ sites: Site[] }>('/sites')).sites,
+    queryFn: async () => (await callApi(contract.sites.list)).sites,
   });
 }
 
 export function useSite(siteId: string) {
   return useQuery({
     queryKey: queryKeys.sites.detail(siteId),
-    queryFn: () => apiFetch<Site>(`/sites/${encodeURIComponent(siteId)}`),
+    queryFn: () => callApi(contract.sites.get, { params: { siteId } }),
   });
 }
 
@@ -33,8 +32,8 @@ export function useSaveSite(siteId?: string) {
   return useMutation({
     mutationFn: (input: SiteInput) =>
       siteId
-        ? apiFetch<Site>(`/sites/${encodeURIComponent(siteId)}`, { method: 'PUT', body: input })
-        : apiFetch<Site>('/sites', { method: 'POST', body: input }),
+        ? callApi(contract.sites.update, { params: { siteId }, body: input })
+        : callApi(contract.sites.create, { body: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.sites.all() }),
   });
 }
@@ -42,14 +41,14 @@ export function useSaveSite(siteId?: string) {
 export function useUsers() {
   return useQuery({
     queryKey: queryKeys.users(),
-    queryFn: async () => (await apiFetch<{ users: UserAdmin[] }>('/users')).users,
+    queryFn: async () => (await callApi(contract.users.list)).users,
   });
 }
 
 export function useCreateUser() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: CreateUser) => apiFetch<UserAdmin>('/users', { method: 'POST', body: input }),
+    mutationFn: (input: CreateUser) => callApi(contract.users.create, { body: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.users() }),
   });
 }
@@ -58,7 +57,7 @@ export function useUpdateUser() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ id, ...input }: UpdateUser & { id: string }) =>
-      apiFetch<UserAdmin>(`/users/${encodeURIComponent(id)}`, { method: 'PATCH', body: input }),
+      callApi(contract.users.update, { params: { userId: id }, body: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.users() }),
   });
 }
@@ -81,26 +80,26 @@ export function useUpdateSettings() {
   });
 }
 
-export type IncidentEnergyResult = IncidentEnergyResponse & { labelValues: LabelValuesDto };
+/** The incident-energy answer: the calculation and the label values under the organization's settings. */
+export type IncidentEnergyResult = ResponseOf<typeof contract.calc.incidentEnergy>;
 
 export function useIncidentEnergy() {
   return useMutation({
-    mutationFn: (input: IncidentEnergyRequest) =>
-      apiFetch<IncidentEnergyResult>('/calc/incident-energy', { method: 'POST', body: input }),
+    mutationFn: (input: IncidentEnergyRequest) => callApi(contract.calc.incidentEnergy, { body: input }),
   });
 }
 
 export function useDeviceTypes() {
   return useQuery({
     queryKey: queryKeys.deviceTypes.list(),
-    queryFn: async () => (await apiFetch<{ deviceTypes: DeviceType[] }>('/device-types')).deviceTypes,
+    queryFn: async () => (await callApi(contract.devices.list)).deviceTypes,
   });
 }
 
 export function useDeviceType(id: string | undefined) {
   return useQuery({
     queryKey: queryKeys.deviceTypes.detail(id ?? 'new'),
-    queryFn: () => apiFetch<DeviceType>(`/device-types/${encodeURIComponent(id as string)}`),
+    queryFn: () => callApi(contract.devices.get, { params: { deviceTypeId: id as string } }),
     enabled: !!id,
   });
 }
@@ -110,8 +109,8 @@ export function useSaveDeviceType(id?: string) {
   return useMutation({
     mutationFn: (input: DeviceTypeInput) =>
       id
-        ? apiFetch<DeviceType>(`/device-types/${encodeURIComponent(id)}`, { method: 'PUT', body: input })
-        : apiFetch<DeviceType>('/device-types', { method: 'POST', body: input }),
+        ? callApi(contract.devices.update, { params: { deviceTypeId: id }, body: input })
+        : callApi(contract.devices.create, { body: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.deviceTypes.all() }),
   });
 }
@@ -119,7 +118,7 @@ export function useSaveDeviceType(id?: string) {
 export function useDeleteDeviceType() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (id: string) => apiFetch<void>(`/device-types/${encodeURIComponent(id)}`, { method: 'DELETE' }),
+    mutationFn: (id: string) => callApi(contract.devices.remove, { params: { deviceTypeId: id } }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.deviceTypes.all() }),
   });
 }
@@ -129,7 +128,10 @@ export function useBandCurves(device: Device | null) {
   const json = device ? JSON.stringify(device) : '';
   return useQuery({
     queryKey: queryKeys.bandCurves(json),
-    queryFn: () => apiFetch<BandCurvesResponse>('/calc/band-curves', { method: 'POST', body: { device } }),
+    queryFn: () => {
+      if (!device) throw new Error('No device to plot');
+      return callApi(contract.calc.bandCurves, { body: { device } });
+    },
     enabled: !!device,
     placeholderData: (prev) => prev,
     retry: false,
@@ -138,14 +140,13 @@ export function useBandCurves(device: Device | null) {
 
 export function useClearingTime() {
   return useMutation({
-    mutationFn: (input: { device: Device; currentA: number }) =>
-      apiFetch<ClearingTimeResponse>('/calc/clearing-time', { method: 'POST', body: input }),
+    mutationFn: (input: { device: Device; currentA: number }) => callApi(contract.calc.clearingTime, { body: input }),
   });
 }
 
 export function useResolveTripUnit() {
   return useMutation({
     mutationFn: (input: { tripType: ElectronicTripType; positions: ElectronicPositions }) =>
-      apiFetch<{ device: Device }>('/calc/resolve-trip-unit', { method: 'POST', body: input }),
+      callApi(contract.calc.resolveTripUnit, { body: input }),
   });
 }

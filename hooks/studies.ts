@@ -1,6 +1,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ApproveInput, EquipmentDto, ModelEnvelope, RunDto, StudyDto } from '../shared/schemas/studies';
-import { apiFetch } from './api';
+import type { ApproveInput, ModelEnvelope, RunDto, StudyDto } from '../shared/schemas/studies';
+import { contract } from '../shared/api';
+import { apiFetch, callApi } from './api';
 import { settleModelDraft } from './modelDrafts';
 import { queryKeys } from './queryKeys';
 
@@ -9,26 +10,28 @@ const enc = encodeURIComponent;
 export function useStudies(siteId: string) {
   return useQuery({
     queryKey: queryKeys.studies.bySite(siteId),
-    queryFn: async () => (await apiFetch<{ studies: StudyDto[] }>(`/sites/${enc(siteId)}/studies`)).studies,
+    queryFn: async () => (await callApi(contract.studies.list, { params: { siteId } })).studies,
   });
 }
 
 export function useEquipment(siteId: string) {
   return useQuery({
     queryKey: queryKeys.equipment(siteId),
-    queryFn: async () => (await apiFetch<{ equipment: EquipmentDto[] }>(`/sites/${enc(siteId)}/equipment`)).equipment,
+    queryFn: async () => (await callApi(contract.studies.equipment, { params: { siteId } })).equipment,
   });
 }
 
 export function useStudy(id: string) {
-  return useQuery({ queryKey: queryKeys.studies.detail(id), queryFn: () => apiFetch<StudyDto>(`/studies/${enc(id)}`) });
+  return useQuery({
+    queryKey: queryKeys.studies.detail(id),
+    queryFn: () => callApi(contract.studies.get, { params: { studyId: id } }),
+  });
 }
 
 export function useCreateStudy(siteId: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: { title: string }) =>
-      apiFetch<StudyDto>(`/sites/${enc(siteId)}/studies`, { method: 'POST', body: input }),
+    mutationFn: (input: { title: string }) => callApi(contract.studies.create, { params: { siteId }, body: input }),
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.studies.all() }),
   });
 }
@@ -36,7 +39,7 @@ export function useCreateStudy(siteId: string) {
 export function useStudyModel(id: string, enabled = true) {
   return useQuery({
     queryKey: queryKeys.studies.model(id),
-    queryFn: () => apiFetch<ModelEnvelope>(`/studies/${enc(id)}/model`),
+    queryFn: () => callApi(contract.studies.model, { params: { studyId: id } }),
     enabled,
   });
 }
@@ -45,7 +48,7 @@ export function useSaveModel(id: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (input: { model: Record<string, unknown>; version: number }) =>
-      apiFetch<ModelEnvelope>(`/studies/${enc(id)}/model`, { method: 'PUT', body: input }),
+      callApi(contract.studies.saveModel, { params: { studyId: id }, body: input }),
     onSuccess: (env, input) => {
       qc.setQueryData(queryKeys.studies.model(id), env);
       // Here rather than in the panel, so that it holds even when the panel has gone (another tab) by the answer.
@@ -84,7 +87,7 @@ export function useRun(id: string) {
       const before = qc.getQueryData<RunDto | null>(queryKeys.studies.run(id));
       let run: RunDto | null;
       try {
-        run = await apiFetch<RunDto>(`/studies/${enc(id)}/run`);
+        run = await callApi(contract.studies.run, { params: { studyId: id } });
       } catch (e) {
         if ((e as { status?: number }).status !== 404) throw e;
         run = null;
@@ -103,23 +106,26 @@ export function useRun(id: string) {
 export function useStartRun(id: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: () => apiFetch<RunDto>(`/studies/${enc(id)}/run`, { method: 'POST' }),
+    mutationFn: () => callApi(contract.studies.startRun, { params: { studyId: id } }),
     onSuccess: (run) => {
       qc.setQueryData(queryKeys.studies.run(id), run);
     },
   });
 }
 
-function useStudyAction<I = void>(id: string, path: string) {
+function useStudyAction<I = void>(mutationFn: (body: I) => Promise<StudyDto>) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (body: I) =>
-      apiFetch<StudyDto>(`/studies/${enc(id)}/${path}`, { method: 'POST', body: body ?? undefined }),
+    mutationFn,
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.studies.all() }),
   });
 }
 
-export const useSubmitStudy = (id: string) => useStudyAction(id, 'submit');
-export const useReturnToDraft = (id: string) => useStudyAction(id, 'return-to-draft');
-export const useApproveStudy = (id: string) => useStudyAction<ApproveInput>(id, 'approve');
-export const useReviseStudy = (id: string) => useStudyAction(id, 'revise');
+export const useSubmitStudy = (id: string) =>
+  useStudyAction<void>(() => callApi(contract.studies.submit, { params: { studyId: id } }));
+export const useReturnToDraft = (id: string) =>
+  useStudyAction<void>(() => callApi(contract.studies.returnToDraft, { params: { studyId: id } }));
+export const useApproveStudy = (id: string) =>
+  useStudyAction<ApproveInput>((body) => callApi(contract.studies.approve, { params: { studyId: id }, body }));
+export const useReviseStudy = (id: string) =>
+  useStudyAction<void>(() => callApi(contract.studies.revise, { params: { studyId: id } }));

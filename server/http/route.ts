@@ -86,9 +86,13 @@ function responseChecker(def: AnyRoute, response: z.ZodType): RequestHandler {
       const text = typeof payload === 'string' ? payload : Buffer.isBuffer(payload) ? payload.toString('utf8') : null;
       // An object goes through res.json, which comes back here with its text.
       if (res.statusCode >= 300 || !isJson || text === null) return send(payload);
-      const checked = response.safeParse(JSON.parse(text));
-      if (checked.success) return send(payload);
-      const detail = describeIssues(checked.error);
+      const sent: unknown = JSON.parse(text);
+      const checked = response.safeParse(sent);
+      const extra = checked.success ? undeclaredFields(sent, checked.data) : [];
+      if (checked.success && extra.length === 0) return send(payload);
+      const detail = checked.success
+        ? `fields the schema does not declare (a client would drop them): ${extra.slice(0, 5).join(', ')}`
+        : describeIssues(checked.error);
       const message = `The response of ${def.method.toUpperCase()} ${def.path} does not match its schema: ${detail}`;
       (req.log ?? log).error(message);
       res.status(500);
@@ -96,6 +100,21 @@ function responseChecker(def: AnyRoute, response: z.ZodType): RequestHandler {
     };
     next();
   };
+}
+
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Paths of the fields a body has that its parsed form lost: fields its schema does not declare (zod strips them). */
+function undeclaredFields(sent: unknown, parsed: unknown, path = '', out: string[] = []): string[] {
+  if (Array.isArray(sent) && Array.isArray(parsed)) {
+    sent.forEach((v, i) => undeclaredFields(v, parsed[i], `${path}${i}.`, out));
+  } else if (isRecord(sent) && isRecord(parsed)) {
+    for (const [k, v] of Object.entries(sent)) {
+      if (!(k in parsed)) out.push(`${path}${k}`);
+      else undeclaredFields(v, parsed[k], `${path}${k}.`, out);
+    }
+  }
+  return out;
 }
 
 /** The first few zod issues of a response that does not match its schema, as one line. */
