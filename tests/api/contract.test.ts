@@ -9,6 +9,7 @@ import { z } from 'zod';
 import { contract, contractEntries, endpoint, fillPath, pathParams } from '../../shared/api';
 import { bind, mountRoutes } from '../../server/http/route';
 import { errorMiddleware } from '../../server/http/errors';
+import { buildOpenApi } from '../../server/http/openapi';
 import { allRoutes } from '../../server/routes';
 import type { AppContext } from '../../server/http/context';
 
@@ -43,6 +44,30 @@ describe('contract and route table', () => {
     for (const [name, e] of contractEntries()) {
       for (const k of ['handler', 'middleware', 'before', 'jsonLimit']) expect([name, k in e]).toEqual([name, false]);
     }
+  });
+});
+
+describe('OpenAPI document from the bound table', () => {
+  type Op = { parameters: { name: string; in: string }[]; 'x-access': unknown; requestBody?: unknown };
+  const doc = buildOpenApi(routes, 'test') as { paths: Record<string, Record<string, Op>> };
+
+  it.each(contractEntries())('%s: path and query parameters, body and access', (_name, e) => {
+    const op = doc.paths['/api' + e.path.replace(/:([A-Za-z0-9_]+)/g, '{$1}')][e.method];
+    expect(op.parameters.filter((p) => p.in === 'path').map((p) => p.name)).toEqual([...e.params]);
+    const queryNames = e.query
+      ? Object.keys(
+          (z.toJSONSchema(e.query, { io: 'input', unrepresentable: 'any' }) as { properties?: object }).properties ??
+            {},
+        )
+      : [];
+    expect(op.parameters.filter((p) => p.in === 'query').map((p) => p.name)).toEqual(queryNames);
+    expect(op.requestBody !== undefined).toBe(e.body !== undefined);
+    expect(op['x-access']).toEqual(typeof e.access === 'string' ? e.access : [...e.access]);
+  });
+
+  it('documents the query of the routes that take one', () => {
+    const results = doc.paths['/api/studies/{studyId}/results'].get.parameters.filter((p) => p.in === 'query');
+    expect(results.map((p) => p.name)).toEqual(expect.arrayContaining(['sort', 'order', 'minCal', 'ppe']));
   });
 });
 
