@@ -82,7 +82,7 @@ describe('label truth', () => {
       if (!flat.includes(squash(groupLabelCode(codes[i])))) misses.push(`label ${i}: code missing`);
     });
     expect(misses.slice(0, 20)).toEqual([]);
-  }, 120_000);
+  }, 600_000); // a safety net only: on a busy 2-core machine the 1 000 labels take minutes
 
   it('the public check JSON carries the same display, for the label and for its replacement', async () => {
     const rows = contents.map((content, i) => ({
@@ -107,5 +107,5 @@ describe('label truth', () => {
       expect(res.status).toBe(200);
       expect(res.body.display).toEqual(JSON.parse(JSON.stringify(labelDisplay(contents[i]))));
     }
-  }, 120_000);
+  }, 600_000); // a safety net only: on a busy 2-core machine the 1 000 labels take minutes
 });
