@@ -1,6 +1,7 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
-import type { BusResultResponse, ResultsPage, ResultsPageParams } from '../shared/schemas/resultsPage';
-import { apiFetch } from './api';
+import type { ResultsPage, ResultsPageParams } from '../shared/schemas/resultsPage';
+import { contract } from '../shared/api';
+import { apiFetch, callApi } from './api';
 import { queryKeys } from './queryKeys';
 
 const enc = encodeURIComponent;
@@ -37,7 +38,7 @@ export function useResultsPage(studyId: string, params: ResultsPageParams, enabl
 export function useBusResult(studyId: string, busId: string) {
   return useQuery({
     queryKey: queryKeys.studies.busResult(studyId, busId),
-    queryFn: () => apiFetch<BusResultResponse>(`/studies/${enc(studyId)}/results/buses/${enc(busId)}`),
+    queryFn: () => callApi(contract.studies.busResult, { params: { studyId, busId } }),
     staleTime: 60_000,
     retry: (count, e) => (e as { status?: number }).status !== 404 && count < 2,
   });

@@ -1,7 +1,8 @@
 import { useQueryClient } from '@tanstack/react-query';
 import React, { createContext, useCallback, useContext, useEffect, useMemo, useState } from 'react';
 import type { SignInResponse, User } from '../shared/schemas/auth';
-import { apiFetch, onUnauthorized, TOKEN_KEY } from './api';
+import { contract } from '../shared/api';
+import { callApi, onUnauthorized, TOKEN_KEY } from './api';
 import { clearModelDrafts } from './modelDrafts';
 import { storage } from './storage';
 
@@ -48,12 +49,12 @@ export function SessionProvider({ children }: { children: React.ReactNode }) {
 
   useEffect(() => {
     // Check the stored token once: a deactivated user or an expired token signs out.
-    if (storage.get(TOKEN_KEY)) apiFetch<User>('/auth/me').catch(() => undefined);
+    if (storage.get(TOKEN_KEY)) callApi(contract.auth.me).catch(() => undefined);
     return onUnauthorized(clear);
   }, [clear]);
 
   const signIn = useCallback(async (email: string, password: string) => {
-    const res = await apiFetch<SignInResponse>('/auth/sign-in', { method: 'POST', body: { email, password } });
+    const res = await callApi(contract.auth.signIn, { body: { email, password } });
     storage.set(TOKEN_KEY, res.token);
     storage.set(USER_KEY, JSON.stringify(res.user));
     setUser(res.user);
@@ -80,7 +81,7 @@ export function SessionProvider({ children }: { children: React.ReactNode }) {
 
   const signOut = useCallback(async () => {
     try {
-      await apiFetch('/auth/sign-out', { method: 'POST' });
+      await callApi(contract.auth.signOut);
     } catch {
       /* the token is dropped either way */
     }
