@@ -11,6 +11,7 @@
  *   "1.20" is not below 1.2), the 40 cal/cm² rule on the computed value (either way, the higher hazard wins).
  */
 import { NO_ADEQUATE_PPE_CAL_PER_CM2 } from './cautions';
+import { formatSig } from './numberFormat';
 import type { LabelContent, LabelStatus } from './schemas/labels';
 
 export type UnitOrder = 'us-first' | 'si-first';
@@ -173,7 +174,7 @@ export function noDeviceClearsText(capS: number | null | undefined): string {
   if (capS === null) return 'No device clears the arc, and no arc-duration limit applies';
   if (capS === undefined || !Number.isFinite(capS))
     return "No device clears within the study's arc-duration limit — arc duration limited to that limit";
-  const cap = `${Number(capS.toPrecision(3))} s`;
+  const cap = `${formatSig(capS, 3)} s`;
   return `No device clears within ${cap} — arc duration limited to ${cap}`;
 }
 

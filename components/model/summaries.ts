@@ -3,6 +3,7 @@
  * (e.g. `cables[2].toBus`) to the element and field it concerns. No React here, so all of it can be unit-tested.
  */
 import { findEquipmentClass } from '../../shared/equipmentClasses';
+import { formatSig, MISSING } from '../../shared/numberFormat';
 import type { Device } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS } from '../../shared/schemas/deviceLibrary';
 import { normalizeConductorSize, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
@@ -59,8 +60,8 @@ export function itemsOf<C extends CollectionKey>(model: ModelInput, collection: 
 
 /** A number as typed by an engineer: up to 6 significant figures, no trailing zeros; "—" when missing. */
 export function num(value: number | undefined | null): string {
-  if (value === undefined || value === null || !Number.isFinite(value)) return '—';
-  return String(Number(value.toPrecision(6)));
+  if (value === undefined || value === null) return MISSING;
+  return formatSig(value, 6);
 }
 
 const AWG_SIZES = new Set(['14', '12', '10', '8', '6', '4', '3', '2', '1', '1/0', '2/0', '3/0', '4/0']);

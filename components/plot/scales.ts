@@ -4,6 +4,8 @@
  * imports, so the server test project can test them.
  */
 
+import { formatSig, MISSING } from '../../shared/numberFormat';
+
 /** A point of a time-current curve: [current, seconds]. */
 export type CurvePoint = readonly [number, number];
 
@@ -124,23 +126,7 @@ export function labelEvery(pxPerDecade: number, labelWidthPx: number, gapPx = 8)
   return 10;
 }
 
-/**
- * A number with `digits` significant figures, in plain notation (never exponent form). With `trim` (the default)
- * trailing zeros after the decimal point are removed: 0.08312 → "0.0831", 12.34 → "12.3", 1234 → "1234",
- * 0.1 → "0.1"; without it they stay (0.3 → "0.300"), as in readouts.
- */
-export function formatSig(value: number, digits = 3, trim = true): string {
-  if (!Number.isFinite(value)) return '–';
-  if (value === 0) return '0';
-  const magnitude = Math.floor(Math.log10(Math.abs(value)));
-  let decimals = Math.min(20, Math.max(0, digits - 1 - magnitude));
-  // Rounding may carry into one more integer digit (9.996 → 10.00): one decimal fewer keeps `digits` figures.
-  const rounded = Math.abs(Number(value.toFixed(decimals)));
-  if (decimals > 0 && Math.floor(Math.log10(rounded) + 1e-12) > magnitude) decimals -= 1;
-  let s = value.toFixed(decimals);
-  if (trim && decimals > 0) s = s.replace(/\.?0+$/, '');
-  return s;
-}
+export { formatSig };
 
 /** Plain label of a decade value: 0.01, 0.1, 1, 10, 100, 1000. */
 export function formatPlain(value: number): string {
@@ -175,7 +161,7 @@ export function formatTimeTick(valueS: number): string {
 /** Readout of a current, three significant figures: amperes below 1000 ("850 A"), kiloamperes above ("12.3 kA",
  * "20.0 kA"); multiples as "12.3 × In". With `trim`, trailing zeros go ("20 kA"), as for range ends. */
 export function formatCurrent(value: number, unit: CurrentUnit, trim = false): string {
-  if (!isPositive(value)) return '–';
+  if (!isPositive(value)) return MISSING;
   if (unit === '×In') return `${formatSig(value, 3, trim)} × In`;
   if (value >= 1000 * (1 - 5e-4)) return `${formatSig(value / 1000, 3, trim)} kA`;
   return `${formatSig(value, 3, trim)} A`;
@@ -184,7 +170,7 @@ export function formatCurrent(value: number, unit: CurrentUnit, trim = false): s
 /** Readout of a time in seconds, three significant figures: "0.0831 s", "0.300 s", "12.3 s", "1500 s"
  * (with `trim`: "0.3 s"). */
 export function formatTime(valueS: number, trim = false): string {
-  if (!isPositive(valueS)) return '–';
+  if (!isPositive(valueS)) return MISSING;
   return `${formatSig(valueS, 3, trim)} s`;
 }
 

@@ -178,7 +178,7 @@ describe('labels and readout text', () => {
     expect(formatSig(0.3, 3, false)).toBe('0.300');
     expect(formatSig(-2.5)).toBe('-2.5');
     expect(formatSig(0)).toBe('0');
-    expect(formatSig(Number.NaN)).toBe('–');
+    expect(formatSig(Number.NaN)).toBe('—'); // one mark for a missing value everywhere (shared/numberFormat.ts)
   });
 
   it('keeps three figures when rounding carries into a new digit', () => {
@@ -216,11 +216,11 @@ describe('labels and readout text', () => {
     expect(formatCurrent(20_000, 'A')).toBe('20.0 kA');
     expect(formatCurrent(999.8, 'A')).toBe('1.00 kA');
     expect(formatCurrent(7.5, '×In')).toBe('7.50 × In');
-    expect(formatCurrent(-3, 'A')).toBe('–');
+    expect(formatCurrent(-3, 'A')).toBe('—');
     expect(formatTime(0.0831)).toBe('0.0831 s');
     expect(formatTime(0.3)).toBe('0.300 s');
     expect(formatTime(1500)).toBe('1500 s');
-    expect(formatTime(0)).toBe('–');
+    expect(formatTime(0)).toBe('—');
     expect(formatTime(0.01, true)).toBe('0.01 s');
     expect(formatCurrent(100_000, 'A', true)).toBe('100 kA');
     expect(formatCurrent(10, 'A', true)).toBe('10 A');
