@@ -43,63 +43,73 @@ export function createTripIntegrator(
   device: Device,
   readBandAt: (currentA: number) => BandReading = (currentA) => readBand(device, currentA),
 ): TripIntegrator {
-  const progress = new Map<string, number>();
-  const dropouts: ElementDropout[] = [];
-  let operated: TripIntegrator['operated'] = null;
-  let cache: { currentA: number; band: BandReading | null } | null = null;
+  return new Integrator(readBandAt);
+}
 
-  const read = (currentA: number): BandReading | null => {
-    if (cache && cache.currentA === currentA) return cache.band;
-    const band = currentA > 0 && Number.isFinite(currentA) ? readBandAt(currentA) : null;
-    cache = { currentA, band };
+/** A class rather than an object literal with a getter: a study creates one per device and case (cheaper to build). */
+class Integrator implements TripIntegrator {
+  private readonly progress = new Map<string, number>();
+  readonly dropouts: ElementDropout[] = [];
+  private operatedAt: TripIntegrator['operated'] = null;
+  private cacheCurrentA = NaN;
+  private cacheBand: BandReading | null = null;
+
+  constructor(private readonly readBandAt: (currentA: number) => BandReading) {}
+
+  get operated(): TripIntegrator['operated'] {
+    return this.operatedAt;
+  }
+
+  private read(currentA: number): BandReading | null {
+    // NaN never equals itself: the first read always reads.
+    if (this.cacheCurrentA === currentA) return this.cacheBand;
+    const band = currentA > 0 && Number.isFinite(currentA) ? this.readBandAt(currentA) : null;
+    this.cacheCurrentA = currentA;
+    this.cacheBand = band;
     return band;
-  };
+  }
 
-  const remainingS = (el: BandReading['elements'][number]): number => {
+  private remainingS(el: BandReading['elements'][number]): number {
     if (el.maxS === null) return Infinity;
-    return Math.max(0, 1 - (progress.get(el.element) ?? 0)) * el.maxS;
-  };
+    return Math.max(0, 1 - (this.progress.get(el.element) ?? 0)) * el.maxS;
+  }
 
-  return {
-    timeToOperateS(currentA) {
-      const band = read(currentA);
-      if (!band) return Infinity;
-      let best = Infinity;
-      for (const el of band.elements) best = Math.min(best, remainingS(el));
-      return best;
-    },
-    advance(currentA, atS, dtS) {
-      const band = read(currentA);
-      let first: { element: string; region: TripRegion; remaining: number } | null = null;
-      const seen = new Set<string>();
-      for (const el of band?.elements ?? []) {
-        seen.add(el.element);
-        const before = progress.get(el.element) ?? 0;
-        if (el.maxS === null) {
-          if (before > 0) dropouts.push({ element: el.element, atS, progress: before });
-          progress.set(el.element, 0);
-          continue;
-        }
-        const remaining = remainingS(el);
-        const after = el.maxS > 0 ? before + dtS / el.maxS : 1;
-        progress.set(el.element, after);
-        if (after >= 1 - PROGRESS_SLACK && (!first || remaining < first.remaining))
-          first = { element: el.element, region: el.region, remaining };
+  timeToOperateS(currentA: number): number {
+    const band = this.read(currentA);
+    if (!band) return Infinity;
+    let best = Infinity;
+    for (const el of band.elements) best = Math.min(best, this.remainingS(el));
+    return best;
+  }
+
+  advance(currentA: number, atS: number, dtS: number): boolean {
+    const { progress, dropouts } = this;
+    const band = this.read(currentA);
+    let first: { element: string; region: TripRegion; remaining: number } | null = null;
+    const seen = new Set<string>();
+    for (const el of band?.elements ?? []) {
+      seen.add(el.element);
+      const before = progress.get(el.element) ?? 0;
+      if (el.maxS === null) {
+        if (before > 0) dropouts.push({ element: el.element, atS, progress: before });
+        progress.set(el.element, 0);
+        continue;
       }
-      // No current (the source feeding it is cut): every element resets.
-      for (const [element, p] of progress) {
-        if (seen.has(element) || p <= 0) continue;
-        dropouts.push({ element, atS, progress: p });
-        progress.set(element, 0);
-      }
-      if (first) operated = { element: first.element, region: first.region, currentA };
-      return first !== null;
-    },
-    get operated() {
-      return operated;
-    },
-    dropouts,
-  };
+      const remaining = this.remainingS(el);
+      const after = el.maxS > 0 ? before + dtS / el.maxS : 1;
+      progress.set(el.element, after);
+      if (after >= 1 - PROGRESS_SLACK && (!first || remaining < first.remaining))
+        first = { element: el.element, region: el.region, remaining };
+    }
+    // No current (the source feeding it is cut): every element resets.
+    for (const [element, p] of progress) {
+      if (seen.has(element) || p <= 0) continue;
+      dropouts.push({ element, atS, progress: p });
+      progress.set(element, 0);
+    }
+    if (first) this.operatedAt = { element: first.element, region: first.region, currentA };
+    return first !== null;
+  }
 }
 
 /**
