@@ -60,6 +60,11 @@ type ErasedArgs = Omit<HandlerArgs<EndpointDef>, 'body' | 'query' | 'params'> & 
   params: Record<string, string>;
 };
 
+/**
+ * Binds a handler (and its middleware) to an endpoint of the contract: `bind(contract.sites.create, { handler })`.
+ * The handler's params, body and query are typed from the endpoint, and its result must be what the response schema
+ * accepts.
+ */
 export function bind<E extends EndpointDef>(endpoint: E, binding: Binding<E>): AnyRoute {
   const { handler, respond, ...options } = binding;
   return { ...endpoint, ...options, handler: handler ?? respond } as unknown as AnyRoute;
@@ -67,8 +72,9 @@ export function bind<E extends EndpointDef>(endpoint: E, binding: Binding<E>): A
 
 export interface MountOptions {
   /**
-   * Check every JSON success body against the endpoint's response schema; a body that does not match is logged and
-   * answered 500 instead. On in tests (every API test then checks every response), off in production.
+   * Check every JSON success body against the endpoint's response schema; a body that does not match (or that has
+   * fields the schema does not declare) is logged and answered 500 instead. On in tests (every API test then checks
+   * every response), off in production.
    */
   checkResponses?: boolean;
 }

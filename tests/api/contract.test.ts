@@ -81,17 +81,35 @@ describe('response check', () => {
     response: z.object({ count: z.number().int() }),
   });
 
+  const sentProbe = endpoint({
+    method: 'get',
+    path: '/sent-probe',
+    summary: 'Test probe that sends its own JSON.',
+    tag: 'test',
+    access: 'public',
+    response: z.object({ count: z.number().int() }),
+  });
+
   function appWith(checkResponses: boolean) {
     const app = express();
     const router = express.Router();
+    // What a drifted handler would return: a field of the wrong type, or one the schema does not declare. Their
+    // types are erased here on purpose, as a handler's result would be after a schema change it was not told of.
     const wrong: unknown = { count: 'three' };
+    const extra: unknown = { count: 3, secret: 'not in the schema' };
     mountRoutes(
       router,
       {} as AppContext,
       [
         bind(probe, {
-          // The `wrong` body is what a drifted handler would return; its type is erased here on purpose.
-          handler: ({ params }) => (params.mode === 'good' ? { count: 3 } : (wrong as { count: number })),
+          handler: ({ params }) =>
+            params.mode === 'good' ? { count: 3 } : ((params.mode === 'extra' ? extra : wrong) as { count: number }),
+        }),
+        bind(sentProbe, {
+          respond: async ({ res }) => {
+            res.setHeader('Content-Type', 'application/json; charset=utf-8');
+            res.status(200).send('{"count":1.5}');
+          },
         }),
       ],
       (_req, _res, next) => next(),
@@ -101,6 +119,18 @@ describe('response check', () => {
     app.use(router);
     return app;
   }
+
+  it('answers 500 for a field the schema does not declare (a client would drop it)', async () => {
+    const res = await request(appWith(true)).get('/probe/extra');
+    expect(res.status).toBe(500);
+    expect(res.body.error.message).toMatch(/secret/);
+  });
+
+  it('checks a body the handler sends itself (pre-serialized JSON)', async () => {
+    const res = await request(appWith(true)).get('/sent-probe');
+    expect(res.status).toBe(500);
+    expect(res.body.error.message).toMatch(/GET \/sent-probe.*count/);
+  });
 
   it('passes a body that matches', async () => {
     const res = await request(appWith(true)).get('/probe/good');
