@@ -3,7 +3,7 @@ import { Pressable, View } from 'react-native';
 import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui/Text';
 import { boxesOverlap, monoTextWidth, pointsInBox, type Box } from './labels';
-import { formatCurrent, formatTime, readCurveLogLog, type CurrentUnit, type CurveRead } from './scales';
+import { formatCurrent, formatTime, readCurveLogLog, type CurrentUnit, type CurveRead } from '../../shared/logPlot';
 import { Swatch } from './Legend';
 import { type PlotGeometry } from './geometry';
 import { type PreparedSeries, type Probe } from './types';

@@ -10,7 +10,7 @@ import Svg, { Circle, ClipPath, Defs, G, Line, Path, Rect, Text as SvgText } fro
 import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui/Text';
 import { MAX_CURVE_WIDTH, MIN_CURVE_DASH, MIN_CURVE_WIDTH } from './palette';
-import { formatCurrent, formatTime, isPositive, type CurrentUnit, type Px } from './scales';
+import { formatCurrent, formatTime, isPositive, type CurrentUnit, type Px } from '../../shared/logPlot';
 import { Legend } from './Legend';
 import { ReadoutBox, readAt, readoutSize, readoutSpot } from './Readout';
 import { NARROW_PX, currentDomain, inRanges, layoutPlot, prepareSeries, validRange } from './geometry';

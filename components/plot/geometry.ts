@@ -23,7 +23,7 @@ import {
   type LogRect,
   type LogScale,
   type Px,
-} from './scales';
+} from '../../shared/logPlot';
 import { type PreparedSeries, type TimeCurrentMark, type TimeCurrentSeries, type TimeCurrentVertical } from './types';
 
 export const NARROW_PX = 560;

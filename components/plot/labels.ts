@@ -3,7 +3,7 @@
  * they stay readable (inside the plot, clear of one another, of the lines and, where possible, of the curves).
  * No React / React Native imports (tested in the server project).
  */
-import type { Px } from './scales';
+import type { Px } from '../../shared/logPlot';
 
 export interface Box {
   x: number;

@@ -1,6 +1,6 @@
 /** The time-current plot's inputs, and the shapes its parts pass between them. */
 import { type SeriesStyle } from './palette';
-import { type CurrentUnit, type CurvePoint } from './scales';
+import { type CurrentUnit, type CurvePoint } from '../../shared/logPlot';
 
 /** One protective device's band. Current in the plot's unit (amperes, or multiples of rating), time in seconds. */
 export interface TimeCurrentSeries {

@@ -6,6 +6,7 @@
 import { rgb, type RGB } from 'pdf-lib';
 import { BLACK, Canvas } from './canvas';
 import type { PdfFonts } from './fonts';
+import { clipPolyline, decade, decadeTicks, logScale } from '../../shared/logPlot';
 import { formatSig } from './format';
 import { textWidth } from './text';
 
@@ -50,76 +51,26 @@ export const CURVE_COLORS: RGB[] = [
   rgb(0.55, 0.38, 0.15),
 ];
 
-/** Decade limits that contain [lo, hi]. */
+/** Decade limits that contain [lo, hi], at least one decade and at most 16 wide whatever the data. */
 export function decadeRange(lo: number, hi: number): [number, number] {
   let a = Math.floor(Math.log10(lo) + 1e-9);
   let b = Math.ceil(Math.log10(hi) - 1e-9);
-  // Bounded grid whatever the data: at most 16 decades, never an infinite or NaN end.
+  // Bounded grid whatever the data: never an infinite or NaN end.
   if (!Number.isFinite(a)) a = Number.isFinite(b) ? b - 1 : 0;
   if (!Number.isFinite(b)) b = a + 1;
   if (b <= a) b = a + 1;
   if (b - a > 16) a = b - 16;
-  return [10 ** a, 10 ** b];
+  return [decade(a), decade(b)];
 }
 
 /**
- * Clips the segment p→q to the rectangle [x0,x1]×[y0,y1] (Liang–Barsky). Returns the visible part or null.
+ * Polyline (plot coordinates) clipped to the rectangle [x0,x1]×[y0,y1], as SVG path data (one M/L run per visible
+ * piece); the clipping is the screen plot's (shared/logPlot.ts).
  */
-export function clipSegment(
-  p: [number, number],
-  q: [number, number],
-  x0: number,
-  y0: number,
-  x1: number,
-  y1: number,
-): [[number, number], [number, number]] | null {
-  const dx = q[0] - p[0];
-  const dy = q[1] - p[1];
-  let t0 = 0;
-  let t1 = 1;
-  const edges: [number, number][] = [
-    [-dx, p[0] - x0],
-    [dx, x1 - p[0]],
-    [-dy, p[1] - y0],
-    [dy, y1 - p[1]],
-  ];
-  for (const [pp, qq] of edges) {
-    if (pp === 0) {
-      if (qq < 0) return null;
-    } else {
-      const r = qq / pp;
-      if (pp < 0) {
-        if (r > t1) return null;
-        if (r > t0) t0 = r;
-      } else {
-        if (r < t0) return null;
-        if (r < t1) t1 = r;
-      }
-    }
-  }
-  return [
-    [p[0] + t0 * dx, p[1] + t0 * dy],
-    [p[0] + t1 * dx, p[1] + t1 * dy],
-  ];
-}
-
-/** Polyline (plot coordinates) clipped to a rectangle, as SVG path data (runs of M/L). */
 export function clippedPath(points: [number, number][], x0: number, y0: number, x1: number, y1: number): string {
-  const parts: string[] = [];
-  let last: [number, number] | null = null;
-  for (let i = 1; i < points.length; i += 1) {
-    const seg = clipSegment(points[i - 1], points[i], x0, y0, x1, y1);
-    if (!seg) {
-      last = null;
-      continue;
-    }
-    const [a, b] = seg;
-    if (!last || Math.abs(last[0] - a[0]) > 1e-6 || Math.abs(last[1] - a[1]) > 1e-6)
-      parts.push(`M ${a[0].toFixed(2)} ${a[1].toFixed(2)}`);
-    parts.push(`L ${b[0].toFixed(2)} ${b[1].toFixed(2)}`);
-    last = b;
-  }
-  return parts.join(' ');
+  return clipPolyline(points, { x0, x1, y0, y1 })
+    .map((piece) => piece.map(([x, y], i) => `${i ? 'L' : 'M'} ${x.toFixed(2)} ${y.toFixed(2)}`).join(' '))
+    .join(' ');
 }
 
 function currentTick(a: number): string {
@@ -147,37 +98,23 @@ export function drawTimeCurrentPlot(
   const py1 = box.y + box.h - padB;
   const [ax0, ax1] = decadeRange(input.fromA, input.toA);
   const [ty0, ty1] = decadeRange(input.fromS ?? 0.01, input.toS ?? 1000);
-  const lx0 = Math.log10(ax0);
-  const lx1 = Math.log10(ax1);
-  const ly0 = Math.log10(ty0);
-  const ly1 = Math.log10(ty1);
-  const X = (a: number) => px0 + ((Math.log10(a) - lx0) / (lx1 - lx0)) * (px1 - px0);
-  const Y = (s: number) => py1 - ((Math.log10(s) - ly0) / (ly1 - ly0)) * (py1 - py0);
+  const X = logScale([ax0, ax1], [px0, px1]).toPx;
+  const Y = logScale([ty0, ty1], [py1, py0]).toPx;
   const grey = rgb(0.78, 0.78, 0.78);
   const lightGrey = rgb(0.9, 0.9, 0.9);
 
   // Grid: decades (darker) and 2..9 within each decade (lighter).
-  for (let d = Math.round(lx0); d < Math.round(lx1); d += 1) {
-    for (let k = 2; k <= 9; k += 1) {
-      const x = X(k * 10 ** d);
-      cv.line(x, py0, x, py1, { width: 0.25, color: lightGrey });
-    }
+  const iTicks = decadeTicks(ax0, ax1);
+  const tTicks = decadeTicks(ty0, ty1);
+  for (const a of iTicks.minor) cv.line(X(a), py0, X(a), py1, { width: 0.25, color: lightGrey });
+  for (const t of tTicks.minor) cv.line(px0, Y(t), px1, Y(t), { width: 0.25, color: lightGrey });
+  for (const a of iTicks.major) {
+    cv.line(X(a), py0, X(a), py1, { width: 0.5, color: grey });
+    cv.text(currentTick(a), X(a) - 20, py1 + 2, 40, { font: fonts.mono, size: 6, align: 'center' });
   }
-  for (let d = Math.round(ly0); d < Math.round(ly1); d += 1) {
-    for (let k = 2; k <= 9; k += 1) {
-      const yy = Y(k * 10 ** d);
-      cv.line(px0, yy, px1, yy, { width: 0.25, color: lightGrey });
-    }
-  }
-  for (let d = Math.round(lx0); d <= Math.round(lx1); d += 1) {
-    const x = X(10 ** d);
-    cv.line(x, py0, x, py1, { width: 0.5, color: grey });
-    cv.text(currentTick(10 ** d), x - 20, py1 + 2, 40, { font: fonts.mono, size: 6, align: 'center' });
-  }
-  for (let d = Math.round(ly0); d <= Math.round(ly1); d += 1) {
-    const yy = Y(10 ** d);
-    cv.line(px0, yy, px1, yy, { width: 0.5, color: grey });
-    cv.text(formatSig(10 ** d, 3), box.x, yy - 3.5, padL - 3, { font: fonts.mono, size: 6, align: 'right' });
+  for (const t of tTicks.major) {
+    cv.line(px0, Y(t), px1, Y(t), { width: 0.5, color: grey });
+    cv.text(formatSig(t, 3), box.x, Y(t) - 3.5, padL - 3, { font: fonts.mono, size: 6, align: 'right' });
   }
   cv.rect(px0, py0, px1 - px0, py1 - py0, { stroke: BLACK, lineWidth: 0.6 });
   cv.text('Current, A at the bus voltage', px0, py1 + 11, px1 - px0, { font: fonts.text, size: 6.5, align: 'center' });

@@ -5,7 +5,7 @@
  */
 import { formatReading, formatSig, MISSING } from '../../shared/numberFormat';
 import { formatSig as pdfFormatSig } from '../../server/pdf/format';
-import { formatSig as plotFormatSig } from '../../components/plot/scales';
+import { formatSig as plotFormatSig } from '../../shared/logPlot';
 import { fmt } from '../../hooks/units';
 import { num } from '../../components/model/summaries';
 

@@ -24,7 +24,7 @@ import {
   tracePlotData,
   type StudyReportInput,
 } from '../../server/pdf/studyReport';
-import { clipSegment, clippedPath, decadeRange } from '../../server/pdf/tccPlot';
+import { clippedPath, decadeRange } from '../../server/pdf/tccPlot';
 import { smallModel } from '../fixtures/smallModel';
 import { expectClose } from '../helpers/approx';
 import { readPdf } from '../helpers/pdfText';
@@ -257,11 +257,31 @@ describe('clearing-trace plot data', () => {
     const [lo, hi] = decadeRange(0.01, 0.01);
     expect(hi).toBeGreaterThan(lo);
     // A segment crossing the right edge of [0,10]×[0,10] is cut there.
-    const seg = clipSegment([5, 5], [15, 5], 0, 0, 10, 10);
-    expect(seg).not.toBeNull();
-    expectClose(seg![1][0], 10);
-    expectClose(seg![1][1], 5);
-    expect(clipSegment([11, 11], [20, 20], 0, 0, 10, 10)).toBeNull();
+    expect(
+      clippedPath(
+        [
+          [5, 5],
+          [15, 5],
+        ],
+        0,
+        0,
+        10,
+        10,
+      ),
+    ).toBe('M 5.00 5.00 L 10.00 5.00');
+    // A segment wholly outside draws nothing.
+    expect(
+      clippedPath(
+        [
+          [11, 11],
+          [20, 20],
+        ],
+        0,
+        0,
+        10,
+        10,
+      ),
+    ).toBe('');
     // A polyline leaving and re-entering the box is drawn as two runs.
     const d = clippedPath(
       [

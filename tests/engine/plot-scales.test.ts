@@ -21,7 +21,7 @@ import {
   readCurveLogLog,
   type CurvePoint,
   type Px,
-} from '../../components/plot/scales';
+} from '../../shared/logPlot';
 import {
   boxesOverlap,
   densify,

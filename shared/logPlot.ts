@@ -1,10 +1,10 @@
 /**
- * Pure helpers of the log-log time-current plot: log scales, decade ticks, tick and readout labels, log-log
- * interpolation for the value readout, clipping in log space and label placement. No React / React Native
- * imports, so the server test project can test them.
+ * Pure helpers of the log-log time-current plot, shared by the screen's plot (components/plot) and the study
+ * report's plot (server/pdf/tccPlot.ts): log scales, decade ticks, tick and readout labels, log-log interpolation
+ * for the value readout, clipping and label placement. No React / React Native imports.
  */
 
-import { formatSig, MISSING } from '../../shared/numberFormat';
+import { formatSig, MISSING } from './numberFormat';
 
 /** A point of a time-current curve: [current, seconds]. */
 export type CurvePoint = readonly [number, number];
