@@ -2,6 +2,7 @@
  * Pure helpers of the model editor: element types, one-line summaries, and the mapping of a `ModelIssue` path
  * (e.g. `cables[2].toBus`) to the element and field it concerns. No React here, so all of it can be unit-tested.
  */
+import { deviceSettingParts } from '../../shared/deviceSummary';
 import { findEquipmentClass } from '../../shared/equipmentClasses';
 import { formatSig, MISSING } from '../../shared/numberFormat';
 import type { Device } from '../../shared/schemas/device';
@@ -145,50 +146,9 @@ export function tieSummary(t: TieInput): string {
   return `${t.fromBus || '—'} — ${t.toBus || '—'} · ${t.closed === false ? 'open' : 'closed'}`;
 }
 
-/** What a protective device is, in one line: its main settings. */
+/** What a protective device is, in one line: its settings (the words of the study report, shared/deviceSummary.ts). */
 export function deviceSettingsSummary(d: Device | undefined): string {
-  if (!d) return 'No device chosen';
-  switch (d.kind) {
-    case 'relay': {
-      const pickup =
-        d.pickupA !== undefined
-          ? `pickup ${num(d.pickupA)} A`
-          : `pickup ${num(d.pickupSecondaryA)} A sec., CT ${num(d.ctRatio)}`;
-      const parts = [d.curve, pickup, `TD ${num(d.timeDial)}`];
-      if (d.definiteTime) parts.push(`DT ${num(d.definiteTime.delayS)} s`);
-      if (d.instantaneousA !== undefined) parts.push(`inst. ${num(d.instantaneousA)} A`);
-      else if (d.instantaneousSecondaryA !== undefined) parts.push(`inst. ${num(d.instantaneousSecondaryA)} A sec.`);
-      parts.push(`${num(d.breakerCycles)}-cycle breaker`);
-      parts.push(`curve to ${num(d.curveLimitMultiple ?? 20)} × pickup`);
-      return parts.join(' · ');
-    }
-    case 'fuse': {
-      const curve = d.totalClearing
-        ? `total clearing ${d.totalClearing.length} pts`
-        : d.averageMelt
-          ? `average melt ${d.averageMelt.length} pts`
-          : 'no clearing curve';
-      return `${num(d.ratingA)} A · ${curve}`;
-    }
-    case 'band':
-      return `${num(d.ratingA)} A · ${d.currentUnit === 'multiple' ? 'multiples of rating' : 'amperes'} · ${d.min.length}/${d.max.length} pts`;
-    case 'thermal-magnetic': {
-      const parts = [`${num(d.ratingA)} A`];
-      const i = d.instantaneous;
-      if (i?.pickupMultiple !== undefined) parts.push(`inst. ${num(i.pickupMultiple)}× ±${num(i.tolerancePct)} %`);
-      else if (i?.lowMultiple !== undefined) parts.push(`inst. ${num(i.lowMultiple)}–${num(i.highMultiple)}×`);
-      else parts.push('thermal only');
-      return parts.join(' · ');
-    }
-    case 'electronic': {
-      const parts = [`In ${num(d.sensorA)} A`, `LT ${num(d.longTime.pickup)}× ${num(d.longTime.delayS)} s`];
-      if (d.shortTime)
-        parts.push(`ST ${num(d.shortTime.pickup)}× ${num(d.shortTime.delayS)} s${d.shortTime.i2t ? ' I²t' : ''}`);
-      if (d.instantaneous) parts.push(`I ${num(d.instantaneous.pickup)}×`);
-      if (d.groundFault) parts.push(`GF ${num(d.groundFault.pickupA)} A`);
-      return parts.join(' · ');
-    }
-  }
+  return d ? deviceSettingParts(d).join(' · ') : 'No device chosen';
 }
 
 export function deviceKindLabel(d: Device | undefined): string {

@@ -7,6 +7,8 @@
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
 import { STUDY_STATUS_LABELS, type StudyDto } from '../../shared/schemas/studies';
 import type { Device } from '../../shared/schemas/device';
+import { DEVICE_KIND_LABELS } from '../../shared/schemas/deviceLibrary';
+import { deviceSettingParts } from '../../shared/deviceSummary';
 import type { Model, PlacedDevice } from '../../shared/schemas/model';
 import type { ArcCaseTrace, BusResult, StudyResults } from '../../shared/schemas/studyResults';
 import { UNREVIEWED_CAUTION } from '../../shared/cautions';
@@ -274,71 +276,8 @@ export function deviceLocation(model: Model, d: PlacedDevice): string {
 
 /** The key settings of a device, in one line. */
 export function deviceSettings(device: Device): string {
-  switch (device.kind) {
-    case 'relay': {
-      const pickup =
-        device.pickupA !== undefined
-          ? `${num(device.pickupA)} A`
-          : `${num(device.pickupSecondaryA)} A sec. × CT ${num(device.ctRatio)}`;
-      const parts = [`${device.curve}`, `pickup ${pickup}`, `time dial ${num(device.timeDial)}`];
-      if (device.instantaneousA !== undefined) parts.push(`instantaneous ${num(device.instantaneousA)} A`);
-      else if (device.instantaneousSecondaryA !== undefined)
-        parts.push(`instantaneous ${num(device.instantaneousSecondaryA)} A sec.`);
-      if (device.definiteTime)
-        parts.push(
-          `definite time ${num(device.definiteTime.pickupA ?? device.definiteTime.pickupSecondaryA)} A / ${num(device.definiteTime.delayS)} s`,
-        );
-      parts.push(`breaker ${num(device.breakerCycles)} cycles`);
-      return parts.join(', ');
-    }
-    case 'fuse': {
-      const parts = [`${num(device.ratingA)} A`];
-      if (device.totalClearing) parts.push(`total-clearing curve, ${device.totalClearing.length} points`);
-      else if (device.averageMelt) parts.push(`average-melt curve, ${device.averageMelt.length} points`);
-      if (device.minimumMelt) parts.push(`minimum-melt curve, ${device.minimumMelt.length} points`);
-      return parts.join(', ');
-    }
-    case 'band':
-      return `${num(device.ratingA)} A, currents in ${device.currentUnit === 'multiple' ? 'multiples of rating' : 'amperes'}, min ${device.min.length} / max ${device.max.length} points`;
-    case 'thermal-magnetic': {
-      const parts = [`${num(device.ratingA)} A`, `thermal band ${device.thermal.max.length} points`];
-      const i = device.instantaneous;
-      if (i) {
-        if (i.pickupMultiple !== undefined)
-          parts.push(`instantaneous ${num(i.pickupMultiple)}× ±${num(i.tolerancePct)} %`);
-        else parts.push(`instantaneous ${num(i.lowMultiple)}–${num(i.highMultiple)}×`);
-        if (i.setting) parts.push(`setting ${i.setting}`);
-      }
-      if (device.instantaneousClearingS !== undefined) parts.push(`clearing ${num(device.instantaneousClearingS)} s`);
-      else if (device.instantaneousClearingCycles !== undefined)
-        parts.push(`clearing ${num(device.instantaneousClearingCycles)} cycles`);
-      return parts.join(', ');
-    }
-    case 'electronic': {
-      const parts = [
-        `In ${num(device.sensorA)} A`,
-        `LT ${num(device.longTime.pickup)}× / ${num(device.longTime.delayS)} s`,
-      ];
-      if (device.shortTime)
-        parts.push(
-          `ST ${num(device.shortTime.pickup)}× / ${num(device.shortTime.delayS)} s ${device.shortTime.i2t ? 'I²t in' : 'flat'}`,
-        );
-      if (device.instantaneous) parts.push(`inst. ${num(device.instantaneous.pickup)}×`);
-      parts.push(`tolerance ±${num(device.pickupTolerancePct)} %`, `clearing ${num(device.clearingS)} s`);
-      return parts.join(', ');
-    }
-    default:
-      return '';
-  }
+  return deviceSettingParts(device).join(', ');
 }
-
-const KIND_NAMES: Record<Device['kind'], string> = {
-  relay: 'Relay with breaker',
-  fuse: 'Fuse',
-  band: 'Digitized band',
-  'thermal-magnetic': 'Thermal-magnetic breaker',
-  electronic: 'Electronic trip unit',
-};
 
 function methodItems(results: StudyResults, model: Model): string[] {
   const capS = results.maxArcDurationMs / 1000;
@@ -735,7 +674,7 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
       d.id,
       d.name ?? '',
       deviceLocation(model, d),
-      KIND_NAMES[d.device.kind],
+      DEVICE_KIND_LABELS[d.device.kind],
       deviceSettings(d.device),
     ]),
   );

@@ -25,6 +25,8 @@ import {
   type StudyReportInput,
 } from '../../server/pdf/studyReport';
 import { clippedPath, decadeRange } from '../../server/pdf/tccPlot';
+import { deviceSettingParts } from '../../shared/deviceSummary';
+import { deviceSettingsSummary } from '../../components/model/summaries';
 import { smallModel } from '../fixtures/smallModel';
 import { expectClose } from '../helpers/approx';
 import { readPdf } from '../helpers/pdfText';
@@ -302,10 +304,20 @@ describe('clearing-trace plot data', () => {
     const m = modelSchema.parse(smallModel());
     const byId = (id: string) => m.devices.find((d) => d.id === id)!.device;
     expect(deviceSettings(byId('R-TX'))).toBe(
-      'IEEE-VI, pickup 100 A, time dial 1, instantaneous 3000 A, breaker 5 cycles',
+      'IEEE-VI, pickup 100 A, time dial 1, curve to 20× pickup, instantaneous 3000 A, breaker 5 cycles',
     );
     expect(deviceSettings(byId('CB-MAIN'))).toContain('ST 4× / 0.3 s flat');
     expect(deviceSettings(byId('CB-MCC'))).toContain('instantaneous 10× ±20 %');
     expect(deviceSettings(byId('F-PNL-FU'))).toBe('200 A, total-clearing curve, 4 points');
+  });
+
+  it('the model editor and the report say the same settings of every device (one wording, shared/deviceSummary.ts)', () => {
+    const m = modelSchema.parse(smallModel());
+    for (const d of m.devices) {
+      const parts = deviceSettingParts(d.device);
+      expect(parts.length).toBeGreaterThan(1);
+      expect(deviceSettings(d.device)).toBe(parts.join(', '));
+      expect(deviceSettingsSummary(d.device)).toBe(parts.join(' · '));
+    }
   });
 });
