@@ -100,7 +100,10 @@ type ParamsArg<E extends EndpointDef> = [PathParams<E['path']>] extends [never]
 type QueryArg<E extends EndpointDef> = E extends { query: object }
   ? { query?: QueryInputOf<E> }
   : { query?: undefined };
-type BodyArg<E extends EndpointDef> = E extends { body: object } ? { body: BodyInputOf<E> } : { body?: undefined };
+type BodyArg<E extends EndpointDef> =
+  | (E extends { body: object } ? { body: BodyInputOf<E> } : { body?: undefined })
+  // A multipart upload (a file, with any text fields of the body schema as form fields) instead of a JSON body.
+  | { formData: FormData; body?: undefined };
 /** What a call of an endpoint needs: its path parameters, its query and its body, each typed by the contract. */
 export type CallArgs<E extends EndpointDef> = ParamsArg<E> & QueryArg<E> & BodyArg<E>;
 
@@ -126,13 +129,14 @@ export async function callApi<E extends Endpoint>(
   endpoint: E,
   ...[args]: object extends CallArgs<E> ? [CallArgs<E>?] : [CallArgs<E>]
 ): Promise<ResponseOf<E>> {
-  const { params, query, body } = (args ?? {}) as {
+  const { params, query, body, formData } = (args ?? {}) as {
     params?: Record<string, string>;
     query?: Record<string, unknown>;
     body?: unknown;
+    formData?: FormData;
   };
   const path = fillPath(endpoint.path, params ?? {}) + encodeQuery(query);
-  const res = await apiRequest(path, { method: endpoint.method.toUpperCase(), body });
+  const res = await apiRequest(path, { method: endpoint.method.toUpperCase(), body, formData });
   // A route without a JSON response (204) answers nothing: its ResponseOf is void.
   if (!endpoint.response || res.status === 204) return undefined as ResponseOf<E>;
   const parsed = endpoint.response.safeParse(await res.json());

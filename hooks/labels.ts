@@ -1,11 +1,8 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { CreateLabelBatch } from '../shared/schemas/labelBatches';
-import type { LabelDto } from '../shared/schemas/labels';
 import { contract } from '../shared/api';
-import { apiFetch, callApi } from './api';
+import { callApi } from './api';
 import { queryKeys } from './queryKeys';
-
-const enc = encodeURIComponent;
 
 export function useLabelDetail(code: string) {
   return useQuery({
@@ -40,7 +37,7 @@ export function useMarkInstalled(code: string) {
     mutationFn: (photo: File) => {
       const form = new FormData();
       form.append('photo', photo);
-      return apiFetch<LabelDto>(`/labels/${enc(code)}/installed`, { method: 'POST', formData: form });
+      return callApi(contract.labels.markInstalled, { params: { code }, formData: form });
     },
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.labels.all() }),
   });
@@ -54,10 +51,7 @@ export function useReportMismatch(code: string) {
       form.append('kind', input.kind);
       form.append('text', input.text);
       if (input.photo) form.append('photo', input.photo);
-      return apiFetch<{ id: string; status: string }>(`/labels/${enc(code)}/reports`, {
-        method: 'POST',
-        formData: form,
-      });
+      return callApi(contract.labels.report, { params: { code }, formData: form });
     },
     onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.labels.all() }),
   });

@@ -1,11 +1,9 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ApproveInput, ModelEnvelope, RunDto, StudyDto } from '../shared/schemas/studies';
+import type { ApproveInput, RunDto, StudyDto } from '../shared/schemas/studies';
 import { contract } from '../shared/api';
-import { apiFetch, callApi } from './api';
+import { callApi } from './api';
 import { settleModelDraft } from './modelDrafts';
 import { queryKeys } from './queryKeys';
-
-const enc = encodeURIComponent;
 
 export function useStudies(siteId: string) {
   return useQuery({
@@ -64,7 +62,7 @@ export function useImportModel(id: string) {
     mutationFn: (files: File[]) => {
       const form = new FormData();
       for (const f of files) form.append('files', f);
-      return apiFetch<ModelEnvelope>(`/studies/${enc(id)}/import`, { method: 'POST', formData: form });
+      return callApi(contract.studies.importModel, { params: { studyId: id }, formData: form });
     },
     onSuccess: (env) => {
       qc.setQueryData(queryKeys.studies.model(id), env);

@@ -4,7 +4,8 @@ import React, { useMemo, useState } from 'react';
 import { View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS, deviceDefinitionSchema, type DeviceDefinition } from '../../shared/schemas/deviceLibrary';
-import { apiFetch } from '../../hooks/api';
+import { callApi } from '../../hooks/api';
+import { contract } from '../../shared/api';
 import { queryKeys } from '../../hooks/queryKeys';
 import { serverErrors, validate } from '../../hooks/forms';
 import {
@@ -31,11 +32,10 @@ function useResolvedDevice(def: DeviceDefinition | null): { device: Device | nul
   const key = def ? JSON.stringify(def) : '';
   const resolved = useQuery({
     queryKey: queryKeys.resolvedTripUnit(key),
-    queryFn: () =>
-      apiFetch<{ device: Device }>('/calc/resolve-trip-unit', {
-        method: 'POST',
-        body: def && def.kind === 'electronic' ? { tripType: def.tripType, positions: def.positions } : {},
-      }),
+    queryFn: () => {
+      if (!def || def.kind !== 'electronic') throw new Error('Only an electronic trip unit is resolved');
+      return callApi(contract.calc.resolveTripUnit, { body: { tripType: def.tripType, positions: def.positions } });
+    },
     enabled: !!def && def.kind === 'electronic',
     retry: false,
     placeholderData: (p) => p,
@@ -159,11 +159,7 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
     const form = new FormData();
     form.append('file', file);
     try {
-      const r = await apiFetch<{
-        currentUnit: 'multiple' | 'ampere';
-        min: [number, number][];
-        max: [number, number][];
-      }>('/device-types/parse-band-csv', { method: 'POST', formData: form });
+      const r = await callApi(contract.devices.parseBandCsv, { formData: form });
       setDef((d) => (d && d.kind === 'band' ? { ...d, currentUnit: r.currentUnit, min: r.min, max: r.max } : d));
       setMessage({
         tone: 'ok',

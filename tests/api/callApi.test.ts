@@ -16,7 +16,7 @@ type Answer = Record<string, unknown> & { id: string; name: string };
 interface ClientApi {
   callApi(
     endpoint: Endpoint,
-    args?: { params?: Record<string, string>; query?: Record<string, unknown>; body?: unknown },
+    args?: { params?: Record<string, string>; query?: Record<string, unknown>; body?: unknown; formData?: FormData },
   ): Promise<Answer | undefined>;
   ApiClientError: new (...args: never[]) => Error & { status: number; code: string };
   TOKEN_KEY: string;
@@ -95,6 +95,20 @@ describe('callApi', () => {
       },
     });
     await expect(callApi(contract.devices.remove, { params: { deviceTypeId: created.id } })).resolves.toBeUndefined();
+  });
+
+  it('sends a multipart upload with its query', async () => {
+    signInAs(t.orgA.users.engineer.token);
+    const form = new FormData();
+    form.append('file', new Blob(['multiple,min_s,max_s\n2,50,100\n5,5,12\n'], { type: 'text/csv' }), 'band.csv');
+    const read = await call(contract.devices.parseBandCsv, { query: { currentUnit: 'multiple' }, formData: form });
+    expect(read).toMatchObject({
+      currentUnit: 'multiple',
+      max: [
+        [2, 100],
+        [5, 12],
+      ],
+    });
   });
 
   it('turns an error answer into an ApiClientError with its code and fields', async () => {
