@@ -10,8 +10,7 @@ import type { AppContext, AuthUser } from '../http/context';
 import { ApiError } from '../http/errors';
 import { recordAudit } from './audit';
 import { addMonths } from './dates';
-import { findSite } from './sites';
-import { findStudy } from './studies';
+import { findSite, findStudy } from './scope';
 
 /** 80 random bits as 16 base32 characters (an unguessable code, at least 64 bits). */
 export function newLabelCode(): string {

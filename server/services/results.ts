@@ -17,7 +17,7 @@ import type { BusResult, StudyResults } from '../../shared/schemas/studyResults'
 import { StudyRun } from '../db/models';
 import type { AuthUser } from '../http/context';
 import { ApiError } from '../http/errors';
-import { findStudyHead } from './studies';
+import { findStudyHead } from './scope';
 
 /**
  * Study results served in pages (GET /studies/:id/results) and one bus at a time with its trace

@@ -11,7 +11,8 @@ import { ApiError, modelIssuesError } from '../http/errors';
 import { recordAudit } from './audit';
 import { JobStopped, STOPPED_BY_SHUTDOWN } from './jobs';
 import { getSettings, labelSettingsOf } from './organization';
-import { findStudy, toRunDto } from './studies';
+import { findStudy } from './scope';
+import { toRunDto } from './studies';
 import { runStudyOffThread } from './studyWorker';
 
 interface RunSettings {

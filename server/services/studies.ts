@@ -10,9 +10,11 @@ import { recordAudit } from './audit';
 import { addMonths } from './dates';
 import { issueLabels } from './labels';
 import { getSettings } from './organization';
+import { APPROVED_WORK, findSite, findStudy, findStudyHead } from './scope';
+import { can } from '../../shared/permissions';
 
-/** Electricians see approved work only (and what it superseded); every other role sees every revision. */
-const VISIBLE_TO_ELECTRICIANS = ['approved', 'superseded'];
+// Look-ups by id live in ./scope (organization and role visibility in one place); re-exported for the routes.
+export { findStudy, findStudyHead };
 
 export function emptyModel(name: string): Record<string, unknown> {
   return {
@@ -109,43 +111,10 @@ export async function toStudyDtos(ctx: AppContext, organizationId: string, studi
   });
 }
 
-export async function findStudy(actor: AuthUser, studyId: string, transaction?: Transaction): Promise<Study> {
-  const study = await Study.findOne({ where: { id: studyId, organizationId: actor.organizationId }, transaction });
-  if (!study || (actor.role === 'electrician' && !VISIBLE_TO_ELECTRICIANS.includes(study.status))) {
-    throw ApiError.notFound('No such study');
-  }
-  return study;
-}
-
-/**
- * The same look-up and visibility rule as `findStudy`, reading only the columns a results request needs (never the
- * model, which can be megabytes): for the routes every results page and bus goes through.
- */
-export async function findStudyHead(
-  actor: AuthUser,
-  studyId: string,
-): Promise<{ id: string; status: string; approvedRunId: string | null }> {
-  const study = await Study.findOne({
-    where: { id: studyId, organizationId: actor.organizationId },
-    attributes: ['id', 'status', 'approvedRunId'],
-    raw: true,
-  });
-  if (!study || (actor.role === 'electrician' && !VISIBLE_TO_ELECTRICIANS.includes(study.status))) {
-    throw ApiError.notFound('No such study');
-  }
-  return { id: study.id, status: study.status, approvedRunId: study.approvedRunId ?? null };
-}
-
-async function findSiteOf(actor: AuthUser, siteId: string): Promise<Site> {
-  const site = await Site.findOne({ where: { id: siteId, organizationId: actor.organizationId } });
-  if (!site) throw ApiError.notFound('No such site');
-  return site;
-}
-
 export async function listStudies(ctx: AppContext, actor: AuthUser, siteId: string): Promise<StudyDto[]> {
-  await findSiteOf(actor, siteId);
+  await findSite(actor, siteId);
   const where: Record<string, unknown> = { siteId, organizationId: actor.organizationId };
-  if (actor.role === 'electrician') where.status = VISIBLE_TO_ELECTRICIANS;
+  if (!can(actor.role, 'seeUnapprovedStudies')) where.status = APPROVED_WORK;
   const studies = await Study.findAll({ where, order: [['revision', 'DESC']] });
   return toStudyDtos(ctx, actor.organizationId, studies);
 }
@@ -172,7 +141,7 @@ export async function createStudy(
   siteId: string,
   input: { title: string; model?: Record<string, unknown> },
 ): Promise<StudyDto> {
-  const site = await findSiteOf(actor, siteId);
+  const site = await findSite(actor, siteId);
   const study = await ctx.db.sequelize.transaction(async (transaction) => {
     const now = ctx.now();
     const s = await Study.create(
@@ -527,7 +496,7 @@ export async function newRevision(ctx: AppContext, actor: AuthUser, studyId: str
 }
 
 export async function listEquipment(actor: AuthUser, siteId: string): Promise<EquipmentDto[]> {
-  await findSiteOf(actor, siteId);
+  await findSite(actor, siteId);
   const rows = await Equipment.findAll({
     where: { siteId, organizationId: actor.organizationId },
     order: [['tag', 'ASC']],
