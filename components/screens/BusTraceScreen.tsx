@@ -3,7 +3,6 @@ import { Link } from 'expo-router';
 import React, { useState } from 'react';
 import { View } from 'react-native';
 import type { Device } from '../../shared/schemas/device';
-import type { BandCurvesResponse } from '../../shared/schemas/deviceLibrary';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
 import { REGION_LABELS } from '../../shared/tripRegions';
 import {
@@ -15,7 +14,8 @@ import {
   formatCalPerCm2,
   formatJPerCm2,
 } from '../../shared/labelDisplay';
-import { apiFetch } from '../../hooks/api';
+import { callApi } from '../../hooks/api';
+import { contract } from '../../shared/api';
 import { queryKeys } from '../../hooks/queryKeys';
 import { useBusResult } from '../../hooks/results';
 import { useStudy } from '../../hooks/studies';
@@ -264,7 +264,10 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
       const json = JSON.stringify(device ?? null);
       return {
         queryKey: queryKeys.bandCurves(json),
-        queryFn: () => apiFetch<BandCurvesResponse>('/calc/band-curves', { method: 'POST', body: { device } }),
+        queryFn: () => {
+          if (!device) throw new Error('No device to plot');
+          return callApi(contract.calc.bandCurves, { body: { device } });
+        },
         enabled: !!device,
         staleTime: Infinity,
       };

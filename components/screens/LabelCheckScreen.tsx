@@ -2,10 +2,11 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'expo-router';
 import React from 'react';
 import { ScrollView, View } from 'react-native';
-import { LABEL_STATUS_LABELS, type LabelCheck } from '../../shared/schemas/labels';
+import { LABEL_STATUS_LABELS } from '../../shared/schemas/labels';
 import { LABEL_STATUS_NOTICES } from '../../shared/labelDisplay';
 import { groupLabelCode, parseLabelCode } from '../../shared/labelCode';
-import { apiFetch, ApiClientError } from '../../hooks/api';
+import { ApiClientError, callApi } from '../../hooks/api';
+import { contract } from '../../shared/api';
 import { queryKeys } from '../../hooks/queryKeys';
 import { Cautions } from '../Cautions';
 import { LabelView } from '../labels/LabelView';
@@ -22,7 +23,7 @@ const STATUS_STYLE = {
 export function LabelCheckScreen({ code }: { code: string }) {
   const check = useQuery({
     queryKey: queryKeys.labels.check(code),
-    queryFn: () => apiFetch<LabelCheck>(`/labels/${encodeURIComponent(parseLabelCode(code) ?? code)}`),
+    queryFn: () => callApi(contract.labels.check, { params: { code: parseLabelCode(code) ?? code } }),
     retry: false,
   });
   const notFound = check.error instanceof ApiClientError && check.error.status === 404;
