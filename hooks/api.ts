@@ -107,12 +107,15 @@ type BodyArg<E extends EndpointDef> =
 /** What a call of an endpoint needs: its path parameters, its query and its body, each typed by the contract. */
 export type CallArgs<E extends EndpointDef> = ParamsArg<E> & QueryArg<E> & BodyArg<E>;
 
-/** A query string from a query object: absent values left out, arrays as repeated keys. */
+/**
+ * A query string from a query object: absent values and empty strings left out (an empty filter field means no
+ * filter), arrays as repeated keys.
+ */
 function encodeQuery(query: Record<string, unknown> | undefined): string {
   const parts: string[] = [];
   for (const [k, v] of Object.entries(query ?? {})) {
     for (const item of Array.isArray(v) ? v : [v]) {
-      if (item === undefined || item === null) continue;
+      if (item === undefined || item === null || item === '') continue;
       parts.push(`${encodeURIComponent(k)}=${encodeURIComponent(String(item))}`);
     }
   }

@@ -1,9 +1,8 @@
 import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { AttentionList } from '../shared/schemas/attention';
-import type { AuditPage } from '../shared/schemas/auditLog';
 import type { FieldReportStatus, FieldReportTriage } from '../shared/schemas/fieldReports';
 import { contract } from '../shared/api';
-import { apiFetch, callApi } from './api';
+import { callApi } from './api';
 import { queryKeys } from './queryKeys';
 
 const enc = encodeURIComponent;
@@ -92,9 +91,9 @@ export function useAuditEvents(filters: AuditFilters, enabled = true) {
   return useInfiniteQuery({
     queryKey: queryKeys.audit.list({ ...filters }),
     queryFn: ({ pageParam }) =>
-      apiFetch<AuditPage>(
-        `/audit-events${queryString({ ...filters, before: pageParam ?? undefined, limit: AUDIT_PAGE_SIZE })}`,
-      ),
+      callApi(contract.attention.auditEvents, {
+        query: { ...filters, before: pageParam ?? undefined, limit: AUDIT_PAGE_SIZE },
+      }),
     initialPageParam: null as string | null,
     getNextPageParam: (last) => last.nextBefore,
     enabled,
