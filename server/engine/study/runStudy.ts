@@ -436,6 +436,8 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     arcingCurrentKa: number;
     arcing: ArcingCurrents;
     incidentEnergyJPerCm2: number;
+    /** The boundary of this step's energy alone (the case's boundary when it is the only step). */
+    arcFlashBoundaryMm: number;
     opened: string[];
   }
   const steps: Step[] = [];
@@ -490,16 +492,19 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     const end = truncated && dt > 0 ? stateAt(tEnd, feeding) : end0;
     if (dt > 0 && start.arcing) {
       const candidates = [start, end].filter((s): s is ArcState & { arcing: ArcingCurrents } => s.arcing !== null);
-      let best: { s: ArcState & { arcing: ArcingCurrents }; e: number } | null = null;
+      let best: { s: ArcState & { arcing: ArcingCurrents }; e: number; afb: number } | null = null;
       for (const s of candidates) {
-        const e = computeCaseEnergy(
+        // The same arcing currents give the same energy (constant currents: both ends alike), which never replaces.
+        if (best && s.arcing === best.s.arcing) continue;
+        const energy = computeCaseEnergy(
           s.arcing,
           arcCase,
           input.enclosureCorrectionFactor,
           dt * 1000,
           equipment.workingDistanceMm,
-        ).incidentEnergyJPerCm2;
-        if (!best || e > best.e) best = { s, e };
+        );
+        const e = energy.incidentEnergyJPerCm2;
+        if (!best || e > best.e) best = { s, e, afb: energy.arcFlashBoundaryMm };
       }
       if (best) {
         // Model-range notes that first appear as the current falls (e.g. a bolted current below the model range).
@@ -516,6 +521,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
           arcingCurrentKa: best.s.arcing.arcingCurrentKa[arcCase],
           arcing: best.s.arcing,
           incidentEnergyJPerCm2: best.e,
+          arcFlashBoundaryMm: best.afb,
           opened: [],
         });
       }
@@ -598,18 +604,9 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     );
   const energyJ = steps.reduce((s, i) => s + i.incidentEnergyJPerCm2, 0);
   // One step: the published boundary equation (Eqs. 7-10, 22-24); several: the distance where the sum is 5.0 J/cm².
+  // (One step: its duration is toS − fromS, the dt its energy was computed with, so its boundary is that computation's.)
   const boundaryMm =
-    parts.length === 1
-      ? computeCaseEnergy(
-          parts[0].arcing,
-          arcCase,
-          input.enclosureCorrectionFactor,
-          parts[0].durationMs,
-          equipment.workingDistanceMm,
-        ).arcFlashBoundaryMm
-      : parts.length === 0
-        ? 0
-        : boundaryDistanceMm(energyAt);
+    parts.length === 1 ? steps[0].arcFlashBoundaryMm : parts.length === 0 ? 0 : boundaryDistanceMm(energyAt);
 
   const stopTimes = [...stop.values()].map((s) => Math.min(s.t, capS));
   const arcEnd = stopTimes.length ? Math.max(...stopTimes) : 0;
