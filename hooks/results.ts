@@ -1,17 +1,11 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
-import type { ResultsPage, ResultsPageParams } from '../shared/schemas/resultsPage';
+import type { ResultsPageParams } from '../shared/schemas/resultsPage';
 import { contract } from '../shared/api';
-import { apiFetch, callApi } from './api';
+import { callApi } from './api';
 import { queryKeys } from './queryKeys';
 
-const enc = encodeURIComponent;
-
-/** The query string of a results page (parameters left out are the server's defaults). */
-export function resultsPageQuery(params: ResultsPageParams): string {
-  const parts: string[] = [];
-  for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== null) parts.push(`${k}=${enc(String(v))}`);
-  return parts.length ? `?${parts.join('&')}` : '';
-}
+/** A yes/no filter as the query string writes it. */
+const flag = (v: boolean | undefined) => (v === undefined ? undefined : v ? 'true' : 'false');
 
 /**
  * One page of a study's results (rows without traces, the paging and the whole study's counts); null when the study
@@ -22,7 +16,10 @@ export function useResultsPage(studyId: string, params: ResultsPageParams, enabl
     queryKey: queryKeys.studies.resultsPage(studyId, params),
     queryFn: async () => {
       try {
-        return await apiFetch<ResultsPage>(`/studies/${enc(studyId)}/results${resultsPageQuery(params)}`);
+        return await callApi(contract.studies.results, {
+          params: { studyId },
+          query: { ...params, warnings: flag(params.warnings), errors: flag(params.errors) },
+        });
       } catch (e) {
         if ((e as { status?: number }).status === 404) return null;
         throw e;
