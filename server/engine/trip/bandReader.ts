@@ -22,11 +22,19 @@ export interface BandReader {
 type Settings = ElectronicSettings | ThermalMagneticSettings | RelaySettings;
 
 export function createBandReader(maxReadings = 256): BandReader {
-  const settings = new Map<Device, Settings>();
-  const readings = new Map<Device, Map<number, BandReading>>();
-  let count = 0;
+  return new MemoizedBandReader(maxReadings);
+}
 
-  const bandOf = (device: Device, currentA: number): BandReading => {
+/** A class rather than closures: a study creates one per bus (cheaper to build). */
+class MemoizedBandReader implements BandReader {
+  private readonly settings = new Map<Device, Settings>();
+  private readonly readings = new Map<Device, Map<number, BandReading>>();
+  private count = 0;
+
+  constructor(private readonly maxReadings: number) {}
+
+  private bandOf(device: Device, currentA: number): BandReading {
+    const { settings } = this;
     switch (device.kind) {
       case 'electronic': {
         let s = settings.get(device) as ElectronicSettings | undefined;
@@ -46,29 +54,26 @@ export function createBandReader(maxReadings = 256): BandReader {
       default:
         return readBand(device, currentA);
     }
-  };
+  }
 
-  const read = (device: Device, currentA: number): BandReading => {
-    let byCurrent = readings.get(device);
+  read(device: Device, currentA: number): BandReading {
+    let byCurrent = this.readings.get(device);
     const hit = byCurrent?.get(currentA);
     if (hit) return hit;
-    const band = bandOf(device, currentA);
-    if (count >= maxReadings) {
-      readings.clear();
-      count = 0;
+    const band = this.bandOf(device, currentA);
+    if (this.count >= this.maxReadings) {
+      this.readings.clear();
+      this.count = 0;
       byCurrent = undefined;
     }
-    if (!byCurrent) readings.set(device, (byCurrent = new Map()));
+    if (!byCurrent) this.readings.set(device, (byCurrent = new Map()));
     byCurrent.set(currentA, band);
-    count += 1;
+    this.count += 1;
     return band;
-  };
+  }
 
-  return {
-    read,
-    clearing(device, currentA) {
-      checkClearingInput(device, currentA);
-      return clearingFromBand(read(device, currentA), currentA);
-    },
-  };
+  clearing(device: Device, currentA: number): Omit<ClearingTimeResult, 'trace'> {
+    checkClearingInput(device, currentA);
+    return clearingFromBand(this.read(device, currentA), currentA);
+  }
 }
