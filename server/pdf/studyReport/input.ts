@@ -1,0 +1,18 @@
+/** What the study report is drawn from. */
+import type { Model } from '../../../shared/schemas/model';
+import type { StudyDto } from '../../../shared/schemas/studies';
+import type { StudyResults } from '../../../shared/schemas/studyResults';
+
+export interface StudyReportInput {
+  organizationName: string;
+  site: { name: string; address: string };
+  study: StudyDto;
+  results: StudyResults;
+  model: Model;
+  cautions: readonly string[];
+}
+
+/** An approved (or later superseded) revision with its approval: the report carries the approval block. */
+export function isApproved(study: StudyDto): boolean {
+  return study.approval !== null && (study.status === 'approved' || study.status === 'superseded');
+}
