@@ -123,6 +123,18 @@ function encodeQuery(query: Record<string, unknown> | undefined): string {
 }
 
 /**
+ * The path (under /api) of one endpoint of the contract with its parameters and query filled in, for a file the
+ * client fetches itself (`downloadFile`, `useAuthedImage`): `apiPath(contract.attention.exportList, { params: { list } })`.
+ */
+export function apiPath<E extends Endpoint>(
+  endpoint: E,
+  ...[args]: object extends CallArgs<E> ? [CallArgs<E>?] : [CallArgs<E>]
+): string {
+  const { params, query } = (args ?? {}) as { params?: Record<string, string>; query?: Record<string, unknown> };
+  return fillPath(endpoint.path, params ?? {}) + encodeQuery(query);
+}
+
+/**
  * Calls one endpoint of the contract (shared/api): the path filled from `params`, the query and the JSON body typed by
  * the endpoint's schemas, and the answer parsed with its response schema, so the caller gets the type the server is
  * tested against. An answer that does not match is an ApiClientError, never a silently wrong value.
@@ -138,8 +150,11 @@ export async function callApi<E extends Endpoint>(
     body?: unknown;
     formData?: FormData;
   };
-  const path = fillPath(endpoint.path, params ?? {}) + encodeQuery(query);
-  const res = await apiRequest(path, { method: endpoint.method.toUpperCase(), body, formData });
+  const res = await apiRequest(fillPath(endpoint.path, params ?? {}) + encodeQuery(query), {
+    method: endpoint.method.toUpperCase(),
+    body,
+    formData,
+  });
   // A route without a JSON response (204) answers nothing: its ResponseOf is void.
   if (!endpoint.response || res.status === 204) return undefined as ResponseOf<E>;
   const parsed = endpoint.response.safeParse(await res.json());

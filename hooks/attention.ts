@@ -2,18 +2,8 @@ import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tansta
 import type { AttentionList } from '../shared/schemas/attention';
 import type { FieldReportStatus, FieldReportTriage } from '../shared/schemas/fieldReports';
 import { contract } from '../shared/api';
-import { callApi } from './api';
+import { apiPath, callApi } from './api';
 import { queryKeys } from './queryKeys';
-
-const enc = encodeURIComponent;
-
-/** `?a=1&b=2` from the defined, non-empty values (empty string when none). */
-export function queryString(params: Record<string, string | number | boolean | undefined | null>): string {
-  const parts = Object.entries(params)
-    .filter(([, v]) => v !== undefined && v !== null && v !== '' && v !== false)
-    .map(([k, v]) => `${enc(k)}=${enc(String(v))}`);
-  return parts.length ? `?${parts.join('&')}` : '';
-}
 
 export function useAttentionSummary(siteId: string | null) {
   return useQuery({
@@ -32,7 +22,7 @@ export function useAttentionList(list: AttentionList, siteId: string | null) {
 
 /** The path of a list's CSV export (for `downloadFile`). */
 export function attentionCsvPath(list: AttentionList, siteId: string | null): string {
-  return `/attention/${enc(list)}/export.csv${queryString({ siteId })}`;
+  return apiPath(contract.attention.exportList, { params: { list }, query: { siteId: siteId ?? undefined } });
 }
 
 export interface FieldReportFilters {
@@ -101,5 +91,5 @@ export function useAuditEvents(filters: AuditFilters, enabled = true) {
 }
 
 export function auditCsvPath(filters: AuditFilters): string {
-  return `/audit-events/export.csv${queryString({ ...filters })}`;
+  return apiPath(contract.attention.exportAuditEvents, { query: { ...filters } });
 }
