@@ -13,6 +13,8 @@ import { displayText } from '../../shared/labelDisplay';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Button, Card, Choice, Notice, ProgressBar, Screen, T } from '../ui';
+import { apiPath } from '../../hooks/api';
+import { contract } from '../../shared/api';
 
 type Filter = 'all' | 'not-printed' | 'not-installed';
 
@@ -218,7 +220,7 @@ export function LabelsScreen() {
               testID="download-pdf"
               kind="secondary"
               onPress={() =>
-                void downloadFile(`/label-batches/${b.id}/file`, 'labels.pdf')
+                void downloadFile(apiPath(contract.labelBatches.file, { params: { batchId: b.id } }), 'labels.pdf')
                   // Downloading the batch is what marks its labels printed: show it.
                   .then(() => labels.refetch())
                   .catch((e) => setError(serverErrors(e).message))

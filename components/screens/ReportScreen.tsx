@@ -11,9 +11,11 @@ import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
 import { Button, Card, Field, Loading, Notice, QueryError, Screen, T, ValueRow } from '../ui';
 import { kindLabel, ReportStatus } from './ReportsScreen';
+import { apiPath } from '../../hooks/api';
+import { contract } from '../../shared/api';
 
 function Photo({ reportId }: { reportId: string }) {
-  const img = useAuthedImage(`/field-reports/${encodeURIComponent(reportId)}/photo`);
+  const img = useAuthedImage(apiPath(contract.attention.fieldReportPhoto, { params: { reportId } }));
   return (
     <Card testID="report-photo">
       <T variant="subheading">Photo from the field</T>

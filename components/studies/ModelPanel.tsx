@@ -12,15 +12,19 @@ import { ModelEditor } from '../model/ModelEditor';
 import { SystemTree } from '../model/SystemTree';
 import { colors, space } from '../theme';
 import { Button, Card, Choice, Notice, T } from '../ui';
+import { apiPath } from '../../hooks/api';
+import { contract, type QueryInputOf } from '../../shared/api';
 
 const TABLES = ['buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices'] as const;
+
+type ExportQuery = QueryInputOf<typeof contract.studies.exportModel>;
 
 function ImportExport({ study, editable, onImported }: { study: StudyDto; editable: boolean; onImported: () => void }) {
   const imp = useImportModel(study.id);
   const [table, setTable] = useState<(typeof TABLES)[number]>('buses');
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string; lines?: string[] } | null>(null);
-  const download = (query: string, name: string) =>
-    downloadFile(`/studies/${study.id}/export?${query}`, name).catch((e) =>
+  const download = (query: ExportQuery, name: string) =>
+    downloadFile(apiPath(contract.studies.exportModel, { params: { studyId: study.id }, query }), name).catch((e) =>
       setMessage({ tone: 'error', text: serverErrors(e).message }),
     );
   const onFiles = (files: File[]) => {
@@ -80,13 +84,13 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
           title="Workbook (.xlsx)"
           kind="secondary"
           testID="export-xlsx"
-          onPress={() => void download('format=xlsx', 'model.xlsx')}
+          onPress={() => void download({ format: 'xlsx' }, 'model.xlsx')}
         />
         <Button
           title="JSON"
           kind="secondary"
           testID="export-json"
-          onPress={() => void download('format=json', 'model.json')}
+          onPress={() => void download({ format: 'json' }, 'model.json')}
         />
       </View>
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' }}>
@@ -94,7 +98,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
         <Button
           title="CSV of this table"
           kind="secondary"
-          onPress={() => void download(`format=csv&element=${table}`, `${table}.csv`)}
+          onPress={() => void download({ format: 'csv', element: table }, `${table}.csv`)}
         />
       </View>
     </Card>

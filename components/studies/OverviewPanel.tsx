@@ -17,6 +17,8 @@ import {
 import { Cautions } from '../Cautions';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { Button, Card, Field, Notice, ProgressBar, T } from '../ui';
+import { apiPath } from '../../hooks/api';
+import { contract } from '../../shared/api';
 
 const when = (iso: string | null | undefined) =>
   iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' }) : '—';
@@ -224,7 +226,9 @@ function Documents({ study }: { study: StudyDto }) {
             title="Study report (PDF)"
             kind="secondary"
             testID="study-report"
-            onPress={() => get(`/studies/${study.id}/report.pdf`, 'study-report.pdf')}
+            onPress={() =>
+              get(apiPath(contract.labelBatches.studyReportPdf, { params: { studyId: study.id } }), 'study-report.pdf')
+            }
           />
         ) : null}
         {canPrint ? (
@@ -232,7 +236,15 @@ function Documents({ study }: { study: StudyDto }) {
             title="All labels, 4 × 6 in (PDF)"
             kind="secondary"
             testID="labels-pdf"
-            onPress={() => get(`/studies/${study.id}/labels.pdf?size=4x6`, 'labels.pdf')}
+            onPress={() =>
+              get(
+                apiPath(contract.labelBatches.studyLabelsPdf, {
+                  params: { studyId: study.id },
+                  query: { size: '4x6' },
+                }),
+                'labels.pdf',
+              )
+            }
           />
         ) : null}
       </View>
