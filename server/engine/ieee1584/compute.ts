@@ -6,6 +6,7 @@
  * cannot be applied at all.
  */
 import { ELECTRODE_CONFIGS, type ElectrodeConfig, type EnclosureSizeMm } from '../../../shared/equipmentClasses';
+import { formatSig } from '../../../shared/numberFormat';
 import { EngineError, type EngineWarning } from '../errors';
 import { lowVoltageArcFlashBoundaryMm, intermediateArcFlashBoundaryMm } from './arcFlashBoundary';
 import { intermediateArcingCurrentKa, lowVoltageArcingCurrentKa } from './arcingCurrent';
@@ -116,9 +117,7 @@ export const DEFAULT_MAX_ARC_DURATION_MS: number = RANGE_OF_MODEL.arcDurationGui
 
 const MODEL = 'IEEE 1584-2018';
 
-function fmt(value: number): string {
-  return Number(value.toPrecision(4)).toString();
-}
+const fmt = (value: number) => formatSig(value, 4);
 
 function requirePositive(value: unknown, field: string): number {
   if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) {

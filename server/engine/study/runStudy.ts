@@ -54,6 +54,7 @@ import {
 } from './decrement';
 import { resolveEquipment, type ResolvedEquipment } from './equipment';
 import { createTripIntegrator, type TripIntegrator } from './tripIntegration';
+import { formatSig } from '../../../shared/numberFormat';
 
 export interface StudyOptions {
   /** Cap of the arc duration, ms (IEEE 1584 2 s guidance; an organization setting). */
@@ -90,7 +91,7 @@ const EVENT_SLACK_S = 1e-12;
 /** Guard against a run-away loop (never reached with the steps above below a 10 s cap). */
 const MAX_STEPS = 20000;
 
-const fmt = (v: number, digits = 3) => Number(v.toPrecision(digits)).toString();
+const fmt = (v: number, digits = 3) => formatSig(v, digits);
 
 interface Contributor {
   id: string;

@@ -1,4 +1,5 @@
 import { EngineError, type EngineWarning } from '../errors';
+import { formatSig } from '../../../shared/numberFormat';
 
 /** A point of a time-current curve: [current (amperes or multiple of rating), seconds]. */
 export type TimeCurrentPoint = readonly [number, number];
@@ -135,8 +136,8 @@ export function interpolateLogLog(points: readonly TimeCurrentPoint[], current: 
   return { timeS, clamped: null, segment: [lo, hi], warnings: [] };
 }
 
-/** Compact number formatting for messages. */
+/** Compact number formatting for messages (four significant figures, shared/numberFormat.ts). */
 export function fmt(value: number): string {
   if (!Number.isFinite(value)) return String(value);
-  return Number(value.toPrecision(4)).toString();
+  return formatSig(value, 4);
 }
