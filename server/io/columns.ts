@@ -1,4 +1,17 @@
-import { MODEL_FORMAT, MODEL_VERSION, type Model, type ModelIssue } from '../../shared/schemas/model';
+import { z } from 'zod';
+import {
+  MODEL_FORMAT,
+  MODEL_VERSION,
+  busSchema,
+  cableSchema,
+  motorSchema,
+  placedDeviceSchema,
+  sourceSchema,
+  tieSchema,
+  transformerSchema,
+  type Model,
+  type ModelIssue,
+} from '../../shared/schemas/model';
 
 /**
  * The system model as flat tables: one table per element type, one column per field. The workbook
@@ -6,8 +19,9 @@ import { MODEL_FORMAT, MODEL_VERSION, type Model, type ModelIssue } from '../../
  * rows back into elements, and maps a model issue back to the sheet (or file), row and column it came from.
  *
  * Headers are the field paths of the JSON format (docs/MODEL-FORMAT.md), nested fields joined by dots
- * (`equipment.enclosureMm.height`); units are part of the names (`nominalKv`, `gapMm`, `lengthM`).
- * Device settings are too deep for flat columns: a device row carries its device object as JSON.
+ * (`equipment.enclosureMm.height`); units are part of the names (`nominalKv`, `gapMm`, `lengthM`). The columns are
+ * generated from the zod shapes of shared/schemas/model.ts, in the order of the shapes, so a field added there is a
+ * column here. Device settings are too deep for flat columns: a device row carries its device object as JSON.
  */
 
 // ---------------------------------------------------------------------------------------------
@@ -86,130 +100,187 @@ export interface Column {
   note?: string;
 }
 
-const col = (header: string, type: ColumnType, extra: Omit<Column, 'header' | 'path' | 'type'> = {}): Column => ({
-  header,
-  path: header.split('.'),
-  type,
-  ...extra,
-});
-const id = col('id', 'string', { required: true });
-const name = col('name', 'string');
-const utilityOnly = { column: 'kind', values: ['utility'] } as const;
-const generatorOnly = { column: 'kind', values: ['generator'] } as const;
+/**
+ * Spreadsheet help for the header cells (workbook notes), by header. The headers themselves, their types, whether
+ * they are required and which source kind they apply to come from the zod shapes of the model (`elementColumns`).
+ */
+const NOTES: Record<ElementTable, Record<string, string>> = {
+  buses: {
+    nominalKv: 'Nominal line-to-line voltage, kV',
+    'equipment.class': 'Equipment class id, e.g. switchgear-lv',
+    'equipment.electrodeConfig': 'VCB, VCBB, HCB, VOA or HOA; empty: typical of the class',
+    'equipment.gapMm': 'Gap between conductors, mm; empty: typical of the class',
+    'equipment.workingDistanceMm': 'Working distance, mm; empty: typical of the class',
+    'equipment.enclosureMm.height': 'Enclosure height, mm',
+    'equipment.enclosureMm.width': 'Enclosure width, mm',
+    'equipment.enclosureMm.depth': 'Enclosure depth, mm',
+    'equipment.mainIsolated':
+      'TRUE: main isolated from the bus; FALSE: shares the enclosure; empty: not stated, treated as FALSE',
+    'equipment.arcDurationCapS':
+      "Arc-duration cap at this bus, s; none: no cap (the clearing time stands); empty: the study's cap",
+    'equipment.arcDurationCapReason': 'Why this bus has its own cap (required with a cap)',
+  },
+  sources: {
+    kind: 'utility or generator',
+    shortCircuitMva: 'Utility: available three-phase MVA (or kA)',
+    shortCircuitKa: 'Utility: available three-phase kA (or MVA)',
+    xr: 'X/R ratio',
+    kva: 'Generator: rated kVA',
+    kv: 'Generator: rated line-to-line kV',
+    subtransientPct: 'Generator: subtransient reactance, % on rating',
+    transientPct: "Generator: transient reactance X'd, % on rating; empty: typical value, with a warning",
+    synchronousPct: 'Generator: synchronous reactance Xd, % on rating; empty: typical value, with a warning',
+    sustainedCurrentMultiple:
+      'Generator: sustained fault current with excitation support, × rated current (instead of Xd)',
+    subtransientTimeConstantS: 'Generator: short-circuit subtransient time constant T"d, s; empty: typical value',
+    transientTimeConstantS: "Generator: short-circuit transient time constant T'd, s; empty: typical value",
+  },
+  transformers: {
+    fromBus: 'Primary-side bus',
+    toBus: 'Secondary-side bus',
+    kva: 'Self-cooled rating, kVA',
+    impedancePct: '%Z on the transformer rating',
+    xr: 'X/R ratio; empty: typical by size',
+  },
+  cables: {
+    lengthM: 'Route length, m',
+    sets: 'Parallel sets per phase; empty: 1',
+    size: 'AWG or kcmil, e.g. 4/0 or 500 (or give rOhmPerKm and xOhmPerKm)',
+    material: 'Cu or Al',
+    conduit: 'steel, pvc or aluminum',
+    rOhmPerKm: 'Resistance of one conductor, ohm/km (instead of size)',
+    xOhmPerKm: 'Reactance of one conductor, ohm/km (instead of size)',
+  },
+  motors: {
+    hp: 'Rated horsepower (or kva)',
+    kva: 'Rated kVA (or hp)',
+    kv: 'Rated line-to-line kV',
+    lockedRotorMultiple: 'Locked-rotor current, multiple of rated',
+    subtransientPct: 'Subtransient reactance, % on motor kVA',
+    firstCycleMultiplier: 'Multiplier on X" for the first-cycle network',
+    rpm: 'Synchronous speed, rpm (medium-voltage multipliers); empty: 3600 where it matters',
+    xr: 'X/R ratio; empty: typical value',
+  },
+  ties: {
+    closed: 'TRUE or FALSE; empty: TRUE',
+  },
+  devices: {
+    branch: 'Transformer, cable or tie id (or source)',
+    end: 'from or to (with branch)',
+    source: 'Source or motor id (instead of branch)',
+    'device.kind': 'relay, fuse, band, thermal-magnetic or electronic (repeats the device column)',
+    device: 'The device object as JSON',
+    library: 'Library device type and switch positions, as JSON',
+  },
+};
+
+/** The zod shape of one element of each table. */
+const ELEMENT_SCHEMAS: Record<ElementTable, z.ZodType> = {
+  buses: busSchema,
+  sources: sourceSchema,
+  transformers: transformerSchema,
+  cables: cableSchema,
+  motors: motorSchema,
+  ties: tieSchema,
+  devices: placedDeviceSchema,
+};
+
+/** Fields kept whole in one JSON cell: device settings are too deep for flat columns. */
+const JSON_FIELDS = new Set(['device', 'library']);
+
+/** The columns of one object shape: nested objects flattened to dotted paths, in the order of the shape. */
+function objectColumns(schema: z.ZodObject, prefix: readonly string[], parentRequired: boolean): Column[] {
+  const out: Column[] = [];
+  for (const [key, field] of Object.entries(schema.shape)) {
+    let s: z.ZodType = field;
+    let optional = false;
+    let nullable = false;
+    for (;;) {
+      if (s instanceof z.ZodOptional || s instanceof z.ZodDefault) optional = true;
+      else if (s instanceof z.ZodNullable) nullable = true;
+      else break;
+      s = (s as z.ZodOptional | z.ZodDefault | z.ZodNullable).unwrap() as z.ZodType;
+    }
+    const path = [...prefix, key];
+    const header = path.join('.');
+    const required = parentRequired && !optional;
+    if (JSON_FIELDS.has(header)) {
+      out.push({ header, path, type: 'json', required });
+    } else if (s instanceof z.ZodObject) {
+      out.push(...objectColumns(s, path, required));
+    } else if (s instanceof z.ZodNumber) {
+      out.push({ header, path, type: nullable ? 'number-or-none' : 'number', required });
+    } else if (s instanceof z.ZodBoolean) {
+      out.push({ header, path, type: 'boolean', required });
+    } else if (s instanceof z.ZodString || s instanceof z.ZodEnum || s instanceof z.ZodLiteral) {
+      out.push({ header, path, type: 'string', required });
+    } else {
+      throw new Error(`No column type for ${header}`);
+    }
+  }
+  return out;
+}
+
+/**
+ * The columns of one element table, from its zod shape. A discriminated union (sources) gives the columns of every
+ * variant once: a column of every variant is required where every variant requires it, a column of some variants
+ * applies only to rows of those kinds (`when`).
+ */
+function elementColumns(table: ElementTable): Column[] {
+  const schema = ELEMENT_SCHEMAS[table];
+  let columns: Column[];
+  if (schema instanceof z.ZodDiscriminatedUnion) {
+    const key = schema._zod.def.discriminator;
+    const variants = (schema.options as z.ZodObject[]).map((o) => ({
+      value: String((o.shape[key] as z.ZodLiteral).value),
+      columns: objectColumns(o, [], true),
+    }));
+    columns = [];
+    for (const v of variants) {
+      for (const c of v.columns) {
+        if (columns.some((x) => x.header === c.header)) continue;
+        const having = variants.filter((w) => w.columns.some((x) => x.header === c.header));
+        const required = having.every((w) => w.columns.find((x) => x.header === c.header)?.required);
+        columns.push({
+          ...c,
+          required: having.length === variants.length && required,
+          ...(having.length < variants.length ? { when: { column: key, values: having.map((w) => w.value) } } : {}),
+        });
+      }
+    }
+  } else if (schema instanceof z.ZodObject) {
+    columns = objectColumns(schema, [], true);
+  } else {
+    throw new Error(`No columns for ${table}`);
+  }
+  if (table === 'devices') {
+    // The device kind again, for sorting and filtering in a spreadsheet (the device column is JSON).
+    const at = columns.findIndex((c) => c.header === 'device');
+    columns.splice(at, 0, { header: 'device.kind', path: ['device', 'kind'], type: 'string', required: false });
+  }
+  // A note whose field was renamed or removed in the schema must not linger unseen.
+  const orphan = Object.keys(NOTES[table]).find((h) => !columns.some((c) => c.header === h));
+  if (orphan) throw new Error(`Note for ${table}.${orphan}, which is not a field of the model`);
+  return columns.map(({ required, ...c }) => ({
+    ...c,
+    ...(required ? { required } : {}),
+    ...(NOTES[table][c.header] ? { note: NOTES[table][c.header] } : {}),
+  }));
+}
 
 export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
   about: [
-    col('field', 'string', { required: true }),
-    col('value', 'raw'),
-    col('note', 'string', { note: 'Help text, ignored on import' }),
+    { header: 'field', path: ['field'], type: 'string', required: true },
+    { header: 'value', path: ['value'], type: 'raw' },
+    { header: 'note', path: ['note'], type: 'string', note: 'Help text, ignored on import' },
   ],
-  buses: [
-    id,
-    name,
-    col('nominalKv', 'number', { required: true, note: 'Nominal line-to-line voltage, kV' }),
-    col('equipment.class', 'string', { note: 'Equipment class id, e.g. switchgear-lv' }),
-    col('equipment.electrodeConfig', 'string', { note: 'VCB, VCBB, HCB, VOA or HOA; empty: typical of the class' }),
-    col('equipment.gapMm', 'number', { note: 'Gap between conductors, mm; empty: typical of the class' }),
-    col('equipment.workingDistanceMm', 'number', { note: 'Working distance, mm; empty: typical of the class' }),
-    col('equipment.enclosureMm.height', 'number', { note: 'Enclosure height, mm' }),
-    col('equipment.enclosureMm.width', 'number', { note: 'Enclosure width, mm' }),
-    col('equipment.enclosureMm.depth', 'number', { note: 'Enclosure depth, mm' }),
-    col('equipment.mainIsolated', 'boolean', {
-      note: 'TRUE: main isolated from the bus; FALSE: shares the enclosure; empty: not stated, treated as FALSE',
-    }),
-    col('equipment.arcDurationCapS', 'number-or-none', {
-      note: "Arc-duration cap at this bus, s; none: no cap (the clearing time stands); empty: the study's cap",
-    }),
-    col('equipment.arcDurationCapReason', 'string', { note: 'Why this bus has its own cap (required with a cap)' }),
-  ],
-  sources: [
-    id,
-    name,
-    col('kind', 'string', { required: true, note: 'utility or generator' }),
-    col('bus', 'string', { required: true }),
-    col('shortCircuitMva', 'number', { when: utilityOnly, note: 'Utility: available three-phase MVA (or kA)' }),
-    col('shortCircuitKa', 'number', { when: utilityOnly, note: 'Utility: available three-phase kA (or MVA)' }),
-    col('xr', 'number', { required: true, note: 'X/R ratio' }),
-    col('kva', 'number', { when: generatorOnly, note: 'Generator: rated kVA' }),
-    col('kv', 'number', { when: generatorOnly, note: 'Generator: rated line-to-line kV' }),
-    col('subtransientPct', 'number', { when: generatorOnly, note: 'Generator: subtransient reactance, % on rating' }),
-    col('transientPct', 'number', {
-      when: generatorOnly,
-      note: "Generator: transient reactance X'd, % on rating; empty: typical value, with a warning",
-    }),
-    col('synchronousPct', 'number', {
-      when: generatorOnly,
-      note: 'Generator: synchronous reactance Xd, % on rating; empty: typical value, with a warning',
-    }),
-    col('sustainedCurrentMultiple', 'number', {
-      when: generatorOnly,
-      note: 'Generator: sustained fault current with excitation support, × rated current (instead of Xd)',
-    }),
-    col('subtransientTimeConstantS', 'number', {
-      when: generatorOnly,
-      note: 'Generator: short-circuit subtransient time constant T"d, s; empty: typical value',
-    }),
-    col('transientTimeConstantS', 'number', {
-      when: generatorOnly,
-      note: "Generator: short-circuit transient time constant T'd, s; empty: typical value",
-    }),
-  ],
-  transformers: [
-    id,
-    name,
-    col('fromBus', 'string', { required: true, note: 'Primary-side bus' }),
-    col('toBus', 'string', { required: true, note: 'Secondary-side bus' }),
-    col('kva', 'number', { required: true, note: 'Self-cooled rating, kVA' }),
-    col('primaryKv', 'number', { required: true }),
-    col('secondaryKv', 'number', { required: true }),
-    col('impedancePct', 'number', { required: true, note: '%Z on the transformer rating' }),
-    col('xr', 'number', { note: 'X/R ratio; empty: typical by size' }),
-  ],
-  cables: [
-    id,
-    name,
-    col('fromBus', 'string', { required: true }),
-    col('toBus', 'string', { required: true }),
-    col('lengthM', 'number', { required: true, note: 'Route length, m' }),
-    col('sets', 'number', { note: 'Parallel sets per phase; empty: 1' }),
-    col('size', 'string', { note: 'AWG or kcmil, e.g. 4/0 or 500 (or give rOhmPerKm and xOhmPerKm)' }),
-    col('material', 'string', { note: 'Cu or Al' }),
-    col('conduit', 'string', { note: 'steel, pvc or aluminum' }),
-    col('rOhmPerKm', 'number', { note: 'Resistance of one conductor, ohm/km (instead of size)' }),
-    col('xOhmPerKm', 'number', { note: 'Reactance of one conductor, ohm/km (instead of size)' }),
-  ],
-  motors: [
-    id,
-    name,
-    col('bus', 'string', { required: true }),
-    col('hp', 'number', { note: 'Rated horsepower (or kva)' }),
-    col('kva', 'number', { note: 'Rated kVA (or hp)' }),
-    col('kv', 'number', { required: true, note: 'Rated line-to-line kV' }),
-    col('lockedRotorMultiple', 'number', { note: 'Locked-rotor current, multiple of rated' }),
-    col('subtransientPct', 'number', { note: 'Subtransient reactance, % on motor kVA' }),
-    col('firstCycleMultiplier', 'number', { note: 'Multiplier on X" for the first-cycle network' }),
-    col('rpm', 'number', { note: 'Synchronous speed, rpm (medium-voltage multipliers); empty: 3600 where it matters' }),
-    col('xr', 'number', { note: 'X/R ratio; empty: typical value' }),
-  ],
-  ties: [
-    id,
-    name,
-    col('fromBus', 'string', { required: true }),
-    col('toBus', 'string', { required: true }),
-    col('closed', 'boolean', { note: 'TRUE or FALSE; empty: TRUE' }),
-  ],
-  devices: [
-    id,
-    name,
-    col('branch', 'string', { note: 'Transformer, cable or tie id (or source)' }),
-    col('end', 'string', { note: 'from or to (with branch)' }),
-    col('source', 'string', { note: 'Source or motor id (instead of branch)' }),
-    col('device.kind', 'string', {
-      note: 'relay, fuse, band, thermal-magnetic or electronic (repeats the device column)',
-    }),
-    col('device', 'json', { required: true, note: 'The device object as JSON' }),
-    col('library', 'json', { note: 'Library device type and switch positions, as JSON' }),
-  ],
+  buses: elementColumns('buses'),
+  sources: elementColumns('sources'),
+  transformers: elementColumns('transformers'),
+  cables: elementColumns('cables'),
+  motors: elementColumns('motors'),
+  ties: elementColumns('ties'),
+  devices: elementColumns('devices'),
 };
 
 /** Model-level fields listed in the About table, with how their value is read. */
