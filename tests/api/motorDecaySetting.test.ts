@@ -43,16 +43,21 @@ async function settings(): Promise<Record<string, unknown>> {
 }
 
 /** Runs the study and returns the stored results and the MCC bus (the bus with the motor) from the API. */
-async function run(): Promise<{ results: StudyResults; mcc: StudyResults['buses'][number] }> {
-  const eng = bearer(t.orgA.users.engineer.token);
+/** Starts a run, waits for it, and returns its row (done). */
+async function runRow(): Promise<StudyRun> {
   const res = await request(t.app)
     .post(`/api/studies/${studyId}/run`)
-    .set(...eng);
+    .set(...bearer(t.orgA.users.engineer.token));
   expect(res.status).toBe(202);
   await t.ctx.jobs.idle();
   const row = await StudyRun.findByPk(res.body.id);
   expect(row?.status).toBe('done');
-  const results = JSON.parse(row!.results!) as StudyResults;
+  return row!;
+}
+
+async function run(): Promise<{ results: StudyResults; mcc: StudyResults['buses'][number] }> {
+  const eng = bearer(t.orgA.users.engineer.token);
+  const results = JSON.parse((await runRow()).results!) as StudyResults;
   const bus = await request(t.app)
     .get(`/api/studies/${studyId}/results/buses/MCC`)
     .set(...eng);
@@ -142,14 +147,7 @@ describe('motor contribution decay model (organization setting)', () => {
   });
 
   it('results stored before the setting existed read as the step model (they were computed with it)', async () => {
-    const eng = bearer(t.orgA.users.engineer.token);
-    const res = await request(t.app)
-      .post(`/api/studies/${studyId}/run`)
-      .set(...eng);
-    expect(res.status).toBe(202);
-    await t.ctx.jobs.idle();
-    const row = await StudyRun.findByPk(res.body.id);
-    const stored = JSON.parse(row!.results!) as Record<string, unknown> & { buses: { cases: object[] }[] };
+    const stored = JSON.parse((await runRow()).results!) as Record<string, unknown> & { buses: { cases: object[] }[] };
     delete stored.motorDecayModel;
     for (const b of stored.buses) for (const c of b.cases) delete (c as { motorDecayModel?: string }).motorDecayModel;
     const parsed = studyResultsSchema.parse(stored);

@@ -351,34 +351,35 @@ describe('a generator-only bus whose sustained current falls below the short-tim
   });
 });
 
-describe('motor contribution decaying exponentially (common practice, no source)', () => {
-  /** A panel fed by the utility through a transformer, with one large motor on it, no protective devices. */
-  function withMotor(): ModelInput {
-    return {
-      format: 'emberline-model',
-      version: 1,
-      frequencyHz: 60,
-      buses: [
-        { id: 'SVC', nominalKv: 12.47 },
-        { id: 'MCC', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep' } },
-      ],
-      sources: [{ id: 'UTIL', kind: 'utility', bus: 'SVC', shortCircuitMva: 250, xr: 10 }],
-      transformers: [
-        {
-          id: 'TX',
-          fromBus: 'SVC',
-          toBus: 'MCC',
-          kva: 1000,
-          primaryKv: 12.47,
-          secondaryKv: 0.48,
-          impedancePct: 5.75,
-          xr: 6,
-        },
-      ],
-      motors: [{ id: 'M-1', bus: 'MCC', hp: 300, kv: 0.46 }],
-    } as ModelInput;
-  }
+/** A panel fed by the utility through a transformer, with one large motor on it, and the devices given. */
+function withMotor(devices: ModelInput['devices'] = []): ModelInput {
+  return {
+    format: 'emberline-model',
+    version: 1,
+    frequencyHz: 60,
+    buses: [
+      { id: 'SVC', nominalKv: 12.47 },
+      { id: 'MCC', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep' } },
+    ],
+    sources: [{ id: 'UTIL', kind: 'utility', bus: 'SVC', shortCircuitMva: 250, xr: 10 }],
+    transformers: [
+      {
+        id: 'TX',
+        fromBus: 'SVC',
+        toBus: 'MCC',
+        kva: 1000,
+        primaryKv: 12.47,
+        secondaryKv: 0.48,
+        impedancePct: 5.75,
+        xr: 6,
+      },
+    ],
+    motors: [{ id: 'M-1', bus: 'MCC', hp: 300, kv: 0.46 }],
+    devices,
+  } as ModelInput;
+}
 
+describe('motor contribution decaying exponentially (common practice, no source)', () => {
   it('step model: a device on the motor still sees the full motor current up to the decay time and opens at its band time (constant current: ∫ dt / t = 1 at t)', () => {
     const m = withMotor();
     m.devices = [
@@ -439,32 +440,6 @@ describe("motor decay 'higher' (the default): both models evaluated, the higher 
   // The rule is the product's conservative rule (where a choice is open, the higher hazard); the two decay models
   // themselves are common practice, no source. Each expected energy is the step and the exponential run entered
   // explicitly, so the check is against the two models, not against the bracketing code.
-  function withMotor(devices: ModelInput['devices'] = []): ModelInput {
-    return {
-      format: 'emberline-model',
-      version: 1,
-      frequencyHz: 60,
-      buses: [
-        { id: 'SVC', nominalKv: 12.47 },
-        { id: 'MCC', nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep' } },
-      ],
-      sources: [{ id: 'UTIL', kind: 'utility', bus: 'SVC', shortCircuitMva: 250, xr: 10 }],
-      transformers: [
-        {
-          id: 'TX',
-          fromBus: 'SVC',
-          toBus: 'MCC',
-          kva: 1000,
-          primaryKv: 12.47,
-          secondaryKv: 0.48,
-          impedancePct: 5.75,
-          xr: 6,
-        },
-      ],
-      motors: [{ id: 'M-1', bus: 'MCC', hp: 300, kv: 0.46 }],
-      devices,
-    } as ModelInput;
-  }
   /** A band with a flat maximum curve at `t` s from 100 A up (min curve at half of it). */
   const flat = (t: number): Device => ({
     kind: 'band',
