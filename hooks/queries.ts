@@ -2,11 +2,11 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Device, ElectronicPositions, ElectronicTripType } from '../shared/schemas/device';
 import type { DeviceTypeInput } from '../shared/schemas/deviceLibrary';
 import type { IncidentEnergyRequest } from '../shared/schemas/incidentEnergy';
-import type { OrganizationDto, OrganizationSettingsInput } from '../shared/schemas/organization';
+import type { OrganizationSettingsInput } from '../shared/schemas/organization';
 import type { SiteInput } from '../shared/schemas/sites';
 import type { CreateUser, UpdateUser } from '../shared/schemas/users';
 import { contract, type ResponseOf } from '../shared/api';
-import { apiFetch, callApi } from './api';
+import { callApi } from './api';
 import { queryKeys } from './queryKeys';
 
 export function useMe() {
@@ -63,14 +63,14 @@ export function useUpdateUser() {
 }
 
 export function useOrganization() {
-  return useQuery({ queryKey: queryKeys.organization(), queryFn: () => apiFetch<OrganizationDto>('/organization') });
+  return useQuery({ queryKey: queryKeys.organization(), queryFn: () => callApi(contract.organization.get) });
 }
 
 export function useUpdateSettings() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (settings: OrganizationSettingsInput) =>
-      apiFetch<OrganizationDto>('/organization/settings', { method: 'PUT', body: settings }),
+      callApi(contract.organization.updateSettings, { body: settings }),
     onSuccess: (org) => {
       qc.setQueryData(queryKeys.organization(), org);
       // The dashboard's "not installed" list and the reminder hour follow the settings.
