@@ -84,16 +84,6 @@ async function apiRequest(
   return res;
 }
 
-export async function apiFetch<T>(
-  path: string,
-  init: { method?: string; body?: unknown; formData?: FormData; raw?: boolean } = {},
-): Promise<T> {
-  const res = await apiRequest(path, init);
-  if (init.raw) return (await res.blob()) as unknown as T;
-  if (res.status === 204) return undefined as T;
-  return (await res.json()) as T;
-}
-
 type ParamsArg<E extends EndpointDef> = [PathParams<E['path']>] extends [never]
   ? { params?: undefined }
   : { params: ParamsOf<E> };

@@ -1,6 +1,6 @@
 import { useEffect, useState } from 'react';
 import { Platform } from 'react-native';
-import { apiFetch, ApiClientError } from './api';
+import { apiFile, ApiClientError } from './api';
 
 interface Loaded {
   path: string;
@@ -19,8 +19,8 @@ export function useAuthedImage(path: string | null): { uri: string | null; error
     if (!path || !enabled) return;
     let url: string | null = null;
     let live = true;
-    apiFetch<Blob>(path, { raw: true })
-      .then((blob) => {
+    apiFile(path)
+      .then(({ blob }) => {
         if (!live) return;
         url = URL.createObjectURL(blob);
         setLoaded({ path, uri: url, error: null });
