@@ -4,7 +4,7 @@ import express, { type Express } from 'express';
 import { authenticate } from './auth/middleware';
 import type { Config } from './config';
 import type { Db } from './db';
-import type { AppContext } from './http/context';
+import type { AppContext } from './services/context';
 import { jsonDepthGuard, requireJsonOrMultipart } from './http/bodyParsing';
 import { ApiError, errorMiddleware } from './http/errors';
 import { buildOpenApi } from './http/openapi';

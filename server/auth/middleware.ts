@@ -1,7 +1,7 @@
 import type { RequestHandler } from 'express';
 import { RevokedToken, User } from '../db/models';
-import type { AppContext } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext } from '../services/context';
+import { ApiError } from '../services/errors';
 import { authCacheEpoch, cachedRevoked, cachedUser, rememberRevoked, rememberUser, type CachedUser } from './cache';
 import { verifyToken } from './tokens';
 

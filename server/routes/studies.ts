@@ -5,7 +5,8 @@ import { bind, type AnyRoute } from '../http/route';
 import { multiFileUpload } from '../http/upload';
 import { exportModel, importModel } from '../io';
 import { UnsafeArchiveError } from '../io/zipGuard';
-import { sendBusResult, sendResultsPage } from '../services/results';
+import { busResultTagged, resultsPageTagged } from '../services/results';
+import { sendTagged } from '../http/tagged';
 import { latestRun, startRun } from '../services/runs';
 import {
   approveStudy,
@@ -49,10 +50,12 @@ export const studyRoutes: AnyRoute[] = [
   }),
   bind(contract.studies.results, {
     // Sent by the service with its ETag (the schema above documents the body).
-    respond: ({ req, res, user, params, query }) => sendResultsPage(req, res, user, params.studyId, query),
+    respond: async ({ req, res, user, params, query }) =>
+      sendTagged(req, res, await resultsPageTagged(user, params.studyId, query)),
   }),
   bind(contract.studies.busResult, {
-    respond: ({ req, res, user, params }) => sendBusResult(req, res, user, params.studyId, params.busId),
+    respond: async ({ req, res, user, params }) =>
+      sendTagged(req, res, await busResultTagged(user, params.studyId, params.busId)),
   }),
   bind(contract.studies.submit, {
     handler: ({ ctx, user, params }) => submitForReview(ctx, user, params.studyId),

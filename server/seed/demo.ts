@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type { Role } from '../../shared/schemas/common';
 import { hashPassword } from '../auth/passwords';
 import { Label, Organization, Site, User } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
+import type { AppContext, AuthUser } from '../services/context';
 import { recordAudit } from '../services/audit';
 import { seedGenericLibrary } from '../services/deviceTypes';
 import { addMonths } from '../services/dates';

@@ -11,8 +11,8 @@ import {
 } from '../../shared/schemas/attention';
 import { FIELD_REPORT_STATUS_LABELS, reportKindLabel, type FieldReportStatus } from '../../shared/schemas/fieldReports';
 import { FieldReport, Label, Site, Study, User } from '../db/models';
-import type { AppContext } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext } from './context';
+import { ApiError } from './errors';
 import { addMonths } from './dates';
 import { getSettings } from './organization';
 

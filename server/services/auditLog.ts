@@ -1,8 +1,8 @@
 import { Op, type WhereOptions } from 'sequelize';
 import type { AuditEventDto, AuditPage, AuditQuery } from '../../shared/schemas/auditLog';
 import { AuditEvent, User } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 
 /** Export cap: one CSV holds at most this many events (narrow the dates for more). */
 export const AUDIT_EXPORT_MAX = 50_000;

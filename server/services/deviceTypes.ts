@@ -20,8 +20,8 @@ import {
   EXAMPLE_RELAY_IEEE,
   EXAMPLE_THERMAL_MAGNETIC,
 } from '../engine/trip/exampleDevices';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { recordAudit } from './audit';
 
 /** The device with every setting as a number (electronic trip units: positions resolved). */

@@ -1,8 +1,8 @@
 import type { WhereOptions } from 'sequelize';
 import type { FieldReportDto, FieldReportStatus, FieldReportTriage } from '../../shared/schemas/fieldReports';
 import { FieldReport, Label, Site, User } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { recordAudit } from './audit';
 
 const DAY_MS = 86_400_000;

@@ -5,8 +5,8 @@ import type { CreateInvitation, InvitationDto, TokenInfo } from '../../shared/sc
 import type { Role } from '../../shared/schemas/common';
 import { hashPassword } from '../auth/passwords';
 import { LinkToken, Organization, User, type LinkPurpose } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { appLink, invitationMail, passwordResetMail } from '../mail';
 import { recordAudit } from './audit';
 import { signInResponseFor } from './users';

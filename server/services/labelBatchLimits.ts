@@ -1,8 +1,8 @@
 import { Op } from 'sequelize';
 import type { CreateLabelBatch } from '../../shared/schemas/labelBatches';
 import { LabelBatch } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 
 /**
  * Limits of print batches, so one request cannot hold the server: a label asked for twice is made once, a batch holds

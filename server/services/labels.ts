@@ -6,8 +6,8 @@ import { LABEL_CODE_ALPHABET, isLabelCode, normalizeLabelCode, parseLabelCode } 
 import { busArcDurationCapS, LABEL_STATUS_NOTICES, labelDisplay, type UnitOrder } from '../../shared/labelDisplay';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { FieldReport, Label, Site, type Study, User } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { recordAudit } from './audit';
 import { addMonths } from './dates';
 import { findSite, findStudy } from './scope';

@@ -6,8 +6,8 @@ import {
 } from '../../shared/schemas/organization';
 import { Organization } from '../db/models';
 import type { LabelSettings } from '../engine/labelValues';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { recordAudit } from './audit';
 
 /** Stored settings merged over the defaults (a missing or partial settings blob gets every default). */

@@ -19,8 +19,8 @@ import type {
 } from '../../shared/schemas/reminders';
 import { reminderRuleInputSchema } from '../../shared/schemas/reminders';
 import { CapturedMail, Organization, ReminderDeliveryRow, ReminderRuleRow, User } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { appLink, DIGEST_ROWS, reminderDigestMail, type DigestSection } from '../mail';
 import { attentionList, attentionSummary } from './attention';
 import { recordAudit } from './audit';

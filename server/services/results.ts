@@ -1,5 +1,3 @@
-import { createHash } from 'node:crypto';
-import type { Request, Response } from 'express';
 import { LRUCache } from 'lru-cache';
 import { QueryTypes } from 'sequelize';
 import {
@@ -15,8 +13,8 @@ import {
 import type { RunDto } from '../../shared/schemas/studies';
 import type { BusResult, StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
-import type { AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AuthUser } from './context';
+import { ApiError } from './errors';
 import { findStudyHead } from './scope';
 
 /**
@@ -362,38 +360,30 @@ function canonicalQuery(q: ResultsPageQuery): string {
 }
 
 /**
- * Sends with an entity tag; a matching If-None-Match gets 304 before any body is made (Express's `req.fresh` compares
- * the request's validators with the response's ETag header).
+ * A response body with the text its entity tag is made from: the HTTP layer (server/http/tagged.ts) answers 304 to a
+ * matching If-None-Match before the body is made.
  */
-function sendTagged(req: Request, res: Response, etagSource: string, body: () => string): void {
-  res.setHeader('ETag', `"${createHash('sha1').update(etagSource).digest('base64url')}"`);
-  if (req.fresh) {
-    res.status(304).end();
-    return;
-  }
-  res.setHeader('Content-Type', 'application/json; charset=utf-8');
-  res.status(200).send(body());
+export interface TaggedBody {
+  etagSource: string;
+  body: () => string;
 }
 
 /** GET /studies/:studyId/results: one page, tagged by the run and the query. */
-export async function sendResultsPage(
-  req: Request,
-  res: Response,
-  actor: AuthUser,
-  studyId: string,
-  q: ResultsPageQuery,
-): Promise<void> {
+export async function resultsPageTagged(actor: AuthUser, studyId: string, q: ResultsPageQuery): Promise<TaggedBody> {
   const { run, runJson, index } = await indexOf(actor, studyId);
-  sendTagged(req, res, `page\n${runJson}\n${canonicalQuery(q)}`, () => {
-    const { rows, ...rest } = pageOf(run, index, q);
-    const rowsJson = rows.map((r) => {
-      let j = index.rowJson.get(r);
-      if (j === undefined) index.rowJson.set(r, (j = JSON.stringify(r)));
-      return j;
-    });
-    const head = JSON.stringify(rest);
-    return `${head.slice(0, -1)},"rows":[${rowsJson.join(',')}]}`;
-  });
+  return {
+    etagSource: `page\n${runJson}\n${canonicalQuery(q)}`,
+    body: () => {
+      const { rows, ...rest } = pageOf(run, index, q);
+      const rowsJson = rows.map((r) => {
+        let j = index.rowJson.get(r);
+        if (j === undefined) index.rowJson.set(r, (j = JSON.stringify(r)));
+        return j;
+      });
+      const head = JSON.stringify(rest);
+      return `${head.slice(0, -1)},"rows":[${rowsJson.join(',')}]}`;
+    },
+  };
 }
 
 /** One bus of the study's results with its whole trace; 404 for a bus the results do not have. */
@@ -418,13 +408,7 @@ export async function busResultBody(
 }
 
 /** GET /studies/:studyId/results/buses/:busId, tagged by the run and the bus. */
-export async function sendBusResult(
-  req: Request,
-  res: Response,
-  actor: AuthUser,
-  studyId: string,
-  busId: string,
-): Promise<void> {
+export async function busResultTagged(actor: AuthUser, studyId: string, busId: string): Promise<TaggedBody> {
   const { runJson, body } = await busResultBody(actor, studyId, busId);
-  sendTagged(req, res, `bus\n${runJson}\n${busId}`, () => body);
+  return { etagSource: `bus\n${runJson}\n${busId}`, body: () => body };
 }

@@ -5,8 +5,8 @@
 import type { Transaction } from 'sequelize';
 import { can } from '../../shared/permissions';
 import { Site, Study } from '../db/models';
-import type { AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AuthUser } from './context';
+import { ApiError } from './errors';
 
 /** The statuses of revisions that a role without `seeUnapprovedStudies` (the electrician) sees. */
 export const APPROVED_WORK = ['approved', 'superseded'];

@@ -2,8 +2,8 @@ import { randomUUID } from 'node:crypto';
 import type { Site as SiteDto, SiteInput } from '../../shared/schemas/sites';
 import { siteInputSchema } from '../../shared/schemas/sites';
 import { Site } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { recordAudit } from './audit';
 import { findSite } from './scope';
 

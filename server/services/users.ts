@@ -5,8 +5,8 @@ import type { CreateUser, UpdateUser, UserAdmin } from '../../shared/schemas/use
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { signToken } from '../auth/tokens';
 import { LinkToken, User } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
-import { ApiError } from '../http/errors';
+import type { AppContext, AuthUser } from './context';
+import { ApiError } from './errors';
 import { recordAudit } from './audit';
 
 export function toUserAdmin(u: User): UserAdmin {

@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
-import { ApiError } from '../http/errors';
+import { ApiError } from '../services/errors';
 import { PhotoRefused, reencodePhoto } from './imageReencode';
 
 export type ImageType = 'image/jpeg' | 'image/png' | 'image/webp' | 'image/heic' | 'image/heif';

@@ -8,7 +8,7 @@ import request from 'supertest';
 import type { BusResult, StudyResults } from '../../shared/schemas/studyResults';
 import { generatedPlant } from '../../server/bench/study';
 import { User } from '../../server/db/models';
-import type { AuthUser } from '../../server/http/context';
+import type { AuthUser } from '../../server/services/context';
 import { seedDemo } from '../../server/seed/demo';
 import { clearResultsCache } from '../../server/services/results';
 import { getResults } from '../../server/services/runs';

@@ -9,7 +9,7 @@ import { hashPassword } from '../../server/auth/passwords';
 import { loadConfig, type Config } from '../../server/config';
 import { migrate, openDb, type Db } from '../../server/db';
 import { Organization, User } from '../../server/db/models';
-import type { AppContext } from '../../server/http/context';
+import type { AppContext } from '../../server/services/context';
 
 export const TEST_PASSWORD = 'correct-horse-battery';
 export const TEST_SECRET = 'test-secret-test-secret-test-secret-0123456789';
