@@ -1,6 +1,6 @@
 import type { IncomingMessage } from 'node:http';
 import type { RequestHandler } from 'express';
-import { ApiError } from './errors';
+import { ApiError } from '../services/errors';
 
 /** Deepest nesting of objects and arrays accepted in a JSON body (no legitimate body comes near it). */
 export const MAX_JSON_DEPTH = 64;

@@ -6,9 +6,6 @@ import { log } from '../log';
 import { bodyParserError } from './bodyParsing';
 import { ApiError, fromEngineError, validationError } from '../services/errors';
 
-// The error type and its helpers are the services' (server/services/errors.ts); re-exported for the HTTP layer.
-export { ApiError, fieldsFromZod, fromEngineError, modelIssuesError, validationError } from '../services/errors';
-
 export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
   let apiError: ApiError;
   if (err instanceof ApiError) apiError = err;

@@ -1,10 +1,10 @@
 import express, { type Request, type RequestHandler, type Response, type Router } from 'express';
 import type { z } from 'zod';
 import type { BodyOf, Endpoint, EndpointDef, ParamsOf, QueryOf, ResponseInputOf } from '../../shared/api';
-import type { AppContext, AuthUser } from './context';
+import type { AppContext, AuthUser } from '../services/context';
 import { jsonDepthGuard } from './bodyParsing';
 import { log } from '../log';
-import { ApiError, validationError } from './errors';
+import { ApiError, validationError } from '../services/errors';
 
 export type { Access } from '../../shared/api';
 

@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
-import { ApiError } from './errors';
+import { ApiError } from '../services/errors';
 
 /**
  * One-file multipart upload into memory, with a size limit and an accepted-type check.

@@ -1,6 +1,6 @@
 import { attentionListSchema, type AttentionList } from '../../shared/schemas/attention';
 import { toCsv, sendCsv } from '../http/csv';
-import { ApiError } from '../http/errors';
+import { ApiError } from '../services/errors';
 import { contract } from '../../shared/api';
 import { bind, type AnyRoute } from '../http/route';
 import { attentionList, attentionSummary } from '../services/attention';

@@ -3,7 +3,7 @@ import { SignInThrottle } from '../auth/accountThrottle';
 import { dummyPasswordHash, verifyPassword } from '../auth/passwords';
 import { markRevoked } from '../auth/cache';
 import { Organization, RevokedToken, User } from '../db/models';
-import { ApiError } from '../http/errors';
+import { ApiError } from '../services/errors';
 import { contract } from '../../shared/api';
 import { bind, type AnyRoute } from '../http/route';
 import { recordAudit } from '../services/audit';

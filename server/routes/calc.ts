@@ -3,7 +3,7 @@ import { contract } from '../../shared/api';
 import { bind, type AnyRoute } from '../http/route';
 import { computeIncidentEnergy } from '../engine/ieee1584';
 import { InvalidModelError, shortCircuit } from '../engine/shortcircuit';
-import { modelIssuesError } from '../http/errors';
+import { modelIssuesError } from '../services/errors';
 import { computeLabelValues } from '../engine/labelValues';
 import { getSettings, labelSettingsOf } from '../services/organization';
 

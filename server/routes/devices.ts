@@ -1,5 +1,5 @@
 import { parseBandCsv } from '../engine/trip';
-import { ApiError } from '../http/errors';
+import { ApiError } from '../services/errors';
 import { contract } from '../../shared/api';
 import { bind, type AnyRoute } from '../http/route';
 import { singleFileUpload } from '../http/upload';

@@ -1,5 +1,5 @@
 import { Label } from '../db/models';
-import { ApiError } from '../http/errors';
+import { ApiError } from '../services/errors';
 import { contract } from '../../shared/api';
 import { bind, type AnyRoute } from '../http/route';
 import { batchFile, createBatch, getBatch, renderLabelPdf } from '../services/labelBatches';

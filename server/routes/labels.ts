@@ -1,5 +1,5 @@
 import { rateLimit } from 'express-rate-limit';
-import { ApiError } from '../http/errors';
+import { ApiError } from '../services/errors';
 import { contract } from '../../shared/api';
 import { bind, type AnyRoute } from '../http/route';
 import { checkLabel, listLabels, markInstalled, normalizeCode, reportMismatch, toLabelDtos } from '../services/labels';
@@ -8,7 +8,7 @@ import { qrPng } from '../pdf/qr';
 import { checkUrl } from '../services/labelBatches';
 import { imageExtension, imageUpload } from '../storage/imageUpload';
 import { Label } from '../db/models';
-import type { AppContext, AuthUser } from '../http/context';
+import type { AppContext, AuthUser } from '../services/context';
 
 export async function findLabelByCode(actor: AuthUser, code: string): Promise<Label> {
   const label = await Label.findOne({ where: { code: normalizeCode(code), organizationId: actor.organizationId } });

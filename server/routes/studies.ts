@@ -1,5 +1,5 @@
 import { parseModel } from '../../shared/schemas/model';
-import { ApiError, modelIssuesError } from '../http/errors';
+import { ApiError, modelIssuesError } from '../services/errors';
 import { contract } from '../../shared/api';
 import { bind, type AnyRoute } from '../http/route';
 import { multiFileUpload } from '../http/upload';

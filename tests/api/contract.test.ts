@@ -11,7 +11,7 @@ import { bind, mountRoutes } from '../../server/http/route';
 import { errorMiddleware } from '../../server/http/errors';
 import { buildOpenApi } from '../../server/http/openapi';
 import { allRoutes } from '../../server/routes';
-import type { AppContext } from '../../server/http/context';
+import type { AppContext } from '../../server/services/context';
 
 const routes = allRoutes({ signInLimitPerMinute: 1, publicCheckPerMinute: 1 });
 const key = (r: { method: string; path: string }) => `${r.method.toUpperCase()} ${r.path}`;
