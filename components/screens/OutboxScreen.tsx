@@ -39,7 +39,9 @@ function MessageView({ m, onBack }: { m: OutboxMessage; onBack?: () => void }) {
           <T style={{ fontSize: 15, fontFamily: fonts.numbers }}>{fmtDateTime(m.receivedAt)}</T>
         </ValueRow>
       </View>
-      <ScrollView horizontal={false} style={{ maxHeight: 640 }}>
+      {/* A long message scrolls in its own region: focusable and named, so a keyboard can reach and scroll it (axe:
+          scrollable-region-focusable). */}
+      <ScrollView horizontal={false} focusable aria-label="Message text" style={{ maxHeight: 640 }}>
         <T
           testID="outbox-text"
           selectable
