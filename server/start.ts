@@ -10,6 +10,7 @@ import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
 import { failInterruptedJobs, failOwnJobs } from './services/jobs';
 import { startReminderScheduler } from './services/reminders';
 import { openFileStore, storageConfigFromEnv } from './storage';
+import { closeStudyWorkers } from './services/studyWorker';
 
 /**
  * `npm start`: migrate, fail the jobs a stopped server left behind, seed the demo into an empty database (outside
@@ -99,6 +100,7 @@ async function main(): Promise<void> {
         );
       }
       server.closeAllConnections();
+      await closeStudyWorkers();
       await ctx.mail.close().catch((err: unknown) => log.error({ err }, 'closing the mailer failed'));
       await Promise.all([db.close(), files.close()]).catch((err: unknown) => log.error({ err }, 'closing failed'));
       log.info(`Stopped in ${Date.now() - started} ms${drained ? '' : ' (timed out)'}`);

@@ -9,27 +9,45 @@ import { yieldToLoop } from './jobs';
  * Study runs are computed in a worker thread, so a large plant never holds up the server's event loop (requests,
  * health checks, label checks, other jobs). The worker gets the model and settings as plain JSON, runs every labelled
  * bus, reports progress as messages and hands back the results already serialized (the JSON text that is stored).
- * A stopping server terminates the worker at once (`signal`). The worker loads the TypeScript source through tsx's
- * require hook, as the label PDF worker does (it works under tsx, `node --import tsx` and ts-jest); where a worker
- * cannot start, the run is computed in the main thread bus by bus, yielding between buses (logged), as before.
+ * The worker loads the TypeScript source through tsx's require hook, as the label PDF worker does (it works under tsx,
+ * `node --import tsx` and ts-jest); where a worker cannot start, the run is computed in the main thread bus by bus,
+ * yielding between buses (logged), as before.
+ *
+ * Workers are kept warm between runs (loading the engine takes about a second, and a warmed-up engine runs a large
+ * plant several times faster): a worker takes one run at a time (`{ type: 'run', id, model, options }`, answered by
+ * progress, done or error messages carrying the id) and then waits for the next. A run that starts while the warm
+ * worker is busy gets a worker of its own; at most one idle worker is kept, unref'd (it never keeps the process
+ * alive), and it is terminated after `IDLE_WORKER_MS` or by `closeStudyWorkers()` (server shutdown, test app close).
+ * A stop request (`signal`) terminates the worker running that job; a worker whose run failed, that errors or that
+ * exits is dropped, and the next run starts a new one.
  */
 
 /** Heap limit of one study worker, MB (a 50 000-bus plant needs well under this). */
 const WORKER_HEAP_MB = 1536;
 
+/** An idle warm worker is terminated after this long without a run. */
+export const IDLE_WORKER_MS = 10 * 60_000;
+
+// The run's model and results are locals of the message handler: nothing of a finished run stays referenced.
 const BOOTSTRAP = `
 const { parentPort, workerData } = require('node:worker_threads');
 try { require('tsx/cjs/api').register(); } catch (e) { /* already JavaScript */ }
 const { runAllBuses } = require(workerData.modulePath);
-try {
-  const model = typeof workerData.model === 'string' ? JSON.parse(workerData.model) : workerData.model;
-  const outcome = runAllBuses(model, workerData.options, (done, total) =>
-    parentPort.postMessage({ type: 'progress', done, total }),
-  );
-  parentPort.postMessage({ type: 'done', outcome });
-} catch (e) {
-  parentPort.postMessage({ type: 'error', message: e && e.message ? e.message : String(e) });
-}
+parentPort.on('message', (msg) => {
+  if (!msg || msg.type !== 'run') return;
+  const id = msg.id;
+  let outcome;
+  try {
+    const model = typeof msg.model === 'string' ? JSON.parse(msg.model) : msg.model;
+    outcome = runAllBuses(model, msg.options, (done, total) =>
+      parentPort.postMessage({ type: 'progress', id, done, total }),
+    );
+  } catch (e) {
+    parentPort.postMessage({ type: 'error', id, message: e && e.message ? e.message : String(e) });
+    return;
+  }
+  parentPort.postMessage({ type: 'done', id, outcome });
+});
 `;
 
 export interface StudyJobOptions {
@@ -39,10 +57,139 @@ export interface StudyJobOptions {
   stopError?: () => Error;
 }
 
-/** Where runs were computed since start: in a worker, or in the main thread because no worker could start. */
-export const studyRunStats = { worker: 0, mainThread: 0 };
+/**
+ * Where runs were computed since start: in a worker, or in the main thread because no worker could start; and how
+ * many workers were started (a warm worker is reused, so this grows slower than `worker`).
+ */
+export const studyRunStats = { worker: 0, mainThread: 0, workersStarted: 0 };
 
 class WorkerUnavailable extends Error {}
+
+interface Job {
+  id: number;
+  onProgress?: (done: number, total: number) => void;
+  resolve: (outcome: StudyRunOutcome) => void;
+  reject: (e: Error) => void;
+}
+
+interface Slot {
+  worker: Worker;
+  /** The run in progress (null: idle). */
+  job: Job | null;
+  idleTimer: NodeJS.Timeout | null;
+}
+
+/** Every live worker, and the one idle among them (at most one is kept idle). */
+const slots = new Set<Slot>();
+let idleSlot: Slot | null = null;
+let nextJobId = 1;
+
+/** Live and idle study workers (for tests and diagnostics). */
+export function studyWorkerCounts(): { live: number; idle: number } {
+  return { live: slots.size, idle: idleSlot ? 1 : 0 };
+}
+
+type WorkerMessage = {
+  type: string;
+  id?: number;
+  done?: number;
+  total?: number;
+  outcome?: StudyRunOutcome;
+  message?: string;
+};
+
+function workerError(e: Error & { code?: string }): Error {
+  if (e.code === 'ERR_WORKER_OUT_OF_MEMORY') return new Error('The study needed more memory than allowed for one run');
+  if (/Cannot find module|ERR_MODULE_NOT_FOUND|ERR_UNKNOWN_FILE_EXTENSION/.test(e.message)) {
+    return new WorkerUnavailable(e.message);
+  }
+  return e;
+}
+
+/** The worker leaves the pool (its job, if any, is settled by whoever calls this or by its exit event). */
+function forget(slot: Slot): void {
+  slots.delete(slot);
+  if (idleSlot === slot) idleSlot = null;
+  if (slot.idleTimer) clearTimeout(slot.idleTimer);
+  slot.idleTimer = null;
+}
+
+function drop(slot: Slot): Promise<unknown> {
+  forget(slot);
+  return slot.worker.terminate().catch(() => undefined);
+}
+
+function startSlot(): Slot {
+  const worker = new Worker(BOOTSTRAP, {
+    eval: true,
+    workerData: { modulePath: path.join(__dirname, '..', 'engine', 'study', 'runAll') },
+    resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
+  });
+  studyRunStats.workersStarted += 1;
+  const slot: Slot = { worker, job: null, idleTimer: null };
+  slots.add(slot);
+  const take = (): Job | null => {
+    const job = slot.job;
+    slot.job = null;
+    return job;
+  };
+  worker.on('message', (m: WorkerMessage) => {
+    const job = slot.job;
+    if (!job || m.id !== job.id) return;
+    if (m.type === 'progress') job.onProgress?.(m.done as number, m.total as number);
+    else if (m.type === 'done') {
+      take();
+      release(slot);
+      job.resolve(m.outcome as StudyRunOutcome);
+    } else if (m.type === 'error') {
+      take();
+      void drop(slot);
+      job.reject(new Error(m.message));
+    }
+  });
+  worker.on('error', (e: Error & { code?: string }) => {
+    const job = take();
+    void drop(slot);
+    job?.reject(workerError(e));
+  });
+  worker.on('exit', (code) => {
+    const job = take();
+    forget(slot);
+    job?.reject(new Error(`The study worker stopped (exit code ${code})`));
+  });
+  return slot;
+}
+
+/** A finished worker waits for the next run (unref'd, with an idle timeout), unless another one already waits. */
+function release(slot: Slot): void {
+  if (!slots.has(slot)) return;
+  if (idleSlot && idleSlot !== slot) {
+    void drop(slot);
+    return;
+  }
+  idleSlot = slot;
+  slot.worker.unref();
+  slot.idleTimer = setTimeout(() => void drop(slot), IDLE_WORKER_MS);
+  slot.idleTimer.unref();
+}
+
+/** The idle warm worker (ref'd again), or a new one. */
+function acquire(): Slot {
+  const slot = idleSlot;
+  if (slot) {
+    idleSlot = null;
+    if (slot.idleTimer) clearTimeout(slot.idleTimer);
+    slot.idleTimer = null;
+    slot.worker.ref();
+    return slot;
+  }
+  return startSlot();
+}
+
+/** Terminates every study worker (idle or running: a running job rejects). For server shutdown and test teardown. */
+export async function closeStudyWorkers(): Promise<void> {
+  await Promise.all([...slots].map((slot) => drop(slot)));
+}
 
 function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJobOptions): Promise<StudyRunOutcome> {
   return new Promise((resolve, reject) => {
@@ -51,53 +198,46 @@ function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJo
       reject(stopped());
       return;
     }
-    let worker: Worker;
+    let slot: Slot;
     try {
-      worker = new Worker(BOOTSTRAP, {
-        eval: true,
-        // Plain JSON across the thread boundary.
-        workerData: {
-          modulePath: path.join(__dirname, '..', 'engine', 'study', 'runAll'),
-          // The model's JSON text as stored is passed as is (parsed in the worker, not here).
-          model: typeof model === 'string' ? model : (JSON.parse(JSON.stringify(model)) as unknown),
-          options: JSON.parse(JSON.stringify(options)) as unknown,
-        },
-        resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
-      });
+      slot = acquire();
     } catch (e) {
       reject(new WorkerUnavailable(e instanceof Error ? e.message : String(e)));
       return;
     }
-    let settled = false;
-    const finish = (fn: () => void) => {
-      if (settled) return;
-      settled = true;
-      opts.signal?.removeEventListener('abort', onAbort);
-      fn();
-      void worker.terminate();
+    const onAbort = () => {
+      if (slot.job !== job) return;
+      slot.job = null;
+      void drop(slot);
+      reject(stopped());
     };
-    const onAbort = () => finish(() => reject(stopped()));
-    opts.signal?.addEventListener('abort', onAbort, { once: true });
-    worker.on(
-      'message',
-      (m: { type: string; done?: number; total?: number; outcome?: StudyRunOutcome; message?: string }) => {
-        if (m.type === 'progress') opts.onProgress?.(m.done as number, m.total as number);
-        else if (m.type === 'done') finish(() => resolve(m.outcome as StudyRunOutcome));
-        else if (m.type === 'error') finish(() => reject(new Error(m.message)));
+    const job: Job = {
+      id: nextJobId++,
+      onProgress: opts.onProgress,
+      resolve: (outcome) => {
+        opts.signal?.removeEventListener('abort', onAbort);
+        resolve(outcome);
       },
-    );
-    worker.on('error', (e: Error & { code?: string }) =>
-      finish(() =>
-        reject(
-          e.code === 'ERR_WORKER_OUT_OF_MEMORY'
-            ? new Error('The study needed more memory than allowed for one run')
-            : /Cannot find module|ERR_MODULE_NOT_FOUND|ERR_UNKNOWN_FILE_EXTENSION/.test(e.message)
-              ? new WorkerUnavailable(e.message)
-              : e,
-        ),
-      ),
-    );
-    worker.on('exit', (code) => finish(() => reject(new Error(`The study worker stopped (exit code ${code})`))));
+      reject: (e) => {
+        opts.signal?.removeEventListener('abort', onAbort);
+        reject(e);
+      },
+    };
+    slot.job = job;
+    opts.signal?.addEventListener('abort', onAbort, { once: true });
+    // Plain JSON across the thread boundary; the model's JSON text as stored is passed as is (parsed in the worker).
+    try {
+      slot.worker.postMessage({
+        type: 'run',
+        id: job.id,
+        model: typeof model === 'string' ? model : (JSON.parse(JSON.stringify(model)) as unknown),
+        options: JSON.parse(JSON.stringify(options)) as unknown,
+      });
+    } catch (e) {
+      slot.job = null;
+      void drop(slot);
+      job.reject(e instanceof Error ? e : new Error(String(e)));
+    }
   });
 }
 

@@ -6,7 +6,12 @@ import request from 'supertest';
 import { generatedPlant } from '../../server/bench/study';
 import { runStudy } from '../../server/engine/study';
 import { JobStopped } from '../../server/services/jobs';
-import { runStudyOffThread, studyRunStats } from '../../server/services/studyWorker';
+import {
+  closeStudyWorkers,
+  runStudyOffThread,
+  studyRunStats,
+  studyWorkerCounts,
+} from '../../server/services/studyWorker';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
@@ -44,6 +49,73 @@ describe('runStudyOffThread', () => {
       },
     );
     await expect(running).rejects.toThrow('stopped for the test');
+  }, 60_000);
+});
+
+/**
+ * The warm worker: kept between runs, never reused after a stop, a second worker for a run that starts while the warm
+ * one is busy. The reference for every result is runStudy in the test's own thread (the engine is deterministic).
+ */
+describe('the warm study worker', () => {
+  const options = { maxArcDurationMs: 2000, motorDecayCycles: 5 };
+  afterAll(async () => {
+    await closeStudyWorkers();
+  });
+
+  it('two runs in a row use one worker and give the same results as runStudy', async () => {
+    const model = parsed(larkspurModel());
+    const reference = JSON.stringify(runStudy(model, options));
+    const first = await runStudyOffThread(model, options);
+    const started = studyRunStats.workersStarted;
+    expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
+    const second = await runStudyOffThread(JSON.stringify(model), options);
+    expect(studyRunStats.workersStarted).toBe(started);
+    expect(first.resultsJson).toBe(reference);
+    expect(second.resultsJson).toBe(reference);
+    // A different plant on the same worker: nothing of the previous run leaks into the next one.
+    const plant = parsed(generatedPlant(8, 7));
+    const third = await runStudyOffThread(plant, {});
+    expect(studyRunStats.workersStarted).toBe(started);
+    expect(third.resultsJson).toBe(JSON.stringify(runStudy(plant, {})));
+    expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
+  }, 60_000);
+
+  it("a stopped run's worker is terminated and not reused: the next run starts a new one", async () => {
+    await runStudyOffThread(parsed(generatedPlant(4, 3)), {});
+    expect(studyWorkerCounts().idle).toBe(1);
+    const started = studyRunStats.workersStarted;
+    const controller = new AbortController();
+    const running = runStudyOffThread(
+      parsed(generatedPlant(30, 99)),
+      {},
+      {
+        signal: controller.signal,
+        stopError: () => new JobStopped('stopped for the test'),
+        onProgress: () => controller.abort(),
+      },
+    );
+    await expect(running).rejects.toThrow('stopped for the test');
+    // The stopped run took the warm worker (none started) and that worker is gone.
+    expect(studyRunStats.workersStarted).toBe(started);
+    expect(studyWorkerCounts()).toEqual({ live: 0, idle: 0 });
+    const model = parsed(larkspurModel());
+    const next = await runStudyOffThread(model, options);
+    expect(studyRunStats.workersStarted).toBe(started + 1);
+    expect(next.resultsJson).toBe(JSON.stringify(runStudy(model, options)));
+  }, 60_000);
+
+  it('two concurrent runs each get a worker, both finish with the right results, one worker stays idle', async () => {
+    const a = parsed(larkspurModel());
+    const b = parsed(generatedPlant(10, 5));
+    await runStudyOffThread(a, options);
+    const started = studyRunStats.workersStarted;
+    const [ra, rb] = await Promise.all([runStudyOffThread(a, options), runStudyOffThread(b, {})]);
+    expect(studyRunStats.workersStarted).toBe(started + 1);
+    expect(ra.resultsJson).toBe(JSON.stringify(runStudy(a, options)));
+    expect(rb.resultsJson).toBe(JSON.stringify(runStudy(b, {})));
+    expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
+    await closeStudyWorkers();
+    expect(studyWorkerCounts()).toEqual({ live: 0, idle: 0 });
   }, 60_000);
 });
 

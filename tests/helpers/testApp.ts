@@ -10,6 +10,7 @@ import { loadConfig, type Config } from '../../server/config';
 import { migrate, openDb, type Db } from '../../server/db';
 import { Organization, User } from '../../server/db/models';
 import type { AppContext } from '../../server/services/context';
+import { closeStudyWorkers } from '../../server/services/studyWorker';
 
 export const TEST_PASSWORD = 'correct-horse-battery';
 export const TEST_SECRET = 'test-secret-test-secret-test-secret-0123456789';
@@ -91,6 +92,7 @@ export async function makeTestApp(): Promise<TestApp> {
     },
     close: async () => {
       await ctx.jobs.idle();
+      await closeStudyWorkers();
       await ctx.mail.close();
       await db.close();
     },
