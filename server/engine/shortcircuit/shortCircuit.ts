@@ -522,19 +522,7 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
       }
     }
 
-    const summary = buses[b];
-    // Written out rather than spread: a spread followed by more keys makes a slow object (same keys, same order).
-    return {
-      id: summary.id,
-      nominalKv: summary.nominalKv,
-      boltedFaultKa: summary.boltedFaultKa,
-      xr: summary.xr,
-      prefaultPu,
-      faultCurrentA: faultMag * busBaseA[b],
-      faultPhasorA,
-      branches,
-      injections,
-    };
+    return faultRow(buses[b], prefaultPu, faultMag * busBaseA[b], faultPhasorA, branches, injections);
   }
 
   /** The row of a closed tie carrying `phasor` (the same current at both ends), with its direction of flow. */
@@ -596,42 +584,9 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
       }
     }
     const steps = Int32Array.from(solveNodes).sort();
-    // Column `node` of Zbus at those nodes: the same operations as `LdltFactor.solveInPlace` on the unit vector,
-    // restricted to the elimination path of `node` (forward) and to the marked nodes (backward).
-    const { order, colPtr, rowNode, lRe, lIm, dRe, dIm } = factor;
-    re[node] = 1;
-    for (let p = node; p >= 0; p = cs.etreeParent[p]) {
-      const s = factor.pos[p];
-      const vr = re[p];
-      const vi = im[p];
-      if (vr === 0 && vi === 0) continue;
-      for (let e = colPtr[s]; e < colPtr[s + 1]; e += 1) {
-        const i = rowNode[e];
-        re[i] -= lRe[e] * vr - lIm[e] * vi;
-        im[i] -= lRe[e] * vi + lIm[e] * vr;
-      }
-    }
-    for (let p = node; p >= 0; p = cs.etreeParent[p]) {
-      const s = factor.pos[p];
-      const den = dRe[s] * dRe[s] + dIm[s] * dIm[s];
-      const vr = re[p];
-      const vi = im[p];
-      re[p] = (vr * dRe[s] + vi * dIm[s]) / den;
-      im[p] = (vi * dRe[s] - vr * dIm[s]) / den;
-    }
-    for (let q = steps.length - 1; q >= 0; q -= 1) {
-      const s = steps[q];
-      const p = order[s];
-      let xr = re[p];
-      let xi = im[p];
-      for (let e = colPtr[s]; e < colPtr[s + 1]; e += 1) {
-        const i = rowNode[e];
-        xr -= lRe[e] * re[i] - lIm[e] * im[i];
-        xi -= lRe[e] * im[i] + lIm[e] * re[i];
-      }
-      re[p] = xr;
-      im[p] = xi;
-    }
+    // Column `node` of Zbus at those nodes (the unit-vector solve restricted to them).
+    factor.inverseColumnAt(node, cs.etreeParent, steps, re, im);
+    const { order } = factor;
     work.faults += 1;
     work.nodeVisits += steps.length;
     work.elementVisits += edgeList.length;
@@ -754,19 +709,7 @@ export function createShortCircuitSolver(model: Model): ShortCircuitSolver {
       }
     }
 
-    const summary = buses[b];
-    // Written out rather than spread: a spread followed by more keys makes a slow object (same keys, same order).
-    return {
-      id: summary.id,
-      nominalKv: summary.nominalKv,
-      boltedFaultKa: summary.boltedFaultKa,
-      xr: summary.xr,
-      prefaultPu,
-      faultCurrentA: faultMag * busBaseA[b],
-      faultPhasorA,
-      branches,
-      injections,
-    };
+    return faultRow(buses[b], prefaultPu, faultMag * busBaseA[b], faultPhasorA, branches, injections);
   }
 
   /**
@@ -841,4 +784,27 @@ export function shortCircuit(
   const solver = createShortCircuitSolver(model);
   if (!options?.includeFaults) return solver.result;
   return { ...solver.result, faults: solver.busIds.map((id) => solver.faultAt(id)) };
+}
+
+/** One bus's fault, from its summary row. Written out rather than spread: a spread followed by more keys makes a slow
+ * object (same keys, same order). */
+function faultRow(
+  summary: { id: string; nominalKv: number; boltedFaultKa: number; xr: number },
+  prefaultPu: number,
+  faultCurrentA: number,
+  faultPhasorA: Complex,
+  branches: BusFault['branches'],
+  injections: BusFault['injections'],
+): BusFault {
+  return {
+    id: summary.id,
+    nominalKv: summary.nominalKv,
+    boltedFaultKa: summary.boltedFaultKa,
+    xr: summary.xr,
+    prefaultPu,
+    faultCurrentA,
+    faultPhasorA,
+    branches,
+    injections,
+  };
 }

@@ -206,6 +206,54 @@ export class LdltFactor {
   }
 
   /**
+   * Column `node` of A⁻¹ at some nodes only, in place (re, im all zero on entry): the operations of `solveInPlace` on
+   * the unit vector, restricted to the elimination path of `node` (forward; `parent` is the elimination tree) and to
+   * `steps`, the sorted elimination steps of the wanted nodes with all their ancestors (backward).
+   */
+  inverseColumnAt(
+    node: number,
+    parent: Int32Array | readonly number[],
+    steps: Int32Array,
+    re: Float64Array,
+    im: Float64Array,
+  ): void {
+    const { order, pos, colPtr, rowNode, lRe, lIm, dRe, dIm } = this;
+    re[node] = 1;
+    for (let p = node; p >= 0; p = parent[p]) {
+      const s = pos[p];
+      const vr = re[p];
+      const vi = im[p];
+      if (vr === 0 && vi === 0) continue;
+      for (let e = colPtr[s]; e < colPtr[s + 1]; e += 1) {
+        const i = rowNode[e];
+        re[i] -= lRe[e] * vr - lIm[e] * vi;
+        im[i] -= lRe[e] * vi + lIm[e] * vr;
+      }
+    }
+    for (let p = node; p >= 0; p = parent[p]) {
+      const s = pos[p];
+      const den = dRe[s] * dRe[s] + dIm[s] * dIm[s];
+      const vr = re[p];
+      const vi = im[p];
+      re[p] = (vr * dRe[s] + vi * dIm[s]) / den;
+      im[p] = (vi * dRe[s] - vr * dIm[s]) / den;
+    }
+    for (let q = steps.length - 1; q >= 0; q -= 1) {
+      const s = steps[q];
+      const p = order[s];
+      let xr = re[p];
+      let xi = im[p];
+      for (let e = colPtr[s]; e < colPtr[s + 1]; e += 1) {
+        const i = rowNode[e];
+        xr -= lRe[e] * re[i] - lIm[e] * im[i];
+        xi -= lRe[e] * im[i] + lIm[e] * re[i];
+      }
+      re[p] = xr;
+      im[p] = xi;
+    }
+  }
+
+  /**
    * Diagonal of A⁻¹ by the Takahashi equations, computed over the pattern of L (no full inverse):
    * for the pivot p of step s with column pattern S,
    *   Z(p, j) = −Σ_{i∈S} L(i, p)·Z(i, j)   for j ∈ S,
