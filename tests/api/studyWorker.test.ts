@@ -15,12 +15,27 @@ import {
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { draftStudy } from '../helpers/flows';
 
 const parsed = (input: ModelInput): Model => {
   const p = parseModel(input);
   if (!p.success) throw new Error(JSON.stringify(p.issues.slice(0, 3)));
   return p.model;
 };
+
+/** A 3 001-bus run asked to stop at its first progress report. */
+function runStoppedAtFirstProgress() {
+  const controller = new AbortController();
+  return runStudyOffThread(
+    parsed(generatedPlant(30, 99)),
+    {},
+    {
+      signal: controller.signal,
+      stopError: () => new JobStopped('stopped for the test'),
+      onProgress: () => controller.abort(),
+    },
+  );
+}
 
 describe('runStudyOffThread', () => {
   it('gives the results of runStudy in this thread, byte for byte, and reports progress', async () => {
@@ -38,16 +53,7 @@ describe('runStudyOffThread', () => {
   }, 60_000);
 
   it('a stop request terminates the worker and rejects with the stop reason', async () => {
-    const controller = new AbortController();
-    const running = runStudyOffThread(
-      parsed(generatedPlant(30, 99)),
-      {},
-      {
-        signal: controller.signal,
-        stopError: () => new JobStopped('stopped for the test'),
-        onProgress: () => controller.abort(),
-      },
-    );
+    const running = runStoppedAtFirstProgress();
     await expect(running).rejects.toThrow('stopped for the test');
   }, 60_000);
 });
@@ -84,16 +90,7 @@ describe('the warm study worker', () => {
     await runStudyOffThread(parsed(generatedPlant(4, 3)), {});
     expect(studyWorkerCounts().idle).toBe(1);
     const started = studyRunStats.workersStarted;
-    const controller = new AbortController();
-    const running = runStudyOffThread(
-      parsed(generatedPlant(30, 99)),
-      {},
-      {
-        signal: controller.signal,
-        stopError: () => new JobStopped('stopped for the test'),
-        onProgress: () => controller.abort(),
-      },
-    );
+    const running = runStoppedAtFirstProgress();
     await expect(running).rejects.toThrow('stopped for the test');
     // The stopped run took the warm worker (none started) and that worker is gone.
     expect(studyRunStats.workersStarted).toBe(started);
@@ -130,30 +127,15 @@ describe('the API while a large study runs', () => {
 
   it('answers the health check and run status while the run is in progress, then stores the results', async () => {
     const eng = bearer(t.orgA.users.engineer.token);
-    const site = await request(t.app)
-      .post('/api/sites')
-      .set(...eng)
-      .send({ name: 'Worker yard' });
-    const study = await request(t.app)
-      .post(`/api/sites/${site.body.id}/studies`)
-      .set(...eng)
-      .send({ title: 'Worker run' });
-    const env = await request(t.app)
-      .get(`/api/studies/${study.body.id}/model`)
-      .set(...eng);
-    const put = await request(t.app)
-      .put(`/api/studies/${study.body.id}/model`)
-      .set(...eng)
-      .send({ model: generatedPlant(20, 99), version: env.body.version });
-    expect(put.status).toBe(200);
+    const studyId = await draftStudy(t, 'Worker yard', 'Worker run', generatedPlant(20, 99));
     const run = await request(t.app)
-      .post(`/api/studies/${study.body.id}/run`)
+      .post(`/api/studies/${studyId}/run`)
       .set(...eng);
     expect(run.status).toBe(202);
     let answeredWhileRunning = 0;
     for (;;) {
       const status = await request(t.app)
-        .get(`/api/studies/${study.body.id}/run`)
+        .get(`/api/studies/${studyId}/run`)
         .set(...eng);
       if (status.body.status === 'done' || status.body.status === 'failed') {
         expect(status.body.status).toBe('done');
@@ -167,7 +149,7 @@ describe('the API while a large study runs', () => {
     expect(answeredWhileRunning).toBeGreaterThan(0);
     await t.ctx.jobs.idle();
     const results = await request(t.app)
-      .get(`/api/studies/${study.body.id}/results`)
+      .get(`/api/studies/${studyId}/results`)
       .set(...eng);
     expect(results.status).toBe(200);
   }, 120_000);

@@ -8,6 +8,7 @@ import { generatedPlant } from '../../server/bench/study';
 import { LabelBatch, StudyRun } from '../../server/db/models';
 import { failInterruptedJobs, failOwnJobs, Jobs, JobStopped, STOPPED_BY_SHUTDOWN } from '../../server/services/jobs';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { draftStudy } from '../helpers/flows';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -54,30 +55,15 @@ describe('Jobs', () => {
 describe('a study run when the server stops', () => {
   it('fails at its next step with the reason, no results, and the drain completes', async () => {
     const eng = bearer(t.orgA.users.engineer.token);
-    const site = await request(t.app)
-      .post('/api/sites')
-      .set(...eng)
-      .send({ name: 'Shutdown yard' });
-    const study = await request(t.app)
-      .post(`/api/sites/${site.body.id}/studies`)
-      .set(...eng)
-      .send({ title: 'Stopped run' });
-    const env = await request(t.app)
-      .get(`/api/studies/${study.body.id}/model`)
-      .set(...eng);
     // 1 + 30 + 30 × 99 = 3001 buses: seconds of work, stopped long before the end.
-    const put = await request(t.app)
-      .put(`/api/studies/${study.body.id}/model`)
-      .set(...eng)
-      .send({ model: generatedPlant(30, 99), version: env.body.version });
-    expect(put.status).toBe(200);
+    const studyId = await draftStudy(t, 'Shutdown yard', 'Stopped run', generatedPlant(30, 99));
     const run = await request(t.app)
-      .post(`/api/studies/${study.body.id}/run`)
+      .post(`/api/studies/${studyId}/run`)
       .set(...eng);
     expect(run.status).toBe(202);
     expect(await t.ctx.jobs.drain(60_000)).toBe(true);
     const after = await request(t.app)
-      .get(`/api/studies/${study.body.id}/run`)
+      .get(`/api/studies/${studyId}/run`)
       .set(...eng);
     expect(after.body.status).toBe('failed');
     expect(after.body.message).toBe(STOPPED_BY_SHUTDOWN['study-run']);
@@ -85,7 +71,7 @@ describe('a study run when the server stops', () => {
     expect(
       (
         await request(t.app)
-          .get(`/api/studies/${study.body.id}/results`)
+          .get(`/api/studies/${studyId}/results`)
           .set(...eng)
       ).status,
     ).toBe(404);
