@@ -6,22 +6,15 @@
  * first device on the path to clear, energy of both cases, line side without the main; no time stepping, no trace)
  * for the ratio. Prints the figures; asserts nothing.
  */
-import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import request from 'supertest';
 import type { Device } from '../../shared/schemas/device';
-import { createApp } from '../app';
-import { loadConfig } from '../config';
 import { Label } from '../db/models';
-import { migrate, openDb } from '../db';
-import { seedDemo } from '../seed/demo';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { computeArcingCurrents, computeCaseEnergy, resolveEnclosure } from '../engine/ieee1584/compute';
 import { createShortCircuitSolver } from '../engine/shortcircuit';
 import { resolveEquipment, runAllBuses } from '../engine/study';
 import { clearingTime } from '../engine/trip';
-import { generatedPlant } from './study';
+import { benchApp, generatedPlant } from './study';
 
 /** A radial plant of about `buses` buses: substations of 100 buses (the unit substation and 99 panels). */
 export function radialPlant(buses: number): ModelInput {
@@ -154,23 +147,7 @@ export async function benchScaling(): Promise<{ name: string; opsPerSecond: numb
  * while the run is in progress the health check and the public label check are timed every 50 ms (slowest answer).
  */
 export async function benchStudyApi10k(): Promise<{ name: string; opsPerSecond: number; detail: string }> {
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-bench-'));
-  const databaseUrl = `sqlite:${path.join(dir, 'bench.sqlite')}`;
-  const config = loadConfig(
-    { NODE_ENV: 'test' },
-    { databaseUrl, dataDir: dir, jwtSecret: 'bench-secret-bench-secret-bench-secret-1234' },
-  );
-  const db = await openDb(databaseUrl);
-  await migrate(db);
-  const { app, ctx } = createApp({ config, db, signInLimitPerMinute: 1000, publicCheckPerMinute: 100000 });
-  const seeded = await seedDemo(ctx, 'bench-password-1');
-  await ctx.jobs.idle();
-  const token = (
-    await request(app)
-      .post('/api/auth/sign-in')
-      .send({ email: 'engineer@larkspur.example', password: 'bench-password-1' })
-  ).body.token as string;
-  const auth = { Authorization: `Bearer ${token}` };
+  const { app, seeded, auth, close } = await benchApp({ publicCheckPerMinute: 100000 });
   const labelCode = (await Label.findOne())?.code ?? 'NO-LABEL';
   // A listening server, so the probes are real requests on the same event loop as the run's bookkeeping.
   const server = app.listen(0);
@@ -207,10 +184,8 @@ export async function benchStudyApi10k(): Promise<{ name: string; opsPerSecond: 
     await new Promise((r) => setTimeout(r, 50));
   }
   const t2 = performance.now();
-  await ctx.jobs.idle();
   server.close();
-  await db.close();
-  fs.rmSync(dir, { recursive: true, force: true });
+  await close();
   const total = (t2 - t0) / 1000;
   return {
     name: `study through the API (${model.buses!.length} buses, radial)`,

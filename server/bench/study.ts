@@ -91,7 +91,11 @@ export function generatedPlant(substations = 20, perSubstation = 99): ModelInput
   } as ModelInput;
 }
 
-export async function benchStudyThroughApi(): Promise<{ name: string; opsPerSecond: number; detail: string }> {
+/**
+ * An in-process server on SQLite in a temporary folder with the demo seeded, and the demo engineer's authorization
+ * header; `close` waits for its jobs and removes the folder.
+ */
+export async function benchApp(appOptions: { publicCheckPerMinute?: number } = {}) {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-bench-'));
   const databaseUrl = `sqlite:${path.join(dir, 'bench.sqlite')}`;
   const config = loadConfig(
@@ -100,14 +104,24 @@ export async function benchStudyThroughApi(): Promise<{ name: string; opsPerSeco
   );
   const db = await openDb(databaseUrl);
   await migrate(db);
-  const { app, ctx } = createApp({ config, db, signInLimitPerMinute: 1000 });
+  const { app, ctx } = createApp({ config, db, signInLimitPerMinute: 1000, ...appOptions });
   const seeded = await seedDemo(ctx, 'bench-password-1');
+  await ctx.jobs.idle();
   const token = (
     await request(app)
       .post('/api/auth/sign-in')
       .send({ email: 'engineer@larkspur.example', password: 'bench-password-1' })
   ).body.token as string;
-  const auth = { Authorization: `Bearer ${token}` };
+  const close = async () => {
+    await ctx.jobs.idle();
+    await db.close();
+    fs.rmSync(dir, { recursive: true, force: true });
+  };
+  return { app, ctx, seeded, auth: { Authorization: `Bearer ${token}` }, close };
+}
+
+export async function benchStudyThroughApi(): Promise<{ name: string; opsPerSecond: number; detail: string }> {
+  const { app, seeded, auth, close } = await benchApp();
   const model = generatedPlant();
   const busCount = model.buses!.length;
   const study = await request(app).post(`/api/sites/${seeded.siteId}/studies`).set(auth).send({ title: 'Bench' });
@@ -130,9 +144,7 @@ export async function benchStudyThroughApi(): Promise<{ name: string; opsPerSeco
   const t2 = performance.now();
   const results = await request(app).get(`/api/studies/${study.body.id}/results`).set(auth);
   const t3 = performance.now();
-  await ctx.jobs.idle();
-  await db.close();
-  fs.rmSync(dir, { recursive: true, force: true });
+  await close();
   const total = (t3 - t0) / 1000;
   return {
     name: `study through the API (${busCount} buses, ${results.body.summary.buses} labelled)`,
