@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
-import { parseModel } from '../../shared/schemas/model';
+import { parseModel, type Model } from '../../shared/schemas/model';
 import type { OrganizationSettings } from '../../shared/schemas/organization';
 import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
 import type { StudyResults } from '../../shared/schemas/studyResults';
@@ -91,6 +91,8 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
     // Computed in a worker thread (the API keeps answering); progress is written at most every 250 ms, one write at a time.
     let lastWrite = 0;
     let writing: Promise<unknown> = Promise.resolve();
+    // Evaluations are counted bus by bus in the base and in each operating scenario.
+    const scenarioCount = 1 + countScenarios(run.modelSnapshot);
     // The model's JSON text goes to the worker as stored (parsed there).
     const outcome = await runStudyOffThread(run.modelSnapshot, settings, {
       signal: ctx.jobs.signal,
@@ -101,14 +103,17 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
         lastWrite = Date.now();
         writing = writing.then(() =>
           // A progress write that fails is not the run failing (the final write reports the outcome).
-          run.update({ progress: 0.02 + 0.96 * (done / total), message: `Bus ${done} of ${total}` }).catch(() => null),
+          run
+            .update({ progress: 0.02 + 0.96 * (done / total), message: progressMessage(done, total, scenarioCount) })
+            .catch(() => null),
         );
       },
     });
     await writing;
     ctx.jobs.throwIfStopping('study-run');
     const failed = outcome.failed;
-    const message = `${outcome.buses} buses evaluated${failed ? `, ${failed} with errors` : ''}`;
+    const scenarioNote = scenarioCount > 1 ? ` in ${scenarioCount} operating scenarios (base included)` : '';
+    const message = `${outcome.buses} buses evaluated${scenarioNote}${failed ? `, ${failed} with errors` : ''}`;
     await ctx.db.sequelize.transaction(async (transaction) => {
       await run.update(
         { status: 'done', progress: 1, message, results: outcome.resultsJson, finishedAt: ctx.now() },
@@ -162,7 +167,21 @@ export async function getResults(actor: AuthUser, studyId: string): Promise<Resu
   if (!run || !run.results) throw ApiError.notFound(NO_RESULTS);
   return {
     run: toRunDto(run),
-    model: JSON.parse(run.modelSnapshot) as Record<string, unknown>,
+    model: JSON.parse(run.modelSnapshot) as Model, // stored parsed when the run started
     results: JSON.parse(run.results) as StudyResults,
   };
+}
+
+/** Operating scenarios of a stored model snapshot (its JSON text), without parsing the whole model. */
+function countScenarios(modelJson: string): number {
+  if (!modelJson.includes('"scenarios"')) return 0;
+  const model = JSON.parse(modelJson) as { scenarios?: unknown[] };
+  return Array.isArray(model.scenarios) ? model.scenarios.length : 0;
+}
+
+/** "Bus 40 of 120", or with scenarios "Bus 14 of 40, 3 scenarios each (42 of 120 evaluations)". */
+function progressMessage(done: number, total: number, scenarioCount: number): string {
+  if (scenarioCount <= 1) return `Bus ${done} of ${total}`;
+  const buses = Math.round(total / scenarioCount);
+  return `Bus ${Math.ceil(done / scenarioCount)} of ${buses}, ${scenarioCount} scenarios each (${done} of ${total} evaluations)`;
 }

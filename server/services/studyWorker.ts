@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import type { Model } from '../../shared/schemas/model';
-import { createStudyRunner, type StudyOptions, type StudyRunOutcome } from '../engine/study';
+import { createScenarioRunner, type StudyOptions, type StudyRunOutcome } from '../engine/study';
 import { log } from '../log';
 import { yieldToLoop } from './jobs';
 
@@ -247,11 +247,12 @@ async function runInMainThread(
   options: StudyOptions,
   opts: StudyJobOptions,
 ): Promise<StudyRunOutcome> {
-  const runner = createStudyRunner(typeof model === 'string' ? (JSON.parse(model) as Model) : model, options);
-  const total = runner.busIds.length;
+  const runner = createScenarioRunner(typeof model === 'string' ? (JSON.parse(model) as Model) : model, options);
+  const count = runner.busIds.length;
+  const total = count * runner.evaluations;
   const buses = [];
   let last = Date.now();
-  for (let i = 0; i < total; i++) {
+  for (let i = 0; i < count; i++) {
     buses.push(runner.runBus(runner.busIds[i]));
     if (i % 10 === 9) {
       await yieldToLoop();
@@ -259,7 +260,7 @@ async function runInMainThread(
     }
     if (Date.now() - last > 250) {
       last = Date.now();
-      opts.onProgress?.(i + 1, total);
+      opts.onProgress?.((i + 1) * runner.evaluations, total);
     }
   }
   return {

@@ -386,6 +386,59 @@ export const placedDeviceSchema = z
   .meta({ id: 'PlacedDevice' });
 export type PlacedDevice = z.infer<typeof placedDeviceSchema>;
 
+/** The model as written: the base operating scenario, always evaluated. */
+export const BASE_SCENARIO_ID = 'base' as const;
+
+/** What an operating scenario may change on a source (unknown keys are rejected: a typo must not pass silently). */
+export const scenarioSourceOverrideSchema = z
+  .object({
+    inService: z.boolean().optional().describe('false: the source is out of service in this scenario'),
+    shortCircuitMva: positive.optional().describe('Utility only: available short-circuit MVA in this scenario'),
+    shortCircuitKa: positive.optional().describe('Utility only: available short-circuit kA in this scenario'),
+    xr: positive.optional().describe('X/R ratio in this scenario'),
+  })
+  .strict()
+  .superRefine((o, ctx) => {
+    if (o.shortCircuitMva !== undefined && o.shortCircuitKa !== undefined) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['shortCircuitMva'],
+        message: 'Give shortCircuitMva or shortCircuitKa, not both',
+      });
+    }
+  })
+  .meta({ id: 'ScenarioSourceOverride' });
+export type ScenarioSourceOverride = z.infer<typeof scenarioSourceOverrideSchema>;
+
+/**
+ * An operating state of the system (docs/MODEL-FORMAT.md, Operating scenarios): it overrides only what it names.
+ * A run evaluates the base (the model as written) and every scenario; each bus's label takes the scenario with the
+ * highest incident energy.
+ */
+export const scenarioSchema = z
+  .object({
+    id: elementIdSchema.refine((id) => id !== BASE_SCENARIO_ID, {
+      message: `"${BASE_SCENARIO_ID}" is the model as written; give the scenario another id`,
+    }),
+    name: nameSchema,
+    sources: z
+      .record(z.string(), scenarioSourceOverrideSchema)
+      .optional()
+      .describe('By source id: in service, available fault level, X/R'),
+    ties: z
+      .record(z.string(), z.object({ closed: z.boolean() }).strict())
+      .optional()
+      .describe('By tie id: open or closed'),
+    motors: z
+      .record(z.string(), z.object({ inService: z.boolean() }).strict())
+      .optional()
+      .describe('By motor id: running (in service) or stopped'),
+    allMotorsOff: z.boolean().optional().describe('true: every motor stopped (no motor contribution)'),
+  })
+  .strict()
+  .meta({ id: 'Scenario' });
+export type Scenario = z.infer<typeof scenarioSchema>;
+
 export const MODEL_FORMAT = 'emberline-model' as const;
 export const MODEL_VERSION = 1 as const;
 
@@ -403,6 +456,11 @@ export const modelSchema = z
     motors: z.array(motorSchema).default([]),
     ties: z.array(tieSchema).default([]),
     devices: z.array(placedDeviceSchema).default([]),
+    scenarios: z
+      .array(scenarioSchema)
+      .max(50, 'At most 50 scenarios')
+      .optional()
+      .describe('Operating scenarios evaluated besides the model as written (the base)'),
   })
   .meta({ id: 'SystemModel' });
 export type Model = z.infer<typeof modelSchema>;
@@ -444,7 +502,7 @@ const SAME_KV_TOLERANCE = 0.001;
 
 const relDiff = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), Number.MIN_VALUE);
 
-type Collection = 'buses' | 'sources' | 'transformers' | 'cables' | 'motors' | 'ties' | 'devices';
+type Collection = 'buses' | 'sources' | 'transformers' | 'cables' | 'motors' | 'ties' | 'devices' | 'scenarios';
 
 /** Disjoint-set forest over indices, with union by size and path halving. */
 class UnionFind {
@@ -731,6 +789,83 @@ export function validateModel(model: Model): ModelIssue[] {
       message: `no source (utility or generator) reaches ${members.length === 1 ? 'bus' : 'buses'} ${listIds(members)}`,
     });
   }
+
+  // Operating scenarios: references by id, what each override applies to, and the ties each one closes.
+  const scenarioIds = new Map<string, number>();
+  (model.scenarios ?? []).forEach((sc, i) => {
+    const first = scenarioIds.get(sc.id);
+    if (first !== undefined) {
+      add(
+        'duplicate-id',
+        'scenarios',
+        i,
+        sc.id,
+        'id',
+        `duplicate scenario id "${sc.id}" (first used at scenarios[${first}])`,
+      );
+    } else {
+      scenarioIds.set(sc.id, i);
+    }
+    const refs = (
+      map: Record<string, unknown> | undefined,
+      key: 'sources' | 'ties' | 'motors',
+      expected: Collection,
+      what: string,
+    ) => {
+      for (const id of Object.keys(map ?? {})) {
+        if (kindOf(id) !== expected) {
+          add('unknown-reference', 'scenarios', i, sc.id, `${key}.${id}`, `unknown ${what} "${id}"`);
+        }
+      }
+    };
+    refs(sc.sources, 'sources', 'sources', 'source');
+    refs(sc.ties, 'ties', 'ties', 'tie');
+    refs(sc.motors, 'motors', 'motors', 'motor');
+    for (const [id, o] of Object.entries(sc.sources ?? {})) {
+      const v = seen.get(id);
+      const source = v !== undefined && Math.floor(v / SHIFT) === 1 ? sources[v % SHIFT] : undefined;
+      if (source?.kind !== 'generator') continue;
+      for (const field of ['shortCircuitMva', 'shortCircuitKa'] as const) {
+        if (o[field] !== undefined) {
+          add(
+            'invalid-value',
+            'scenarios',
+            i,
+            sc.id,
+            `sources.${id}.${field}`,
+            `${field} applies to a utility source; "${id}" is a generator`,
+          );
+        }
+      }
+    }
+    const inService = sources.filter((s) => sc.sources?.[s.id]?.inService !== false);
+    if (sources.length > 0 && inService.length === 0) {
+      add(
+        'island',
+        'scenarios',
+        i,
+        sc.id,
+        'sources',
+        'no source (utility or generator) is in service in this scenario',
+      );
+    }
+    if (Object.keys(sc.ties ?? {}).length === 0) return; // the base's ties, checked above
+    const scenarioTies = new UnionFind(model.buses.length);
+    ties.forEach((t, k) => {
+      const closed = sc.ties?.[t.id]?.closed ?? t.closed !== false;
+      if (!tieOk[k] || !closed || relDiff(busKv(t.toBus), busKv(t.fromBus)) > SAME_KV_TOLERANCE) return;
+      if (!scenarioTies.union(busIndex.get(t.fromBus)!, busIndex.get(t.toBus)!)) {
+        add(
+          'tie-loop',
+          'scenarios',
+          i,
+          sc.id,
+          `ties.${t.id}`,
+          `closed ties form a loop in this scenario at tie "${t.id}" (open one tie in the scenario, or model it as a cable)`,
+        );
+      }
+    });
+  });
 
   return issues;
 }

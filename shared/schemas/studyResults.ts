@@ -95,6 +95,29 @@ export const arcCaseTraceSchema = z.object({
 });
 export type ArcCaseTrace = z.infer<typeof arcCaseTraceSchema>;
 
+/** What one operating scenario gives at a bus (the base is the model as written). */
+export const busScenarioSchema = z
+  .object({
+    scenarioId: z.string(),
+    name: z.string(),
+    /** 'de-energized': no source reaches the bus in this scenario (skipped, see note). */
+    status: z.enum(['ok', 'error', 'de-energized']),
+    note: z.string().optional(),
+    boltedFaultKa: z.number().optional(),
+    arcingCurrentKa: z.object({ full: z.number(), reduced: z.number() }).optional(),
+    governing: z
+      .object({ arcCase: z.enum(['full', 'reduced']), location: z.enum(['load-side', 'line-side']) })
+      .optional(),
+    arcDurationS: z.number().optional(),
+    clearingDeviceId: z.string().nullable().optional(),
+    clearingRegion: tripRegionSchema.nullable().optional(),
+    incidentEnergyJPerCm2: z.number().optional(),
+    incidentEnergyCalPerCm2: z.number().optional(),
+    arcFlashBoundaryMm: z.number().optional(),
+  })
+  .meta({ id: 'BusScenario' });
+export type BusScenario = z.infer<typeof busScenarioSchema>;
+
 export const busResultSchema = z
   .object({
     busId: z.string(),
@@ -138,6 +161,12 @@ export const busResultSchema = z
     clearingDeviceId: z.string().nullable().optional(),
     labelValues: labelValuesSchema.optional(),
     warnings: z.array(warning),
+    /**
+     * With operating scenarios in the model: the scenario whose result this is (the one with the highest incident
+     * energy, or the one that failed), and what every scenario gives at the bus. Absent when the model has none.
+     */
+    scenarioId: z.string().optional(),
+    scenarios: z.array(busScenarioSchema).optional(),
   })
   .meta({ id: 'BusResult' });
 export type BusResult = z.infer<typeof busResultSchema>;
@@ -155,6 +184,8 @@ export const studyResultsSchema = z
     motorDecayModel: z.enum(['step', 'exponential', 'higher']).default('step'),
     buses: z.array(busResultSchema),
     warnings: z.array(warning),
+    /** The scenarios evaluated, base first; absent when the model has none (only the base was evaluated). */
+    scenarios: z.array(z.object({ id: z.string(), name: z.string() })).optional(),
   })
   .meta({ id: 'StudyResults' });
 export type StudyResults = z.infer<typeof studyResultsSchema>;

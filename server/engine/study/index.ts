@@ -19,3 +19,10 @@ export {
   type ContributionProfile,
 } from './decrement';
 export { createTripIntegrator, operatingTimeS, type TripIntegrator } from './tripIntegration';
+export {
+  applyScenario,
+  createScenarioRunner,
+  scenariosOf,
+  BASE_SCENARIO_NAME,
+  type AppliedScenario,
+} from './scenarios';

@@ -1,5 +1,6 @@
 import type { Model } from '../../../shared/schemas/model';
-import { createStudyRunner, type StudyOptions } from './runStudy';
+import type { StudyOptions } from './runStudy';
+import { createScenarioRunner } from './scenarios';
 
 /** A whole run, serialized: the results as JSON text (stored as is) and the counts for the run's message. */
 export interface StudyRunOutcome {
@@ -9,7 +10,7 @@ export interface StudyRunOutcome {
 }
 
 /**
- * Every labelled bus in one call (the body of a study run in a worker thread): progress is reported after each bus
+ * Every labelled bus (in the base and every operating scenario) in one call (the body of a study run in a worker thread): progress is reported after each bus
  * at most every `progressEveryMs`, and the results are serialized here, off the server's main thread. Each bus is
  * serialized as soon as it is evaluated (its objects are dropped at once, so a large plant holds text, not object
  * graphs); the text is the same as `JSON.stringify` of the whole results.
@@ -20,19 +21,21 @@ export function runAllBuses(
   onProgress: (done: number, total: number) => void,
   progressEveryMs = 200,
 ): StudyRunOutcome {
-  const runner = createStudyRunner(model, options);
-  const total = runner.busIds.length;
+  const runner = createScenarioRunner(model, options);
+  const buses = runner.busIds.length;
+  // Progress counts evaluations: every bus in the base and in each operating scenario.
+  const total = buses * runner.evaluations;
   const busJson: string[] = [];
   let failed = 0;
   let last = Date.now();
   onProgress(0, total);
-  for (let i = 0; i < total; i++) {
+  for (let i = 0; i < buses; i++) {
     const bus = runner.runBus(runner.busIds[i]);
     if (bus.status === 'error') failed += 1;
     busJson.push(JSON.stringify(bus));
     if (Date.now() - last >= progressEveryMs) {
       last = Date.now();
-      onProgress(i + 1, total);
+      onProgress((i + 1) * runner.evaluations, total);
     }
   }
   return { resultsJson: withBuses(JSON.stringify(runner.finish([])), busJson), buses: busJson.length, failed };
