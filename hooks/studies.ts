@@ -1,5 +1,6 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ApproveInput, RunDto, StudyDto } from '../shared/schemas/studies';
+import type { ModelInput } from '../shared/schemas/model';
 import { contract } from '../shared/api';
 import { callApi } from './api';
 import { settleModelDraft } from './modelDrafts';
@@ -45,7 +46,7 @@ export function useStudyModel(id: string, enabled = true) {
 export function useSaveModel(id: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: { model: Record<string, unknown>; version: number }) =>
+    mutationFn: (input: { model: ModelInput; version: number }) =>
       callApi(contract.studies.saveModel, { params: { studyId: id }, body: input }),
     onSuccess: (env, input) => {
       qc.setQueryData(queryKeys.studies.model(id), env);

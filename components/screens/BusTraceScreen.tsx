@@ -2,7 +2,6 @@ import { useQueries } from '@tanstack/react-query';
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
 import { View } from 'react-native';
-import type { Device } from '../../shared/schemas/device';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
 import { REGION_LABELS } from '../../shared/tripRegions';
 import {
@@ -257,7 +256,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))
         .slice(0, 6)
     : [];
-  const modelDevices = (results.data?.devices ?? []) as unknown as { id: string; device: Device }[];
+  const modelDevices = results.data?.devices ?? [];
   const curves = useQueries({
     queries: plotted.map((d) => {
       const device = modelDevices.find((m) => m.id === d.deviceId)?.device;

@@ -121,7 +121,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   // copy, so a clean editor follows the server and unsaved edits are never overwritten silently.
   const stored = useModelDraft(study.id);
   const dirty = stored?.dirty ?? false;
-  const draft: ModelInput | null = stored?.draft ?? (envelope.data ? (envelope.data.model as ModelInput) : null);
+  const draft: ModelInput | null = stored?.draft ?? envelope.data?.model ?? null;
   const baseVersion = stored?.baseVersion ?? envelope.data?.version ?? 0;
 
   const deferred = useDeferredValue(draft);
@@ -138,7 +138,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
     setConflict(null);
     setSaved(null);
     save.mutate(
-      { model: draft as Record<string, unknown>, version: baseVersion },
+      { model: draft, version: baseVersion },
       {
         onSuccess: (env) => {
           // useSaveModel has put the saved model in the cache and dropped the draft.

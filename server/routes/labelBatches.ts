@@ -5,7 +5,6 @@ import { bind, type AnyRoute } from '../http/route';
 import { batchFile, createBatch, getBatch, renderLabelPdf } from '../services/labelBatches';
 import { admitLabelBatch } from '../services/labelBatchLimits';
 import { CAUTIONS } from '../../shared/cautions';
-import type { Model } from '../../shared/schemas/model';
 import { renderStudyReport } from '../pdf/studyReport';
 import { getOrganization } from '../services/organization';
 import { getResults } from '../services/runs';
@@ -57,7 +56,7 @@ export const studyReportRoute = bind(contract.labelBatches.studyReportPdf, {
       site: { name: site.name, address: site.address },
       study,
       results: results.results,
-      model: results.model as unknown as Model,
+      model: results.model,
       cautions: CAUTIONS,
     });
     res.setHeader('Content-Type', 'application/pdf');

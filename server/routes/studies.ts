@@ -105,17 +105,9 @@ export const studyIoRoutes: AnyRoute[] = [
           fields,
         );
       }
-      return saveModel(
-        ctx,
-        user,
-        params.studyId,
-        result.model as unknown as Record<string, unknown>,
-        null,
-        'study.model-imported',
-        {
-          files: files.map((f) => f.name),
-        },
-      );
+      return saveModel(ctx, user, params.studyId, result.model, null, 'study.model-imported', {
+        files: files.map((f) => f.name),
+      });
     },
   }),
   bind(contract.studies.exportModel, {

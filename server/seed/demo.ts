@@ -112,15 +112,7 @@ export async function seedDemo(
   });
   const old = at(new Date(approvedAt.getTime() - 2 * DAY));
   const pumpStudy = await createStudy(old, engineer, pump.id, { title: 'Arc-flash study, pump station' });
-  await saveModel(
-    old,
-    engineer,
-    pumpStudy.id,
-    pumpStationModel() as Record<string, unknown>,
-    null,
-    'study.model-imported',
-    { files: ['demo'] },
-  );
+  await saveModel(old, engineer, pumpStudy.id, pumpStationModel(), null, 'study.model-imported', { files: ['demo'] });
   await startRun(old, engineer, pumpStudy.id);
   await ctx.jobs.idle();
   await submitForReview(old, engineer, pumpStudy.id);
@@ -145,7 +137,7 @@ export async function seedDemo(
 
   // The facility: its study, run and approved today.
   const study = await createStudy(ctx, engineer, seeded.siteId, { title: 'Arc-flash study, whole facility' });
-  await saveModel(ctx, engineer, study.id, larkspurModel() as Record<string, unknown>, null, 'study.model-imported', {
+  await saveModel(ctx, engineer, study.id, larkspurModel(), null, 'study.model-imported', {
     files: ['demo'],
   });
   await startRun(ctx, engineer, study.id);

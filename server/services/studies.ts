@@ -1,6 +1,13 @@
 import { randomUUID } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
-import { MODEL_FORMAT, MODEL_VERSION, parseModel, type Model, type ModelIssue } from '../../shared/schemas/model';
+import {
+  MODEL_FORMAT,
+  MODEL_VERSION,
+  parseModel,
+  type Model,
+  type ModelInput,
+  type ModelIssue,
+} from '../../shared/schemas/model';
 import type { ApproveInput, EquipmentDto, ModelEnvelope, RunDto, StudyDto } from '../../shared/schemas/studies';
 import { Equipment, Site, Study, StudyRun, User } from '../db/models';
 import type { AppContext, AuthUser } from './context';
@@ -181,7 +188,8 @@ export function modelIssues(model: unknown): ModelIssue[] {
 
 export async function getModelEnvelope(actor: AuthUser, studyId: string): Promise<ModelEnvelope> {
   const study = await findStudy(actor, studyId);
-  const model = JSON.parse(study.model) as Record<string, unknown>;
+  // Stored through PUT (checked by draftModelSchema), an import or a new study: a draft, possibly with problems.
+  const model = JSON.parse(study.model) as ModelInput;
   return { model, version: study.modelVersion, issues: modelIssues(model) };
 }
 
@@ -203,7 +211,7 @@ type CapState = { capS: number | null; reason: string | null } | null;
  */
 export function arcDurationCapChanges(
   beforeJson: string | null | undefined,
-  after: Record<string, unknown>,
+  after: unknown,
 ): { busId: string; before: CapState; after: CapState }[] {
   const caps = (m: unknown): Map<string, CapState> => {
     const out = new Map<string, CapState>();
@@ -253,7 +261,7 @@ export async function saveModel(
   ctx: AppContext,
   actor: AuthUser,
   studyId: string,
-  model: Record<string, unknown>,
+  model: ModelInput,
   expectedVersion: number | null,
   action = 'study.model-updated',
   summary: Record<string, unknown> = {},

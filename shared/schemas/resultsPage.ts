@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { deviceSchema } from './device';
 import { runSchema } from './studies';
 import { busResultSchema, studyResultsSchema } from './studyResults';
 
@@ -129,7 +130,7 @@ export const busResultResponseSchema = z
     study: studyResultsSchema.omit({ buses: true }),
     bus: busResultSchema,
     /** The model's protective devices that appear in the bus's trace (to draw their bands). */
-    devices: z.array(z.object({ id: z.string(), device: z.record(z.string(), z.unknown()) })),
+    devices: z.array(z.object({ id: z.string(), device: deviceSchema })),
   })
   .meta({ id: 'StudyBusResult' });
 export type BusResultResponse = z.infer<typeof busResultResponseSchema>;

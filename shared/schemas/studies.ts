@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { printableName } from './text';
-import { modelIssueSchema } from './model';
+import { modelIssueSchema, modelSchema, type ModelInput } from './model';
 import { studyResultsSchema } from './studyResults';
 
 export const STUDY_STATUSES = ['draft', 'in-review', 'approved', 'superseded'] as const;
@@ -71,11 +71,53 @@ export const createStudySchema = z
   })
   .meta({ id: 'CreateStudy' });
 
+const isPlainObject = (v: unknown): v is Record<string, unknown> =>
+  typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** The model's element lists (buses, sources, …, scenarios): the fields of `modelSchema` that are arrays. */
+const MODEL_COLLECTIONS = Object.entries(modelSchema.shape)
+  .filter(([, field]) => {
+    let inner: z.ZodType = field;
+    while (inner instanceof z.ZodDefault || inner instanceof z.ZodOptional) inner = inner.unwrap() as z.ZodType;
+    return inner instanceof z.ZodArray;
+  })
+  .map(([key]) => key);
+
+/**
+ * The system model of a draft as saved: it may be incomplete or invalid (a draft keeps the engineer's work while it has
+ * problems), so it cannot be checked with `modelSchema`. It is typed as the model's input form (`ModelInput`), the shape
+ * the editor works on, and checked here for that shape's structure only: an object whose element lists, where given,
+ * are arrays of objects. The values are checked by `parseModel`, and the envelope's `issues` name what does not pass
+ * (docs/MODEL-FORMAT.md, Validation). The same check guards PUT, so whatever is saved reads back.
+ */
+export const draftModelSchema = z
+  .custom<ModelInput>(isPlainObject, { error: 'Send the model as an object' })
+  .superRefine((model, ctx) => {
+    const fields: unknown = model;
+    if (!isPlainObject(fields)) return; // reported by the check above
+    for (const key of MODEL_COLLECTIONS) {
+      const list = fields[key];
+      if (list === undefined) continue;
+      if (!Array.isArray(list)) {
+        ctx.addIssue({ code: 'custom', path: [key], message: `${key} must be a list` });
+        continue;
+      }
+      list.forEach((item, i) => {
+        if (!isPlainObject(item))
+          ctx.addIssue({ code: 'custom', path: [key, i], message: 'Each element is an object' });
+      });
+    }
+  })
+  .meta({
+    id: 'DraftModel',
+    type: 'object',
+    description:
+      'The system model (docs/MODEL-FORMAT.md, SystemModel); a draft may be incomplete or invalid: its issues are listed beside it',
+  });
+
 export const modelEnvelopeSchema = z
   .object({
-    model: z
-      .record(z.string(), z.unknown())
-      .describe('The system model (docs/MODEL-FORMAT.md); a draft may be incomplete'),
+    model: draftModelSchema,
     version: z
       .number()
       .int()
@@ -87,7 +129,7 @@ export type ModelEnvelope = z.infer<typeof modelEnvelopeSchema>;
 
 export const putModelSchema = z
   .object({
-    model: z.record(z.string(), z.unknown()),
+    model: draftModelSchema,
     version: z.number().int(),
   })
   .meta({ id: 'PutModel' });
@@ -105,7 +147,8 @@ export type ApproveInput = z.infer<typeof approveSchema>;
 export const resultsResponseSchema = z
   .object({
     run: runSchema,
-    model: z.record(z.string(), z.unknown()).describe('The model snapshot the results were computed from'),
+    /** The model the run computed: it passed `modelSchema` when the run started, and is stored parsed. */
+    model: modelSchema.describe('The model snapshot the results were computed from'),
     results: studyResultsSchema,
   })
   .meta({ id: 'StudyResultsResponse' });
