@@ -12,6 +12,7 @@ import { startRun } from '../services/runs';
 import { approveStudy, createStudy, saveModel, submitForReview } from '../services/studies';
 import { larkspurModel } from './larkspurModel';
 import { pumpStationModel } from './pumpStationModel';
+import { solidsBuildingModel } from './solidsBuildingModel';
 
 /** The invented demo scenario (docs/ARCHITECTURE.md, Demo data). Every name here is fictional. */
 export const DEMO_ORGANIZATION = 'Larkspur Valley Utility District';
@@ -27,6 +28,14 @@ export const DEMO_PUMP_STATION = {
   name: 'Larkspur Valley Raw Water Pump Station',
   address: '40 Intake Road, Larkspur Valley (fictional)',
   description: '12.47 kV tap, one 750 kVA unit substation at 480 V, a raw-water pump MCC and a power panel.',
+};
+/** A third site, its study still a draft: a double-ended substation described in operating scenarios. */
+export const DEMO_SOLIDS_BUILDING = {
+  name: 'Larkspur Valley Solids Handling Building',
+  address: '3 Reclamation Way, Larkspur Valley (fictional)',
+  description:
+    'Double-ended 480 V substation on two 12.47 kV feeders with a normally open tie, a dewatering MCC and a standby ' +
+    'generator; studied in four operating states.',
 };
 export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
   { email: 'admin@larkspur.example', name: 'Robin Okafor-Lind', role: 'admin' },
@@ -92,24 +101,26 @@ export async function seedDemo(
   // field report from twelve days ago still open. The dashboard then shows a review due, a label not installed and
   // an open report.
   const approvedAt = new Date(addMonths(now, -60).getTime() + 40 * DAY);
-  const pump = await ctx.db.sequelize.transaction(async (transaction) => {
-    const site = await Site.create(
-      { id: randomUUID(), organizationId: seeded.organizationId, ...DEMO_PUMP_STATION },
-      { transaction },
-    );
-    await recordAudit(
-      {
-        organizationId: seeded.organizationId,
-        actorId: engineer.id,
-        action: 'site.created',
-        entityType: 'site',
-        entityId: site.id,
-        summary: { name: site.name },
-      },
-      transaction,
-    );
-    return site;
-  });
+  const createSite = (details: typeof DEMO_PUMP_STATION) =>
+    ctx.db.sequelize.transaction(async (transaction) => {
+      const site = await Site.create(
+        { id: randomUUID(), organizationId: seeded.organizationId, ...details },
+        { transaction },
+      );
+      await recordAudit(
+        {
+          organizationId: seeded.organizationId,
+          actorId: engineer.id,
+          action: 'site.created',
+          entityType: 'site',
+          entityId: site.id,
+          summary: { name: site.name },
+        },
+        transaction,
+      );
+      return site;
+    });
+  const pump = await createSite(DEMO_PUMP_STATION);
   const old = at(new Date(approvedAt.getTime() - 2 * DAY));
   const pumpStudy = await createStudy(old, engineer, pump.id, { title: 'Arc-flash study, pump station' });
   await saveModel(old, engineer, pumpStudy.id, pumpStationModel(), null, 'study.model-imported', { files: ['demo'] });
@@ -157,5 +168,17 @@ export async function seedDemo(
       null,
     );
   }
+
+  // The solids handling building: a draft study with operating scenarios, run and not yet submitted (its labels are
+  // taken from the worst scenario at each bus).
+  const solids = await createSite(DEMO_SOLIDS_BUILDING);
+  const solidsStudy = await createStudy(ctx, engineer, solids.id, {
+    title: 'Arc-flash study with operating scenarios',
+  });
+  await saveModel(ctx, engineer, solidsStudy.id, solidsBuildingModel(), null, 'study.model-imported', {
+    files: ['demo'],
+  });
+  await startRun(ctx, engineer, solidsStudy.id);
+  await ctx.jobs.idle();
   return { ...seeded, studyId: study.id };
 }

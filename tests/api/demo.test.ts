@@ -59,9 +59,34 @@ describe('the invented demo', () => {
       'superseded-installed': 0,
       'stale-studies': 0,
     });
-    expect(res.body.sites).toHaveLength(2);
+    // Every site is listed: the facility, the pump station and the solids handling building (draft study).
+    expect(res.body.sites).toHaveLength(3);
     // Reminder rules are in place from the start, so nobody has to remember to send anything.
     const rules = await request(t.app).get('/api/reminder-rules').set('Authorization', `Bearer ${token}`);
     expect(rules.body.rules.length).toBeGreaterThan(0);
+  });
+
+  it('seeds a third site whose draft study is run in four operating scenarios, each label from the worst', async () => {
+    const token = (
+      await request(t.app)
+        .post('/api/auth/sign-in')
+        .send({ email: 'engineer@larkspur.example', password: 'demo-password-123' })
+    ).body.token;
+    const auth = { Authorization: `Bearer ${token}` };
+    const sites = (await request(t.app).get('/api/sites').set(auth)).body.sites as { id: string; name: string }[];
+    const solids = sites.find((s) => s.name === 'Larkspur Valley Solids Handling Building');
+    expect(solids).toBeDefined();
+    const studies = (await request(t.app).get(`/api/sites/${solids!.id}/studies`).set(auth)).body.studies as {
+      id: string;
+      status: string;
+    }[];
+    expect(studies.map((s) => s.status)).toEqual(['draft']);
+    const results = await request(t.app).get(`/api/studies/${studies[0].id}/results?pageSize=500`).set(auth);
+    expect(results.status).toBe(200);
+    expect(results.body.run.message).toMatch(/4 operating scenarios/);
+    const rows = results.body.rows as { busId: string; scenarioId: string | null }[];
+    expect(rows.length).toBe(3);
+    // Hand-worked in tests/engine/study-scenarios.test.ts: at 15 MVA the mains' short-time pickup is not reached.
+    expect(rows.find((r) => r.busId === 'SH-A')!.scenarioId).toBe('util-min');
   });
 });

@@ -1,6 +1,5 @@
 export {
   createStudyRunner,
-  runStudy,
   DEFAULT_MOTOR_DECAY_CYCLES,
   DEFAULT_MOTOR_DECAY_MODEL,
   type MotorDecayModel,
@@ -22,6 +21,7 @@ export { createTripIntegrator, operatingTimeS, type TripIntegrator } from './tri
 export {
   applyScenario,
   createScenarioRunner,
+  runStudy,
   scenariosOf,
   BASE_SCENARIO_NAME,
   type AppliedScenario,

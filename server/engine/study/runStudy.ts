@@ -1024,9 +1024,3 @@ function dedupe(ws: EngineWarning[]): EngineWarning[] {
     return true;
   });
 }
-
-/** All buses at once (tests, benchmarks). */
-export function runStudy(model: Model, options: StudyOptions = {}): StudyResults {
-  const runner = createStudyRunner(model, options);
-  return runner.finish(runner.busIds.map((id) => runner.runBus(id)));
-}

@@ -207,3 +207,9 @@ export function createScenarioRunner(model: Model, options: StudyOptions = {}): 
     },
   };
 }
+
+/** All buses at once, in the base and every scenario (tests, benchmarks). */
+export function runStudy(model: Model, options: StudyOptions = {}): StudyResults {
+  const runner = createScenarioRunner(model, options);
+  return runner.finish(runner.busIds.map((id) => runner.runBus(id)));
+}
