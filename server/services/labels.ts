@@ -88,7 +88,7 @@ export function labelContents(
         restrictedApproach: lv.shockApproach?.restrictedApproach.text ?? null,
         gloveClass: lv.gloveClass ? `Class ${lv.gloveClass.class}` : null,
         clearingDevice: governing?.clearingDeviceId ? deviceName(governing, governing.clearingDeviceId) : null,
-        governingCase: `${b.governing?.arcCase === 'reduced' ? 'reduced' : 'full'} arcing current${b.governing?.location === 'line-side' ? ', line side of the main' : ''}`,
+        governingCase: `${b.governing?.arcCase === 'reduced' ? 'reduced' : 'full'} arcing current${b.governing?.location === 'line-side' ? ', line side of the main' : ''}${scenarioNote(b)}`,
         studyTitle: study.title,
         studyRevision: study.revision,
         studyDate: day(approvedAt),
@@ -103,6 +103,12 @@ export function labelContents(
     });
   }
   return out;
+}
+
+/** With operating scenarios, the one the label is taken from (the highest incident energy): ", scenario “…”". */
+function scenarioNote(b: StudyResults['buses'][number]): string {
+  const name = b.scenarios?.find((s) => s.scenarioId === b.scenarioId)?.name;
+  return name ? `, scenario “${name}”` : '';
 }
 
 /**
