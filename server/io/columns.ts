@@ -6,6 +6,7 @@ import {
   cableSchema,
   motorSchema,
   placedDeviceSchema,
+  scenarioSchema,
   sourceSchema,
   tieSchema,
   transformerSchema,
@@ -22,6 +23,8 @@ import {
  * (`equipment.enclosureMm.height`); units are part of the names (`nominalKv`, `gapMm`, `lengthM`). The columns are
  * generated from the zod shapes of shared/schemas/model.ts, in the order of the shapes, so a field added there is a
  * column here. Device settings are too deep for flat columns: a device row carries its device object as JSON.
+ * Operating scenarios are nested records (by source, tie and motor id): their table has one row per scenario and
+ * element it overrides (`scenarioColumns`).
  */
 
 // ---------------------------------------------------------------------------------------------
@@ -65,8 +68,13 @@ export type ParsedModelFile =
 
 export const ELEMENT_TABLES = ['buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices'] as const;
 export type ElementTable = (typeof ELEMENT_TABLES)[number];
-/** Every table of the flat format: the `about` table (model-level fields) and one per element type. */
-export const MODEL_TABLES = ['about', ...ELEMENT_TABLES] as const;
+/** The operating scenarios' table: one row per scenario and element (source, tie or motor) it overrides. */
+export const SCENARIO_TABLE = 'scenarios' as const;
+/**
+ * Every table of the flat format: the `about` table (model-level fields), one per element type, and the operating
+ * scenarios.
+ */
+export const MODEL_TABLES = ['about', ...ELEMENT_TABLES, SCENARIO_TABLE] as const;
 export type ModelTable = (typeof MODEL_TABLES)[number];
 
 /** Sheet names in the workbook (also the display names of the CSV files' tables). */
@@ -79,6 +87,7 @@ export const TABLE_TITLES: Record<ModelTable, string> = {
   motors: 'Motors',
   ties: 'Ties',
   devices: 'Devices',
+  scenarios: 'Scenarios',
 };
 
 /**
@@ -98,7 +107,12 @@ export interface Column {
   when?: { column: string; values: readonly string[] };
   /** Short help for the header cell (workbook note). */
   note?: string;
+  /** Scenarios table: the kinds of element (the row's `element`) an override column applies to. */
+  elementKinds?: readonly ScenarioElementKind[];
 }
+
+/** The kinds of element an operating scenario overrides, found from the model's ids on import. */
+export type ScenarioElementKind = 'source' | 'tie' | 'motor';
 
 /**
  * Spreadsheet help for the header cells (workbook notes), by header. The headers themselves, their types, whether
@@ -268,6 +282,63 @@ function elementColumns(table: ElementTable): Column[] {
   }));
 }
 
+/** The scenario's maps of overrides, by element id, and the kind of element each map holds. */
+const SCENARIO_MAPS: Record<string, ScenarioElementKind> = { sources: 'source', ties: 'tie', motors: 'motor' };
+/** Headers of the scenario's own fields where the field name alone would be ambiguous beside an element's. */
+const SCENARIO_HEADERS: Record<string, string> = { id: 'scenario', name: 'scenarioName' };
+/** The column that names the element a row overrides. */
+const ELEMENT_HEADER = 'element';
+
+const SCENARIO_NOTES: Record<string, string> = {
+  scenario: 'Scenario id (not base: the model as written is the base); one row per element it overrides',
+  scenarioName: 'Scenario name, on any one of its rows',
+  allMotorsOff: "TRUE: every motor stopped in this scenario (a motor's own row wins), on any one of its rows",
+  element: 'Source, tie or motor id whose state this row changes; empty on a row that only gives the scenario',
+  inService: 'Source or motor: FALSE out of service (motor stopped), TRUE in service; empty: as in the model',
+  shortCircuitMva: 'Utility source: available three-phase MVA in this scenario (or kA); empty: as in the model',
+  shortCircuitKa: 'Utility source: available three-phase kA in this scenario (or MVA); empty: as in the model',
+  xr: 'Source: X/R ratio in this scenario; empty: as in the model',
+  closed: 'Tie: TRUE closed or FALSE open in this scenario',
+};
+
+/**
+ * The columns of the Scenarios table, from the zod shape of a scenario: the scenario's own fields (`id` as
+ * `scenario`, `name` as `scenarioName`, `allMotorsOff`), then `element` (a source, tie or motor id), then the fields
+ * of the overrides, each once, with the kinds of element it applies to.
+ */
+function scenarioColumns(): Column[] {
+  const level: Column[] = [];
+  const overrides: Column[] = [];
+  for (const [key, field] of Object.entries(scenarioSchema.shape)) {
+    const inner = (field instanceof z.ZodOptional ? field.unwrap() : field) as z.ZodType;
+    if (inner instanceof z.ZodRecord) {
+      const kind = SCENARIO_MAPS[key];
+      if (!kind || !(inner.valueType instanceof z.ZodObject)) throw new Error(`No columns for scenarios.${key}`);
+      for (const c of objectColumns(inner.valueType, [], false)) {
+        const known = overrides.find((x) => x.header === c.header);
+        if (known) known.elementKinds = [...known.elementKinds!, kind];
+        else overrides.push({ ...c, elementKinds: [kind] });
+      }
+    } else {
+      const header = SCENARIO_HEADERS[key] ?? key;
+      const [c] = objectColumns(z.object({ [header]: field }), [], true);
+      level.push(c);
+    }
+  }
+  const columns = [...level, { header: ELEMENT_HEADER, path: [ELEMENT_HEADER], type: 'string' as const }, ...overrides];
+  const orphan = Object.keys(SCENARIO_NOTES).find((h) => !columns.some((c) => c.header === h));
+  if (orphan) throw new Error(`Note for scenarios.${orphan}, which is not a column`);
+  return columns.map(({ required, ...c }) => ({
+    ...c,
+    ...(required ? { required } : {}),
+    ...(SCENARIO_NOTES[c.header] ? { note: SCENARIO_NOTES[c.header] } : {}),
+  }));
+}
+
+/** Which scenario field a scenario-level column holds: `scenarioName` → `name`. */
+const scenarioFieldOf = (header: string) =>
+  Object.entries(SCENARIO_HEADERS).find(([, h]) => h === header)?.[0] ?? header;
+
 export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
   about: [
     { header: 'field', path: ['field'], type: 'string', required: true },
@@ -281,6 +352,7 @@ export const TABLE_COLUMNS: Record<ModelTable, readonly Column[]> = {
   motors: elementColumns('motors'),
   ties: elementColumns('ties'),
   devices: elementColumns('devices'),
+  scenarios: scenarioColumns(),
 };
 
 /** Model-level fields listed in the About table, with how their value is read. */
@@ -297,6 +369,7 @@ export const ABOUT_NOTES = [
   `One table per element type: ${ELEMENT_TABLES.map((t) => TABLE_TITLES[t]).join(', ')}. One row per element; empty rows are skipped.`,
   'Headers are the field names of the JSON model format; nested fields are joined by dots (equipment.enclosureMm.height). Units are part of the names: Kv kV, Mm mm, M metres, Pct percent, OhmPerKm ohm/km.',
   'Leave a cell empty where the field does not apply or its default is wanted. Booleans: TRUE or FALSE (yes or no).',
+  'Scenarios: one row per operating scenario and source, tie or motor (element) whose state it changes; a row with no element gives a scenario that changes nothing else or only allMotorsOff. scenarioName and allMotorsOff may stand on any one row of the scenario. An empty cell keeps the model as written. The model as written (base) is always run besides.',
   'Devices: the device column holds the device object (relay, fuse, band, thermal-magnetic or electronic) as JSON, and the library column the library reference as JSON, because device settings are too deep for flat columns. device.kind repeats the kind for sorting and filtering.',
   'Unknown sheets, files and columns are rejected, so that a misspelt header is not silently ignored.',
 ];
@@ -351,9 +424,36 @@ export function tableRows(model: Model, table: ModelTable): (string | number | b
     ]);
     return [...rows, ...ABOUT_NOTES.map((note) => [null, null, note])];
   }
+  if (table === SCENARIO_TABLE) return scenarioRows(model);
   const columns = TABLE_COLUMNS[table];
   const elements = (model[table] ?? []) as unknown[];
   return elements.map((element) => columns.map((c) => toCell(c, getPath(element, c.path))));
+}
+
+/**
+ * The Scenarios rows: one per scenario and element it overrides, the scenario's own fields on its first row; a
+ * scenario that overrides no element has one row with no element. No scenarios, no rows.
+ */
+function scenarioRows(model: Model): (string | number | boolean | null)[][] {
+  const columns = TABLE_COLUMNS.scenarios;
+  const row = (values: Record<string, unknown>) => columns.map((c) => toCell(c, values[c.header]));
+  const rows: (string | number | boolean | null)[][] = [];
+  for (const scenario of model.scenarios ?? []) {
+    const own: Record<string, unknown> = {};
+    for (const c of columns) {
+      if (c.elementKinds || c.header === ELEMENT_HEADER) continue;
+      own[c.header] = (scenario as Record<string, unknown>)[scenarioFieldOf(c.header)];
+    }
+    const overrides = Object.keys(SCENARIO_MAPS).flatMap((key) =>
+      Object.entries((scenario as Record<string, unknown>)[key] ?? {}).map(([id, o]) => ({
+        [ELEMENT_HEADER]: id,
+        ...(o as Record<string, unknown>),
+      })),
+    );
+    if (overrides.length === 0) rows.push(row(own));
+    overrides.forEach((o, i) => rows.push(row({ ...(i === 0 ? own : { [SCENARIO_HEADERS.id]: scenario.id }), ...o })));
+  }
+  return rows;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -597,6 +697,118 @@ export function describePlace(e: Pick<ImportError, 'file' | 'sheet' | 'row' | 'c
 
 export const withPlace = (e: Omit<ImportError, 'where'>): ImportError => ({ ...e, where: describePlace(e) });
 
+/** Where each part of one operating scenario was read from. */
+interface ScenarioPlace {
+  /** The scenario's first row. */
+  firstRow: number;
+  /** Row of each scenario-level field given (`name`, `allMotorsOff`). */
+  fieldRows: Map<string, number>;
+  /** By map (`sources`, `ties`, `motors`): the row of each element overridden. */
+  elementRows: Map<string, Map<string, number>>;
+}
+
+/**
+ * The kind of each source, tie and motor id of the upload, from the raw id cells of those tables (so that a row with
+ * another problem still counts), first table first.
+ */
+function elementKindsOf(sources: TableSource[]): Map<string, ScenarioElementKind> {
+  const kinds = new Map<string, ScenarioElementKind>();
+  for (const [key, kind] of Object.entries(SCENARIO_MAPS)) {
+    const source = sources.find((s) => s.table === key);
+    const at = source?.header.findIndex((c) => typeof c === 'string' && headerKey(c) === 'id') ?? -1;
+    if (!source || at < 0) continue;
+    for (const { cells } of source.rows) {
+      const cell = cells[at];
+      const id = typeof cell === 'string' || typeof cell === 'number' ? String(cell).trim() : '';
+      if (id !== '' && !kinds.has(id)) kinds.set(id, kind);
+    }
+  }
+  return kinds;
+}
+
+/**
+ * Turns the Scenarios rows into the model's scenarios: rows of one scenario id are gathered in the order they first
+ * appear; each row with an element adds that element's override to the map of its kind (found from the model's ids).
+ * An unknown element, a value that does not apply to the element's kind, an element given twice in a scenario and
+ * two different values of a scenario-level field are errors at their cell.
+ */
+function readScenarios(
+  read: ReadTable,
+  objects: Record<string, unknown>[],
+  kinds: Map<string, ScenarioElementKind>,
+  errors: Located[],
+): { scenarios: Record<string, unknown>[]; places: ScenarioPlace[] } {
+  const { source } = read;
+  const where = { file: source.file, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) };
+  const rowWord = source.sheet !== undefined ? 'row' : 'line';
+  const label = (header: string) => read.columns.find((c) => c.column.header === header)?.label ?? header;
+  const columns = TABLE_COLUMNS.scenarios;
+  const mapOf = (kind: ScenarioElementKind) => Object.keys(SCENARIO_MAPS).find((k) => SCENARIO_MAPS[k] === kind)!;
+  const scenarios: Record<string, unknown>[] = [];
+  const places: ScenarioPlace[] = [];
+  const indexOf = new Map<string, number>();
+  objects.forEach((object, i) => {
+    const row = read.rowOf[i];
+    const fail = (header: string, message: string) => errors.push({ ...where, row, column: label(header), message });
+    const id = object[SCENARIO_HEADERS.id] as string;
+    let k = indexOf.get(id);
+    if (k === undefined) {
+      k = scenarios.length;
+      indexOf.set(id, k);
+      scenarios.push({ id });
+      places.push({ firstRow: row, fieldRows: new Map(), elementRows: new Map() });
+    }
+    const scenario = scenarios[k];
+    const place = places[k];
+    for (const c of columns) {
+      if (c.elementKinds || c.header === ELEMENT_HEADER || c.header === SCENARIO_HEADERS.id) continue;
+      const value = object[c.header];
+      if (value === undefined) continue;
+      const field = scenarioFieldOf(c.header);
+      const before = place.fieldRows.get(field);
+      if (before === undefined) {
+        scenario[field] = value;
+        place.fieldRows.set(field, row);
+      } else if (scenario[field] !== value) {
+        fail(c.header, `Scenario "${id}" has another ${c.header} on ${rowWord} ${before}: give it once`);
+      }
+    }
+    const given = columns.filter((c) => c.elementKinds && object[c.header] !== undefined);
+    const element = object[ELEMENT_HEADER] as string | undefined;
+    if (element === undefined) {
+      for (const c of given) fail(c.header, `Give the element (a source, tie or motor id) that ${c.header} applies to`);
+      return;
+    }
+    const kind = kinds.get(element);
+    if (!kind) {
+      fail(ELEMENT_HEADER, `Unknown element "${element}": give the id of a source, tie or motor of the model`);
+      return;
+    }
+    const misplaced = given.filter((c) => !c.elementKinds!.includes(kind));
+    for (const c of misplaced) {
+      fail(c.header, `${c.header} applies to a ${c.elementKinds!.join(' or ')}; "${element}" is a ${kind}`);
+    }
+    if (misplaced.length > 0) return;
+    const key = mapOf(kind);
+    const rows = place.elementRows.get(key) ?? place.elementRows.set(key, new Map()).get(key)!;
+    const first = rows.get(element);
+    if (first !== undefined) {
+      fail(ELEMENT_HEADER, `Scenario "${id}" already changes "${element}" on ${rowWord} ${first}: give it on one row`);
+      return;
+    }
+    rows.set(element, row);
+    const map = (scenario[key] ??= {}) as Record<string, unknown>;
+    // An id is any text: defined as an own property, so that an id like "__proto__" stays a key.
+    Object.defineProperty(map, element, {
+      value: Object.fromEntries(given.map((c) => [c.header, object[c.header]])),
+      enumerable: true,
+      writable: true,
+      configurable: true,
+    });
+  });
+  return { scenarios, places };
+}
+
 /** Splits a model path `cables[2].equipment.gapMm` into collection, index and the field inside the element. */
 function splitPath(path: string): { collection: string; index?: number; field?: string } {
   const m = /^([A-Za-z]+)(?:\[(\d+)\])?(?:\.?(.*))?$/.exec(path);
@@ -613,21 +825,34 @@ export function readTables(sources: TableSource[], workbookFile?: string): Parse
   const errors: Located[] = [];
   const reads = new Map<ModelTable, ReadTable>();
   const input: Record<string, unknown> = { format: MODEL_FORMAT, version: MODEL_VERSION };
+  let scenarioTable: { read: ReadTable; objects: Record<string, unknown>[] } | undefined;
   for (const source of sources) {
     // A blank sheet or file stands for an empty table.
     if (source.header.every(isBlank) && source.rows.every((r) => r.cells.every(isBlank))) continue;
     const { read, objects } = readTable(source, errors);
     reads.set(source.table, read);
     if (source.table === 'about') Object.assign(input, readAbout(read, objects, errors));
+    else if (source.table === SCENARIO_TABLE) scenarioTable = { read, objects };
     else input[source.table] = objects;
   }
   if (!input.buses) input.buses = [];
+  // Scenarios last: an element's kind comes from the ids of the other tables. No rows, no `scenarios` key.
+  let scenarioPlaces: ScenarioPlace[] = [];
+  if (scenarioTable) {
+    const read = readScenarios(scenarioTable.read, scenarioTable.objects, elementKindsOf(sources), errors);
+    if (read.scenarios.length > 0) input.scenarios = read.scenarios;
+    scenarioPlaces = read.places;
+  }
   if (errors.length > 0) return { ok: false, errors: errors.map(withPlace) };
 
   const locate = (issue: ModelIssue): ImportError => {
     const { collection, index, field: pathField } = splitPath(issue.path);
     const isElement = (ELEMENT_TABLES as readonly string[]).includes(collection);
-    const table: ModelTable = isElement ? (collection as ElementTable) : 'about';
+    const table: ModelTable = isElement
+      ? (collection as ElementTable)
+      : collection === SCENARIO_TABLE
+        ? SCENARIO_TABLE
+        : 'about';
     const read = reads.get(table);
     const detail = {
       path: issue.path,
@@ -645,6 +870,9 @@ export function readTables(sources: TableSource[], workbookFile?: string): Parse
       ...(read.source.sheet !== undefined ? { sheet: read.source.sheet } : {}),
       ...detail,
     };
+    if (table === SCENARIO_TABLE) {
+      return withPlace({ ...base, ...scenarioCell(read, scenarioPlaces[index ?? -1], issue.field ?? pathField) });
+    }
     if (!isElement) {
       const row = read.fieldRows.get(collection);
       const valueLabel = read.columns.find((c) => c.column.header === 'value')?.label ?? 'value';
@@ -665,6 +893,39 @@ export function readTables(sources: TableSource[], workbookFile?: string): Parse
     return withPlace({ ...base, ...(row !== undefined ? { row } : {}), ...(column !== undefined ? { column } : {}) });
   };
   return { ok: true, input, locate };
+}
+
+/**
+ * The row and column of a scenario's field (`name`, `allMotorsOff`) or of one element's override in it
+ * (`sources.UTIL-1.shortCircuitMva`, `ties.TIE-1`): ids may hold dots, so the longest id of the map that the path
+ * starts with is the element.
+ */
+function scenarioCell(read: ReadTable, place: ScenarioPlace | undefined, field: string | undefined) {
+  if (!place) return {};
+  const at = (row: number, header: string) => ({
+    row,
+    column: read.columns.find((c) => c.column.header === header)?.label ?? header,
+  });
+  if (field === undefined) return { row: place.firstRow };
+  const head = field.split('.')[0];
+  if (Object.hasOwn(SCENARIO_MAPS, head)) {
+    const rest = field.slice(head.length + 1);
+    const ids = [...(place.elementRows.get(head) ?? new Map<string, number>())].sort(
+      (a, b) => b[0].length - a[0].length,
+    );
+    for (const [id, row] of ids) {
+      if (rest === id) return at(row, ELEMENT_HEADER);
+      if (rest.startsWith(`${id}.`)) {
+        const sub = rest.slice(id.length + 1).split('.')[0];
+        const column = TABLE_COLUMNS.scenarios.find((c) => c.elementKinds && c.header === sub);
+        return at(row, column ? column.header : ELEMENT_HEADER);
+      }
+    }
+    return at(place.firstRow, SCENARIO_HEADERS.id);
+  }
+  const header = Object.hasOwn(SCENARIO_HEADERS, head) ? SCENARIO_HEADERS[head] : head;
+  const known = TABLE_COLUMNS.scenarios.some((c) => !c.elementKinds && c.header === header);
+  return at(place.fieldRows.get(head) ?? place.firstRow, known ? header : SCENARIO_HEADERS.id);
 }
 
 /** Which table a sheet or file name stands for (case-insensitive), or undefined. */

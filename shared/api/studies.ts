@@ -158,7 +158,9 @@ export const studiesApi = {
     access: ['engineer', 'safety', 'admin'],
     query: z.object({
       format: z.enum(['json', 'xlsx', 'csv']).default('json'),
-      element: z.enum(['about', 'buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices']).optional(),
+      element: z
+        .enum(['about', 'buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices', 'scenarios'])
+        .optional(),
     }),
     produces: 'application/octet-stream',
   }),

@@ -1,7 +1,7 @@
 import ExcelJS from 'exceljs';
 import request from 'supertest';
 import { modelSchema } from '../../shared/schemas/model';
-import { exportModelCsv, exportModelWorkbook } from '../../server/io';
+import { MODEL_TABLES, exportModelCsv, exportModelWorkbook } from '../../server/io';
 import { smallModel } from '../fixtures/smallModel';
 import { isClose } from '../helpers/approx';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
@@ -69,6 +69,8 @@ describe('import and export of the model through the API', () => {
       .attach('files', xlsx, 'plant.xlsx');
     expect(res.status).toBe(200);
     expect(res.body.issues).toEqual([]);
+    // A model without operating scenarios comes back without the key (docs/MODEL-FORMAT.md, Operating scenarios).
+    expect(res.body.model).not.toHaveProperty('scenarios');
     original = await runResults(firstId);
     expect(original.buses).toHaveLength(3);
   });
@@ -158,5 +160,102 @@ describe('import and export of the model through the API', () => {
       .post(`/api/studies/${id}/import`)
       .set(...eng());
     expect(none.status).toBe(400);
+  });
+});
+
+/** A file downloaded from the export route, as bytes. */
+async function download(studyId: string, query: string): Promise<Buffer> {
+  const res = await request(t.app)
+    .get(`/api/studies/${studyId}/export?${query}`)
+    .set(...eng())
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+  expect(res.status).toBe(200);
+  return res.body as Buffer;
+}
+
+describe('operating scenarios through import and export (docs/MODEL-FORMAT.md, Operating scenarios)', () => {
+  // Common practice, no source: export then import gives the same model, scenarios included.
+  const scenarios = [
+    { id: 'util-min', name: 'Utility minimum', sources: { UTIL: { shortCircuitMva: 100, xr: 6 } } },
+    { id: 'pump-off', motors: { 'P-1': { inService: false } }, allMotorsOff: false },
+    { id: 'no-motors', name: 'Motors stopped', allMotorsOff: true },
+  ];
+  const model = () => modelSchema.parse({ ...smallModel(), scenarios });
+  let sourceId = '';
+
+  it('a workbook with scenarios imports them', async () => {
+    sourceId = await newStudy('Scenarios from workbook');
+    const res = await request(t.app)
+      .post(`/api/studies/${sourceId}/import`)
+      .set(...eng())
+      .attach('files', await exportModelWorkbook(model()), 'plant.xlsx');
+    expect(res.status).toBe(200);
+    expect(res.body.model.scenarios).toEqual(scenarios);
+  });
+
+  it('scenarios.csv is one of the CSV tables the export route gives', async () => {
+    const text = (await download(sourceId, 'format=csv&element=scenarios')).toString('utf8');
+    expect(text.replace(/^\uFEFF/, '').split('\r\n')).toEqual([
+      'scenario,scenarioName,allMotorsOff,element,inService,shortCircuitMva,shortCircuitKa,xr,closed',
+      'util-min,Utility minimum,,UTIL,,100,,6,',
+      'pump-off,,false,P-1,false,,,,',
+      'no-motors,Motors stopped,true,,,,,,',
+      '',
+    ]);
+  });
+
+  it.each(['xlsx', 'json', 'csv'] as const)('export as %s → import into a new study keeps them', async (format) => {
+    const id = await newStudy(`Scenarios round trip ${format}`);
+    let req = request(t.app)
+      .post(`/api/studies/${id}/import`)
+      .set(...eng());
+    if (format === 'csv') {
+      for (const table of MODEL_TABLES) {
+        req = req.attach('files', await download(sourceId, `format=csv&element=${table}`), `${table}.csv`);
+      }
+    } else {
+      req = req.attach('files', await download(sourceId, `format=${format}`), `plant.${format}`);
+    }
+    const res = await req;
+    expect(res.status).toBe(200);
+    const before = (
+      await request(t.app)
+        .get(`/api/studies/${sourceId}/model`)
+        .set(...eng())
+    ).body.model;
+    expect(res.body.model).toEqual(before);
+    expect(res.body.model.scenarios).toEqual(scenarios);
+  });
+
+  it('an unknown element in the Scenarios sheet: 400 naming sheet, row and column, nothing written', async () => {
+    const id = await newStudy('Scenarios bad import');
+    const before = (
+      await request(t.app)
+        .get(`/api/studies/${id}/model`)
+        .set(...eng())
+    ).body;
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.load((await exportModelWorkbook(model())) as unknown as ArrayBuffer);
+    book.getWorksheet('Scenarios')!.getCell('D3').value = 'P-9';
+    const res = await request(t.app)
+      .post(`/api/studies/${id}/import`)
+      .set(...eng())
+      .attach('files', Buffer.from(await book.xlsx.writeBuffer()), 'plant.xlsx');
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual({
+      'Scenarios row 3, element (D)': 'Unknown element "P-9": give the id of a source, tie or motor of the model',
+    });
+    const after = (
+      await request(t.app)
+        .get(`/api/studies/${id}/model`)
+        .set(...eng())
+    ).body;
+    expect(after.version).toBe(before.version);
+    expect(after.model).toEqual(before.model);
   });
 });

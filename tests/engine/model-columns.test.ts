@@ -71,7 +71,23 @@ const FORMAT_FIELDS: Record<ElementTable, string[]> = {
   devices: ['id', 'name', 'branch', 'end', 'source', 'device.kind', 'device', 'library'],
 };
 
-const byHeader = (table: ElementTable) => new Map(TABLE_COLUMNS[table].map((c) => [c.header, c]));
+// docs/MODEL-FORMAT.md, Operating scenarios: one row per scenario and element it overrides. The scenario's own
+// fields (id as scenario, name as scenarioName, allMotorsOff), the element's id, then the override fields, each with
+// the kinds of element it applies to: a source's inService, shortCircuitMva or shortCircuitKa and xr, a tie's closed,
+// a motor's inService.
+const SCENARIO_COLUMNS: [string, string[] | undefined][] = [
+  ['scenario', undefined],
+  ['scenarioName', undefined],
+  ['allMotorsOff', undefined],
+  ['element', undefined],
+  ['inService', ['source', 'motor']],
+  ['shortCircuitMva', ['source']],
+  ['shortCircuitKa', ['source']],
+  ['xr', ['source']],
+  ['closed', ['tie']],
+];
+
+const byHeader = (table: ElementTable | 'scenarios') => new Map(TABLE_COLUMNS[table].map((c) => [c.header, c]));
 
 describe('model tables generated from the zod shapes', () => {
   it('every field of the JSON format is a column, and nothing else (docs/MODEL-FORMAT.md)', () => {
@@ -131,6 +147,19 @@ describe('model tables generated from the zod shapes', () => {
     expect(devices.get('library')?.type).toBe('json');
     expect(devices.get('device.kind')?.type).toBe('string');
     expect(devices.get('device.kind')?.required).toBeUndefined();
+  });
+
+  it('scenarios: one column per scenario field, the element, and each override field once (docs/MODEL-FORMAT.md)', () => {
+    expect(TABLE_COLUMNS.scenarios.map((c) => [c.header, c.elementKinds])).toEqual(SCENARIO_COLUMNS);
+    const cols = byHeader('scenarios');
+    expect(cols.get('scenario')).toMatchObject({ type: 'string', required: true });
+    for (const h of ['scenarioName', 'element']) expect(cols.get(h)).toMatchObject({ type: 'string' });
+    for (const h of ['allMotorsOff', 'inService', 'closed']) expect(cols.get(h)).toMatchObject({ type: 'boolean' });
+    for (const h of ['shortCircuitMva', 'shortCircuitKa', 'xr']) expect(cols.get(h)).toMatchObject({ type: 'number' });
+    // Only the scenario id is needed on every row; a tie row without closed is refused by the model check instead.
+    for (const [h, c] of cols) if (h !== 'scenario') expect(c.required).toBeUndefined();
+    // Common practice, no source: every column of the table has its help note.
+    for (const c of TABLE_COLUMNS.scenarios) expect(c.note).toEqual(expect.any(String));
   });
 
   it('every column of a value a spreadsheet user fills in has its help note, and the notes name real columns', () => {

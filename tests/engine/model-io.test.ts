@@ -349,6 +349,7 @@ describe('round trips (common practice, no source: export then import gives the 
       'motors.csv',
       'ties.csv',
       'devices.csv',
+      'scenarios.csv',
     ]);
     expectSame(modelOf(await importModel(upload)), original);
   });
@@ -456,7 +457,7 @@ describe('arc-duration cap per bus in the flat files', () => {
 });
 
 describe('workbook layout', () => {
-  it('has an About sheet first, then one sheet per element type, header bold and frozen', async () => {
+  it('has an About sheet first, then one sheet per element type, then Scenarios, header bold and frozen', async () => {
     const workbook = await loadWorkbook(await exportModelWorkbook(original));
     expect(workbook.worksheets.map((s) => s.name)).toEqual([
       'About',
@@ -467,6 +468,7 @@ describe('workbook layout', () => {
       'Motors',
       'Ties',
       'Devices',
+      'Scenarios',
     ]);
     for (const sheet of workbook.worksheets) {
       expect(sheet.getRow(1).font?.bold).toBe(true);
