@@ -54,8 +54,8 @@ export const studyRoutes: AnyRoute[] = [
       sendTagged(req, res, await resultsPageTagged(user, params.studyId, query)),
   }),
   bind(contract.studies.busResult, {
-    respond: async ({ req, res, user, params }) =>
-      sendTagged(req, res, await busResultTagged(user, params.studyId, params.busId)),
+    respond: async ({ req, res, user, params, query }) =>
+      sendTagged(req, res, await busResultTagged(user, params.studyId, params.busId, query.scenario)),
   }),
   bind(contract.studies.submit, {
     handler: ({ ctx, user, params }) => submitForReview(ctx, user, params.studyId),

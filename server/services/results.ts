@@ -10,12 +10,16 @@ import {
   type ResultsSort,
   type ResultsSummary,
 } from '../../shared/schemas/resultsPage';
+import { BASE_SCENARIO_ID, type Model } from '../../shared/schemas/model';
 import type { RunDto } from '../../shared/schemas/studies';
 import type { BusResult, StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
 import type { AuthUser } from './context';
 import { ApiError } from './errors';
+import { studyOptionsOf } from './runs';
+import { scenarioBusResult } from './scenarioBus';
 import { findStudyHead } from './scope';
+import { scenarioBusOffThread } from './studyWorker';
 
 /**
  * Study results served in pages (GET /studies/:id/results) and one bus at a time with its trace
@@ -115,10 +119,21 @@ const busCache = new LRUCache<string, BusEntry>({
   sizeCalculation: (v) => Math.max(1, v.body.length * 2),
 });
 
+/**
+ * One bus's serialized trace in a scenario that does not govern it (computed again on request, see
+ * `scenarioBusBody`), by organization, run, bus and scenario.
+ */
+const scenarioBusCache = new LRUCache<string, BusEntry>({
+  maxSize: 64 * 1024 * 1024,
+  maxEntrySize: 16 * 1024 * 1024,
+  sizeCalculation: (v) => Math.max(1, v.body.length * 2),
+});
+
 /** Empties the results caches (tests start from a cold cache with it). */
 export function clearResultsCache(): void {
   indexCache.clear();
   busCache.clear();
+  scenarioBusCache.clear();
 }
 
 function governingCase(b: BusResult) {
@@ -232,7 +247,8 @@ async function loadRun(
       const d = devices.get(id);
       return d ? [{ id: d.id, device: d.device }] : [];
     });
-    const body = `{"run":${runJson},"study":${studyJson},"bus":${JSON.stringify(b)},"devices":${JSON.stringify(named)}}`;
+    const scenario = JSON.stringify(b.scenarioId ?? BASE_SCENARIO_ID);
+    const body = `{"run":${runJson},"study":${studyJson},"bus":${JSON.stringify(b)},"devices":${JSON.stringify(named)},"scenarioId":${scenario},"governingScenarioId":${scenario}}`;
     busCache.set(`${key}/${b.busId}`, { runJson, body });
     if (b.busId === wantBusId) wanted = body;
   }
@@ -407,8 +423,128 @@ export async function busResultBody(
   return { runJson, body: wanted };
 }
 
-/** GET /studies/:studyId/results/buses/:busId, tagged by the run and the bus. */
-export async function busResultTagged(actor: AuthUser, studyId: string, busId: string): Promise<TaggedBody> {
+/** GET /studies/:studyId/results/buses/:busId(?scenario=…), tagged by the run, the bus and the scenario. */
+export async function busResultTagged(
+  actor: AuthUser,
+  studyId: string,
+  busId: string,
+  scenario?: string,
+): Promise<TaggedBody> {
+  if (scenario !== undefined) {
+    const { runJson, body } = await scenarioBusBody(actor, studyId, busId, scenario);
+    return { etagSource: `bus\n${runJson}\n${busId}\n${scenario}`, body: () => body };
+  }
   const { runJson, body } = await busResultBody(actor, studyId, busId);
   return { etagSource: `bus\n${runJson}\n${busId}`, body: () => body };
+}
+
+/**
+ * Models up to this many buses have a bus computed again in the main thread: building such a network and evaluating
+ * one bus takes a few milliseconds, less than handing the model to the study worker. Larger models go to the worker
+ * (`scenarioBusOffThread`), so an engineer opening a trace never holds up the other requests.
+ */
+export const SCENARIO_BUS_MAIN_THREAD_MAX_BUSES = 300;
+
+const inFlightBuses = new Map<string, Promise<string>>();
+
+/**
+ * One bus in a given operating scenario. The governing scenario's trace is the stored one (`busResultBody`). Another
+ * scenario's trace is not stored (only its summary, in the bus's `scenarios`): it is computed again from the run's
+ * model and settings snapshots with that scenario applied (server/services/scenarioBus.ts) — the same engine and
+ * inputs as the run, so the same numbers — and cached. The bus keeps the stored `scenarios` (the spread) and its
+ * `scenarioId` is the scenario shown; `governingScenarioId` names the one the label takes. An id that is not a
+ * scenario of the run is 400 naming `scenario`; a scenario in which no source reaches the bus is 409 naming
+ * `scenario` (there is no trace to show; its `scenarios` entry says so).
+ */
+export async function scenarioBusBody(
+  actor: AuthUser,
+  studyId: string,
+  busId: string,
+  scenario: string,
+): Promise<{ runJson: string; body: string }> {
+  const { run, runJson, index } = await indexOf(actor, studyId);
+  const known = index.study.scenarios?.map((s) => s.id) ?? [BASE_SCENARIO_ID];
+  if (!known.includes(scenario)) {
+    const message = `No scenario "${scenario}" in the model of this run (${known.join(', ')})`;
+    throw new ApiError('bad_request', message, { scenario: message });
+  }
+  const row = index.rows.find((r) => r.busId === busId);
+  if (!row) throw ApiError.notFound(`No bus ${busId} in the results`);
+  const governing = row.scenarioId ?? BASE_SCENARIO_ID;
+  if (scenario === governing) return busResultBody(actor, studyId, busId);
+  const entry = row.scenarios?.find((s) => s.scenarioId === scenario);
+  if (entry?.status === 'de-energized') {
+    const message = `${busId} is de-energized in scenario "${entry.name}": ${entry.note ?? 'no source in service reaches it'}`;
+    throw new ApiError('conflict', message, { scenario: message });
+  }
+
+  const key = `${actor.organizationId}/${run.id}/${busId}/${scenario}`;
+  const hit = scenarioBusCache.get(key);
+  if (hit && hit.runJson === runJson) return { runJson, body: hit.body };
+  const flightKey = `${key}\n${runJson}`;
+  let computing = inFlightBuses.get(flightKey);
+  if (!computing) {
+    computing = computeScenarioBus(actor, run.id, runJson, index, busId, scenario, governing);
+    inFlightBuses.set(flightKey, computing);
+    void computing.then(
+      () => inFlightBuses.delete(flightKey),
+      () => inFlightBuses.delete(flightKey),
+    );
+  }
+  const body = await computing;
+  scenarioBusCache.set(key, { runJson, body });
+  return { runJson, body };
+}
+
+async function computeScenarioBus(
+  actor: AuthUser,
+  runId: string,
+  runJson: string,
+  index: ResultsIndex,
+  busId: string,
+  scenario: string,
+  governing: string,
+): Promise<string> {
+  const large = await StudyRun.findOne({
+    where: { id: runId, organizationId: actor.organizationId },
+    attributes: ['id', 'modelSnapshot', 'settingsSnapshot'],
+  });
+  if (!large) throw ApiError.notFound(NO_RESULTS);
+  const options = studyOptionsOf(large.settingsSnapshot);
+  // The runner cache key: a run's snapshots never change.
+  const runnerKey = `${actor.organizationId}/${runId}/${scenario}`;
+  const outcome =
+    index.rows.length <= SCENARIO_BUS_MAIN_THREAD_MAX_BUSES
+      ? scenarioBusResult(JSON.parse(large.modelSnapshot) as Model, options, scenario, busId, runnerKey)
+      : await scenarioBusOffThread(large.modelSnapshot, options, scenario, busId, runnerKey);
+  if (outcome.kind === 'unknown-scenario') {
+    const message = `No scenario "${scenario}" in the model of this run`;
+    throw new ApiError('bad_request', message, { scenario: message });
+  }
+  if (outcome.kind === 'unknown-bus') throw ApiError.notFound(`No bus ${busId} in the results`);
+  if (outcome.kind === 'de-energized') {
+    const message = `${busId} is de-energized in scenario "${scenario}": no source in service reaches it`;
+    throw new ApiError('conflict', message, { scenario: message });
+  }
+  const row = index.rows.find((r) => r.busId === busId)!;
+  const stored = row.scenarios?.find((s) => s.scenarioId === scenario);
+  const bus: BusResult = { ...outcome.bus, scenarioId: scenario, scenarios: row.scenarios };
+  // The run's summary of this scenario and the trace computed now come from the same engine and inputs; should the
+  // engine have changed since the run, say so (and keep the higher hazard in view: the label is the run's).
+  const then = stored?.incidentEnergyJPerCm2;
+  const now = bus.incidentEnergyJPerCm2;
+  if (then !== undefined && now !== undefined && Math.abs(then - now) > 1e-9 * Math.max(1, Math.abs(then))) {
+    bus.warnings = [
+      ...bus.warnings,
+      {
+        code: 'SCENARIO_RECOMPUTED_DIFFERS',
+        message: `This trace, computed again now, gives ${(now / 4.184).toPrecision(3)} cal/cm²; the run recorded ${(then / 4.184).toPrecision(3)} cal/cm² for this scenario. The engine has changed since the run: run the study again.`,
+      },
+    ];
+  }
+  const ids = new Set<string>();
+  for (const c of bus.cases) for (const d of c.devices) ids.add(d.deviceId);
+  const model = JSON.parse(large.modelSnapshot) as Model;
+  const named = model.devices.filter((d) => ids.has(d.id)).map((d) => ({ id: d.id, device: d.device }));
+  return `{"run":${runJson},"study":${JSON.stringify(index.study)},"bus":${JSON.stringify(bus)},"devices":${JSON.stringify(named)},"scenarioId":${JSON.stringify(scenario)},"governingScenarioId":${JSON.stringify(governing)}}`;
 }

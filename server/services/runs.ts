@@ -5,7 +5,7 @@ import type { OrganizationSettings } from '../../shared/schemas/organization';
 import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
-import { DEFAULT_MOTOR_DECAY_CYCLES } from '../engine/study';
+import { DEFAULT_MOTOR_DECAY_CYCLES, type StudyOptions } from '../engine/study';
 import type { AppContext, AuthUser } from './context';
 import { ApiError, modelIssuesError } from './errors';
 import { recordAudit } from './audit';
@@ -80,6 +80,14 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
   return toRunDto(run);
 }
 
+/**
+ * The engine's options of a run, from its settings snapshot (as stored when it started): the run and every later
+ * evaluation of its buses (a bus in another operating scenario, server/services/results.ts) use exactly these.
+ */
+export function studyOptionsOf(settingsSnapshot: string): StudyOptions & RunSettings {
+  return JSON.parse(settingsSnapshot) as RunSettings;
+}
+
 /** The job: the whole run in a worker thread (short circuit once, then bus by bus), recording progress as it goes. */
 export async function executeRun(ctx: AppContext, runId: string): Promise<void> {
   const run = await StudyRun.findByPk(runId);
@@ -87,7 +95,7 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
   try {
     ctx.jobs.throwIfStopping('study-run');
     await run.update({ status: 'running', message: 'Computing short-circuit currents', progress: 0.01 });
-    const settings = JSON.parse(run.settingsSnapshot) as RunSettings;
+    const settings = studyOptionsOf(run.settingsSnapshot);
     // Computed in a worker thread (the API keeps answering); progress is written at most every 250 ms, one write at a time.
     let lastWrite = 0;
     let writing: Promise<unknown> = Promise.resolve();

@@ -4,6 +4,7 @@ import type { Model } from '../../shared/schemas/model';
 import { createScenarioRunner, type StudyOptions, type StudyRunOutcome } from '../engine/study';
 import { log } from '../log';
 import { yieldToLoop } from './jobs';
+import { scenarioBusResult, type ScenarioBusOutcome } from './scenarioBus';
 
 /**
  * Study runs are computed in a worker thread, so a large plant never holds up the server's event loop (requests,
@@ -33,7 +34,21 @@ const BOOTSTRAP = `
 const { parentPort, workerData } = require('node:worker_threads');
 try { require('tsx/cjs/api').register(); } catch (e) { /* already JavaScript */ }
 const { runAllBuses } = require(workerData.modulePath);
+let busModule = null;
 parentPort.on('message', (msg) => {
+  if (msg && msg.type === 'bus') {
+    let result;
+    try {
+      busModule = busModule || require(workerData.busModulePath);
+      const model = typeof msg.model === 'string' ? JSON.parse(msg.model) : msg.model;
+      result = busModule.scenarioBusResult(model, msg.options, msg.scenarioId, msg.busId, msg.key);
+    } catch (e) {
+      parentPort.postMessage({ type: 'error', id: msg.id, message: e && e.message ? e.message : String(e) });
+      return;
+    }
+    parentPort.postMessage({ type: 'done', id: msg.id, outcome: result });
+    return;
+  }
   if (!msg || msg.type !== 'run') return;
   const id = msg.id;
   let outcome;
@@ -68,7 +83,8 @@ class WorkerUnavailable extends Error {}
 interface Job {
   id: number;
   onProgress?: (done: number, total: number) => void;
-  resolve: (outcome: StudyRunOutcome) => void;
+  /** A run's StudyRunOutcome, or a bus job's ScenarioBusOutcome. */
+  resolve: (outcome: unknown) => void;
   reject: (e: Error) => void;
 }
 
@@ -94,7 +110,7 @@ type WorkerMessage = {
   id?: number;
   done?: number;
   total?: number;
-  outcome?: StudyRunOutcome;
+  outcome?: unknown;
   message?: string;
 };
 
@@ -122,7 +138,10 @@ function drop(slot: Slot): Promise<unknown> {
 function startSlot(): Slot {
   const worker = new Worker(BOOTSTRAP, {
     eval: true,
-    workerData: { modulePath: path.join(__dirname, '..', 'engine', 'study', 'runAll') },
+    workerData: {
+      modulePath: path.join(__dirname, '..', 'engine', 'study', 'runAll'),
+      busModulePath: path.join(__dirname, 'scenarioBus'),
+    },
     resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
   });
   studyRunStats.workersStarted += 1;
@@ -140,7 +159,7 @@ function startSlot(): Slot {
     else if (m.type === 'done') {
       take();
       release(slot);
-      job.resolve(m.outcome as StudyRunOutcome);
+      job.resolve(m.outcome);
     } else if (m.type === 'error') {
       take();
       void drop(slot);
@@ -192,7 +211,21 @@ export async function closeStudyWorkers(): Promise<void> {
 }
 
 function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJobOptions): Promise<StudyRunOutcome> {
-  return new Promise((resolve, reject) => {
+  // Plain JSON across the thread boundary; the model's JSON text as stored is passed as is (parsed in the worker).
+  return inWorker<StudyRunOutcome>(
+    (id) => ({
+      type: 'run',
+      id,
+      model: typeof model === 'string' ? model : (JSON.parse(JSON.stringify(model)) as unknown),
+      options: JSON.parse(JSON.stringify(options)) as unknown,
+    }),
+    opts,
+  );
+}
+
+/** One job in a warm worker: `message(id)` is what is posted; the promise settles with the job's outcome. */
+function inWorker<T>(message: (id: number) => Record<string, unknown>, opts: StudyJobOptions): Promise<T> {
+  return new Promise<T>((resolve, reject) => {
     const stopped = () => opts.stopError?.() ?? new Error('The study run was stopped');
     if (opts.signal?.aborted) {
       reject(stopped());
@@ -216,7 +249,7 @@ function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJo
       onProgress: opts.onProgress,
       resolve: (outcome) => {
         opts.signal?.removeEventListener('abort', onAbort);
-        resolve(outcome);
+        resolve(outcome as T);
       },
       reject: (e) => {
         opts.signal?.removeEventListener('abort', onAbort);
@@ -225,14 +258,8 @@ function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJo
     };
     slot.job = job;
     opts.signal?.addEventListener('abort', onAbort, { once: true });
-    // Plain JSON across the thread boundary; the model's JSON text as stored is passed as is (parsed in the worker).
     try {
-      slot.worker.postMessage({
-        type: 'run',
-        id: job.id,
-        model: typeof model === 'string' ? model : (JSON.parse(JSON.stringify(model)) as unknown),
-        options: JSON.parse(JSON.stringify(options)) as unknown,
-      });
+      slot.worker.postMessage(message(job.id));
     } catch (e) {
       slot.job = null;
       void drop(slot);
@@ -286,5 +313,38 @@ export async function runStudyOffThread(
     log.warn({ err: e }, 'study worker unavailable; running the study in the main thread');
     studyRunStats.mainThread += 1;
     return runInMainThread(model, options, opts);
+  }
+}
+
+/**
+ * One bus of a finished run in one operating scenario (server/services/scenarioBus.ts), in a warm study worker: for a
+ * large model, building the scenario's network takes long enough to hold up other requests. `modelJson` is the run's
+ * model snapshot as stored; `key` names the run and scenario (the worker keeps the last runners by it). Where no
+ * worker can start it is computed in the main thread (logged).
+ */
+export async function scenarioBusOffThread(
+  modelJson: string,
+  options: StudyOptions,
+  scenarioId: string,
+  busId: string,
+  key: string,
+): Promise<ScenarioBusOutcome> {
+  try {
+    return await inWorker<ScenarioBusOutcome>(
+      (id) => ({
+        type: 'bus',
+        id,
+        model: modelJson,
+        options: JSON.parse(JSON.stringify(options)) as unknown,
+        scenarioId,
+        busId,
+        key,
+      }),
+      {},
+    );
+  } catch (e) {
+    if (!(e instanceof WorkerUnavailable)) throw e;
+    log.warn({ err: e }, 'study worker unavailable; computing the scenario bus in the main thread');
+    return scenarioBusResult(JSON.parse(modelJson) as Model, options, scenarioId, busId, key);
   }
 }

@@ -9,7 +9,12 @@ import {
   studyListSchema,
   studySchema,
 } from '../schemas/studies';
-import { busResultResponseSchema, resultsPageQuerySchema, resultsPageSchema } from '../schemas/resultsPage';
+import {
+  busResultQuerySchema,
+  busResultResponseSchema,
+  resultsPageQuerySchema,
+  resultsPageSchema,
+} from '../schemas/resultsPage';
 import { endpoint } from './endpoint';
 
 /** Roles of the routes below that share one access rule. */
@@ -100,9 +105,12 @@ export const studiesApi = {
   busResult: endpoint({
     method: 'get',
     path: '/studies/:studyId/results/buses/:busId',
-    summary: 'One bus of the results with its whole clearing trace and the model devices it names (404: no such bus).',
+    summary:
+      'One bus of the results with its whole clearing trace and the model devices it names (404: no such bus); ' +
+      '`scenario` for its trace in another operating scenario. ETag per run, bus and scenario (304 on a match).',
     tag: 'studies',
     access: 'signed-in',
+    query: busResultQuerySchema,
     response: busResultResponseSchema,
   }),
   submit: endpoint({

@@ -123,14 +123,38 @@ export const resultsPageSchema = z
   .meta({ id: 'StudyResultsPage' });
 export type ResultsPage = z.infer<typeof resultsPageSchema>;
 
+/** Query of GET /studies/:studyId/results/buses/:busId. */
+export const busResultQuerySchema = z.object({
+  scenario: z
+    .string()
+    .min(1)
+    .max(120)
+    .optional()
+    .describe(
+      "An operating scenario of the run's model (its id; `base` for the model as written). Default: the governing " +
+        "scenario, the one the label takes. Unknown id: 400 naming `scenario`; a scenario in which no source reaches " +
+        'the bus: 409 naming `scenario` (the bus\'s `scenarios` entry says so too)',
+    ),
+});
+export type BusResultQuery = z.infer<typeof busResultQuerySchema>;
+
 /** GET /studies/:studyId/results/buses/:busId: one bus with its whole clearing trace. */
 export const busResultResponseSchema = z
   .object({
     run: runSchema,
     study: studyResultsSchema.omit({ buses: true }),
+    /**
+     * The bus in the scenario asked for (`scenarioId`): by default the stored result of the governing scenario; for
+     * another scenario the same engine on the run's model and settings with that scenario applied. Its `scenarios`
+     * lists what every scenario gives at the bus (the spread), whichever scenario is shown.
+     */
     bus: busResultSchema,
     /** The model's protective devices that appear in the bus's trace (to draw their bands). */
     devices: z.array(z.object({ id: z.string(), device: deviceSchema })),
+    /** The scenario of this trace (`base` for the model as written, and always for a model without scenarios). */
+    scenarioId: z.string(),
+    /** The scenario the label takes at this bus: the highest incident energy, or the one that failed. */
+    governingScenarioId: z.string(),
   })
   .meta({ id: 'StudyBusResult' });
 export type BusResultResponse = z.infer<typeof busResultResponseSchema>;
