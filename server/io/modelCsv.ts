@@ -16,8 +16,8 @@ import {
 } from './columns';
 
 /**
- * The system model as CSV files, one per table (about.csv, buses.csv, … devices.csv), with the same columns as
- * the workbook sheets (columns.ts).
+ * The system model as CSV files, one per table (about.csv, buses.csv, … devices.csv, scenarios.csv), with the same
+ * columns as the workbook sheets (columns.ts).
  */
 
 /**

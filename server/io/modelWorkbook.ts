@@ -17,7 +17,8 @@ import {
 
 /**
  * The system model as an .xlsx workbook: an About sheet (format, version, name, frequency, pre-fault voltage and
- * notes), then one sheet per element type with the columns of columns.ts. Header row bold and frozen.
+ * notes), then one sheet per element type and a Scenarios sheet (operating scenarios), with the columns of
+ * columns.ts. Header row bold and frozen.
  */
 
 const MIN_WIDTH = 8;
