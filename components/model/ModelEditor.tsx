@@ -1,7 +1,7 @@
 /**
- * The system model editor (controlled): sections for buses, sources, transformers, cables, motors, ties and
- * devices; an editable table per section on wide screens, one collapsible card per element on a phone. Every
- * `ModelIssue` is shown beside its element and field, and listed at the top (tap to jump there).
+ * The system model editor (controlled): sections for buses, sources, transformers, cables, motors, ties, devices
+ * and the operating scenarios; an editable table per section on wide screens, one collapsible card per element on a
+ * phone. Every `ModelIssue` is shown beside its element and field, and listed at the top (tap to jump there).
  *
  * Kept fast with a few hundred elements: only the open section is rendered, rows are memoized and receive stable
  * callbacks, inputs keep their text locally, and what a row needs from the rest of the model (bus lists, library
@@ -9,12 +9,14 @@
  */
 import type { DeviceType } from '../../shared/schemas/deviceLibrary';
 import type { ModelInput, ModelIssue } from '../../shared/schemas/model';
+import { useCallback } from 'react';
 import { useLayout } from '../../hooks/useLayout';
 import { View } from 'react-native';
 import { space } from '../theme';
 import { CollectionSection } from './editor/CollectionSection';
 import { GeneralSection } from './editor/GeneralSection';
 import { IssueSummary } from './editor/IssueSummary';
+import { ScenariosSection } from './editor/ScenariosSection';
 import { SectionTabs } from './editor/SectionTabs';
 import { UndoToast } from './editor/UndoBar';
 import { useModelEditorState } from './editor/useModelEditorState';
@@ -42,6 +44,7 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
     undo,
     setUndo,
     commit,
+    latest,
     actions,
     add,
     grouped,
@@ -49,6 +52,10 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
   } = useModelEditorState(model, onChange, issues, focusRequest);
 
   const ctx = useSectionContext(model, section, deviceTypes);
+  const onScenarioDeleted = useCallback(
+    (text: string, before: ModelInput, after: ModelInput) => setUndo({ text, before, after }),
+    [setUndo],
+  );
   const showUndo = undo !== null && undo.after === model;
 
   return (
@@ -66,6 +73,17 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
       />
       {section === 'general' ? (
         <GeneralSection model={model} commit={commit} editable={editable} grouped={grouped} />
+      ) : section === 'scenarios' ? (
+        <ScenariosSection
+          model={model}
+          grouped={grouped}
+          editable={editable}
+          wide={wide}
+          commit={commit}
+          latest={latest}
+          focus={focus}
+          onDeleted={onScenarioDeleted}
+        />
       ) : (
         <CollectionSection
           key={section}

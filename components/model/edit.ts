@@ -12,7 +12,11 @@ import {
   type CollectionKey,
   type ElementOf,
   type PlacedDeviceInput,
+  uniqueId,
 } from './summaries';
+import { removeFromScenarios, renameInScenarios } from './scenarios';
+
+export { uniqueId };
 
 /** A copy of `obj` with `key` set, or removed when `value` is undefined (an empty optional field). */
 export function withField<T extends object, K extends keyof T>(obj: T, key: K, value: T[K] | undefined): T {
@@ -27,23 +31,6 @@ export function allIds(model: ModelInput): Set<string> {
   const ids = new Set<string>();
   for (const c of COLLECTIONS) for (const e of itemsOf(model, c)) ids.add(e.id);
   return ids;
-}
-
-/** `base` when free; else its trailing number counted up ("TX-1" → "TX-2"), or "-2", "-3"… appended. */
-export function uniqueId(base: string, taken: ReadonlySet<string>): string {
-  if (!taken.has(base)) return base;
-  const m = /^(.*?)(\d+)$/.exec(base);
-  if (m) {
-    const [, stem, digits] = m;
-    for (let n = Number(digits) + 1; ; n += 1) {
-      const candidate = `${stem}${String(n).padStart(digits.length, '0')}`;
-      if (!taken.has(candidate)) return candidate;
-    }
-  }
-  for (let n = 2; ; n += 1) {
-    const candidate = `${base}-${n}`;
-    if (!taken.has(candidate)) return candidate;
-  }
 }
 
 function setItems<C extends CollectionKey>(model: ModelInput, collection: C, items: ElementOf[C][]): ModelInput {
@@ -139,9 +126,16 @@ export function duplicateElement(
   return { model: setItems(model, collection, items as ElementOf[typeof collection][]), index: index + 1 };
 }
 
+/**
+ * Removes an element. The operating scenarios' overrides of a deleted source, tie or motor go with it (unless another
+ * element of that kind still has the id); references from other elements stay, so the checks show them.
+ */
 export function deleteElement(model: ModelInput, collection: CollectionKey, index: number): ModelInput {
+  const element = itemsOf(model, collection)[index];
   const items = itemsOf(model, collection).filter((_, i) => i !== index) as ElementOf[typeof collection][];
-  return setItems(model, collection, items);
+  const next = setItems(model, collection, items);
+  if (!element || items.some((e) => e.id === element.id)) return next;
+  return removeFromScenarios(next, collection, element.id);
 }
 
 export function updateElement<C extends CollectionKey>(
@@ -162,7 +156,8 @@ export function updateElement<C extends CollectionKey>(
 
 /**
  * Gives an element a new id. When the old id was used by this element only and the new one is free, every reference
- * follows (bus ids in sources, branches, motors; branch, source and motor ids in devices).
+ * follows (bus ids in sources, branches, motors; branch, source and motor ids in devices; source, tie and motor ids
+ * in the operating scenarios' overrides).
  */
 export function renameElement(model: ModelInput, collection: CollectionKey, index: number, newId: string): ModelInput {
   const element = itemsOf(model, collection)[index];
@@ -199,7 +194,7 @@ export function renameElement(model: ModelInput, collection: CollectionKey, inde
   } else if (collection === 'sources' || collection === 'motors') {
     next = { ...next, devices: next.devices?.map((d) => (d.source === oldId ? { ...d, source: newId } : d)) };
   }
-  return next;
+  return renameInScenarios(next, collection, oldId, newId);
 }
 
 /** How many elements refer to this id (to warn before a delete leaves references dangling). */

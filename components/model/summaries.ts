@@ -37,7 +37,13 @@ export interface ElementOf {
 }
 export type AnyElement = ElementOf[CollectionKey];
 
-export const COLLECTION_LABELS: Record<CollectionKey, { plural: string; singular: string }> = {
+/**
+ * What a `ModelIssue` path may name: the element collections and the operating scenarios (which are not elements:
+ * their ids are their own, and nothing refers to them).
+ */
+export type IssueCollection = CollectionKey | 'scenarios';
+
+export const COLLECTION_LABELS: Record<IssueCollection, { plural: string; singular: string }> = {
   buses: { plural: 'Buses', singular: 'bus' },
   sources: { plural: 'Sources', singular: 'source' },
   transformers: { plural: 'Transformers', singular: 'transformer' },
@@ -45,10 +51,15 @@ export const COLLECTION_LABELS: Record<CollectionKey, { plural: string; singular
   motors: { plural: 'Motors', singular: 'motor' },
   ties: { plural: 'Ties', singular: 'tie' },
   devices: { plural: 'Devices', singular: 'device' },
+  scenarios: { plural: 'Scenarios', singular: 'scenario' },
 };
 
 export function isCollection(name: string): name is CollectionKey {
   return (COLLECTIONS as readonly string[]).includes(name);
+}
+
+export function isIssueCollection(name: string): name is IssueCollection {
+  return name === 'scenarios' || isCollection(name);
 }
 
 /** The elements of one collection (an absent optional collection is empty). */
@@ -58,6 +69,23 @@ export function itemsOf<C extends CollectionKey>(model: ModelInput, collection: 
 
 // ---------------------------------------------------------------------------------------------
 // Numbers and names
+
+/** `base` when free; else its trailing number counted up ("TX-1" → "TX-2"), or "-2", "-3"… appended. */
+export function uniqueId(base: string, taken: ReadonlySet<string>): string {
+  if (!taken.has(base)) return base;
+  const m = /^(.*?)(\d+)$/.exec(base);
+  if (m) {
+    const [, stem, digits] = m;
+    for (let n = Number(digits) + 1; ; n += 1) {
+      const candidate = `${stem}${String(n).padStart(digits.length, '0')}`;
+      if (!taken.has(candidate)) return candidate;
+    }
+  }
+  for (let n = 2; ; n += 1) {
+    const candidate = `${base}-${n}`;
+    if (!taken.has(candidate)) return candidate;
+  }
+}
 
 /** A number as typed by an engineer: up to 6 significant figures, no trailing zeros; "—" when missing. */
 export function num(value: number | undefined | null): string {
@@ -196,7 +224,7 @@ export function searchText(collection: CollectionKey, element: AnyElement): stri
 
 export interface IssuePath {
   /** The collection, when the path names one (`cables[2].toBus`, or `buses` alone). */
-  collection?: CollectionKey;
+  collection?: IssueCollection;
   /** Index in that collection, when the path names an element. */
   index?: number;
   /** The field inside the element (`toBus`, `equipment.enclosureMm.height`), or the model field (`frequencyHz`). */
@@ -208,7 +236,7 @@ export function parseIssuePath(path: string): IssuePath {
   const m = /^([A-Za-z]+)(?:\[(\d+)\])?(.*)$/.exec(path.trim());
   if (!m) return {};
   const [, head, index, rest] = m;
-  if (!isCollection(head)) return { field: path.trim() || undefined };
+  if (!isIssueCollection(head)) return { field: path.trim() || undefined };
   const field = rest.replace(/^\./, '');
   return {
     collection: head,
@@ -219,14 +247,21 @@ export function parseIssuePath(path: string): IssuePath {
 
 export interface LocatedIssue {
   issue: ModelIssue;
-  collection?: CollectionKey;
+  collection?: IssueCollection;
   index?: number;
   field?: string;
   /** `cables[2]`, the key of the element in the editor; undefined for issues of the whole model. */
   key?: string;
 }
 
-export const elementKey = (collection: CollectionKey, index: number) => `${collection}[${index}]`;
+export const elementKey = (collection: IssueCollection, index: number) => `${collection}[${index}]`;
+
+/** The items of a collection or the scenarios, each with its id, for finding an issue's element. */
+function issueItems(model: ModelInput, collection: IssueCollection): readonly { id?: unknown }[] {
+  return collection === 'scenarios'
+    ? (model.scenarios ?? [])
+    : (itemsOf(model, collection) as readonly { id?: unknown }[]);
+}
 
 /**
  * Where an issue belongs in the model. The index of its path is trusted when the element there has the issue's
@@ -239,7 +274,7 @@ export function locateIssue(issue: ModelIssue, model: ModelInput | undefined): L
   }
   let index: number | undefined = p.index;
   if (model && issue.elementId !== undefined) {
-    const items = itemsOf(model, p.collection) as readonly { id?: unknown }[];
+    const items = issueItems(model, p.collection);
     if (items[index]?.id !== issue.elementId) {
       const found = items.findIndex((e) => e?.id === issue.elementId);
       index = found >= 0 ? found : index < items.length ? index : undefined;
@@ -254,14 +289,17 @@ export interface GroupedIssues {
   /** By element key (`cables[2]`). */
   byElement: Map<string, LocatedIssue[]>;
   /** Count by collection (including issues of the collection as a whole). */
-  byCollection: Record<CollectionKey, number>;
+  byCollection: Record<IssueCollection, number>;
   /** Issues of the whole model or of a collection as a whole (`buses`: "Give at least one bus"). */
   general: LocatedIssue[];
 }
 
 export function groupIssues(issues: readonly ModelIssue[], model: ModelInput | undefined): GroupedIssues {
   const byElement = new Map<string, LocatedIssue[]>();
-  const byCollection = Object.fromEntries(COLLECTIONS.map((c) => [c, 0])) as Record<CollectionKey, number>;
+  const byCollection = Object.fromEntries([...COLLECTIONS, 'scenarios'].map((c) => [c, 0])) as Record<
+    IssueCollection,
+    number
+  >;
   const general: LocatedIssue[] = [];
   const all = issues.map((i) => locateIssue(i, model));
   for (const li of all) {
@@ -362,17 +400,52 @@ export function fieldLabel(field: string | undefined): string {
   }
 }
 
+/** The label of a scenario's issue field: `sources.GEN-1.shortCircuitMva` → "GEN-1 · Short circuit". */
+export function scenarioFieldLabel(field: string | undefined): string {
+  if (!field) return '';
+  const m = /^(sources|ties|motors)\.(.+?)(?:\.(inService|shortCircuitMva|shortCircuitKa|xr|closed))?$/.exec(field);
+  if (!m) {
+    const plain: Record<string, string> = {
+      id: 'Id',
+      name: 'Name',
+      sources: 'Sources',
+      ties: 'Ties',
+      motors: 'Motors',
+      allMotorsOff: 'All motors stopped',
+    };
+    return plain[field] ?? field;
+  }
+  const [, , id, sub] = m;
+  const subLabel: Record<string, string> = {
+    inService: 'In service',
+    shortCircuitMva: 'Short circuit',
+    shortCircuitKa: 'Short circuit',
+    xr: 'X/R',
+    closed: 'State',
+  };
+  return sub ? `${id} · ${subLabel[sub]}` : id;
+}
+
+/** Where an issue of a scenario belongs: the element it names and the field (`undefined`: the scenario as a whole). */
+export function scenarioIssueTarget(
+  field: string | undefined,
+): { kind: 'sources' | 'ties' | 'motors'; id: string; sub?: string } | { field?: string } {
+  const m = field
+    ? /^(sources|ties|motors)\.(.+?)(?:\.(inService|shortCircuitMva|shortCircuitKa|xr|closed))?$/.exec(field)
+    : null;
+  if (!m) return { field };
+  return { kind: m[1] as 'sources' | 'ties' | 'motors', id: m[2], ...(m[3] ? { sub: m[3] } : {}) };
+}
+
 /** "Cables · FDR-3 · To bus" — where an issue is, in words. */
 export function issuePlace(li: LocatedIssue, model: ModelInput | undefined): string {
   const parts: string[] = [];
   if (li.collection) parts.push(COLLECTION_LABELS[li.collection].plural);
   if (li.collection && li.index !== undefined) {
-    const id =
-      li.issue.elementId ??
-      (model ? (itemsOf(model, li.collection)[li.index] as { id?: string } | undefined)?.id : undefined);
-    parts.push(id ? id : `#${li.index + 1}`);
+    const id = li.issue.elementId ?? (model ? issueItems(model, li.collection)[li.index]?.id : undefined);
+    parts.push(typeof id === 'string' && id ? id : `#${li.index + 1}`);
   }
-  if (li.field) parts.push(fieldLabel(li.field));
+  if (li.field) parts.push(li.collection === 'scenarios' ? scenarioFieldLabel(li.field) : fieldLabel(li.field));
   return parts.join(' · ') || 'Model';
 }
 

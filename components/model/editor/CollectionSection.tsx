@@ -150,7 +150,7 @@ export function CollectionSection({
   );
 }
 
-function AddButton({ title, onPress, testID }: { title: string; onPress: () => void; testID: string }) {
+export function AddButton({ title, onPress, testID }: { title: string; onPress: () => void; testID: string }) {
   return (
     <Pressable
       accessibilityRole="button"

@@ -7,7 +7,7 @@ import { T } from '../../ui';
 import { COLLECTION_LABELS, COLLECTIONS, groupIssues, itemsOf, problemCount } from '../summaries';
 import { type Section } from './types';
 
-const SECTIONS: Section[] = [...COLLECTIONS, 'general'];
+const SECTIONS: Section[] = [...COLLECTIONS, 'scenarios', 'general'];
 
 export function SectionTabs({
   section,
@@ -30,7 +30,8 @@ export function SectionTabs({
     node?.scrollIntoView?.({ inline: 'nearest', block: 'nearest' });
   }, [section, wide]);
   const tabs = SECTIONS.map((s) => {
-    const count = s === 'general' ? undefined : itemsOf(model, s).length;
+    const count =
+      s === 'general' ? undefined : s === 'scenarios' ? (model.scenarios ?? []).length : itemsOf(model, s).length;
     const problems = s === 'general' ? grouped.general.filter((g) => !g.collection).length : grouped.byCollection[s];
     const on = s === section;
     return (

@@ -2,7 +2,7 @@
 import { type EditorContext } from '../columns';
 import { type AnyElement, type CollectionKey, type LocatedIssue } from '../summaries';
 
-export type Section = CollectionKey | 'general';
+export type Section = CollectionKey | 'scenarios' | 'general';
 
 export const NO_ISSUES: readonly LocatedIssue[] = [];
 
@@ -16,6 +16,8 @@ export const SECTION_NOTES: Record<Section, string> = {
   cables: 'Conductor size, material and conduit (NEC Chapter 9 Table 9), or R and X per km of one conductor.',
   motors: 'Induction motors that feed the fault: rating in hp or kVA.',
   ties: 'Bus ties and switches of negligible impedance; a closed tie joins two buses into one node.',
+  scenarios:
+    'The operating states the plant runs in. The model as written is the base, always run; a scenario changes only what it names. Each bus’s label takes the scenario with the highest incident energy.',
   devices:
     'Each protective device sits at one end of a transformer, cable or tie, or on a source or motor. Its settings come from the device library.',
 };

@@ -15,6 +15,7 @@ import {
   updateElement,
   type NewVariant,
 } from '../edit';
+import { scenariosNaming } from '../scenarios';
 import {
   COLLECTION_LABELS,
   elementKey,
@@ -50,6 +51,8 @@ export function useModelEditorState(
     modelRef.current = next;
     onChangeRef.current(next);
   }, []);
+  /** The latest model, for callbacks that must stay stable (the scenarios' rows). */
+  const latest = useCallback(() => modelRef.current, []);
 
   const focusOn = useCallback((key: string, expand: boolean) => {
     // A new nonce each time, so asking for the same element again scrolls to it again.
@@ -73,10 +76,12 @@ export function useModelEditorState(
         if (!element) return;
         const after = deleteElement(before, collection, index);
         const refs = countReferences(after, element.id);
+        const inScenarios =
+          scenariosNaming(before, collection, element.id) - scenariosNaming(after, collection, element.id);
         setExpanded((s) => shiftKeys(s, collection, index, 'delete'));
         setFocus(null);
         setUndo({
-          text: `Deleted ${COLLECTION_LABELS[collection].singular} ${element.id || `#${index + 1}`}${refs ? ` — ${refs} reference${refs === 1 ? '' : 's'} to it now point nowhere` : ''}`,
+          text: `Deleted ${COLLECTION_LABELS[collection].singular} ${element.id || `#${index + 1}`}${refs ? ` — ${refs} reference${refs === 1 ? '' : 's'} to it now point nowhere` : ''}${inScenarios ? ` — its override${inScenarios === 1 ? '' : 's'} in ${inScenarios} scenario${inScenarios === 1 ? '' : 's'} removed` : ''}`,
           before,
           after,
         });
@@ -134,6 +139,7 @@ export function useModelEditorState(
     undo,
     setUndo,
     commit,
+    latest,
     actions,
     add,
     grouped,

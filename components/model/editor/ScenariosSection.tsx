@@ -1,0 +1,1115 @@
+/**
+ * Operating scenarios: the list (add, duplicate, delete; id and name edited on the chosen one), and for the chosen
+ * scenario every source, tie and motor of the model with what the scenario makes of it. Each field shows the base
+ * value (the model as written) and writes an override only when it differs; clearing it goes back to the base.
+ * Wide screens: a table of scenarios and the chosen one's detail below it. Phone: one collapsible card per scenario.
+ */
+import { memo, useCallback, useMemo, useState, type ReactNode } from 'react';
+import { Pressable, View, type ViewStyle } from 'react-native';
+import type { ModelInput } from '../../../shared/schemas/model';
+import { colors, fonts, radius, space, touch } from '../../theme';
+import { Button, Card, T } from '../../ui';
+import { CheckCell, FormField, Icon, IconButton, NumCell, SegCell, TextCell } from '../controls';
+import { withField } from '../edit';
+import {
+  addScenario,
+  baseFaultText,
+  clearOverride,
+  deleteScenario,
+  duplicateScenario,
+  faultUnit,
+  motorRunsIn,
+  newScenario,
+  scenarioSummary,
+  setAllMotorsOff,
+  setMotorRunning,
+  setSourceFault,
+  setSourceInService,
+  setSourceXr,
+  setTieClosed,
+  tieBaseClosed,
+  tieClosedIn,
+  unknownOverrides,
+  updateScenario,
+  type OverrideKind,
+  type ScenarioInput,
+  type SourceOverride,
+} from '../scenarios';
+import {
+  elementKey,
+  groupIssues,
+  issueMessage,
+  motorSummary,
+  num,
+  problemCount,
+  scenarioFieldLabel,
+  scenarioIssueTarget,
+  type LocatedIssue,
+  type MotorInput,
+  type SourceInput,
+  type TieInput,
+} from '../summaries';
+import { AddButton } from './CollectionSection';
+import { useScrollIntoView } from './rowHooks';
+import { type Focus, NO_ISSUES, SECTION_NOTES } from './types';
+
+type Patch = (update: (s: ScenarioInput) => ScenarioInput) => void;
+
+interface Props {
+  model: ModelInput;
+  grouped: ReturnType<typeof groupIssues>;
+  editable: boolean;
+  wide: boolean;
+  commit: (m: ModelInput) => void;
+  latest: () => ModelInput;
+  focus: Focus | null;
+  onDeleted: (text: string, before: ModelInput, after: ModelInput) => void;
+}
+
+const isScenarioKey = (key: string | undefined) => !!key && key.startsWith('scenarios[');
+
+export function ScenariosSection({ model, grouped, editable, wide, commit, latest, focus, onDeleted }: Props) {
+  const scenarios = model.scenarios ?? [];
+  // The chosen scenario: the first on a wide screen; none (all cards closed) on a phone.
+  const [open, setOpen] = useState<number | null>(wide && scenarios.length ? 0 : null);
+  // A jump to a scenario's problem (the issue summary) opens that scenario.
+  const [seenFocus, setSeenFocus] = useState(focus);
+  if (focus !== seenFocus) {
+    setSeenFocus(focus);
+    if (focus && isScenarioKey(focus.key)) setOpen(Number(focus.key.slice('scenarios['.length, -1)));
+  }
+  const chosen = open !== null && open < scenarios.length ? open : wide && scenarios.length ? 0 : null;
+  const sectionIssues = grouped.general.filter((g) => g.collection === 'scenarios');
+
+  const add = () => {
+    const r = addScenario(latest(), newScenario(latest()));
+    commit(r.model);
+    setOpen(r.index);
+  };
+  const duplicate = useCallback(
+    (index: number) => {
+      const r = duplicateScenario(latest(), index);
+      commit(r.model);
+      setOpen(r.index);
+    },
+    [commit, latest],
+  );
+  const remove = useCallback(
+    (index: number) => {
+      const before = latest();
+      const s = (before.scenarios ?? [])[index];
+      if (!s) return;
+      const after = deleteScenario(before, index);
+      onDeleted(`Deleted scenario ${s.id || `#${index + 1}`}`, before, after);
+      commit(after);
+      setOpen(null);
+    },
+    [commit, latest, onDeleted],
+  );
+
+  const detail = (index: number) => (
+    <ScenarioDetail
+      key={index}
+      index={index}
+      scenario={scenarios[index]}
+      model={model}
+      issues={grouped.byElement.get(elementKey('scenarios', index)) ?? NO_ISSUES}
+      editable={editable}
+      wide={wide}
+      commit={commit}
+      latest={latest}
+      onDuplicate={duplicate}
+      onDelete={remove}
+      focused={focus && focus.key === elementKey('scenarios', index) ? focus.nonce : 0}
+    />
+  );
+
+  return (
+    <View style={{ gap: space.md }} testID="model-section-body-scenarios">
+      <View style={{ flexDirection: wide ? 'row' : 'column', alignItems: wide ? 'center' : 'stretch', gap: space.md }}>
+        <View style={{ flex: wide ? 1 : undefined, gap: 2 }}>
+          <T variant="heading">
+            Scenarios <T style={{ fontFamily: fonts.numbers, fontSize: 18, color: colors.muted }}>{scenarios.length}</T>
+          </T>
+          <T variant="small">{SECTION_NOTES.scenarios}</T>
+        </View>
+        {editable ? <AddButton title="Add scenario" onPress={add} testID="model-add-scenarios" /> : null}
+      </View>
+      {sectionIssues.map((li, i) => (
+        <T key={i} style={{ color: colors.danger, fontSize: 15 }}>
+          {issueMessage(li.issue)}
+        </T>
+      ))}
+      {wide ? (
+        <Card style={{ padding: 0, gap: 0, overflow: 'hidden' }}>
+          <ListHeader />
+          <BaseRow wide />
+          {scenarios.map((s, i) => (
+            <ScenarioListRow
+              key={i}
+              index={i}
+              scenario={s}
+              summary={scenarioSummary(model, s)}
+              problems={(grouped.byElement.get(elementKey('scenarios', i)) ?? NO_ISSUES).length}
+              chosen={chosen === i}
+              wide
+              onPress={() => setOpen(i)}
+            />
+          ))}
+        </Card>
+      ) : (
+        <View style={{ gap: space.sm }}>
+          <BaseRow wide={false} />
+          {scenarios.map((s, i) => (
+            <View
+              key={i}
+              testID={`card-scenarios-${i}`}
+              style={{
+                backgroundColor: colors.surface,
+                borderRadius: radius.md,
+                borderWidth: 1,
+                borderColor: chosen === i ? colors.accent : colors.lineSoft,
+                overflow: 'hidden',
+              }}
+            >
+              <ScenarioListRow
+                index={i}
+                scenario={s}
+                summary={scenarioSummary(model, s)}
+                problems={(grouped.byElement.get(elementKey('scenarios', i)) ?? NO_ISSUES).length}
+                chosen={chosen === i}
+                wide={false}
+                onPress={() => setOpen(chosen === i ? null : i)}
+              />
+              {chosen === i ? (
+                <View style={{ borderTopWidth: 1, borderTopColor: colors.lineSoft, padding: space.md }}>
+                  {detail(i)}
+                </View>
+              ) : null}
+            </View>
+          ))}
+        </View>
+      )}
+      {scenarios.length === 0 ? (
+        <Card style={{ borderStyle: 'dashed', borderColor: colors.line, alignItems: 'flex-start' }}>
+          <T variant="small">
+            No scenarios yet: only the model as written is run. Add one for each state the plant runs in — the utility
+            at its minimum fault level, a tie closed, the generator alone, motors stopped.
+          </T>
+        </Card>
+      ) : null}
+      {wide && chosen !== null ? <Card testID="scenario-detail-card">{detail(chosen)}</Card> : null}
+    </View>
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// The list
+
+const LIST_ID_WIDTH = 150;
+const LIST_NAME_WIDTH = 260;
+
+function ListHeader() {
+  const cell = (label: string, style: ViewStyle) => (
+    <View style={[{ paddingHorizontal: space.md, paddingVertical: space.sm }, style]}>
+      <T variant="label" style={{ color: colors.muted }}>
+        {label}
+      </T>
+    </View>
+  );
+  return (
+    <View
+      style={{
+        flexDirection: 'row',
+        backgroundColor: colors.canvas,
+        borderBottomWidth: 1,
+        borderBottomColor: colors.lineSoft,
+      }}
+    >
+      {cell('Id', { width: LIST_ID_WIDTH + 4 })}
+      {cell('Name', { width: LIST_NAME_WIDTH })}
+      {cell('What it changes', { flex: 1 })}
+    </View>
+  );
+}
+
+function BaseRow({ wide }: { wide: boolean }) {
+  const text = 'The model as written — always run';
+  if (!wide) {
+    return (
+      <View
+        testID="scenario-base"
+        style={{
+          paddingHorizontal: space.md,
+          paddingVertical: space.sm,
+          borderRadius: radius.md,
+          backgroundColor: colors.canvas,
+          gap: 2,
+        }}
+      >
+        <T style={{ fontFamily: fonts.textBold, fontSize: 16 }}>base</T>
+        <T variant="small">{text}</T>
+      </View>
+    );
+  }
+  return (
+    <View
+      testID="scenario-base"
+      style={{
+        flexDirection: 'row',
+        alignItems: 'center',
+        minHeight: 44,
+        borderBottomWidth: 1,
+        borderBottomColor: colors.lineSoft,
+        borderLeftWidth: 4,
+        borderLeftColor: 'transparent',
+      }}
+    >
+      <T style={{ width: LIST_ID_WIDTH, paddingHorizontal: space.md, fontFamily: fonts.textBold, color: colors.muted }}>
+        base
+      </T>
+      <T style={{ width: LIST_NAME_WIDTH, paddingHorizontal: space.md, color: colors.muted }}>Model as written</T>
+      <T variant="small" style={{ flex: 1, paddingHorizontal: space.md }}>
+        Always run; the scenarios below change it
+      </T>
+    </View>
+  );
+}
+
+const ScenarioListRow = memo(function ScenarioListRow({
+  index,
+  scenario,
+  summary,
+  problems,
+  chosen,
+  wide,
+  onPress,
+}: {
+  index: number;
+  scenario: ScenarioInput;
+  summary: string;
+  problems: number;
+  chosen: boolean;
+  wide: boolean;
+  onPress: () => void;
+}) {
+  const badge = problems ? (
+    <View
+      accessibilityLabel={problemCount(problems)}
+      style={{
+        minWidth: 22,
+        height: 22,
+        borderRadius: 11,
+        paddingHorizontal: 6,
+        backgroundColor: colors.danger,
+        alignItems: 'center',
+        justifyContent: 'center',
+      }}
+    >
+      <T style={{ color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 }}>{problems}</T>
+    </View>
+  ) : null;
+  const idText = scenario.id || '(no id)';
+  if (wide) {
+    return (
+      <Pressable
+        accessibilityRole="button"
+        aria-selected={chosen}
+        accessibilityLabel={`Scenario ${idText}${scenario.name ? `, ${scenario.name}` : ''}`}
+        onPress={onPress}
+        testID={`scenario-row-${index}`}
+        style={({ hovered }: { pressed: boolean; hovered?: boolean }) => ({
+          flexDirection: 'row',
+          alignItems: 'center',
+          minHeight: 48,
+          borderBottomWidth: 1,
+          borderBottomColor: colors.lineSoft,
+          borderLeftWidth: 4,
+          borderLeftColor: chosen ? colors.accent : problems ? colors.danger : 'transparent',
+          backgroundColor: chosen ? colors.accentSoft : hovered ? colors.canvas : colors.surface,
+        })}
+      >
+        <T
+          numberOfLines={1}
+          style={{ width: LIST_ID_WIDTH, paddingHorizontal: space.md, fontFamily: fonts.textBold, fontSize: 15 }}
+        >
+          {idText}
+        </T>
+        <T numberOfLines={1} style={{ width: LIST_NAME_WIDTH, paddingHorizontal: space.md, fontSize: 15 }}>
+          {scenario.name || <T style={{ color: colors.muted, fontStyle: 'italic' }}>no name</T>}
+        </T>
+        <T
+          numberOfLines={2}
+          style={{ flex: 1, paddingHorizontal: space.md, fontSize: 14, color: colors.inkSoft }}
+          testID={`scenario-summary-${index}`}
+        >
+          {summary}
+        </T>
+        <View style={{ width: 44, alignItems: 'center' }}>{badge}</View>
+      </Pressable>
+    );
+  }
+  return (
+    <Pressable
+      accessibilityRole="button"
+      aria-expanded={chosen}
+      accessibilityLabel={`Scenario ${idText}, ${chosen ? 'collapse' : 'expand'}`}
+      onPress={onPress}
+      testID={`scenario-row-${index}`}
+      style={({ pressed }) => ({
+        minHeight: 56,
+        paddingVertical: space.sm,
+        paddingLeft: space.md,
+        paddingRight: space.sm,
+        flexDirection: 'row',
+        alignItems: 'center',
+        gap: space.sm,
+        borderLeftWidth: 4,
+        borderLeftColor: problems ? colors.danger : chosen ? colors.accent : colors.lineSoft,
+        backgroundColor: pressed ? colors.canvas : 'transparent',
+      })}
+    >
+      <View style={{ flex: 1, gap: 2, minWidth: 0 }}>
+        <T numberOfLines={1} style={{ fontSize: 16 }}>
+          <T style={{ fontFamily: fonts.textBold, fontSize: 16 }}>{idText}</T>
+          {scenario.name ? <T style={{ color: colors.muted, fontSize: 15 }}>{`  ${scenario.name}`}</T> : null}
+        </T>
+        <T
+          numberOfLines={chosen ? undefined : 2}
+          style={{ fontSize: 14, lineHeight: 19, color: colors.inkSoft }}
+          testID={`scenario-summary-${index}`}
+        >
+          {summary}
+        </T>
+      </View>
+      {badge}
+      <Icon name={chosen ? 'chevron-down' : 'chevron-right'} size={20} color={colors.muted} />
+    </Pressable>
+  );
+});
+
+// ---------------------------------------------------------------------------------------------
+// The chosen scenario
+
+/** A scenario's issues by the element they name (`sources:UTIL-1`) and field (`xr`, or '' for the element). */
+function issuesByTarget(issues: readonly LocatedIssue[]) {
+  const byElement = new Map<string, Map<string, string[]>>();
+  const scenario = new Map<string, string[]>();
+  const push = (m: Map<string, string[]>, k: string, msg: string) => m.set(k, [...(m.get(k) ?? []), msg]);
+  for (const li of issues) {
+    const t = scenarioIssueTarget(li.field);
+    const msg = issueMessage(li.issue);
+    if ('kind' in t) {
+      const key = `${t.kind}:${t.id}`;
+      const m = byElement.get(key) ?? new Map<string, string[]>();
+      byElement.set(key, m);
+      const sub = t.sub === 'shortCircuitKa' ? 'shortCircuitMva' : (t.sub ?? '');
+      push(m, sub, msg);
+    } else push(scenario, t.field ?? '', msg);
+  }
+  return { byElement, scenario };
+}
+
+const NO_FIELD_ISSUES: ReadonlyMap<string, string[]> = new Map();
+
+function ScenarioDetail({
+  index,
+  scenario,
+  model,
+  issues,
+  editable,
+  wide,
+  commit,
+  latest,
+  onDuplicate,
+  onDelete,
+  focused,
+}: {
+  index: number;
+  scenario: ScenarioInput;
+  model: ModelInput;
+  issues: readonly LocatedIssue[];
+  editable: boolean;
+  wide: boolean;
+  commit: (m: ModelInput) => void;
+  latest: () => ModelInput;
+  onDuplicate: (index: number) => void;
+  onDelete: (index: number) => void;
+  focused: number;
+}) {
+  const ref = useScrollIntoView(focused);
+  const patch = useCallback<Patch>(
+    (update) => commit(updateScenario(latest(), index, update)),
+    [commit, latest, index],
+  );
+  const { byElement, scenario: scenarioIssues } = useMemo(() => issuesByTarget(issues), [issues]);
+  const sources = model.sources ?? [];
+  const ties = model.ties ?? [];
+  const motors = model.motors ?? [];
+  const orphans = unknownOverrides(model, scenario);
+  const fieldError = (f: string) => scenarioIssues.get(f)?.join(' · ');
+  const others = [...scenarioIssues.entries()].filter(([f]) => f !== 'id' && f !== 'name');
+  const base = `scenario-${index}`;
+
+  return (
+    <View ref={ref} style={{ gap: space.lg }} testID={`scenario-detail-${index}`}>
+      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'flex-start' }}>
+        <FormField
+          label="Id"
+          basis={140}
+          error={fieldError('id')}
+          hint={wide ? 'Used in results and exports' : undefined}
+        >
+          <TextCell
+            value={scenario.id}
+            onChange={(id) => patch((s) => ({ ...s, id: id.trim() }))}
+            commit="blur"
+            mono
+            size="form"
+            invalid={!!fieldError('id')}
+            editable={editable}
+            placeholder="Id"
+            testID={`${base}-id`}
+            accessibilityLabel="Scenario id"
+          />
+        </FormField>
+        <FormField label="Name" basis={260} error={fieldError('name')}>
+          <TextCell
+            value={scenario.name}
+            onChange={(v) => patch((s) => withField(s, 'name', v === '' ? undefined : v))}
+            size="form"
+            invalid={!!fieldError('name')}
+            editable={editable}
+            placeholder="e.g. Utility minimum, tie open"
+            testID={`${base}-name`}
+            accessibilityLabel="Scenario name"
+          />
+        </FormField>
+        {editable ? (
+          <View
+            style={{
+              flexDirection: 'row',
+              gap: space.sm,
+              flexWrap: 'wrap',
+              alignSelf: wide ? 'flex-end' : 'stretch',
+              justifyContent: 'flex-end',
+              flexGrow: wide ? 0 : 1,
+            }}
+          >
+            <Button
+              title="Duplicate"
+              kind="secondary"
+              onPress={() => onDuplicate(index)}
+              testID={`${base}-duplicate`}
+            />
+            <DeleteButton onPress={() => onDelete(index)} testID={`${base}-delete`} />
+          </View>
+        ) : null}
+      </View>
+      <View
+        style={{
+          backgroundColor: colors.canvas,
+          borderRadius: radius.sm,
+          paddingHorizontal: space.md,
+          paddingVertical: space.sm,
+          gap: 2,
+        }}
+      >
+        <T variant="label" style={{ color: colors.muted }}>
+          Changes against the base
+        </T>
+        <T style={{ fontSize: 15 }} testID={`${base}-changes`}>
+          {scenarioSummary(model, scenario)}
+        </T>
+      </View>
+      {others.map(([f, msgs]) => (
+        <T key={f} style={{ color: colors.danger, fontSize: 15 }} accessibilityRole="alert">
+          {`${f ? `${scenarioFieldLabel(f)}: ` : ''}${msgs.join(' · ')}`}
+        </T>
+      ))}
+
+      <Group
+        title="Sources"
+        note="In service, available fault level and X/R. An empty field keeps the base value."
+        count={sources.length}
+        wide={wide}
+        columns={[
+          { label: 'In service', width: SERVICE_WIDTH },
+          { label: 'Short circuit', width: FAULT_WIDTH },
+          { label: 'X/R', width: XR_WIDTH },
+        ]}
+      >
+        {sources.map((src, i) => (
+          <SourceRow
+            key={`${i}:${src.id}`}
+            source={src}
+            override={scenario.sources?.[src.id]}
+            issues={byElement.get(`sources:${src.id}`) ?? NO_FIELD_ISSUES}
+            editable={editable}
+            wide={wide}
+            patch={patch}
+            testID={`scenario-source-${src.id}`}
+          />
+        ))}
+      </Group>
+
+      {ties.length ? (
+        <Group
+          title="Ties"
+          note="Open or closed in this scenario; the base state is the tie's own."
+          count={ties.length}
+          wide={wide}
+          columns={[{ label: 'State', width: STATE_WIDTH }]}
+        >
+          {ties.map((t, i) => (
+            <TieRow
+              key={`${i}:${t.id}`}
+              tie={t}
+              closed={tieClosedIn(scenario, t)}
+              overridden={scenario.ties?.[t.id] !== undefined}
+              issues={byElement.get(`ties:${t.id}`) ?? NO_FIELD_ISSUES}
+              editable={editable}
+              wide={wide}
+              patch={patch}
+              testID={`scenario-tie-${t.id}`}
+            />
+          ))}
+        </Group>
+      ) : null}
+
+      {motors.length ? (
+        <Group
+          title="Motors"
+          note="Running motors feed the fault. A motor's own choice wins over “all motors stopped”."
+          count={motors.length}
+          wide={wide}
+          columns={[{ label: 'State', width: STATE_WIDTH }]}
+          above={
+            <CheckCell
+              value={scenario.allMotorsOff === true}
+              onChange={(v) => patch((s) => setAllMotorsOff(s, v))}
+              label="All motors stopped"
+              size="form"
+              editable={editable}
+              testID={`${base}-all-motors-off`}
+            />
+          }
+        >
+          {motors.map((m, i) => (
+            <MotorRow
+              key={`${i}:${m.id}`}
+              motor={m}
+              running={motorRunsIn(scenario, m.id)}
+              allOff={scenario.allMotorsOff === true}
+              overridden={scenario.motors?.[m.id] !== undefined}
+              issues={byElement.get(`motors:${m.id}`) ?? NO_FIELD_ISSUES}
+              editable={editable}
+              wide={wide}
+              patch={patch}
+              testID={`scenario-motor-${m.id}`}
+            />
+          ))}
+        </Group>
+      ) : null}
+
+      {orphans.length ? (
+        <Group
+          title="Not in the model"
+          note="This scenario names elements the model no longer has (deleted, renamed or imported without them). Remove each, or give the element that id again."
+          count={orphans.length}
+          wide={false}
+          columns={[]}
+        >
+          {orphans.map((o) => (
+            <OrphanRow
+              key={`${o.kind}:${o.id}`}
+              kind={o.kind}
+              id={o.id}
+              messages={[...(byElement.get(`${o.kind}:${o.id}`)?.values() ?? [])].flat()}
+              editable={editable}
+              patch={patch}
+              testID={`scenario-orphan-${o.kind}-${o.id}`}
+            />
+          ))}
+        </Group>
+      ) : null}
+    </View>
+  );
+}
+
+function DeleteButton({ onPress, testID }: { onPress: () => void; testID: string }) {
+  return (
+    <Pressable
+      accessibilityRole="button"
+      onPress={onPress}
+      testID={testID}
+      style={({ pressed }) => ({
+        minHeight: touch.min,
+        paddingHorizontal: space.lg,
+        borderRadius: radius.md,
+        borderWidth: 1,
+        borderColor: '#E7B4B4',
+        backgroundColor: pressed ? colors.dangerSoft : colors.surface,
+        flexDirection: 'row',
+        alignItems: 'center',
+        gap: space.sm,
+      })}
+    >
+      <Icon name="trash" size={18} color={colors.danger} />
+      <T style={{ color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 }}>Delete</T>
+    </Pressable>
+  );
+}
+
+// ---------------------------------------------------------------------------------------------
+// Element rows: one line with fixed columns on a wide screen, a block of labelled fields on a phone
+
+const SERVICE_WIDTH = 230;
+const FAULT_WIDTH = 250;
+const XR_WIDTH = 130;
+const STATE_WIDTH = 230;
+const TITLE_WIDTH = 260;
+
+function Group({
+  title,
+  note,
+  count,
+  wide,
+  columns,
+  above,
+  children,
+}: {
+  title: string;
+  note: string;
+  count: number;
+  wide: boolean;
+  columns: { label: string; width: number }[];
+  above?: ReactNode;
+  children: ReactNode;
+}) {
+  return (
+    <View style={{ gap: space.sm }}>
+      <View style={{ gap: 2 }}>
+        <T variant="subheading">
+          {title} <T style={{ fontFamily: fonts.numbers, fontSize: 15, color: colors.muted }}>{count}</T>
+        </T>
+        <T variant="small">{note}</T>
+      </View>
+      {above}
+      <View
+        style={{
+          borderWidth: 1,
+          borderColor: colors.lineSoft,
+          borderRadius: radius.sm,
+          overflow: 'hidden',
+        }}
+      >
+        {wide && columns.length ? (
+          <View
+            style={{
+              flexDirection: 'row',
+              gap: space.md,
+              paddingHorizontal: space.md,
+              paddingVertical: space.xs,
+              backgroundColor: colors.canvas,
+              borderBottomWidth: 1,
+              borderBottomColor: colors.lineSoft,
+            }}
+          >
+            <T variant="label" style={{ width: TITLE_WIDTH, color: colors.muted }}>
+              Element
+            </T>
+            {columns.map((c) => (
+              <T key={c.label} variant="label" style={{ width: c.width, color: colors.muted }}>
+                {c.label}
+              </T>
+            ))}
+          </View>
+        ) : null}
+        {children}
+      </View>
+    </View>
+  );
+}
+
+/** The frame of one element's row: its id and what it is as written, the fields, a "back to base" button. */
+function RowFrame({
+  id,
+  detail,
+  changed,
+  messages,
+  wide,
+  editable,
+  onReset,
+  testID,
+  children,
+}: {
+  id: string;
+  detail: string;
+  changed: boolean;
+  messages: string[];
+  wide: boolean;
+  editable: boolean;
+  onReset: () => void;
+  testID: string;
+  children: ReactNode;
+}) {
+  const reset =
+    changed && editable ? (
+      <IconButton icon="undo" label={`${id}: back to the base`} onPress={onReset} testID={`${testID}-reset`} />
+    ) : (
+      <View style={{ width: 40 }} />
+    );
+  const title = (
+    <View style={{ gap: 2, minWidth: 0, ...(wide ? { width: TITLE_WIDTH } : { flex: 1 }) }}>
+      <T numberOfLines={1} style={{ fontSize: 15 }}>
+        <T style={{ fontFamily: fonts.textBold, fontSize: 15 }}>{id || '(no id)'}</T>
+        {changed ? (
+          <T style={{ color: colors.accent, fontFamily: fonts.textMedium, fontSize: 13 }}>{'  changed'}</T>
+        ) : null}
+      </T>
+      <T variant="small" numberOfLines={wide ? 1 : 2}>
+        {detail}
+      </T>
+    </View>
+  );
+  const errors = messages.length ? (
+    <T style={{ color: colors.danger, fontSize: 14 }} accessibilityRole="alert">
+      {messages.join(' · ')}
+    </T>
+  ) : null;
+  const rowStyle: ViewStyle = {
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    borderTopWidth: 1,
+    borderTopColor: colors.lineSoft,
+    marginTop: -1,
+    borderLeftWidth: 3,
+    borderLeftColor: messages.length ? colors.danger : changed ? colors.accent : 'transparent',
+    backgroundColor: changed ? '#F3FAFA' : colors.surface,
+    gap: space.sm,
+  };
+  if (wide) {
+    return (
+      <View style={rowStyle} testID={testID}>
+        <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.md }}>
+          {title}
+          {children}
+          <View style={{ flex: 1 }} />
+          {reset}
+        </View>
+        {errors}
+      </View>
+    );
+  }
+  return (
+    <View style={rowStyle} testID={testID}>
+      <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
+        {title}
+        {reset}
+      </View>
+      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>{children}</View>
+      {errors}
+    </View>
+  );
+}
+
+/** A field of a row: bare in a table column, labelled on a phone. */
+function Field({
+  wide,
+  width,
+  label,
+  basis,
+  error,
+  children,
+}: {
+  wide: boolean;
+  width: number;
+  label: string;
+  basis: number;
+  error?: string;
+  children: ReactNode;
+}) {
+  if (wide) {
+    return (
+      <View style={{ width, gap: 2 }}>
+        {children}
+        {error ? (
+          <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+            {error}
+          </T>
+        ) : null}
+      </View>
+    );
+  }
+  return (
+    <FormField label={label} basis={basis} error={error}>
+      {children}
+    </FormField>
+  );
+}
+
+const SourceRow = memo(function SourceRow({
+  source,
+  override,
+  issues,
+  editable,
+  wide,
+  patch,
+  testID,
+}: {
+  source: SourceInput;
+  override: SourceOverride | undefined;
+  issues: ReadonlyMap<string, string[]>;
+  editable: boolean;
+  wide: boolean;
+  patch: Patch;
+  testID: string;
+}) {
+  const id = source.id;
+  const size = wide ? 'cell' : 'form';
+  const utility = source.kind === 'utility';
+  // The unit chosen while no override value is entered yet (a value entered fixes the unit).
+  const [unitChoice, setUnitChoice] = useState<'mva' | 'ka' | null>(null);
+  const held = override?.shortCircuitMva !== undefined || override?.shortCircuitKa !== undefined;
+  const unit = held ? faultUnit(source, override) : (unitChoice ?? faultUnit(source, override));
+  const faultKey = unit === 'ka' ? 'shortCircuitKa' : 'shortCircuitMva';
+  const err = (k: string) => issues.get(k)?.join(' · ');
+  const inService = override?.inService !== false;
+  const detail =
+    source.kind === 'utility'
+      ? `Utility at ${source.bus || '—'} · ${baseFaultText(source).replace('base: ', '')} · X/R ${num(source.xr)}`
+      : `Generator at ${source.bus || '—'} · ${num(source.kva)} kVA · X/R ${num(source.xr)}`;
+  const showFault = utility || held;
+  return (
+    <RowFrame
+      id={id}
+      detail={detail}
+      changed={override !== undefined}
+      messages={issues.get('') ?? []}
+      wide={wide}
+      editable={editable}
+      onReset={() => patch((s) => clearOverride(s, 'sources', id))}
+      testID={testID}
+    >
+      <Field wide={wide} width={SERVICE_WIDTH} label="In service" basis={220} error={err('inService')}>
+        <SegCell
+          value={inService ? 'in' : 'out'}
+          options={[
+            { value: 'in', label: 'In service' },
+            { value: 'out', label: 'Out of service' },
+          ]}
+          onChange={(v) => patch((s) => setSourceInService(s, id, v === 'in'))}
+          size={size}
+          editable={editable}
+          invalid={!!err('inService')}
+          testID={`${testID}-service`}
+          accessibilityLabel={`${id} in service`}
+        />
+      </Field>
+      {showFault ? (
+        <Field wide={wide} width={FAULT_WIDTH} label="Short circuit" basis={220} error={err('shortCircuitMva')}>
+          <View style={{ flexDirection: 'row', gap: 4 }}>
+            <NumCell
+              value={override?.[faultKey]}
+              onChange={(v) => patch((s) => setSourceFault(s, id, unit, v))}
+              size={size}
+              invalid={!!err('shortCircuitMva')}
+              editable={editable}
+              placeholder={utility ? baseFaultText(source) : 'generator: none'}
+              testID={`${testID}-fault`}
+              accessibilityLabel={`${id} short circuit in this scenario (${unit === 'ka' ? 'kA' : 'MVA'})`}
+              style={{ flex: 1 }}
+            />
+            <SegCell
+              value={unit}
+              options={[
+                { value: 'mva', label: 'MVA' },
+                { value: 'ka', label: 'kA' },
+              ]}
+              onChange={(u) => {
+                setUnitChoice(u);
+                // A number means another thing in the other unit: the override's fault level is cleared.
+                if (held) patch((s) => setSourceFault(s, id, u, undefined));
+              }}
+              size={size}
+              editable={editable}
+              testID={`${testID}-fault-unit`}
+              accessibilityLabel={`${id} short circuit unit`}
+              style={{ width: 96 }}
+            />
+          </View>
+        </Field>
+      ) : wide ? (
+        <View style={{ width: FAULT_WIDTH, paddingHorizontal: space.sm }}>
+          <T style={{ color: colors.muted, fontSize: 14 }}>from its rating</T>
+        </View>
+      ) : null}
+      <Field wide={wide} width={XR_WIDTH} label="X/R" basis={120} error={err('xr')}>
+        <NumCell
+          value={override?.xr}
+          onChange={(v) => patch((s) => setSourceXr(s, id, v))}
+          size={size}
+          invalid={!!err('xr')}
+          editable={editable}
+          placeholder={`base: ${num(source.xr)}`}
+          testID={`${testID}-xr`}
+          accessibilityLabel={`${id} X/R in this scenario`}
+        />
+      </Field>
+    </RowFrame>
+  );
+});
+
+const TieRow = memo(function TieRow({
+  tie,
+  closed,
+  overridden,
+  issues,
+  editable,
+  wide,
+  patch,
+  testID,
+}: {
+  tie: TieInput;
+  closed: boolean;
+  overridden: boolean;
+  issues: ReadonlyMap<string, string[]>;
+  editable: boolean;
+  wide: boolean;
+  patch: Patch;
+  testID: string;
+}) {
+  const baseClosed = tieBaseClosed(tie);
+  return (
+    <RowFrame
+      id={tie.id}
+      detail={`${tie.fromBus || '—'} — ${tie.toBus || '—'} · base: ${baseClosed ? 'closed' : 'open'}`}
+      changed={overridden}
+      messages={[...(issues.get('') ?? []), ...(issues.get('closed') ?? [])]}
+      wide={wide}
+      editable={editable}
+      onReset={() => patch((s) => clearOverride(s, 'ties', tie.id))}
+      testID={testID}
+    >
+      <Field wide={wide} width={STATE_WIDTH} label="State" basis={200}>
+        <SegCell
+          value={closed ? 'closed' : 'open'}
+          options={[
+            { value: 'closed', label: baseClosed ? 'Closed (base)' : 'Closed' },
+            { value: 'open', label: baseClosed ? 'Open' : 'Open (base)' },
+          ]}
+          onChange={(v) => patch((s) => setTieClosed(s, tie, v === 'closed'))}
+          size={wide ? 'cell' : 'form'}
+          editable={editable}
+          testID={`${testID}-state`}
+          accessibilityLabel={`${tie.id} state in this scenario`}
+        />
+      </Field>
+    </RowFrame>
+  );
+});
+
+const MotorRow = memo(function MotorRow({
+  motor,
+  running,
+  allOff,
+  overridden,
+  issues,
+  editable,
+  wide,
+  patch,
+  testID,
+}: {
+  motor: MotorInput;
+  running: boolean;
+  allOff: boolean;
+  overridden: boolean;
+  issues: ReadonlyMap<string, string[]>;
+  editable: boolean;
+  wide: boolean;
+  patch: Patch;
+  testID: string;
+}) {
+  const byDefault = allOff ? 'stopped (all motors stopped)' : 'running';
+  return (
+    <RowFrame
+      id={motor.id}
+      detail={`${motorSummary(motor)} · default: ${byDefault}`}
+      changed={overridden}
+      messages={[...(issues.get('') ?? []), ...(issues.get('inService') ?? [])]}
+      wide={wide}
+      editable={editable}
+      onReset={() => patch((s) => clearOverride(s, 'motors', motor.id))}
+      testID={testID}
+    >
+      <Field wide={wide} width={STATE_WIDTH} label="State" basis={200}>
+        <SegCell
+          value={running ? 'running' : 'stopped'}
+          options={[
+            { value: 'running', label: 'Running' },
+            { value: 'stopped', label: 'Stopped' },
+          ]}
+          onChange={(v) => patch((s) => setMotorRunning(s, motor.id, v === 'running'))}
+          size={wide ? 'cell' : 'form'}
+          editable={editable}
+          testID={`${testID}-state`}
+          accessibilityLabel={`${motor.id} in this scenario`}
+        />
+      </Field>
+    </RowFrame>
+  );
+});
+
+function OrphanRow({
+  kind,
+  id,
+  messages,
+  editable,
+  patch,
+  testID,
+}: {
+  kind: OverrideKind;
+  id: string;
+  messages: string[];
+  editable: boolean;
+  patch: Patch;
+  testID: string;
+}) {
+  const what = { sources: 'Source', ties: 'Tie', motors: 'Motor' }[kind];
+  return (
+    <View
+      testID={testID}
+      style={{
+        flexDirection: 'row',
+        alignItems: 'center',
+        gap: space.sm,
+        paddingHorizontal: space.md,
+        paddingVertical: space.sm,
+        borderTopWidth: 1,
+        borderTopColor: colors.lineSoft,
+        marginTop: -1,
+        borderLeftWidth: 3,
+        borderLeftColor: colors.danger,
+      }}
+    >
+      <View style={{ flex: 1, minWidth: 0, gap: 2 }}>
+        <T style={{ fontSize: 15 }}>
+          <T style={{ fontFamily: fonts.textBold, fontSize: 15 }}>{id}</T>
+          <T style={{ color: colors.muted, fontSize: 14 }}>{`  ${what.toLowerCase()}`}</T>
+        </T>
+        <T style={{ color: colors.danger, fontSize: 14 }}>
+          {messages.length ? messages.join(' · ') : `No ${what.toLowerCase()} "${id}" in the model`}
+        </T>
+      </View>
+      {editable ? (
+        <Button
+          title="Remove"
+          kind="secondary"
+          onPress={() => patch((s) => clearOverride(s, kind, id))}
+          testID={`${testID}-remove`}
+        />
+      ) : null}
+    </View>
+  );
+}
