@@ -4,6 +4,7 @@ import { accountLinkRoutes } from './accountLinks';
 import { attentionRoutes } from './attention';
 import { authRoutes } from './auth';
 import { calcRoutes, incidentEnergyRoute, shortCircuitRoute } from './calc';
+import { compareRoutes } from './compare';
 import { labelBatchRoutes, studyReportRoute } from './labelBatches';
 import { labelFieldRoutes, labelRoutes } from './labels';
 import { mailRoutes } from './mail';
@@ -37,6 +38,7 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...deviceRoutes,
     ...studyRoutes,
     ...studyIoRoutes,
+    ...compareRoutes,
     ...labelRoutes({ publicCheckPerMinute: opts.publicCheckPerMinute }),
     ...labelFieldRoutes,
     ...labelBatchRoutes,

@@ -2,6 +2,7 @@ import { accountLinksApi } from './accountLinks';
 import { attentionApi } from './attention';
 import { authApi } from './auth';
 import { calcApi } from './calc';
+import { compareApi } from './compare';
 import { devicesApi } from './devices';
 import type { Endpoint } from './endpoint';
 import { labelBatchesApi } from './labelBatches';
@@ -30,6 +31,7 @@ export const contract = {
   calc: calcApi,
   devices: devicesApi,
   studies: studiesApi,
+  compare: compareApi,
   labels: labelsApi,
   labelBatches: labelBatchesApi,
   attention: attentionApi,
