@@ -10,7 +10,7 @@ import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
 import { failInterruptedJobs, failOwnJobs } from './services/jobs';
 import { startReminderScheduler } from './services/reminders';
 import { openFileStore, storageConfigFromEnv } from './storage';
-import { closeStudyWorkers } from './services/studyWorker';
+import { closeStudyWorkers, warmStudyWorker } from './services/studyWorker';
 
 /**
  * `npm start`: migrate, fail the jobs a stopped server left behind, seed the demo into an empty database (outside
@@ -48,6 +48,8 @@ async function main(): Promise<void> {
   // The daily reminders: checked every 5 minutes; each rule goes out once a day after the organization's hour.
   const reminders = startReminderScheduler(ctx);
   const server = createServer(app);
+  // The study worker's engine is loaded and compiled now, off the request thread, rather than by the first run.
+  void warmStudyWorker();
   server.listen(config.port, config.host, () => {
     console.log(`\nEmberline is serving http://localhost:${config.port}`);
     if (demoPresent) {

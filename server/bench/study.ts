@@ -11,6 +11,7 @@ import { createApp } from '../app';
 import { loadConfig } from '../config';
 import { migrate, openDb } from '../db';
 import { seedDemo } from '../seed/demo';
+import { warmStudyWorker } from '../services/studyWorker';
 
 /** Utility → 12.47 kV bus → 20 unit substations (480 V) → each feeds 99 MCC buses by cable; every 480 V bus labelled. */
 export function generatedPlant(substations = 20, perSubstation = 99): ModelInput {
@@ -92,8 +93,8 @@ export function generatedPlant(substations = 20, perSubstation = 99): ModelInput
 }
 
 /**
- * An in-process server on SQLite in a temporary folder with the demo seeded, and the demo engineer's authorization
- * header; `close` waits for its jobs and removes the folder.
+ * An in-process server on SQLite in a temporary folder with the demo seeded and the study worker warmed up (as at
+ * `npm start`), and the demo engineer's authorization header; `close` waits for its jobs and removes the folder.
  */
 export async function benchApp(appOptions: { publicCheckPerMinute?: number } = {}) {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'emberline-bench-'));
@@ -107,6 +108,8 @@ export async function benchApp(appOptions: { publicCheckPerMinute?: number } = {
   const { app, ctx } = createApp({ config, db, signInLimitPerMinute: 1000, ...appOptions });
   const seeded = await seedDemo(ctx, 'bench-password-1');
   await ctx.jobs.idle();
+  // As `npm start` does at start: the study worker is started and warmed up before the first run.
+  await warmStudyWorker();
   const token = (
     await request(app)
       .post('/api/auth/sign-in')

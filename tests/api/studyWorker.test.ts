@@ -11,6 +11,7 @@ import {
   runStudyOffThread,
   studyRunStats,
   studyWorkerCounts,
+  warmStudyWorker,
 } from '../../server/services/studyWorker';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { larkspurModel } from '../../server/seed/larkspurModel';
@@ -113,6 +114,22 @@ describe('the warm study worker', () => {
     expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
     await closeStudyWorkers();
     expect(studyWorkerCounts()).toEqual({ live: 0, idle: 0 });
+  }, 60_000);
+
+  it('the warm-up at start leaves one idle worker; a run started during it waits and takes that worker', async () => {
+    await closeStudyWorkers();
+    const started = studyRunStats.workersStarted;
+    const model = parsed(larkspurModel());
+    const warming = warmStudyWorker();
+    const run = runStudyOffThread(model, options);
+    const [, outcome] = await Promise.all([warming, run]);
+    expect(studyRunStats.workersStarted).toBe(started + 1);
+    expect(outcome.resultsJson).toBe(JSON.stringify(runStudy(model, options)));
+    expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
+    // Once per process: a second call starts nothing.
+    await warmStudyWorker();
+    expect(studyRunStats.workersStarted).toBe(started + 1);
+    await closeStudyWorkers();
   }, 60_000);
 });
 
