@@ -1,4 +1,5 @@
-import type { Model, ModelIssue } from '../../shared/schemas/model';
+import { modelSchema, type Model, type ModelIssue } from '../../shared/schemas/model';
+import { findUnknownKeys } from '../../shared/unknownKeys';
 import type { ImportError, ParsedModelFile } from './columns';
 
 /** The system model as JSON (docs/MODEL-FORMAT.md): `"format": "emberline-model", "version": 1`. */
@@ -140,8 +141,9 @@ export function findJsonSyntaxError(text: string): { message: string; offset: nu
 }
 
 /**
- * Reads a JSON model file. A syntax error comes back with its line and column; the model checks that follow
- * (`parseModel`) are located by their model path, e.g. `cables[2].toBus`.
+ * Reads a JSON model file. A syntax error comes back with its line and column, a key the model does not know with
+ * its path (`buses[3].equipment.workingDistanceMM: unknown field — did you mean workingDistanceMm?`); the model
+ * checks that follow (`parseModel`) are located by their model path, e.g. `cables[2].toBus`.
  */
 export function importModelJson(text: string, fileName = 'model.json'): ParsedModelFile {
   const source = text.replace(/^\uFEFF/, '');
@@ -161,6 +163,27 @@ export function importModelJson(text: string, fileName = 'model.json'): ParsedMo
       errors: [
         { file: fileName, where: fileName, message: 'Expected a JSON object: { "format": "emberline-model", … }' },
       ],
+    };
+  }
+  // A misspelt key would be dropped by the schema and its default used without a word: refuse it, naming the path.
+  const unknownKeys = findUnknownKeys(modelSchema, input);
+  if (unknownKeys.length > 0) {
+    return {
+      ok: false,
+      errors: unknownKeys.map((k) => {
+        const [collection, index] = k.parts;
+        const element =
+          typeof index === 'number' ? (input as Record<string, unknown[]>)[collection]?.[index] : undefined;
+        const id = (element as { id?: unknown } | undefined)?.id;
+        const elementId = typeof id === 'string' ? id : undefined;
+        return {
+          file: fileName,
+          path: k.path,
+          ...(elementId !== undefined ? { elementId } : {}),
+          where: `${fileName} ${k.path}${elementId !== undefined ? ` (${elementId})` : ''}`,
+          message: k.message,
+        };
+      }),
     };
   }
   const locate = (issue: ModelIssue): ImportError => ({
