@@ -20,6 +20,8 @@ export const queryKeys = {
     /** Under `results(id)`, so invalidating the results drops every page and bus too. */
     resultsPage: (id: string, params: Record<string, unknown>) => ['studies', 'results', id, 'page', params] as const,
     busResult: (id: string, busId: string) => ['studies', 'results', id, 'bus', busId] as const,
+    /** Under `results(id)`: a new run of the study drops its comparisons too. */
+    compare: (id: string, otherId: string) => ['studies', 'results', id, 'compare', otherId] as const,
   },
   labels: {
     all: () => ['labels'] as const,

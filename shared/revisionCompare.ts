@@ -1,4 +1,6 @@
-import type { BusChange, BusHazard, ElementChange, ModelElementKind } from './schemas/compare';
+import { formatCalPerCm2 } from './labelDisplay';
+import { formatSig } from './numberFormat';
+import type { BusChange, BusHazard, ElementChange, ModelElementKind, RevisionComparison } from './schemas/compare';
 import type { BusResult } from './schemas/studyResults';
 
 /**
@@ -155,4 +157,75 @@ export function compareBusResults(before: BusResult[], after: BusResult[]): BusC
     };
   });
   return out.sort((p, q) => riseKey(q) - riseKey(p) || p.busId.localeCompare(q.busId));
+}
+
+// ---------------------------------------------------------------------------------------------
+// The words of a comparison, one copy for the screen and the study report.
+
+const KIND_WORDS: Record<ModelElementKind, string> = {
+  model: 'Model',
+  buses: 'Bus',
+  sources: 'Source',
+  transformers: 'Transformer',
+  cables: 'Cable',
+  motors: 'Motor',
+  ties: 'Tie',
+  devices: 'Device',
+  scenarios: 'Scenario',
+};
+
+/** "Device R-TX2 (TX-2 primary relay) changed", "Bus NEW-PNL added". */
+export function elementHeading(e: ElementChange): string {
+  const name = e.name && e.name !== e.id ? ` (${e.name})` : '';
+  return e.kind === 'model' ? 'Model settings changed' : `${KIND_WORDS[e.kind]} ${e.id}${name} ${e.change}`;
+}
+
+const fieldValueText = (v: string | number | boolean | null | undefined) =>
+  v === undefined ? 'not set' : v === null ? 'none' : typeof v === 'string' ? v : String(v);
+
+/** "device.timeDial: 2 → 6". */
+export function fieldChangeText(f: ElementChange['fields'][number]): string {
+  return `${f.field}: ${fieldValueText(f.before)} → ${fieldValueText(f.after)}`;
+}
+
+/** A revision's energy at a bus as printed: "4.8 cal/cm²", "error", or "—" (no such bus). */
+export function hazardEnergyText(h: BusHazard | null): string {
+  if (!h) return '—';
+  if (h.status === 'error' || h.incidentEnergyCalPerCm2 === null) return 'error';
+  return `${formatCalPerCm2(h.incidentEnergyCalPerCm2)} cal/cm²`;
+}
+
+/** The change of energy in words: "+2.31 cal/cm² (+48 %)", "new bus", "removed", "no change", "unknown (…)". */
+export function riseText(c: BusChange): string {
+  if (c.after?.status === 'error') return 'unknown: the newer revision fails at this bus';
+  if (c.before?.status === 'error') return 'unknown: the earlier revision failed at this bus';
+  if (c.change === 'added') return 'new bus';
+  if (c.change === 'removed') return 'no longer labelled';
+  const rise = c.energyRiseCalPerCm2 ?? 0;
+  if (rise === 0) return 'no change';
+  const sign = rise > 0 ? '+' : '−';
+  const pct = c.energyRisePct === null ? '' : ` (${sign}${formatSig(Math.abs(c.energyRisePct), 2)} %)`;
+  return `${sign}${formatSig(Math.abs(rise), 3)} cal/cm²${pct}`;
+}
+
+/** PPE level and signal word changes in words, e.g. ["PPE level 1 → 2", "WARNING → DANGER"]. */
+export function labelChangeTexts(c: BusChange): string[] {
+  const out: string[] = [];
+  if (c.ppeLevelChanged) out.push(`PPE ${c.before?.ppeLevel ?? 'none'} → ${c.after?.ppeLevel ?? 'none'}`);
+  if (c.signalWordChanged) out.push(`${c.before?.signalWord ?? 'none'} → ${c.after?.signalWord ?? 'none'}`);
+  return out;
+}
+
+/** One line over a whole comparison: "1 model change · 1 bus higher, 0 lower · PPE level changed at 0 buses". */
+export function comparisonSummary(c: RevisionComparison): string {
+  const n = (k: number, one: string, many: string) => `${k} ${k === 1 ? one : many}`;
+  const changes = c.model.counts.added + c.model.counts.removed + c.model.counts.changed;
+  const parts = [n(changes, 'model change', 'model changes')];
+  if (c.buses.length) {
+    parts.push(`${n(c.counts.higher, 'bus', 'buses')} higher, ${c.counts.lower} lower`);
+    parts.push(`PPE level changed at ${n(c.counts.ppeLevelChanged, 'bus', 'buses')}`);
+    if (c.counts.signalWordChanged)
+      parts.push(`signal word changed at ${n(c.counts.signalWordChanged, 'bus', 'buses')}`);
+  }
+  return parts.join(' · ');
 }

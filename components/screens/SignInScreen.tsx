@@ -2,32 +2,39 @@ import { Link, Redirect } from 'expo-router';
 import React, { useState } from 'react';
 import { KeyboardAvoidingView, ScrollView, View } from 'react-native';
 import { signInRequestSchema } from '../../shared/schemas/auth';
-import { applyServerErrors, useZodForm } from '../../hooks/forms';
+import { serverErrors, validate } from '../../hooks/forms';
 import { useSession } from '../../hooks/session';
 import { colors, fonts, radius, space } from '../theme';
-import { FormTextField } from '../form';
-import { Button, Notice, T } from '../ui';
+import { Button, Field, Notice, T } from '../ui';
 
 export function SignInScreen() {
   const { user, signIn } = useSession();
-  const form = useZodForm(signInRequestSchema, { defaultValues: { email: '', password: '' } });
+  const [email, setEmail] = useState('');
+  const [password, setPassword] = useState('');
+  const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
 
   if (user) return <Redirect href="/" />;
 
-  const submit = () => {
+  const submit = async () => {
     setMessage(null);
-    void form.handleSubmit(async (data) => {
-      setBusy(true);
-      try {
-        await signIn(data.email, data.password);
-      } catch (e) {
-        setMessage(applyServerErrors(form, e));
-      } finally {
-        setBusy(false);
-      }
-    })();
+    const v = validate(signInRequestSchema, { email, password });
+    if (!v.ok) {
+      setErrors(v.errors);
+      return;
+    }
+    setErrors({});
+    setBusy(true);
+    try {
+      await signIn(v.data.email, v.data.password);
+    } catch (e) {
+      const s = serverErrors(e);
+      setMessage(s.message);
+      setErrors(s.fields);
+    } finally {
+      setBusy(false);
+    }
   };
 
   return (
@@ -50,25 +57,27 @@ export function SignInScreen() {
                 {message}
               </Notice>
             ) : null}
-            <FormTextField
-              control={form.control}
-              name="email"
+            <Field
               label="E-mail"
               testID="email"
+              value={email}
+              onChangeText={setEmail}
               autoCapitalize="none"
               autoComplete="email"
               inputMode="email"
+              error={errors.email}
             />
-            <FormTextField
-              control={form.control}
-              name="password"
+            <Field
               label="Password"
               testID="password"
+              value={password}
+              onChangeText={setPassword}
               secureTextEntry
               autoComplete="current-password"
-              onSubmitEditing={submit}
+              error={errors.password}
+              onSubmitEditing={() => void submit()}
             />
-            <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={submit} />
+            <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={() => void submit()} />
             <Link
               href="/forgot-password"
               style={{

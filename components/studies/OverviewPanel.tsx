@@ -1,9 +1,9 @@
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
-import { View } from 'react-native';
-import { approveSchema, type ApproveInput, type StudyDto } from '../../shared/schemas/studies';
+import { Pressable, View } from 'react-native';
+import { approveSchema, type StudyDto } from '../../shared/schemas/studies';
 import { downloadFile } from '../../hooks/download';
-import { applyServerErrors, serverErrors, useZodForm } from '../../hooks/forms';
+import { serverErrors, validate } from '../../hooks/forms';
 import { useCan } from '../../hooks/permissions';
 import { useUser } from '../../hooks/session';
 import {
@@ -16,9 +16,8 @@ import {
 } from '../../hooks/studies';
 import { Cautions } from '../Cautions';
 import { ComparePanel } from './ComparePanel';
-import { colors, radius, space } from '../theme';
-import { FormCheckbox, FormTextField } from '../form';
-import { Button, Card, Notice, ProgressBar, T } from '../ui';
+import { colors, fonts, radius, space, touch } from '../theme';
+import { Button, Card, Field, Notice, ProgressBar, T } from '../ui';
 import { apiPath } from '../../hooks/api';
 import { contract } from '../../shared/api';
 
@@ -79,23 +78,25 @@ function RunPanel({ study }: { study: StudyDto }) {
   );
 }
 
-/** The approval's fields as entered: the confirmation starts unticked (the schema takes only a ticked one). */
-type ApproveFields = Omit<ApproveInput, 'confirm'> & { confirm: boolean };
-
 function ApproveForm({ study }: { study: StudyDto }) {
   const user = useUser();
   const approve = useApproveStudy(study.id);
   const back = useReturnToDraft(study.id);
-  const form = useZodForm<typeof approveSchema, ApproveFields>(approveSchema, {
-    defaultValues: { approverName: user.name, licenceNumber: '', jurisdiction: '', confirm: false },
-  });
+  const [form, setForm] = useState({ approverName: user.name, licenceNumber: '', jurisdiction: '', confirm: false });
+  const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<string | null>(null);
-  const submit = () =>
-    void form.handleSubmit((data) =>
-      approve.mutate(data, {
-        onError: (e) => setMessage(applyServerErrors(form, e)),
-      }),
-    )();
+  const submit = () => {
+    const v = validate(approveSchema, form);
+    if (!v.ok) return setErrors(v.errors);
+    setErrors({});
+    approve.mutate(v.data, {
+      onError: (e) => {
+        const s = serverErrors(e);
+        setErrors(s.fields);
+        setMessage(s.message);
+      },
+    });
+  };
   return (
     <Card testID="approve-form">
       <T variant="subheading">Review and approval</T>
@@ -105,34 +106,61 @@ function ApproveForm({ study }: { study: StudyDto }) {
       </T>
       {message ? <Notice tone="error">{message}</Notice> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <FormTextField
-          control={form.control}
-          name="approverName"
+        <Field
           label="Approving engineer"
           testID="approver-name"
+          value={form.approverName}
+          onChangeText={(v) => setForm((f) => ({ ...f, approverName: v }))}
+          error={errors.approverName}
           containerStyle={{ flexGrow: 1, flexBasis: 200 }}
         />
-        <FormTextField
-          control={form.control}
-          name="licenceNumber"
+        <Field
           label="Licence number"
           testID="licence-number"
+          value={form.licenceNumber}
+          onChangeText={(v) => setForm((f) => ({ ...f, licenceNumber: v }))}
+          error={errors.licenceNumber}
           containerStyle={{ flexGrow: 1, flexBasis: 160 }}
         />
-        <FormTextField
-          control={form.control}
-          name="jurisdiction"
+        <Field
           label="Jurisdiction"
           testID="jurisdiction"
+          value={form.jurisdiction}
+          onChangeText={(v) => setForm((f) => ({ ...f, jurisdiction: v }))}
+          error={errors.jurisdiction}
           containerStyle={{ flexGrow: 1, flexBasis: 160 }}
         />
       </View>
-      <FormCheckbox
-        control={form.control}
-        name="confirm"
+      <Pressable
+        accessibilityRole="checkbox"
+        aria-checked={form.confirm}
         testID="confirm-review"
-        label="I reviewed the model, the results and their warnings, and I take responsibility for this approval."
-      />
+        onPress={() => setForm((f) => ({ ...f, confirm: !f.confirm }))}
+        style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', minHeight: touch.min }}
+      >
+        <View
+          style={{
+            width: 26,
+            height: 26,
+            borderRadius: 4,
+            borderWidth: 2,
+            borderColor: errors.confirm ? colors.danger : colors.ink,
+            alignItems: 'center',
+            justifyContent: 'center',
+            backgroundColor: form.confirm ? colors.ink : colors.surface,
+          }}
+        >
+          {form.confirm ? <T style={{ color: '#fff', fontFamily: fonts.textBold }}>✓</T> : null}
+        </View>
+        <T style={{ flexShrink: 1 }}>
+          I reviewed the model, the results and their warnings, and I take responsibility for this approval.
+        </T>
+      </Pressable>
+      {errors.confirm ? (
+        <T variant="small" style={{ color: colors.danger }}>
+          {errors.confirm}
+        </T>
+      ) : null}
       <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
         <Button title="Approve this revision" testID="approve" busy={approve.isPending} onPress={submit} />
         <Button title="Return to draft" kind="secondary" busy={back.isPending} onPress={() => back.mutate()} />

@@ -1,1 +1,0 @@
-export { FormCheckbox, FormChoice, FormMultiChoice, FormNumberField, FormTextField } from './fields';
