@@ -1,10 +1,11 @@
 import React, { useState } from 'react';
 import { View } from 'react-native';
 import { siteInputSchema, type Site } from '../shared/schemas/sites';
-import { serverErrors, validate } from '../hooks/forms';
+import { applyServerErrors, useZodForm } from '../hooks/forms';
 import { useSaveSite } from '../hooks/queries';
 import { space } from './theme';
-import { Button, Field, Notice } from './ui';
+import { FormTextField } from './form';
+import { Button, Notice } from './ui';
 
 /** Create or edit a site; validated with the shared schema before it is sent. */
 export function SiteForm({
@@ -16,38 +17,30 @@ export function SiteForm({
   onDone: (s: Site) => void;
   onCancel?: () => void;
 }) {
-  const [name, setName] = useState(site?.name ?? '');
-  const [address, setAddress] = useState(site?.address ?? '');
-  const [description, setDescription] = useState(site?.description ?? '');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm(siteInputSchema, {
+    defaultValues: { name: site?.name ?? '', address: site?.address ?? '', description: site?.description ?? '' },
+  });
   const [message, setMessage] = useState<string | null>(null);
   const save = useSaveSite(site?.id);
 
-  const submit = () => {
-    const v = validate(siteInputSchema, { name, address, description });
-    if (!v.ok) return setErrors(v.errors);
-    setErrors({});
-    save.mutate(v.data, {
-      onSuccess: onDone,
-      onError: (e) => {
-        const s = serverErrors(e);
-        setMessage(s.message);
-        setErrors(s.fields);
-      },
-    });
-  };
+  const submit = () =>
+    void form.handleSubmit((data) =>
+      save.mutate(data, {
+        onSuccess: onDone,
+        onError: (e) => setMessage(applyServerErrors(form, e)),
+      }),
+    )();
 
   return (
     <View style={{ gap: space.md }} testID="site-form">
       {message ? <Notice tone="error">{message}</Notice> : null}
-      <Field label="Site name" testID="site-name" value={name} onChangeText={setName} error={errors.name} />
-      <Field label="Address" testID="site-address" value={address} onChangeText={setAddress} error={errors.address} />
-      <Field
+      <FormTextField control={form.control} name="name" label="Site name" testID="site-name" />
+      <FormTextField control={form.control} name="address" label="Address" testID="site-address" />
+      <FormTextField
+        control={form.control}
+        name="description"
         label="Description"
         testID="site-description"
-        value={description}
-        onChangeText={setDescription}
-        error={errors.description}
         multiline
         style={{ minHeight: 96 }}
       />

@@ -1,43 +1,50 @@
 import React, { useState } from 'react';
 import { View } from 'react-native';
+import { z } from 'zod';
+import { passwordSchema } from '../../shared/schemas/auth';
 import { changePasswordSchema } from '../../shared/schemas/invitations';
 import { ROLE_LABELS } from '../../shared/schemas/common';
 import { useChangePassword } from '../../hooks/account';
-import { serverErrors, validate } from '../../hooks/forms';
+import { applyServerErrors, useZodForm } from '../../hooks/forms';
 import { useMe } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useSession, useUser } from '../../hooks/session';
 import { fonts, space } from '../theme';
-import { Button, Card, Field, Notice, Screen, T, ValueRow } from '../ui';
+import { FormTextField } from '../form';
+import { Button, Card, Notice, Screen, T, ValueRow } from '../ui';
+
+/** The password change with the new password typed twice (compared once the new one is acceptable). */
+const changePasswordForm = changePasswordSchema
+  .extend({ confirm: z.string() })
+  .refine((f) => f.confirm === f.newPassword, {
+    path: ['confirm'],
+    message: 'The two new passwords differ',
+    when: ({ value }) => passwordSchema.safeParse((value as { newPassword?: unknown }).newPassword).success,
+  });
+const emptyPasswords = { currentPassword: '', newPassword: '', confirm: '' };
 
 function ChangePassword() {
   const change = useChangePassword();
-  const [form, setForm] = useState({ currentPassword: '', newPassword: '', confirm: '' });
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm(changePasswordForm, { defaultValues: emptyPasswords });
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
-  const set = (k: keyof typeof form) => (v: string) => setForm((f) => ({ ...f, [k]: v }));
 
   const submit = () => {
     setMessage(null);
-    const v = validate(changePasswordSchema, { currentPassword: form.currentPassword, newPassword: form.newPassword });
-    const errs: Record<string, string> = v.ok ? {} : { ...v.errors };
-    if (!errs.newPassword && form.confirm !== form.newPassword) errs.confirm = 'The two new passwords differ';
-    if (!v.ok || Object.keys(errs).length) return setErrors(errs);
-    setErrors({});
-    change.mutate(v.data, {
-      onSuccess: () => {
-        setForm({ currentPassword: '', newPassword: '', confirm: '' });
-        setMessage({
-          tone: 'ok',
-          text: 'Password changed. You stay signed in here; every other device was signed out.',
-        });
-      },
-      onError: (e) => {
-        const s = serverErrors(e);
-        setErrors(s.fields);
-        setMessage({ tone: 'error', text: s.message });
-      },
-    });
+    void form.handleSubmit(({ currentPassword, newPassword }) =>
+      change.mutate(
+        { currentPassword, newPassword },
+        {
+          onSuccess: () => {
+            form.reset(emptyPasswords);
+            setMessage({
+              tone: 'ok',
+              text: 'Password changed. You stay signed in here; every other device was signed out.',
+            });
+          },
+          onError: (e) => setMessage({ tone: 'error', text: applyServerErrors(form, e) }),
+        },
+      ),
+    )();
   };
 
   return (
@@ -48,35 +55,32 @@ function ChangePassword() {
           {message.text}
         </Notice>
       ) : null}
-      <Field
+      <FormTextField
+        control={form.control}
+        name="currentPassword"
         label="Current password"
         testID="current-password"
-        value={form.currentPassword}
-        onChangeText={set('currentPassword')}
         secureTextEntry
         autoComplete="current-password"
-        error={errors.currentPassword}
       />
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <Field
+        <FormTextField
+          control={form.control}
+          name="newPassword"
           label="New password"
           testID="new-password"
-          value={form.newPassword}
-          onChangeText={set('newPassword')}
           secureTextEntry
           autoComplete="new-password"
-          error={errors.newPassword}
           hint="At least 10 characters"
           containerStyle={{ flexGrow: 1, flexBasis: 220 }}
         />
-        <Field
+        <FormTextField
+          control={form.control}
+          name="confirm"
           label="New password again"
           testID="confirm-password"
-          value={form.confirm}
-          onChangeText={set('confirm')}
           secureTextEntry
           autoComplete="new-password"
-          error={errors.confirm}
           onSubmitEditing={submit}
           containerStyle={{ flexGrow: 1, flexBasis: 220 }}
         />

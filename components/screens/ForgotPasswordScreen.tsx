@@ -2,27 +2,26 @@ import { Link } from 'expo-router';
 import React, { useState } from 'react';
 import { passwordResetRequestSchema } from '../../shared/schemas/invitations';
 import { useRequestPasswordReset } from '../../hooks/account';
-import { serverErrors, validate } from '../../hooks/forms';
+import { serverErrors, useZodForm } from '../../hooks/forms';
 import { colors, fonts } from '../theme';
-import { Button, Field, Notice, PublicPage, T } from '../ui';
+import { FormTextField } from '../form';
+import { Button, Notice, PublicPage, T } from '../ui';
 
 /** Asks for a password-reset link. The answer never says whether the address has an account. */
 export function ForgotPasswordScreen() {
   const request = useRequestPasswordReset();
-  const [email, setEmail] = useState('');
-  const [error, setError] = useState<string | undefined>();
+  const form = useZodForm(passwordResetRequestSchema, { defaultValues: { email: '' } });
   const [message, setMessage] = useState<string | null>(null);
   const [sentTo, setSentTo] = useState<string | null>(null);
 
   const submit = () => {
     setMessage(null);
-    const v = validate(passwordResetRequestSchema, { email });
-    if (!v.ok) return setError(v.errors.email);
-    setError(undefined);
-    request.mutate(v.data.email, {
-      onSuccess: () => setSentTo(v.data.email),
-      onError: (e) => setMessage(serverErrors(e).message),
-    });
+    void form.handleSubmit(({ email }) =>
+      request.mutate(email, {
+        onSuccess: () => setSentTo(email),
+        onError: (e) => setMessage(serverErrors(e).message),
+      }),
+    )();
   };
 
   return (
@@ -50,15 +49,14 @@ export function ForgotPasswordScreen() {
               {message}
             </Notice>
           ) : null}
-          <Field
+          <FormTextField
+            control={form.control}
+            name="email"
             label="E-mail"
             testID="reset-email"
-            value={email}
-            onChangeText={setEmail}
             autoCapitalize="none"
             autoComplete="email"
             inputMode="email"
-            error={error}
             onSubmitEditing={submit}
           />
           <Button title="Send the link" testID="reset-submit" busy={request.isPending} onPress={submit} />

@@ -1,14 +1,16 @@
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
+import { z } from 'zod';
 import { passwordSchema } from '../../shared/schemas/auth';
 import { ROLE_LABELS } from '../../shared/schemas/common';
 import type { TokenInfo } from '../../shared/schemas/invitations';
 import { useLinkInfo, useSetPasswordFromLink } from '../../hooks/account';
 import { ApiClientError } from '../../hooks/api';
 import { fmtDateTime } from '../../hooks/dates';
-import { serverErrors } from '../../hooks/forms';
+import { applyServerErrors, serverErrors, useZodForm } from '../../hooks/forms';
 import { colors, fonts } from '../theme';
-import { Button, Field, Loading, Notice, PublicPage, T } from '../ui';
+import { FormTextField } from '../form';
+import { Button, Loading, Notice, PublicPage, T } from '../ui';
 
 const COPY = {
   invitation: {
@@ -25,14 +27,21 @@ const COPY = {
   },
 } as const;
 
+/** The new password, typed twice: the second is compared once the first is acceptable. */
+const newPasswordForm = z
+  .object({ password: passwordSchema, confirm: z.string() })
+  .refine((f) => f.confirm === f.password, {
+    path: ['confirm'],
+    message: 'The two passwords differ',
+    when: ({ value }) => passwordSchema.safeParse((value as { password?: unknown }).password).success,
+  });
+
 /** A one-time link from an e-mail (invitation or password reset): whose it is, then a new password, then home. */
 export function LinkPasswordScreen({ token, purpose }: { token: string; purpose: TokenInfo['purpose'] }) {
   const router = useRouter();
   const info = useLinkInfo(token);
   const setPassword = useSetPasswordFromLink(purpose);
-  const [password, setPasswordValue] = useState('');
-  const [confirm, setConfirm] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm(newPasswordForm, { defaultValues: { password: '', confirm: '' } });
   const [message, setMessage] = useState<string | null>(null);
   const copy = COPY[purpose];
 
@@ -41,35 +50,21 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
       (info.error.status === 404 || info.error.status === 400 || info.error.status === 410)) ||
     (!!info.data && info.data.purpose !== purpose);
 
-  // A message stays until the field it is about changes.
-  const changePassword = (v: string) => {
-    setPasswordValue(v);
-    setErrors({});
-  };
-  const changeConfirm = (v: string) => {
-    setConfirm(v);
-    setErrors((e) => ({ ...e, confirm: '' }));
-  };
+  // A message stays until the field it is about changes (a new first password makes the comparison moot too).
+  const changePassword = () => form.clearErrors();
+  const changeConfirm = () => form.clearErrors('confirm');
 
   const submit = () => {
     setMessage(null);
-    const p = passwordSchema.safeParse(password);
-    const errs: Record<string, string> = {};
-    if (!p.success) errs.password = p.error.issues[0]?.message ?? 'Choose another password';
-    else if (confirm !== password) errs.confirm = 'The two passwords differ';
-    setErrors(errs);
-    if (Object.keys(errs).length) return;
-    setPassword.mutate(
-      { token, password },
-      {
-        onSuccess: () => router.replace('/'),
-        onError: (e) => {
-          const s = serverErrors(e);
-          setMessage(s.message);
-          setErrors(s.fields);
+    void form.handleSubmit(({ password }) =>
+      setPassword.mutate(
+        { token, password },
+        {
+          onSuccess: () => router.replace('/'),
+          onError: (e) => setMessage(applyServerErrors(form, e)),
         },
-      },
-    );
+      ),
+    )();
   };
 
   const forward = (
@@ -117,24 +112,24 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
               {message}
             </Notice>
           ) : null}
-          <Field
+          <FormTextField
+            control={form.control}
+            name="password"
             label="New password"
             testID="link-password"
-            value={password}
             onChangeText={changePassword}
             secureTextEntry
             autoComplete="new-password"
-            error={errors.password}
             hint="At least 10 characters"
           />
-          <Field
+          <FormTextField
+            control={form.control}
+            name="confirm"
             label="New password again"
             testID="link-confirm"
-            value={confirm}
             onChangeText={changeConfirm}
             secureTextEntry
             autoComplete="new-password"
-            error={errors.confirm}
             onSubmitEditing={submit}
           />
           <Button title={copy.action} testID="link-submit" busy={setPassword.isPending} onPress={submit} />

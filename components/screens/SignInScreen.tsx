@@ -2,39 +2,32 @@ import { Link, Redirect } from 'expo-router';
 import React, { useState } from 'react';
 import { KeyboardAvoidingView, ScrollView, View } from 'react-native';
 import { signInRequestSchema } from '../../shared/schemas/auth';
-import { serverErrors, validate } from '../../hooks/forms';
+import { applyServerErrors, useZodForm } from '../../hooks/forms';
 import { useSession } from '../../hooks/session';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Field, Notice, T } from '../ui';
+import { FormTextField } from '../form';
+import { Button, Notice, T } from '../ui';
 
 export function SignInScreen() {
   const { user, signIn } = useSession();
-  const [email, setEmail] = useState('');
-  const [password, setPassword] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm(signInRequestSchema, { defaultValues: { email: '', password: '' } });
   const [message, setMessage] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
 
   if (user) return <Redirect href="/" />;
 
-  const submit = async () => {
+  const submit = () => {
     setMessage(null);
-    const v = validate(signInRequestSchema, { email, password });
-    if (!v.ok) {
-      setErrors(v.errors);
-      return;
-    }
-    setErrors({});
-    setBusy(true);
-    try {
-      await signIn(v.data.email, v.data.password);
-    } catch (e) {
-      const s = serverErrors(e);
-      setMessage(s.message);
-      setErrors(s.fields);
-    } finally {
-      setBusy(false);
-    }
+    void form.handleSubmit(async (data) => {
+      setBusy(true);
+      try {
+        await signIn(data.email, data.password);
+      } catch (e) {
+        setMessage(applyServerErrors(form, e));
+      } finally {
+        setBusy(false);
+      }
+    })();
   };
 
   return (
@@ -57,27 +50,25 @@ export function SignInScreen() {
                 {message}
               </Notice>
             ) : null}
-            <Field
+            <FormTextField
+              control={form.control}
+              name="email"
               label="E-mail"
               testID="email"
-              value={email}
-              onChangeText={setEmail}
               autoCapitalize="none"
               autoComplete="email"
               inputMode="email"
-              error={errors.email}
             />
-            <Field
+            <FormTextField
+              control={form.control}
+              name="password"
               label="Password"
               testID="password"
-              value={password}
-              onChangeText={setPassword}
               secureTextEntry
               autoComplete="current-password"
-              error={errors.password}
-              onSubmitEditing={() => void submit()}
+              onSubmitEditing={submit}
             />
-            <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={() => void submit()} />
+            <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={submit} />
             <Link
               href="/forgot-password"
               style={{

@@ -3,7 +3,7 @@ import React, { useState } from 'react';
 import { View } from 'react-native';
 import { findEquipmentClass } from '../../shared/equipmentClasses';
 import { createStudySchema } from '../../shared/schemas/studies';
-import { serverErrors, validate } from '../../hooks/forms';
+import { serverErrors, useZodForm } from '../../hooks/forms';
 import { useSite } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useCreateStudy, useEquipment, useStudies } from '../../hooks/studies';
@@ -11,21 +11,21 @@ import { useLayout } from '../../hooks/useLayout';
 import { SiteForm } from '../SiteForm';
 import { StudyList } from '../studies/StudyList';
 import { colors, fonts, space } from '../theme';
-import { Button, Card, Field, Notice, Screen, T } from '../ui';
+import { FormTextField } from '../form';
+import { Button, Card, Notice, Screen, T } from '../ui';
 
 function NewStudy({ siteId, onCancel }: { siteId: string; onCancel: () => void }) {
   const router = useRouter();
   const create = useCreateStudy(siteId);
-  const [title, setTitle] = useState('Arc-flash study');
-  const [error, setError] = useState<string | undefined>();
-  const submit = () => {
-    const v = validate(createStudySchema, { title });
-    if (!v.ok) return setError(v.errors.title);
-    create.mutate(v.data, {
-      onSuccess: (s) => router.push(`/studies/${s.id}?tab=model`),
-      onError: (e) => setError(serverErrors(e).message),
-    });
-  };
+  const form = useZodForm(createStudySchema, { defaultValues: { title: 'Arc-flash study' } });
+  const submit = () =>
+    void form.handleSubmit((data) =>
+      create.mutate(data, {
+        onSuccess: (s) => router.push(`/studies/${s.id}?tab=model`),
+        // The only field: the server's message goes under it.
+        onError: (e) => form.setError('title', { type: 'server', message: serverErrors(e).message }),
+      }),
+    )();
   return (
     <Card testID="new-study">
       <T variant="subheading">Start a study</T>
@@ -33,7 +33,7 @@ function NewStudy({ siteId, onCancel }: { siteId: string; onCancel: () => void }
         A new draft revision with an empty model. Import a workbook, CSV files or a JSON model, or build it in the
         editor.
       </T>
-      <Field label="Title" testID="study-title" value={title} onChangeText={setTitle} error={error} />
+      <FormTextField control={form.control} name="title" label="Title" testID="study-title" />
       <View style={{ flexDirection: 'row', gap: space.sm }}>
         <Button title="Start the study" testID="create-study" busy={create.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onCancel} />

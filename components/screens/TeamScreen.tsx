@@ -4,19 +4,19 @@ import { ROLE_LABELS, ROLES, type Role } from '../../shared/schemas/common';
 import { createInvitationSchema, type InvitationDto } from '../../shared/schemas/invitations';
 import { createUserSchema, type UserAdmin } from '../../shared/schemas/users';
 import { fmtDate } from '../../hooks/dates';
-import { serverErrors, validate } from '../../hooks/forms';
+import { applyServerErrors, serverErrors, useZodForm } from '../../hooks/forms';
 import { useCreateInvitation, useInvitations, useResendInvitation, useRevokeInvitation } from '../../hooks/mail';
 import { useCreateUser, useUpdateUser, useUsers } from '../../hooks/queries';
 import { useUser } from '../../hooks/session';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, space } from '../theme';
+import { FormChoice, FormTextField } from '../form';
 import {
   Button,
   Card,
   Choice,
   ConfirmButton,
   Empty,
-  Field,
   Loading,
   Notice,
   Pill,
@@ -30,64 +30,43 @@ const inRow = { flexGrow: 1, flexBasis: 220 } as const;
 const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
 function NewUserForm({ onDone }: { onDone: () => void }) {
-  const [form, setForm] = useState({ email: '', name: '', role: 'electrician' as Role, password: '' });
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm(createUserSchema, {
+    defaultValues: { email: '', name: '', role: 'electrician' as Role, password: '' },
+  });
   const [message, setMessage] = useState<string | null>(null);
   const create = useCreateUser();
-  const set = (k: keyof typeof form) => (v: string) => setForm((f) => ({ ...f, [k]: v }));
-  const submit = () => {
-    const v = validate(createUserSchema, form);
-    if (!v.ok) return setErrors(v.errors);
-    setErrors({});
-    create.mutate(v.data, {
-      onSuccess: onDone,
-      onError: (e) => {
-        const s = serverErrors(e);
-        setMessage(s.message);
-        setErrors(s.fields);
-      },
-    });
-  };
+  const submit = () =>
+    void form.handleSubmit((data) =>
+      create.mutate(data, {
+        onSuccess: onDone,
+        onError: (e) => setMessage(applyServerErrors(form, e)),
+      }),
+    )();
   return (
     <Card testID="new-user-form">
       <T variant="subheading">Add a person</T>
       {message ? <Notice tone="error">{message}</Notice> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <Field
-          label="Name"
-          testID="user-name"
-          value={form.name}
-          onChangeText={set('name')}
-          error={errors.name}
-          containerStyle={inRow}
-        />
-        <Field
+        <FormTextField control={form.control} name="name" label="Name" testID="user-name" containerStyle={inRow} />
+        <FormTextField
+          control={form.control}
+          name="email"
           label="E-mail"
           testID="user-email"
-          value={form.email}
-          onChangeText={set('email')}
           autoCapitalize="none"
-          error={errors.email}
           containerStyle={inRow}
         />
-        <Field
+        <FormTextField
+          control={form.control}
+          name="password"
           label="Initial password"
           testID="user-password"
-          value={form.password}
-          onChangeText={set('password')}
           secureTextEntry
-          error={errors.password}
           hint="At least 10 characters"
           containerStyle={inRow}
         />
       </View>
-      <Choice
-        label="Role"
-        value={form.role}
-        options={roleOptions}
-        onChange={(r) => setForm((f) => ({ ...f, role: r }))}
-        testID="user-role"
-      />
+      <FormChoice control={form.control} name="role" label="Role" options={roleOptions} testID="user-role" />
       <View style={{ flexDirection: 'row', gap: space.sm }}>
         <Button title="Add person" testID="user-create" busy={create.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onDone} />
@@ -97,27 +76,22 @@ function NewUserForm({ onDone }: { onDone: () => void }) {
 }
 
 function InviteForm({ onDone, onSent }: { onDone: () => void; onSent: (i: InvitationDto) => void }) {
-  const [form, setForm] = useState({ email: '', name: '', role: 'electrician' as Role });
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm(createInvitationSchema, {
+    defaultValues: { email: '', name: '', role: 'electrician' as Role },
+  });
   const [message, setMessage] = useState<string | null>(null);
   const invite = useCreateInvitation();
-  const set = (k: 'email' | 'name') => (v: string) => setForm((f) => ({ ...f, [k]: v }));
   const submit = () => {
     setMessage(null);
-    const v = validate(createInvitationSchema, form);
-    if (!v.ok) return setErrors(v.errors);
-    setErrors({});
-    invite.mutate(v.data, {
-      onSuccess: (i) => {
-        onSent(i);
-        onDone();
-      },
-      onError: (e) => {
-        const s = serverErrors(e);
-        setMessage(s.message);
-        setErrors(s.fields);
-      },
-    });
+    void form.handleSubmit((data) =>
+      invite.mutate(data, {
+        onSuccess: (i) => {
+          onSent(i);
+          onDone();
+        },
+        onError: (e) => setMessage(applyServerErrors(form, e)),
+      }),
+    )();
   };
   return (
     <Card testID="invite-form">
@@ -127,32 +101,18 @@ function InviteForm({ onDone, onSent }: { onDone: () => void; onSent: (i: Invita
       </T>
       {message ? <Notice tone="error">{message}</Notice> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <Field
-          label="Name"
-          testID="invite-name"
-          value={form.name}
-          onChangeText={set('name')}
-          error={errors.name}
-          containerStyle={inRow}
-        />
-        <Field
+        <FormTextField control={form.control} name="name" label="Name" testID="invite-name" containerStyle={inRow} />
+        <FormTextField
+          control={form.control}
+          name="email"
           label="E-mail"
           testID="invite-email"
-          value={form.email}
-          onChangeText={set('email')}
           autoCapitalize="none"
           inputMode="email"
-          error={errors.email}
           containerStyle={inRow}
         />
       </View>
-      <Choice
-        label="Role"
-        value={form.role}
-        options={roleOptions}
-        onChange={(r) => setForm((f) => ({ ...f, role: r }))}
-        testID="invite-role"
-      />
+      <FormChoice control={form.control} name="role" label="Role" options={roleOptions} testID="invite-role" />
       <View style={{ flexDirection: 'row', gap: space.sm }}>
         <Button title="Send invitation" testID="invite-send" busy={invite.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onDone} />

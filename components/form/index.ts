@@ -1,0 +1,1 @@
+export { FormCheckbox, FormChoice, FormMultiChoice, FormNumberField, FormTextField } from './fields';
