@@ -14,6 +14,7 @@ import { isApproved, type StudyReportInput } from './input';
 import { renderInputs } from './inputs';
 import { renderMethod } from './method';
 import { renderResults } from './results';
+import { renderScenarios } from './scenarios';
 import { renderScope } from './scope';
 import { renderTraces } from './traces';
 import { ReportWriter } from './writer';
@@ -42,6 +43,7 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
   renderMethod(w, results, model);
   renderInputs(w, results, model);
   renderResults(w, results);
+  renderScenarios(w, results, model);
   renderTraces(w, results, model);
   renderCautionsAndApproval(w, study, input.cautions);
 
