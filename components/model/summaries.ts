@@ -462,6 +462,10 @@ export function issueMessage(issue: ModelIssue): string {
     if (field === 'bus' || field === 'fromBus' || field === 'toBus') return 'Choose a bus';
     if (field === 'branch' || field === 'source') return 'Choose where the device sits';
   }
+  const generatorFault = /^shortCircuit(?:Mva|Ka) applies to a utility source; "(.*)" is a generator$/.exec(m);
+  if (generatorFault) {
+    return `A fault level applies to a utility only: generator "${generatorFault[1]}" feeds the fault from its rating and reactances`;
+  }
   if (/received undefined/i.test(m)) return 'Required';
   if (/expected number, received NaN/i.test(m)) return 'Enter a number';
   return m;

@@ -7,6 +7,8 @@ import { specs as signInSpecs } from './specs/signIn';
 import { specs as adminSpecs } from './specs/admin';
 import { specs as calcSpecs } from './specs/calc';
 import { specs as studySpecs } from './specs/studies';
+import { specs as modelScenarioSpecs } from './specs/modelScenarios';
+import { specs as scenarioResultSpecs } from './specs/scenarioResults';
 import { specs as labelSpecs } from './specs/labels';
 import { specs as attentionSpecs } from './specs/attention.spec';
 import { specs as reminderApprovalSpecs } from './specs/reminderApproval';
@@ -21,6 +23,8 @@ async function main(): Promise<void> {
     ...adminSpecs,
     ...calcSpecs,
     ...studySpecs,
+    ...modelScenarioSpecs,
+    ...scenarioResultSpecs,
     ...labelSpecs,
     ...attentionSpecs,
     ...reminderApprovalSpecs,

@@ -280,7 +280,7 @@ describe('the Scenarios section', () => {
   it('a generator given a fault level shows the issue at that field', () => {
     const m: ModelInput = { ...plant(), scenarios: [{ id: 'bad', sources: { 'GEN-1': { shortCircuitMva: 10 } } }] };
     const html = render(m, true);
-    expect(html).toContain('applies to a utility source; "GEN-1" is a generator');
+    expect(html).toContain('A fault level applies to a utility only: generator "GEN-1"');
   });
 
   it('phone: cards closed until one is chosen, each with its summary', () => {

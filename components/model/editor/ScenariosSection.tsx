@@ -39,7 +39,6 @@ import {
   elementKey,
   groupIssues,
   issueMessage,
-  motorSummary,
   num,
   problemCount,
   scenarioFieldLabel,
@@ -66,17 +65,19 @@ interface Props {
   onDeleted: (text: string, before: ModelInput, after: ModelInput) => void;
 }
 
-const isScenarioKey = (key: string | undefined) => !!key && key.startsWith('scenarios[');
+const focusedIndex = (focus: Focus | null): number | null =>
+  focus && focus.key.startsWith('scenarios[') ? Number(focus.key.slice('scenarios['.length, -1)) : null;
 
 export function ScenariosSection({ model, grouped, editable, wide, commit, latest, focus, onDeleted }: Props) {
   const scenarios = model.scenarios ?? [];
-  // The chosen scenario: the first on a wide screen; none (all cards closed) on a phone.
-  const [open, setOpen] = useState<number | null>(wide && scenarios.length ? 0 : null);
-  // A jump to a scenario's problem (the issue summary) opens that scenario.
+  // The chosen scenario: the one a jump to a problem (the issue summary) asks for, else the first on a wide screen;
+  // none (all cards closed) on a phone.
+  const [open, setOpen] = useState<number | null>(() => focusedIndex(focus) ?? (wide && scenarios.length ? 0 : null));
   const [seenFocus, setSeenFocus] = useState(focus);
   if (focus !== seenFocus) {
     setSeenFocus(focus);
-    if (focus && isScenarioKey(focus.key)) setOpen(Number(focus.key.slice('scenarios['.length, -1)));
+    const i = focusedIndex(focus);
+    if (i !== null) setOpen(i);
   }
   const chosen = open !== null && open < scenarios.length ? open : wide && scenarios.length ? 0 : null;
   const sectionIssues = grouped.general.filter((g) => g.collection === 'scenarios');
@@ -121,6 +122,7 @@ export function ScenariosSection({ model, grouped, editable, wide, commit, lates
       onDuplicate={duplicate}
       onDelete={remove}
       focused={focus && focus.key === elementKey('scenarios', index) ? focus.nonce : 0}
+      focusField={focus?.field}
     />
   );
 
@@ -424,6 +426,7 @@ function ScenarioDetail({
   onDuplicate,
   onDelete,
   focused,
+  focusField,
 }: {
   index: number;
   scenario: ScenarioInput;
@@ -436,8 +439,13 @@ function ScenarioDetail({
   onDuplicate: (index: number) => void;
   onDelete: (index: number) => void;
   focused: number;
+  focusField: string | undefined;
 }) {
-  const ref = useScrollIntoView(focused);
+  // A jump to a problem of one element scrolls to that element's row; otherwise to the scenario.
+  const target = focused ? scenarioIssueTarget(focusField) : null;
+  const targetKey = target && 'kind' in target ? `${target.kind}:${target.id}` : null;
+  const rowFocus = (key: string) => (targetKey === key ? focused : 0);
+  const ref = useScrollIntoView(targetKey ? 0 : focused);
   const patch = useCallback<Patch>(
     (update) => commit(updateScenario(latest(), index, update)),
     [commit, latest, index],
@@ -548,6 +556,7 @@ function ScenarioDetail({
             editable={editable}
             wide={wide}
             patch={patch}
+            focused={rowFocus(`sources:${src.id}`)}
             testID={`scenario-source-${src.id}`}
           />
         ))}
@@ -571,6 +580,7 @@ function ScenarioDetail({
               editable={editable}
               wide={wide}
               patch={patch}
+              focused={rowFocus(`ties:${t.id}`)}
               testID={`scenario-tie-${t.id}`}
             />
           ))}
@@ -606,6 +616,7 @@ function ScenarioDetail({
               editable={editable}
               wide={wide}
               patch={patch}
+              focused={rowFocus(`motors:${m.id}`)}
               testID={`scenario-motor-${m.id}`}
             />
           ))}
@@ -628,6 +639,7 @@ function ScenarioDetail({
               messages={[...(byElement.get(`${o.kind}:${o.id}`)?.values() ?? [])].flat()}
               editable={editable}
               patch={patch}
+              focused={rowFocus(`${o.kind}:${o.id}`)}
               testID={`scenario-orphan-${o.kind}-${o.id}`}
             />
           ))}
@@ -664,11 +676,13 @@ function DeleteButton({ onPress, testID }: { onPress: () => void; testID: string
 // ---------------------------------------------------------------------------------------------
 // Element rows: one line with fixed columns on a wide screen, a block of labelled fields on a phone
 
-const SERVICE_WIDTH = 230;
-const FAULT_WIDTH = 250;
-const XR_WIDTH = 130;
-const STATE_WIDTH = 230;
-const TITLE_WIDTH = 260;
+// Sized so a row (with its "back to base" button) fits the editor's column beside the side navigation at 1280 px;
+// narrower wide screens wrap the fields under the element's name.
+const SERVICE_WIDTH = 236;
+const FAULT_WIDTH = 244;
+const XR_WIDTH = 96;
+const STATE_WIDTH = 236;
+const TITLE_WIDTH = 230;
 
 function Group({
   title,
@@ -741,6 +755,8 @@ function RowFrame({
   wide,
   editable,
   onReset,
+  inline,
+  focused,
   testID,
   children,
 }: {
@@ -750,16 +766,20 @@ function RowFrame({
   messages: string[];
   wide: boolean;
   editable: boolean;
-  onReset: () => void;
+  /** Several fields: a button takes them all back to the base (a single choice goes back by choosing the base). */
+  onReset?: () => void;
+  /** Phone: the one control sits beside the element's name instead of under it. */
+  inline?: boolean;
+  focused: number;
   testID: string;
   children: ReactNode;
 }) {
-  const reset =
-    changed && editable ? (
-      <IconButton icon="undo" label={`${id}: back to the base`} onPress={onReset} testID={`${testID}-reset`} />
-    ) : (
-      <View style={{ width: 40 }} />
-    );
+  const ref = useScrollIntoView(focused);
+  const reset = !onReset ? null : changed && editable ? (
+    <IconButton icon="undo" label={`${id}: back to the base`} onPress={onReset} testID={`${testID}-reset`} />
+  ) : (
+    <View style={{ width: 40 }} />
+  );
   const title = (
     <View style={{ gap: 2, minWidth: 0, ...(wide ? { width: TITLE_WIDTH } : { flex: 1 }) }}>
       <T numberOfLines={1} style={{ fontSize: 15 }}>
@@ -768,7 +788,7 @@ function RowFrame({
           <T style={{ color: colors.accent, fontFamily: fonts.textMedium, fontSize: 13 }}>{'  changed'}</T>
         ) : null}
       </T>
-      <T variant="small" numberOfLines={wide ? 1 : 2}>
+      <T variant="small" numberOfLines={wide ? 2 : 3}>
         {detail}
       </T>
     </View>
@@ -791,24 +811,23 @@ function RowFrame({
   };
   if (wide) {
     return (
-      <View style={rowStyle} testID={testID}>
-        <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.md }}>
+      <View ref={ref} style={rowStyle} testID={testID}>
+        <View style={{ flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.md }}>
           {title}
           {children}
-          <View style={{ flex: 1 }} />
-          {reset}
+          {reset ? <View style={{ marginLeft: 'auto' }}>{reset}</View> : null}
         </View>
         {errors}
       </View>
     );
   }
   return (
-    <View style={rowStyle} testID={testID}>
+    <View ref={ref} style={rowStyle} testID={testID}>
       <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
         {title}
-        {reset}
+        {inline ? children : reset}
       </View>
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>{children}</View>
+      {inline ? null : <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>{children}</View>}
       {errors}
     </View>
   );
@@ -856,6 +875,7 @@ const SourceRow = memo(function SourceRow({
   editable,
   wide,
   patch,
+  focused,
   testID,
 }: {
   source: SourceInput;
@@ -864,6 +884,7 @@ const SourceRow = memo(function SourceRow({
   editable: boolean;
   wide: boolean;
   patch: Patch;
+  focused: number;
   testID: string;
 }) {
   const id = source.id;
@@ -890,6 +911,7 @@ const SourceRow = memo(function SourceRow({
       wide={wide}
       editable={editable}
       onReset={() => patch((s) => clearOverride(s, 'sources', id))}
+      focused={focused}
       testID={testID}
     >
       <Field wide={wide} width={SERVICE_WIDTH} label="In service" basis={220} error={err('inService')}>
@@ -936,7 +958,7 @@ const SourceRow = memo(function SourceRow({
               editable={editable}
               testID={`${testID}-fault-unit`}
               accessibilityLabel={`${id} short circuit unit`}
-              style={{ width: 96 }}
+              style={{ width: wide ? 92 : 112 }}
             />
           </View>
         </Field>
@@ -961,6 +983,11 @@ const SourceRow = memo(function SourceRow({
   );
 });
 
+/** A choice of two states: a table cell (wide), or beside the element's name (phone). */
+function StateField({ wide, children }: { wide: boolean; children: ReactNode }) {
+  return <View style={{ width: wide ? STATE_WIDTH : 176, flexShrink: 0 }}>{children}</View>;
+}
+
 const TieRow = memo(function TieRow({
   tie,
   closed,
@@ -969,6 +996,7 @@ const TieRow = memo(function TieRow({
   editable,
   wide,
   patch,
+  focused,
   testID,
 }: {
   tie: TieInput;
@@ -978,6 +1006,7 @@ const TieRow = memo(function TieRow({
   editable: boolean;
   wide: boolean;
   patch: Patch;
+  focused: number;
   testID: string;
 }) {
   const baseClosed = tieBaseClosed(tie);
@@ -989,23 +1018,24 @@ const TieRow = memo(function TieRow({
       messages={[...(issues.get('') ?? []), ...(issues.get('closed') ?? [])]}
       wide={wide}
       editable={editable}
-      onReset={() => patch((s) => clearOverride(s, 'ties', tie.id))}
+      inline
+      focused={focused}
       testID={testID}
     >
-      <Field wide={wide} width={STATE_WIDTH} label="State" basis={200}>
+      <StateField wide={wide}>
         <SegCell
           value={closed ? 'closed' : 'open'}
           options={[
-            { value: 'closed', label: baseClosed ? 'Closed (base)' : 'Closed' },
-            { value: 'open', label: baseClosed ? 'Open' : 'Open (base)' },
+            { value: 'closed', label: 'Closed' },
+            { value: 'open', label: 'Open' },
           ]}
           onChange={(v) => patch((s) => setTieClosed(s, tie, v === 'closed'))}
           size={wide ? 'cell' : 'form'}
           editable={editable}
           testID={`${testID}-state`}
-          accessibilityLabel={`${tie.id} state in this scenario`}
+          accessibilityLabel={`${tie.id} in this scenario (base: ${baseClosed ? 'closed' : 'open'})`}
         />
-      </Field>
+      </StateField>
     </RowFrame>
   );
 });
@@ -1019,6 +1049,7 @@ const MotorRow = memo(function MotorRow({
   editable,
   wide,
   patch,
+  focused,
   testID,
 }: {
   motor: MotorInput;
@@ -1029,21 +1060,23 @@ const MotorRow = memo(function MotorRow({
   editable: boolean;
   wide: boolean;
   patch: Patch;
+  focused: number;
   testID: string;
 }) {
-  const byDefault = allOff ? 'stopped (all motors stopped)' : 'running';
+  const rating = motor.hp !== undefined ? `${num(motor.hp)} hp` : `${num(motor.kva)} kVA`;
   return (
     <RowFrame
       id={motor.id}
-      detail={`${motorSummary(motor)} · default: ${byDefault}`}
+      detail={`At ${motor.bus || '—'} · ${rating} · ${allOff ? 'default: stopped' : 'base: running'}`}
       changed={overridden}
       messages={[...(issues.get('') ?? []), ...(issues.get('inService') ?? [])]}
       wide={wide}
       editable={editable}
-      onReset={() => patch((s) => clearOverride(s, 'motors', motor.id))}
+      inline
+      focused={focused}
       testID={testID}
     >
-      <Field wide={wide} width={STATE_WIDTH} label="State" basis={200}>
+      <StateField wide={wide}>
         <SegCell
           value={running ? 'running' : 'stopped'}
           options={[
@@ -1056,7 +1089,7 @@ const MotorRow = memo(function MotorRow({
           testID={`${testID}-state`}
           accessibilityLabel={`${motor.id} in this scenario`}
         />
-      </Field>
+      </StateField>
     </RowFrame>
   );
 });
@@ -1067,6 +1100,7 @@ function OrphanRow({
   messages,
   editable,
   patch,
+  focused,
   testID,
 }: {
   kind: OverrideKind;
@@ -1074,11 +1108,14 @@ function OrphanRow({
   messages: string[];
   editable: boolean;
   patch: Patch;
+  focused: number;
   testID: string;
 }) {
+  const ref = useScrollIntoView(focused);
   const what = { sources: 'Source', ties: 'Tie', motors: 'Motor' }[kind];
   return (
     <View
+      ref={ref}
       testID={testID}
       style={{
         flexDirection: 'row',

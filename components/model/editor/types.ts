@@ -25,6 +25,8 @@ export const SECTION_NOTES: Record<Section, string> = {
 export interface Focus {
   key: string;
   nonce: number;
+  /** The field a jump to a problem asks for (a scenario's `sources.UTIL-1`: the row of that source). */
+  field?: string;
 }
 
 /** Callbacks shared by every row: stable for the editor's lifetime (they read the latest model from a ref). */

@@ -54,9 +54,9 @@ export function useModelEditorState(
   /** The latest model, for callbacks that must stay stable (the scenarios' rows). */
   const latest = useCallback(() => modelRef.current, []);
 
-  const focusOn = useCallback((key: string, expand: boolean) => {
+  const focusOn = useCallback((key: string, expand: boolean, field?: string) => {
     // A new nonce each time, so asking for the same element again scrolls to it again.
-    setFocus((f) => ({ key, nonce: (f?.nonce ?? 0) + 1 }));
+    setFocus((f) => ({ key, nonce: (f?.nonce ?? 0) + 1, ...(field ? { field } : {}) }));
     if (expand) setExpanded((s) => (s.has(key) ? s : new Set(s).add(key)));
   }, []);
 
@@ -113,7 +113,7 @@ export function useModelEditorState(
       if (li.collection) setSection(li.collection);
       else setSection('general');
       setFilter('');
-      if (li.key) focusOn(li.key, true);
+      if (li.key) focusOn(li.key, true, li.field);
     },
     [focusOn],
   );
