@@ -115,6 +115,12 @@ function hazardOf(b: BusResult): BusHazard {
   };
 }
 
+/** Equal within floating-point noise (relative 1e-9), or both missing. */
+function same(a: number | null, b: number | null): boolean {
+  if (a === null || b === null) return a === b;
+  return Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
+}
+
 /** Sort key: a bus failing in the newer revision first (its hazard is unknown), then the largest rise. */
 function riseKey(c: BusChange): number {
   if (c.after?.status === 'error') return Number.POSITIVE_INFINITY;
@@ -133,21 +139,22 @@ export function compareBusResults(before: BusResult[], after: BusResult[]): BusC
     const h1 = now ? hazardOf(now) : null;
     const e0 = h0 ? h0.incidentEnergyCalPerCm2 : 0;
     const e1 = h1 ? h1.incidentEnergyCalPerCm2 : 0;
-    const rise = e0 === null || e1 === null ? null : e1 - e0;
+    // A difference at the level of floating-point noise (a re-ordered network) is no change.
+    const rise = e0 === null || e1 === null ? null : same(e0, e1) ? 0 : e1 - e0;
     const ppeLevelChanged = (h0?.ppeLevel ?? null) !== (h1?.ppeLevel ?? null);
     const signalWordChanged = (h0?.signalWord ?? null) !== (h1?.signalWord ?? null);
-    const same =
+    const unchanged =
       h0 !== null &&
       h1 !== null &&
       h0.status === h1.status &&
-      h0.incidentEnergyCalPerCm2 === h1.incidentEnergyCalPerCm2 &&
-      h0.arcFlashBoundaryMm === h1.arcFlashBoundaryMm &&
+      rise === 0 &&
+      same(h0.arcFlashBoundaryMm, h1.arcFlashBoundaryMm) &&
       !ppeLevelChanged &&
       !signalWordChanged;
     return {
       busId,
       busName: now?.busName ?? old?.busName ?? busId,
-      change: !h0 ? 'added' : !h1 ? 'removed' : same ? 'unchanged' : 'changed',
+      change: !h0 ? 'added' : !h1 ? 'removed' : unchanged ? 'unchanged' : 'changed',
       before: h0,
       after: h1,
       energyRiseCalPerCm2: rise,
@@ -208,11 +215,14 @@ export function riseText(c: BusChange): string {
   return `${sign}${formatSig(Math.abs(rise), 3)} cal/cm²${pct}`;
 }
 
-/** PPE level and signal word changes in words, e.g. ["PPE level 1 → 2", "WARNING → DANGER"]. */
+/** PPE level and signal word changes in words, e.g. ["PPE level 1 → PPE level 2", "WARNING → DANGER"]. */
 export function labelChangeTexts(c: BusChange): string[] {
   const out: string[] = [];
-  if (c.ppeLevelChanged) out.push(`PPE ${c.before?.ppeLevel ?? 'none'} → ${c.after?.ppeLevel ?? 'none'}`);
-  if (c.signalWordChanged) out.push(`${c.before?.signalWord ?? 'none'} → ${c.after?.signalWord ?? 'none'}`);
+  const ppe = (h: BusHazard | null) =>
+    !h ? 'not labelled' : h.status === 'error' ? 'unknown' : (h.ppeLevel ?? 'no PPE level adequate');
+  if (c.ppeLevelChanged) out.push(`${ppe(c.before)} → ${ppe(c.after)}`);
+  const word = (h: BusHazard | null) => (!h ? 'not labelled' : (h.signalWord ?? 'unknown'));
+  if (c.signalWordChanged) out.push(`${word(c.before)} → ${word(c.after)}`);
   return out;
 }
 
