@@ -15,7 +15,7 @@ import { Button, Card, Choice, Notice, T } from '../ui';
 import { apiPath } from '../../hooks/api';
 import { contract, type QueryInputOf } from '../../shared/api';
 
-const TABLES = ['buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices'] as const;
+const TABLES = ['buses', 'sources', 'transformers', 'cables', 'motors', 'ties', 'devices', 'scenarios'] as const;
 
 type ExportQuery = QueryInputOf<typeof contract.studies.exportModel>;
 
