@@ -186,6 +186,16 @@ export const specs: Spec[] = [
       await page.getByTestId('study-tab-overview').click();
       await page.getByTestId('run-study').click();
       await page.getByTestId('run-status').getByText('Finished').waitFor({ timeout: 60_000 });
+      // The changes from the approved revision: only the model's name differs, so no bus changed.
+      const summary = page.getByTestId('compare-summary');
+      await summary.getByText('1 model change').waitFor();
+      assert(
+        (await summary.innerText()).includes('0 buses higher, 0 lower'),
+        `compare summary: ${await summary.innerText()}`,
+      );
+      await page.getByTestId('compare-element-model-model').getByText('name: Larkspur Valley').waitFor();
+      await page.getByTestId('compare-panel').scrollIntoViewIfNeeded();
+      await h.shot(page, 'study-compare-desktop');
       await page.getByTestId('study-tab-results').click();
       await page.getByTestId('result-MCC-1').click();
       await page.getByTestId('trace-sentence').waitFor();
