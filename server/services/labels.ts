@@ -3,9 +3,16 @@ import { Op, type Transaction } from 'sequelize';
 import { REPORT_KINDS } from '../../shared/schemas/fieldReports';
 import type { LabelCheck, LabelContent, LabelDto, LabelStatus } from '../../shared/schemas/labels';
 import { LABEL_CODE_ALPHABET, isLabelCode, normalizeLabelCode, parseLabelCode } from '../../shared/labelCode';
-import { busArcDurationCapS, LABEL_STATUS_NOTICES, labelDisplay, type UnitOrder } from '../../shared/labelDisplay';
+import {
+  busArcDurationCapS,
+  LABEL_STATUS_NOTICES,
+  labelDisplay,
+  type LabelDisplay,
+  type UnitOrder,
+} from '../../shared/labelDisplay';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { FieldReport, Label, Site, type Study, User } from '../db/models';
+import { ReadCache } from '../db/readCache';
 import type { AppContext, AuthUser } from './context';
 import { ApiError } from './errors';
 import { recordAudit } from './audit';
@@ -211,14 +218,37 @@ export async function findLabel(actor: AuthUser, labelId: string, transaction?: 
  * The public check of a printed label: exactly what the label says, its status, and when superseded what the
  * current label of the same equipment says. Nothing else of the organization is revealed.
  */
-export async function checkLabel(ctx: AppContext, rawCode: string): Promise<LabelCheck> {
-  const code = parseLabelCode(rawCode);
-  const label = code && isLabelCode(code) ? await Label.findOne({ where: { code } }) : null;
-  if (!label) throw ApiError.notFound('No label has this code. Check the code, or report the label as not matching.');
-  const now = ctx.now();
-  const status = labelStatus(label, now);
+/** What the public check of one code reads from the database, parsed and laid out for display. */
+interface CheckedLabel {
+  code: string;
+  supersededAt: Date | null;
+  reviewBy: Date;
+  content: LabelContent;
+  display: LabelDisplay;
+  /** For a superseded label: the equipment's current label, if any. */
+  current: LabelContent | null;
+  currentDisplay: LabelDisplay | null;
+}
+
+/**
+ * The public check's reads by code, for a few seconds, dropped on any write of a label (issue, print, install,
+ * supersede: server/db/readCache.ts). The status is worked out from it at every check (the review date passes).
+ */
+const checkedLabels = new ReadCache<CheckedLabel>('labels', 20_000);
+
+/** Empties the public check's cache (tests). */
+export function clearLabelCheckCache(): void {
+  checkedLabels.clear();
+}
+
+async function checkedLabel(code: string): Promise<CheckedLabel | null> {
+  const hit = checkedLabels.get(code);
+  if (hit) return hit;
+  const readAt = checkedLabels.counter();
+  const label = await Label.findOne({ where: { code } });
+  if (!label) return null;
   let current: LabelContent | null = null;
-  if (status === 'superseded') {
+  if (label.supersededAt) {
     const newer = await Label.findOne({
       where: { siteId: label.siteId, equipmentTag: label.equipmentTag, supersededAt: null },
       order: [['issuedAt', 'DESC']],
@@ -226,14 +256,33 @@ export async function checkLabel(ctx: AppContext, rawCode: string): Promise<Labe
     current = newer ? (JSON.parse(newer.content) as LabelContent) : null;
   }
   const content = JSON.parse(label.content) as LabelContent;
-  return {
+  const checked: CheckedLabel = {
     code: label.code,
-    status,
-    statusNotice: LABEL_STATUS_NOTICES[status],
+    supersededAt: label.supersededAt ?? null,
+    reviewBy: label.reviewBy,
     content,
     display: labelDisplay(content),
     current,
     currentDisplay: current ? labelDisplay(current) : null,
+  };
+  checkedLabels.set(code, checked, readAt);
+  return checked;
+}
+
+export async function checkLabel(ctx: AppContext, rawCode: string): Promise<LabelCheck> {
+  const code = parseLabelCode(rawCode);
+  const label = code && isLabelCode(code) ? await checkedLabel(code) : null;
+  if (!label) throw ApiError.notFound('No label has this code. Check the code, or report the label as not matching.');
+  const now = ctx.now();
+  const status = labelStatus(label, now);
+  return {
+    code: label.code,
+    status,
+    statusNotice: LABEL_STATUS_NOTICES[status],
+    content: label.content,
+    display: label.display,
+    current: status === 'superseded' ? label.current : null,
+    currentDisplay: status === 'superseded' ? label.currentDisplay : null,
     checkedAt: now.toISOString(),
   };
 }

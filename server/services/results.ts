@@ -14,6 +14,7 @@ import { BASE_SCENARIO_ID, type Model } from '../../shared/schemas/model';
 import type { RunDto } from '../../shared/schemas/studies';
 import type { BusResult, StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
+import { ReadCache } from '../db/readCache';
 import type { AuthUser } from './context';
 import { ApiError } from './errors';
 import { studyOptionsOf } from './runs';
@@ -41,6 +42,12 @@ interface RunDtoRow {
   finishedAt: Date | string | null;
 }
 
+/**
+ * The run each study's results stand on (found or not visible: not cached), by organization, role and study: read on
+ * every results request, dropped on any write of a study or a run (server/db/readCache.ts).
+ */
+const runOfStudy = new ReadCache<{ id: string; dto: RunDto }>('studies', 10_000);
+
 const RUN_DTO_COLUMNS =
   '"id", "organizationId", "status", "progress", "message", "modelVersion", "startedAt", "finishedAt"';
 
@@ -57,6 +64,11 @@ function dateOf(v: Date | string): Date {
  * (no large column, no model instance), answered from a covering index (migration 009). Null when there is none.
  */
 async function resultsRunOf(actor: AuthUser, studyId: string): Promise<{ id: string; dto: RunDto } | null> {
+  // Visibility depends on the organization and the role only (findStudyHead), so they key the cached answer.
+  const cacheKey = `${actor.organizationId}\n${actor.role}\n${studyId}`;
+  const hit = runOfStudy.get(cacheKey);
+  if (hit) return hit;
+  const readAt = runOfStudy.counter();
   const study = await findStudyHead(actor, studyId);
   const sql = study.approvedRunId
     ? // `("id" || '')`: found through the study's covering index (migration 009), not the primary key and then the row.
@@ -68,7 +80,7 @@ async function resultsRunOf(actor: AuthUser, studyId: string): Promise<{ id: str
   });
   const r = rows[0];
   if (!r) return null;
-  return {
+  const found: { id: string; dto: RunDto } = {
     id: r.id,
     dto: {
       id: r.id,
@@ -80,6 +92,8 @@ async function resultsRunOf(actor: AuthUser, studyId: string): Promise<{ id: str
       finishedAt: r.finishedAt === null ? null : dateOf(r.finishedAt).toISOString(),
     },
   };
+  runOfStudy.set(cacheKey, found, readAt);
+  return found;
 }
 
 const NO_RESULTS = 'No results yet: run the study';
@@ -131,6 +145,8 @@ const scenarioBusCache = new LRUCache<string, BusEntry>({
 
 /** Empties the results caches (tests start from a cold cache with it). */
 export function clearResultsCache(): void {
+  runOfStudy.clear();
+  sentBodies.clear();
   indexCache.clear();
   busCache.clear();
   scenarioBusCache.clear();
@@ -381,25 +397,48 @@ function canonicalQuery(q: ResultsPageQuery): string {
  */
 export interface TaggedBody {
   etagSource: string;
-  body: () => string;
+  body: () => string | Buffer;
+}
+
+/**
+ * Response bodies as sent (bytes), by organization and entity-tag source (the run's DTO, and the query or the bus): a
+ * run's results never change once stored, so one tag always has one body. Looked up only after the request's own
+ * organization-scoped, role-checked look-up of the run.
+ */
+const sentBodies = new LRUCache<string, Buffer>({
+  maxSize: 32 * 1024 * 1024,
+  maxEntrySize: 8 * 1024 * 1024,
+  sizeCalculation: (b) => Math.max(1, b.length),
+});
+
+function sentBody(actor: AuthUser, etagSource: string, make: () => string): () => Buffer {
+  return () => {
+    const key = `${actor.organizationId}\n${etagSource}`;
+    const cached = sentBodies.get(key);
+    if (cached) return cached;
+    const body = Buffer.from(make());
+    sentBodies.set(key, body);
+    return body;
+  };
 }
 
 /** GET /studies/:studyId/results: one page, tagged by the run and the query. */
 export async function resultsPageTagged(actor: AuthUser, studyId: string, q: ResultsPageQuery): Promise<TaggedBody> {
   const { run, runJson, index } = await indexOf(actor, studyId);
-  return {
-    etagSource: `page\n${runJson}\n${canonicalQuery(q)}`,
-    body: () => {
-      const { rows, ...rest } = pageOf(run, index, q);
-      const rowsJson = rows.map((r) => {
-        let j = index.rowJson.get(r);
-        if (j === undefined) index.rowJson.set(r, (j = JSON.stringify(r)));
-        return j;
-      });
-      const head = JSON.stringify(rest);
-      return `${head.slice(0, -1)},"rows":[${rowsJson.join(',')}]}`;
-    },
-  };
+  const etagSource = `page\n${runJson}\n${canonicalQuery(q)}`;
+  return { etagSource, body: sentBody(actor, etagSource, () => pageJson(run, index, q)) };
+}
+
+/** A page's JSON text (each row serialized once per index). */
+function pageJson(run: RunDto, index: ResultsIndex, q: ResultsPageQuery): string {
+  const { rows, ...rest } = pageOf(run, index, q);
+  const rowsJson = rows.map((r) => {
+    let j = index.rowJson.get(r);
+    if (j === undefined) index.rowJson.set(r, (j = JSON.stringify(r)));
+    return j;
+  });
+  const head = JSON.stringify(rest);
+  return `${head.slice(0, -1)},"rows":[${rowsJson.join(',')}]}`;
 }
 
 /** One bus of the study's results with its whole trace; 404 for a bus the results do not have. */
@@ -432,10 +471,12 @@ export async function busResultTagged(
 ): Promise<TaggedBody> {
   if (scenario !== undefined) {
     const { runJson, body } = await scenarioBusBody(actor, studyId, busId, scenario);
-    return { etagSource: `bus\n${runJson}\n${busId}\n${scenario}`, body: () => body };
+    const etagSource = `bus\n${runJson}\n${busId}\n${scenario}`;
+    return { etagSource, body: sentBody(actor, etagSource, () => body) };
   }
   const { runJson, body } = await busResultBody(actor, studyId, busId);
-  return { etagSource: `bus\n${runJson}\n${busId}`, body: () => body };
+  const etagSource = `bus\n${runJson}\n${busId}`;
+  return { etagSource, body: sentBody(actor, etagSource, () => body) };
 }
 
 /**

@@ -8,6 +8,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 import { col, timestamps } from './columns';
+import { bumpOnWrite } from '../readCache';
 
 export class Label extends Model<InferAttributes<Label>, InferCreationAttributes<Label>> {
   declare id: string;
@@ -81,7 +82,8 @@ export function initLabel(sequelize: Sequelize): void {
       installPhotoKey: { type: DataTypes.STRING(200), allowNull: true },
       supersededAt: col.nullableDate(),
     },
-    { sequelize, tableName: 'labels', timestamps: false },
+    // The public label check reads labels through a short-lived cache (server/db/readCache.ts).
+    { sequelize, tableName: 'labels', timestamps: false, hooks: bumpOnWrite('labels') },
   );
 }
 

@@ -8,6 +8,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 import { col, timestamps } from './columns';
+import { bumpOnWrite } from '../readCache';
 
 export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<Site>> {
   declare id: string;
@@ -148,7 +149,8 @@ export function initStudy(sequelize: Sequelize): void {
       supersededAt: col.nullableDate(),
       ...timestamps(),
     },
-    { sequelize, tableName: 'studies' },
+    // Which run a study's results stand on is cached for the results routes (server/db/readCache.ts).
+    { sequelize, tableName: 'studies', hooks: bumpOnWrite('studies') },
   );
 }
 
@@ -169,7 +171,7 @@ export function initStudyRun(sequelize: Sequelize): void {
       startedAt: { type: DataTypes.DATE, allowNull: false },
       finishedAt: col.nullableDate(),
     },
-    { sequelize, tableName: 'study_runs', timestamps: false },
+    { sequelize, tableName: 'study_runs', timestamps: false, hooks: bumpOnWrite('studies') },
   );
 }
 
