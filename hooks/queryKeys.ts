@@ -19,7 +19,9 @@ export const queryKeys = {
     results: (id: string) => ['studies', 'results', id] as const,
     /** Under `results(id)`, so invalidating the results drops every page and bus too. */
     resultsPage: (id: string, params: Record<string, unknown>) => ['studies', 'results', id, 'page', params] as const,
-    busResult: (id: string, busId: string) => ['studies', 'results', id, 'bus', busId] as const,
+    /** `scenario` undefined: the governing scenario (the stored trace). */
+    busResult: (id: string, busId: string, scenario?: string) =>
+      ['studies', 'results', id, 'bus', busId, scenario ?? null] as const,
     /** Under `results(id)`: a new run of the study drops its comparisons too. */
     compare: (id: string, otherId: string) => ['studies', 'results', id, 'compare', otherId] as const,
   },

@@ -31,12 +31,23 @@ export function useResultsPage(studyId: string, params: ResultsPageParams, enabl
   });
 }
 
-/** One bus of a study's results with its whole clearing trace and the devices it names. */
-export function useBusResult(studyId: string, busId: string) {
+/**
+ * One bus of a study's results with its whole clearing trace and the devices it names: in the governing scenario
+ * (the label's basis) when `scenario` is undefined, else in that operating scenario.
+ */
+export function useBusResult(studyId: string, busId: string, scenario?: string, enabled = true) {
   return useQuery({
-    queryKey: queryKeys.studies.busResult(studyId, busId),
-    queryFn: () => callApi(contract.studies.busResult, { params: { studyId, busId } }),
+    queryKey: queryKeys.studies.busResult(studyId, busId, scenario),
+    queryFn: () =>
+      callApi(contract.studies.busResult, {
+        params: { studyId, busId },
+        query: scenario === undefined ? {} : { scenario },
+      }),
+    enabled,
     staleTime: 60_000,
-    retry: (count, e) => (e as { status?: number }).status !== 404 && count < 2,
+    retry: (count, e) => {
+      const status = (e as { status?: number }).status;
+      return status !== 404 && status !== 400 && status !== 409 && count < 2;
+    },
   });
 }

@@ -26,6 +26,7 @@ import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
 import { colors, fonts, radius, space } from '../theme';
 import { Card, Choice, Notice, Num, Screen, T, ValueRow } from '../ui';
 import { ArcRating } from '../labels/ArcRating';
+import { ScenarioSwitch, scenarioBasisSentence } from '../results/ScenarioSwitch';
 
 const caseKey = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) => `${c.location}:${c.arcCase}`;
 const caseTitle = (c: Pick<ArcCaseTrace, 'arcCase' | 'location'>) =>
@@ -241,9 +242,19 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
 export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: string }) {
   const { wide } = useLayout();
   const study = useStudy(studyId);
-  const results = useBusResult(studyId, busId);
+  // The governing scenario's trace (the label's basis) always; another scenario's when one is chosen.
+  const [scenario, setScenario] = useState<string | undefined>(undefined);
+  const governingResult = useBusResult(studyId, busId);
+  const scenarioResult = useBusResult(studyId, busId, scenario, scenario !== undefined);
+  const results = scenario === undefined ? governingResult : scenarioResult;
   const bus = results.data?.bus;
   const [selected, setSelected] = useState<string | null>(null);
+  const governingId = governingResult.data?.governingScenarioId;
+  const scenarioList = governingResult.data?.bus.scenarios;
+  const chooseScenario = (id: string) => {
+    setSelected(null);
+    setScenario(id === governingId ? undefined : id);
+  };
   const current =
     bus && bus.governing
       ? (bus.cases.find((c) => caseKey(c) === (selected ?? caseKey(bus.governing!))) ?? bus.cases[0])
@@ -273,28 +284,78 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
     }),
   });
 
-  if (results.isLoading || study.isLoading)
+  if (governingResult.isLoading || study.isLoading)
     return (
       <Screen title={busId}>
         <T variant="small">Loading…</T>
       </Screen>
     );
-  if (results.error && (results.error as { status?: number }).status !== 404)
+  if (governingResult.error && (governingResult.error as { status?: number }).status !== 404)
     return (
       <Screen title={busId}>
-        <Notice tone="error">{results.error.message}</Notice>
+        <Notice tone="error">{governingResult.error.message}</Notice>
       </Screen>
     );
-  if (!bus)
+  if (!governingResult.data)
     return (
       <Screen title={busId}>
         <Notice tone="error">This bus has no result in the study.</Notice>
       </Screen>
     );
 
-  const busKv = bus.nominalKv;
-  const refer = (a: number, kv: number) => (a * kv) / busKv;
   const reviewed = study.data?.status === 'approved';
+  const labelBus = governingResult.data.bus;
+  // The cautions follow the label (the governing scenario), or the trace shown when it is higher.
+  const cautionEnergy = Math.max(labelBus.incidentEnergyCalPerCm2 ?? 0, bus?.incidentEnergyCalPerCm2 ?? 0) || undefined;
+  const shownScenario = scenario ?? governingId ?? '';
+  const scenarioError = scenario !== undefined ? scenarioResult.error : null;
+  const scenarioBlock =
+    scenarioList && governingId ? (
+      <Card testID="trace-scenarios">
+        <T testID="scenario-basis" style={{ fontSize: 16, lineHeight: 23 }}>
+          {scenarioBasisSentence(scenarioList, governingId, shownScenario)}
+        </T>
+        <ScenarioSwitch
+          scenarios={scenarioList}
+          governingId={governingId}
+          value={shownScenario}
+          onChange={chooseScenario}
+        />
+        {scenario !== undefined && scenarioResult.isFetching ? (
+          <T variant="small" testID="scenario-loading">
+            Computing the trace of this scenario…
+          </T>
+        ) : null}
+        {scenarioError ? <Notice tone="error">{scenarioError.message}</Notice> : null}
+      </Card>
+    ) : null;
+
+  if (!bus)
+    return (
+      <Screen title={`${labelBus.busId} · ${labelBus.busName}`} subtitle="Clearing trace">
+        <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
+          ← All results
+        </Link>
+        {scenarioBlock}
+        <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={cautionEnergy} />
+      </Screen>
+    );
+
+  const busKv = bus.nominalKv;
+  // With scenarios, the one this trace is of (the bolted fault current and everything below are that scenario's).
+  const shownName = scenarioList?.find((x) => x.scenarioId === shownScenario)?.name;
+  const isLabelBasis = scenario === undefined;
+  const labelPart = isLabelBasis ? (
+    bus.labelValues ? (
+      <LabelPreview b={bus} studyMaxArcDurationMs={results.data!.study.maxArcDurationMs} />
+    ) : null
+  ) : (
+    <Notice tone="info" title="Not the label" testID="trace-not-label">
+      This trace is of another operating scenario. The label and its values come from the governing scenario: choose it
+      above to see them.
+    </Notice>
+  );
+  const refer = (a: number, kv: number) => (a * kv) / busKv;
   const iarc = (arcCase: 'full' | 'reduced') =>
     bus.cases.find((c) => c.arcCase === arcCase && c.location === (current?.location ?? 'load-side'))?.arcingCurrentKa;
 
@@ -387,7 +448,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   return (
     <Screen
       title={`${bus.busId} · ${bus.busName}`}
-      subtitle={`Clearing trace · ${fmt(busKv)} kV · bolted fault ${fmt(bus.boltedFaultKa)} kA (X/R ${fmt(bus.xr)})`}
+      subtitle={`Clearing trace${shownName ? ` · ${shownName}` : ''} · ${fmt(busKv)} kV · bolted fault ${fmt(bus.boltedFaultKa)} kA (X/R ${fmt(bus.xr)})`}
     >
       <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
         ← All results
@@ -397,6 +458,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
           Not reviewed or approved: do not use for labels or work planning.
         </Notice>
       ) : null}
+      {scenarioBlock}
       {bus.status === 'error' ? (
         <Notice tone="error" title="This bus could not be evaluated">
           {bus.error?.message ?? ''}
@@ -425,20 +487,16 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
             {detail}
           </View>
           <View style={{ flex: 1, gap: space.lg }}>
-            {bus.labelValues ? (
-              <LabelPreview b={bus} studyMaxArcDurationMs={results.data!.study.maxArcDurationMs} />
-            ) : null}
-            <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={bus.incidentEnergyCalPerCm2} />
+            {labelPart}
+            <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={cautionEnergy} />
           </View>
         </View>
       ) : (
         <>
-          {bus.labelValues ? (
-            <LabelPreview b={bus} studyMaxArcDurationMs={results.data!.study.maxArcDurationMs} />
-          ) : null}
+          {labelPart}
           {plot}
           {detail}
-          <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={bus.incidentEnergyCalPerCm2} />
+          <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={cautionEnergy} />
         </>
       )}
     </Screen>

@@ -143,11 +143,12 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
   const [show, setShow] = useState<Show>('all');
   const [band, setBand] = useState<Band>('all');
   const [ppe, setPpe] = useState<string>('all');
+  const [scenarioFilter, setScenarioFilter] = useState<string>('all');
   const [pageSize, setPageSize] = useState<(typeof PAGE_SIZES)[number]>(PAGE_SIZES[0]);
   const [page, setPage] = useState(1);
   // On a phone the sort and filter controls fold away behind one button, so the first rows show at once.
   const [filtersOpen, setFiltersOpen] = useState(false);
-  const filtered = show !== 'all' || band !== 'all' || ppe !== 'all';
+  const filtered = show !== 'all' || band !== 'all' || ppe !== 'all' || scenarioFilter !== 'all';
   // Any change of sort or filter starts again at the first page.
   const reset =
     <V,>(set: (v: V) => void) =>
@@ -168,6 +169,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
     ...(bandDef.minCal !== undefined ? { minCal: bandDef.minCal } : {}),
     ...(bandDef.maxCal !== undefined ? { maxCal: bandDef.maxCal } : {}),
     ...(ppe !== 'all' ? { ppe } : {}),
+    ...(scenarioFilter !== 'all' ? { scenarioId: scenarioFilter } : {}),
     ...(show === 'warnings' ? { warnings: true } : show === 'errors' ? { errors: true } : {}),
     page,
     pageSize: Number(pageSize),
@@ -190,6 +192,13 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
       busy={results.isFetching && results.isPlaceholderData}
     />
   );
+
+  // With operating scenarios: each row's governing scenario (the one its label takes) by name, and a column for it.
+  const scenarios = data.study.scenarios;
+  const scenarioName = (id: string | null) => (id ? (scenarios?.find((s) => s.id === id)?.name ?? id) : '—');
+  const cols = scenarios
+    ? COLS.flatMap((c) => (c.key === 'e' ? [c, { key: 'scn', label: 'SCENARIO', flex: 1.1 }] : [c]))
+    : COLS;
 
   const reviewed = study.status === 'approved';
   const stale = data.run.modelVersion !== study.modelVersion && study.status === 'draft';
@@ -267,6 +276,15 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                 ...data.summary.byPpeLevel.map((p) => ({ value: p.name, label: `${p.name} (${p.count})` })),
               ]}
             />
+            {scenarios ? (
+              <Choice
+                label="Governing scenario"
+                value={scenarioFilter}
+                onChange={reset(setScenarioFilter)}
+                testID="scenario-filter"
+                options={[{ value: 'all', label: 'Any' }, ...scenarios.map((s) => ({ value: s.id, label: s.name }))]}
+              />
+            ) : null}
             <Choice
               label="Rows per page"
               value={pageSize}
@@ -295,7 +313,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
         <ScrollView horizontal contentContainerStyle={{ minWidth: '100%' }}>
           <View
             style={{
-              minWidth: 940,
+              minWidth: scenarios ? 960 : 940,
               flex: 1,
               backgroundColor: colors.surface,
               borderRadius: radius.lg,
@@ -313,7 +331,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                 borderBottomColor: colors.line,
               }}
             >
-              {COLS.map((c) => (
+              {cols.map((c) => (
                 <T key={c.key} variant="label" style={{ flex: c.flex }}>
                   {c.label}
                 </T>
@@ -349,6 +367,15 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                   <T style={{ flex: 0.9, fontFamily: fonts.numbersBold, fontSize: 15 }}>
                     {b.incidentEnergyCalPerCm2 !== undefined ? formatCalPerCm2(b.incidentEnergyCalPerCm2) : '—'}
                   </T>
+                  {scenarios ? (
+                    <T
+                      style={{ flex: 1.1, fontSize: 13, paddingRight: 6 }}
+                      numberOfLines={2}
+                      testID={`result-${b.busId}-scenario`}
+                    >
+                      {scenarioName(b.scenarioId)}
+                    </T>
+                  ) : null}
                   <T style={{ flex: 1, fontFamily: fonts.numbers, fontSize: 14 }}>
                     {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm) : '—'}
                   </T>
@@ -390,6 +417,11 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                     <SignalChip b={b} />
                   </View>
                   <T variant="small">{b.busName}</T>
+                  {scenarios ? (
+                    <T variant="small" testID={`result-${b.busId}-scenario`}>
+                      Scenario: {scenarioName(b.scenarioId)}
+                    </T>
+                  ) : null}
                   {b.status === 'error' ? (
                     <T style={{ color: colors.danger }}>{b.error?.message}</T>
                   ) : (
