@@ -283,6 +283,14 @@ describe('the Scenarios section', () => {
     expect(html).toContain('A fault level applies to a utility only: generator "GEN-1"');
   });
 
+  it('a long motor list gets a search box; a short one does not', () => {
+    const few: ModelInput = { ...plant(), scenarios: [{ id: 'a' }] };
+    expect(render(few, true)).not.toContain('placeholder="Find motors"');
+    const motors = Array.from({ length: 9 }, (_, i) => ({ id: `P-${i + 1}`, bus: 'SWGR-A', hp: 50, kv: 0.46 }));
+    const many: ModelInput = { ...plant(), motors, scenarios: [{ id: 'a' }] };
+    expect(render(many, true)).toContain('placeholder="Find motors"');
+  });
+
   it('phone: cards closed until one is chosen, each with its summary', () => {
     const m: ModelInput = { ...plant(), scenarios: [{ id: 'gen', sources: { 'UTIL-1': { inService: false } } }] };
     const html = render(m, false);

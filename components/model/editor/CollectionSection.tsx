@@ -174,7 +174,7 @@ export function AddButton({ title, onPress, testID }: { title: string; onPress: 
   );
 }
 
-function FilterBox({
+export function FilterBox({
   value,
   onChange,
   wide,

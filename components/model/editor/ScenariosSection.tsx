@@ -48,7 +48,7 @@ import {
   type SourceInput,
   type TieInput,
 } from '../summaries';
-import { AddButton } from './CollectionSection';
+import { AddButton, FilterBox } from './CollectionSection';
 import { useScrollIntoView } from './rowHooks';
 import { type Focus, NO_ISSUES, SECTION_NOTES } from './types';
 
@@ -316,8 +316,7 @@ const ScenarioListRow = memo(function ScenarioListRow({
     return (
       <Pressable
         accessibilityRole="button"
-        aria-selected={chosen}
-        accessibilityLabel={`Scenario ${idText}${scenario.name ? `, ${scenario.name}` : ''}`}
+        aria-pressed={chosen}
         onPress={onPress}
         testID={`scenario-row-${index}`}
         style={({ hovered }: { pressed: boolean; hovered?: boolean }) => ({
@@ -355,7 +354,6 @@ const ScenarioListRow = memo(function ScenarioListRow({
     <Pressable
       accessibilityRole="button"
       aria-expanded={chosen}
-      accessibilityLabel={`Scenario ${idText}, ${chosen ? 'collapse' : 'expand'}`}
       onPress={onPress}
       testID={`scenario-row-${index}`}
       style={({ pressed }) => ({
@@ -413,6 +411,7 @@ function issuesByTarget(issues: readonly LocatedIssue[]) {
 }
 
 const NO_FIELD_ISSUES: ReadonlyMap<string, string[]> = new Map();
+const MOTOR_FILTER_FROM = 8;
 
 function ScenarioDetail({
   index,
@@ -455,6 +454,12 @@ function ScenarioDetail({
   const ties = model.ties ?? [];
   const motors = model.motors ?? [];
   const orphans = unknownOverrides(model, scenario);
+  // A long motor list (a plant of many MCCs) is found by id, name or bus.
+  const [motorFilter, setMotorFilter] = useState('');
+  const q = motorFilter.trim().toLowerCase();
+  const shownMotors = motors
+    .map((m, i) => ({ m, i }))
+    .filter(({ m }) => !q || `${m.id} ${m.name ?? ''} ${m.bus}`.toLowerCase().includes(q));
   const fieldError = (f: string) => scenarioIssues.get(f)?.join(' · ');
   const others = [...scenarioIssues.entries()].filter(([f]) => f !== 'id' && f !== 'name');
   const base = `scenario-${index}`;
@@ -595,17 +600,32 @@ function ScenarioDetail({
           wide={wide}
           columns={[{ label: 'State', width: STATE_WIDTH }]}
           above={
-            <CheckCell
-              value={scenario.allMotorsOff === true}
-              onChange={(v) => patch((s) => setAllMotorsOff(s, v))}
-              label="All motors stopped"
-              size="form"
-              editable={editable}
-              testID={`${base}-all-motors-off`}
-            />
+            <View
+              style={{
+                flexDirection: wide ? 'row' : 'column',
+                alignItems: wide ? 'center' : 'stretch',
+                justifyContent: 'space-between',
+                gap: space.sm,
+              }}
+            >
+              <CheckCell
+                value={scenario.allMotorsOff === true}
+                onChange={(v) => patch((s) => setAllMotorsOff(s, v))}
+                label="All motors stopped"
+                size="form"
+                editable={editable}
+                testID={`${base}-all-motors-off`}
+              />
+              {motors.length > MOTOR_FILTER_FROM ? (
+                <FilterBox value={motorFilter} onChange={setMotorFilter} wide={wide} label="Find motors" />
+              ) : null}
+            </View>
           }
         >
-          {motors.map((m, i) => (
+          {shownMotors.length === 0 ? (
+            <T variant="small" style={{ padding: space.md }}>{`No motors match “${motorFilter}”.`}</T>
+          ) : null}
+          {shownMotors.map(({ m, i }) => (
             <MotorRow
               key={`${i}:${m.id}`}
               motor={m}
