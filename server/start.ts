@@ -7,6 +7,7 @@ import { User } from './db/models';
 import { log } from './log';
 import { shouldSeedDemo } from './seed/decision';
 import { DEMO_USERS, isEmpty, seedDemo } from './seed/demo';
+import { addMissingGenericTypesEverywhere } from './services/deviceTypes';
 import { failInterruptedJobs, failOwnJobs } from './services/jobs';
 import { startReminderScheduler } from './services/reminders';
 import { openFileStore, storageConfigFromEnv } from './storage';
@@ -41,6 +42,9 @@ async function main(): Promise<void> {
     await seedDemo(ctx, config.demoPassword);
     log.info('Seeded the invented demo organization, its site and an approved study.');
   }
+  const genericAdded = await addMissingGenericTypesEverywhere(ctx);
+  if (genericAdded)
+    log.info(`${genericAdded} generic device type(s) of the starter set added to the device libraries.`);
   const demoPresent = (await User.count({ where: { email: DEMO_USERS.map((u) => u.email) } })) > 0;
   const noUsers = (await User.count()) === 0;
   if (process.env.SKIP_WEB_BUILD !== '1' && webBuildIsStale(process.cwd(), config.webDir))

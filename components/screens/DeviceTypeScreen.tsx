@@ -3,7 +3,12 @@ import { useRouter } from 'expo-router';
 import React, { useMemo, useState } from 'react';
 import { View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
-import { DEVICE_KIND_LABELS, deviceDefinitionSchema, type DeviceDefinition } from '../../shared/schemas/deviceLibrary';
+import {
+  DEVICE_KIND_LABELS,
+  deviceDefinitionSchema,
+  genericNoteSentence,
+  type DeviceDefinition,
+} from '../../shared/schemas/deviceLibrary';
 import { callApi } from '../../hooks/api';
 import { contract } from '../../shared/api';
 import { queryKeys } from '../../hooks/queryKeys';
@@ -213,6 +218,7 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
     </Card>
   );
 
+  const genericNote = id ? existing.data?.genericNote : null;
   const form = (
     <View style={{ gap: space.lg }}>
       {message ? (
@@ -278,6 +284,11 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
       title={id ? name || 'Device type' : `New ${DEVICE_KIND_LABELS[def.kind].toLowerCase()}`}
       subtitle="Device library"
     >
+      {genericNote ? (
+        <Notice tone="warning" testID="device-generic-note">
+          {`${genericNoteSentence(genericNote)} This type is an invented example of its kind, not any maker's data.`}
+        </Notice>
+      ) : null}
       {wide ? (
         <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
           <View style={{ flex: 1 }}>{form}</View>

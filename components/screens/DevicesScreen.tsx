@@ -2,7 +2,7 @@ import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
 import { Pressable, View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
-import { DEVICE_KIND_LABELS } from '../../shared/schemas/deviceLibrary';
+import { DEVICE_KIND_LABELS, genericNoteSentence } from '../../shared/schemas/deviceLibrary';
 import { useDeviceTypes } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
@@ -75,6 +75,15 @@ export function DevicesScreen() {
                   {summary(t.device)}
                 </T>
                 {t.description ? <T variant="small">{t.description}</T> : null}
+                {t.genericNote ? (
+                  <T
+                    variant="small"
+                    style={{ color: colors.caution, fontFamily: fonts.textMedium }}
+                    testID={`device-note-${t.name}`}
+                  >
+                    {genericNoteSentence(t.genericNote)}
+                  </T>
+                ) : null}
               </Card>
             </Pressable>
           </Link>

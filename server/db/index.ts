@@ -11,6 +11,7 @@ import * as m006 from './migrations/006-audit-append-only';
 import * as m007 from './migrations/007-reminder-approvals';
 import * as m008 from './migrations/008-label-settings';
 import * as m009 from './migrations/009-study-run-dto-index';
+import * as m010 from './migrations/010-generic-library';
 import { initModels } from './models';
 import { serializeSqliteWrites, type WriteQueue } from './writeQueue';
 
@@ -25,6 +26,7 @@ const MIGRATIONS = [
   { name: '007-reminder-approvals', ...m007 },
   { name: '008-label-settings', ...m008 },
   { name: '009-study-run-dto-index', ...m009 },
+  { name: '010-generic-library', ...m010 },
 ];
 
 export interface Db {

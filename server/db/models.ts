@@ -6,7 +6,16 @@ import { initFieldReport, initLabel, initLabelBatch } from './models/labels';
 import { initAuditEvent, initCapturedMail, initReminderDeliveryRow, initReminderRuleRow } from './models/audit';
 
 export { Organization, User, LinkToken, RevokedToken, type LinkPurpose } from './models/users';
-export { Site, DeviceType, Study, StudyRun, Equipment, type StudyStatus, type RunStatus } from './models/studies';
+export {
+  Site,
+  DeviceType,
+  GenericLibraryOffer,
+  Study,
+  StudyRun,
+  Equipment,
+  type StudyStatus,
+  type RunStatus,
+} from './models/studies';
 export { Label, FieldReport, LabelBatch, type FieldReportStatus } from './models/labels';
 export { AuditEvent, ReminderRuleRow, ReminderDeliveryRow, CapturedMail } from './models/audit';
 

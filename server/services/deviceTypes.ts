@@ -2,24 +2,18 @@ import { randomUUID } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import type { Device } from '../../shared/schemas/device';
 import {
+  GENERIC_DEVICE_NOTE,
   deviceDefinitionSchema,
   type DeviceDefinition,
   type DeviceType as DeviceTypeDto,
   type DeviceTypeInput,
   deviceTypeInputSchema,
 } from '../../shared/schemas/deviceLibrary';
-import { DeviceType } from '../db/models';
+import { DeviceType, GenericLibraryOffer, Organization } from '../db/models';
 import { EngineError } from '../engine/errors';
 import { resolveElectronicSettings } from '../engine/trip';
 import { clampStoredCurves } from '../engine/trip/clampCurves';
-import {
-  EXAMPLE_BAND,
-  EXAMPLE_ELECTRONIC_TYPE,
-  EXAMPLE_FUSE,
-  EXAMPLE_RELAY_IEC,
-  EXAMPLE_RELAY_IEEE,
-  EXAMPLE_THERMAL_MAGNETIC,
-} from '../engine/trip/exampleDevices';
+import { genericLibrary } from '../engine/trip/genericLibrary';
 import type { AppContext, AuthUser } from './context';
 import { ApiError } from './errors';
 import { recordAudit } from './audit';
@@ -40,6 +34,7 @@ function toDto(row: DeviceType): DeviceTypeDto {
     name: row.name,
     description: row.description,
     source: row.source,
+    genericNote: row.genericKey ? GENERIC_DEVICE_NOTE : null,
     kind: definition.kind,
     definition,
     device: resolveDefinition(definition),
@@ -119,13 +114,17 @@ export async function updateDeviceType(
   return ctx.db.sequelize.transaction(async (transaction) => {
     const row = await findRow(actor, id, transaction);
     const before = { name: row.name, definition: JSON.parse(row.definition) as unknown };
+    const definition = JSON.stringify(data.definition);
+    // A generic type whose curve is changed is the organization's own from then on (it no longer carries the note).
+    const sameCurve = JSON.stringify(deviceDefinitionSchema.parse(before.definition)) === definition;
     await row.update(
       {
         name: data.name,
         kind: data.definition.kind,
         description: data.description,
         source: data.source,
-        definition: JSON.stringify(data.definition),
+        definition,
+        ...(sameCurve ? {} : { genericKey: null }),
       },
       { transaction },
     );
@@ -162,63 +161,31 @@ export async function deleteDeviceType(ctx: AppContext, actor: AuthUser, id: str
   });
 }
 
-/** Invented generic examples for a new organization's library (never a maker's data or names). */
-export const GENERIC_LIBRARY: DeviceTypeInput[] = [
-  {
-    name: 'Generic 20 A molded-case breaker',
-    description: 'Thermal-magnetic, fixed instantaneous.',
-    source: 'Invented example',
-    definition: EXAMPLE_THERMAL_MAGNETIC,
-  },
-  {
-    name: 'Generic 200 A current-limiting fuse',
-    description: 'Total-clearing and minimum-melting curves.',
-    source: 'Invented example',
-    definition: EXAMPLE_FUSE,
-  },
-  {
-    name: 'Feeder relay, very inverse',
-    description: 'IEEE C37.112 very inverse with a 5-cycle breaker.',
-    source: 'Invented example',
-    definition: EXAMPLE_RELAY_IEEE,
-  },
-  {
-    name: 'Incomer relay, standard inverse',
-    description: 'IEC 60255-151 standard inverse.',
-    source: 'Invented example',
-    definition: EXAMPLE_RELAY_IEC,
-  },
-  {
-    name: 'Digitized band, multiples of rating',
-    description: 'A band read off a published curve, as min/max points.',
-    source: 'Invented example',
-    definition: EXAMPLE_BAND,
-  },
-  {
-    name: 'Generic LSIG trip unit, 1600 A frame',
-    description: 'Electronic trip unit: long-time, short-time, instantaneous and ground-fault switches.',
-    source: 'Invented example',
-    definition: {
-      kind: 'electronic',
-      tripType: EXAMPLE_ELECTRONIC_TYPE,
-      positions: {
-        ratingPlug: '1600',
-        longTimePickup: '1.0',
-        longTimeDelay: '10',
-        shortTimePickup: '4',
-        shortTimeDelay: '0.3',
-        shortTimeI2t: 'OUT',
-        instantaneousPickup: '10',
-        groundFaultPickup: '640',
-        groundFaultDelay: '0.2',
-      },
-    },
-  },
-];
+/**
+ * The generic starter set (server/engine/trip/genericLibrary.ts) as library inputs: invented types covering the usual
+ * range, each shown with the note "generic — verify against the manufacturer's published curve".
+ */
+export const GENERIC_LIBRARY: (DeviceTypeInput & { key: string })[] = genericLibrary().map((e) => ({
+  key: e.key,
+  name: e.name,
+  description: e.description,
+  source: e.source,
+  definition: e.definition,
+}));
 
-export async function seedGenericLibrary(organizationId: string, transaction?: Transaction): Promise<void> {
-  for (const input of GENERIC_LIBRARY) {
+/**
+ * Adds the entries of the generic starter set this organization has not been given yet, and records them as given:
+ * idempotent, and a type the organization created, edited or removed is never touched or brought back. Returns the
+ * number of types added.
+ */
+export async function addMissingGenericTypes(organizationId: string, transaction?: Transaction): Promise<number> {
+  const offered = await GenericLibraryOffer.findAll({ where: { organizationId }, transaction });
+  const given = new Set(offered.map((o) => o.genericKey));
+  let added = 0;
+  for (const { key, ...input } of GENERIC_LIBRARY) {
+    if (given.has(key)) continue;
     const data = prepare(input);
+    await GenericLibraryOffer.create({ organizationId, genericKey: key }, { transaction });
     await DeviceType.create(
       {
         id: randomUUID(),
@@ -228,8 +195,33 @@ export async function seedGenericLibrary(organizationId: string, transaction?: T
         description: data.description,
         source: data.source,
         definition: JSON.stringify(data.definition),
+        genericKey: key,
       },
       { transaction },
     );
+    added += 1;
   }
+  return added;
+}
+
+/** A new organization's library: the generic starter set. */
+export async function seedGenericLibrary(organizationId: string, transaction?: Transaction): Promise<void> {
+  await addMissingGenericTypes(organizationId, transaction);
+}
+
+/**
+ * At start: every organization gets the entries of the starter set it has not been given yet (one transaction per
+ * organization; another server starting at the same moment makes one of the two give way on the offers' key).
+ */
+export async function addMissingGenericTypesEverywhere(ctx: Pick<AppContext, 'db'>): Promise<number> {
+  const orgs = await Organization.findAll({ attributes: ['id'] });
+  let added = 0;
+  for (const org of orgs) {
+    try {
+      added += await ctx.db.sequelize.transaction((transaction) => addMissingGenericTypes(org.id, transaction));
+    } catch (e) {
+      if ((e as Error).name !== 'SequelizeUniqueConstraintError') throw e;
+    }
+  }
+  return added;
 }

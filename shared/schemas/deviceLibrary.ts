@@ -56,12 +56,24 @@ export const deviceTypeInputSchema = z
   .meta({ id: 'DeviceTypeInput' });
 export type DeviceTypeInput = z.input<typeof deviceTypeInputSchema>;
 
+/** Shown with every type of the generic starter set, in the library and wherever the device is placed. */
+export const GENERIC_DEVICE_NOTE = "generic — verify against the manufacturer's published curve";
+
+/** The note as a sentence on screen: "Generic — verify against the manufacturer's published curve." */
+export const genericNoteSentence = (note: string): string => `${note.charAt(0).toUpperCase()}${note.slice(1)}.`;
+
 export const deviceTypeSchema = z
   .object({
     id: z.string(),
     name: z.string(),
     description: z.string(),
     source: z.string(),
+    genericNote: z
+      .string()
+      .nullable()
+      .describe(
+        `A type of the generic starter set (invented, not a maker's data): "${GENERIC_DEVICE_NOTE}"; null for the organization's own types`,
+      ),
     kind: z.enum(['thermal-magnetic', 'electronic', 'fuse', 'relay', 'band']),
     definition: deviceDefinitionSchema,
     /** The device with every setting as a number, ready for the engine. */

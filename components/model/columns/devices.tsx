@@ -1,6 +1,6 @@
 /** Protective device fields. */
 import { Pressable, View } from 'react-native';
-import type { DeviceType } from '../../../shared/schemas/deviceLibrary';
+import { genericNoteSentence, type DeviceType } from '../../../shared/schemas/deviceLibrary';
 import type { Device } from '../../../shared/schemas/device';
 import { colors, fonts } from '../../theme';
 import { T } from '../../ui';
@@ -138,6 +138,15 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
             >
               <T style={{ fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink }}>{deviceKindLabel(device)}</T>
               {`  ${deviceSettingsSummary(device)}`}
+            </T>
+          ) : null}
+          {t?.genericNote ? (
+            <T
+              numberOfLines={size === 'cell' ? 1 : undefined}
+              style={{ fontSize: 13, lineHeight: 18, color: colors.caution, paddingHorizontal: 2 }}
+              testID={`${testID}-generic`}
+            >
+              {genericNoteSentence(t.genericNote)}
             </T>
           ) : null}
           {changed ? (

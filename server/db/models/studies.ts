@@ -29,8 +29,23 @@ export class DeviceType extends Model<InferAttributes<DeviceType>, InferCreation
   declare source: CreationOptional<string>;
   /** JSON text of the DeviceDefinition (shared/schemas/deviceLibrary.ts). */
   declare definition: string;
+  /** Key of the generic starter-set entry this type is (server/engine/trip/genericLibrary.ts); null: the organization's own. */
+  declare genericKey: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
+}
+
+/**
+ * A generic starter-set entry once offered to an organization: it is added to the library once, and never again
+ * (an organization that removed it does not get it back).
+ */
+export class GenericLibraryOffer extends Model<
+  InferAttributes<GenericLibraryOffer>,
+  InferCreationAttributes<GenericLibraryOffer>
+> {
+  declare organizationId: string;
+  declare genericKey: string;
+  declare createdAt: CreationOptional<Date>;
 }
 
 export type StudyStatus = 'draft' | 'in-review' | 'approved' | 'superseded';
@@ -118,9 +133,18 @@ export function initDeviceType(sequelize: Sequelize): void {
       description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
       source: { type: DataTypes.STRING(400), allowNull: false, defaultValue: '' },
       definition: { type: DataTypes.TEXT, allowNull: false },
+      genericKey: { type: DataTypes.STRING(60), allowNull: true },
       ...timestamps(),
     },
     { sequelize, tableName: 'device_types' },
+  );
+  GenericLibraryOffer.init(
+    {
+      organizationId: { type: DataTypes.STRING(36), allowNull: false, primaryKey: true },
+      genericKey: { type: DataTypes.STRING(60), allowNull: false, primaryKey: true },
+      createdAt: { type: DataTypes.DATE, allowNull: false },
+    },
+    { sequelize, tableName: 'generic_library_offers', updatedAt: false },
   );
 }
 
