@@ -3,6 +3,7 @@ import {
   useForm,
   type DefaultValues,
   type FieldError,
+  type FieldErrors,
   type FieldValues,
   type Path,
   type Resolver,
@@ -45,11 +46,19 @@ export type ZodForm<F extends FieldValues, S extends z.ZodType> = UseFormReturn<
  */
 export function useZodForm<S extends z.ZodType, F extends FieldValues = z.input<S> & FieldValues>(
   schema: S,
-  options: { defaultValues: DefaultValues<F>; toInput?: (values: F) => unknown },
+  options: {
+    defaultValues: DefaultValues<F>;
+    /** The stored values the form follows when they change (e.g. after a save or another person's edit). */
+    values?: F;
+    toInput?: (values: F) => unknown;
+    /** Rewords messages where the text entered says more than the schema can (e.g. "12.5" for whole days). */
+    reword?: (errors: FieldErrors<F>, values: F) => void;
+  },
 ): ZodForm<F, S> {
   return useForm<F, unknown, z.output<S>>({
     defaultValues: options.defaultValues,
-    resolver: zodFormResolver<S, F>(schema, options.toInput),
+    values: options.values,
+    resolver: zodFormResolver<S, F>(schema, options.toInput, options.reword),
     mode: 'onSubmit',
     reValidateMode: 'onSubmit',
     shouldFocusError: false,
@@ -60,6 +69,7 @@ export function useZodForm<S extends z.ZodType, F extends FieldValues = z.input<
 export function zodFormResolver<S extends z.ZodType, F extends FieldValues = z.input<S> & FieldValues>(
   schema: S,
   toInput?: (values: F) => unknown,
+  reword?: (errors: FieldErrors<F>, values: F) => void,
 ): Resolver<F, unknown, z.output<S>> {
   // The library's resolver is typed by its schema's input; here the fields hold `F`, turned into that input first.
   const check = zodResolver(schema as z.ZodType<z.output<S>, FieldValues>) as unknown as Resolver<
@@ -67,12 +77,15 @@ export function zodFormResolver<S extends z.ZodType, F extends FieldValues = z.i
     unknown,
     z.output<S>
   >;
-  return (values, context, opts) =>
-    check(
+  return async (values, context, opts) => {
+    const result = await check(
       (toInput ? toInput(values) : values) as FieldValues,
       context,
       opts as Parameters<typeof check>[2],
-    ) as ReturnType<Resolver<F, unknown, z.output<S>>>;
+    );
+    if (reword && Object.keys(result.errors).length > 0) reword(result.errors as FieldErrors<F>, values);
+    return result as Awaited<ReturnType<Resolver<F, unknown, z.output<S>>>>;
+  };
 }
 
 /** The form name of a server field key: `ppeLevels[2].name` → `ppeLevels.2.name`. */

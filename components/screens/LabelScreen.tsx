@@ -2,14 +2,16 @@ import { REPORT_KIND_LABELS, REPORT_KINDS } from '../../shared/schemas/fieldRepo
 import React, { useState } from 'react';
 import { Platform, View } from 'react-native';
 import { LABEL_STATUS_LABELS } from '../../shared/schemas/labels';
-import { serverErrors } from '../../hooks/forms';
+import { applyServerErrors, serverErrors, useZodForm } from '../../hooks/forms';
 import { useLabelCheck, useLabelDetail, useMarkInstalled, useReportMismatch } from '../../hooks/labels';
 import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { Cautions } from '../Cautions';
 import { LabelView } from '../labels/LabelView';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Card, Choice, Field, Notice, Screen, T } from '../ui';
+import { contract } from '../../shared/api';
+import { FormChoice, FormTextField } from '../form';
+import { Button, Card, Notice, Screen, T } from '../ui';
 
 const KINDS = REPORT_KINDS.map((value) => ({ value, label: REPORT_KIND_LABELS[value] }));
 
@@ -58,19 +60,25 @@ function InstallPanel({ code }: { code: string }) {
 
 function ReportPanel({ code }: { code: string }) {
   const report = useReportMismatch(code);
-  const [kind, setKind] = useState<(typeof KINDS)[number]['value']>('device');
-  const [text, setText] = useState('');
+  // The text fields of the multipart report, checked with the route's own schema; the photo travels beside them.
+  const form = useZodForm(contract.labels.report.body, { defaultValues: { kind: 'device', text: '' } });
   const [photo, setPhoto] = useState<File | null>(null);
   const [error, setError] = useState<string | null>(null);
+  const send = () => {
+    setError(null);
+    void form.handleSubmit(({ kind, text }) =>
+      report.mutate({ kind, text, photo }, { onError: (e) => setError(applyServerErrors(form, e)) }),
+    )();
+  };
   return (
     <Card testID="report-panel">
       <T variant="subheading">Report what does not match</T>
-      <Choice label="What does not match" value={kind} options={KINDS} onChange={setKind} testID="report-kind" />
-      <Field
+      <FormChoice control={form.control} name="kind" label="What does not match" options={KINDS} testID="report-kind" />
+      <FormTextField
+        control={form.control}
+        name="text"
         label="What you see"
         testID="report-text"
-        value={text}
-        onChangeText={setText}
         multiline
         style={{ minHeight: 90 }}
         hint="e.g. the breaker on the door is a 400 A frame, the label names a 600 A feeder"
@@ -78,17 +86,7 @@ function ReportPanel({ code }: { code: string }) {
       <PhotoInput onFile={setPhoto} testID="report-photo" label="Photo (optional)" />
       {error ? <Notice tone="error">{error}</Notice> : null}
       {report.isSuccess ? <Notice tone="ok">Report sent to the engineers and the safety officer.</Notice> : null}
-      <Button
-        title="Send report"
-        testID="send-report"
-        kind="secondary"
-        busy={report.isPending}
-        onPress={() => {
-          if (text.trim().length < 3) return setError('Say what does not match');
-          setError(null);
-          report.mutate({ kind, text, photo }, { onError: (e) => setError(serverErrors(e).message) });
-        }}
-      />
+      <Button title="Send report" testID="send-report" kind="secondary" busy={report.isPending} onPress={send} />
     </Card>
   );
 }

@@ -5,7 +5,7 @@ import { ATTENTION_LIST_INFO, ATTENTION_LISTS, type AttentionList } from '../../
 import { ROLE_LABELS, ROLES, type Role } from '../../shared/schemas/common';
 import { reminderRuleInputSchema, type ReminderDelivery, type ReminderRule } from '../../shared/schemas/reminders';
 import { fmtDateTime, fmtHourUtc } from '../../hooks/dates';
-import { serverErrors, validate } from '../../hooks/forms';
+import { applyServerErrors, serverErrors, useZodForm } from '../../hooks/forms';
 import {
   useApproveReminderEmails,
   useDeleteReminderRule,
@@ -17,22 +17,8 @@ import {
 import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import {
-  Button,
-  Card,
-  Choice,
-  ConfirmButton,
-  Empty,
-  Field,
-  Loading,
-  MultiChoice,
-  Notice,
-  Pill,
-  type PillTone,
-  QueryError,
-  Screen,
-  T,
-} from '../ui';
+import { FormChoice, FormMultiChoice, FormTextField } from '../form';
+import { Button, Card, ConfirmButton, Empty, Loading, Notice, Pill, type PillTone, QueryError, Screen, T } from '../ui';
 
 const listOptions = ATTENTION_LISTS.map((l) => ({ value: l, label: ATTENTION_LIST_INFO[l].title }));
 const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
@@ -79,99 +65,89 @@ function draftOf(r: ReminderRule): Draft {
   };
 }
 
-/** The first message of a field and of its items (e.g. `emails[2]`). */
-function fieldError(errors: Record<string, string>, key: string): string | undefined {
-  if (errors[key]) return errors[key];
-  const k = Object.keys(errors).find((e) => e.startsWith(`${key}[`) || e.startsWith(`${key}.`));
-  return k ? errors[k] : undefined;
+/** The rule as the schema takes it: the addresses split, the choices as booleans (a message on `emails[2]` shows under the addresses). */
+function inputOf(d: Draft) {
+  return {
+    name: d.name,
+    lists: d.lists,
+    roles: d.roles,
+    emails: d.emails
+      .split(/[\s,;]+/)
+      .map((e) => e.trim())
+      .filter(Boolean),
+    enabled: d.enabled === 'on',
+    onlyWhenSomething: d.onlyWhenSomething === 'yes',
+  };
 }
 
 function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void }) {
-  const [d, setD] = useState<Draft>(rule ? draftOf(rule) : emptyDraft);
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm<typeof reminderRuleInputSchema, Draft>(reminderRuleInputSchema, {
+    defaultValues: rule ? draftOf(rule) : emptyDraft,
+    toInput: inputOf,
+  });
   const [message, setMessage] = useState<string | null>(null);
   const save = useSaveReminderRule();
   const submit = () => {
     setMessage(null);
-    const input = {
-      name: d.name,
-      lists: d.lists,
-      roles: d.roles,
-      emails: d.emails
-        .split(/[\s,;]+/)
-        .map((e) => e.trim())
-        .filter(Boolean),
-      enabled: d.enabled === 'on',
-      onlyWhenSomething: d.onlyWhenSomething === 'yes',
-    };
-    const v = validate(reminderRuleInputSchema, input);
-    if (!v.ok) return setErrors(v.errors);
-    setErrors({});
-    save.mutate(
-      { id: rule?.id, input: v.data },
-      {
-        onSuccess: onDone,
-        onError: (e) => {
-          const s = serverErrors(e);
-          setMessage(s.message);
-          setErrors(s.fields);
+    void form.handleSubmit((input) =>
+      save.mutate(
+        { id: rule?.id, input },
+        {
+          onSuccess: onDone,
+          onError: (e) => setMessage(applyServerErrors(form, e)),
         },
-      },
-    );
+      ),
+    )();
   };
   return (
     <Card testID="rule-form">
       <T variant="subheading">{rule ? `Edit “${rule.name}”` : 'New reminder rule'}</T>
       {message ? <Notice tone="error">{message}</Notice> : null}
-      <Field
+      <FormTextField
+        control={form.control}
+        name="name"
         label="Name"
         testID="rule-name"
-        value={d.name}
-        onChangeText={(name) => setD({ ...d, name })}
-        error={errors.name}
         placeholder="e.g. Weekly safety round-up"
       />
-      <MultiChoice
+      <FormMultiChoice
+        control={form.control}
+        name="lists"
         label="Lists to include"
-        values={d.lists}
         options={listOptions}
-        onChange={(lists) => setD({ ...d, lists })}
-        error={fieldError(errors, 'lists')}
         testID="rule-lists"
       />
-      <MultiChoice
+      <FormMultiChoice
+        control={form.control}
+        name="roles"
         label="Send to everyone with the role"
-        values={d.roles}
         options={roleOptions}
-        onChange={(roles) => setD({ ...d, roles })}
-        error={fieldError(errors, 'roles')}
         testID="rule-roles"
       />
-      <Field
+      <FormTextField
+        control={form.control}
+        name="emails"
         label="Further e-mail addresses"
         testID="rule-emails"
-        value={d.emails}
-        onChangeText={(emails) => setD({ ...d, emails })}
         autoCapitalize="none"
-        error={fieldError(errors, 'emails')}
         hint="Separate several with commas. Addresses outside the organization are mailed once an administrator approves them."
         placeholder="contractor@example.org"
       />
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.lg }}>
-        <Choice
+        <FormChoice
+          control={form.control}
+          name="enabled"
           label="Rule"
-          value={d.enabled}
-          onChange={(enabled) => setD({ ...d, enabled })}
           options={[
             { value: 'on', label: 'Enabled' },
             { value: 'off', label: 'Paused' },
           ]}
           testID="rule-enabled"
         />
-        <Choice
+        <FormChoice
+          control={form.control}
+          name="onlyWhenSomething"
           label="When every chosen list is empty"
-          value={d.onlyWhenSomething}
-          onChange={(onlyWhenSomething) => setD({ ...d, onlyWhenSomething })}
           options={[
             { value: 'yes', label: 'Skip that day' },
             { value: 'no', label: 'Send anyway' },

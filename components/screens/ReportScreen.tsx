@@ -1,15 +1,20 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
 import { Image, View } from 'react-native';
-import { fieldReportTriageSchema, type FieldReportDto } from '../../shared/schemas/fieldReports';
+import {
+  fieldReportTriageSchema,
+  type FieldReportDto,
+  type FieldReportTriage,
+} from '../../shared/schemas/fieldReports';
 import { useFieldReport, useTriageReport } from '../../hooks/attention';
 import { fmtAgeDays, fmtDateTime } from '../../hooks/dates';
-import { serverErrors, validate } from '../../hooks/forms';
+import { applyServerErrors, useZodForm } from '../../hooks/forms';
 import { useCan } from '../../hooks/permissions';
 import { useAuthedImage } from '../../hooks/useAuthedImage';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Card, Field, Loading, Notice, QueryError, Screen, T, ValueRow } from '../ui';
+import { FormTextField } from '../form';
+import { Button, Card, Loading, Notice, QueryError, Screen, T, ValueRow } from '../ui';
 import { kindLabel, ReportStatus } from './ReportsScreen';
 import { apiPath } from '../../hooks/api';
 import { contract } from '../../shared/api';
@@ -65,43 +70,50 @@ function Timeline({ r }: { r: FieldReportDto }) {
   );
 }
 
+/** The triage as entered: the button pressed chooses the status; a note is needed to resolve. */
+type TriageFields = { status: FieldReportTriage['status']; note: string };
+
+const triageInput = ({ status, note }: TriageFields) =>
+  status === 'resolved' ? { status, note } : { status, note: note.trim() || undefined };
+
 /** Engineer and safety officer: acknowledge the report, then resolve it with a note of what was done. */
 function TriagePanel({ r }: { r: FieldReportDto }) {
   const triage = useTriageReport(r.id);
-  const [note, setNote] = useState('');
+  const form = useZodForm<typeof fieldReportTriageSchema, TriageFields>(fieldReportTriageSchema, {
+    defaultValues: { status: 'acknowledged', note: '' },
+    toInput: triageInput,
+  });
   const [error, setError] = useState<string | null>(null);
   const [done, setDone] = useState<string | null>(null);
   if (r.status === 'resolved') return null;
 
-  const send = (status: 'acknowledged' | 'resolved') => {
+  const send = (status: TriageFields['status']) => {
     setError(null);
     setDone(null);
-    const v = validate(
-      fieldReportTriageSchema,
-      status === 'resolved' ? { status, note } : { status, note: note.trim() || undefined },
-    );
-    if (!v.ok) return setError(v.errors.note ?? Object.values(v.errors)[0]);
-    triage.mutate(v.data, {
-      onSuccess: () => {
-        setNote('');
-        setDone(
-          status === 'resolved'
-            ? 'Resolved. The reporter sees the status and your note.'
-            : 'Acknowledged. The reporter sees that it is being looked into.',
-        );
-      },
-      onError: (e) => setError(serverErrors(e).message),
-    });
+    form.setValue('status', status);
+    void form.handleSubmit((data) =>
+      triage.mutate(data, {
+        onSuccess: () => {
+          form.reset({ status, note: '' });
+          setDone(
+            status === 'resolved'
+              ? 'Resolved. The reporter sees the status and your note.'
+              : 'Acknowledged. The reporter sees that it is being looked into.',
+          );
+        },
+        onError: (e) => setError(applyServerErrors(form, e)),
+      }),
+    )();
   };
 
   return (
     <Card testID="triage-panel">
       <T variant="subheading">{r.status === 'open' ? 'Acknowledge or resolve' : 'Resolve'}</T>
-      <Field
+      <FormTextField
+        control={form.control}
+        name="note"
         label={r.status === 'open' ? 'Note (needed to resolve)' : 'What was done'}
         testID="triage-note"
-        value={note}
-        onChangeText={setNote}
         multiline
         numberOfLines={3}
         hint="e.g. setting corrected to match the study; label reprinted and replaced"

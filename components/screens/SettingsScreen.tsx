@@ -1,15 +1,81 @@
-import React, { useState } from 'react';
+import React, { useMemo, useState } from 'react';
 import { Pressable, View } from 'react-native';
+import { useFieldArray, type FieldErrors } from 'react-hook-form';
 import { organizationSettingsSchema, type OrganizationSettings } from '../../shared/schemas/organization';
-import { serverErrors, validate } from '../../hooks/forms';
+import { applyServerErrors, ownErrorMessage, useZodForm } from '../../hooks/forms';
 import { useOrganization, useUpdateSettings } from '../../hooks/queries';
 import { colors, fonts, space, touch } from '../theme';
-import { Button, Card, Choice, Field, Notice, Screen, T } from '../ui';
+import { FormChoice, FormNumberField, FormTextField } from '../form';
+import { Button, Card, Notice, Screen, T } from '../ui';
 
-interface LevelRow {
-  name: string;
-  max: string;
-  description: string;
+/** The settings as entered: numbers as the text typed, the yes/no choice as a word; names are the schema's paths. */
+interface SettingsFields {
+  reviewIntervalMonths: string;
+  signalWord: { dangerAboveCalPerCm2: string };
+  maxArcDurationMs: string;
+  motorDecayModel: OrganizationSettings['motorDecayModel'];
+  requireIndependentApprover: 'yes' | 'no';
+  labelUnitOrder: OrganizationSettings['labelUnitOrder'];
+  notInstalledAfterDays: string;
+  reminderHourUtc: string;
+  ppeLevels: { name: string; maxCalPerCm2: string; description: string }[];
+}
+
+const blankFields: SettingsFields = {
+  reviewIntervalMonths: '60',
+  signalWord: { dangerAboveCalPerCm2: '40' },
+  maxArcDurationMs: '2000',
+  motorDecayModel: 'higher',
+  requireIndependentApprover: 'no',
+  labelUnitOrder: 'si-first',
+  notInstalledAfterDays: '30',
+  reminderHourUtc: '6',
+  ppeLevels: [],
+};
+
+function fieldsOf(s: OrganizationSettings): SettingsFields {
+  return {
+    reviewIntervalMonths: String(s.reviewIntervalMonths),
+    signalWord: { dangerAboveCalPerCm2: String(s.signalWord.dangerAboveCalPerCm2) },
+    maxArcDurationMs: String(s.maxArcDurationMs),
+    motorDecayModel: s.motorDecayModel,
+    requireIndependentApprover: s.requireIndependentApprover ? 'yes' : 'no',
+    labelUnitOrder: s.labelUnitOrder,
+    notInstalledAfterDays: String(s.notInstalledAfterDays),
+    reminderHourUtc: String(s.reminderHourUtc),
+    ppeLevels: s.ppeLevels.map((l) => ({
+      name: l.name,
+      maxCalPerCm2: String(l.maxCalPerCm2),
+      description: l.description ?? '',
+    })),
+  };
+}
+
+/** What the schema checks; an empty whole-number field is not a number (the others read as `Number` reads them). */
+function inputOf(f: SettingsFields) {
+  return {
+    reviewIntervalMonths: Number(f.reviewIntervalMonths),
+    signalWord: { dangerAboveCalPerCm2: Number(f.signalWord.dangerAboveCalPerCm2) },
+    maxArcDurationMs: Number(f.maxArcDurationMs),
+    motorDecayModel: f.motorDecayModel,
+    requireIndependentApprover: f.requireIndependentApprover === 'yes',
+    labelUnitOrder: f.labelUnitOrder,
+    notInstalledAfterDays: f.notInstalledAfterDays.trim() === '' ? Number.NaN : Number(f.notInstalledAfterDays),
+    reminderHourUtc: f.reminderHourUtc.trim() === '' ? Number.NaN : Number(f.reminderHourUtc),
+    ppeLevels: f.ppeLevels.map((l) => ({
+      name: l.name,
+      maxCalPerCm2: Number(l.maxCalPerCm2),
+      description: l.description || undefined,
+    })),
+  };
+}
+
+/** Text that is not a whole number gets a message that says what to type. */
+function reword(errors: FieldErrors<SettingsFields>, f: SettingsFields) {
+  if (errors.notInstalledAfterDays && !/^\d+$/.test(f.notInstalledAfterDays.trim()))
+    errors.notInstalledAfterDays = { type: 'whole', message: 'Enter whole days from 1 to 365' };
+  if (errors.reminderHourUtc && !/^\d+$/.test(f.reminderHourUtc.trim()))
+    errors.reminderHourUtc = { type: 'whole', message: 'Enter a whole hour from 0 to 23' };
 }
 
 /**
@@ -18,79 +84,35 @@ interface LevelRow {
 export function SettingsScreen() {
   const org = useOrganization();
   const save = useUpdateSettings();
-  const [review, setReview] = useState('60');
-  const [danger, setDanger] = useState('40');
-  const [cap, setCap] = useState('2000');
-  const [motorDecay, setMotorDecay] = useState<OrganizationSettings['motorDecayModel']>('higher');
-  const [independent, setIndependent] = useState<'yes' | 'no'>('no');
-  const [unitOrder, setUnitOrder] = useState<'us-first' | 'si-first'>('si-first');
-  const [notInstalled, setNotInstalled] = useState('30');
-  const [reminderHour, setReminderHour] = useState('6');
-  const [levels, setLevels] = useState<LevelRow[]>([]);
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
-
   // The form starts from the stored settings, and follows them when they change on the server.
-  const [loadedFrom, setLoadedFrom] = useState<typeof org.data>(undefined);
-  if (org.data && org.data !== loadedFrom) {
-    setLoadedFrom(org.data);
-    const s: OrganizationSettings = org.data.settings;
-    setReview(String(s.reviewIntervalMonths));
-    setDanger(String(s.signalWord.dangerAboveCalPerCm2));
-    setCap(String(s.maxArcDurationMs));
-    setMotorDecay(s.motorDecayModel);
-    setIndependent(s.requireIndependentApprover ? 'yes' : 'no');
-    setUnitOrder(s.labelUnitOrder);
-    setNotInstalled(String(s.notInstalledAfterDays));
-    setReminderHour(String(s.reminderHourUtc));
-    setLevels(
-      s.ppeLevels.map((l) => ({ name: l.name, max: String(l.maxCalPerCm2), description: l.description ?? '' })),
-    );
-  }
+  const stored = useMemo(() => (org.data ? fieldsOf(org.data.settings) : undefined), [org.data]);
+  const form = useZodForm<typeof organizationSettingsSchema, SettingsFields>(organizationSettingsSchema, {
+    defaultValues: stored ?? blankFields,
+    values: stored,
+    toInput: inputOf,
+    reword,
+  });
+  const levels = useFieldArray({ control: form.control, name: 'ppeLevels' });
+  const levelNames = form.watch('ppeLevels');
+  const reminderHour = form.watch('reminderHourUtc');
+  const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
 
   const submit = () => {
     setMessage(null);
-    const v = validate(organizationSettingsSchema, {
-      reviewIntervalMonths: Number(review),
-      signalWord: { dangerAboveCalPerCm2: Number(danger) },
-      maxArcDurationMs: Number(cap),
-      motorDecayModel: motorDecay,
-      requireIndependentApprover: independent === 'yes',
-      labelUnitOrder: unitOrder,
-      notInstalledAfterDays: notInstalled.trim() === '' ? Number.NaN : Number(notInstalled),
-      reminderHourUtc: reminderHour.trim() === '' ? Number.NaN : Number(reminderHour),
-      ppeLevels: levels.map((l) => ({
-        name: l.name,
-        maxCalPerCm2: Number(l.max),
-        description: l.description || undefined,
-      })),
-    });
-    if (!v.ok) {
-      if (v.errors.notInstalledAfterDays && !/^\d+$/.test(notInstalled.trim()))
-        v.errors.notInstalledAfterDays = 'Enter whole days from 1 to 365';
-      if (v.errors.reminderHourUtc && !/^\d+$/.test(reminderHour.trim()))
-        v.errors.reminderHourUtc = 'Enter a whole hour from 0 to 23';
-      setErrors(v.errors);
-      setMessage({ tone: 'error', text: 'Some settings need attention (marked below).' });
-      return;
-    }
-    setErrors({});
-    save.mutate(v.data, {
-      onSuccess: () =>
-        setMessage({
-          tone: 'ok',
-          text: 'Settings saved. New calculations use them; approved studies keep the values they were approved with.',
+    void form.handleSubmit(
+      (data) =>
+        save.mutate(data, {
+          onSuccess: () =>
+            setMessage({
+              tone: 'ok',
+              text: 'Settings saved. New calculations use them; approved studies keep the values they were approved with.',
+            }),
+          onError: (e) => setMessage({ tone: 'error', text: applyServerErrors(form, e) }),
         }),
-      onError: (e) => {
-        const s = serverErrors(e);
-        setErrors(s.fields);
-        setMessage({ tone: 'error', text: s.message });
-      },
-    });
+      () => setMessage({ tone: 'error', text: 'Some settings need attention (marked below).' }),
+    )();
   };
-
-  const setLevel = (i: number, k: keyof LevelRow) => (v: string) =>
-    setLevels((ls) => ls.map((l, j) => (j === i ? { ...l, [k]: v } : l)));
+  const levelsError = ownErrorMessage(form.formState.errors.ppeLevels);
 
   return (
     <Screen title="Organization settings" subtitle={org.data?.name}>
@@ -102,54 +124,49 @@ export function SettingsScreen() {
       <Card>
         <T variant="subheading">Reviews</T>
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="reviewIntervalMonths"
             label="Review interval"
             unit="months"
-            numeric
             testID="review"
-            value={review}
-            onChangeText={setReview}
-            error={errors.reviewIntervalMonths}
             hint="NFPA 70E: review at least every 5 years (60 months)"
             containerStyle={{ flexGrow: 1, flexBasis: 220 }}
           />
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="maxArcDurationMs"
             label="Arc-duration cap"
             unit="ms"
-            numeric
             testID="cap"
-            value={cap}
-            onChangeText={setCap}
-            error={errors.maxArcDurationMs}
             hint="IEEE 1584 guidance: 2 s where the worker can move away"
             containerStyle={{ flexGrow: 1, flexBasis: 220 }}
           />
         </View>
-        <Choice
+        <FormChoice
+          control={form.control}
+          name="requireIndependentApprover"
           label="The approving engineer must differ from the last editor"
-          value={independent}
           options={[
             { value: 'no', label: 'Not required' },
             { value: 'yes', label: 'Required' },
           ]}
-          onChange={setIndependent}
           testID="independent"
         />
       </Card>
       <Card testID="motor-decay-settings">
         <T variant="subheading">Motor contribution</T>
-        <Choice
+        <FormChoice
+          control={form.control}
+          name="motorDecayModel"
           label="A motor’s contribution to the arc over its decay time"
-          value={motorDecay}
           options={[
             { value: 'higher', label: 'Both, keep the higher energy (default)' },
             { value: 'step', label: 'Full, then stops' },
             { value: 'exponential', label: 'Decays exponentially' },
           ]}
-          onChange={setMotorDecay}
           testID="motor-decay-model"
         />
-        {errors.motorDecayModel ? <Notice tone="error">{errors.motorDecayModel}</Notice> : null}
         <T variant="small">
           Full, then stops: each motor feeds its full first-cycle current until its decay time, then nothing — the
           higher current while it lasts. Decays exponentially: the current falls as e^(−t/τ), τ the decay time, and is
@@ -163,25 +180,21 @@ export function SettingsScreen() {
       <Card testID="attention-settings">
         <T variant="subheading">Attention and reminders</T>
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="notInstalledAfterDays"
             label="A label needs attention when not installed after"
             unit="days"
-            numeric
             testID="not-installed-days"
-            value={notInstalled}
-            onChangeText={setNotInstalled}
-            error={errors.notInstalledAfterDays}
             hint="Counted from the label’s issue; listed on the dashboard after that"
             containerStyle={{ flexGrow: 1, flexBasis: 220 }}
           />
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="reminderHourUtc"
             label="Daily reminders go out at"
             unit="hour, UTC, 0–23"
-            numeric
             testID="reminder-hour-utc"
-            value={reminderHour}
-            onChangeText={setReminderHour}
-            error={errors.reminderHourUtc}
             hint={
               /^\d{1,2}$/.test(reminderHour.trim())
                 ? `${reminderHour.trim().padStart(2, '0')}:00 UTC`
@@ -193,27 +206,25 @@ export function SettingsScreen() {
       </Card>
       <Card>
         <T variant="subheading">Signal word</T>
-        <Field
+        <FormNumberField
+          control={form.control}
+          name="signalWord.dangerAboveCalPerCm2"
           label="DANGER above"
           unit="cal/cm²"
-          numeric
           testID="danger"
-          value={danger}
-          onChangeText={setDanger}
-          error={errors['signalWord.dangerAboveCalPerCm2']}
           hint="Otherwise WARNING (ANSI Z535.4 signal words). Default 40 cal/cm², common practice."
         />
       </Card>
       <Card>
         <T variant="subheading">Units on labels</T>
-        <Choice
+        <FormChoice
+          control={form.control}
+          name="labelUnitOrder"
           label="Printed first"
-          value={unitOrder}
           options={[
             { value: 'us-first', label: 'US customary first (ft-in, then m)' },
             { value: 'si-first', label: 'SI first (m, then ft-in)' },
           ]}
-          onChange={setUnitOrder}
           testID="label-unit-order"
         />
         <T variant="small">Applies to labels issued from now on; a printed label keeps the units it was issued with.</T>
@@ -223,10 +234,10 @@ export function SettingsScreen() {
         <T variant="small">
           Each level covers incident energies up to its limit. The label shows the first level that covers the energy.
         </T>
-        {errors.ppeLevels ? <Notice tone="error">{errors.ppeLevels}</Notice> : null}
-        {levels.map((l, i) => (
+        {levelsError ? <Notice tone="error">{levelsError}</Notice> : null}
+        {levels.fields.map((l, i) => (
           <View
-            key={i}
+            key={l.id}
             style={{
               flexDirection: 'row',
               flexWrap: 'wrap',
@@ -237,34 +248,31 @@ export function SettingsScreen() {
               borderBottomColor: colors.lineSoft,
             }}
           >
-            <Field
+            <FormTextField
+              control={form.control}
+              name={`ppeLevels.${i}.name`}
               label="Name"
-              value={l.name}
-              onChangeText={setLevel(i, 'name')}
-              error={errors[`ppeLevels[${i}].name`]}
               containerStyle={{ flexGrow: 1, flexBasis: 160 }}
               testID={`level-${i}-name`}
             />
-            <Field
+            <FormNumberField
+              control={form.control}
+              name={`ppeLevels.${i}.maxCalPerCm2`}
               label="Up to"
               unit="cal/cm²"
-              numeric
-              value={l.max}
-              onChangeText={setLevel(i, 'max')}
-              error={errors[`ppeLevels[${i}].maxCalPerCm2`]}
               containerStyle={{ flexGrow: 0, flexBasis: 120 }}
               testID={`level-${i}-max`}
             />
-            <Field
+            <FormTextField
+              control={form.control}
+              name={`ppeLevels.${i}.description`}
               label="What it requires"
-              value={l.description}
-              onChangeText={setLevel(i, 'description')}
               containerStyle={{ flexGrow: 2, flexBasis: 240 }}
             />
             <Pressable
               accessibilityRole="button"
-              accessibilityLabel={`Remove ${l.name}`}
-              onPress={() => setLevels((ls) => ls.filter((_, j) => j !== i))}
+              accessibilityLabel={`Remove ${levelNames[i]?.name ?? l.name}`}
+              onPress={() => levels.remove(i)}
               style={{ minHeight: touch.min, justifyContent: 'center', marginTop: 20 }}
             >
               <T style={{ color: colors.danger, fontFamily: fonts.textMedium }}>Remove</T>
@@ -275,7 +283,7 @@ export function SettingsScreen() {
           <Button
             title="Add a level"
             kind="secondary"
-            onPress={() => setLevels((ls) => [...ls, { name: '', max: '', description: '' }])}
+            onPress={() => levels.append({ name: '', maxCalPerCm2: '', description: '' })}
           />
         </View>
       </Card>

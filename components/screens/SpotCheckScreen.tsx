@@ -7,7 +7,7 @@ import {
   type ElectrodeConfig,
 } from '../../shared/equipmentClasses';
 import { incidentEnergyRequestSchema } from '../../shared/schemas/incidentEnergy';
-import { serverErrors, validate } from '../../hooks/forms';
+import { applyServerErrors, useZodForm } from '../../hooks/forms';
 import { useIncidentEnergy } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
@@ -15,71 +15,107 @@ import { fromDisplay, toDisplay, type LengthUnit } from '../../hooks/units';
 import { Cautions } from '../Cautions';
 import { EnergyResult } from '../results/EnergyResult';
 import { colors, space } from '../theme';
-import { Button, Card, Choice, Field, Notice, Screen, T } from '../ui';
+import { FormNumberField } from '../form';
+import { Button, Card, Choice, Notice, Screen, T } from '../ui';
 
 type DurationMode = 'one' | 'two';
 
-interface FormState {
+/**
+ * The inputs as entered, named by the request's paths so each message lands under its field: numbers as the text
+ * typed, lengths in the unit chosen on the screen (converted to mm for the request), and two choices of the screen.
+ */
+interface SpotFields {
   preset: string;
+  durationMode: DurationMode;
   voltageV: string;
   boltedFaultKa: string;
   electrodeConfig: ElectrodeConfig;
-  gap: string;
-  workingDistance: string;
-  height: string;
-  width: string;
-  depth: string;
-  durationMode: DurationMode;
+  gapMm: string;
+  workingDistanceMm: string;
+  enclosureMm: { height: string; width: string; depth: string };
   arcDurationMs: string;
-  fullMs: string;
-  reducedMs: string;
+  clearingMs: { full: string; reduced: string };
 }
 
 const round = (v: number) => String(Math.round(v * 10) / 10);
 
-function presetValues(id: string, unit: LengthUnit): Partial<FormState> {
+/** The fields a preset fills: its typical gap, working distance and enclosure in the unit shown. */
+function presetValues(id: string, unit: LengthUnit): Partial<SpotFields> {
   const c = EQUIPMENT_CLASSES.find((e) => e.id === id);
   if (!c) return {};
   const len = (mm: number | null | undefined) => (mm ? round(toDisplay(mm, unit)) : '');
   return {
     preset: id,
     electrodeConfig: c.electrodeConfig,
-    gap: len(c.gapMm),
-    workingDistance: len(c.workingDistanceMm),
-    height: len(c.enclosureMm?.height),
-    width: len(c.enclosureMm?.width),
-    depth: len(c.enclosureMm?.depth),
+    gapMm: len(c.gapMm),
+    workingDistanceMm: len(c.workingDistanceMm),
+    enclosureMm: {
+      height: len(c.enclosureMm?.height),
+      width: len(c.enclosureMm?.width),
+      depth: len(c.enclosureMm?.depth),
+    },
   };
 }
 
 const num = (s: string): number | undefined => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
+
+const isOpenAir = (c: ElectrodeConfig) => c === 'VOA' || c === 'HOA';
+
+/** The request from the fields: lengths from the unit shown to mm, the enclosure only for an enclosed configuration. */
+function requestOf(f: SpotFields, unit: LengthUnit) {
+  const mm = (s: string) => {
+    const v = num(s);
+    return v === undefined ? undefined : fromDisplay(v, unit);
+  };
+  const e = f.enclosureMm;
+  const enclosure =
+    isOpenAir(f.electrodeConfig) || (!e.height && !e.width && !e.depth)
+      ? undefined
+      : { height: mm(e.height), width: mm(e.width), depth: mm(e.depth) };
+  return {
+    voltageV: num(f.voltageV),
+    boltedFaultKa: num(f.boltedFaultKa),
+    electrodeConfig: f.electrodeConfig,
+    gapMm: mm(f.gapMm),
+    workingDistanceMm: mm(f.workingDistanceMm),
+    enclosureMm: enclosure,
+    ...(f.durationMode === 'one'
+      ? { arcDurationMs: num(f.arcDurationMs) }
+      : { clearingMs: { full: num(f.clearingMs.full), reduced: num(f.clearingMs.reduced) } }),
+  };
+}
+
+const initialFields: SpotFields = {
+  voltageV: '480',
+  boltedFaultKa: '25',
+  durationMode: 'one',
+  arcDurationMs: '50',
+  clearingMs: { full: '50', reduced: '80' },
+  electrodeConfig: 'VCB',
+  gapMm: '',
+  workingDistanceMm: '',
+  enclosureMm: { height: '', width: '', depth: '' },
+  preset: '',
+  ...presetValues('mcc-panelboard-lv-deep', 'mm'),
+};
 
 /** One equipment, no model: IEEE 1584-2018 incident energy with both cases and the label values. */
 export function SpotCheckScreen() {
   const canRun = useCan()('spotCheck');
   const { wide } = useLayout();
   const [unit, setUnit] = useState<LengthUnit>('mm');
-  const [form, setForm] = useState<FormState>(() => ({
-    voltageV: '480',
-    boltedFaultKa: '25',
-    durationMode: 'one',
-    arcDurationMs: '50',
-    fullMs: '50',
-    reducedMs: '80',
-    electrodeConfig: 'VCB',
-    gap: '',
-    workingDistance: '',
-    height: '',
-    width: '',
-    depth: '',
-    preset: '',
-    ...presetValues('mcc-panelboard-lv-deep', 'mm'),
-  }));
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const form = useZodForm<typeof incidentEnergyRequestSchema, SpotFields>(incidentEnergyRequestSchema, {
+    defaultValues: initialFields,
+    toInput: (f) => requestOf(f, unit),
+  });
   const [message, setMessage] = useState<string | null>(null);
   const calc = useIncidentEnergy();
-  const set = (k: keyof FormState) => (v: string) => setForm((f) => ({ ...f, [k]: v }));
-  const openAir = form.electrodeConfig === 'VOA' || form.electrodeConfig === 'HOA';
+  const [preset, electrodeConfig, durationMode] = form.watch(['preset', 'electrodeConfig', 'durationMode']);
+  const openAir = isOpenAir(electrodeConfig);
+
+  const fill = (values: Partial<SpotFields>) => {
+    for (const [key, value] of Object.entries(values)) form.setValue(key as keyof SpotFields, value as never);
+  };
 
   const switchUnit = (next: LengthUnit) => {
     if (next === unit) return;
@@ -87,51 +123,26 @@ export function SpotCheckScreen() {
       const v = num(s);
       return v === undefined || !Number.isFinite(v) ? s : round(toDisplay(fromDisplay(v, unit), next));
     };
-    setForm((f) => ({
-      ...f,
-      gap: conv(f.gap),
-      workingDistance: conv(f.workingDistance),
-      height: conv(f.height),
-      width: conv(f.width),
-      depth: conv(f.depth),
-    }));
+    const f = form.getValues();
+    fill({
+      gapMm: conv(f.gapMm),
+      workingDistanceMm: conv(f.workingDistanceMm),
+      enclosureMm: {
+        height: conv(f.enclosureMm.height),
+        width: conv(f.enclosureMm.width),
+        depth: conv(f.enclosureMm.depth),
+      },
+    });
     setUnit(next);
-  };
-
-  const body = () => {
-    const mm = (s: string) => {
-      const v = num(s);
-      return v === undefined ? undefined : fromDisplay(v, unit);
-    };
-    const enclosure =
-      openAir || (!form.height && !form.width && !form.depth)
-        ? undefined
-        : { height: mm(form.height), width: mm(form.width), depth: mm(form.depth) };
-    return {
-      voltageV: num(form.voltageV),
-      boltedFaultKa: num(form.boltedFaultKa),
-      electrodeConfig: form.electrodeConfig,
-      gapMm: mm(form.gap),
-      workingDistanceMm: mm(form.workingDistance),
-      enclosureMm: enclosure,
-      ...(form.durationMode === 'one'
-        ? { arcDurationMs: num(form.arcDurationMs) }
-        : { clearingMs: { full: num(form.fullMs), reduced: num(form.reducedMs) } }),
-    };
   };
 
   const submit = () => {
     setMessage(null);
-    const v = validate(incidentEnergyRequestSchema, body());
-    if (!v.ok) return setErrors(v.errors);
-    setErrors({});
-    calc.mutate(v.data, {
-      onError: (e) => {
-        const s = serverErrors(e);
-        setMessage(s.message);
-        setErrors(s.fields);
-      },
-    });
+    void form.handleSubmit((request) =>
+      calc.mutate(request, {
+        onError: (e) => setMessage(applyServerErrors(form, e)),
+      }),
+    )();
   };
 
   const fieldStyle = { flexGrow: 1, flexBasis: 140 } as const;
@@ -149,9 +160,9 @@ export function SpotCheckScreen() {
           stays editable.
         </T>
         <Choice
-          value={form.preset}
+          value={preset}
           options={EQUIPMENT_CLASSES.map((c) => ({ value: c.id, label: c.label }))}
-          onChange={(id) => setForm((f) => ({ ...f, ...presetValues(id, unit) }))}
+          onChange={(id) => fill(presetValues(id, unit))}
           testID="preset"
         />
       </Card>
@@ -177,57 +188,49 @@ export function SpotCheckScreen() {
           />
         </View>
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="voltageV"
             label="Nominal voltage"
             unit="V"
-            numeric
             testID="voltageV"
-            value={form.voltageV}
-            onChangeText={set('voltageV')}
-            error={errors.voltageV}
             editable={canRun}
             containerStyle={fieldStyle}
           />
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="boltedFaultKa"
             label="Bolted fault current"
             unit="kA"
-            numeric
             testID="boltedFaultKa"
-            value={form.boltedFaultKa}
-            onChangeText={set('boltedFaultKa')}
-            error={errors.boltedFaultKa}
             editable={canRun}
             containerStyle={fieldStyle}
           />
         </View>
         <Choice
           label="Electrode configuration"
-          value={form.electrodeConfig}
+          value={electrodeConfig}
           options={ELECTRODE_CONFIGS.map((c) => ({ value: c, label: c }))}
-          onChange={(c) => canRun && setForm((f) => ({ ...f, electrodeConfig: c }))}
+          onChange={(c) => canRun && form.setValue('electrodeConfig', c)}
           testID="config"
         />
-        <T variant="small">{ELECTRODE_CONFIG_LABELS[form.electrodeConfig]}</T>
+        <T variant="small">{ELECTRODE_CONFIG_LABELS[electrodeConfig]}</T>
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="gapMm"
             label="Gap between conductors"
             unit={unit}
-            numeric
             testID="gap"
-            value={form.gap}
-            onChangeText={set('gap')}
-            error={errors.gapMm}
             editable={canRun}
             containerStyle={fieldStyle}
           />
-          <Field
+          <FormNumberField
+            control={form.control}
+            name="workingDistanceMm"
             label="Working distance"
             unit={unit}
-            numeric
             testID="workingDistance"
-            value={form.workingDistance}
-            onChangeText={set('workingDistance')}
-            error={errors.workingDistanceMm}
             editable={canRun}
             containerStyle={fieldStyle}
           />
@@ -236,33 +239,27 @@ export function SpotCheckScreen() {
           <>
             <T variant="label">ENCLOSURE ({unit})</T>
             <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-              <Field
+              <FormNumberField
+                control={form.control}
+                name="enclosureMm.height"
                 label="Height"
-                numeric
                 testID="height"
-                value={form.height}
-                onChangeText={set('height')}
-                error={errors['enclosureMm.height']}
                 editable={canRun}
                 containerStyle={{ flexGrow: 1, flexBasis: 90 }}
               />
-              <Field
+              <FormNumberField
+                control={form.control}
+                name="enclosureMm.width"
                 label="Width"
-                numeric
                 testID="width"
-                value={form.width}
-                onChangeText={set('width')}
-                error={errors['enclosureMm.width']}
                 editable={canRun}
                 containerStyle={{ flexGrow: 1, flexBasis: 90 }}
               />
-              <Field
+              <FormNumberField
+                control={form.control}
+                name="enclosureMm.depth"
                 label="Depth"
-                numeric
                 testID="depth"
-                value={form.depth}
-                onChangeText={set('depth')}
-                error={errors['enclosureMm.depth']}
                 editable={canRun}
                 containerStyle={{ flexGrow: 1, flexBasis: 90 }}
               />
@@ -273,47 +270,41 @@ export function SpotCheckScreen() {
         )}
         <Choice
           label="Arc duration"
-          value={form.durationMode}
+          value={durationMode}
           options={[
             { value: 'one', label: 'One duration for both cases' },
             { value: 'two', label: 'Clearing time of each case' },
           ]}
-          onChange={(m) => canRun && setForm((f) => ({ ...f, durationMode: m }))}
+          onChange={(m) => canRun && form.setValue('durationMode', m)}
           testID="duration-mode"
         />
-        {form.durationMode === 'one' ? (
-          <Field
+        {durationMode === 'one' ? (
+          <FormNumberField
+            control={form.control}
+            name="arcDurationMs"
             label="Arc duration"
             unit="ms"
-            numeric
             testID="arcDurationMs"
-            value={form.arcDurationMs}
-            onChangeText={set('arcDurationMs')}
-            error={errors.arcDurationMs}
             editable={canRun}
             hint="From the upstream device’s trip band at the arcing current"
           />
         ) : (
           <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-            <Field
+            <FormNumberField
+              control={form.control}
+              name="clearingMs.full"
               label="At the full arcing current"
               unit="ms"
-              numeric
               testID="fullMs"
-              value={form.fullMs}
-              onChangeText={set('fullMs')}
-              error={errors['clearingMs.full']}
               editable={canRun}
               containerStyle={fieldStyle}
             />
-            <Field
+            <FormNumberField
+              control={form.control}
+              name="clearingMs.reduced"
               label="At the reduced arcing current"
               unit="ms"
-              numeric
               testID="reducedMs"
-              value={form.reducedMs}
-              onChangeText={set('reducedMs')}
-              error={errors['clearingMs.reduced']}
               editable={canRun}
               containerStyle={fieldStyle}
             />

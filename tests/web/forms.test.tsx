@@ -48,6 +48,26 @@ describe('zodFormResolver', () => {
     expect(ok.values).toEqual({ months: 60, danger: 40 });
   });
 
+  it('rewords a message where the text says more than the schema can (text that is not a whole number)', async () => {
+    type Form = { days: string };
+    const schema = z.object({ days: z.number().int('Whole days').min(1).max(365) });
+    const resolve = zodFormResolver<typeof schema, Form>(
+      schema,
+      (f) => ({ days: Number(f.days) }),
+      (errors, f) => {
+        if (errors.days && !/^\d+$/.test(f.days)) errors.days = { type: 'whole', message: 'Enter whole days' };
+      },
+    );
+    expect(errorMessage((await resolve({ days: '12.5' }, undefined, opts(['days']))).errors.days)).toBe(
+      'Enter whole days',
+    );
+    // A whole number out of range keeps the schema's own message.
+    expect(errorMessage((await resolve({ days: '400' }, undefined, opts(['days']))).errors.days)).not.toBe(
+      'Enter whole days',
+    );
+    expect((await resolve({ days: '12' }, undefined, opts(['days']))).errors).toEqual({});
+  });
+
   it('puts an item’s message under the item (ppeLevels.1.maxCalPerCm2) and a list’s own message on the list', async () => {
     const settings = organizationSettingsSchema.parse({});
     const resolve = zodFormResolver(organizationSettingsSchema);
