@@ -1,3 +1,4 @@
+import { plausibilityWarnings } from '../../../shared/modelPlausibility';
 import { BASE_SCENARIO_ID, type Model, type Scenario, type Source } from '../../../shared/schemas/model';
 import type { BusResult, BusScenario, StudyResults } from '../../../shared/schemas/studyResults';
 import { createStudyRunner, type StudyOptions, type StudyRunner } from './runStudy';
@@ -143,7 +144,26 @@ const fmt = (x: number | undefined) => (x === undefined ? '—' : x.toPrecision(
  * runner, and its results are exactly as before scenarios existed.
  */
 export function createScenarioRunner(model: Model, options: StudyOptions = {}): StudyRunner & { evaluations: number } {
-  if (!model.scenarios?.length) return Object.assign(createStudyRunner(model, options), { evaluations: 1 });
+  // Plausibility warnings of the model (a wrong unit, a slipped decimal point) go with the run's own warnings.
+  const implausible = plausibilityWarnings(model).map((w) => ({
+    code: 'IMPLAUSIBLE_VALUE',
+    message: `${w.path}: ${w.message}`,
+  }));
+  const withImplausible = (r: StudyResults): StudyResults =>
+    implausible.length ? { ...r, warnings: [...r.warnings, ...implausible] } : r;
+  if (!model.scenarios?.length) {
+    const plain = createStudyRunner(model, options);
+    return {
+      busIds: plain.busIds,
+      shortCircuitWarnings: plain.shortCircuitWarnings,
+      evaluations: 1,
+      runBus: plain.runBus,
+      get work() {
+        return plain.work;
+      },
+      finish: (buses) => withImplausible(plain.finish(buses)),
+    };
+  }
   const applied = scenariosOf(model);
   const runners = applied.map((a) => createStudyRunner(a.model, options));
   const base = runners[0];
@@ -199,11 +219,11 @@ export function createScenarioRunner(model: Model, options: StudyOptions = {}): 
           .map((w) => (k === 0 ? w : { code: w.code, message: `Scenario "${applied[k].name}": ${w.message}` }))
           .filter((w) => !seen.has(w.code + w.message) && seen.add(w.code + w.message)),
       );
-      return {
+      return withImplausible({
         ...base.finish(buses),
         warnings,
         scenarios: applied.map((a) => ({ id: a.id, name: a.name })),
-      };
+      });
     },
   };
 }
