@@ -7,7 +7,7 @@ import { useDeviceTypes } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
 import { colors, fonts, radius, space } from '../theme';
-import { Button, Card, Choice, ListScreen, Notice, T } from '../ui';
+import { Button, Card, Choice, Field, ListScreen, Notice, T } from '../ui';
 
 const KINDS = Object.keys(DEVICE_KIND_LABELS) as DeviceKind[];
 
@@ -21,7 +21,7 @@ function summary(d: Device): string {
     case 'fuse':
       return `${d.ratingA} A · ${d.totalClearing?.length ?? 0} total-clearing points`;
     case 'relay':
-      return `${d.curve} · pickup ${d.pickupA ?? '—'} A · TD ${d.timeDial} · ${d.breakerCycles}-cycle breaker`;
+      return `${d.curve} · pickup ${d.pickupA ?? (d.pickupSecondaryA !== undefined && d.ctRatio !== undefined ? d.pickupSecondaryA * d.ctRatio : '—')} A · TD ${d.timeDial} · ${d.breakerCycles}-cycle breaker`;
     case 'band':
       return `${d.ratingA} A · ${d.max.length} points (${d.currentUnit === 'multiple' ? 'multiples of rating' : 'amperes'})`;
   }
@@ -34,7 +34,14 @@ export function DevicesScreen() {
   const types = useDeviceTypes();
   const [filter, setFilter] = useState<DeviceKind | 'all'>('all');
   const [choosing, setChoosing] = useState(false);
-  const shown = types.data?.filter((t) => filter === 'all' || t.kind === filter) ?? [];
+  const [search, setSearch] = useState('');
+  const words = search.trim().toLowerCase().split(/\s+/).filter(Boolean);
+  const shown =
+    types.data?.filter(
+      (t) =>
+        (filter === 'all' || t.kind === filter) &&
+        words.every((w) => `${t.name} ${t.description}`.toLowerCase().includes(w)),
+    ) ?? [];
 
   // The library grows with every device type an organization adds: its cards are a virtualized list.
   return (
@@ -112,9 +119,21 @@ export function DevicesScreen() {
         onChange={setFilter}
         testID="kind-filter"
       />
+      <Field
+        label="Find by name"
+        value={search}
+        onChangeText={setSearch}
+        placeholder="e.g. 400 A fuse, LSIG, very inverse"
+        testID="device-search"
+        containerStyle={{ maxWidth: 480 }}
+      />
       {types.error ? <Notice tone="error">{types.error.message}</Notice> : null}
       {types.isLoading ? <T variant="small">Loading…</T> : null}
-      {types.data && shown.length === 0 ? <Notice>No device types of this kind yet.</Notice> : null}
+      {types.data && shown.length === 0 ? (
+        <Notice>
+          {words.length > 0 ? 'No device type matches these words.' : 'No device types of this kind yet.'}
+        </Notice>
+      ) : null}
     </ListScreen>
   );
 }

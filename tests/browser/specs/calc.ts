@@ -67,6 +67,8 @@ export const specs: Spec[] = [
       await h.signIn(page, 'engineer@larkspur.example');
       await page.getByTestId('home-engineer').waitFor();
       await page.goto(`${h.baseUrl}/devices`);
+      // The library holds the whole generic starter set: narrow it to the electronic trip units first.
+      await page.getByTestId('kind-filter-electronic').click();
       await page.getByTestId('device-Generic LSIG trip unit, 1600 A frame').click();
       await page.getByTestId('tcc').waitFor();
       await page.getByTestId('pos-instantaneousPickup-OFF').click();
