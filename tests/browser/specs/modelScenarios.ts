@@ -80,6 +80,7 @@ export const specs: Spec[] = [
       await state.getByText('Unsaved changes').waitFor();
       await page.getByTestId('scenario-tie-TIE-1-state-closed').click();
       await page.getByTestId('scenario-0-changes').getByText('UTIL out of service · TIE-1 closed').waitFor();
+      await page.getByTestId('scenario-source-UTIL').scrollIntoViewIfNeeded();
       await h.shot(page, 'model-scenarios-desktop');
 
       await page.getByTestId('save-model').click();
@@ -109,7 +110,7 @@ export const specs: Spec[] = [
       await page.getByTestId('scenario-row-0').waitFor();
       if ((await page.getByTestId('scenario-detail-0').count()) === 0) await page.getByTestId('scenario-row-0').click();
       await page.getByTestId('scenario-source-UTIL-xr').waitFor();
-      await page.getByTestId('model-section-body-scenarios').scrollIntoViewIfNeeded();
+      await page.getByTestId('scenario-source-UTIL').scrollIntoViewIfNeeded();
       await h.shot(page, 'model-scenarios-phone');
       await page.close();
     },
