@@ -19,6 +19,8 @@ import { issueLabels } from './labels';
 import { getSettings } from './organization';
 import { APPROVED_WORK, findSite, findStudy, findStudyHead } from './scope';
 import { can } from '../../shared/permissions';
+import { plausibilityWarnings } from '../../shared/modelPlausibility';
+import type { ModelWarning } from '../../shared/schemas/modelWarnings';
 
 // Look-ups by id live in ./scope (organization and role visibility in one place); re-exported for the routes.
 export { findStudy, findStudyHead };
@@ -182,15 +184,20 @@ export async function createStudy(
 }
 
 export function modelIssues(model: unknown): ModelIssue[] {
+  return modelCheck(model).issues;
+}
+
+/** A model's problems, and for a sound model its plausibility warnings (shared/modelPlausibility.ts). */
+export function modelCheck(model: unknown): { issues: ModelIssue[]; warnings: ModelWarning[] } {
   const r = parseModel(model);
-  return r.success ? [] : r.issues;
+  return r.success ? { issues: [], warnings: plausibilityWarnings(r.model) } : { issues: r.issues, warnings: [] };
 }
 
 export async function getModelEnvelope(actor: AuthUser, studyId: string): Promise<ModelEnvelope> {
   const study = await findStudy(actor, studyId);
   // Stored through PUT (checked by draftModelSchema), an import or a new study: a draft, possibly with problems.
   const model = JSON.parse(study.model) as ModelInput;
-  return { model, version: study.modelVersion, issues: modelIssues(model) };
+  return { model, version: study.modelVersion, ...modelCheck(model) };
 }
 
 function requireDraft(study: Study, what: string): void {
@@ -293,7 +300,7 @@ export async function saveModel(
       },
       transaction,
     );
-    return { model, version, issues: modelIssues(model) };
+    return { model, version, ...modelCheck(model) };
   });
 }
 

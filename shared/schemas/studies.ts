@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { printableName } from './text';
 import { modelIssueSchema, modelSchema, type ModelInput } from './model';
+import { modelWarningSchema } from './modelWarnings';
 import { studyResultsSchema } from './studyResults';
 
 export const STUDY_STATUSES = ['draft', 'in-review', 'approved', 'superseded'] as const;
@@ -123,6 +124,8 @@ export const modelEnvelopeSchema = z
       .int()
       .describe('Model version: PUT must send the version it read (409 when another edit came first)'),
     issues: z.array(modelIssueSchema),
+    /** Values a sound model accepts but that are rarely right (a wrong unit?): shown, never blocking. */
+    warnings: z.array(modelWarningSchema),
   })
   .meta({ id: 'ModelEnvelope' });
 export type ModelEnvelope = z.infer<typeof modelEnvelopeSchema>;
