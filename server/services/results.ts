@@ -219,7 +219,11 @@ export function summaryOf(buses: BusResult[]): ResultsSummary {
   return s;
 }
 
-/** Reads and parses the run's results once: the index is cached, and each bus's trace goes to the bus cache. */
+/**
+ * Reads and parses the run's results: the index is cached; for a bus request (`wantBusId`) also each bus's trace, to
+ * the bus cache. A page request leaves the traces (and the model) alone: a large run's first page does not pay for
+ * serializing every bus.
+ */
 async function loadRun(
   actor: AuthUser,
   run: { id: string; dto: RunDto },
@@ -229,7 +233,7 @@ async function loadRun(
   const key = `${actor.organizationId}/${run.id}`;
   const large = await StudyRun.findOne({
     where: { id: run.id, organizationId: actor.organizationId },
-    attributes: ['id', 'modelSnapshot', 'results'],
+    attributes: wantBusId === undefined ? ['id', 'results'] : ['id', 'modelSnapshot', 'results'],
   });
   if (!large?.results) {
     indexCache.delete(key);
@@ -250,6 +254,7 @@ async function loadRun(
   // Rows are about a third of a bus's serialized size at most; a cheap estimate keeps the budget honest.
   index.bytes = Math.round(large.results.length / 3) + 4096;
   indexCache.set(key, index);
+  if (wantBusId === undefined) return { index };
 
   // Each bus with the devices of the model its trace names, serialized once.
   const model = JSON.parse(large.modelSnapshot) as { devices?: { id: string; device: unknown }[] };
