@@ -66,6 +66,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
             multiple: true,
             accept: '.xlsx,.csv,.json',
             'data-testid': 'model-file-input',
+            'aria-label': 'Model files to import (workbook, CSV or JSON)',
             onChange: (e: { target: { files?: FileList | null; value: string } }) => {
               const files = Array.from(e.target.files ?? []);
               e.target.value = '';
