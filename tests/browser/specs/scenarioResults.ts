@@ -5,8 +5,9 @@
  */
 import { larkspurModel } from '../../../server/seed/larkspurModel';
 import type { ModelInput } from '../../../shared/schemas/model';
+import { axePage, checkA11y } from '../axe';
 import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, clearLocalStorage, pollUntil } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -157,11 +158,14 @@ export const specs: Spec[] = [
       await dead.waitFor();
       assert((await dead.getAttribute('aria-disabled')) === 'true', 'the de-energized scenario is disabled');
       await page.getByTestId('scenario-note-tie-open').getByText('De-energized', { exact: false }).waitFor();
+      await h.shot(page, 'trace-scenarios-deenergized-desktop');
 
       // The phone: the chips wrap, the sentence stays above the trace.
       await page.setViewportSize(PHONE);
       await page.goto(`${h.baseUrl}/studies/${id}/bus/${encodeURIComponent(busId)}`);
       await page.getByTestId('scenario-basis').waitFor();
+      await page.getByTestId('trace-sentence').waitFor();
+      await h.shot(page, 'trace-scenarios-phone-top');
       await page.getByTestId(`scenario-${other.scenarioId}`).click();
       await page.getByTestId('trace-not-label').waitFor();
       await h.shot(page, 'trace-scenarios-phone');
@@ -178,6 +182,32 @@ export const specs: Spec[] = [
       await page.getByTestId(`result-${busId}-scenario`).getByText(`Scenario: ${governing.name}`).waitFor();
       await h.shot(page, 'results-scenarios-phone');
       await page.close();
+
+      // No serious accessibility violation on the trace (either scenario) and the results (the axe context).
+      const ax = await axePage(DESKTOP);
+      try {
+        await ax.goto(`${h.baseUrl}/sign-in`);
+        await clearLocalStorage(ax);
+        await ax.goto(`${h.baseUrl}/sign-in`);
+        await ax.getByTestId('email').fill('engineer@larkspur.example');
+        await ax.getByTestId('password').fill(DEMO_PASSWORD);
+        await ax.getByTestId('sign-in-submit').click();
+        await ax.getByTestId('side-nav').waitFor();
+        await ax.goto(`${h.baseUrl}/studies/${id}/bus/${encodeURIComponent(busId)}`);
+        await ax.getByTestId('trace-sentence').waitFor();
+        await checkA11y(ax, 'bus trace with scenarios');
+        await ax.getByTestId(`scenario-${other.scenarioId}`).click();
+        await ax.getByTestId('trace-not-label').waitFor();
+        await checkA11y(ax, 'bus trace of another scenario');
+        await ax.goto(`${h.baseUrl}/studies/${id}/bus/PP-9`);
+        await ax.getByTestId('scenario-note-tie-open').waitFor();
+        await checkA11y(ax, 'bus trace with a de-energized scenario');
+        await ax.goto(`${h.baseUrl}/studies/${id}?tab=results`);
+        await ax.getByTestId(`result-${busId}-scenario`).waitFor();
+        await checkA11y(ax, 'results with scenarios');
+      } finally {
+        await ax.close();
+      }
     },
   },
 ];
