@@ -6,6 +6,7 @@ import { batchFile, createBatch, getBatch, renderLabelPdf } from '../services/la
 import { admitLabelBatch } from '../services/labelBatchLimits';
 import { CAUTIONS } from '../../shared/cautions';
 import { renderStudyReport } from '../pdf/studyReport';
+import { compareRevisions, defaultBaselineId } from '../services/compare';
 import { getOrganization } from '../services/organization';
 import { getResults } from '../services/runs';
 import { findSite } from '../services/sites';
@@ -51,6 +52,8 @@ export const studyReportRoute = bind(contract.labelBatches.studyReportPdf, {
       getOrganization(user),
       findStudy(user, params.studyId).then((s) => findSite(user, s.siteId)),
     ]);
+    const baseline = await defaultBaselineId(user, params.studyId);
+    const comparison = baseline ? await compareRevisions(user, params.studyId, baseline) : undefined;
     const pdf = await renderStudyReport({
       organizationName: org.name,
       site: { name: site.name, address: site.address },
@@ -58,6 +61,7 @@ export const studyReportRoute = bind(contract.labelBatches.studyReportPdf, {
       results: results.results,
       model: results.model,
       cautions: CAUTIONS,
+      comparison,
     });
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `attachment; filename="study-report-rev${study.revision}.pdf"`);

@@ -1,7 +1,7 @@
 import { compareBusResults, compareModels } from '../../shared/revisionCompare';
 import type { RevisionComparison } from '../../shared/schemas/compare';
 import type { StudyResults } from '../../shared/schemas/studyResults';
-import { StudyRun, type Study } from '../db/models';
+import { Study, StudyRun } from '../db/models';
 import type { AuthUser } from './context';
 import { ApiError } from './errors';
 import { findStudy } from './scope';
@@ -75,4 +75,18 @@ export async function compareRevisions(
     },
     notes,
   };
+}
+
+/**
+ * The revision a study is compared with by default (the study report; the overview offers the same): the site's
+ * approved revision when it is another one, else the revision the study was started from; null when there is none.
+ */
+export async function defaultBaselineId(actor: AuthUser, studyId: string): Promise<string | null> {
+  const study = await findStudy(actor, studyId);
+  const approved = await Study.findOne({
+    where: { siteId: study.siteId, organizationId: actor.organizationId, status: 'approved' },
+    attributes: ['id'],
+  });
+  if (approved && approved.id !== study.id) return approved.id;
+  return study.parentStudyId ?? null;
 }

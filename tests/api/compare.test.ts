@@ -9,6 +9,7 @@ import { parseModel, type ModelInput } from '../../shared/schemas/model';
 import { runStudy } from '../../server/engine/study';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { approveStudy, saveModel } from '../helpers/flows';
+import { pdfText } from '../helpers/pdfText';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
 
 let t: TestApp;
@@ -93,6 +94,23 @@ describe('comparing a revision with the approved one', () => {
     const lp1 = res.body.buses.find((b: { busId: string }) => b.busId === 'LP-1');
     expect(lp1.change).toBe('unchanged');
     expect(lp1.energyRiseCalPerCm2).toBe(0);
+  });
+
+  it('the study report of the revision carries the same comparison', async () => {
+    const res = await request(t.app)
+      .get(`/api/studies/${revision}/report.pdf`)
+      .set(...eng())
+      .buffer(true)
+      .parse((r, done) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+    expect(res.status).toBe(200);
+    const text = pdfText(res.body as Buffer);
+    expect(text).toContain('Changes from revision 1 (approved)');
+    expect(text).toContain('1 model change');
+    expect(text).toContain('Device R-TX2 (TX-2 primary relay) changed — device.timeDial: 2 → 6');
   });
 
   it('says when the newer revision has no results for its current model', async () => {

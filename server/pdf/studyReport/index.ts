@@ -9,6 +9,7 @@
 import { PDFDocument } from 'pdf-lib';
 import { embedFonts } from '../fonts';
 import { PRELIMINARY_BANNER, renderCautionsAndApproval } from './approval';
+import { renderChanges } from './changes';
 import { renderCover } from './cover';
 import { isApproved, type StudyReportInput } from './input';
 import { renderInputs } from './inputs';
@@ -44,6 +45,7 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
   renderInputs(w, results, model);
   renderResults(w, results);
   renderScenarios(w, results, model);
+  renderChanges(w, input.comparison);
   renderTraces(w, results, model);
   renderCautionsAndApproval(w, study, input.cautions);
 

@@ -1,4 +1,5 @@
 /** What the study report is drawn from. */
+import type { RevisionComparison } from '../../../shared/schemas/compare';
 import type { Model } from '../../../shared/schemas/model';
 import type { StudyDto } from '../../../shared/schemas/studies';
 import type { StudyResults } from '../../../shared/schemas/studyResults';
@@ -10,6 +11,8 @@ export interface StudyReportInput {
   results: StudyResults;
   model: Model;
   cautions: readonly string[];
+  /** What changed from another revision of the site (by default the approved one); absent when there is none. */
+  comparison?: RevisionComparison;
 }
 
 /** An approved (or later superseded) revision with its approval: the report carries the approval block. */
