@@ -485,11 +485,14 @@ export async function busResultTagged(
 }
 
 /**
- * Models up to this many buses have a bus computed again in the main thread: building such a network and evaluating
- * one bus takes a few milliseconds, less than handing the model to the study worker. Larger models go to the worker
- * (`scenarioBusOffThread`), so an engineer opening a trace never holds up the other requests.
+ * Models up to this many labelled buses, and this much JSON, have a bus computed again in the main thread: building
+ * such a network and evaluating one bus takes a few milliseconds, less than handing the model to the study worker.
+ * Larger models go to the worker (`scenarioBusOffThread`), so an engineer opening a trace never holds up the other
+ * requests. (A bus of a stored model is about 550 characters of JSON with its elements: 200 000 is some 360 buses,
+ * labelled or not.)
  */
 export const SCENARIO_BUS_MAIN_THREAD_MAX_BUSES = 300;
+export const SCENARIO_BUS_MAIN_THREAD_MAX_CHARS = 200_000;
 
 const inFlightBuses = new Map<string, Promise<string>>();
 
@@ -560,7 +563,8 @@ async function computeScenarioBus(
   // The runner cache key: a run's snapshots never change.
   const runnerKey = `${actor.organizationId}/${runId}/${scenario}`;
   const outcome =
-    index.rows.length <= SCENARIO_BUS_MAIN_THREAD_MAX_BUSES
+    index.rows.length <= SCENARIO_BUS_MAIN_THREAD_MAX_BUSES &&
+    large.modelSnapshot.length <= SCENARIO_BUS_MAIN_THREAD_MAX_CHARS
       ? scenarioBusResult(JSON.parse(large.modelSnapshot) as Model, options, scenario, busId, runnerKey)
       : await scenarioBusOffThread(large.modelSnapshot, options, scenario, busId, runnerKey);
   if (outcome.kind === 'unknown-scenario') {
@@ -588,9 +592,6 @@ async function computeScenarioBus(
       },
     ];
   }
-  const ids = new Set<string>();
-  for (const c of bus.cases) for (const d of c.devices) ids.add(d.deviceId);
-  const model = JSON.parse(large.modelSnapshot) as Model;
-  const named = model.devices.filter((d) => ids.has(d.id)).map((d) => ({ id: d.id, device: d.device }));
-  return `{"run":${runJson},"study":${JSON.stringify(index.study)},"bus":${JSON.stringify(bus)},"devices":${JSON.stringify(named)},"scenarioId":${JSON.stringify(scenario)},"governingScenarioId":${JSON.stringify(governing)}}`;
+  // The model's devices its trace names come with the outcome (the model is not parsed again here).
+  return `{"run":${runJson},"study":${JSON.stringify(index.study)},"bus":${JSON.stringify(bus)},"devices":${JSON.stringify(outcome.devices)},"scenarioId":${JSON.stringify(scenario)},"governingScenarioId":${JSON.stringify(governing)}}`;
 }

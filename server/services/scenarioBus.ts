@@ -14,7 +14,8 @@ import { applyScenario, createStudyRunner, scenariosOf, type StudyOptions, type 
 
 /** What a scenario gives at the bus: its result, or that no source in service reaches the bus in it. */
 export type ScenarioBusOutcome =
-  | { kind: 'result'; bus: BusResult }
+  /** The bus, and the model's protective devices its trace names (to draw their bands). */
+  | { kind: 'result'; bus: BusResult; devices: { id: string; device: Model['devices'][number]['device'] }[] }
   | { kind: 'de-energized' }
   | { kind: 'unknown-scenario' }
   | { kind: 'unknown-bus' };
@@ -22,6 +23,7 @@ export type ScenarioBusOutcome =
 interface Prepared {
   runner: StudyRunner;
   deEnergized: Set<string>;
+  devices: Map<string, Model['devices'][number]>;
 }
 
 /**
@@ -57,10 +59,21 @@ export function scenarioBusResult(
       if (!scenario) return { kind: 'unknown-scenario' };
       applied = applyScenario(model, scenario);
     }
-    p = { runner: createStudyRunner(applied.model, options), deEnergized: applied.deEnergizedBusIds };
+    p = {
+      runner: createStudyRunner(applied.model, options),
+      deEnergized: applied.deEnergizedBusIds,
+      devices: new Map(model.devices.map((d) => [d.id, d])),
+    };
     if (key) prepared.set(key, p);
   }
   if (p.deEnergized.has(busId)) return { kind: 'de-energized' };
   if (!p.runner.busIds.includes(busId)) return { kind: 'unknown-bus' };
-  return { kind: 'result', bus: p.runner.runBus(busId) };
+  const bus = p.runner.runBus(busId);
+  const ids = new Set<string>();
+  for (const c of bus.cases) for (const d of c.devices) ids.add(d.deviceId);
+  const devices = [...ids].flatMap((id) => {
+    const d = p.devices.get(id);
+    return d ? [{ id: d.id, device: d.device }] : [];
+  });
+  return { kind: 'result', bus, devices };
 }

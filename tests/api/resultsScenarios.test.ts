@@ -132,6 +132,14 @@ describe('one bus in each scenario', () => {
           (s) => s.scenarioId === id,
         )!;
         expect(summary.incidentEnergyJPerCm2).toBe(engine.incidentEnergyJPerCm2);
+        // The model's devices its trace names, to draw their bands.
+        const named = new Set(engine.cases.flatMap((c) => c.devices.map((d) => d.deviceId)));
+        expect((res.body.devices as { id: string }[]).map((d) => d.id).sort()).toEqual(
+          model.devices
+            .filter((d) => named.has(d.id))
+            .map((d) => d.id)
+            .sort(),
+        );
         if (id === governing) expect(res.body).toEqual(stored.body);
         else nonGoverning++;
         compared++;
