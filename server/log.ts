@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import type { IncomingMessage, ServerResponse } from 'node:http';
 import pino, { type DestinationStream, type Logger } from 'pino';
-import { pinoHttp, type HttpLogger } from 'pino-http';
+import type { RequestHandler } from 'express';
+import { pinoHttp } from 'pino-http';
 
 export type { Logger };
 
@@ -53,11 +54,29 @@ export function requestIdOf(header: string | string[] | undefined): string {
 }
 
 /**
- * pino-http: every request gets an id (the caller's X-Request-Id when sane, else a new UUID), echoed as the
- * X-Request-Id response header and carried by `req.log` / `req.id`. `logRequests`: one line per finished request
- * (5xx at error, 4xx at warn); without it only the errors the error handler logs are written.
+ * Every request gets an id (the caller's X-Request-Id when sane, else a new UUID), echoed as the X-Request-Id
+ * response header and carried by `req.log` / `req.id`. `logRequests`: pino-http writes one line per finished request
+ * (5xx at error, 4xx at warn). Without it only the errors the error handler logs are written, and `req.log` (a child
+ * logger bound to the request) is made only when something logs through it, not for every request.
  */
-export function httpLogger(logger: Logger, logRequests: boolean): HttpLogger {
+export function httpLogger(logger: Logger, logRequests: boolean): RequestHandler {
+  if (!logRequests) {
+    return (req, res, next) => {
+      const id = requestIdOf(req.headers['x-request-id']);
+      res.setHeader('X-Request-Id', id);
+      req.id = id;
+      let child: Logger | undefined;
+      Object.defineProperty(req, 'log', {
+        configurable: true,
+        enumerable: false,
+        get: () => (child ??= logger.child({ req: { id, method: req.method, url: req.url } })),
+        set: (value: Logger) => {
+          child = value;
+        },
+      });
+      next();
+    };
+  }
   return pinoHttp({
     logger,
     genReqId: (req: IncomingMessage, res: ServerResponse) => {

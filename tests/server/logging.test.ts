@@ -86,3 +86,36 @@ describe('a server error', () => {
     expect(err.stack).toMatch(/\n\s+at /);
   });
 });
+
+describe('request lines (LOG_REQUESTS=1)', () => {
+  it('writes one line per request with its id, and the same X-Request-Id rules apply', async () => {
+    const written: Record<string, unknown>[] = [];
+    const sink = new Writable({
+      write(chunk: Buffer, _enc, done) {
+        for (const l of chunk.toString().split('\n'))
+          if (l.trim()) written.push(JSON.parse(l) as Record<string, unknown>);
+        done();
+      },
+    });
+    const config = loadConfig(
+      { NODE_ENV: 'test', LOG_REQUESTS: '1' },
+      {
+        databaseUrl: 'sqlite::memory:',
+        jwtSecret: 'logging-test-secret-logging-test-secret-0123',
+        dataDir: path.join(os.tmpdir(), `emberline-log-${randomUUID()}`),
+      },
+    );
+    const logger = createLogger({ NODE_ENV: 'test', LOG_LEVEL: 'info' }, sink);
+    const lineApp = createApp({ config, db, logger }).app;
+    const kept = await request(lineApp).get('/api/health').set('X-Request-Id', 'line-check-1');
+    expect(kept.headers['x-request-id']).toBe('line-check-1');
+    const fresh = await request(lineApp).get('/api/health');
+    expect(fresh.headers['x-request-id']).toMatch(UUID);
+    const line = written.find((l) => (l.req as { id?: string } | undefined)?.id === 'line-check-1');
+    expect(line).toBeDefined();
+    expect((line!.res as { statusCode: number }).statusCode).toBe(200);
+    expect(written.some((l) => (l.req as { id?: string } | undefined)?.id === fresh.headers['x-request-id'])).toBe(
+      true,
+    );
+  });
+});
