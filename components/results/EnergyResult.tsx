@@ -69,8 +69,7 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
         >
           <View style={{ gap: 4 }}>
             {result.warnings.map((w) => (
-              <T key={w.code + w.message} style={{ color: colors.caution }}>
-                <T style={{ fontFamily: fonts.numbersBold, color: colors.caution, fontSize: 13 }}>{w.code}</T>{' '}
+              <T key={w.code + w.message} testID={`warning-${w.code}`} style={{ color: colors.caution }}>
                 {w.message}
               </T>
             ))}

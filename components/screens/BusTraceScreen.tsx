@@ -472,8 +472,12 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         >
           <View style={{ gap: 3 }}>
             {bus.warnings.map((w) => (
-              <T key={w.code + w.message} variant="small" style={{ color: colors.caution }}>
-                <T style={{ fontFamily: fonts.numbersBold, fontSize: 12, color: colors.caution }}>{w.code}</T>{' '}
+              <T
+                key={w.code + w.message}
+                variant="small"
+                testID={`warning-${w.code}`}
+                style={{ color: colors.caution }}
+              >
                 {w.message}
               </T>
             ))}

@@ -219,8 +219,13 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
         <Notice tone="warning" title="Short-circuit warnings">
           <View style={{ gap: 2 }}>
             {data.study.warnings.map((w) => (
-              <T key={w.code + w.message} variant="small" style={{ color: colors.caution }}>
-                {w.code}: {w.message}
+              <T
+                key={w.code + w.message}
+                variant="small"
+                testID={`warning-${w.code}`}
+                style={{ color: colors.caution }}
+              >
+                {w.message}
               </T>
             ))}
           </View>

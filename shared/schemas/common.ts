@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../zodMessages';
 
 export const ROLES = ['admin', 'engineer', 'electrician', 'safety'] as const;
 export const roleSchema = z.enum(ROLES).describe('User role');

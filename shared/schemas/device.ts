@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../zodMessages';
 
 /**
  * Protective devices and their trip bands (docs/ARCHITECTURE.md, Clearing time from a trip band; docs/MODEL-FORMAT.md,

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../zodMessages';
 import { ELECTRODE_CONFIGS } from '../equipmentClasses';
 
 /**

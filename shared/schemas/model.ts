@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../zodMessages';
 import { printableName } from './text';
 import { deviceSchema, electronicPositionsSchema } from './device';
 import { ELECTRODE_CONFIGS, EQUIPMENT_CLASSES, type ElectrodeConfig } from '../equipmentClasses';
