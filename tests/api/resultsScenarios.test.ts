@@ -56,7 +56,7 @@ beforeAll(async () => {
   // The run's own inputs, as stored when it started: the model snapshot and the settings snapshot.
   model = JSON.parse(stored.modelSnapshot) as Model;
   options = JSON.parse(stored.settingsSnapshot) as StudyOptions;
-});
+}, 120_000);
 afterAll(async () => t.close());
 
 const eng = () => bearer(t.orgA.users.engineer.token);
@@ -149,7 +149,9 @@ describe('one bus in each scenario', () => {
     expect(compared).toBeGreaterThan(labelled.length);
     expect(nonGoverning).toBeGreaterThan(0);
     expect(deEnergized).toBeGreaterThan(0);
-  });
+    // Every bus in every scenario, twice through the engine (a time-stepped arc with a generator's decrement): give it
+    // room on a loaded machine (a limit on waiting, not a timing check).
+  }, 180_000);
 
   test('the governing scenario is the highest energy of the scenarios (the label takes it)', async () => {
     const page = await request(t.app)
