@@ -9,7 +9,8 @@
  */
 import type { DeviceType } from '../../shared/schemas/deviceLibrary';
 import type { ModelInput, ModelIssue } from '../../shared/schemas/model';
-import { useCallback } from 'react';
+import type { ModelWarning } from '../../shared/schemas/modelWarnings';
+import { useCallback, useMemo, useState, type ReactNode } from 'react';
 import { useLayout } from '../../hooks/useLayout';
 import { View } from 'react-native';
 import { space } from '../theme';
@@ -21,6 +22,10 @@ import { SectionTabs } from './editor/SectionTabs';
 import { UndoToast } from './editor/UndoBar';
 import { useModelEditorState } from './editor/useModelEditorState';
 import { useSectionContext } from './editor/useSectionContext';
+import { DeviceSettingsPanel } from './devices/DeviceSettingsPanel';
+import { findDevice } from './devices/deviceEdit';
+import { elementKey, groupIssues, type PlacedDeviceInput } from './summaries';
+import { NO_ISSUES } from './editor/types';
 
 export interface ModelEditorProps {
   model: ModelInput;
@@ -30,9 +35,24 @@ export interface ModelEditorProps {
   deviceTypes: DeviceType[];
   /** Optional: open this element (e.g. chosen in the system tree). A new object each time jumps again. */
   focus?: { collection: string; index: number } | null;
+  /** Plausibility warnings (never blocking): shown beside their field and as "Worth checking" at the top. */
+  warnings?: readonly ModelWarning[];
+  /** The study whose last run gives a device's bus currents in the device settings editor. */
+  studyId?: string;
 }
 
-export function ModelEditor({ model, onChange, issues, editable, deviceTypes, focus: focusRequest }: ModelEditorProps) {
+const NO_WARNINGS: readonly ModelWarning[] = [];
+
+export function ModelEditor({
+  model,
+  onChange,
+  issues,
+  editable,
+  deviceTypes,
+  focus: focusRequest,
+  warnings = NO_WARNINGS,
+  studyId,
+}: ModelEditorProps) {
   const { wide } = useLayout();
   const {
     section,
@@ -51,7 +71,45 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
     jump,
   } = useModelEditorState(model, onChange, issues, focusRequest);
 
-  const ctx = useSectionContext(model, section, deviceTypes);
+  const sectionCtx = useSectionContext(model, section, deviceTypes);
+  // The device settings editor: the device by index, and its id to follow it when the list changes.
+  const [deviceOpen, setDeviceOpen] = useState<{ index: number; id: string } | null>(null);
+  const openDevice = useCallback(
+    (element: object) => {
+      const index = (latest().devices ?? []).indexOf(element as PlacedDeviceInput);
+      if (index >= 0) setDeviceOpen({ index, id: (element as PlacedDeviceInput).id });
+    },
+    [latest],
+  );
+  const ctx = useMemo(
+    () => (section === 'devices' ? { ...sectionCtx, openDevice } : sectionCtx),
+    [sectionCtx, section, openDevice],
+  );
+  const groupedWarnings = useMemo(
+    () => groupIssues(warnings as unknown as readonly ModelIssue[], model),
+    [warnings, model],
+  );
+  const deviceIndex = deviceOpen ? findDevice(model, deviceOpen.index, deviceOpen.id) : -1;
+  const patchDevice = useCallback(
+    (update: (d: PlacedDeviceInput) => PlacedDeviceInput) => {
+      if (deviceIndex >= 0) actions.patch('devices', deviceIndex, update as never);
+    },
+    [actions, deviceIndex],
+  );
+  const devicePanel =
+    section === 'devices' && deviceIndex >= 0 ? (
+      <DeviceSettingsPanel
+        model={model}
+        index={deviceIndex}
+        typesById={sectionCtx.typesById}
+        issues={grouped.byElement.get(elementKey('devices', deviceIndex)) ?? NO_ISSUES}
+        warnings={groupedWarnings.byElement.get(elementKey('devices', deviceIndex)) ?? NO_ISSUES}
+        editable={editable}
+        studyId={studyId}
+        patch={patchDevice}
+        onClose={() => setDeviceOpen(null)}
+      />
+    ) : null;
   const onScenarioDeleted = useCallback(
     (text: string, before: ModelInput, after: ModelInput) => setUndo({ text, before, after }),
     [setUndo],
@@ -60,7 +118,7 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
 
   return (
     <View style={{ gap: space.lg }} testID="model-editor">
-      <IssueSummary grouped={grouped} model={model} onJump={jump} />
+      <IssueSummary grouped={grouped} warnings={groupedWarnings} model={model} onJump={jump} />
       <SectionTabs
         section={section}
         onChange={(s) => {
@@ -85,21 +143,24 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
           onDeleted={onScenarioDeleted}
         />
       ) : (
-        <CollectionSection
-          key={section}
-          collection={section}
-          model={model}
-          grouped={grouped}
-          ctx={ctx}
-          editable={editable}
-          wide={wide}
-          expanded={expanded}
-          focus={focus}
-          actions={actions}
-          filter={filter}
-          setFilter={setFilter}
-          onAdd={add}
-        />
+        <DeviceLayout wide={wide} panel={devicePanel}>
+          <CollectionSection
+            key={section}
+            collection={section}
+            model={model}
+            grouped={grouped}
+            warnings={groupedWarnings}
+            ctx={ctx}
+            editable={editable}
+            wide={wide}
+            expanded={expanded}
+            focus={focus}
+            actions={actions}
+            filter={filter}
+            setFilter={setFilter}
+            onAdd={add}
+          />
+        </DeviceLayout>
       )}
       {showUndo ? (
         <UndoToast
@@ -111,6 +172,25 @@ export function ModelEditor({ model, onChange, issues, editable, deviceTypes, fo
           onDismiss={() => setUndo(null)}
         />
       ) : null}
+    </View>
+  );
+}
+
+/** The device settings editor beside the table (wide) or above the cards, full width (phone). */
+function DeviceLayout({ wide, panel, children }: { wide: boolean; panel: ReactNode; children: ReactNode }) {
+  if (!panel) return <>{children}</>;
+  if (!wide) {
+    return (
+      <View style={{ gap: space.lg }}>
+        {panel}
+        {children}
+      </View>
+    );
+  }
+  return (
+    <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.lg }}>
+      <View style={{ flex: 1, minWidth: 0 }}>{children}</View>
+      <View style={{ width: 460, flexShrink: 0 }}>{panel}</View>
     </View>
   );
 }

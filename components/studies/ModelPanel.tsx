@@ -2,6 +2,8 @@ import React, { useDeferredValue, useMemo, useState } from 'react';
 import { Platform, View } from 'react-native';
 import { parseModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
 import type { StudyDto } from '../../shared/schemas/studies';
+import type { ModelWarning } from '../../shared/schemas/modelWarnings';
+import { plausibilityWarnings } from '../../shared/modelPlausibility';
 import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
 import { useDeviceTypes } from '../../hooks/queries';
@@ -126,10 +128,11 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   const baseVersion = stored?.baseVersion ?? envelope.data?.version ?? 0;
 
   const deferred = useDeferredValue(draft);
-  const issues: ModelIssue[] = useMemo(() => {
-    if (!deferred) return [];
+  // Plausibility warnings (never blocking) as the server gives them: on a model that parses, computed as it is typed.
+  const { issues, warnings } = useMemo((): { issues: ModelIssue[]; warnings: ModelWarning[] } => {
+    if (!deferred) return { issues: [], warnings: [] };
     const r = parseModel(deferred);
-    return r.success ? [] : r.issues;
+    return r.success ? { issues: [], warnings: plausibilityWarnings(r.model) } : { issues: r.issues, warnings: [] };
   }, [deferred]);
 
   if (envelope.error) return <Notice tone="error">{envelope.error.message}</Notice>;
@@ -211,6 +214,8 @@ export function ModelPanel({ study }: { study: StudyDto }) {
           setSaved(null);
         }}
         issues={issues}
+        warnings={warnings}
+        studyId={study.id}
         editable={editable}
         deviceTypes={deviceTypes.data ?? []}
         focus={focus}

@@ -6,6 +6,7 @@ import { colors, fonts } from '../../theme';
 import { T } from '../../ui';
 import { PickCell, SegCell } from '../controls';
 import { deviceKindLabel, deviceSettingsSummary, type PlacedDeviceInput } from '../summaries';
+import { modifiedFrom } from '../devices/deviceEdit';
 import { type Column, idColumn, nameColumn } from './shared';
 
 /** The location picker's value: `branch:TX-1` or `source:UTIL-1`. */
@@ -17,7 +18,20 @@ export function locationValue(d: PlacedDeviceInput): string {
 
 /** The library type's device differs from the one stored in the model (the type was edited since). */
 export function libraryChanged(d: PlacedDeviceInput, t: DeviceType | undefined): boolean {
-  return !!t && !!d.device && JSON.stringify(t.device) !== JSON.stringify(d.device);
+  if (!t || !d.device) return false;
+  // A trip unit set to other positions of its type than the library's own: its device is resolved from those
+  // positions, so only the positions' own existence can be checked here.
+  if (t.definition.kind === 'electronic' && d.library?.positions) {
+    const own = t.definition.positions;
+    if (JSON.stringify(d.library.positions) !== JSON.stringify(own)) {
+      const settings = t.definition.tripType.settings as Record<
+        string,
+        { positions: Record<string, number> } | undefined
+      >;
+      return Object.entries(d.library.positions).some(([k, v]) => !settings[k] || !(v in settings[k].positions));
+    }
+  }
+  return JSON.stringify(t.device) !== JSON.stringify(d.device);
 }
 
 export function fromLibrary(d: PlacedDeviceInput, t: DeviceType): PlacedDeviceInput {
@@ -117,7 +131,13 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
             value={e.library?.deviceTypeId}
             options={ctx.typeOptions}
             title="Device type from the library"
-            placeholder={e.device ? 'Custom (not from the library)' : 'Choose from the library'}
+            placeholder={
+              e.device
+                ? modifiedFrom(e)
+                  ? `Modified from ${modifiedFrom(e)}`
+                  : 'Set in the model (not from the library)'
+                : 'Choose from the library'
+            }
             formatUnknown={() => e.library?.name ?? 'Unknown type'}
             unknownHint="not in the library"
             onChange={(v) => {
@@ -148,6 +168,26 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
             >
               {genericNoteSentence(t.genericNote)}
             </T>
+          ) : null}
+          {ctx.openDevice ? (
+            <Pressable
+              accessibilityRole="button"
+              accessibilityLabel={`${editable ? 'Edit' : 'View'} the settings of ${e.id || 'this device'}`}
+              onPress={() => ctx.openDevice?.(e)}
+              testID={`${testID}-settings`}
+              style={{ paddingHorizontal: 2, minHeight: 28, justifyContent: 'center' }}
+            >
+              <T
+                style={{
+                  fontSize: 14,
+                  color: colors.accent,
+                  fontFamily: fonts.textMedium,
+                  textDecorationLine: 'underline',
+                }}
+              >
+                {editable ? 'Edit settings' : 'View settings'}
+              </T>
+            </Pressable>
           ) : null}
           {changed ? (
             <Pressable

@@ -17,6 +17,8 @@ export interface EditorContext {
   typesById: ReadonlyMap<string, DeviceType>;
   /** Buses section: the devices at each bus's end of a branch (its possible main devices). */
   busMains: ReadonlyMap<string, readonly string[]>;
+  /** Devices section: opens the settings editor of this placed device (the element object of the model). */
+  openDevice?: (device: object) => void;
 }
 
 export const EMPTY_CONTEXT: EditorContext = {

@@ -7,13 +7,14 @@ import { COLUMNS, type Column } from '../columns';
 import { FormField, Icon } from '../controls';
 import { elementKey, elementSummary, fieldLabel, issueMessage, problemCount, type AnyElement } from '../summaries';
 import { useIssueColumns, useScrollIntoView } from './rowHooks';
-import { type RowProps } from './types';
+import { NO_ISSUES, type RowProps } from './types';
 
 export const CardRow = memo(function CardRow({
   collection,
   index,
   element,
   issues,
+  warnings = NO_ISSUES,
   ctx,
   editable,
   focused,
@@ -22,6 +23,7 @@ export const CardRow = memo(function CardRow({
 }: RowProps & { expanded: boolean }) {
   const columns = COLUMNS[collection] as Column<AnyElement>[];
   const byColumn = useIssueColumns(issues, columns);
+  const cautionByColumn = useIssueColumns(warnings, columns);
   const ref = useScrollIntoView(focused);
   const patch = useCallback(
     (u: (e: AnyElement) => AnyElement) => actions.patch(collection, index, u),
@@ -121,6 +123,7 @@ export const CardRow = memo(function CardRow({
             {columns.map((c, ci) => {
               if (c.applies && !c.applies(element, ctx)) return null;
               const problems = byColumn.get(ci);
+              const cautions = cautionByColumn.get(ci);
               return (
                 <FormField
                   key={c.key}
@@ -141,6 +144,11 @@ export const CardRow = memo(function CardRow({
                     testID: `${base}-${c.key}`,
                     label: `${element.id} ${c.label}`,
                   })}
+                  {cautions && !problems ? (
+                    <T variant="small" style={{ color: colors.caution }} testID={`${base}-${c.key}-warning`}>
+                      {`Worth checking: ${cautions.map((li) => li.issue.message).join(' · ')}`}
+                    </T>
+                  ) : null}
                 </FormField>
               );
             })}

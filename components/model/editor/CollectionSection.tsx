@@ -25,6 +25,8 @@ interface SectionProps {
   collection: CollectionKey;
   model: ModelInput;
   grouped: ReturnType<typeof groupIssues>;
+  /** Plausibility warnings, grouped like the issues. */
+  warnings?: ReturnType<typeof groupIssues>;
   ctx: EditorContext;
   editable: boolean;
   wide: boolean;
@@ -40,6 +42,7 @@ export function CollectionSection({
   collection,
   model,
   grouped,
+  warnings,
   ctx,
   editable,
   wide,
@@ -115,6 +118,7 @@ export function CollectionSection({
                     index={i}
                     element={items[i]}
                     issues={grouped.byElement.get(key) ?? NO_ISSUES}
+                    warnings={warnings?.byElement.get(key) ?? NO_ISSUES}
                     ctx={ctx}
                     editable={editable}
                     focused={focus?.key === key ? focus.nonce : 0}
@@ -136,6 +140,7 @@ export function CollectionSection({
                 index={i}
                 element={items[i]}
                 issues={grouped.byElement.get(key) ?? NO_ISSUES}
+                warnings={warnings?.byElement.get(key) ?? NO_ISSUES}
                 ctx={ctx}
                 editable={editable}
                 focused={focus?.key === key ? focus.nonce : 0}

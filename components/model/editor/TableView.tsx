@@ -7,7 +7,7 @@ import { COLUMNS, NotApplicable, type Column } from '../columns';
 import { Icon, IconButton } from '../controls';
 import { COLLECTION_LABELS, fieldLabel, issueMessage, type AnyElement } from '../summaries';
 import { useIssueColumns, useScrollIntoView } from './rowHooks';
-import { type RowProps } from './types';
+import { NO_ISSUES, type RowProps } from './types';
 
 const CELL_PAD = 4;
 const STATUS_W = 40;
@@ -52,6 +52,7 @@ export const TableRow = memo(function TableRow({
   index,
   element,
   issues,
+  warnings = NO_ISSUES,
   ctx,
   editable,
   focused,
@@ -186,6 +187,36 @@ export const TableRow = memo(function TableRow({
                   >{`${fieldLabel(li.field)}: `}</T>
                 ) : null}
                 {issueMessage(li.issue)}
+              </T>
+            </View>
+          ))}
+        </View>
+      ) : null}
+      {warnings.length ? (
+        <View
+          style={[
+            {
+              paddingLeft: STATUS_W - 3 + CELL_PAD,
+              paddingRight: space.md,
+              paddingBottom: space.sm,
+              gap: 2,
+              alignSelf: 'flex-start',
+              maxWidth: 900,
+            },
+            stickLeft,
+          ]}
+          testID={`${base}-warnings`}
+        >
+          {warnings.map((li, i) => (
+            <View key={i} style={{ flexDirection: 'row', alignItems: 'flex-start', gap: 6 }}>
+              <View style={{ marginTop: 2 }}>
+                <Icon name="alert" size={15} color={colors.caution} />
+              </View>
+              <T style={{ fontSize: 14, lineHeight: 19, color: colors.caution, flexShrink: 1 }}>
+                <T style={{ fontFamily: fonts.textBold, fontSize: 14, color: colors.caution }}>
+                  {`Worth checking${li.field ? ` · ${fieldLabel(li.field)}` : ''}: `}
+                </T>
+                {li.issue.message}
               </T>
             </View>
           ))}

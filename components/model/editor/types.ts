@@ -43,6 +43,8 @@ export interface RowProps {
   index: number;
   element: AnyElement;
   issues: readonly LocatedIssue[];
+  /** Plausibility warnings on the element (never blocking), shown in the caution tone. */
+  warnings?: readonly LocatedIssue[];
   ctx: EditorContext;
   editable: boolean;
   focused: number;
