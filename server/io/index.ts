@@ -1,4 +1,5 @@
-import { parseModel, type Model } from '../../shared/schemas/model';
+import { modelSchema, parseModel, type Model } from '../../shared/schemas/model';
+import { findUnknownKeys } from '../../shared/unknownKeys';
 import { EngineError } from '../engine/errors';
 import { MODEL_TABLES, csvFileName, type ImportError, type ModelTable, type ParsedModelFile } from './columns';
 import { exportModelCsv, importModelCsv } from './modelCsv';
@@ -101,6 +102,29 @@ export async function importModel(files: UploadedModelFile[]): Promise<ImportMod
   else if (format === 'json') parsed = importModelJson(decodeText(files[0].buffer), files[0].name);
   else parsed = importModelCsv(files.map((f) => ({ name: f.name, text: decodeText(f.buffer) })));
   if (!parsed.ok) return parsed;
+
+  // The JSON of a table's cell (a device, its library reference) is held to the model's keys too (a JSON file is
+  // checked as it is read): a misspelt key is refused at its row and column, never dropped.
+  const unknownKeys = findUnknownKeys(modelSchema, parsed.input);
+  if (unknownKeys.length > 0) {
+    return {
+      ok: false,
+      errors: unknownKeys.map((k) => {
+        const field = k.path.replace(/^[^.[]+\[\d+\]\.?/, '');
+        const [collection, index] = k.parts;
+        const element =
+          typeof index === 'number' ? (parsed.input as Record<string, unknown[]>)[collection]?.[index] : null;
+        const id = (element as { id?: unknown } | null)?.id;
+        return parsed.locate({
+          code: 'invalid-value',
+          path: k.path,
+          ...(typeof id === 'string' ? { elementId: id } : {}),
+          field,
+          message: `${field}: ${k.message}`,
+        });
+      }),
+    };
+  }
 
   const result = parseModel(parsed.input);
   if (result.success) return { ok: true, model: result.model };

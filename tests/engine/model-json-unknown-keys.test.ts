@@ -1,6 +1,6 @@
 import { modelSchema, type ModelInput } from '../../shared/schemas/model';
 import { editDistance, findUnknownKeys, suggestKey } from '../../shared/unknownKeys';
-import { exportModelJson, importModel, importModelJson } from '../../server/io';
+import { exportModelCsv, exportModelJson, exportModelWorkbook, importModel, importModelJson } from '../../server/io';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { pumpStationModel } from '../../server/seed/pumpStationModel';
 import { solidsBuildingModel } from '../../server/seed/solidsBuildingModel';
@@ -125,5 +125,52 @@ describe('unknown keys in a JSON model', () => {
     ]);
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.errors.map((e) => e.path)).toEqual(['buses[0].nominalKV', 'extra']);
+  });
+});
+
+describe('unknown keys in the JSON of a table cell (workbook, CSV)', () => {
+  /** The demo with one relay's device JSON holding a misspelt key, and that device's index. */
+  function withMisspeltDevice() {
+    const m = modelSchema.parse(larkspurModel());
+    const i = m.devices.findIndex((d) => d.device.kind === 'relay');
+    (m.devices[i].device as Record<string, unknown>).timeDail = 3;
+    return { m, i, id: m.devices[i].id };
+  }
+
+  it('a workbook: refused at the Devices sheet, the device row and column, naming the key', async () => {
+    const { m, i, id } = withMisspeltDevice();
+    const r = await importModel([
+      {
+        name: 'plant.xlsx',
+        mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+        buffer: Buffer.from(await exportModelWorkbook(m)),
+      },
+    ]);
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.errors).toHaveLength(1);
+    expect(r.errors[0]).toMatchObject({
+      sheet: 'Devices',
+      row: i + 2, // the header is row 1
+      path: `devices[${i}].device.timeDail`,
+      elementId: id,
+      message: 'device.timeDail: unknown field — did you mean timeDial?',
+    });
+    expect(r.errors[0].column).toMatch(/^device \(/);
+  });
+
+  it('CSV files: refused at devices.csv, the line and the column', async () => {
+    const { m, i } = withMisspeltDevice();
+    const files = Object.entries(exportModelCsv(m)).map(([table, text]) => ({
+      name: `${table}.csv`,
+      mimeType: 'text/csv',
+      buffer: Buffer.from(text),
+    }));
+    const r = await importModel(files);
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.errors.map((e) => [e.file, e.row, e.message])).toEqual([
+      ['devices.csv', i + 2, 'device.timeDail: unknown field — did you mean timeDial?'],
+    ]);
   });
 });
