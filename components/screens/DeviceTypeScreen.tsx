@@ -6,13 +6,14 @@ import type { Device, DeviceKind } from '../../shared/schemas/device';
 import {
   DEVICE_KIND_LABELS,
   deviceDefinitionSchema,
+  deviceTypeInputSchema,
   genericNoteSentence,
   type DeviceDefinition,
 } from '../../shared/schemas/deviceLibrary';
 import { callApi } from '../../hooks/api';
 import { contract } from '../../shared/api';
 import { queryKeys } from '../../hooks/queryKeys';
-import { serverErrors, validate } from '../../hooks/forms';
+import { formFieldName, serverErrors, useZodForm, validate } from '../../hooks/forms';
 import {
   useBandCurves,
   useClearingTime,
@@ -30,7 +31,8 @@ import { REGION_LABELS } from '../../shared/tripRegions';
 import { newDefinition } from '../devices/templates';
 import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
 import { colors, fonts, space } from '../theme';
-import { Button, Card, Field, Notice, Screen, T } from '../ui';
+import { FormTextField } from '../form';
+import { Button, Card, Notice, Screen, T } from '../ui';
 
 /** The device with numbers only: electronic trip units are resolved from their switch positions by the server. */
 function useResolvedDevice(def: DeviceDefinition | null): { device: Device | null; error: string | null } {
@@ -101,6 +103,9 @@ function BandReader({
   );
 }
 
+/** The type's name, description and source: a form; its definition is edited beside it and checked as it changes. */
+const aboutSchema = deviceTypeInputSchema.pick({ name: true, description: true, source: true });
+
 export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: DeviceKind; justSaved?: boolean }) {
   const canEdit = useCan()('editDevices');
   const router = useRouter();
@@ -108,10 +113,17 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
   const existing = useDeviceType(id);
   const save = useSaveDeviceType(id);
   const remove = useDeleteDeviceType();
-  const [name, setName] = useState('');
-  const [description, setDescription] = useState('');
-  const [source, setSource] = useState('');
+  const stored = useMemo(
+    () =>
+      existing.data
+        ? { name: existing.data.name, description: existing.data.description, source: existing.data.source }
+        : undefined,
+    [existing.data],
+  );
+  const about = useZodForm(aboutSchema, { defaultValues: { name: '', description: '', source: '' }, values: stored });
+  const name = about.watch('name');
   const [def, setDef] = useState<DeviceDefinition | null>(id ? null : newDefinition(kind ?? 'thermal-magnetic'));
+  // The server's messages on the definition (`definition.` taken off), shown in the definition editor.
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(
     justSaved ? { tone: 'ok', text: 'Saved to the device library.' } : null,
@@ -122,9 +134,6 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
   const [loadedFrom, setLoadedFrom] = useState<typeof existing.data>(undefined);
   if (existing.data && existing.data !== loadedFrom) {
     setLoadedFrom(existing.data);
-    setName(existing.data.name);
-    setDescription(existing.data.description);
-    setSource(existing.data.source);
     setDef(existing.data.definition);
   }
 
@@ -139,24 +148,28 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
   const onSave = () => {
     setMessage(null);
     if (!def) return;
-    if (!name.trim()) return setErrors({ name: 'Enter a name' });
-    save.mutate(
-      { name, description, source, definition: def },
-      {
-        onSuccess: (saved) => {
-          setErrors({});
-          setMessage({ tone: 'ok', text: 'Saved to the device library.' });
-          if (!id) router.replace(`/devices/${saved.id}?saved=1`);
+    void about.handleSubmit((values) =>
+      save.mutate(
+        { ...values, definition: def },
+        {
+          onSuccess: (saved) => {
+            setErrors({});
+            setMessage({ tone: 'ok', text: 'Saved to the device library.' });
+            if (!id) router.replace(`/devices/${saved.id}?saved=1`);
+          },
+          onError: (e) => {
+            const s = serverErrors(e);
+            const fields: Record<string, string> = {};
+            for (const [k, v] of Object.entries(s.fields)) {
+              if (k.startsWith('definition.')) fields[k.slice('definition.'.length)] = v;
+              else about.setError(formFieldName(k) as keyof typeof values, { type: 'server', message: v });
+            }
+            setErrors(fields);
+            setMessage({ tone: 'error', text: s.message });
+          },
         },
-        onError: (e) => {
-          const s = serverErrors(e);
-          const fields: Record<string, string> = {};
-          for (const [k, v] of Object.entries(s.fields)) fields[k.replace(/^definition\./, '')] = v;
-          setErrors(fields);
-          setMessage({ tone: 'error', text: s.message });
-        },
-      },
-    );
+      ),
+    )();
   };
 
   const onCsv = async (file: File) => {
@@ -228,19 +241,12 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
       ) : null}
       <Card>
         <T variant="label">{DEVICE_KIND_LABELS[def.kind].toUpperCase()}</T>
-        <Field
-          label="Name"
-          testID="device-name"
-          value={name}
-          onChangeText={setName}
-          error={errors.name}
-          editable={canEdit}
-        />
-        <Field label="Description" value={description} onChangeText={setDescription} editable={canEdit} />
-        <Field
+        <FormTextField control={about.control} name="name" label="Name" testID="device-name" editable={canEdit} />
+        <FormTextField control={about.control} name="description" label="Description" editable={canEdit} />
+        <FormTextField
+          control={about.control}
+          name="source"
           label="Source of the data"
-          value={source}
-          onChangeText={setSource}
           editable={canEdit}
           hint="e.g. the published curve it was read from, with its date"
         />
