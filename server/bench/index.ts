@@ -4,6 +4,7 @@
 import { benchIncidentEnergy } from './incidentEnergy';
 import { benchShortCircuit } from './shortCircuit';
 import { benchLabels } from './labels';
+import { benchOneLine } from './oneLine';
 import { benchScaling, benchStudyApi10k } from './scaling';
 import { benchStudyThroughApi } from './study';
 import { benchTrip } from './trip';
@@ -22,6 +23,7 @@ const BENCHES: [string, () => Promise<BenchResult>][] = [
   ['scaling', benchScaling],
   ['api-10k', benchStudyApi10k],
   ['labels', benchLabels],
+  ['oneline', benchOneLine],
 ];
 
 async function main(): Promise<void> {

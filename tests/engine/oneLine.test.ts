@@ -1,0 +1,147 @@
+/**
+ * The one-line diagram's geometry (shared/oneLine): checked for what a drawing must be, on the demo models and on
+ * generated plants. The properties are the issue's acceptance rules (no published source: drawing rules of the
+ * product): every element drawn once, no two bus or device boxes overlap, every line's ends touch the boxes of the
+ * elements it joins, the SVG is well-formed XML holding every element id.
+ */
+import { DOMParser } from '@xmldom/xmldom';
+import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
+import { layoutOneLine } from '../../shared/oneLine/layout';
+import { boxesOverlap, touchesBox, type OneLineDrawing } from '../../shared/oneLine/geometry';
+import { oneLineSvg } from '../../shared/oneLine/svg';
+import { larkspurModel } from '../../server/seed/larkspurModel';
+import { solidsBuildingModel } from '../../server/seed/solidsBuildingModel';
+import { loopedMesh, radialPlant } from '../../server/bench/scaling';
+
+const parsed = (input: ModelInput): Model => {
+  const p = parseModel(input);
+  if (!p.success) throw new Error(JSON.stringify(p.issues.slice(0, 3)));
+  return p.model;
+};
+
+const allIds = (m: Model) => [
+  ...m.buses.map((x) => x.id),
+  ...m.sources.map((x) => x.id),
+  ...m.transformers.map((x) => x.id),
+  ...m.cables.map((x) => x.id),
+  ...m.ties.map((x) => x.id),
+  ...m.motors.map((x) => x.id),
+  ...m.devices.map((x) => x.id),
+];
+
+function checkDrawing(m: Model, d: OneLineDrawing): void {
+  // Every element drawn exactly once.
+  const counts = new Map<string, number>();
+  for (const e of d.elements) counts.set(e.id, (counts.get(e.id) ?? 0) + 1);
+  for (const id of allIds(m)) expect([id, counts.get(id)]).toEqual([id, 1]);
+  expect(d.elements).toHaveLength(allIds(m).length);
+
+  // No two bus or device boxes overlap (sweep over x).
+  const boxes = d.elements.filter((e) => e.kind === 'bus' || e.kind === 'device').sort((a, b) => a.box.x - b.box.x);
+  const overlaps: string[] = [];
+  for (let i = 0; i < boxes.length; i++) {
+    for (let j = i + 1; j < boxes.length && boxes[j].box.x < boxes[i].box.x + boxes[i].box.w; j++) {
+      if (boxesOverlap(boxes[i].box, boxes[j].box)) overlaps.push(`${boxes[i].id}/${boxes[j].id}`);
+    }
+  }
+  expect(overlaps).toEqual([]);
+
+  // Every line's ends touch the boxes of the two elements it joins; every box within the drawing.
+  const byId = new Map(d.elements.map((e) => [e.id, e]));
+  const loose: string[] = [];
+  for (const c of d.connections) {
+    const a = byId.get(c.a);
+    const b = byId.get(c.b);
+    const n = c.pts.length;
+    if (!a || !b) loose.push(`${c.a}-${c.b} unknown`);
+    else if (!touchesBox(c.pts[0], c.pts[1], a.box) || !touchesBox(c.pts[n - 2], c.pts[n - 1], b.box))
+      loose.push(`${c.a}-${c.b}`);
+  }
+  expect(loose).toEqual([]);
+  for (const e of d.elements) {
+    expect(e.box.x).toBeGreaterThanOrEqual(0);
+    expect(e.box.y + e.box.h).toBeLessThanOrEqual(d.height);
+    expect(e.box.x + e.box.w).toBeLessThanOrEqual(d.width);
+  }
+
+  // Every branch, source and motor is joined to what it connects (bus-to-bus paths exist through lines).
+  const joined = new Set(d.connections.flatMap((c) => [c.a, c.b]));
+  for (const id of [...m.transformers, ...m.cables, ...m.ties, ...m.sources, ...m.motors].map((x) => x.id)) {
+    expect([id, joined.has(id)]).toEqual([id, true]);
+  }
+}
+
+function checkSvg(m: Model, d: OneLineDrawing): void {
+  const svg = oneLineSvg(d, { title: `${m.name} <one-line> & "ids"` });
+  // Strict parse: any well-formedness error (or warning) is collected and must be none.
+  const errors: string[] = [];
+  const doc = new DOMParser({
+    errorHandler: (level: string, msg: unknown) => {
+      errors.push(`${level}: ${msg}`);
+    },
+  }).parseFromString(svg, 'image/svg+xml');
+  expect(errors).toEqual([]);
+  expect(doc.documentElement?.nodeName).toBe('svg');
+  expect(doc.getElementsByTagName('g').length).toBeGreaterThanOrEqual(d.elements.length);
+  for (const id of allIds(m)) {
+    expect([id, svg.includes(`data-id="${id}"`) && svg.includes(`>${id}</text>`)]).toEqual([id, true]);
+  }
+}
+
+describe('one-line diagram geometry', () => {
+  test.each([
+    ['Larkspur Valley facility', larkspurModel()],
+    ['Solids Handling Building (scenarios)', solidsBuildingModel()],
+    ['radial plant, 300 buses', radialPlant(300)],
+    ['looped mesh, 300 buses', loopedMesh(300)],
+  ])('%s: every element once, no overlaps, lines end on their elements, valid SVG', (_name, input) => {
+    const m = parsed(input);
+    const d = layoutOneLine(m);
+    checkDrawing(m, d);
+    checkSvg(m, d);
+  });
+
+  test('sources at the top, power flowing down: each transformer below its primary bus and above its secondary', () => {
+    const m = parsed(larkspurModel());
+    const d = layoutOneLine(m);
+    const y = new Map(d.elements.map((e) => [e.id, e.box.y]));
+    for (const t of m.transformers) {
+      expect(y.get(t.id)!).toBeGreaterThan(y.get(t.fromBus)!);
+      expect(y.get(t.id)!).toBeLessThan(y.get(t.toBus)!);
+    }
+    for (const s of m.sources) expect(y.get(s.id)!).toBeLessThan(y.get(s.bus)!);
+    for (const mo of m.motors) expect(y.get(mo.id)!).toBeGreaterThan(y.get(mo.bus)!);
+  });
+
+  test('hazard text at a bus: energy (formatted), signal word and the governing scenario; problems marked', () => {
+    const m = parsed(solidsBuildingModel());
+    const bus = m.buses[1].id;
+    const d = layoutOneLine(m, {
+      hazards: new Map([[bus, { incidentEnergyCalPerCm2: 8.04, signalWord: 'WARNING', scenario: 'Tie closed' }]]),
+      problems: new Set([m.buses[0].id]),
+    });
+    const texts = (id: string) =>
+      d.elements.find((e) => e.id === id)!.shapes.flatMap((s) => (s.t === 'text' ? [s.text] : []));
+    // Rounded up, never down: 8.04 shows as 8.1 (shared/labelDisplay.ts formatCalPerCm2, one decimal, ceiling).
+    expect(texts(bus)).toContain('8.1 cal/cm² · WARNING');
+    expect(texts(bus)).toContain('governed by: Tie closed');
+    expect(texts(m.buses[0].id)).toContain('! model problem');
+  });
+
+  test('an open tie and, in a scenario, what it takes out of service are dashed', () => {
+    const m = parsed(solidsBuildingModel());
+    const base = layoutOneLine(m);
+    for (const t of m.ties) {
+      expect(base.elements.find((e) => e.id === t.id)!.dashed ?? false).toBe(!t.closed);
+    }
+    for (const sc of m.scenarios ?? []) {
+      const d = layoutOneLine(m, { scenarioId: sc.id });
+      for (const [id, o] of Object.entries(sc.sources ?? {})) {
+        if (o.inService === false) expect(d.elements.find((e) => e.id === id)!.dashed).toBe(true);
+      }
+      for (const [id, o] of Object.entries(sc.ties ?? {})) {
+        expect(d.elements.find((e) => e.id === id)!.dashed ?? false).toBe(!o.closed);
+      }
+    }
+  });
+});
