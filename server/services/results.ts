@@ -579,6 +579,21 @@ async function computeScenarioBus(
   const row = index.rows.find((r) => r.busId === busId)!;
   const stored = row.scenarios?.find((s) => s.scenarioId === scenario);
   const bus: BusResult = { ...outcome.bus, scenarioId: scenario, scenarios: row.scenarios };
+  // Said on the result itself, so that no reader takes this scenario's numbers for the label's.
+  const g = row.scenarios?.find((s) => s.scenarioId === governing);
+  const labelEnergy = g?.incidentEnergyCalPerCm2;
+  bus.warnings = [
+    ...bus.warnings,
+    {
+      code: 'SCENARIO_NOT_GOVERNING',
+      message:
+        `This is the bus in scenario "${stored?.name ?? scenario}", not the label's basis: the label takes ` +
+        `"${g?.name ?? governing}"` +
+        (g?.status === 'error'
+          ? ', which could not be evaluated at this bus (no label value is given).'
+          : `${labelEnergy === undefined ? '' : ` (${labelEnergy.toPrecision(3)} cal/cm²)`}, the highest incident energy of the scenarios.`),
+    },
+  ];
   // The run's summary of this scenario and the trace computed now come from the same engine and inputs; should the
   // engine have changed since the run, say so (and keep the higher hazard in view: the label is the run's).
   const then = stored?.incidentEnergyJPerCm2;
