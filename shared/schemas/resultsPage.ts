@@ -132,8 +132,8 @@ export const busResultQuerySchema = z.object({
     .optional()
     .describe(
       "An operating scenario of the run's model (its id; `base` for the model as written). Default: the governing " +
-        "scenario, the one the label takes. Unknown id: 400 naming `scenario`; a scenario in which no source reaches " +
-        'the bus: 409 naming `scenario` (the bus\'s `scenarios` entry says so too)',
+        'scenario, the one the label takes. Unknown id: 400 naming `scenario`; a scenario in which no source reaches ' +
+        "the bus: 409 naming `scenario` (the bus's `scenarios` entry says so too)",
     ),
 });
 export type BusResultQuery = z.infer<typeof busResultQuerySchema>;
