@@ -462,10 +462,28 @@ export async function busResultBody(
   // A bus the (current) index does not list does not exist: no need to read the run again.
   if (index && index.runJson === runJson && !index.rows.some((r) => r.busId === busId))
     throw ApiError.notFound(`No bus ${busId} in the results`);
+  // Concurrent cold requests for the run's buses share one read, parse and serialization of every trace.
+  const flightKey = `${key}\n${runJson}`;
+  let loading = inFlightTraces.get(flightKey);
+  if (!loading) {
+    loading = loadRun(actor, run, runJson, busId).then(() => undefined);
+    inFlightTraces.set(flightKey, loading);
+    const done = () => inFlightTraces.delete(flightKey);
+    void loading.then(done, done);
+  }
+  await loading;
+  const loaded = busCache.get(`${key}/${busId}`);
+  if (loaded && loaded.runJson === runJson) return { runJson, body: loaded.body };
+  const after = indexCache.get(key);
+  if (after && after.runJson === runJson && !after.rows.some((r) => r.busId === busId))
+    throw ApiError.notFound(`No bus ${busId} in the results`);
+  // Not among the traces just loaded (or already pushed out of the cache by others): this bus alone.
   const { wanted } = await loadRun(actor, run, runJson, busId);
   if (wanted === undefined) throw ApiError.notFound(`No bus ${busId} in the results`);
   return { runJson, body: wanted };
 }
+
+const inFlightTraces = new Map<string, Promise<void>>();
 
 /** GET /studies/:studyId/results/buses/:busId(?scenario=…), tagged by the run, the bus and the scenario. */
 export async function busResultTagged(

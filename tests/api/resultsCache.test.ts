@@ -124,6 +124,26 @@ describe('cached study results', () => {
     expect((await results(t.orgA.users.engineer.token, { 'If-None-Match': before.headers.etag })).status).toBe(200);
   }, 60_000);
 
+  it('concurrent cold requests for several buses (and one unknown) each get their own answer', async () => {
+    clearResultsCache();
+    const page = await results(t.orgA.users.engineer.token);
+    const ids = (page.body.rows as { busId: string }[]).map((r) => r.busId);
+    // The page left the traces alone: these are the first bus requests of the run, all at once.
+    const cold = await Promise.all(
+      [...ids, 'NO-SUCH-BUS'].map((id) => results(t.orgA.users.engineer.token, {}, `/buses/${id}`)),
+    );
+    expect(cold.map((r) => r.status)).toEqual([...ids.map(() => 200), 404]);
+    cold.slice(0, -1).forEach((r, i) => expect(r.body.bus.busId).toBe(ids[i]));
+    const stored = JSON.parse((await StudyRun.findByPk(page.body.run.id as string))!.results!) as {
+      buses: { busId: string }[];
+    };
+    for (const [i, id] of ids.entries()) {
+      expect(cold[i].body.bus).toEqual(stored.buses.find((b) => b.busId === id));
+      const warm = await results(t.orgA.users.engineer.token, {}, `/buses/${id}`);
+      expect(warm.text).toBe(cold[i].text);
+    }
+  });
+
   it('another organization and an electrician (draft) get 404 even while the answer is cached', async () => {
     expect((await results(t.orgA.users.engineer.token)).status).toBe(200);
     expect((await results(t.orgA.users.engineer.token, {}, '/buses/PNL')).status).toBe(200);
