@@ -8,6 +8,7 @@ import { compareRoutes } from './compare';
 import { labelBatchRoutes, studyReportRoute } from './labelBatches';
 import { labelFieldRoutes, labelRoutes } from './labels';
 import { mailRoutes } from './mail';
+import { oneLineRoutes } from './oneLine';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
 import { siteRoutes } from './sites';
@@ -38,6 +39,7 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...deviceRoutes,
     ...studyRoutes,
     ...studyIoRoutes,
+    ...oneLineRoutes,
     ...compareRoutes,
     ...labelRoutes({ publicCheckPerMinute: opts.publicCheckPerMinute }),
     ...labelFieldRoutes,

@@ -8,6 +8,7 @@ import type { Endpoint } from './endpoint';
 import { labelBatchesApi } from './labelBatches';
 import { labelsApi } from './labels';
 import { mailApi } from './mail';
+import { oneLineApi } from './oneLine';
 import { organizationApi } from './organization';
 import { sitesApi } from './sites';
 import { studiesApi } from './studies';
@@ -31,6 +32,7 @@ export const contract = {
   calc: calcApi,
   devices: devicesApi,
   studies: studiesApi,
+  oneLine: oneLineApi,
   compare: compareApi,
   labels: labelsApi,
   labelBatches: labelBatchesApi,

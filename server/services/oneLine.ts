@@ -1,0 +1,74 @@
+/**
+ * The one-line diagram of a study revision (shared/oneLine): its current model, with the hazard at each labelled bus
+ * from the results the study stands on (the approved run, else the latest finished run) and its model problems marked.
+ */
+import { modelSchema, validateModel, type Model, type ModelIssue } from '../../shared/schemas/model';
+import type { StudyResults } from '../../shared/schemas/studyResults';
+import type { BusHazard, OneLineDrawing } from '../../shared/oneLine/geometry';
+import { layoutOneLine } from '../../shared/oneLine/layout';
+import { oneLineSvg } from '../../shared/oneLine/svg';
+import { StudyRun } from '../db/models';
+import type { AuthUser } from './context';
+import { ApiError } from './errors';
+import { findStudy } from './scope';
+import { modelIssues } from './studies';
+
+/** Hazard by bus from stored results: the label's energy and signal word, and the governing scenario's name. */
+export function hazardsOf(results: StudyResults): Map<string, BusHazard> {
+  const names = new Map((results.scenarios ?? []).map((s) => [s.id, s.name]));
+  const out = new Map<string, BusHazard>();
+  for (const b of results.buses) {
+    const e = b.labelValues?.incidentEnergyCalPerCm2 ?? b.incidentEnergyCalPerCm2;
+    if (b.status !== 'ok' || e === undefined) continue;
+    out.set(b.busId, {
+      incidentEnergyCalPerCm2: e,
+      signalWord: b.labelValues?.signalWord ?? null,
+      scenario: b.scenarioId ? (names.get(b.scenarioId) ?? b.scenarioId) : null,
+    });
+  }
+  return out;
+}
+
+export interface StudyOneLine {
+  drawing: OneLineDrawing;
+  title: string;
+}
+
+export async function studyOneLine(actor: AuthUser, studyId: string, scenarioId?: string): Promise<StudyOneLine> {
+  const study = await findStudy(actor, studyId);
+  const input = JSON.parse(study.model) as unknown;
+  // The structure must parse to be drawn; semantic problems (unknown references, islands, …) are drawn and marked.
+  const parsed = modelSchema.safeParse(input);
+  if (!parsed.success) {
+    throw ApiError.conflict(
+      `The model cannot be drawn until its values are fixed (${parsed.error.issues.length} problem(s); see the model)`,
+    );
+  }
+  const model: Model = parsed.data;
+  if (scenarioId && !(model.scenarios ?? []).some((s) => s.id === scenarioId) && scenarioId !== 'base') {
+    throw new ApiError('bad_request', `Unknown scenario "${scenarioId}"`, {
+      scenario: 'No such scenario in this model',
+    });
+  }
+  const issues: ModelIssue[] = [...validateModel(model), ...modelIssues(input)];
+  if (scenarioId === 'base') scenarioId = undefined;
+  const problems = new Set(issues.flatMap((i) => [...(i.elementId ? [i.elementId] : []), ...(i.elementIds ?? [])]));
+  const run = study.approvedRunId
+    ? await StudyRun.findByPk(study.approvedRunId)
+    : await StudyRun.findOne({ where: { studyId: study.id, status: 'done' }, order: [['startedAt', 'DESC']] });
+  const hazards = run?.results ? hazardsOf(JSON.parse(run.results) as StudyResults) : new Map<string, BusHazard>();
+  const drawing = layoutOneLine(model, { hazards, problems, scenarioId });
+  if (run?.results && run.modelVersion !== study.modelVersion) {
+    drawing.notes.push('The model changed after the run shown: run the study again for current values.');
+  }
+  if (!run?.results) drawing.notes.push('No results yet: run the study to show the hazard at each bus.');
+  drawing.notes.push(
+    'Estimates from published empirical models and the data entered; not final until a qualified engineer has approved the study.',
+  );
+  return { drawing, title: `One-line diagram — ${model.name} (revision ${study.revision})` };
+}
+
+export async function studyOneLineSvg(actor: AuthUser, studyId: string, scenarioId?: string): Promise<string> {
+  const { drawing, title } = await studyOneLine(actor, studyId, scenarioId);
+  return oneLineSvg(drawing, { title });
+}
