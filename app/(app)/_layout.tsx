@@ -3,6 +3,7 @@ import React from 'react';
 import { AppShell } from '../../components/AppShell';
 import { ScreenBoundary } from '../../components/ErrorBoundary';
 import { useSession } from '../../hooks/session';
+import { UnitSystemProvider } from '../../hooks/unitSystem';
 
 export { ErrorBoundary } from '../../components/ErrorBoundary';
 
@@ -13,10 +14,12 @@ export default function AppLayout() {
   if (!ready) return null;
   if (!user) return <Redirect href="/sign-in" />;
   return (
-    <AppShell>
-      <ScreenBoundary resetKey={pathname}>
-        <Slot />
-      </ScreenBoundary>
-    </AppShell>
+    <UnitSystemProvider>
+      <AppShell>
+        <ScreenBoundary resetKey={pathname}>
+          <Slot />
+        </ScreenBoundary>
+      </AppShell>
+    </UnitSystemProvider>
   );
 }

@@ -7,6 +7,8 @@ import React, { memo, useEffect, useMemo, useRef, useState } from 'react';
 import { Modal, Platform, Pressable, ScrollView, TextInput, View, type ViewStyle } from 'react-native';
 import Svg, { Circle, Path, Rect } from 'react-native-svg';
 import { useLayout } from '../../hooks/useLayout';
+import { useUnitSystem } from '../../hooks/unitSystem';
+import { lengthText, readLengthText, type StoredLength } from '../../hooks/units';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { T } from '../ui';
 
@@ -222,7 +224,12 @@ export const TextCell = memo(function TextCell({
   );
 });
 
-/** A number input: keeps what is typed; reports a number, undefined when empty, NaN when not a number. */
+/**
+ * A number input: keeps what is typed; reports a number, undefined when empty, NaN when not a number. A `length`
+ * (stored in mm or m) is shown in the user's unit system (in or ft for US customary) and reported back in the stored
+ * unit: exactly the converted number typed, and the stored value itself while the field is not edited, so showing
+ * it or switching units never changes it.
+ */
 export const NumCell = memo(function NumCell({
   value,
   onChange,
@@ -233,15 +240,34 @@ export const NumCell = memo(function NumCell({
   testID,
   accessibilityLabel,
   style,
-}: InputCommon & { value: number | undefined; onChange: (v: number | undefined) => void }) {
-  const [text, setText] = useState(value === undefined || Number.isNaN(value) ? '' : String(value));
+  length,
+  typical,
+}: InputCommon & {
+  value: number | undefined;
+  onChange: (v: number | undefined) => void;
+  length?: StoredLength;
+  /** The typical value, in the stored unit, shown as the placeholder in the unit shown (a length only) */
+  typical?: number | null;
+}) {
+  const { system } = useUnitSystem();
+  if (length && typical != null) placeholder = lengthText(typical, length, system);
+  const textOf = (v: number | undefined) =>
+    length ? lengthText(v, length, system) : v === undefined || Number.isNaN(v) ? '' : String(v);
+  const [text, setText] = useState(() => textOf(value));
   const last = useRef<number | undefined>(value);
+  const shown = useRef({ text: textOf(value), value, system });
   useEffect(() => {
-    if (!Object.is(value, last.current)) {
+    if (!Object.is(value, last.current) || shown.current.system !== system) {
       last.current = value;
-      setText(value === undefined || Number.isNaN(value) ? '' : String(value));
+      const t = length
+        ? lengthText(value, length, system)
+        : value === undefined || Number.isNaN(value)
+          ? ''
+          : String(value);
+      shown.current = { text: t, value, system };
+      setText(t);
     }
-  }, [value]);
+  }, [value, system, length]);
   const parsed = parseNum(text);
   const bad = parsed !== undefined && Number.isNaN(parsed);
   return (
@@ -255,7 +281,7 @@ export const NumCell = memo(function NumCell({
       placeholderTextColor={PLACEHOLDER}
       onChangeText={(t) => {
         setText(t);
-        const v = parseNum(t);
+        const v = length ? readLengthText(t, shown.current, length, system) : parseNum(t);
         last.current = v;
         onChange(v);
       }}

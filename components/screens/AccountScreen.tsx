@@ -9,9 +9,10 @@ import { applyServerErrors, useZodForm } from '../../hooks/forms';
 import { useMe } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useSession, useUser } from '../../hooks/session';
+import { useUnitSystem } from '../../hooks/unitSystem';
 import { fonts, space } from '../theme';
 import { FormTextField } from '../form';
-import { Button, Card, Notice, Screen, T, ValueRow } from '../ui';
+import { Button, Card, Choice, Notice, Screen, T, ValueRow } from '../ui';
 
 /** The password change with the new password typed twice (compared once the new one is acceptable). */
 const changePasswordForm = changePasswordSchema
@@ -93,13 +94,37 @@ function ChangePassword() {
 }
 
 /** The signed-in person's own account: who they are, their password, signing out. */
+/** The user's unit system for lengths on screen (the editor, the spot check, the results); labels keep theirs. */
+function Units() {
+  const { system, chosen, setSystem } = useUnitSystem();
+  return (
+    <Card testID="account-units">
+      <T variant="subheading">Units</T>
+      <Choice
+        value={system}
+        onChange={setSystem}
+        testID="units"
+        options={[
+          { value: 'us', label: 'US customary (in, ft)' },
+          { value: 'si', label: 'SI (mm, m)' },
+        ]}
+      />
+      <T variant="small">
+        {chosen
+          ? 'Lengths in the model editor, the spot check and the results are shown in these units. Values are stored in SI, so switching never changes them. Kept on this device.'
+          : 'Until you choose, lengths follow your organization’s label units. Values are stored in SI, so switching never changes them.'}
+      </T>
+    </Card>
+  );
+}
+
 export function AccountScreen() {
   const user = useUser();
   const can = useCan();
   const me = useMe();
   const { signOut } = useSession();
   return (
-    <Screen title="Account" subtitle="Your sign-in and password.">
+    <Screen title="Account" subtitle="Your sign-in, units and password.">
       <Card testID="account-details">
         <T variant="subheading">{user.name}</T>
         <View>
@@ -117,6 +142,7 @@ export function AccountScreen() {
         </View>
         {!can('manageUsers') ? <T variant="small">An administrator changes names and roles.</T> : null}
       </Card>
+      <Units />
       <ChangePassword />
       <Card>
         <T variant="subheading">Sign out</T>

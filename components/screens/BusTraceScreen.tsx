@@ -19,7 +19,8 @@ import { queryKeys } from '../../hooks/queryKeys';
 import { useBusResult } from '../../hooks/results';
 import { useStudy } from '../../hooks/studies';
 import { useLayout } from '../../hooks/useLayout';
-import { fmt, fmtLength } from '../../hooks/units';
+import { fmt, fmtLength, lengthUnitOf } from '../../hooks/units';
+import { useUnitSystem } from '../../hooks/unitSystem';
 import { Cautions, HazardMark } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
@@ -241,6 +242,7 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
 /** The clearing trace of one bus: every number on its label traced to the device, the region of its band and the current. */
 export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: string }) {
   const { wide } = useLayout();
+  const { system } = useUnitSystem();
   const study = useStudy(studyId);
   // The governing scenario's trace (the label's basis) always; another scenario's when one is chosen.
   const [scenario, setScenario] = useState<string | undefined>(undefined);
@@ -434,7 +436,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
           <Num value={fmt(current.incidentEnergyCalPerCm2)} unit="cal/cm²" size={14} />
         </ValueRow>
         <ValueRow label="Arc-flash boundary">
-          <Num value={fmtLength(current.arcFlashBoundaryMm, 'mm')} size={14} />
+          <Num value={fmtLength(current.arcFlashBoundaryMm, lengthUnitOf(system))} size={14} />
         </ValueRow>
         <IntervalList c={current} />
       </Card>

@@ -1,4 +1,4 @@
-import React, { useState } from 'react';
+import React, { useEffect, useRef, useState } from 'react';
 import { View } from 'react-native';
 import {
   EQUIPMENT_CLASSES,
@@ -11,7 +11,8 @@ import { applyServerErrors, useZodForm } from '../../hooks/forms';
 import { useIncidentEnergy } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
-import { fromDisplay, toDisplay, type LengthUnit } from '../../hooks/units';
+import { lengthText, lengthUnitOf, readLengthText, type UnitSystem } from '../../hooks/units';
+import { useUnitSystem } from '../../hooks/unitSystem';
 import { Cautions } from '../Cautions';
 import { EnergyResult } from '../results/EnergyResult';
 import { colors, space } from '../theme';
@@ -37,23 +38,34 @@ interface SpotFields {
   clearingMs: { full: string; reduced: string };
 }
 
-const round = (v: number) => String(Math.round(v * 10) / 10);
+/** The length fields (stored in mm, shown in the user's unit system). */
+const LENGTH_KEYS = [
+  'gapMm',
+  'workingDistanceMm',
+  'enclosureMm.height',
+  'enclosureMm.width',
+  'enclosureMm.depth',
+] as const;
+type LengthKey = (typeof LENGTH_KEYS)[number];
+/** Per length field: the text it was last shown with and the mm value behind it (read back while unedited). */
+type ShownLengths = Record<LengthKey, { text: string; value: number | undefined }>;
 
-/** The fields a preset fills: its typical gap, working distance and enclosure in the unit shown. */
-function presetValues(id: string, unit: LengthUnit): Partial<SpotFields> {
+function textOfKey(f: SpotFields, k: LengthKey): string {
+  if (k === 'gapMm' || k === 'workingDistanceMm') return f[k];
+  return f.enclosureMm[k.slice('enclosureMm.'.length) as 'height' | 'width' | 'depth'];
+}
+
+/** The typical lengths of a preset, mm. */
+function presetLengths(id: string): Partial<Record<LengthKey, number | undefined>> {
   const c = EQUIPMENT_CLASSES.find((e) => e.id === id);
   if (!c) return {};
-  const len = (mm: number | null | undefined) => (mm ? round(toDisplay(mm, unit)) : '');
+  const mm = (v: number | null | undefined) => (v ? v : undefined);
   return {
-    preset: id,
-    electrodeConfig: c.electrodeConfig,
-    gapMm: len(c.gapMm),
-    workingDistanceMm: len(c.workingDistanceMm),
-    enclosureMm: {
-      height: len(c.enclosureMm?.height),
-      width: len(c.enclosureMm?.width),
-      depth: len(c.enclosureMm?.depth),
-    },
+    gapMm: mm(c.gapMm),
+    workingDistanceMm: mm(c.workingDistanceMm),
+    'enclosureMm.height': mm(c.enclosureMm?.height),
+    'enclosureMm.width': mm(c.enclosureMm?.width),
+    'enclosureMm.depth': mm(c.enclosureMm?.depth),
   };
 }
 
@@ -61,23 +73,23 @@ const num = (s: string): number | undefined => (s.trim() === '' ? undefined : Nu
 
 const isOpenAir = (c: ElectrodeConfig) => c === 'VOA' || c === 'HOA';
 
-/** The request from the fields: lengths from the unit shown to mm, the enclosure only for an enclosed configuration. */
-function requestOf(f: SpotFields, unit: LengthUnit) {
-  const mm = (s: string) => {
-    const v = num(s);
-    return v === undefined ? undefined : fromDisplay(v, unit);
-  };
+/**
+ * The request from the fields: lengths in mm (the value behind an unedited field exactly, an edited one converted
+ * from the unit shown), the enclosure only for an enclosed configuration.
+ */
+function requestOf(f: SpotFields, system: UnitSystem, shown: ShownLengths) {
+  const mm = (k: LengthKey) => readLengthText(textOfKey(f, k), shown[k], 'mm', system);
   const e = f.enclosureMm;
   const enclosure =
     isOpenAir(f.electrodeConfig) || (!e.height && !e.width && !e.depth)
       ? undefined
-      : { height: mm(e.height), width: mm(e.width), depth: mm(e.depth) };
+      : { height: mm('enclosureMm.height'), width: mm('enclosureMm.width'), depth: mm('enclosureMm.depth') };
   return {
     voltageV: num(f.voltageV),
     boltedFaultKa: num(f.boltedFaultKa),
     electrodeConfig: f.electrodeConfig,
-    gapMm: mm(f.gapMm),
-    workingDistanceMm: mm(f.workingDistanceMm),
+    gapMm: mm('gapMm'),
+    workingDistanceMm: mm('workingDistanceMm'),
     enclosureMm: enclosure,
     ...(f.durationMode === 'one'
       ? { arcDurationMs: num(f.arcDurationMs) }
@@ -91,22 +103,32 @@ const initialFields: SpotFields = {
   durationMode: 'one',
   arcDurationMs: '50',
   clearingMs: { full: '50', reduced: '80' },
-  electrodeConfig: 'VCB',
   gapMm: '',
   workingDistanceMm: '',
   enclosureMm: { height: '', width: '', depth: '' },
-  preset: '',
-  ...presetValues('mcc-panelboard-lv-deep', 'mm'),
+  preset: 'mcc-panelboard-lv-deep',
+  electrodeConfig: EQUIPMENT_CLASSES.find((c) => c.id === 'mcc-panelboard-lv-deep')?.electrodeConfig ?? 'VCB',
+};
+
+const NO_LENGTHS: ShownLengths = {
+  gapMm: { text: '', value: undefined },
+  workingDistanceMm: { text: '', value: undefined },
+  'enclosureMm.height': { text: '', value: undefined },
+  'enclosureMm.width': { text: '', value: undefined },
+  'enclosureMm.depth': { text: '', value: undefined },
 };
 
 /** One equipment, no model: IEEE 1584-2018 incident energy with both cases and the label values. */
 export function SpotCheckScreen() {
   const canRun = useCan()('spotCheck');
   const { wide } = useLayout();
-  const [unit, setUnit] = useState<LengthUnit>('mm');
+  const { system, setSystem } = useUnitSystem();
+  const unit = lengthUnitOf(system);
+  const shown = useRef<ShownLengths>(NO_LENGTHS);
+  const systemShown = useRef<UnitSystem>(system);
   const form = useZodForm<typeof incidentEnergyRequestSchema, SpotFields>(incidentEnergyRequestSchema, {
     defaultValues: initialFields,
-    toInput: (f) => requestOf(f, unit),
+    toInput: (f) => requestOf(f, systemShown.current, shown.current),
   });
   const [message, setMessage] = useState<string | null>(null);
   const calc = useIncidentEnergy();
@@ -117,31 +139,57 @@ export function SpotCheckScreen() {
     for (const [key, value] of Object.entries(values)) form.setValue(key as keyof SpotFields, value as never);
   };
 
-  const switchUnit = (next: LengthUnit) => {
-    if (next === unit) return;
-    const conv = (s: string) => {
-      const v = num(s);
-      return v === undefined || !Number.isFinite(v) ? s : round(toDisplay(fromDisplay(v, unit), next));
-    };
-    const f = form.getValues();
-    fill({
-      gapMm: conv(f.gapMm),
-      workingDistanceMm: conv(f.workingDistanceMm),
-      enclosureMm: {
-        height: conv(f.enclosureMm.height),
-        width: conv(f.enclosureMm.width),
-        depth: conv(f.enclosureMm.depth),
-      },
-    });
-    setUnit(next);
+  /** Shows lengths (mm) in the unit system, remembering the value behind each text. */
+  const showLengths = (values: Partial<Record<LengthKey, number | undefined>>, sys: UnitSystem) => {
+    const next = { ...shown.current };
+    for (const k of LENGTH_KEYS) {
+      if (!(k in values)) continue;
+      const text = lengthText(values[k], 'mm', sys);
+      next[k] = { text, value: values[k] };
+      form.setValue(k, text);
+    }
+    shown.current = next;
+    systemShown.current = sys;
   };
 
+  const applyPreset = (id: string) => {
+    const c = EQUIPMENT_CLASSES.find((e) => e.id === id);
+    if (!c) return;
+    fill({ preset: id, electrodeConfig: c.electrodeConfig });
+    showLengths(presetLengths(id), systemShown.current);
+  };
+
+  // The first preset, and every switch of the unit system: each length is read in the unit it was shown in (the
+  // stored value itself where it was not edited) and shown again in the new one, so a switch never changes it.
+  const started = useRef(false);
+  useEffect(() => {
+    if (!started.current) {
+      started.current = true;
+      systemShown.current = system;
+      showLengths(presetLengths(initialFields.preset), system);
+      return;
+    }
+    if (systemShown.current === system) return;
+    const f = form.getValues();
+    const values: Partial<Record<LengthKey, number | undefined>> = {};
+    for (const k of LENGTH_KEYS)
+      values[k] = readLengthText(textOfKey(f, k), shown.current[k], 'mm', systemShown.current);
+    showLengths(values, system);
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- runs on a switch of the unit system only
+  }, [system]);
+
+  // A Calculate that fails (in the form or on the server) clears the previous result, so no result stands beside an
+  // error; a new one clears the last error.
   const submit = () => {
     setMessage(null);
-    void form.handleSubmit((request) =>
-      calc.mutate(request, {
-        onError: (e) => setMessage(applyServerErrors(form, e)),
-      }),
+    calc.reset();
+    void form.handleSubmit(
+      (request) =>
+        calc.mutate(request, {
+          onSuccess: () => setMessage(null),
+          onError: (e) => setMessage(applyServerErrors(form, e)),
+        }),
+      () => calc.reset(),
     )();
   };
 
@@ -162,7 +210,7 @@ export function SpotCheckScreen() {
         <Choice
           value={preset}
           options={EQUIPMENT_CLASSES.map((c) => ({ value: c.id, label: c.label }))}
-          onChange={(id) => fill(presetValues(id, unit))}
+          onChange={applyPreset}
           testID="preset"
         />
       </Card>
@@ -178,12 +226,12 @@ export function SpotCheckScreen() {
         >
           <T variant="subheading">Inputs</T>
           <Choice
-            value={unit}
+            value={system}
             options={[
-              { value: 'mm', label: 'mm' },
-              { value: 'in', label: 'in' },
+              { value: 'si', label: 'mm' },
+              { value: 'us', label: 'in' },
             ]}
-            onChange={switchUnit}
+            onChange={setSystem}
             testID="unit"
           />
         </View>

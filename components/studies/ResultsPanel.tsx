@@ -12,6 +12,7 @@ import type { StudyDto } from '../../shared/schemas/studies';
 import { useResultsPage } from '../../hooks/results';
 import { useLayout } from '../../hooks/useLayout';
 import { fmt } from '../../hooks/units';
+import { useUnitSystem } from '../../hooks/unitSystem';
 import {
   busArcDurationCapS,
   clearedByDisplay,
@@ -138,6 +139,8 @@ function Pager({
  */
 export function ResultsPanel({ study }: { study: StudyDto }) {
   const { wide } = useLayout();
+  // Boundaries in both units, the user's unit system first.
+  const unitOrder = useUnitSystem().system === 'us' ? 'us-first' : 'si-first';
   const [sort, setSortState] = useState<ResultsSort>('busId');
   const [order, setOrder] = useState<'asc' | 'desc'>(DEFAULT_ORDER.busId);
   const [show, setShow] = useState<Show>('all');
@@ -382,7 +385,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                     </T>
                   ) : null}
                   <T style={{ flex: 1, fontFamily: fonts.numbers, fontSize: 14 }}>
-                    {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm) : '—'}
+                    {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm, unitOrder) : '—'}
                   </T>
                   <T style={{ flex: 1, fontSize: 13 }}>
                     {b.labelValues ? (b.labelValues.ppeLevel?.name ?? 'None adequate') : '—'}
@@ -453,7 +456,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                           clearedByOf(b, data.study.maxArcDurationMs),
                         )}{' '}
                         · {fmt(b.arcDurationS)} s ·{' '}
-                        {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm) : ''}
+                        {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm, unitOrder) : ''}
                       </T>
                     </View>
                   )}

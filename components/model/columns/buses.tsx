@@ -163,7 +163,9 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
         <NumCell
           value={e.equipment?.gapMm}
           onChange={(v) => patch((b) => patchEquipment(b, 'gapMm', v))}
-          placeholder={typical != null ? num(typical) : 'enter'}
+          length="mm"
+          typical={typical}
+          placeholder="enter"
           size={size}
           invalid={invalid}
           editable={editable}
@@ -189,7 +191,9 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
         <NumCell
           value={e.equipment?.workingDistanceMm}
           onChange={(v) => patch((b) => patchEquipment(b, 'workingDistanceMm', v))}
-          placeholder={typical != null ? num(typical) : 'enter'}
+          length="mm"
+          typical={typical}
+          placeholder="enter"
           size={size}
           invalid={invalid}
           editable={editable}
@@ -220,7 +224,9 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
               <NumCell
                 value={box?.[d]}
                 onChange={(v) => patch((b) => patchEnclosure(b, d, v))}
-                placeholder={typical ? num(typical[d]) : typical === null ? 'none' : ''}
+                length="mm"
+                typical={typical ? typical[d] : undefined}
+                placeholder={typical === null ? 'none' : ''}
                 size={size}
                 invalid={invalid && (box?.[d] === undefined || !box)}
                 editable={editable}

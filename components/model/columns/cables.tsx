@@ -26,7 +26,22 @@ export const CABLE_COLUMNS: Column<CableInput>[] = [
   nameColumn(160),
   busColumn<CableInput>('fromBus', 'From bus'),
   busColumn<CableInput>('toBus', 'To bus'),
-  numberColumn<CableInput>('lengthM', 'Length', 'm', 90),
+  {
+    // A length: shown in ft for US customary, stored in m (the unit system is the user's, see hooks/unitSystem.tsx).
+    ...numberColumn<CableInput>('lengthM', 'Length', 'm', 90),
+    render: ({ e, size, invalid, editable, patch, testID, label }) => (
+      <NumCell
+        value={e.lengthM}
+        onChange={(v) => patch((c) => withField(c as Record<string, unknown>, 'lengthM', v) as CableInput)}
+        length="m"
+        size={size}
+        invalid={invalid}
+        editable={editable}
+        testID={testID}
+        accessibilityLabel={label}
+      />
+    ),
+  },
   numberColumn<CableInput>('sets', 'Sets', undefined, 70, {
     placeholder: () => '1',
     hint: () => 'Parallel conductors per phase',

@@ -1,5 +1,7 @@
 /** Cards (phone). */
 import { memo, useCallback } from 'react';
+import { useUnitSystem } from '../../../hooks/unitSystem';
+import { unitLabel } from '../../../hooks/units';
 import { Pressable, View, type ViewStyle } from 'react-native';
 import { colors, fonts, radius, space, touch } from '../../theme';
 import { Button, T } from '../../ui';
@@ -22,6 +24,7 @@ export const CardRow = memo(function CardRow({
   actions,
 }: RowProps & { expanded: boolean }) {
   const columns = COLUMNS[collection] as Column<AnyElement>[];
+  const { system } = useUnitSystem();
   const byColumn = useIssueColumns(issues, columns);
   const cautionByColumn = useIssueColumns(warnings, columns);
   const ref = useScrollIntoView(focused);
@@ -128,7 +131,7 @@ export const CardRow = memo(function CardRow({
                 <FormField
                   key={c.key}
                   label={c.formLabel ?? c.label}
-                  unit={c.unit}
+                  unit={unitLabel(c.unit, system)}
                   basis={c.basis ?? 140}
                   error={problems ? problems.map((li) => issueMessage(li.issue)).join(' · ') : undefined}
                   hint={c.hint?.(element, ctx)}

@@ -1,5 +1,7 @@
 /** Table (wide). */
 import { memo, useCallback } from 'react';
+import { useUnitSystem } from '../../../hooks/unitSystem';
+import { unitLabel } from '../../../hooks/units';
 import { Platform, View, type ViewStyle } from 'react-native';
 import { colors, fonts, space } from '../../theme';
 import { T } from '../../ui';
@@ -17,12 +19,18 @@ const stickLeft = (Platform.OS === 'web' ? { position: 'sticky', left: 0, zIndex
 const stickRight = (Platform.OS === 'web' ? { position: 'sticky', right: 0, zIndex: 2 } : {}) as unknown as ViewStyle;
 
 export const TableHeader = memo(function TableHeader({ columns }: { columns: Column<AnyElement>[] }) {
+  const { system } = useUnitSystem();
   const [first, ...rest] = columns;
   const cell = (c: Column<AnyElement>) => (
     <View key={c.key} style={{ width: c.width, paddingHorizontal: CELL_PAD + 2, paddingVertical: space.sm }}>
       <T variant="label" numberOfLines={1}>
         {c.label}
-        {c.unit ? <T variant="label" style={{ color: colors.muted, fontFamily: fonts.text }}>{` ${c.unit}`}</T> : null}
+        {c.unit ? (
+          <T
+            variant="label"
+            style={{ color: colors.muted, fontFamily: fonts.text }}
+          >{` ${unitLabel(c.unit, system)}`}</T>
+        ) : null}
       </T>
     </View>
   );
