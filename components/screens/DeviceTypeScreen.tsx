@@ -32,7 +32,7 @@ import { newDefinition } from '../devices/templates';
 import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
 import { colors, fonts, space } from '../theme';
 import { FormTextField } from '../form';
-import { Button, Card, Notice, Screen, T } from '../ui';
+import { Button, Card, Choice, Notice, Screen, T } from '../ui';
 
 /** The device with numbers only: electronic trip units are resolved from their switch positions by the server. */
 function useResolvedDevice(def: DeviceDefinition | null): { device: Device | null; error: string | null } {
@@ -177,11 +177,13 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
     const form = new FormData();
     form.append('file', file);
     try {
-      const r = await callApi(contract.devices.parseBandCsv, { formData: form });
+      // The unit of the first column is the choice shown above the upload, never guessed from the file.
+      const currentUnit = def?.kind === 'band' ? def.currentUnit : 'ampere';
+      const r = await callApi(contract.devices.parseBandCsv, { formData: form, query: { currentUnit } });
       setDef((d) => (d && d.kind === 'band' ? { ...d, currentUnit: r.currentUnit, min: r.min, max: r.max } : d));
       setMessage({
         tone: 'ok',
-        text: `Read ${r.max.length} maximum and ${r.min.length} minimum points from ${file.name}.`,
+        text: `Read ${r.max.length} maximum and ${r.min.length} minimum points from ${file.name}, the first column in ${r.currentUnit === 'multiple' ? 'multiples of the rating' : 'amperes'}.`,
       });
     } catch (e) {
       const s = serverErrors(e);
@@ -255,6 +257,16 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
         <T variant="subheading">Settings</T>
         {def.kind === 'band' && canEdit ? (
           <View style={{ gap: space.xs, padding: space.md, backgroundColor: colors.canvas, borderRadius: 8 }}>
+            <Choice
+              label="The CSV's first column holds"
+              value={def.currentUnit}
+              options={[
+                { value: 'ampere', label: 'Amperes' },
+                { value: 'multiple', label: 'Multiples of the rating' },
+              ]}
+              onChange={(u) => setDef((d) => (d && d.kind === 'band' ? { ...d, currentUnit: u } : d))}
+              testID="csv-unit"
+            />
             <FilePicker
               accept=".csv,text/csv,text/plain"
               label="Upload a digitized band (CSV: current or multiple, min_s, max_s)"

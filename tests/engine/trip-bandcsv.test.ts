@@ -49,6 +49,22 @@ describe('worked example: a digitized band CSV', () => {
     expect(parseBandCsv('200,60,200\n1000,0.02,0.05').ok).toBe(true);
   });
 
+  it('the uploader’s choice of unit decides; a header naming the other unit is refused on its line', () => {
+    // A neutral "current" header under an explicit choice of multiples: read as multiples.
+    const chosen = parseBandCsv('current,min_s,max_s\n2,60,200\n10,0.02,0.05\n', { currentUnit: 'multiple' });
+    expect(chosen.ok && chosen.currentUnit).toBe('multiple');
+    // A header saying multiples while amperes were chosen: an error naming line 1, no points taken.
+    const conflict = parseBandCsv('multiple,min_s,max_s\n2,60,200\n10,0.02,0.05\n', { currentUnit: 'ampere' });
+    expect(conflict.ok).toBe(false);
+    if (!conflict.ok) {
+      expect(conflict.errors[0]!.line).toBe(1);
+      expect(conflict.errors[0]!.message).toMatch(/header says the first column holds multiples.*amperes was chosen/);
+    }
+    // The same header agreeing with the choice reads.
+    const agree = parseBandCsv('amperes,min_s,max_s\n400,300,900\n4000,0.02,0.05\n', { currentUnit: 'ampere' });
+    expect(agree.ok && agree.currentUnit).toBe('ampere');
+  });
+
   it('round-trips a band through formatBandCsv and gives the same clearing times', () => {
     const parsed = parseBandCsv(formatBandCsv(EXAMPLE_BAND));
     expect(parsed.ok).toBe(true);

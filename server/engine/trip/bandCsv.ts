@@ -12,8 +12,9 @@ export type BandCsvResult =
   | { ok: true; currentUnit: CurrentUnit; min: [number, number][]; max: [number, number][] }
   | { ok: false; errors: BandCsvError[] };
 
-const UNIT_HEADERS: Record<string, CurrentUnit> = {
-  current: 'ampere',
+/** What the first header names: a unit, or (`current`) no unit. */
+const UNIT_HEADERS: Record<string, CurrentUnit | 'unstated'> = {
+  current: 'unstated',
   current_a: 'ampere',
   amperes: 'ampere',
   ampere: 'ampere',
@@ -22,6 +23,7 @@ const UNIT_HEADERS: Record<string, CurrentUnit> = {
   multiples: 'multiple',
   x: 'multiple',
 };
+const UNIT_WORDS: Record<CurrentUnit, string> = { ampere: 'amperes', multiple: 'multiples of the rating' };
 const MIN_HEADERS = new Set(['min_s', 'min', 'minimum_s', 'minimum']);
 const MAX_HEADERS = new Set(['max_s', 'max', 'maximum_s', 'maximum']);
 
@@ -46,8 +48,10 @@ function parseNumber(cell: string): number | null {
 
 /**
  * Parses a digitized band CSV: three columns, current (amperes) or multiple (of rating), minimum seconds,
- * maximum seconds. A header row is optional (`current,min_s,max_s` or `multiple,min_s,max_s`); without one,
- * `options.currentUnit` says what the first column holds (default amperes). A min or max cell may be left
+ * maximum seconds. What the first column holds is the uploader's explicit choice, `options.currentUnit`; a header row
+ * is optional (`current,min_s,max_s`, `amperes,min_s,max_s` or `multiple,min_s,max_s`) and is never taken over a
+ * choice: a header naming the other unit is an error on its line. Without a choice (programs of the API), a header
+ * naming a unit decides, otherwise amperes. A min or max cell may be left
  * empty where that curve has no point at the row's current. Lines starting with `#` and blank lines are skipped.
  * Every problem is reported with its line number: non-numeric or non-positive values, currents not strictly
  * increasing, a curve's time rising with current, a row's minimum above its maximum, too few points.
@@ -82,7 +86,12 @@ export function parseBandCsv(text: string, options: { currentUnit?: CurrentUnit 
             line,
             message: `Header "${cells.join(',')}" not understood: use current,min_s,max_s or multiple,min_s,max_s`,
           });
-        } else {
+        } else if (unit !== 'unstated' && options.currentUnit && unit !== options.currentUnit) {
+          errors.push({
+            line,
+            message: `The header says the first column holds ${UNIT_WORDS[unit]}, but ${UNIT_WORDS[options.currentUnit]} was chosen: choose the unit the file holds`,
+          });
+        } else if (unit !== 'unstated' && !options.currentUnit) {
           currentUnit = unit;
         }
         return;

@@ -98,12 +98,15 @@ export const specs: Spec[] = [
         buffer: Buffer.from('multiple,min_s,max_s\n2,50,100\n5,x,12\n'),
       });
       await page.getByText('line 3').first().waitFor();
-      await page.locator('input[type=file]').setInputFiles({
-        name: 'band.csv',
-        mimeType: 'text/csv',
-        buffer: Buffer.from('multiple,min_s,max_s\n1.5,300,1500\n3,30,150\n6,4,20\n10,0.8,5\n20,0.02,0.06\n'),
-      });
+      const band = Buffer.from('multiple,min_s,max_s\n1.5,300,1500\n3,30,150\n6,4,20\n10,0.8,5\n20,0.02,0.06\n');
+      // The unit of the first column is chosen before the upload: a header saying otherwise is refused.
+      await page.getByTestId('csv-unit-ampere').click();
+      await page.locator('input[type=file]').setInputFiles({ name: 'band.csv', mimeType: 'text/csv', buffer: band });
+      await page.getByText('header says the first column holds multiples', { exact: false }).first().waitFor();
+      await page.getByTestId('csv-unit-multiple').click();
+      await page.locator('input[type=file]').setInputFiles({ name: 'band2.csv', mimeType: 'text/csv', buffer: band });
       await page.getByText('Read 5 maximum').waitFor();
+      await page.getByText('the first column in multiples of the rating', { exact: false }).waitFor();
       await page.getByTestId('save-device').click();
       await page.getByText('Saved to the device library.').waitFor();
       await h.shot(page, 'device-band-desktop');
