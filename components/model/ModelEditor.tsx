@@ -159,6 +159,7 @@ export function ModelEditor({
             filter={filter}
             setFilter={setFilter}
             onAdd={add}
+            stackHeader={wide && !!devicePanel}
           />
         </DeviceLayout>
       )}
@@ -190,7 +191,7 @@ function DeviceLayout({ wide, panel, children }: { wide: boolean; panel: ReactNo
   return (
     <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.lg }}>
       <View style={{ flex: 1, minWidth: 0 }}>{children}</View>
-      <View style={{ width: 460, flexShrink: 0 }}>{panel}</View>
+      <View style={{ width: 420, flexShrink: 0 }}>{panel}</View>
     </View>
   );
 }

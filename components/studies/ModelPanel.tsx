@@ -184,6 +184,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
           <T testID="model-state" style={{ color: dirty ? colors.caution : colors.muted }}>
             {dirty ? 'Unsaved changes' : `Saved · model version ${baseVersion}`}
             {issues.length ? ` · ${issues.length} problem${issues.length === 1 ? '' : 's'}` : ' · no problems'}
+            {warnings.length ? ` · ${warnings.length} worth checking` : ''}
           </T>
           <Button title="Save model" testID="save-model" disabled={!dirty} busy={save.isPending} onPress={onSave} />
         </Card>

@@ -9,6 +9,7 @@ import { specs as calcSpecs } from './specs/calc';
 import { specs as studySpecs } from './specs/studies';
 import { specs as modelScenarioSpecs } from './specs/modelScenarios';
 import { specs as scenarioResultSpecs } from './specs/scenarioResults';
+import { specs as deviceSettingsSpecs } from './specs/deviceSettings';
 import { specs as labelSpecs } from './specs/labels';
 import { specs as attentionSpecs } from './specs/attention.spec';
 import { specs as reminderApprovalSpecs } from './specs/reminderApproval';
@@ -25,6 +26,7 @@ async function main(): Promise<void> {
     ...studySpecs,
     ...modelScenarioSpecs,
     ...scenarioResultSpecs,
+    ...deviceSettingsSpecs,
     ...labelSpecs,
     ...attentionSpecs,
     ...reminderApprovalSpecs,

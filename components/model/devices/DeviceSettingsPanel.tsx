@@ -5,7 +5,7 @@
  * draft, save) and the model's issues land under the field they name. The band is drawn beside, with the bus's
  * bolted fault and arcing currents of the last run when the study has results for the bus.
  */
-import { useMutation } from '@tanstack/react-query';
+import { useMutation, useQuery } from '@tanstack/react-query';
 import { useMemo, type ReactNode } from 'react';
 import { View } from 'react-native';
 import { contract } from '../../../shared/api';
@@ -20,7 +20,13 @@ import {
   type RelayDevice,
   type ThermalMagneticDevice,
 } from '../../../shared/schemas/device';
-import { DEVICE_KIND_LABELS, genericNoteSentence, type DeviceType } from '../../../shared/schemas/deviceLibrary';
+import {
+  DEVICE_KIND_LABELS,
+  PLOT_LIMITS,
+  genericNoteSentence,
+  type DeviceType,
+} from '../../../shared/schemas/deviceLibrary';
+import { queryKeys } from '../../../hooks/queryKeys';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { callApi } from '../../../hooks/api';
 import { serverErrors } from '../../../hooks/forms';
@@ -28,7 +34,7 @@ import { useBandCurves } from '../../../hooks/queries';
 import { useBusResult } from '../../../hooks/results';
 import { useDebounced } from '../../../hooks/useDebounced';
 import { TimeCurrentPlot, type TimeCurrentVertical } from '../../plot/TimeCurrentPlot';
-import { colors, fonts, radius, space } from '../../theme';
+import { colors, fonts, space } from '../../theme';
 import { Button, Card, Notice, T } from '../../ui';
 import { fromLibrary } from '../columns/devices';
 import { FormField, IconButton, NumCell, PickCell, SegCell, TextCell, type PickOption } from '../controls';
@@ -55,6 +61,8 @@ import {
   withSettings,
   withTmInstantaneousMode,
 } from './deviceEdit';
+
+const finiteNum = (v: number | undefined): v is number => v !== undefined && Number.isFinite(v) && v > 0;
 
 export const RELAY_CURVE_LABELS: Record<RelayDevice['curve'], string> = {
   'IEEE-MI': 'IEEE moderately inverse',
@@ -284,65 +292,48 @@ function NoDevice({ editable, onStart }: { editable: boolean; onStart: (d: Devic
 
 function RelayFields({ r, editable, setDevice, fieldError, fieldWarning }: FieldsCommon & { r: RelayDevice }) {
   const mode = relayPickupMode(r);
+  // The instantaneous pickup is shown the way it is stored (a CT relay may give it in primary amperes).
+  const instPrimary = r.instantaneousA !== undefined || (r.instantaneousSecondaryA === undefined && mode === 'primary');
   const set = <K extends keyof RelayDevice>(k: K, v: RelayDevice[K] | undefined) => setDevice(setField(r, k, v));
   const primary = relayPickupPrimaryA(r);
   const inst = relayInstantaneousPrimaryA(r);
   const f = (k: string) => ({ error: fieldError(k), warning: fieldWarning(k) });
   return (
     <View style={{ gap: space.md }}>
-      <FormField label="Curve" error={fieldError('curve')} basis={240}>
-        <PickCell
-          value={r.curve}
-          options={CURVE_OPTIONS}
-          onChange={(v) => set('curve', v as RelayDevice['curve'])}
-          title="Relay curve"
-          size="form"
-          invalid={!!fieldError('curve')}
-          editable={editable}
-          testID="relay-curve"
-          accessibilityLabel="Relay curve"
-        />
-      </FormField>
-      <FormField label="Pickups given as" basis={240}>
-        <SegCell
-          value={mode}
-          options={[
-            { value: 'primary', label: 'Primary amperes' },
-            { value: 'ct', label: 'CT ratio + secondary' },
-          ]}
-          onChange={(v) => setDevice(withRelayPickupMode(r, v))}
-          size="form"
-          invalid={false}
-          editable={editable}
-          testID="relay-pickup-mode"
-          accessibilityLabel="Pickups given as"
-        />
-      </FormField>
-      {mode === 'primary' ? (
-        <Row>
-          <Num
-            label="Pickup"
-            unit="A"
-            value={r.pickupA}
-            onChange={(v) => set('pickupA', v)}
-            {...f('pickupA')}
+      <Row>
+        <FormField label="Curve" error={fieldError('curve')} basis={240}>
+          <PickCell
+            value={r.curve}
+            options={CURVE_OPTIONS}
+            onChange={(v) => set('curve', v as RelayDevice['curve'])}
+            title="Relay curve"
+            size="form"
+            invalid={!!fieldError('curve')}
             editable={editable}
-            testID="relay-pickup"
+            testID="relay-curve"
+            accessibilityLabel="Relay curve"
           />
-          <Num
-            label="Instantaneous"
-            unit="A"
-            value={r.instantaneousA}
-            onChange={(v) => set('instantaneousA', v)}
-            {...f('instantaneousA')}
-            hint="Empty: no instantaneous element"
-            placeholder="Off"
+        </FormField>
+      </Row>
+      <Row>
+        <FormField label="Pickups given as" basis={240}>
+          <SegCell
+            value={mode}
+            options={[
+              { value: 'primary', label: 'Primary A' },
+              { value: 'ct', label: 'Secondary A (CT)' },
+            ]}
+            onChange={(v) => setDevice(withRelayPickupMode(r, v))}
+            size="form"
+            invalid={false}
             editable={editable}
-            testID="relay-instantaneous"
+            testID="relay-pickup-mode"
+            accessibilityLabel="Pickups given as"
           />
-        </Row>
-      ) : (
-        <Row>
+        </FormField>
+      </Row>
+      <Row>
+        {mode === 'ct' ? (
           <Num
             label="CT ratio"
             value={r.ctRatio}
@@ -352,6 +343,18 @@ function RelayFields({ r, editable, setDevice, fieldError, fieldWarning }: Field
             editable={editable}
             testID="relay-ct-ratio"
           />
+        ) : null}
+        {mode === 'primary' ? (
+          <Num
+            label="Pickup"
+            unit="A"
+            value={r.pickupA}
+            onChange={(v) => set('pickupA', v)}
+            {...f('pickupA')}
+            editable={editable}
+            testID="relay-pickup"
+          />
+        ) : (
           <Num
             label="Pickup"
             unit="secondary A"
@@ -362,6 +365,28 @@ function RelayFields({ r, editable, setDevice, fieldError, fieldWarning }: Field
             editable={editable}
             testID="relay-pickup-secondary"
           />
+        )}
+      </Row>
+      <Row>
+        {instPrimary ? (
+          <Num
+            label="Instantaneous"
+            unit="A primary"
+            value={r.instantaneousA}
+            onChange={(v) => set('instantaneousA', v)}
+            {...f('instantaneousA')}
+            hint={
+              r.instantaneousA === undefined
+                ? 'Empty: no instantaneous element'
+                : mode === 'ct' && finiteNum(r.ctRatio)
+                  ? `${num(r.instantaneousA / r.ctRatio)} A secondary`
+                  : undefined
+            }
+            placeholder="Off"
+            editable={editable}
+            testID="relay-instantaneous"
+          />
+        ) : (
           <Num
             label="Instantaneous"
             unit="secondary A"
@@ -373,8 +398,8 @@ function RelayFields({ r, editable, setDevice, fieldError, fieldWarning }: Field
             editable={editable}
             testID="relay-instantaneous-secondary"
           />
-        </Row>
-      )}
+        )}
+      </Row>
       <Row>
         <Num
           label={r.curve.startsWith('IEC') ? 'Time multiplier' : 'Time dial'}
@@ -575,22 +600,24 @@ function ThermalMagneticFields({
   return (
     <View style={{ gap: space.md }}>
       <T variant="small">{`Rating ${num(tm.ratingA)} A; the thermal band (${tm.thermal.max.length} points) is kept as it is.`}</T>
-      <FormField label="Instantaneous pickup" error={fieldError('instantaneous')} basis={240}>
-        <SegCell
-          value={mode}
-          options={[
-            { value: 'tolerance', label: 'Pickup ± %' },
-            { value: 'range', label: 'Low–high' },
-            { value: 'none', label: 'None' },
-          ]}
-          onChange={(v) => setDevice(withTmInstantaneousMode(tm, v))}
-          size="form"
-          invalid={false}
-          editable={editable}
-          testID="tm-inst-mode"
-          accessibilityLabel="Instantaneous pickup given as"
-        />
-      </FormField>
+      <Row>
+        <FormField label="Instantaneous pickup" error={fieldError('instantaneous')} basis={240}>
+          <SegCell
+            value={mode}
+            options={[
+              { value: 'tolerance', label: 'Pickup ± %' },
+              { value: 'range', label: 'Low–high' },
+              { value: 'none', label: 'None' },
+            ]}
+            onChange={(v) => setDevice(withTmInstantaneousMode(tm, v))}
+            size="form"
+            invalid={false}
+            editable={editable}
+            testID="tm-inst-mode"
+            accessibilityLabel="Instantaneous pickup given as"
+          />
+        </FormField>
+      </Row>
       {mode === 'tolerance' ? (
         <Row>
           <Num
@@ -636,17 +663,19 @@ function ThermalMagneticFields({
         </Row>
       ) : null}
       {mode !== 'none' ? (
-        <FormField label="Setting name" hint="The adjustable position chosen, e.g. LO or HI (optional)" basis={160}>
-          <TextCell
-            value={i.setting}
-            onChange={(v) => setInst('setting', v.trim() === '' ? undefined : v)}
-            size="form"
-            invalid={false}
-            editable={editable}
-            testID="tm-inst-setting"
-            accessibilityLabel="Instantaneous setting name"
-          />
-        </FormField>
+        <Row>
+          <FormField label="Setting name" hint="The adjustable position chosen, e.g. LO or HI (optional)" basis={160}>
+            <TextCell
+              value={i.setting}
+              onChange={(v) => setInst('setting', v.trim() === '' ? undefined : v)}
+              size="form"
+              invalid={false}
+              editable={editable}
+              testID="tm-inst-setting"
+              accessibilityLabel="Instantaneous setting name"
+            />
+          </FormField>
+        </Row>
       ) : null}
     </View>
   );
@@ -680,24 +709,26 @@ function FuseFields({
   );
   return (
     <View style={{ gap: space.sm }}>
-      <FormField label="Fuse from the library" basis={240}>
-        <PickCell
-          value={placed.library?.deviceTypeId}
-          options={options}
-          onChange={(v) => {
-            const t = typesById.get(v);
-            if (t) patch((d) => fromLibrary(d, t));
-          }}
-          title="Fuse from the library"
-          placeholder={placed.library ? placed.library.name : 'Choose a fuse'}
-          formatUnknown={() => placed.library?.name ?? 'Unknown fuse'}
-          size="form"
-          invalid={false}
-          editable={editable}
-          testID="fuse-type"
-          accessibilityLabel="Fuse from the library"
-        />
-      </FormField>
+      <Row>
+        <FormField label="Fuse from the library" basis={240}>
+          <PickCell
+            value={placed.library?.deviceTypeId}
+            options={options}
+            onChange={(v) => {
+              const t = typesById.get(v);
+              if (t) patch((d) => fromLibrary(d, t));
+            }}
+            title="Fuse from the library"
+            placeholder={placed.library ? placed.library.name : 'Choose a fuse'}
+            formatUnknown={() => placed.library?.name ?? 'Unknown fuse'}
+            size="form"
+            invalid={false}
+            editable={editable}
+            testID="fuse-type"
+            accessibilityLabel="Fuse from the library"
+          />
+        </FormField>
+      </Row>
       <T variant="small">{`Rating ${num(f.ratingA)} A. A fuse has no settings: choose another fuse to change its band.`}</T>
     </View>
   );
@@ -722,10 +753,28 @@ function BandBeside({
     const r = deviceSchema.safeParse(debounced);
     return r.success ? r.data : null;
   }, [debounced]);
-  const curves = useBandCurves(valid);
+  const base = useBandCurves(valid);
   const busId = busOfDevice(placed, model);
   const result = useBusResult(studyId ?? '', busId ?? '', undefined, !!studyId && !!busId);
   const bus = result.data?.bus;
+  // The band drawn past the bus's bolted fault current, so it meets the lines (within the plot's decade limit).
+  const fromA = base.data?.fromA;
+  const wantToA =
+    bus && bus.status === 'ok' && fromA !== undefined
+      ? Math.min(bus.boltedFaultKa * 1000 * 2, fromA * 10 ** PLOT_LIMITS.maxDecades, PLOT_LIMITS.maxA)
+      : undefined;
+  const extend = !!valid && !!base.data && wantToA !== undefined && wantToA > base.data.toA;
+  const validJson = valid ? JSON.stringify(valid) : '';
+  const extended = useQuery({
+    queryKey: queryKeys.bandCurves(`${validJson}|${fromA}|${wantToA}`),
+    queryFn: () => {
+      if (!valid) throw new Error('No device to plot');
+      return callApi(contract.calc.bandCurves, { body: { device: valid, fromA, toA: wantToA } });
+    },
+    enabled: extend,
+    retry: false,
+  });
+  const curves = extend && extended.data ? extended : base;
   const verticals: TimeCurrentVertical[] = [];
   if (bus && bus.status === 'ok') {
     verticals.push({ currentA: bus.boltedFaultKa * 1000, label: 'Bolted fault', tone: 'neutral' });
@@ -752,7 +801,6 @@ function BandBeside({
           borderTopColor: colors.line,
           paddingTop: space.sm,
           gap: 2,
-          borderRadius: radius.sm,
         }}
       >
         <T variant="label">BAND</T>

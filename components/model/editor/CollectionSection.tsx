@@ -36,6 +36,8 @@ interface SectionProps {
   filter: string;
   setFilter: (s: string) => void;
   onAdd: (collection: CollectionKey, variant?: NewVariant) => void;
+  /** The heading above the toolbar even on a wide screen (a panel beside the section leaves it narrow). */
+  stackHeader?: boolean;
 }
 
 export function CollectionSection({
@@ -52,6 +54,7 @@ export function CollectionSection({
   filter,
   setFilter,
   onAdd,
+  stackHeader = false,
 }: SectionProps) {
   const items = itemsOf(model, collection) as readonly AnyElement[];
   const columns = COLUMNS[collection] as Column<AnyElement>[];
@@ -80,8 +83,14 @@ export function CollectionSection({
 
   return (
     <View style={{ gap: space.md }} testID={`model-section-body-${collection}`}>
-      <View style={{ flexDirection: wide ? 'row' : 'column', alignItems: wide ? 'center' : 'stretch', gap: space.md }}>
-        <View style={{ flex: wide ? 1 : undefined, gap: 2 }}>
+      <View
+        style={{
+          flexDirection: wide && !stackHeader ? 'row' : 'column',
+          alignItems: wide ? (stackHeader ? 'flex-start' : 'center') : 'stretch',
+          gap: space.md,
+        }}
+      >
+        <View style={{ flex: wide && !stackHeader ? 1 : undefined, gap: 2 }}>
           <T variant="heading">
             {labels.plural}{' '}
             <T style={{ fontFamily: fonts.numbers, fontSize: 18, color: colors.muted }}>{items.length}</T>

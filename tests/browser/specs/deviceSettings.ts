@@ -1,0 +1,199 @@
+/**
+ * The device settings editor of the model editor (issue 20): an engineer opens a placed relay's settings, changes its
+ * time dial, saves and runs; the bus's clearing trace then shows the slower relay. The times shown are checked
+ * against the engine run directly on the same saved model (`runStudy`, server/engine/study) and, for the direction,
+ * against IEEE C37.112's inverse-time equation t = TD · (A / (M^p − 1) + B): the relay's operating time is
+ * proportional to the time dial, so at the same current tripling the dial triples the relay's time (the breaker's
+ * fixed cycles come on top). The plant is the invented demo model, in a draft of a site of the spec's own.
+ */
+import { larkspurModel } from '../../../server/seed/larkspurModel';
+import { runStudy } from '../../../server/engine/study';
+import { formatReading as fmt } from '../../../shared/numberFormat';
+import { modelSchema, type ModelInput } from '../../../shared/schemas/model';
+import type { RelayDevice } from '../../../shared/schemas/device';
+import type { Page } from 'playwright-core';
+import type { Harness } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
+
+type Spec = { name: string; run: (h: Harness) => Promise<void> };
+
+function assert(cond: unknown, message: string): asserts cond {
+  if (!cond) throw new Error(message);
+}
+
+async function api<T = unknown>(
+  h: Harness,
+  path: string,
+  init: { method?: string; body?: unknown; token?: string } = {},
+): Promise<T> {
+  const res = await fetch(`${h.baseUrl}/api${path}`, {
+    method: init.method ?? 'GET',
+    headers: {
+      ...(init.token ? { Authorization: `Bearer ${init.token}` } : {}),
+      ...(init.body ? { 'Content-Type': 'application/json' } : {}),
+    },
+    body: init.body ? JSON.stringify(init.body) : undefined,
+  });
+  if (!res.ok) throw new Error(`${path}: ${res.status} ${await res.text()}`);
+  return (await res.json()) as T;
+}
+
+/** A draft study of a site of its own holding the demo plant (no demo study gets a revision another spec expects). */
+async function draftStudy(h: Harness): Promise<{ id: string; token: string }> {
+  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
+    method: 'POST',
+    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+  });
+  const site = await api<{ id: string }>(h, '/sites', {
+    method: 'POST',
+    token,
+    body: { name: 'Device settings test plant (invented)' },
+  });
+  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
+    method: 'POST',
+    token,
+    body: { title: 'Relay time dial' },
+  });
+  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
+  await api(h, `/studies/${study.id}/model`, {
+    method: 'PUT',
+    token,
+    body: { model: larkspurModel(), version: env.version },
+  });
+  return { id: study.id, token };
+}
+
+async function runAndWait(h: Harness, studyId: string, token: string): Promise<void> {
+  await api(h, `/studies/${studyId}/run`, { method: 'POST', token });
+  await pollUntil(
+    async () => {
+      const r = await api<{ status: string }>(h, `/studies/${studyId}/run`, { token });
+      if (r.status === 'failed') throw new Error('the run failed');
+      return r.status === 'done';
+    },
+    'the run to finish',
+    60_000,
+  );
+}
+
+/** What the trace's device table says of a device, as BusTraceScreen writes it from the engine's reading. */
+function readingText(d: { operatedAtS?: number | null; clearingTimeS: number | null }): string {
+  if (d.operatedAtS !== null && d.operatedAtS !== undefined) return `operates at ${fmt(d.operatedAtS)} s`;
+  if (d.clearingTimeS === null) return 'does not clear';
+  return `${fmt(d.clearingTimeS)} s at the first-cycle current`;
+}
+
+/** The engine's reading of R-TX2 for the full-arcing, line-side case at USS-2 on `model`, with the run's settings. */
+type RunOptions = { maxArcDurationMs: number; motorDecayModel?: 'step' | 'exponential' | 'higher' };
+function engineReading(model: ModelInput, settings: RunOptions) {
+  const r = runStudy(modelSchema.parse(model), {
+    maxArcDurationMs: settings.maxArcDurationMs,
+    ...(settings.motorDecayModel ? { motorDecayModel: settings.motorDecayModel } : {}),
+  });
+  const bus = r.buses.find((b) => b.busId === 'USS-2');
+  assert(bus, 'USS-2 in the engine results');
+  const c = bus.cases.find((x) => x.location === 'line-side' && x.arcCase === 'full');
+  assert(c, 'the full-arcing line-side case at USS-2');
+  const d = c.devices.find((x) => x.deviceId === 'R-TX2');
+  assert(d, 'R-TX2 in that case');
+  return d;
+}
+
+/** Opens USS-2's trace, chooses the full-arcing line-side case and returns the text of R-TX2's row. */
+async function traceRow(h: Harness, page: Page, studyId: string): Promise<string> {
+  await page.goto(`${h.baseUrl}/studies/${studyId}/bus/USS-2`);
+  await page.getByTestId('trace-sentence').waitFor();
+  await page.getByTestId('case').getByText('Full arcing current, line side of the main', { exact: false }).click();
+  const table = page.getByTestId('devices-line-side:full');
+  await table.waitFor();
+  const row = table.locator(':scope > div').filter({ hasText: 'R-TX2' });
+  await row.waitFor();
+  return row.innerText();
+}
+
+export const specs: Spec[] = [
+  {
+    name: 'device settings: editing a placed relay’s time dial in the editor changes the run’s clearing time as expected',
+    run: async (h) => {
+      const { id, token } = await draftStudy(h);
+      // The run's settings are the organization's (server/services/runs.ts): the same go to the engine here.
+      const { settings } = await api<{ settings: RunOptions }>(h, '/organization', { token });
+      const original = (await api<{ model: ModelInput }>(h, `/studies/${id}/model`, { token })).model;
+      const before = engineReading(original, settings);
+      await runAndWait(h, id, token);
+
+      const page = await h.newPage(DESKTOP);
+      await h.signIn(page, 'engineer@larkspur.example');
+      await page.getByTestId('home-engineer').waitFor();
+      const rowBefore = await traceRow(h, page, id);
+      assert(
+        rowBefore.includes(readingText(before)),
+        `before: ${JSON.stringify(rowBefore)} has ${readingText(before)}`,
+      );
+
+      // The editor: Devices, R-TX2's settings beside the table, the time dial from 2 to 6.
+      await page.goto(`${h.baseUrl}/studies/${id}?tab=model`);
+      const state = page.getByTestId('model-state');
+      await state.getByText('Saved · model version').waitFor();
+      await page.getByTestId('model-section-devices').click();
+      const index = (original.devices ?? []).findIndex((d) => d.id === 'R-TX2');
+      await page.getByTestId(`devices-${index}-type-settings`).click();
+      const panel = page.getByTestId('device-settings');
+      await panel.getByText('Settings of R-TX2').waitFor();
+      const dial = page.getByTestId('relay-time-dial');
+      assert((await dial.inputValue()) === '2', `the time dial shown is 2 (${await dial.inputValue()})`);
+      // The last run's currents at the relay's bus (TX-2's primary side) are drawn beside the band.
+      await page.getByTestId('device-settings-band-note').getByText('from the last run').waitFor();
+      await dial.fill('6');
+      await state.getByText('Unsaved changes').waitFor();
+      await page.getByTestId('device-settings-provenance').getByText('set in the model').waitFor();
+      await page.getByTestId('device-settings-plot').waitFor();
+      await page.waitForTimeout(600);
+      await h.shot(page, 'device-settings-desktop');
+      await page.getByTestId('device-settings-band').scrollIntoViewIfNeeded();
+      await h.shot(page, 'device-settings-band-desktop');
+
+      // On a phone the editor is a full-width section above the cards.
+      await page.setViewportSize(PHONE);
+      await panel.waitFor();
+      await panel.scrollIntoViewIfNeeded();
+      await page.waitForTimeout(400);
+      await h.shot(page, 'device-settings-phone');
+      await page.getByTestId('device-settings-band').scrollIntoViewIfNeeded();
+      await page.waitForTimeout(300);
+      await h.shot(page, 'device-settings-band-phone');
+      await page.setViewportSize(DESKTOP);
+
+      await page.getByTestId('save-model').click();
+      await state.getByText('Saved · model version').waitFor();
+      const saved = (await api<{ model: ModelInput }>(h, `/studies/${id}/model`, { token })).model;
+      const relay = saved.devices?.find((d) => d.id === 'R-TX2')?.device as RelayDevice | undefined;
+      assert(relay && relay.timeDial === 6, `saved time dial 6 (${relay?.timeDial})`);
+      const originalRelay = original.devices?.find((d) => d.id === 'R-TX2')?.device as RelayDevice;
+      assert(JSON.stringify({ ...relay, timeDial: 2 }) === JSON.stringify(originalRelay), 'only the time dial changed');
+
+      await page.goto(`${h.baseUrl}/studies/${id}?tab=overview`);
+      await page.getByTestId('run-study').click();
+      await page.getByTestId('run-status').getByText('Finished').waitFor({ timeout: 60_000 });
+
+      const after = engineReading(saved, settings);
+      const rowAfter = await traceRow(h, page, id);
+      assert(rowAfter.includes(readingText(after)), `after: ${JSON.stringify(rowAfter)} has ${readingText(after)}`);
+
+      // Direction and size: R-TX2's band time at the same first-cycle current rose, and its relay part (the time
+      // less the breaker's 5 cycles at 60 Hz) tripled with the dial (IEEE C37.112: t ∝ TD).
+      assert(before.clearingTimeS !== null && after.clearingTimeS !== null, 'R-TX2 clears on its band in both runs');
+      assert(
+        after.clearingTimeS > before.clearingTimeS,
+        `the clearing time rose (${before.clearingTimeS} → ${after.clearingTimeS})`,
+      );
+      const breakerS = 5 / 60;
+      const ratio = (after.clearingTimeS - breakerS) / (before.clearingTimeS - breakerS);
+      assert(Math.abs(ratio - 3) <= 3e-3, `relay time × ${ratio}, expected × 3 (time dial 2 → 6)`);
+      assert(Math.abs(after.currentA / before.currentA - 1) < 1e-9, 'the same current through R-TX2 in both runs');
+      await page.waitForTimeout(600);
+      await h.shot(page, 'device-settings-trace-after');
+      await page.close();
+    },
+  },
+];
