@@ -11,6 +11,7 @@ import { runStudy } from '../../../server/engine/study';
 import { formatReading as fmt } from '../../../shared/numberFormat';
 import { modelSchema, type ModelInput } from '../../../shared/schemas/model';
 import type { RelayDevice } from '../../../shared/schemas/device';
+import type { DeviceType } from '../../../shared/schemas/deviceLibrary';
 import type { Page } from 'playwright-core';
 import type { Harness } from '../harness';
 import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
@@ -193,6 +194,82 @@ export const specs: Spec[] = [
       assert(Math.abs(after.currentA / before.currentA - 1) < 1e-9, 'the same current through R-TX2 in both runs');
       await page.waitForTimeout(600);
       await h.shot(page, 'device-settings-trace-after');
+      await page.close();
+    },
+  },
+  {
+    name: 'device settings: a library trip unit set by its switch positions keeps its library type; warnings in a caution group',
+    run: async (h) => {
+      const { id, token } = await draftStudy(h);
+      const { deviceTypes } = await api<{ deviceTypes: DeviceType[] }>(h, '/device-types', { token });
+      const etu = deviceTypes.find((t) => t.definition.kind === 'electronic' && t.name.includes('800'));
+      const type = etu ?? deviceTypes.find((t) => t.definition.kind === 'electronic');
+      assert(type && type.definition.kind === 'electronic', 'an electronic trip-unit type in the starter library');
+      const env = await api<{ version: number; model: ModelInput }>(h, `/studies/${id}/model`, { token });
+      const model: ModelInput = {
+        ...env.model,
+        // 20 % impedance: outside the usual 2–15 % (shared/modelPlausibility.ts, common practice, no source).
+        transformers: env.model.transformers?.map((t, i) => (i === 0 ? { ...t, impedancePct: 20 } : t)),
+        devices: [
+          ...(env.model.devices ?? []),
+          {
+            id: 'CB-ETU',
+            name: 'Trip unit from the library',
+            branch: 'F-MCC1',
+            end: 'to',
+            device: type.device,
+            library: { deviceTypeId: type.id, name: type.name, positions: type.definition.positions },
+          },
+        ],
+      };
+      await api(h, `/studies/${id}/model`, { method: 'PUT', token, body: { model, version: env.version } });
+
+      const page = await h.newPage(DESKTOP);
+      await h.signIn(page, 'engineer@larkspur.example');
+      await page.getByTestId('home-engineer').waitFor();
+      await page.goto(`${h.baseUrl}/studies/${id}?tab=model`);
+      const state = page.getByTestId('model-state');
+      await state.getByText('worth checking').waitFor();
+      // The plausibility warning: in its own caution group at the top and on the transformer's row, not a problem.
+      await page.getByTestId('model-warnings').getByText('Transformers · TX-1').waitFor();
+      assert((await page.getByTestId('model-issues-none').count()) === 1, 'a warning is not a problem');
+      await page.getByTestId('model-section-transformers').click();
+      await page.getByTestId('transformers-0-warnings').waitFor();
+      await h.shot(page, 'model-warnings-desktop');
+
+      await page.getByTestId('model-section-devices').click();
+      const index = (model.devices ?? []).length - 1;
+      await page.getByTestId(`devices-${index}-type-settings`).click();
+      await page.getByTestId('device-settings').getByText('Settings of CB-ETU').waitFor();
+      await page.getByTestId('device-settings-provenance').getByText(`from the library: ${type.name}`).waitFor();
+      const positions = type.definition.positions;
+      const other = positions.longTimePickup === '0.8' ? '0.9' : '0.8';
+      await page.getByTestId('trip-switch-longTimePickup').click();
+      await page.getByTestId(new RegExp(`^trip-switch-longTimePickup.*-opt-${other.replace('.', '\\.')}$`)).click();
+      await state.getByText('Unsaved changes').waitFor();
+      await page.getByTestId('device-settings-provenance').getByText(`from the library: ${type.name}`).waitFor();
+      await page.getByTestId('device-settings-plot').waitFor();
+      await page.waitForTimeout(800);
+      await h.shot(page, 'device-settings-trip-unit-desktop');
+      await page.setViewportSize(PHONE);
+      await page.getByTestId('device-settings').scrollIntoViewIfNeeded();
+      await page.waitForTimeout(400);
+      await h.shot(page, 'device-settings-trip-unit-phone');
+      await page.setViewportSize(DESKTOP);
+
+      await page.getByTestId('save-model').click();
+      await state.getByText('Saved · model version').waitFor();
+      const saved = (await api<{ model: ModelInput }>(h, `/studies/${id}/model`, { token })).model;
+      const placed = saved.devices?.find((d) => d.id === 'CB-ETU');
+      assert(placed?.library?.deviceTypeId === type.id, 'the library type is kept');
+      assert(
+        JSON.stringify(placed.library.positions) === JSON.stringify({ ...positions, longTimePickup: other }),
+        `only the long-time pickup position changed (${JSON.stringify(placed.library.positions)})`,
+      );
+      // The device is resolved from the positions as the library does: Ir = the position's value × In.
+      const value = type.definition.tripType.settings.longTimePickup.positions[other];
+      const device = placed.device as { kind: string; longTime: { pickup: number } };
+      assert(device.longTime.pickup === value, `long-time pickup ${device.longTime.pickup} = position value ${value}`);
       await page.close();
     },
   },
