@@ -19,7 +19,7 @@ export const SECTION_NOTES: Record<Section, string> = {
   scenarios:
     'The operating states the plant runs in. The model as written is the base, always run; a scenario changes only what it names. Each bus’s label takes the scenario with the highest incident energy.',
   devices:
-    'Each protective device sits at one end of a transformer, cable or tie, or on a source or motor. Its settings come from the device library.',
+    'Each protective device sits at one end of a transformer, cable or tie, or on a source or motor. Take its settings from the device library, then adjust them under “Edit settings”.',
 };
 
 export interface Focus {

@@ -270,6 +270,30 @@ export const specs: Spec[] = [
       const value = type.definition.tripType.settings.longTimePickup.positions[other];
       const device = placed.device as { kind: string; longTime: { pickup: number } };
       assert(device.longTime.pickup === value, `long-time pickup ${device.longTime.pickup} = position value ${value}`);
+
+      // A thermal-magnetic feeder breaker: its instantaneous pickup 10 × ± 20 % given as the range it spans, 8–12 ×
+      // (the model format's tolerance is ± percent of the pickup); the thermal band stays as it is.
+      await page.getByTestId('device-settings-close').click();
+      const tmIndex = (saved.devices ?? []).findIndex((d) => d.id === 'CB-MCC1');
+      await page.getByTestId(`devices-${tmIndex}-type-settings`).click();
+      await page.getByTestId('device-settings').getByText('Settings of CB-MCC1').waitFor();
+      await page.getByTestId('tm-inst-mode-range').click();
+      const low = Number(await page.getByTestId('tm-inst-low').inputValue());
+      const high = Number(await page.getByTestId('tm-inst-high').inputValue());
+      assert(Math.abs(low - 8) < 1e-9 && Math.abs(high - 12) < 1e-9, `range ${low}–${high} ×, expected 8–12 ×`);
+      await page.getByTestId('device-settings-plot').waitFor();
+      await page.waitForTimeout(800);
+      await h.shot(page, 'device-settings-breaker-desktop');
+      const fuseIndex = (saved.devices ?? []).findIndex((d) => d.device.kind === 'fuse');
+      await page.getByTestId(`devices-${fuseIndex}-type-settings`).click();
+      await page.getByTestId('fuse-type').waitFor();
+      await page.setViewportSize(PHONE);
+      // The table gives way to the cards: the panel is drawn again above them.
+      await page.waitForTimeout(500);
+      await page.getByTestId('fuse-type').waitFor();
+      await page.getByTestId('device-settings').scrollIntoViewIfNeeded();
+      await page.waitForTimeout(600);
+      await h.shot(page, 'device-settings-fuse-phone');
       await page.close();
     },
   },
