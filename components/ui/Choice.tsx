@@ -18,7 +18,7 @@ export function Choice<V extends string>({
   testID?: string;
 }) {
   return (
-    <View style={{ gap: space.xs }} testID={testID}>
+    <View style={{ gap: space.xs, maxWidth: '100%', flexShrink: 1 }} testID={testID}>
       {label ? <T variant="label">{label}</T> : null}
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm }} accessibilityRole="radiogroup">
         {options.map((o) => {
@@ -32,7 +32,11 @@ export function Choice<V extends string>({
               testID={testID ? `${testID}-${o.value}` : undefined}
               style={{
                 minHeight: touch.min,
+                // A long option wraps inside its button instead of running past the screen's edge (390 px phones).
+                maxWidth: '100%',
+                flexShrink: 1,
                 paddingHorizontal: space.md,
+                paddingVertical: space.xs,
                 justifyContent: 'center',
                 borderRadius: radius.sm,
                 borderWidth: 1.5,

@@ -1,6 +1,6 @@
 /** One collection: toolbar, then table rows (wide) or cards (phone). */
 import { useMemo } from 'react';
-import { Pressable, ScrollView, TextInput, View } from 'react-native';
+import { Pressable, TextInput, View } from 'react-native';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { colors, fonts, radius, space, touch } from '../../theme';
 import { Card, T } from '../../ui';
@@ -18,6 +18,7 @@ import {
   type CollectionKey,
 } from '../summaries';
 import { CardRow } from './CardsView';
+import { SideScroll } from './SideScroll';
 import { TableHeader, TableRow } from './TableView';
 import { type Focus, NO_ISSUES, type RowActions, SECTION_NOTES } from './types';
 
@@ -115,7 +116,7 @@ export function CollectionSection({
         <T variant="small">{`No ${labels.plural.toLowerCase()} match “${filter}”.`}</T>
       ) : wide ? (
         <Card style={{ padding: 0, gap: 0, overflow: 'hidden' }}>
-          <ScrollView horizontal contentContainerStyle={{ flexGrow: 1 }}>
+          <SideScroll testID={`table-${collection}`}>
             <View style={{ minWidth: '100%' }}>
               <TableHeader columns={columns} />
               {indexes.map((i) => {
@@ -136,7 +137,7 @@ export function CollectionSection({
                 );
               })}
             </View>
-          </ScrollView>
+          </SideScroll>
         </Card>
       ) : (
         <View style={{ gap: space.sm }}>
