@@ -105,7 +105,12 @@ export const CAPABILITY_ROUTES: Partial<Record<Capability, readonly string[]>> =
     'POST /device-types/parse-band-csv',
   ],
   startStudy: ['POST /sites/:siteId/studies'],
-  readModel: ['GET /studies/:studyId/model', 'GET /studies/:studyId/export', 'GET /studies/:studyId/one-line.svg'],
+  readModel: [
+    'GET /studies/:studyId/model',
+    'GET /studies/:studyId/export',
+    'GET /studies/:studyId/one-line.svg',
+    'GET /studies/:studyId/one-line',
+  ],
   editModel: ['PUT /studies/:studyId/model', 'POST /studies/:studyId/import'],
   runStudy: ['POST /studies/:studyId/run'],
   approveStudy: [

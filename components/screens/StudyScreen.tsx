@@ -3,6 +3,7 @@ import React from 'react';
 import { View } from 'react-native';
 import { useConfirmLeavingStudy } from '../../hooks/modelDrafts';
 import { useStudy } from '../../hooks/studies';
+import { OneLinePanel } from '../oneLine/OneLinePanel';
 import { ModelPanel } from '../studies/ModelPanel';
 import { OverviewPanel } from '../studies/OverviewPanel';
 import { ResultsPanel } from '../studies/ResultsPanel';
@@ -10,10 +11,11 @@ import { StatusBadges } from '../studies/StatusBadge';
 import { space } from '../theme';
 import { Choice, Notice, Screen, T } from '../ui';
 
-type Tab = 'overview' | 'model' | 'results';
+type Tab = 'overview' | 'model' | 'one-line' | 'results';
 const TABS: { value: Tab; label: string }[] = [
   { value: 'overview', label: 'Overview and review' },
   { value: 'model', label: 'Model' },
+  { value: 'one-line', label: 'One-line' },
   { value: 'results', label: 'Results' },
 ];
 
@@ -45,6 +47,7 @@ export function StudyScreen({ studyId }: { studyId: string }) {
       </View>
       {tab === 'overview' ? <OverviewPanel study={s} /> : null}
       {tab === 'model' ? <ModelPanel study={s} /> : null}
+      {tab === 'one-line' ? <OneLinePanel study={s} /> : null}
       {tab === 'results' ? <ResultsPanel study={s} /> : null}
     </Screen>
   );

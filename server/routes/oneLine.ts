@@ -1,6 +1,6 @@
 import { contract } from '../../shared/api';
 import { bind } from '../http/route';
-import { studyOneLineSvg } from '../services/oneLine';
+import { studyOneLine, studyOneLineSvg } from '../services/oneLine';
 
 /** The one-line diagram of a study revision as SVG (shared/api/oneLine.ts). */
 export const oneLineRoutes = [
@@ -10,6 +10,12 @@ export const oneLineRoutes = [
       res.setHeader('Content-Type', 'image/svg+xml; charset=utf-8');
       res.setHeader('Cache-Control', 'private, no-cache');
       res.send(svg);
+    },
+  }),
+  bind(contract.oneLine.drawing, {
+    handler: async ({ user, params, query }) => {
+      const { drawing, title } = await studyOneLine(user, params.studyId, query.scenario);
+      return { title, ...drawing };
     },
   }),
 ];

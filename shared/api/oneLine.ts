@@ -10,6 +10,56 @@ export const oneLineQuerySchema = z.object({
     .describe('Operating scenario whose out-of-service elements are drawn dashed (default: the model as written)'),
 });
 
+const tone = z.enum(['ink', 'muted', 'accent', 'danger', 'caution', 'problem', 'surface']);
+const box = z.object({ x: z.number(), y: z.number(), w: z.number(), h: z.number() });
+const shape = z.discriminatedUnion('t', [
+  z.object({ t: z.literal('line'), pts: z.array(z.number()), tone, width: z.number(), dashed: z.boolean().optional() }),
+  box.extend({ t: z.literal('rect'), tone, fill: tone.optional(), dashed: z.boolean().optional() }),
+  z.object({
+    t: z.literal('circle'),
+    cx: z.number(),
+    cy: z.number(),
+    r: z.number(),
+    tone,
+    fill: tone.optional(),
+    dashed: z.boolean().optional(),
+  }),
+  z.object({
+    t: z.literal('text'),
+    x: z.number(),
+    y: z.number(),
+    text: z.string(),
+    size: z.number(),
+    anchor: z.enum(['start', 'middle', 'end']),
+    tone,
+    bold: z.boolean().optional(),
+  }),
+]);
+
+/** The drawing as geometry (shared/oneLine/geometry.ts): what the app renders, the same as the SVG. */
+export const oneLineDrawingSchema = z
+  .object({
+    title: z.string(),
+    width: z.number(),
+    height: z.number(),
+    elements: z.array(
+      z.object({
+        id: z.string(),
+        kind: z.enum(['bus', 'utility', 'generator', 'motor', 'transformer', 'cable', 'tie', 'device']),
+        box,
+        busId: z.string().optional(),
+        dashed: z.boolean().optional(),
+        problem: z.boolean().optional(),
+        shapes: z.array(shape),
+      }),
+    ),
+    connections: z.array(
+      z.object({ a: z.string(), b: z.string(), pts: z.array(z.number()), dashed: z.boolean().optional() }),
+    ),
+    notes: z.array(z.string()),
+  })
+  .meta({ id: 'OneLineDrawing' });
+
 /** The one-line diagram of a study revision, drawn from its model (shared/oneLine). */
 export const oneLineApi = {
   svg: endpoint({
@@ -21,5 +71,15 @@ export const oneLineApi = {
     access: ['engineer', 'safety', 'admin'],
     query: oneLineQuerySchema,
     produces: 'image/svg+xml',
+  }),
+  drawing: endpoint({
+    method: 'get',
+    path: '/studies/:studyId/one-line',
+    summary:
+      'The same one-line diagram as geometry (boxes, lines, circles, texts with coordinates), for the app to draw.',
+    tag: 'studies',
+    access: ['engineer', 'safety', 'admin'],
+    query: oneLineQuerySchema,
+    response: oneLineDrawingSchema,
   }),
 };

@@ -85,6 +85,28 @@ describe('GET /studies/:studyId/one-line.svg', () => {
     expect((await request(t.app).get(`/api/studies/${studyId}/one-line.svg`)).status).toBe(401);
   });
 
+  test('GET /studies/:studyId/one-line: the same drawing as geometry, every element once, for the app', async () => {
+    const res = await request(t.app)
+      .get(`/api/studies/${studyId}/one-line`)
+      .set(...bearer(t.orgA.users.engineer.token));
+    expect(res.status).toBe(200);
+    const ids = (res.body.elements as { id: string }[]).map((e) => e.id).sort();
+    const p = parseModel(larkspurModel());
+    if (!p.success) throw new Error('demo model');
+    const m = p.model;
+    const expected = [...m.buses, ...m.sources, ...m.transformers, ...m.cables, ...m.ties, ...m.motors, ...m.devices]
+      .map((x) => x.id)
+      .sort();
+    expect(ids).toEqual(expected);
+    expect(
+      (
+        await request(t.app)
+          .get(`/api/studies/${studyId}/one-line`)
+          .set(...bearer(t.orgB.users.engineer.token))
+      ).status,
+    ).toBe(404);
+  });
+
   test('an unknown scenario is a 400 naming the field', async () => {
     const res = await request(t.app)
       .get(`/api/studies/${studyId}/one-line.svg?scenario=nope`)

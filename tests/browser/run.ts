@@ -14,6 +14,7 @@ import { specs as labelSpecs } from './specs/labels';
 import { specs as attentionSpecs } from './specs/attention.spec';
 import { specs as reminderApprovalSpecs } from './specs/reminderApproval';
 import { specs as a11ySpecs } from './specs/a11y';
+import { specs as oneLineSpecs } from './specs/oneLine';
 import { closeAxe } from './axe';
 
 export type Spec = { name: string; run: (h: Harness) => Promise<void> };
@@ -31,6 +32,7 @@ async function main(): Promise<void> {
     ...attentionSpecs,
     ...reminderApprovalSpecs,
     ...a11ySpecs,
+    ...oneLineSpecs,
   ];
   const only = process.argv[2];
   const selected = only ? all.filter((s) => s.name.includes(only)) : all;

@@ -1,0 +1,369 @@
+import { useQuery } from '@tanstack/react-query';
+import { useRouter } from 'expo-router';
+import React, { useEffect, useMemo, useRef, useState } from 'react';
+import { PanResponder, Platform, View, type GestureResponderEvent, type LayoutChangeEvent } from 'react-native';
+import Svg, { Circle, G, Polyline, Rect, Text as SvgText } from 'react-native-svg';
+import { contract } from '../../shared/api';
+import type { Box, DrawnElement, OneLineDrawing, Shape, Tone } from '../../shared/oneLine/geometry';
+import { textWidth } from '../../shared/oneLine/geometry';
+import type { StudyDto } from '../../shared/schemas/studies';
+import { callApi } from '../../hooks/api';
+import { queryKeys } from '../../hooks/queryKeys';
+import { colors, space } from '../theme';
+import { Button, Field, Notice, T } from '../ui';
+
+const PALETTE: Record<Tone, string> = {
+  ink: colors.ink,
+  muted: colors.muted,
+  accent: colors.accent,
+  danger: colors.danger,
+  caution: colors.caution,
+  problem: colors.danger,
+  surface: colors.surface,
+};
+
+const MIN_SCALE = 0.03;
+const MAX_SCALE = 4;
+
+interface View2D {
+  s: number;
+  tx: number;
+  ty: number;
+}
+
+/** Where a tap finds an element: its symbol, and for a bus its label too (a larger target). */
+function hitBox(e: DrawnElement): Box {
+  let x0 = e.box.x;
+  let y0 = e.box.y;
+  let x1 = e.box.x + e.box.w;
+  let y1 = e.box.y + e.box.h;
+  for (const s of e.shapes) {
+    if (s.t !== 'text') continue;
+    x0 = Math.min(x0, s.x);
+    x1 = Math.max(x1, s.x + textWidth(s.text, s.size));
+    y0 = Math.min(y0, s.y - s.size);
+    y1 = Math.max(y1, s.y + 3);
+  }
+  return { x: x0 - 4, y: y0 - 4, w: x1 - x0 + 8, h: y1 - y0 + 8 };
+}
+
+function ShapeView({ s }: { s: Shape }) {
+  const dash = 'dashed' in s && s.dashed ? '5 4' : undefined;
+  switch (s.t) {
+    case 'line': {
+      const pts: string[] = [];
+      for (let i = 0; i < s.pts.length; i += 2) pts.push(`${s.pts[i]},${s.pts[i + 1]}`);
+      return (
+        <Polyline
+          points={pts.join(' ')}
+          fill="none"
+          stroke={PALETTE[s.tone]}
+          strokeWidth={s.width}
+          strokeDasharray={dash}
+        />
+      );
+    }
+    case 'rect':
+      return (
+        <Rect
+          x={s.x}
+          y={s.y}
+          width={s.w}
+          height={s.h}
+          fill={s.fill ? PALETTE[s.fill] : 'none'}
+          stroke={PALETTE[s.tone]}
+          strokeWidth={1.5}
+          strokeDasharray={dash}
+        />
+      );
+    case 'circle':
+      return (
+        <Circle
+          cx={s.cx}
+          cy={s.cy}
+          r={s.r}
+          fill={s.fill ? PALETTE[s.fill] : 'none'}
+          stroke={PALETTE[s.tone]}
+          strokeWidth={1.5}
+          strokeDasharray={dash}
+        />
+      );
+    case 'text':
+      return (
+        <SvgText
+          x={s.x}
+          y={s.y}
+          fontSize={s.size}
+          textAnchor={s.anchor}
+          fill={PALETTE[s.tone]}
+          fontWeight={s.bold ? '600' : '400'}
+          fontFamily="Inter, Arial, sans-serif"
+        >
+          {s.text}
+        </SvgText>
+      );
+  }
+}
+
+const touchDistance = (e: GestureResponderEvent) => {
+  const [a, b] = e.nativeEvent.touches;
+  return a && b ? Math.hypot(a.pageX - b.pageX, a.pageY - b.pageY) : 0;
+};
+
+/**
+ * The study's one-line diagram (shared/oneLine, the same geometry as the SVG route): pan by dragging, zoom by pinching
+ * (phone), the buttons or the mouse wheel (web); tap a bus for its clearing trace, a device or branch for the trace
+ * of the bus it protects; find an element by id.
+ */
+export function OneLinePanel({ study }: { study: StudyDto }) {
+  const router = useRouter();
+  const drawing = useQuery({
+    queryKey: [...queryKeys.studies.detail(study.id), 'one-line'],
+    queryFn: () => callApi(contract.oneLine.drawing, { params: { studyId: study.id }, query: {} }),
+  });
+  const [size, setSize] = useState({ w: 0, h: 0 });
+  const [view, setView] = useState<View2D | null>(null);
+  const [search, setSearch] = useState('');
+  const [found, setFound] = useState<{ id: string; message?: string } | null>(null);
+  const d = drawing.data as (OneLineDrawing & { title: string }) | undefined;
+  const hits = useMemo(() => (d ? d.elements.map((e) => ({ e, b: hitBox(e) })) : []), [d]);
+
+  // First view: the top of the drawing (the sources), fitted to the width but not smaller than readable.
+  const initial: View2D | null =
+    d && size.w
+      ? (() => {
+          const s = Math.min(1, Math.max(0.45, (size.w - 16) / d.width));
+          return { s, tx: Math.max(8, (size.w - d.width * s) / 2), ty: 8 };
+        })()
+      : null;
+  const current = view ?? initial;
+  const viewRef = useRef<View2D | null>(null);
+  const zoomAt = (factor: number, px: number, py: number) =>
+    setView((prev) => {
+      const v = prev ?? viewRef.current;
+      if (!v) return prev;
+      const s = Math.min(MAX_SCALE, Math.max(MIN_SCALE, v.s * factor));
+      return { s, tx: px - ((px - v.tx) * s) / v.s, ty: py - ((py - v.ty) * s) / v.s };
+    });
+
+  const open = (e: DrawnElement) => {
+    const bus = e.kind === 'bus' ? e.id : e.busId;
+    if (bus) router.push(`/studies/${study.id}/bus/${encodeURIComponent(bus)}`);
+  };
+  const tapAt = (x: number, y: number) => {
+    const v = viewRef.current;
+    if (!v) return;
+    const dx = (x - v.tx) / v.s;
+    const dy = (y - v.ty) / v.s;
+    // Symbols first (devices sit near bus labels), then buses.
+    const inside = hits.filter(({ b }) => dx >= b.x && dx <= b.x + b.w && dy >= b.y && dy <= b.y + b.h);
+    const pick = inside.find((h) => h.e.kind !== 'bus') ?? inside[0];
+    if (pick) open(pick.e);
+  };
+  const tapRef = useRef(tapAt);
+  useEffect(() => {
+    viewRef.current = current;
+    tapRef.current = tapAt;
+  });
+
+  // The handlers read the refs when a gesture happens, never during render.
+  // eslint-disable-next-line react-hooks/refs
+  const [responder] = useState(() => {
+    const gesture: { current: { x: number; y: number; dist: number; moved: boolean; start: View2D | null } } = {
+      current: { x: 0, y: 0, dist: 0, moved: false, start: null },
+    };
+    return PanResponder.create({
+      onStartShouldSetPanResponder: () => true,
+      onMoveShouldSetPanResponder: () => true,
+      onPanResponderGrant: (e) => {
+        gesture.current = {
+          x: e.nativeEvent.locationX,
+          y: e.nativeEvent.locationY,
+          dist: touchDistance(e),
+          moved: false,
+          start: viewRef.current,
+        };
+      },
+      onPanResponderMove: (e, g) => {
+        const st = gesture.current;
+        if (!st.start) return;
+        if (Math.abs(g.dx) + Math.abs(g.dy) > 6) st.moved = true;
+        const dist = touchDistance(e);
+        if (dist && st.dist) {
+          st.moved = true;
+          const s = Math.min(MAX_SCALE, Math.max(MIN_SCALE, (st.start.s * dist) / st.dist));
+          const px = st.x;
+          const py = st.y;
+          setView({
+            s,
+            tx: px - ((px - st.start.tx) * s) / st.start.s,
+            ty: py - ((py - st.start.ty) * s) / st.start.s,
+          });
+        } else if (dist) {
+          st.dist = dist;
+        } else {
+          setView({ ...st.start, tx: st.start.tx + g.dx, ty: st.start.ty + g.dy });
+        }
+      },
+      onPanResponderRelease: () => {
+        const st = gesture.current;
+        if (!st.moved) tapRef.current(st.x, st.y);
+      },
+    });
+  });
+
+  // The mouse wheel zooms about the pointer (web).
+  const canvas = useRef<View>(null);
+  useEffect(() => {
+    if (Platform.OS !== 'web') return;
+    const node = canvas.current as unknown as HTMLElement | null;
+    if (!node?.addEventListener) return;
+    const onWheel = (ev: WheelEvent) => {
+      ev.preventDefault();
+      const r = node.getBoundingClientRect();
+      zoomAt(ev.deltaY < 0 ? 1.15 : 1 / 1.15, ev.clientX - r.left, ev.clientY - r.top);
+    };
+    node.addEventListener('wheel', onWheel, { passive: false });
+    return () => node.removeEventListener('wheel', onWheel);
+  }, [d]);
+
+  const find = () => {
+    const view = current;
+    if (!d || !view) return;
+    const q = search.trim().toLowerCase();
+    if (!q) return;
+    const e =
+      d.elements.find((x) => x.id.toLowerCase() === q) ?? d.elements.find((x) => x.id.toLowerCase().includes(q));
+    if (!e) {
+      setFound({ id: '', message: `No element "${search.trim()}" in this model` });
+      return;
+    }
+    const s = Math.max(view.s, 0.8);
+    setView({ s, tx: size.w / 2 - (e.box.x + e.box.w / 2) * s, ty: size.h / 2 - (e.box.y + e.box.h / 2) * s });
+    setFound({ id: e.id });
+  };
+
+  if (drawing.error) return <Notice tone="error">{drawing.error.message}</Notice>;
+  if (!d) return <T variant="small">Drawing the one-line diagram…</T>;
+
+  const onLayout = (ev: LayoutChangeEvent) =>
+    setSize({ w: ev.nativeEvent.layout.width, h: ev.nativeEvent.layout.height });
+  // Only what is in view is drawn (large plants).
+  const v = current ?? { s: 1, tx: 0, ty: 0 };
+  const vx0 = -v.tx / v.s - 40;
+  const vy0 = -v.ty / v.s - 80;
+  const vx1 = (size.w - v.tx) / v.s + 40;
+  const vy1 = (size.h - v.ty) / v.s + 80;
+  const visible = (b: Box) => b.x + b.w + 300 >= vx0 && b.x - 20 <= vx1 && b.y + b.h >= vy0 && b.y <= vy1;
+  const inView = (pts: number[]) => {
+    let x0 = Infinity;
+    let x1 = -Infinity;
+    let y0 = Infinity;
+    let y1 = -Infinity;
+    for (let i = 0; i < pts.length; i += 2) {
+      x0 = Math.min(x0, pts[i]);
+      x1 = Math.max(x1, pts[i]);
+      y0 = Math.min(y0, pts[i + 1]);
+      y1 = Math.max(y1, pts[i + 1]);
+    }
+    return x1 >= vx0 && x0 <= vx1 && y1 >= vy0 && y0 <= vy1;
+  };
+  const target = found?.id ? d.elements.find((e) => e.id === found.id) : undefined;
+
+  return (
+    <View style={{ gap: space.sm }}>
+      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'flex-end' }}>
+        <Field
+          label="Find an element by id"
+          value={search}
+          onChangeText={setSearch}
+          onSubmitEditing={find}
+          autoCapitalize="characters"
+          containerStyle={{ flexGrow: 1, minWidth: 180 }}
+          testID="one-line-search"
+        />
+        <Button title="Find" kind="secondary" onPress={find} testID="one-line-find" />
+        <Button
+          title="+"
+          kind="secondary"
+          accessibilityLabel="Zoom in"
+          onPress={() => zoomAt(1.3, size.w / 2, size.h / 2)}
+        />
+        <Button
+          title="−"
+          kind="secondary"
+          accessibilityLabel="Zoom out"
+          onPress={() => zoomAt(1 / 1.3, size.w / 2, size.h / 2)}
+        />
+        <Button
+          title="Fit"
+          kind="secondary"
+          accessibilityLabel="Fit the whole diagram"
+          onPress={() => {
+            const s = Math.max(MIN_SCALE, Math.min(1, (size.w - 16) / d.width, (size.h - 16) / d.height));
+            setView({ s, tx: 8, ty: 8 });
+          }}
+        />
+      </View>
+      {found?.message ? <Notice tone="warning">{found.message}</Notice> : null}
+      <T variant="small">
+        Tap a bus for its clearing trace; a device or branch opens the trace of the bus it protects. Drag to move;
+        pinch, the mouse wheel or the buttons to zoom.
+      </T>
+      <View
+        ref={canvas}
+        onLayout={onLayout}
+        testID="one-line-canvas"
+        style={
+          {
+            height: 560,
+            borderWidth: 1,
+            borderColor: colors.line,
+            borderRadius: 8,
+            overflow: 'hidden',
+            backgroundColor: colors.surface,
+            cursor: 'grab',
+          } as object
+        }
+        {...responder.panHandlers}
+      >
+        {size.w > 0 ? (
+          <Svg width={size.w} height={size.h} accessibilityLabel={d.title}>
+            <G transform={`translate(${v.tx}, ${v.ty}) scale(${v.s})`}>
+              {d.connections.map((c, i) =>
+                inView(c.pts) ? (
+                  <ShapeView key={`c${i}`} s={{ t: 'line', pts: c.pts, tone: 'ink', width: 1.5, dashed: c.dashed }} />
+                ) : null,
+              )}
+              {d.elements.map((e) =>
+                visible(e.box) ? (
+                  <G key={e.id}>
+                    {e.shapes.map((s, i) => (
+                      <ShapeView key={i} s={s} />
+                    ))}
+                  </G>
+                ) : null,
+              )}
+              {target ? (
+                <Rect
+                  x={target.box.x - 6}
+                  y={target.box.y - 6}
+                  width={target.box.w + 12}
+                  height={target.box.h + 12}
+                  fill="none"
+                  stroke={colors.focus}
+                  strokeWidth={2 / v.s}
+                />
+              ) : null}
+            </G>
+          </Svg>
+        ) : null}
+      </View>
+      {d.notes.map((n) => (
+        <T key={n} variant="small">
+          {n}
+        </T>
+      ))}
+    </View>
+  );
+}

@@ -1,0 +1,87 @@
+/**
+ * The one-line diagram of the demo facility (issue 21): drawn from the model on the study's "One-line" tab, the
+ * hazard written at each bus; tapping a bus opens its clearing trace; the search box centres an element. Looked at on
+ * a desktop and on a phone (screenshots in tests/screenshots/).
+ */
+import type { Harness } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
+
+type Spec = { name: string; run: (h: Harness) => Promise<void> };
+
+async function api<T>(h: Harness, path: string, token?: string, body?: unknown): Promise<T> {
+  const res = await fetch(`${h.baseUrl}/api${path}`, {
+    method: body ? 'POST' : 'GET',
+    headers: {
+      ...(token ? { Authorization: `Bearer ${token}` } : {}),
+      ...(body ? { 'Content-Type': 'application/json' } : {}),
+    },
+    body: body ? JSON.stringify(body) : undefined,
+  });
+  if (!res.ok) throw new Error(`${path}: ${res.status} ${await res.text()}`);
+  return (await res.json()) as T;
+}
+
+/** The demo facility's approved study. */
+async function demoStudyId(h: Harness): Promise<string> {
+  const { token } = await api<{ token: string }>(h, '/auth/sign-in', undefined, {
+    email: 'engineer@larkspur.example',
+    password: DEMO_PASSWORD,
+  });
+  const { sites } = await api<{ sites: { id: string; name: string }[] }>(h, '/sites', token);
+  const site = sites.find((s) => s.name === 'Larkspur Valley Water Reclamation Facility');
+  if (!site) throw new Error('demo facility not found');
+  const { studies } = await api<{ studies: { id: string; status: string }[] }>(h, `/sites/${site.id}/studies`, token);
+  const approved = studies.find((s) => s.status === 'approved');
+  if (!approved) throw new Error('no approved demo study');
+  return approved.id;
+}
+
+export const specs: Spec[] = [
+  {
+    name: 'one-line: the demo facility drawn with its hazards; tap a bus → its trace (desktop and phone)',
+    run: async (h) => {
+      const id = await demoStudyId(h);
+      for (const [label, viewport] of [
+        ['desktop', DESKTOP],
+        ['phone', PHONE],
+      ] as const) {
+        const page = await h.newPage(viewport);
+        await h.signIn(page, 'engineer@larkspur.example');
+        await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
+        await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
+        const bus = page.locator('svg text').filter({ hasText: /^USS-1$/ });
+        await bus.waitFor().catch(async (e: Error) => {
+          await h.shot(page, `one-line-${label}-failed`);
+          throw e;
+        });
+        // The hazard is written, not only coloured: energy in cal/cm² and the signal word.
+        await page
+          .locator('svg text')
+          .filter({ hasText: /cal\/cm² · (DANGER|WARNING)$/ })
+          .first()
+          .waitFor();
+        await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
+        await h.shot(page, `one-line-${label}`);
+
+        // The search box centres an element and marks it.
+        await page.getByTestId('one-line-search').fill('MCC-2');
+        await page.getByTestId('one-line-find').click();
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^MCC-2$/ })
+          .waitFor();
+        await h.shot(page, `one-line-${label}-found`);
+
+        // Tap the bus USS-1 (its label) → its clearing trace.
+        await page.getByTestId('one-line-search').fill('USS-1');
+        await page.getByTestId('one-line-find').click();
+        const box = await bus.boundingBox();
+        if (!box) throw new Error('USS-1 not drawn');
+        await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+        await pollUntil(async () => page.url().includes('/bus/USS-1'), 'the trace of USS-1 to open');
+        await page.getByText('USS-1').first().waitFor();
+        await page.close();
+      }
+    },
+  },
+];
