@@ -26,6 +26,8 @@ import {
   withTmInstantaneousMode,
 } from '../../components/model/devices/deviceEdit';
 import { IssueSummary } from '../../components/model/editor/IssueSummary';
+import { DeviceSettingsPanel } from '../../components/model/devices/DeviceSettingsPanel';
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { groupIssues, type PlacedDeviceInput } from '../../components/model/summaries';
 import { libraryChanged } from '../../components/model/columns/devices';
 import { expectClose as approx } from '../helpers/approx';
@@ -294,5 +296,79 @@ describe('plausibility warnings in the summary: a separate "Worth checking" grou
     expect(html).toContain('Worth checking');
     expect(html).toContain('Sources · U-1');
     expect(html).toContain('data-testid="model-warnings"');
+  });
+});
+
+describe('the device settings panel rendered to HTML', () => {
+  const model = {
+    format: 'emberline-model',
+    version: 1,
+    buses: [{ id: 'B-1', nominalKv: 13.8 }],
+    sources: [{ id: 'U-1', kind: 'utility', bus: 'B-1', shortCircuitMva: 250, xr: 10 }],
+    // A relay with its time dial emptied: the model's issue names devices[0].device.timeDial.
+    devices: [
+      {
+        id: 'R-1',
+        source: 'U-1',
+        device: { kind: 'relay', curve: 'IEC-SI', ctRatio: 120, pickupSecondaryA: 5, breakerCycles: 5 },
+      },
+    ],
+  } as unknown as ModelInput;
+  const render = (editable: boolean, studyId?: string) => {
+    const r = parseModel(model);
+    expect(r.success).toBe(false);
+    const issues = r.success ? [] : r.issues;
+    const located = groupIssues(issues, model).byElement.get('devices[0]') ?? [];
+    return renderToStaticMarkup(
+      <QueryClientProvider client={new QueryClient()}>
+        <DeviceSettingsPanel
+          model={model}
+          index={0}
+          typesById={new Map()}
+          issues={located}
+          warnings={[]}
+          editable={editable}
+          studyId={studyId}
+          patch={() => undefined}
+          onClose={() => undefined}
+        />
+      </QueryClientProvider>,
+    );
+  };
+  it('shows the issue under the time multiplier field, the CT pickup with its primary amperes, and no markers yet', () => {
+    const html = render(true, 'study-1');
+    expect(html).toContain('Settings of R-1');
+    expect(html).toContain('set in the model (not from the library)');
+    // IEC 60255-151 calls the multiplier TMS: an IEC curve's dial is labelled "Time multiplier".
+    expect(html).toContain('Time multiplier');
+    expect(html).toMatch(/Time multiplier[\s\S]*?(Required|required)[\s\S]*?Breaker/);
+    // 120 × 5 A secondary = 600 A primary (the CT ratio's definition).
+    expect(html).toContain('600 A primary');
+    expect(html).toContain('The band is drawn once the settings are complete.');
+  });
+  it('without a study there are no bus markers, and says so', () => {
+    const r = parseModel({
+      ...model,
+      devices: [{ ...model.devices![0], device: { ...model.devices![0].device, timeDial: 0.1 } }],
+    });
+    expect(r.success).toBe(true);
+    const html = renderToStaticMarkup(
+      <QueryClientProvider client={new QueryClient()}>
+        <DeviceSettingsPanel
+          model={{
+            ...model,
+            devices: [{ ...model.devices![0], device: { ...model.devices![0].device, timeDial: 0.1 } as never }],
+          }}
+          index={0}
+          typesById={new Map()}
+          issues={[]}
+          warnings={[]}
+          editable={false}
+          patch={() => undefined}
+          onClose={() => undefined}
+        />
+      </QueryClientProvider>,
+    );
+    expect(html).toContain('No run to take B-1’s currents from.');
   });
 });
