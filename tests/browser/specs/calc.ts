@@ -1,5 +1,5 @@
 import type { Harness } from '../harness';
-import { DESKTOP, PHONE } from '../harness';
+import { DESKTOP, PHONE, pollUntil } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -35,6 +35,39 @@ export const specs: Spec[] = [
       await page.close();
     },
   })),
+  {
+    name: 'spot check: switching mm → in → mm keeps every length and the result; a failed Calculate clears the result (phone)',
+    run: async (h) => {
+      const page = await h.newPage(PHONE);
+      await h.signIn(page, 'engineer@larkspur.example');
+      await page.getByTestId('home-engineer').waitFor();
+      await page.goto(`${h.baseUrl}/spot-check`);
+      await page.getByTestId('unit-si').click();
+      await page.getByTestId('gap').fill('32');
+      await page.getByTestId('calculate').click();
+      await page.getByTestId('energy-result').waitFor();
+      const before = await page.getByTestId('energy-cal').innerText();
+      // 32 mm shows as 1.26 in (rounded for reading only) and comes back as 32 mm, not 32.004 or 33.
+      await page.getByTestId('unit-us').click();
+      assert((await page.getByTestId('gap').inputValue()) === '1.26', 'gap shown in inches');
+      await page.getByTestId('calculate').click();
+      await page.getByTestId('energy-result').waitFor();
+      const inInches = await page.getByTestId('energy-cal').innerText();
+      await page.getByTestId('unit-si').click();
+      assert((await page.getByTestId('gap').inputValue()) === '32', 'gap back to 32 mm');
+      await page.getByTestId('calculate').click();
+      await page.getByTestId('energy-result').waitFor();
+      const after = await page.getByTestId('energy-cal').innerText();
+      assert(before === inInches && before === after, `same result in both units (${before}, ${inInches}, ${after})`);
+      // A Calculate that fails leaves no result beside the error.
+      await page.getByTestId('boltedFaultKa').fill('');
+      await page.getByTestId('calculate').click();
+      await page.getByText('Enter a number').first().waitFor();
+      await pollUntil(async () => (await page.getByTestId('energy-result').count()) === 0, 'the old result cleared');
+      await h.shot(page, 'spot-check-units-phone');
+      await page.close();
+    },
+  },
   {
     name: 'spot check names a bad field and refuses an out-of-range voltage (phone)',
     run: async (h) => {
