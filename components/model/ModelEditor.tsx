@@ -73,11 +73,13 @@ export function ModelEditor({
 
   const sectionCtx = useSectionContext(model, section, deviceTypes);
   // The device settings editor: the device by index, and its id to follow it when the list changes.
-  const [deviceOpen, setDeviceOpen] = useState<{ index: number; id: string } | null>(null);
+  const [deviceOpen, setDeviceOpen] = useState<{ index: number; id: string; nonce: number } | null>(null);
   const openDevice = useCallback(
     (element: object) => {
       const index = (latest().devices ?? []).indexOf(element as PlacedDeviceInput);
-      if (index >= 0) setDeviceOpen({ index, id: (element as PlacedDeviceInput).id });
+      const id = (element as PlacedDeviceInput).id;
+      // A new nonce on each open, so the panel scrolls into view again.
+      if (index >= 0) setDeviceOpen((o) => ({ index, id, nonce: (o?.nonce ?? 0) + 1 }));
     },
     [latest],
   );
@@ -107,6 +109,7 @@ export function ModelEditor({
         editable={editable}
         studyId={studyId}
         patch={patchDevice}
+        openNonce={deviceOpen?.nonce ?? 0}
         onClose={() => setDeviceOpen(null)}
       />
     ) : null;

@@ -6,8 +6,8 @@
  * bolted fault and arcing currents of the last run when the study has results for the bus.
  */
 import { useMutation, useQuery } from '@tanstack/react-query';
-import { useMemo, type ReactNode } from 'react';
-import { View } from 'react-native';
+import { useEffect, useMemo, useRef, type ReactNode } from 'react';
+import { Platform, View } from 'react-native';
 import { contract } from '../../../shared/api';
 import {
   RELAY_CURVES,
@@ -91,6 +91,18 @@ const SWITCH_LABELS: Record<ElectronicSettingName, string> = {
   groundFaultDelay: 'Ground-fault delay (s)',
 };
 
+/** Brings the panel's top into view each time it is opened (web; the panel is taller than a phone's screen). */
+function useScrollToTop(nonce: number) {
+  const ref = useRef<View>(null);
+  useEffect(() => {
+    if (!nonce || Platform.OS !== 'web') return;
+    const node = ref.current as unknown as { scrollIntoView?: (o: object) => void } | null;
+    const id = setTimeout(() => node?.scrollIntoView?.({ block: 'start', behavior: 'smooth' }), 30);
+    return () => clearTimeout(id);
+  }, [nonce]);
+  return ref;
+}
+
 export interface DeviceSettingsPanelProps {
   model: ModelInput;
   index: number;
@@ -101,6 +113,8 @@ export interface DeviceSettingsPanelProps {
   /** The study whose last run gives the bus's currents (none: no markers). */
   studyId?: string;
   patch: (update: (d: PlacedDeviceInput) => PlacedDeviceInput) => void;
+  /** Changes each time the panel is opened: it then scrolls into view (web). */
+  openNonce?: number;
   onClose: () => void;
 }
 
@@ -113,8 +127,10 @@ export function DeviceSettingsPanel({
   editable,
   studyId,
   patch,
+  openNonce = 0,
   onClose,
 }: DeviceSettingsPanelProps) {
+  const ref = useScrollToTop(openNonce);
   const placed = (model.devices ?? [])[index] as PlacedDeviceInput | undefined;
   const device = placed?.device as Device | undefined;
   const from = placed ? provenance(placed) : { kind: 'none' as const };
@@ -136,57 +152,59 @@ export function DeviceSettingsPanel({
   const common = { editable, setDevice, fieldError, fieldWarning };
 
   return (
-    <Card testID="device-settings" style={{ gap: space.md }}>
-      <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.sm }}>
-        <View style={{ flex: 1, gap: 2 }}>
-          <T variant="subheading" testID="device-settings-title">{`Settings of ${title}`}</T>
-          <T variant="small" testID="device-settings-provenance">
-            {device ? `${DEVICE_KIND_LABELS[device.kind]} · ` : ''}
-            {from.kind === 'library'
-              ? `from the library: ${from.name}`
-              : from.kind === 'modified'
-                ? `modified from ${from.name}`
-                : from.kind === 'custom'
-                  ? 'set in the model (not from the library)'
-                  : 'no settings yet'}
-          </T>
-          {libType?.genericNote ? (
-            <T variant="small" style={{ color: colors.caution }}>
-              {genericNoteSentence(libType.genericNote)}
+    <View ref={ref}>
+      <Card testID="device-settings" style={{ gap: space.md }}>
+        <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.sm }}>
+          <View style={{ flex: 1, gap: 2 }}>
+            <T variant="subheading" testID="device-settings-title">{`Settings of ${title}`}</T>
+            <T variant="small" testID="device-settings-provenance">
+              {device ? `${DEVICE_KIND_LABELS[device.kind]} · ` : ''}
+              {from.kind === 'library'
+                ? `from the library: ${from.name}`
+                : from.kind === 'modified'
+                  ? `modified from ${from.name}`
+                  : from.kind === 'custom'
+                    ? 'set in the model (not from the library)'
+                    : 'no settings yet'}
             </T>
-          ) : null}
+            {libType?.genericNote ? (
+              <T variant="small" style={{ color: colors.caution }}>
+                {genericNoteSentence(libType.genericNote)}
+              </T>
+            ) : null}
+          </View>
+          <IconButton icon="close" label="Close the device settings" onPress={onClose} testID="device-settings-close" />
         </View>
-        <IconButton icon="close" label="Close the device settings" onPress={onClose} testID="device-settings-close" />
-      </View>
-      {generalIssues.map((li, i) => (
-        <T key={i} style={{ color: colors.danger, fontSize: 15 }} accessibilityRole="alert">
-          {issueMessage(li.issue)}
-        </T>
-      ))}
-      {!device ? (
-        <NoDevice editable={editable} onStart={setDevice} />
-      ) : device.kind === 'relay' ? (
-        <RelayFields r={device} {...common} />
-      ) : device.kind === 'electronic' ? (
-        <ElectronicFields
-          e={device}
-          placed={placed}
-          typesById={typesById}
-          patch={patch}
-          positionsError={issues.find((i) => fieldCovers('library.positions', i.field))}
-          {...common}
-        />
-      ) : device.kind === 'thermal-magnetic' ? (
-        <ThermalMagneticFields tm={device} {...common} />
-      ) : device.kind === 'fuse' ? (
-        <FuseFields f={device} placed={placed} typesById={typesById} editable={editable} patch={patch} />
-      ) : (
-        <T variant="small">
-          A digitized band is edited in the device library (its points); here it is drawn at the bus’s currents.
-        </T>
-      )}
-      {device ? <BandBeside placed={placed} device={device} model={model} studyId={studyId} /> : null}
-    </Card>
+        {generalIssues.map((li, i) => (
+          <T key={i} style={{ color: colors.danger, fontSize: 15 }} accessibilityRole="alert">
+            {issueMessage(li.issue)}
+          </T>
+        ))}
+        {!device ? (
+          <NoDevice editable={editable} onStart={setDevice} />
+        ) : device.kind === 'relay' ? (
+          <RelayFields r={device} {...common} />
+        ) : device.kind === 'electronic' ? (
+          <ElectronicFields
+            e={device}
+            placed={placed}
+            typesById={typesById}
+            patch={patch}
+            positionsError={issues.find((i) => fieldCovers('library.positions', i.field))}
+            {...common}
+          />
+        ) : device.kind === 'thermal-magnetic' ? (
+          <ThermalMagneticFields tm={device} {...common} />
+        ) : device.kind === 'fuse' ? (
+          <FuseFields f={device} placed={placed} typesById={typesById} editable={editable} patch={patch} />
+        ) : (
+          <T variant="small">
+            A digitized band is edited in the device library (its points); here it is drawn at the bus’s currents.
+          </T>
+        )}
+        {device ? <BandBeside placed={placed} device={device} model={model} studyId={studyId} /> : null}
+      </Card>
+    </View>
   );
 }
 
