@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
-import { parseModel, type Model } from '../../shared/schemas/model';
+import type { Model } from '../../shared/schemas/model';
 import type { OrganizationSettings } from '../../shared/schemas/organization';
 import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
 import type { StudyResults } from '../../shared/schemas/studyResults';
@@ -8,6 +8,7 @@ import { StudyRun } from '../db/models';
 import { DEFAULT_MOTOR_DECAY_CYCLES, type StudyOptions } from '../engine/study';
 import type { AppContext, AuthUser } from './context';
 import { ApiError, modelIssuesError } from './errors';
+import { checkModelText } from './modelCheck';
 import { recordAudit } from './audit';
 import { JobStopped, STOPPED_BY_SHUTDOWN } from './jobs';
 import { getSettings, labelSettingsOf } from './organization';
@@ -31,9 +32,11 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
   const study = await findStudy(actor, studyId);
   if (study.status !== 'draft')
     throw ApiError.conflict(`Revision ${study.revision} is ${study.status}; only a draft is run`);
-  const parsed = parseModel(JSON.parse(study.model));
-  if (!parsed.success) throw modelIssuesError(parsed.issues, 'model.');
-  if (!parsed.model.buses.some((b) => b.equipment)) {
+  // Checked when it was saved or imported (the answer is kept by its text), not again here on the request thread.
+  const checked = checkModelText(study.model);
+  const snapshot = checked.snapshot;
+  if (snapshot === null) throw modelIssuesError([...checked.issues], 'model.');
+  if (!checked.hasEquipment) {
     throw new ApiError('bad_request', 'No bus has equipment to label: give at least one bus its equipment class', {
       'model.buses': 'No equipment',
     });
@@ -56,7 +59,7 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
         modelVersion: study.modelVersion,
         status: 'queued',
         message: 'Waiting to start',
-        modelSnapshot: JSON.stringify(parsed.model),
+        modelSnapshot: snapshot,
         settingsSnapshot: JSON.stringify(runSettings),
         startedById: actor.id,
         startedAt: ctx.now(),

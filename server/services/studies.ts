@@ -14,6 +14,7 @@ import type { AppContext, AuthUser } from './context';
 import { ApiError } from './errors';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { recordAudit } from './audit';
+import { modelCheckOfText } from './modelCheck';
 import { addMonths } from './dates';
 import { issueLabels } from './labels';
 import { getSettings } from './organization';
@@ -197,7 +198,7 @@ export async function getModelEnvelope(actor: AuthUser, studyId: string): Promis
   const study = await findStudy(actor, studyId);
   // Stored through PUT (checked by draftModelSchema), an import or a new study: a draft, possibly with problems.
   const model = JSON.parse(study.model) as ModelInput;
-  return { model, version: study.modelVersion, ...modelCheck(model) };
+  return { model, version: study.modelVersion, ...modelCheckOfText(study.model) };
 }
 
 function requireDraft(study: Study, what: string): void {
@@ -283,9 +284,10 @@ export async function saveModel(
     }
     const version = study.modelVersion + 1;
     const capChanges = arcDurationCapChanges(study.model, model);
+    const text = JSON.stringify(model);
     // Conditional update: a concurrent writer that read the same version loses here instead of overwriting.
     const [count] = await Study.update(
-      { model: JSON.stringify(model), modelVersion: version, modelUpdatedAt: ctx.now(), lastEditedById: actor.id },
+      { model: text, modelVersion: version, modelUpdatedAt: ctx.now(), lastEditedById: actor.id },
       { where: { id: study.id, modelVersion: study.modelVersion }, transaction },
     );
     if (count !== 1) throw ApiError.conflict('The model was changed by someone else; reload to see their changes');
@@ -300,7 +302,8 @@ export async function saveModel(
       },
       transaction,
     );
-    return { model, version, ...modelCheck(model) };
+    // Checked as stored (the text every later read parses); the answer is kept for the run's start and the next read.
+    return { model, version, ...modelCheckOfText(text) };
   });
 }
 
