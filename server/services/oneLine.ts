@@ -5,6 +5,7 @@
 import { modelSchema, validateModel, type Model, type ModelIssue } from '../../shared/schemas/model';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import type { BusHazard, OneLineDrawing } from '../../shared/oneLine/geometry';
+import { hazardsFromResults } from '../../shared/oneLine/hazards';
 import { layoutOneLine } from '../../shared/oneLine/layout';
 import { oneLineSvg } from '../../shared/oneLine/svg';
 import { StudyRun } from '../db/models';
@@ -12,22 +13,6 @@ import type { AuthUser } from './context';
 import { ApiError } from './errors';
 import { findStudy } from './scope';
 import { modelIssues } from './studies';
-
-/** Hazard by bus from stored results: the label's energy and signal word, and the governing scenario's name. */
-export function hazardsOf(results: StudyResults): Map<string, BusHazard> {
-  const names = new Map((results.scenarios ?? []).map((s) => [s.id, s.name]));
-  const out = new Map<string, BusHazard>();
-  for (const b of results.buses) {
-    const e = b.labelValues?.incidentEnergyCalPerCm2 ?? b.incidentEnergyCalPerCm2;
-    if (b.status !== 'ok' || e === undefined) continue;
-    out.set(b.busId, {
-      incidentEnergyCalPerCm2: e,
-      signalWord: b.labelValues?.signalWord ?? null,
-      scenario: b.scenarioId ? (names.get(b.scenarioId) ?? b.scenarioId) : null,
-    });
-  }
-  return out;
-}
 
 export interface StudyOneLine {
   drawing: OneLineDrawing;
@@ -56,7 +41,9 @@ export async function studyOneLine(actor: AuthUser, studyId: string, scenarioId?
   const run = study.approvedRunId
     ? await StudyRun.findByPk(study.approvedRunId)
     : await StudyRun.findOne({ where: { studyId: study.id, status: 'done' }, order: [['startedAt', 'DESC']] });
-  const hazards = run?.results ? hazardsOf(JSON.parse(run.results) as StudyResults) : new Map<string, BusHazard>();
+  const hazards = run?.results
+    ? hazardsFromResults(JSON.parse(run.results) as StudyResults)
+    : new Map<string, BusHazard>();
   const drawing = layoutOneLine(model, { hazards, problems, scenarioId });
   if (run?.results && run.modelVersion !== study.modelVersion) {
     drawing.notes.push('The model changed after the run shown: run the study again for current values.');

@@ -14,6 +14,7 @@ import { renderCover } from './cover';
 import { isApproved, type StudyReportInput } from './input';
 import { renderInputs } from './inputs';
 import { renderMethod } from './method';
+import { renderOneLine } from './oneLine';
 import { renderResults } from './results';
 import { renderScenarios } from './scenarios';
 import { renderScope } from './scope';
@@ -43,6 +44,7 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
   renderScope(w, input);
   renderMethod(w, results, model);
   renderInputs(w, results, model);
+  renderOneLine(w, results, model);
   renderResults(w, results);
   renderScenarios(w, results, model);
   renderChanges(w, input.comparison);
