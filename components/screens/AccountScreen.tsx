@@ -96,7 +96,7 @@ function ChangePassword() {
 /** The signed-in person's own account: who they are, their password, signing out. */
 /** The user's unit system for lengths on screen (the editor, the spot check, the results); labels keep theirs. */
 function Units() {
-  const { system, chosen, setSystem } = useUnitSystem();
+  const { system, chosen, setSystem, error } = useUnitSystem();
   return (
     <Card testID="account-units">
       <T variant="subheading">Units</T>
@@ -111,9 +111,10 @@ function Units() {
       />
       <T variant="small">
         {chosen
-          ? 'Lengths in the model editor, the spot check and the results are shown in these units. Values are stored in SI, so switching never changes them. Kept on this device.'
+          ? 'Lengths in the model editor, the spot check and the results are shown in these units, on every device you sign in on. Values are stored in SI, so switching never changes them.'
           : 'Until you choose, lengths follow your organization’s label units. Values are stored in SI, so switching never changes them.'}
       </T>
+      {error ? <Notice tone="error">{`Your choice was not saved: ${error}`}</Notice> : null}
     </Card>
   );
 }

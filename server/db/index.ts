@@ -12,6 +12,7 @@ import * as m007 from './migrations/007-reminder-approvals';
 import * as m008 from './migrations/008-label-settings';
 import * as m009 from './migrations/009-study-run-dto-index';
 import * as m010 from './migrations/010-generic-library';
+import * as m011 from './migrations/011-user-units';
 import { initModels } from './models';
 import { serializeSqliteWrites, type WriteQueue } from './writeQueue';
 
@@ -27,6 +28,7 @@ const MIGRATIONS = [
   { name: '008-label-settings', ...m008 },
   { name: '009-study-run-dto-index', ...m009 },
   { name: '010-generic-library', ...m010 },
+  { name: '011-user-units', ...m011 },
 ];
 
 export interface Db {

@@ -66,14 +66,25 @@ export function authRoutes(opts: { signInLimitPerMinute: number }): AnyRoute[] {
     bind(contract.auth.me, {
       handler: async ({ user }) => {
         const org = await Organization.findByPk(user.organizationId);
-        if (!org) throw ApiError.unauthorized();
+        const row = await User.findByPk(user.id, { attributes: ['id', 'units'] });
+        if (!org || !row) throw ApiError.unauthorized();
         return {
           id: user.id,
           email: user.email,
           name: user.name,
           role: user.role,
           organization: { id: org.id, name: org.name },
+          units: row.units ?? null,
         };
+      },
+    }),
+    bind(contract.auth.setPreferences, {
+      handler: async ({ user, body }) => {
+        const row = await User.findByPk(user.id);
+        if (!row) throw ApiError.unauthorized();
+        row.units = body.units;
+        await row.save();
+        return { units: row.units ?? null };
       },
     }),
     bind(contract.auth.signOut, {

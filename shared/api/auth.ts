@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { meSchema, signInRequestSchema, signInResponseSchema } from '../schemas/auth';
+import { meSchema, preferencesSchema, signInRequestSchema, signInResponseSchema } from '../schemas/auth';
 import { endpoint } from './endpoint';
 
 /** Signing in and out, and who is signed in. */
@@ -20,6 +20,15 @@ export const authApi = {
     tag: 'auth',
     access: 'signed-in',
     response: meSchema,
+  }),
+  setPreferences: endpoint({
+    method: 'put',
+    path: '/auth/me/preferences',
+    summary: 'Set the signed-in user’s preferences: the unit system lengths are shown in (stored values stay SI).',
+    tag: 'auth',
+    access: 'signed-in',
+    body: preferencesSchema,
+    response: preferencesSchema,
   }),
   signOut: endpoint({
     method: 'post',

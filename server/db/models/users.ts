@@ -8,6 +8,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 import type { Role } from '../../../shared/schemas/common';
+import type { UnitSystem } from '../../../shared/schemas/auth';
 import { forgetUser } from '../../auth/cache';
 import { col, timestamps } from './columns';
 
@@ -30,6 +31,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare active: CreationOptional<boolean>;
   /** Bumped on password change and deactivation: older tokens stop working. */
   declare tokenVersion: CreationOptional<number>;
+  /** The unit system lengths are shown in ('us' or 'si'); null: the organization's label unit order. */
+  declare units: CreationOptional<UnitSystem | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -82,6 +85,7 @@ export function initUser(sequelize: Sequelize): void {
       passwordHash: { type: DataTypes.STRING(255), allowNull: false },
       active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      units: { type: DataTypes.STRING(2), allowNull: true },
       ...timestamps(),
     },
     {
