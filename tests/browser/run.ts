@@ -13,6 +13,7 @@ import { specs as deviceSettingsSpecs } from './specs/deviceSettings';
 import { specs as labelSpecs } from './specs/labels';
 import { specs as attentionSpecs } from './specs/attention.spec';
 import { specs as reminderApprovalSpecs } from './specs/reminderApproval';
+import { specs as unitsSpecs } from './specs/units';
 import { specs as a11ySpecs } from './specs/a11y';
 import { specs as oneLineSpecs } from './specs/oneLine';
 import { closeAxe } from './axe';
@@ -29,6 +30,7 @@ async function main(): Promise<void> {
     ...scenarioResultSpecs,
     ...deviceSettingsSpecs,
     ...labelSpecs,
+    ...unitsSpecs,
     ...attentionSpecs,
     ...reminderApprovalSpecs,
     ...a11ySpecs,
