@@ -97,3 +97,9 @@ export function unitLabel(unit: string | undefined, system: UnitSystem): string 
   if (unit === 'mm' || unit === 'm') return shownUnit(unit, system);
   return unit;
 }
+
+/** A stored length for reading with its unit ("25 m", "82.02 ft"); "—" when missing. */
+export function lengthReading(value: number | undefined, stored: StoredLength, system: UnitSystem): string {
+  if (value === undefined || Number.isNaN(value)) return '—';
+  return `${lengthText(value, stored, system)} ${shownUnit(stored, system)}`;
+}

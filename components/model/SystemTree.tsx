@@ -8,6 +8,7 @@ import Svg, { Circle, Line, Path, Rect } from 'react-native-svg';
 import type { ModelInput } from '../../shared/schemas/model';
 import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui';
+import { useUnitSystem } from '../../hooks/unitSystem';
 import { buildSystemTree, type DeviceMarker, type ElementRef, type TreeRow } from './tree';
 
 export interface SystemTreeProps {
@@ -25,7 +26,11 @@ const LINE_COLOR = '#A9B6C1';
 export function SystemTree({ model, onSelect }: SystemTreeProps) {
   // The tree follows the editor a moment later, so typing in the editor never waits for it.
   const deferred = useDeferredValue(model);
-  const rows = useMemo(() => buildSystemTree(deferred).map((row) => ({ row, sig: JSON.stringify(row) })), [deferred]);
+  const { system } = useUnitSystem();
+  const rows = useMemo(
+    () => buildSystemTree(deferred, system).map((row) => ({ row, sig: JSON.stringify(row) })),
+    [deferred, system],
+  );
   // Rows keep a stable callback, so a parent passing a new arrow function each render does not redraw them all.
   const onSelectRef = useRef(onSelect);
   useLayoutEffect(() => {

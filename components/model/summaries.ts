@@ -5,6 +5,7 @@
 import { deviceSettingParts } from '../../shared/deviceSummary';
 import { findEquipmentClass } from '../../shared/equipmentClasses';
 import { formatSig, MISSING } from '../../shared/numberFormat';
+import { lengthReading, type UnitSystem } from '../../hooks/units';
 import type { Device } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS } from '../../shared/schemas/deviceLibrary';
 import { normalizeConductorSize, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
@@ -161,8 +162,8 @@ export function cableConductors(c: CableInput): string {
   return `${sets} × ${conductorSizeLabel(c.size)} ${c.material ?? '—'}, ${conduit} conduit`;
 }
 
-export function cableSummary(c: CableInput): string {
-  return `${c.fromBus || '—'} → ${c.toBus || '—'} · ${num(c.lengthM)} m · ${cableConductors(c)}`;
+export function cableSummary(c: CableInput, system: UnitSystem = 'si'): string {
+  return `${c.fromBus || '—'} → ${c.toBus || '—'} · ${lengthReading(c.lengthM, 'm', system)} · ${cableConductors(c)}`;
 }
 
 export function motorSummary(m: MotorInput): string {
@@ -195,7 +196,8 @@ export function placedDeviceSummary(d: PlacedDeviceInput): string {
   return `${deviceLocation(d)} · ${what}`;
 }
 
-export function elementSummary(collection: CollectionKey, element: AnyElement): string {
+/** One line about an element; lengths in the user's unit system (`system`, SI by default). */
+export function elementSummary(collection: CollectionKey, element: AnyElement, system: UnitSystem = 'si'): string {
   switch (collection) {
     case 'buses':
       return busSummary(element as BusInput);
@@ -204,7 +206,7 @@ export function elementSummary(collection: CollectionKey, element: AnyElement): 
     case 'transformers':
       return transformerSummary(element as TransformerInput);
     case 'cables':
-      return cableSummary(element as CableInput);
+      return cableSummary(element as CableInput, system);
     case 'motors':
       return motorSummary(element as MotorInput);
     case 'ties':

@@ -5,6 +5,7 @@
  * listed as islands, and elements whose buses are unknown as unconnected.
  */
 import type { ModelInput } from '../../shared/schemas/model';
+import { lengthReading, type UnitSystem } from '../../hooks/units';
 import {
   cableConductors,
   num,
@@ -93,14 +94,18 @@ interface Edge {
   text: string;
 }
 
-function branchText(collection: BranchCollection, b: TransformerInput | CableInput | TieInput): string {
+function branchText(
+  collection: BranchCollection,
+  b: TransformerInput | CableInput | TieInput,
+  system: UnitSystem,
+): string {
   if (collection === 'transformers') {
     const t = b as TransformerInput;
     return `${num(t.kva)} kVA · ${num(t.primaryKv)}/${num(t.secondaryKv)} kV · ${num(t.impedancePct)} %Z`;
   }
   if (collection === 'cables') {
     const c = b as CableInput;
-    return `${num(c.lengthM)} m · ${cableConductors(c)}`;
+    return `${lengthReading(c.lengthM, 'm', system)} · ${cableConductors(c)}`;
   }
   return 'closed tie';
 }
@@ -118,8 +123,8 @@ function sourceText(s: SourceInput): string {
   return `Generator · ${num(s.kva)} kVA · X″d ${num(s.subtransientPct)} %`;
 }
 
-/** Builds the tree and returns it as rows in display order, with connector guides. */
-export function buildSystemTree(model: ModelInput): TreeRow[] {
+/** Builds the tree and returns it as rows in display order, with connector guides; lengths in `system`. */
+export function buildSystemTree(model: ModelInput, system: UnitSystem = 'si'): TreeRow[] {
   const buses = model.buses ?? [];
   const sources = model.sources ?? [];
   const motors = model.motors ?? [];
@@ -160,7 +165,7 @@ export function buildSystemTree(model: ModelInput): TreeRow[] {
         id: b.id,
         fromBus: b.fromBus,
         toBus: b.toBus,
-        text: branchText(collection, b),
+        text: branchText(collection, b, system),
       };
       if (!busIndex.has(b.fromBus) || !busIndex.has(b.toBus)) {
         const missing = [b.fromBus, b.toBus].filter((x) => !busIndex.has(x)).map((x) => (x ? `"${x}"` : '(none)'));

@@ -7,6 +7,7 @@
 import * as fc from 'fast-check';
 import {
   fromShown,
+  lengthReading,
   lengthText,
   readLengthText,
   shownUnit,
@@ -89,5 +90,9 @@ describe('unit switches never change a stored length', () => {
     expect(shownUnit('m', 'us')).toBe('ft');
     expect(shownUnit('mm', 'si')).toBe('mm');
     expect(shownUnit('m', 'si')).toBe('m');
+    // 25 m / 0.3048 = 82.0209… ft, read to two decimals; SI as stored.
+    expect(lengthReading(25, 'm', 'us')).toBe('82.02 ft');
+    expect(lengthReading(25, 'm', 'si')).toBe('25 m');
+    expect(lengthReading(undefined, 'mm', 'us')).toBe('—');
   });
 });

@@ -71,7 +71,7 @@ export const CardRow = memo(function CardRow({
             {element.name ? <T style={{ color: colors.muted, fontSize: 15 }}>{`  ${element.name}`}</T> : null}
           </T>
           <T numberOfLines={expanded ? undefined : 1} style={{ fontSize: 14, lineHeight: 19, color: colors.inkSoft }}>
-            {elementSummary(collection, element)}
+            {elementSummary(collection, element, system)}
           </T>
           {bad && !expanded ? (
             <T numberOfLines={1} style={{ fontSize: 14, lineHeight: 19, color: colors.danger }}>
