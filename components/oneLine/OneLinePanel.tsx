@@ -10,7 +10,7 @@ import type { StudyDto } from '../../shared/schemas/studies';
 import { callApi } from '../../hooks/api';
 import { queryKeys } from '../../hooks/queryKeys';
 import { colors, space } from '../theme';
-import { Button, Field, Notice, T } from '../ui';
+import { Button, Choice, Field, Notice, T } from '../ui';
 
 const PALETTE: Record<Tone, string> = {
   ink: colors.ink,
@@ -117,22 +117,28 @@ const touchDistance = (e: GestureResponderEvent) => {
  */
 export function OneLinePanel({ study }: { study: StudyDto }) {
   const router = useRouter();
+  const [scenario, setScenario] = useState('base');
   const drawing = useQuery({
-    queryKey: [...queryKeys.studies.detail(study.id), 'one-line'],
-    queryFn: () => callApi(contract.oneLine.drawing, { params: { studyId: study.id }, query: {} }),
+    queryKey: [...queryKeys.studies.detail(study.id), 'one-line', scenario],
+    queryFn: () =>
+      callApi(contract.oneLine.drawing, {
+        params: { studyId: study.id },
+        query: scenario === 'base' ? {} : { scenario },
+      }),
+    placeholderData: (previous) => previous,
   });
   const [size, setSize] = useState({ w: 0, h: 0 });
   const [view, setView] = useState<View2D | null>(null);
   const [search, setSearch] = useState('');
   const [found, setFound] = useState<{ id: string; message?: string } | null>(null);
-  const d = drawing.data as (OneLineDrawing & { title: string }) | undefined;
+  const d = drawing.data as (OneLineDrawing & { title: string; scenarios: { id: string; name: string }[] }) | undefined;
   const hits = useMemo(() => (d ? d.elements.map((e) => ({ e, b: hitBox(e) })) : []), [d]);
 
   // First view: the top of the drawing (the sources), fitted to the width but not smaller than readable.
   const initial: View2D | null =
     d && size.w
       ? (() => {
-          const s = Math.min(1, Math.max(0.45, (size.w - 16) / d.width));
+          const s = Math.min(1, Math.max(0.6, (size.w - 16) / d.width));
           return { s, tx: Math.max(8, (size.w - d.width * s) / 2), ty: 8 };
         })()
       : null;
@@ -305,7 +311,27 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
           }}
         />
       </View>
+      {d.scenarios.length ? (
+        <Choice
+          label="Dashed as in"
+          value={scenario}
+          options={[
+            { value: 'base', label: 'As written' },
+            ...d.scenarios.map((x) => ({ value: x.id, label: x.name })),
+          ]}
+          onChange={setScenario}
+          testID="one-line-scenario"
+        />
+      ) : null}
       {found?.message ? <Notice tone="warning">{found.message}</Notice> : null}
+      {target && (target.kind === 'bus' ? target.id : target.busId) ? (
+        <Button
+          title={`Open the clearing trace of ${target.kind === 'bus' ? target.id : target.busId}`}
+          kind="quiet"
+          onPress={() => open(target)}
+          testID="one-line-open-found"
+        />
+      ) : null}
       <T variant="small">
         Tap a bus for its clearing trace; a device or branch opens the trace of the bus it protects. Drag to move;
         pinch, the mouse wheel or the buttons to zoom.

@@ -14,8 +14,8 @@ export const oneLineRoutes = [
   }),
   bind(contract.oneLine.drawing, {
     handler: async ({ user, params, query }) => {
-      const { drawing, title } = await studyOneLine(user, params.studyId, query.scenario);
-      return { title, ...drawing };
+      const { drawing, ...rest } = await studyOneLine(user, params.studyId, query.scenario);
+      return { ...rest, ...drawing };
     },
   }),
 ];

@@ -17,6 +17,8 @@ import { modelIssues } from './studies';
 export interface StudyOneLine {
   drawing: OneLineDrawing;
   title: string;
+  scenarios: { id: string; name: string }[];
+  scenarioId: string | null;
 }
 
 export async function studyOneLine(actor: AuthUser, studyId: string, scenarioId?: string): Promise<StudyOneLine> {
@@ -52,7 +54,12 @@ export async function studyOneLine(actor: AuthUser, studyId: string, scenarioId?
   drawing.notes.push(
     'Estimates from published empirical models and the data entered; not final until a qualified engineer has approved the study.',
   );
-  return { drawing, title: `One-line diagram — ${model.name} (revision ${study.revision})` };
+  return {
+    drawing,
+    title: `One-line diagram — ${model.name} (revision ${study.revision})`,
+    scenarios: (model.scenarios ?? []).map((s) => ({ id: s.id, name: s.name ?? s.id })),
+    scenarioId: scenarioId ?? null,
+  };
 }
 
 export async function studyOneLineSvg(actor: AuthUser, studyId: string, scenarioId?: string): Promise<string> {

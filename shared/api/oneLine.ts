@@ -40,6 +40,9 @@ const shape = z.discriminatedUnion('t', [
 export const oneLineDrawingSchema = z
   .object({
     title: z.string(),
+    /** The model's operating scenarios (none: only the model as written), and the one whose dashes are drawn. */
+    scenarios: z.array(z.object({ id: z.string(), name: z.string() })),
+    scenarioId: z.string().nullable(),
     width: z.number(),
     height: z.number(),
     elements: z.array(

@@ -702,7 +702,7 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     out.connections.push({ a: from.id, b: end.id, pts: route(from.x, from.y, end.x, end.y, midY), dashed: e.dashed });
   }
   const notes: string[] = [];
-  if (scenario) notes.push(`Dashed: out of service or open in scenario "${scenario.name}".`);
+  if (scenario) notes.push(`Dashed: out of service or open in scenario "${scenario.name ?? scenario.id}".`);
   else notes.push('Dashed: open ties and elements out of service.');
   return {
     width: Math.ceil(width),

@@ -10,6 +10,7 @@ import { formatCalPerCm2 } from '../../shared/labelDisplay';
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../../server/db/models';
 import { larkspurModel } from '../../server/seed/larkspurModel';
+import { solidsBuildingModel } from '../../server/seed/solidsBuildingModel';
 import { draftStudy } from '../helpers/flows';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
 
@@ -105,6 +106,30 @@ describe('GET /studies/:studyId/one-line.svg', () => {
           .set(...bearer(t.orgB.users.engineer.token))
       ).status,
     ).toBe(404);
+  });
+
+  test('with operating scenarios: the list, and a scenario’s open ties and stopped sources dashed', async () => {
+    const input = solidsBuildingModel();
+    const id = await draftStudy(t, 'Scenario one-line site', 'Scenarios', input);
+    const p = parseModel(input);
+    if (!p.success) throw new Error('demo model');
+    const scenarios = p.model.scenarios ?? [];
+    expect(scenarios.length).toBeGreaterThan(0);
+    for (const sc of scenarios) {
+      const res = await request(t.app)
+        .get(`/api/studies/${id}/one-line?scenario=${encodeURIComponent(sc.id)}`)
+        .set(...bearer(t.orgA.users.engineer.token));
+      expect(res.status).toBe(200);
+      expect(res.body.scenarioId).toBe(sc.id);
+      expect((res.body.scenarios as { id: string }[]).map((x) => x.id)).toEqual(scenarios.map((x) => x.id));
+      const byId = new Map((res.body.elements as { id: string; dashed?: boolean }[]).map((e) => [e.id, e]));
+      for (const [sid, o] of Object.entries(sc.sources ?? {})) {
+        if (o.inService === false) expect([sid, byId.get(sid)?.dashed]).toEqual([sid, true]);
+      }
+      for (const [tid, o] of Object.entries(sc.ties ?? {})) {
+        expect([tid, byId.get(tid)?.dashed ?? false]).toEqual([tid, !o.closed]);
+      }
+    }
   });
 
   test('an unknown scenario is a 400 naming the field', async () => {

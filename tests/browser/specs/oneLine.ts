@@ -21,19 +21,23 @@ async function api<T>(h: Harness, path: string, token?: string, body?: unknown):
   return (await res.json()) as T;
 }
 
-/** The demo facility's approved study. */
-async function demoStudyId(h: Harness): Promise<string> {
+/** The latest study of a demo site (`status`: the approved one). */
+async function demoStudyId(
+  h: Harness,
+  siteName = 'Larkspur Valley Water Reclamation Facility',
+  status = 'approved',
+): Promise<string> {
   const { token } = await api<{ token: string }>(h, '/auth/sign-in', undefined, {
     email: 'engineer@larkspur.example',
     password: DEMO_PASSWORD,
   });
   const { sites } = await api<{ sites: { id: string; name: string }[] }>(h, '/sites', token);
-  const site = sites.find((s) => s.name === 'Larkspur Valley Water Reclamation Facility');
-  if (!site) throw new Error('demo facility not found');
+  const site = sites.find((s) => s.name === siteName);
+  if (!site) throw new Error(`${siteName} not found`);
   const { studies } = await api<{ studies: { id: string; status: string }[] }>(h, `/sites/${site.id}/studies`, token);
-  const approved = studies.find((s) => s.status === 'approved');
-  if (!approved) throw new Error('no approved demo study');
-  return approved.id;
+  const found = studies.find((s) => s.status === status);
+  if (!found) throw new Error(`no ${status} study at ${siteName}`);
+  return found.id;
 }
 
 export const specs: Spec[] = [
@@ -70,6 +74,8 @@ export const specs: Spec[] = [
           .locator('svg text')
           .filter({ hasText: /^MCC-2$/ })
           .waitFor();
+        // Without a pointer: the element found offers its trace as a button.
+        await page.getByRole('button', { name: 'Open the clearing trace of MCC-2' }).waitFor();
         await h.shot(page, `one-line-${label}-found`);
 
         // Tap the bus USS-1 (its label) → its clearing trace.
@@ -82,6 +88,37 @@ export const specs: Spec[] = [
         await page.getByText('USS-1').first().waitFor();
         await page.close();
       }
+    },
+  },
+  {
+    name: 'one-line: a study with operating scenarios — a scenario’s open tie and stopped sources dashed (phone)',
+    run: async (h) => {
+      const id = await demoStudyId(h, 'Larkspur Valley Solids Handling Building', 'draft');
+      const page = await h.newPage(PHONE);
+      await h.signIn(page, 'engineer@larkspur.example');
+      await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
+      await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
+      await page
+        .locator('svg text')
+        .filter({ hasText: /^SH-TIE$/ })
+        .waitFor();
+      // As written the tie is open: its state is written beside it, not only dashed.
+      await page
+        .locator('svg text')
+        .filter({ hasText: /^open$/ })
+        .first()
+        .waitFor();
+      const choice = page.getByTestId('one-line-scenario');
+      await choice.waitFor();
+      // Before: the open tie is the only dashed element (its blade); on the generator alone both utilities are out.
+      const dashedUtility = page.locator('svg rect[stroke-dasharray]');
+      const before = await dashedUtility.count();
+      await choice.getByRole('radio', { name: 'Standby generator alone, tie closed' }).click();
+      await page.getByText(/Dashed: out of service or open in scenario "Standby generator alone/).waitFor();
+      await pollUntil(async () => (await dashedUtility.count()) >= before + 2, 'both utility sources dashed');
+      await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
+      await h.shot(page, 'one-line-phone-scenario');
+      await page.close();
     },
   },
 ];
