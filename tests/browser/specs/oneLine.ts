@@ -3,8 +3,9 @@
  * hazard written at each bus; tapping a bus opens its clearing trace; the search box centres an element. Looked at on
  * a desktop and on a phone (screenshots in tests/screenshots/).
  */
+import { axePage, checkA11y } from '../axe';
 import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, clearLocalStorage, pollUntil } from '../harness';
 
 type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
@@ -119,6 +120,30 @@ export const specs: Spec[] = [
       await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
       await h.shot(page, 'one-line-phone-scenario');
       await page.close();
+    },
+  },
+  {
+    name: 'one-line: no serious accessibility violation on the One-line tab (axe)',
+    run: async (h) => {
+      const id = await demoStudyId(h);
+      const ax = await axePage(DESKTOP);
+      try {
+        await ax.goto(`${h.baseUrl}/sign-in`);
+        await clearLocalStorage(ax);
+        await ax.goto(`${h.baseUrl}/sign-in`);
+        await ax.getByTestId('email').fill('engineer@larkspur.example');
+        await ax.getByTestId('password').fill(DEMO_PASSWORD);
+        await ax.getByTestId('sign-in-submit').click();
+        await ax.getByTestId('side-nav').waitFor();
+        await ax.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
+        await ax
+          .locator('svg text')
+          .filter({ hasText: /^USS-1$/ })
+          .waitFor();
+        await checkA11y(ax, 'one-line diagram');
+      } finally {
+        await ax.close();
+      }
     },
   },
 ];
