@@ -5,7 +5,7 @@
  * elements it joins, the SVG is well-formed XML holding every element id.
  */
 import { DOMParser } from '@xmldom/xmldom';
-import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
+import { modelSchema, parseModel, validateModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { layoutOneLine } from '../../shared/oneLine/layout';
 import { boxesOverlap, touchesBox, type OneLineDrawing } from '../../shared/oneLine/geometry';
 import { oneLineSvg } from '../../shared/oneLine/svg';
@@ -142,6 +142,53 @@ describe('one-line diagram geometry', () => {
       for (const [id, o] of Object.entries(sc.ties ?? {})) {
         expect(d.elements.find((e) => e.id === id)!.dashed ?? false).toBe(!o.closed);
       }
+    }
+  });
+
+  test('a model with problems (unknown bus, self-loop, island, device on no branch) is still drawn whole, problems marked', () => {
+    const base = larkspurModel();
+    const input: ModelInput = {
+      ...base,
+      buses: [...(base.buses ?? []), { id: 'LONE', name: 'Island bus', nominalKv: 0.48 }],
+      cables: [
+        ...(base.cables ?? []),
+        {
+          id: 'C-BAD',
+          fromBus: 'SWBD-1',
+          toBus: 'NOWHERE',
+          lengthM: 10,
+          sets: 1,
+          size: '4/0',
+          material: 'Cu',
+          conduit: 'steel',
+        },
+        {
+          id: 'C-SELF',
+          fromBus: 'SWBD-1',
+          toBus: 'SWBD-1',
+          lengthM: 10,
+          sets: 1,
+          size: '4/0',
+          material: 'Cu',
+          conduit: 'steel',
+        },
+      ],
+      devices: [
+        ...(base.devices ?? []),
+        { ...base.devices![0], id: 'CB-ORPHAN', source: undefined, branch: 'NO-SUCH', end: 'from' },
+      ],
+    };
+    const m = modelSchema.parse(input);
+    const issues = validateModel(m);
+    expect(issues.length).toBeGreaterThan(0);
+    const problems = new Set(issues.flatMap((i) => [...(i.elementId ? [i.elementId] : []), ...(i.elementIds ?? [])]));
+    const d = layoutOneLine(m, { problems });
+    checkDrawing(m, d);
+    checkSvg(m, d);
+    for (const id of ['C-BAD', 'C-SELF', 'CB-ORPHAN', 'LONE']) expect([id, problems.has(id)]).toEqual([id, true]);
+    for (const id of problems) {
+      const e = d.elements.find((x) => x.id === id);
+      if (e) expect([id, e.problem]).toEqual([id, true]);
     }
   });
 });
