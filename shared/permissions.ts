@@ -110,6 +110,7 @@ export const CAPABILITY_ROUTES: Partial<Record<Capability, readonly string[]>> =
     'GET /studies/:studyId/export',
     'GET /studies/:studyId/one-line.svg',
     'GET /studies/:studyId/one-line',
+    'GET /studies/:studyId/compare/:otherStudyId',
   ],
   editModel: ['PUT /studies/:studyId/model', 'POST /studies/:studyId/import'],
   runStudy: ['POST /studies/:studyId/run'],
