@@ -45,6 +45,31 @@ export async function pollUntil(check: () => Promise<boolean>, what: string, tim
   }
 }
 
+/** A browser spec: its name (the runner's filter matches it) and what it does. */
+export type Spec = { name: string; run: (h: Harness) => Promise<void> };
+
+export function assert(cond: unknown, message: string): asserts cond {
+  if (!cond) throw new Error(message);
+}
+
+/** A JSON call to the harness's API from the test side (setting up data), failing with the answer's text. */
+export async function api<T = unknown>(
+  h: Harness,
+  path: string,
+  init: { method?: string; body?: unknown; token?: string } = {},
+): Promise<T> {
+  const res = await fetch(`${h.baseUrl}/api${path}`, {
+    method: init.method ?? 'GET',
+    headers: {
+      ...(init.token ? { Authorization: `Bearer ${init.token}` } : {}),
+      ...(init.body ? { 'Content-Type': 'application/json' } : {}),
+    },
+    body: init.body ? JSON.stringify(init.body) : undefined,
+  });
+  if (!res.ok) throw new Error(`${path}: ${res.status} ${await res.text()}`);
+  return (await res.json()) as T;
+}
+
 export interface Harness {
   baseUrl: string;
   context: BrowserContext;

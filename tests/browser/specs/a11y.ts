@@ -1,18 +1,12 @@
 import type { Page } from 'playwright-core';
 import { axePage, axeViolations, describeViolations } from '../axe';
-import type { Harness } from '../harness';
-import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
+import type { Harness, Spec } from '../harness';
+import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, assert } from '../harness';
 
 /**
  * Every screen, as the role that uses it, at phone and desktop widths: the document title names the page and axe-core
  * finds no serious or critical violation. Runs in the axe browser context (CSP bypassed for axe only, see ../axe.ts).
  */
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
 
 async function authAs(h: Harness, email: string): Promise<Record<string, string>> {
   const res = await fetch(`${h.baseUrl}/api/auth/sign-in`, {

@@ -1,13 +1,7 @@
 import fs from 'node:fs';
 import { PNG } from 'pngjs';
-import type { Harness } from '../harness';
-import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
+import type { Harness, Spec } from '../harness';
+import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, assert } from '../harness';
 
 async function apiAs(h: Harness, email: string): Promise<(path: string, init?: RequestInit) => Promise<Response>> {
   const res = await fetch(`${h.baseUrl}/api/auth/sign-in`, {

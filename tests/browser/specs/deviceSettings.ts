@@ -13,31 +13,8 @@ import { modelSchema, type ModelInput } from '../../../shared/schemas/model';
 import type { RelayDevice } from '../../../shared/schemas/device';
 import type { DeviceType } from '../../../shared/schemas/deviceLibrary';
 import type { Page } from 'playwright-core';
-import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
-
-async function api<T = unknown>(
-  h: Harness,
-  path: string,
-  init: { method?: string; body?: unknown; token?: string } = {},
-): Promise<T> {
-  const res = await fetch(`${h.baseUrl}/api${path}`, {
-    method: init.method ?? 'GET',
-    headers: {
-      ...(init.token ? { Authorization: `Bearer ${init.token}` } : {}),
-      ...(init.body ? { 'Content-Type': 'application/json' } : {}),
-    },
-    body: init.body ? JSON.stringify(init.body) : undefined,
-  });
-  if (!res.ok) throw new Error(`${path}: ${res.status} ${await res.text()}`);
-  return (await res.json()) as T;
-}
+import type { Harness, Spec } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, api, assert } from '../harness';
 
 /** A draft study of a site of its own holding the demo plant (no demo study gets a revision another spec expects). */
 async function draftStudy(h: Harness): Promise<{ id: string; token: string }> {

@@ -2,14 +2,8 @@ import { PNG } from 'pngjs';
 import { displayText, LABEL_STATUS_NOTICES, type LabelDisplay } from '../../../shared/labelDisplay';
 import { smallModel } from '../../fixtures/smallModel';
 import { readPdf } from '../../helpers/pdfText';
-import type { Harness } from '../harness';
-import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
+import type { Harness, Spec } from '../harness';
+import { clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, assert } from '../harness';
 
 async function authAs(h: Harness, email: string): Promise<Record<string, string>> {
   const signIn = await fetch(`${h.baseUrl}/api/auth/sign-in`, {

@@ -4,31 +4,8 @@
  */
 import { larkspurModel } from '../../../server/seed/larkspurModel';
 import type { ModelInput } from '../../../shared/schemas/model';
-import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
-
-async function api<T = unknown>(
-  h: Harness,
-  path: string,
-  init: { method?: string; body?: unknown; token?: string } = {},
-): Promise<T> {
-  const res = await fetch(`${h.baseUrl}/api${path}`, {
-    method: init.method ?? 'GET',
-    headers: {
-      ...(init.token ? { Authorization: `Bearer ${init.token}` } : {}),
-      ...(init.body ? { 'Content-Type': 'application/json' } : {}),
-    },
-    body: init.body ? JSON.stringify(init.body) : undefined,
-  });
-  if (!res.ok) throw new Error(`${path}: ${res.status} ${await res.text()}`);
-  return (await res.json()) as T;
-}
+import type { Harness, Spec } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, api, assert } from '../harness';
 
 /** A draft study of its own (no demo study gets a revision another spec would trip over) holding the demo's model. */
 async function draftStudy(h: Harness): Promise<{ id: string; token: string }> {

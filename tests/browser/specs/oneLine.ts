@@ -4,10 +4,8 @@
  * a desktop and on a phone (screenshots in tests/screenshots/).
  */
 import { axePage, checkA11y } from '../axe';
-import type { Harness } from '../harness';
+import type { Harness, Spec } from '../harness';
 import { DEMO_PASSWORD, DESKTOP, PHONE, clearLocalStorage, pollUntil } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
 async function api<T>(h: Harness, path: string, token?: string, body?: unknown): Promise<T> {
   const res = await fetch(`${h.baseUrl}/api${path}`, {

@@ -1,7 +1,5 @@
-import type { Harness } from '../harness';
+import type { Spec } from '../harness';
 import { DESKTOP, pollUntil } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
 
 export const specs: Spec[] = [
   {

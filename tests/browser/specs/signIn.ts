@@ -1,11 +1,5 @@
-import type { Harness } from '../harness';
-import { clearLocalStorage, DESKTOP, PHONE } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
+import type { Harness, Spec } from '../harness';
+import { clearLocalStorage, DESKTOP, PHONE, assert } from '../harness';
 
 const ROLES = ['engineer', 'electrician', 'safety', 'admin'] as const;
 

@@ -2,14 +2,8 @@ import { modelSchema } from '../../../shared/schemas/model';
 import { exportModelWorkbook } from '../../../server/io';
 import { generatedPlant } from '../../../server/bench/study';
 import { larkspurModel } from '../../../server/seed/larkspurModel';
-import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, SHOTS } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
+import type { Harness, Spec } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, SHOTS, assert } from '../harness';
 
 async function openDemoSite(h: Harness, page: import('playwright-core').Page): Promise<void> {
   await page.goto(`${h.baseUrl}/sites`);

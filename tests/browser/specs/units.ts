@@ -4,31 +4,8 @@
  * to save. Looked at on a desktop (table) and a phone (cards).
  */
 import { larkspurModel } from '../../../server/seed/larkspurModel';
-import type { Harness } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil } from '../harness';
-
-type Spec = { name: string; run: (h: Harness) => Promise<void> };
-
-function assert(cond: unknown, message: string): asserts cond {
-  if (!cond) throw new Error(message);
-}
-
-async function api<T = unknown>(
-  h: Harness,
-  path: string,
-  init: { method?: string; body?: unknown; token?: string } = {},
-): Promise<T> {
-  const res = await fetch(`${h.baseUrl}/api${path}`, {
-    method: init.method ?? 'GET',
-    headers: {
-      ...(init.token ? { Authorization: `Bearer ${init.token}` } : {}),
-      ...(init.body ? { 'Content-Type': 'application/json' } : {}),
-    },
-    body: init.body ? JSON.stringify(init.body) : undefined,
-  });
-  if (!res.ok) throw new Error(`${path}: ${res.status} ${await res.text()}`);
-  return (await res.json()) as T;
-}
+import type { Harness, Spec } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, api, assert } from '../harness';
 
 /** A draft of its own with the demo plant, one bus's gap set to 32 mm. */
 async function draftStudy(h: Harness): Promise<string> {
