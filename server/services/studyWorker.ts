@@ -3,6 +3,7 @@ import { Worker } from 'node:worker_threads';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { createScenarioRunner, type StudyOptions, type StudyRunOutcome } from '../engine/study';
 import { log } from '../log';
+import { generatedPlant } from '../seed/generatedPlant';
 import { yieldToLoop } from './jobs';
 import { scenarioBusResult, type ScenarioBusOutcome } from './scenarioBus';
 
@@ -205,88 +206,6 @@ function acquire(): Slot {
   return startSlot();
 }
 
-/**
- * A small generated plant (utility → 12.47 kV bus → unit substations with an electronic main → panels by cable with a
- * thermal-magnetic feeder breaker; every panel labelled): the warm-up run exercises the code paths of a real run.
- */
-export function warmUpPlant(substations = 2, panelsPerSubstation = 49): ModelInput {
-  const buses: NonNullable<ModelInput['buses']> = [{ id: 'HV', name: 'Service', nominalKv: 12.47 }];
-  const transformers: NonNullable<ModelInput['transformers']> = [];
-  const cables: NonNullable<ModelInput['cables']> = [];
-  const devices: NonNullable<ModelInput['devices']> = [];
-  const feeder = {
-    kind: 'thermal-magnetic' as const,
-    ratingA: 225,
-    thermal: {
-      min: [
-        [1.35, 250],
-        [3, 9],
-        [8, 0.9],
-      ] as [number, number][],
-      max: [
-        [1.35, 1400],
-        [3, 38],
-        [8, 4],
-      ] as [number, number][],
-    },
-    instantaneous: { pickupMultiple: 10, tolerancePct: 20 },
-    instantaneousClearingCycles: 1.5,
-  };
-  for (let s = 0; s < substations; s++) {
-    const sub = `SUB-${s}`;
-    buses.push({ id: sub, name: sub, nominalKv: 0.48, equipment: { class: 'switchgear-lv' } });
-    transformers.push({
-      id: `TX-${s}`,
-      fromBus: 'HV',
-      toBus: sub,
-      kva: 1500,
-      primaryKv: 12.47,
-      secondaryKv: 0.48,
-      impedancePct: 5.75,
-      xr: 6,
-    });
-    devices.push({
-      id: `M-${s}`,
-      branch: `TX-${s}`,
-      end: 'to',
-      device: {
-        kind: 'electronic',
-        sensorA: 2000,
-        longTime: { pickup: 1, delayS: 10 },
-        shortTime: { pickup: 4, delayS: 0.3, i2t: false },
-        pickupTolerancePct: 10,
-        clearingS: 0.05,
-      },
-    });
-    for (let i = 0; i < panelsPerSubstation; i++) {
-      const id = `P-${s}-${i}`;
-      buses.push({ id, name: id, nominalKv: 0.48, equipment: { class: 'mcc-panelboard-lv-deep' } });
-      cables.push({
-        id: `F-${s}-${i}`,
-        fromBus: sub,
-        toBus: id,
-        lengthM: 20 + (i % 40) * 3,
-        sets: 1,
-        size: '4/0',
-        material: 'Cu',
-        conduit: 'steel',
-      });
-      devices.push({ id: `CB-${s}-${i}`, branch: `F-${s}-${i}`, end: 'from', device: feeder });
-    }
-  }
-  return {
-    format: 'emberline-model',
-    version: 1,
-    name: 'Warm-up plant',
-    frequencyHz: 60,
-    buses,
-    sources: [{ id: 'UTIL', kind: 'utility', bus: 'HV', shortCircuitMva: 500, xr: 15 }],
-    transformers,
-    cables,
-    devices,
-  } as ModelInput;
-}
-
 /** The warm-up in progress (a run that starts meanwhile waits for its worker instead of starting a cold one). */
 let warming: Promise<void> | null = null;
 let warmedUp = false;
@@ -297,7 +216,7 @@ let warmedUp = false;
  * thread; the worker is then kept idle like any other. Runs once per process, and not while a run is in progress.
  * Never rejects: a warm-up that fails is logged and the next run starts its own worker.
  */
-export function warmStudyWorker(input: ModelInput = warmUpPlant()): Promise<void> {
+export function warmStudyWorker(input: ModelInput = generatedPlant(2, 49)): Promise<void> {
   if (warming) return warming;
   // Once per process; and never beside a run in progress (that worker is warming up already).
   if (warmedUp || slots.size > (idleSlot ? 1 : 0)) return Promise.resolve();
