@@ -4,6 +4,7 @@
  * to save. Looked at on a desktop (table) and a phone (cards).
  */
 import { larkspurModel } from '../../../server/seed/larkspurModel';
+import type { Page } from 'playwright-core';
 import type { Harness, Spec } from '../harness';
 import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, api, assert } from '../harness';
 
@@ -32,6 +33,24 @@ async function draftStudy(h: Harness): Promise<string> {
   return study.id;
 }
 
+/**
+ * Chooses a unit system on the account screen once the screen has its data (the organization row appears when the
+ * user's own record has loaded). A click that lands while the screen is still settling can be lost on a loaded
+ * machine, so a second click follows if the choice has not shown within 5 s (as a person would tap again).
+ */
+async function chooseUnits(page: Page, system: 'us' | 'si'): Promise<void> {
+  await page.getByTestId('account-details').getByText('Organization').waitFor();
+  const option = page.getByTestId(`units-${system}`);
+  const checked = async () => (await option.getAttribute('aria-checked')) === 'true';
+  await option.click();
+  try {
+    await pollUntil(checked, `${system} chosen`, 5_000);
+  } catch {
+    await option.click();
+    await pollUntil(checked, `${system} chosen (second click)`, 15_000);
+  }
+}
+
 export const specs: Spec[] = [
   {
     name: 'units: the editor shows inches and feet for a US customary user and the stored values come back unchanged (desktop)',
@@ -41,11 +60,7 @@ export const specs: Spec[] = [
       await h.signIn(page, 'engineer@larkspur.example');
       await page.getByTestId('home-engineer').waitFor();
       await page.goto(`${h.baseUrl}/account`);
-      await page.getByTestId('units-us').click();
-      await pollUntil(
-        async () => (await page.getByTestId('units-us').getAttribute('aria-checked')) === 'true',
-        'US chosen',
-      );
+      await chooseUnits(page, 'us');
       await page.goto(`${h.baseUrl}/studies/${id}?tab=model`);
       const gap = page.getByTestId('buses-2-gap');
       await gap.waitFor();
@@ -59,11 +74,7 @@ export const specs: Spec[] = [
       await h.shot(page, 'units-editor-us-desktop');
       // Back to SI: the stored values, digit for digit, and nothing to save.
       await page.goto(`${h.baseUrl}/account`);
-      await page.getByTestId('units-si').click();
-      await pollUntil(
-        async () => (await page.getByTestId('units-si').getAttribute('aria-checked')) === 'true',
-        'SI chosen',
-      );
+      await chooseUnits(page, 'si');
       await page.goto(`${h.baseUrl}/studies/${id}?tab=model`);
       await page.getByTestId('buses-2-gap').waitFor();
       assert((await page.getByTestId('buses-2-gap').inputValue()) === '32', 'gap back to 32 mm');
@@ -84,11 +95,7 @@ export const specs: Spec[] = [
       await h.signIn(page, 'engineer@larkspur.example');
       await page.getByTestId('home-engineer').waitFor();
       await page.goto(`${h.baseUrl}/account`);
-      await page.getByTestId('units-us').click();
-      await pollUntil(
-        async () => (await page.getByTestId('units-us').getAttribute('aria-checked')) === 'true',
-        'US chosen',
-      );
+      await chooseUnits(page, 'us');
       await page.goto(`${h.baseUrl}/studies/${id}?tab=model`);
       await page.getByTestId('buses-2-toggle').click();
       const gap = page.getByTestId('buses-2-gap');
