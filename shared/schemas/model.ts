@@ -372,6 +372,20 @@ export const placedDeviceSchema = z
       })
       .optional()
       .describe('The library device type this device was taken from, and the switch positions chosen (electronic)'),
+    onlyAt: z
+      .object({
+        busIds: z.array(elementIdSchema).min(1).max(200).describe('The buses whose arcs it acts for'),
+        purpose: z
+          .enum(['arc-flash-relay', 'maintenance-switch'])
+          .describe(
+            "'arc-flash-relay': light sensors in that equipment plus current supervision, tripping this branch end's breaker; 'maintenance-switch': an alternate setting the work procedure switches on while working there",
+          ),
+        note: z.string().trim().max(300).optional(),
+      })
+      .optional()
+      .describe(
+        'Acts only for arcs at these buses (an arc-flash relay, or a maintenance switch turned on by the work procedure). Omitted: acts for every fault whose current it carries',
+      ),
   })
   .superRefine((d, ctx) => {
     if ((d.branch === undefined) === (d.source === undefined)) {
@@ -751,6 +765,9 @@ export function validateModel(model: Model): ModelIssue[] {
     if (d.source !== undefined && !isInjection(d.source)) {
       add('unknown-reference', 'devices', i, d.id, 'source', `unknown source "${d.source}" (a source or motor id)`);
     }
+    d.onlyAt?.busIds.forEach((b, k) => {
+      if (!busIndex.has(b)) add('unknown-reference', 'devices', i, d.id, `onlyAt.busIds[${k}]`, `unknown bus "${b}"`);
+    });
   });
 
   // Islands: every bus must reach a utility or generator through transformers, cables and closed ties.

@@ -251,6 +251,8 @@ function faultPicture(ctx: PictureContext, bus: Bus): FaultPicture {
   for (const i of fault.injections) deviceIndices.push(...(ctx.devicesBySource.get(i.id) ?? []));
   deviceIndices.sort((x, y) => x - y);
   for (const placed of deviceIndices.map((k) => model.devices[k])) {
+    // An arc-flash relay or a maintenance-switch element acts only for arcs at the buses it names.
+    if (placed.onlyAt && !placed.onlyAt.busIds.includes(bus.id)) continue;
     if (placed.branch) {
       const b = branchById.get(placed.branch);
       if (!b || b.direction === 'none') continue;
