@@ -185,6 +185,7 @@ const NOTES: Record<ElementTable, Record<string, string>> = {
     'device.kind': 'relay, fuse, band, thermal-magnetic or electronic (repeats the device column)',
     device: 'The device object as JSON',
     library: 'Library device type and switch positions, as JSON',
+    onlyAt: 'Acts only for arcs at these buses, as JSON: {"busIds": [...], "purpose": "arc-flash-relay" or "maintenance-switch"}; empty: every fault',
   },
 };
 
@@ -200,7 +201,7 @@ const ELEMENT_SCHEMAS: Record<ElementTable, z.ZodType> = {
 };
 
 /** Fields kept whole in one JSON cell: device settings are too deep for flat columns. */
-const JSON_FIELDS = new Set(['device', 'library']);
+const JSON_FIELDS = new Set(['device', 'library', 'onlyAt']);
 
 /** The columns of one object shape: nested objects flattened to dotted paths, in the order of the shape. */
 function objectColumns(schema: z.ZodObject, prefix: readonly string[], parentRequired: boolean): Column[] {

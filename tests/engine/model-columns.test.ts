@@ -68,7 +68,7 @@ const FORMAT_FIELDS: Record<ElementTable, string[]> = {
   ],
   ties: ['id', 'name', 'fromBus', 'toBus', 'closed'],
   // The device object and the library reference as JSON; device.kind repeated for sorting.
-  devices: ['id', 'name', 'branch', 'end', 'source', 'device.kind', 'device', 'library'],
+  devices: ['id', 'name', 'branch', 'end', 'source', 'device.kind', 'device', 'library', 'onlyAt'],
 };
 
 // docs/MODEL-FORMAT.md, Operating scenarios: one row per scenario and element it overrides. The scenario's own
@@ -145,6 +145,7 @@ describe('model tables generated from the zod shapes', () => {
     const devices = byHeader('devices');
     expect(devices.get('device')).toMatchObject({ type: 'json', required: true });
     expect(devices.get('library')?.type).toBe('json');
+    expect(devices.get('onlyAt')?.type).toBe('json');
     expect(devices.get('device.kind')?.type).toBe('string');
     expect(devices.get('device.kind')?.required).toBeUndefined();
   });

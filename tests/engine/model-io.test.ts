@@ -502,6 +502,7 @@ describe('workbook layout', () => {
       'device.kind',
       'device',
       'library',
+      'onlyAt',
     ]);
     const about = workbook.getWorksheet('About')!;
     const aboutText = about
