@@ -35,6 +35,8 @@ export const PERMISSIONS = {
   runStudy: ['engineer'],
   /** Submit a draft for review, return it to draft, approve it, start a new revision from an approved one. */
   approveStudy: ['engineer'],
+  /** Mitigation options for a bus, and applying one in a new draft revision. */
+  mitigate: ['engineer'],
   /** The study report PDF. */
   downloadReport: ['engineer', 'safety', 'admin'],
   /** Make label PDFs (print batches, all labels of a revision). */
@@ -120,6 +122,7 @@ export const CAPABILITY_ROUTES: Partial<Record<Capability, readonly string[]>> =
     'POST /studies/:studyId/approve',
     'POST /studies/:studyId/revise',
   ],
+  mitigate: ['POST /studies/:studyId/mitigate', 'POST /studies/:studyId/mitigate/apply'],
   downloadReport: ['GET /studies/:studyId/report.pdf'],
   printLabels: [
     'POST /label-batches',

@@ -8,6 +8,7 @@ import { compareRoutes } from './compare';
 import { labelBatchRoutes, studyReportRoute } from './labelBatches';
 import { labelFieldRoutes, labelRoutes } from './labels';
 import { mailRoutes } from './mail';
+import { mitigationRoutes } from './mitigation';
 import { oneLineRoutes } from './oneLine';
 import { organizationRoutes } from './organization';
 import { deviceRoutes } from './devices';
@@ -41,6 +42,7 @@ export function allRoutes(opts: RouteOptions): AnyRoute[] {
     ...studyIoRoutes,
     ...oneLineRoutes,
     ...compareRoutes,
+    ...mitigationRoutes,
     ...labelRoutes({ publicCheckPerMinute: opts.publicCheckPerMinute }),
     ...labelFieldRoutes,
     ...labelBatchRoutes,

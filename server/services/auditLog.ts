@@ -24,6 +24,7 @@ const PHRASES: Record<string, string> = {
   'study.approved': 'Study approved',
   'study.created': 'Study created',
   'study.model-updated': 'Study model changed',
+  'study.mitigation-applied': 'Mitigation option applied in a new revision',
   'study.model-imported': 'Model imported into study',
   'study.returned-to-draft': 'Study returned to draft',
   'study.revision-started': 'New study revision started',

@@ -25,6 +25,19 @@ interface RunSettings {
 }
 
 /**
+ * The engine's options a run starts with, from the organization's settings. Whatever else evaluates a model as a run
+ * would (mitigation options, server/services/mitigation.ts) uses exactly these, so a run gives the same numbers.
+ */
+export function runSettingsOf(settings: OrganizationSettings): StudyOptions & RunSettings {
+  return {
+    maxArcDurationMs: settings.maxArcDurationMs,
+    motorDecayCycles: DEFAULT_MOTOR_DECAY_CYCLES,
+    motorDecayModel: settings.motorDecayModel,
+    labelSettings: labelSettingsOf(settings),
+  };
+}
+
+/**
  * Starts a run of a draft's current model as a background job and returns at once (202). The run row holds the
  * model and settings snapshots, the progress, and at the end the results with their whole trace.
  */
@@ -43,13 +56,7 @@ export async function startRun(ctx: AppContext, actor: AuthUser, studyId: string
   }
   const active = await StudyRun.findOne({ where: { studyId: study.id, status: { [Op.in]: ['queued', 'running'] } } });
   if (active) return toRunDto(active);
-  const settings = await getSettings(actor.organizationId);
-  const runSettings: RunSettings = {
-    maxArcDurationMs: settings.maxArcDurationMs,
-    motorDecayCycles: DEFAULT_MOTOR_DECAY_CYCLES,
-    motorDecayModel: settings.motorDecayModel,
-    labelSettings: labelSettingsOf(settings),
-  };
+  const runSettings = runSettingsOf(await getSettings(actor.organizationId));
   const run = await ctx.db.sequelize.transaction(async (transaction) => {
     const r = await StudyRun.create(
       {

@@ -139,7 +139,7 @@ export async function getStudyDto(ctx: AppContext, actor: AuthUser, studyId: str
  * writes already take turns), so two revisions started at once on one site wait for each other instead of both
  * reading the same maximum and one failing on the unique (site, revision) index.
  */
-async function nextRevision(siteId: string, transaction: Transaction): Promise<number> {
+export async function nextRevision(siteId: string, transaction: Transaction): Promise<number> {
   await Site.findByPk(siteId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id'] });
   const max = (await Study.max('revision', { where: { siteId }, transaction })) as number | null;
   return (max ?? 0) + 1;

@@ -5,6 +5,7 @@ import { createScenarioRunner, type StudyOptions, type StudyRunOutcome } from '.
 import { log } from '../log';
 import { generatedPlant } from '../seed/generatedPlant';
 import { yieldToLoop } from './jobs';
+import { mitigationOutcome, type MitigationOutcome } from '../engine/mitigation';
 import { scenarioBusResult, type ScenarioBusOutcome } from './scenarioBus';
 
 /**
@@ -36,7 +37,20 @@ const { parentPort, workerData } = require('node:worker_threads');
 try { require('tsx/cjs/api').register(); } catch (e) { /* already JavaScript */ }
 const { runAllBuses } = require(workerData.modulePath);
 let busModule = null;
+let mitigationModule = null;
 parentPort.on('message', (msg) => {
+  if (msg && msg.type === 'mitigate') {
+    let result;
+    try {
+      mitigationModule = mitigationModule || require(workerData.mitigationModulePath);
+      result = mitigationModule.mitigationOutcome(msg.model, msg.busId, msg.targetCalPerCm2, msg.options);
+    } catch (e) {
+      parentPort.postMessage({ type: 'error', id: msg.id, message: e && e.message ? e.message : String(e) });
+      return;
+    }
+    parentPort.postMessage({ type: 'done', id: msg.id, outcome: result });
+    return;
+  }
   if (msg && msg.type === 'bus') {
     let result;
     try {
@@ -142,6 +156,7 @@ function startSlot(): Slot {
     workerData: {
       modulePath: path.join(__dirname, '..', 'engine', 'study', 'runAll'),
       busModulePath: path.join(__dirname, 'scenarioBus'),
+      mitigationModulePath: path.join(__dirname, '..', 'engine', 'mitigation'),
     },
     resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
   });
@@ -378,5 +393,36 @@ export async function scenarioBusOffThread(
     if (!(e instanceof WorkerUnavailable)) throw e;
     log.warn({ err: e }, 'study worker unavailable; computing the scenario bus in the main thread');
     return scenarioBusResult(JSON.parse(modelJson) as Model, options, scenarioId, busId, key);
+  }
+}
+
+/**
+ * Mitigation options for one bus (server/engine/mitigation) in a warm study worker: the search runs the study engine
+ * on every candidate patch (and every other bus for each option), which for anything but a small model takes long
+ * enough to hold up other requests. `modelJson` is the study's checked model as JSON text. Where no worker can start
+ * it is computed in the main thread (logged).
+ */
+export async function mitigationOffThread(
+  modelJson: string,
+  options: StudyOptions,
+  busId: string,
+  targetCalPerCm2: number,
+): Promise<MitigationOutcome> {
+  try {
+    return await inWorker<MitigationOutcome>(
+      (id) => ({
+        type: 'mitigate',
+        id,
+        model: modelJson,
+        options: JSON.parse(JSON.stringify(options)) as unknown,
+        busId,
+        targetCalPerCm2,
+      }),
+      {},
+    );
+  } catch (e) {
+    if (!(e instanceof WorkerUnavailable)) throw e;
+    log.warn({ err: e }, 'study worker unavailable; computing the mitigation options in the main thread');
+    return mitigationOutcome(modelJson, busId, targetCalPerCm2, options);
   }
 }

@@ -8,6 +8,7 @@ import type { Endpoint } from './endpoint';
 import { labelBatchesApi } from './labelBatches';
 import { labelsApi } from './labels';
 import { mailApi } from './mail';
+import { mitigationApi } from './mitigation';
 import { oneLineApi } from './oneLine';
 import { organizationApi } from './organization';
 import { sitesApi } from './sites';
@@ -34,6 +35,7 @@ export const contract = {
   studies: studiesApi,
   oneLine: oneLineApi,
   compare: compareApi,
+  mitigation: mitigationApi,
   labels: labelsApi,
   labelBatches: labelBatchesApi,
   attention: attentionApi,

@@ -43,7 +43,7 @@ export function hazardOf(model: Model, r: BusResult): MitigationHazard {
     arcDurationCapped: governingCase?.arcDurationCapped ?? false,
     governing: g,
     clearingDeviceId,
-    clearingDeviceName: clearing ? clearing.name : null,
+    clearingDeviceName: clearing ? (clearing.name ?? clearing.id) : null,
     clearingRegion: governingCase?.clearingRegion ?? null,
     ...(r.scenarioId !== undefined ? { scenarioId: r.scenarioId } : {}),
     ppeLevel: r.labelValues.ppeLevel?.name ?? null,

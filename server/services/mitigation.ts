@@ -1,0 +1,188 @@
+/**
+ * Mitigation options for a bus of a revision (POST /studies/:id/mitigate) and applying one in a new draft revision
+ * (POST /studies/:id/mitigate/apply). The options are computed by the engine (server/engine/mitigation) on the
+ * revision's checked model with the organization's run settings, exactly as a run of that revision would start
+ * (`runSettingsOf`), so running a revision made from an option's patch gives the energy the option promised.
+ */
+import { randomUUID } from 'node:crypto';
+import { LRUCache } from 'lru-cache';
+import { Op, type Transaction } from 'sequelize';
+import { applyModelPatch, ModelPatchError } from '../../shared/modelPatch';
+import type {
+  ApplyMitigationRequest,
+  ApplyMitigationResponse,
+  MitigateRequest,
+  MitigationResponse,
+} from '../../shared/schemas/mitigation';
+import type { Model } from '../../shared/schemas/model';
+import { Study } from '../db/models';
+import { mitigationOutcome, type MitigationOutcome } from '../engine/mitigation';
+import { recordAudit } from './audit';
+import type { AppContext, AuthUser } from './context';
+import { ApiError, modelIssuesError } from './errors';
+import { checkModelText } from './modelCheck';
+import { getSettings } from './organization';
+import { runSettingsOf } from './runs';
+import { findStudy } from './scope';
+import { nextRevision, toStudyDtos } from './studies';
+import { mitigationOffThread } from './studyWorker';
+
+/**
+ * Models up to this much JSON (some 50 buses) are searched in the main thread: the search evaluates the whole model
+ * once per candidate, a few milliseconds each for such a model, less than handing it to the study worker. Larger
+ * models go to the worker, so an engineer asking for options never holds up the other requests.
+ */
+export const MITIGATION_MAIN_THREAD_MAX_CHARS = 30_000;
+
+/**
+ * Answers kept by everything they depend on (the checked model's text, the run settings, the bus and the target):
+ * the screen asks again when it returns to a bus, and applying an option recomputes the same answer.
+ */
+const answers = new LRUCache<string, Omit<MitigationResponse, 'studyId'>>({ max: 32 });
+const inFlight = new Map<string, Promise<MitigationOutcome>>();
+
+/** Clears the kept answers (tests). */
+export function clearMitigationAnswers(): void {
+  answers.clear();
+}
+
+async function computeOptions(
+  actor: AuthUser,
+  study: Study,
+  busId: string,
+  targetCalPerCm2: number,
+): Promise<Omit<MitigationResponse, 'studyId'>> {
+  const checked = checkModelText(study.model);
+  if (checked.snapshot === null) throw modelIssuesError([...checked.issues], 'model.');
+  const snapshot = checked.snapshot;
+  const options = runSettingsOf(await getSettings(actor.organizationId));
+  const key = `${JSON.stringify(options)}\n${busId}\n${targetCalPerCm2}\n${snapshot}`;
+  const hit = answers.get(key);
+  if (hit) return hit;
+  let computing = inFlight.get(key);
+  if (!computing) {
+    computing =
+      snapshot.length <= MITIGATION_MAIN_THREAD_MAX_CHARS
+        ? Promise.resolve().then(() => mitigationOutcome(snapshot, busId, targetCalPerCm2, options))
+        : mitigationOffThread(snapshot, options, busId, targetCalPerCm2);
+    inFlight.set(key, computing);
+    void computing.then(
+      () => inFlight.delete(key),
+      () => inFlight.delete(key),
+    );
+  }
+  const outcome = await computing;
+  if (outcome.kind === 'invalid') {
+    const field = outcome.field ?? 'busId';
+    throw new ApiError('bad_request', outcome.message, { [field]: outcome.message });
+  }
+  answers.set(key, outcome.response);
+  return outcome.response;
+}
+
+/** The options for one bus of any revision the engineer sees (draft, in review, approved, superseded). */
+export async function mitigationOptions(
+  actor: AuthUser,
+  studyId: string,
+  body: MitigateRequest,
+): Promise<MitigationResponse> {
+  const study = await findStudy(actor, studyId);
+  const response = await computeOptions(actor, study, body.busId, body.targetCalPerCm2);
+  return { studyId: study.id, ...response };
+}
+
+/** 409 unless a new revision may start from `from`: approved or superseded, and no other revision of the site open. */
+async function requireRevisable(from: Study, transaction?: Transaction): Promise<void> {
+  if (from.status === 'draft' || from.status === 'in-review') {
+    throw ApiError.conflict(
+      `Revision ${from.revision} is still ${from.status}: edit it (or its model) instead of applying an option to a new revision`,
+    );
+  }
+  const open = await Study.findOne({
+    where: { siteId: from.siteId, status: { [Op.in]: ['draft', 'in-review'] } },
+    attributes: ['id', 'revision', 'status'],
+    transaction,
+  });
+  if (open) {
+    throw ApiError.conflict(
+      `Revision ${open.revision} of this site is already open (${open.status}); finish it before applying an option to a new revision`,
+    );
+  }
+}
+
+/**
+ * A new draft revision of the site (like POST /studies/:id/revise) whose model is this revision's with the option's
+ * patch applied. The option is computed again here from the stored model (never taken from the client).
+ */
+export async function applyMitigation(
+  ctx: AppContext,
+  actor: AuthUser,
+  studyId: string,
+  body: ApplyMitigationRequest,
+): Promise<ApplyMitigationResponse> {
+  const from = await findStudy(actor, studyId);
+  await requireRevisable(from);
+  const response = await computeOptions(actor, from, body.busId, body.targetCalPerCm2);
+  const option = response.options.find((o) => o.id === body.optionId);
+  if (!option) {
+    const ids = response.options.map((o) => o.id);
+    const message = `No option "${body.optionId}" for bus ${body.busId} at ${body.targetCalPerCm2} cal/cm²${
+      ids.length ? ` (the options are ${ids.join(', ')})` : ' (there is no option for this bus)'
+    }`;
+    throw new ApiError('bad_request', message, { optionId: message });
+  }
+  // The patch is applied to the model as stored (the engineer's own text, not its checked form): the revision keeps
+  // every element as written and differs only by the option's change.
+  let text: string;
+  try {
+    text = JSON.stringify(applyModelPatch(JSON.parse(from.model) as Model, option.modelPatch));
+  } catch (e) {
+    if (e instanceof ModelPatchError) throw new ApiError('bad_request', e.message, { optionId: e.message });
+    throw e;
+  }
+  const checked = checkModelText(text);
+  if (checked.snapshot === null) throw modelIssuesError([...checked.issues], 'model.');
+
+  const study = await ctx.db.sequelize.transaction(async (transaction) => {
+    const source = await findStudy(actor, studyId, transaction);
+    await requireRevisable(source, transaction);
+    if (source.model !== from.model)
+      throw ApiError.conflict('This revision changed meanwhile; ask for the options again');
+    const s = await Study.create(
+      {
+        id: randomUUID(),
+        organizationId: actor.organizationId,
+        siteId: source.siteId,
+        revision: await nextRevision(source.siteId, transaction),
+        title: source.title,
+        status: 'draft',
+        model: text,
+        modelUpdatedAt: ctx.now(),
+        lastEditedById: actor.id,
+        parentStudyId: source.id,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        organizationId: actor.organizationId,
+        actorId: actor.id,
+        action: 'study.mitigation-applied',
+        entityType: 'study',
+        entityId: s.id,
+        summary: {
+          from: source.id,
+          revision: s.revision,
+          busId: body.busId,
+          optionId: option.id,
+          kind: option.kind,
+          targetCalPerCm2: body.targetCalPerCm2,
+          promisedCalPerCm2: option.result.incidentEnergyCalPerCm2,
+        },
+      },
+      transaction,
+    );
+    return s;
+  });
+  return { study: (await toStudyDtos(ctx, actor.organizationId, [study]))[0], option };
+}
