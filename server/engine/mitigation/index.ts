@@ -4,24 +4,20 @@
  * a large model: `mitigationOutcome` is the worker's call, it answers a bad bus as data instead of throwing across
  * the thread boundary). Pure: no I/O, no clock.
  */
-import type { MitigationKind, MitigationResponse, Selectivity } from '../../../shared/schemas/mitigation';
+import type { MitigationKind, MitigationResponse } from '../../../shared/schemas/mitigation';
 import type { Model } from '../../../shared/schemas/model';
 import { EngineError } from '../errors';
 import type { StudyOptions } from '../study';
-import { mitigateBus, type OptionGenerator, type SelectivityCheck } from './search';
+import { arcFlashRelay, currentLimitingFuse, lineSideIsolation } from './additions';
+import { mitigateBus, type OptionGenerator } from './search';
+import { checkSelectivity } from './selectivity';
 
 /** Every option generator, in the order their options are proposed (the search sorts them best first). */
-export const GENERATORS: { kind: MitigationKind; generate: OptionGenerator }[] = [];
-
-/** The verdict of a change that moves no band of the devices downstream (an arc-flash relay, an isolated main). */
-const selectivity: SelectivityCheck = ({ mode }) => {
-  if (mode !== 'not-affected') throw new Error(`No selectivity check for mode ${mode}`);
-  return {
-    verdict: 'not-affected',
-    sentence: 'Selectivity is not affected: the change moves no time-current band of the devices downstream.',
-    checks: [],
-  } satisfies Selectivity;
-};
+export const GENERATORS: { kind: MitigationKind; generate: OptionGenerator }[] = [
+  { kind: 'arc-flash-relay', generate: arcFlashRelay },
+  { kind: 'current-limiting-fuse', generate: currentLimitingFuse },
+  { kind: 'line-side-isolation', generate: lineSideIsolation },
+];
 
 /** The options for one bus of a model: best first, each evaluated by the study engine on the patched model. */
 export function mitigate(
@@ -30,7 +26,7 @@ export function mitigate(
   targetCalPerCm2: number,
   options: StudyOptions,
 ): Omit<MitigationResponse, 'studyId'> {
-  return mitigateBus({ model, busId, targetCalPerCm2, options, generators: GENERATORS, selectivity });
+  return mitigateBus({ model, busId, targetCalPerCm2, options, generators: GENERATORS, selectivity: checkSelectivity });
 }
 
 /** What the worker answers: the options, or why the bus cannot be mitigated (the field it names). */
