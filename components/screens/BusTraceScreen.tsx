@@ -1,5 +1,5 @@
 import { useQueries } from '@tanstack/react-query';
-import { Link } from 'expo-router';
+import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
 import { View } from 'react-native';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
@@ -16,6 +16,7 @@ import {
 import { callApi } from '../../hooks/api';
 import { contract } from '../../shared/api';
 import { queryKeys } from '../../hooks/queryKeys';
+import { useCan } from '../../hooks/permissions';
 import { useBusResult } from '../../hooks/results';
 import { useStudy } from '../../hooks/studies';
 import { useLayout } from '../../hooks/useLayout';
@@ -25,7 +26,7 @@ import { Cautions, HazardMark } from '../Cautions';
 import { signalPanelColors } from '../../shared/safetyColors';
 import { TimeCurrentPlot } from '../plot/TimeCurrentPlot';
 import { colors, fonts, radius, space } from '../theme';
-import { Card, Choice, Notice, Num, Screen, T, ValueRow } from '../ui';
+import { Button, Card, Choice, Notice, Num, Screen, T, ValueRow } from '../ui';
 import { ArcRating } from '../labels/ArcRating';
 import { ScenarioSwitch, scenarioBasisSentence } from '../results/ScenarioSwitch';
 
@@ -243,6 +244,8 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
 export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: string }) {
   const { wide } = useLayout();
   const { system } = useUnitSystem();
+  const can = useCan();
+  const router = useRouter();
   const study = useStudy(studyId);
   // The governing scenario's trace (the label's basis) always; another scenario's when one is chosen.
   const [scenario, setScenario] = useState<string | undefined>(undefined);
@@ -451,6 +454,18 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
     <Screen
       title={`${bus.busId} · ${bus.busName}`}
       subtitle={`Clearing trace${shownName ? ` · ${shownName}` : ''} · ${fmt(busKv)} kV · bolted fault ${fmt(bus.boltedFaultKa)} kA (X/R ${fmt(bus.xr)})`}
+      actions={
+        // Options that bring the label's energy down (an engineer's; the mitigation view computes them).
+        can('mitigate') && labelBus.incidentEnergyCalPerCm2 !== undefined ? (
+          <Button
+            title="Bring this down"
+            kind="secondary"
+            testID="bring-down"
+            accessibilityLabel={`Bring the incident energy of ${labelBus.busId} down: mitigation options`}
+            onPress={() => router.push(`/studies/${studyId}/mitigate/${encodeURIComponent(labelBus.busId)}`)}
+          />
+        ) : undefined
+      }
     >
       <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
         ← All results
