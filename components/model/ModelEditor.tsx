@@ -39,6 +39,8 @@ export interface ModelEditorProps {
   warnings?: readonly ModelWarning[];
   /** The study whose last run gives a device's bus currents in the device settings editor. */
   studyId?: string;
+  /** Optional: open the settings and band of this placed device (e.g. tapped on the one-line). A new object each time opens again. */
+  openDeviceRequest?: { id: string } | null;
 }
 
 const NO_WARNINGS: readonly ModelWarning[] = [];
@@ -52,6 +54,7 @@ export function ModelEditor({
   focus: focusRequest,
   warnings = NO_WARNINGS,
   studyId,
+  openDeviceRequest,
 }: ModelEditorProps) {
   const { wide } = useLayout();
   const {
@@ -83,6 +86,14 @@ export function ModelEditor({
     },
     [latest],
   );
+  // A request from outside opens that device's settings once per request (the section is opened by `focus`).
+  const [seenOpen, setSeenOpen] = useState<{ id: string } | null | undefined>(null);
+  if (openDeviceRequest !== seenOpen) {
+    setSeenOpen(openDeviceRequest);
+    const req = openDeviceRequest;
+    const index = req ? (model.devices ?? []).findIndex((d) => d.id === req.id) : -1;
+    if (req && index >= 0) setDeviceOpen((o) => ({ index, id: req.id, nonce: (o?.nonce ?? 0) + 1 }));
+  }
   const ctx = useMemo(
     () => (section === 'devices' ? { ...sectionCtx, openDevice } : sectionCtx),
     [sectionCtx, section, openDevice],

@@ -1,7 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
 import { useRouter } from 'expo-router';
 import React, { useEffect, useMemo, useRef, useState } from 'react';
-import { PanResponder, Platform, View, type GestureResponderEvent, type LayoutChangeEvent } from 'react-native';
+import {
+  PanResponder,
+  Platform,
+  Pressable,
+  View,
+  type GestureResponderEvent,
+  type LayoutChangeEvent,
+} from 'react-native';
 import Svg, { Circle, G, Polyline, Rect, Text as SvgText } from 'react-native-svg';
 import { contract } from '../../shared/api';
 import type { Box, DrawnElement, OneLineDrawing, Shape, Tone } from '../../shared/oneLine/geometry';
@@ -21,6 +28,17 @@ const PALETTE: Record<Tone, string> = {
   problem: colors.danger,
   surface: colors.surface,
 };
+
+/** A device's kind in words, for its accessibility label. */
+const DEVICE_WORDS: Record<NonNullable<DrawnElement['deviceKind']>, string> = {
+  relay: 'relay',
+  fuse: 'fuse',
+  'thermal-magnetic': 'thermal-magnetic breaker',
+  electronic: 'electronic trip unit',
+  band: 'digitized band',
+};
+export const deviceA11yLabel = (e: DrawnElement) =>
+  `Device ${e.id}${e.deviceKind ? `, ${DEVICE_WORDS[e.deviceKind]}` : ''} — open its band`;
 
 const MIN_SCALE = 0.03;
 const MAX_SCALE = 4;
@@ -153,6 +171,11 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
     });
 
   const open = (e: DrawnElement) => {
+    // A device: its settings and band (the model's device editor); anything else: the clearing trace of its bus.
+    if (e.kind === 'device') {
+      router.push(`/studies/${study.id}?tab=model&device=${encodeURIComponent(e.id)}`);
+      return;
+    }
     const bus = e.kind === 'bus' ? e.id : e.busId;
     if (bus) router.push(`/studies/${study.id}/bus/${encodeURIComponent(bus)}`);
   };
@@ -333,8 +356,8 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
         />
       ) : null}
       <T variant="small">
-        Tap a bus for its clearing trace; a device or branch opens the trace of the bus it protects. Drag to move;
-        pinch, the mouse wheel or the buttons to zoom.
+        Tap a bus for its clearing trace, a device for its band; a branch opens the trace of the bus it feeds. Drag to
+        move; pinch, the mouse wheel or the buttons to zoom.
       </T>
       <View
         ref={canvas}
@@ -384,6 +407,27 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
             </G>
           </Svg>
         ) : null}
+        {size.w > 0
+          ? d.elements.map((e) => {
+              // Each device in view is a button over its symbol and id (at least 24 px square): tap → its band.
+              if (e.kind !== 'device' || !visible(e.box)) return null;
+              const hb = hitBox(e);
+              const w = Math.max(24, hb.w * v.s);
+              const h = Math.max(24, hb.h * v.s);
+              const left = v.tx + (hb.x + hb.w / 2) * v.s - w / 2;
+              const top = v.ty + (hb.y + hb.h / 2) * v.s - h / 2;
+              if (left + w < 0 || top + h < 0 || left > size.w || top > size.h) return null;
+              return (
+                <Pressable
+                  key={`press-${e.id}`}
+                  accessibilityRole="button"
+                  accessibilityLabel={deviceA11yLabel(e)}
+                  onPress={() => open(e)}
+                  style={{ position: 'absolute', left, top, width: w, height: h, cursor: 'pointer' } as object}
+                />
+              );
+            })
+          : null}
       </View>
       {d.notes.map((n) => (
         <T key={n} variant="small">

@@ -1,4 +1,5 @@
-import React, { useDeferredValue, useMemo, useState } from 'react';
+import React, { useDeferredValue, useEffect, useMemo, useState } from 'react';
+import { useLocalSearchParams } from 'expo-router';
 import { Platform, View } from 'react-native';
 import { parseModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
 import type { StudyDto } from '../../shared/schemas/studies';
@@ -119,6 +120,9 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   const [saved, setSaved] = useState<string | null>(null);
   const [focus, setFocus] = useState<{ collection: string; index: number } | null>(null);
   const [showTree, setShowTree] = useState(true);
+  // `?device=ID` (a device tapped on the one-line): its settings and band open, in the devices section.
+  const { device: deviceParam } = useLocalSearchParams<{ device?: string }>();
+  const [openDevice, setOpenDevice] = useState<{ id: string } | null>(null);
 
   // Unsaved edits live in the draft store (kept across the study's tabs); without them the editor shows the server's
   // copy, so a clean editor follows the server and unsaved edits are never overwritten silently.
@@ -126,6 +130,17 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   const dirty = stored?.dirty ?? false;
   const draft: ModelInput | null = stored?.draft ?? envelope.data?.model ?? null;
   const baseVersion = stored?.baseVersion ?? envelope.data?.version ?? 0;
+
+  const modelReady = !!draft;
+  useEffect(() => {
+    if (!deviceParam || !modelReady) return;
+    const index = (draft?.devices ?? []).findIndex((d) => d.id === deviceParam);
+    if (index < 0) return;
+    setFocus({ collection: 'devices', index });
+    setOpenDevice({ id: deviceParam });
+    // Once per device asked for and model loaded (edits to the draft do not reopen it).
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [deviceParam, modelReady]);
 
   const deferred = useDeferredValue(draft);
   // Plausibility warnings (never blocking) as the server gives them: on a model that parses, computed as it is typed.
@@ -220,6 +235,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
         editable={editable}
         deviceTypes={deviceTypes.data ?? []}
         focus={focus}
+        openDeviceRequest={openDevice}
       />
     </View>
   );

@@ -6,7 +6,7 @@ import { modelSchema, validateModel, type Model, type ModelIssue } from '../../s
 import type { StudyResults } from '../../shared/schemas/studyResults';
 import type { BusHazard, OneLineDrawing } from '../../shared/oneLine/geometry';
 import { hazardsFromResults } from '../../shared/oneLine/hazards';
-import { layoutOneLine } from '../../shared/oneLine/layout';
+import { defaultCollapsed, layoutOneLine } from '../../shared/oneLine/layout';
 import { oneLineSvg } from '../../shared/oneLine/svg';
 import { StudyRun } from '../db/models';
 import type { AuthUser } from './context';
@@ -21,7 +21,15 @@ export interface StudyOneLine {
   scenarioId: string | null;
 }
 
-export async function studyOneLine(actor: AuthUser, studyId: string, scenarioId?: string): Promise<StudyOneLine> {
+/** Which subtrees to collapse: these bus ids; none (`'none'`); or the default for the model's size (undefined). */
+export type CollapseRequest = string[] | 'none' | undefined;
+
+export async function studyOneLine(
+  actor: AuthUser,
+  studyId: string,
+  scenarioId?: string,
+  collapse?: CollapseRequest,
+): Promise<StudyOneLine> {
   const study = await findStudy(actor, studyId);
   const input = JSON.parse(study.model) as unknown;
   // The structure must parse to be drawn; semantic problems (unknown references, islands, …) are drawn and marked.
@@ -46,7 +54,14 @@ export async function studyOneLine(actor: AuthUser, studyId: string, scenarioId?
   const hazards = run?.results
     ? hazardsFromResults(JSON.parse(run.results) as StudyResults)
     : new Map<string, BusHazard>();
-  const drawing = layoutOneLine(model, { hazards, problems, scenarioId });
+  const collapsed = collapse === 'none' ? [] : (collapse ?? defaultCollapsed(model));
+  const unknown = collapsed.filter((id) => !model.buses.some((b) => b.id === id));
+  if (unknown.length) {
+    throw new ApiError('bad_request', `Unknown bus "${unknown[0]}" to collapse`, {
+      collapsed: `No bus ${unknown[0]} in this model`,
+    });
+  }
+  const drawing = layoutOneLine(model, { hazards, problems, scenarioId, collapsed });
   if (run?.results && run.modelVersion !== study.modelVersion) {
     drawing.notes.push('The model changed after the run shown: run the study again for current values.');
   }
@@ -62,7 +77,12 @@ export async function studyOneLine(actor: AuthUser, studyId: string, scenarioId?
   };
 }
 
-export async function studyOneLineSvg(actor: AuthUser, studyId: string, scenarioId?: string): Promise<string> {
-  const { drawing, title } = await studyOneLine(actor, studyId, scenarioId);
+export async function studyOneLineSvg(
+  actor: AuthUser,
+  studyId: string,
+  scenarioId?: string,
+  collapse?: CollapseRequest,
+): Promise<string> {
+  const { drawing, title } = await studyOneLine(actor, studyId, scenarioId, collapse);
   return oneLineSvg(drawing, { title });
 }

@@ -8,6 +8,17 @@ export const oneLineQuerySchema = z.object({
     .max(120)
     .optional()
     .describe('Operating scenario whose out-of-service elements are drawn dashed (default: the model as written)'),
+  collapsed: z
+    .union([z.string().max(64), z.array(z.string().max(64)).max(5000)])
+    .optional()
+    .transform((v) => (v === undefined ? undefined : (Array.isArray(v) ? v : [v]).filter((id) => id !== '')))
+    .describe(
+      'Bus ids (repeat the parameter for each) whose subtrees are drawn as one summary box each; given, exactly these are collapsed. Without it a model of more than 150 buses opens with the subtrees below the second level collapsed.',
+    ),
+  expanded: z
+    .literal('all')
+    .optional()
+    .describe('"all": nothing collapsed, whatever the model’s size (when no `collapsed` is given)'),
 });
 
 const tone = z.enum(['ink', 'muted', 'accent', 'danger', 'caution', 'problem', 'surface']);
@@ -48,17 +59,35 @@ export const oneLineDrawingSchema = z
     elements: z.array(
       z.object({
         id: z.string(),
-        kind: z.enum(['bus', 'utility', 'generator', 'motor', 'transformer', 'cable', 'tie', 'device']),
+        kind: z.enum(['bus', 'utility', 'generator', 'motor', 'transformer', 'cable', 'tie', 'device', 'summary']),
         box,
         busId: z.string().optional(),
+        deviceKind: z.enum(['relay', 'fuse', 'thermal-magnetic', 'electronic', 'band']).optional(),
         dashed: z.boolean().optional(),
         problem: z.boolean().optional(),
+        subtree: z.object({ buses: z.number(), collapsed: z.boolean(), toggle: box }).optional(),
+        summary: z
+          .object({
+            of: z.string(),
+            buses: z.number(),
+            hidden: z.array(z.string()),
+            worst: z
+              .object({
+                busId: z.string(),
+                incidentEnergyCalPerCm2: z.number(),
+                signalWord: z.enum(['DANGER', 'WARNING']).nullable(),
+              })
+              .optional(),
+          })
+          .optional(),
         shapes: z.array(shape),
       }),
     ),
     connections: z.array(
       z.object({ a: z.string(), b: z.string(), pts: z.array(z.number()), dashed: z.boolean().optional() }),
     ),
+    /** The buses drawn collapsed (each with one summary element). */
+    collapsed: z.array(z.string()),
     notes: z.array(z.string()),
   })
   .meta({ id: 'OneLineDrawing' });

@@ -28,7 +28,8 @@ export interface Box {
   h: number;
 }
 
-export type ElementKind = 'bus' | 'utility' | 'generator' | 'motor' | 'transformer' | 'cable' | 'tie' | 'device';
+export type ElementKind =
+  'bus' | 'utility' | 'generator' | 'motor' | 'transformer' | 'cable' | 'tie' | 'device' | 'summary';
 
 export interface DrawnElement {
   id: string;
@@ -37,10 +38,24 @@ export interface DrawnElement {
   box: Box;
   /** The bus a tap opens: the bus itself, or for a device the bus it protects. */
   busId?: string;
+  /** For a device: its kind (relay, fuse, …), for the words that name it. */
+  deviceKind?: 'relay' | 'fuse' | 'thermal-magnetic' | 'electronic' | 'band';
   /** Out of service in the scenario drawn, or an open tie. */
   dashed?: boolean;
-  /** Named in a model problem. */
+  /** Named in a model problem (for a summary: something inside it is). */
   problem?: boolean;
+  /** A bus that feeds further: how many buses its subtree holds, whether it is collapsed, and where the app puts its toggle (a place kept free beside the bus id). */
+  subtree?: { buses: number; collapsed: boolean; toggle: Box };
+  /**
+   * A collapsed subtree drawn as one box: the bus it hangs from, how many buses it holds, the ids of every element
+   * it stands for (buses first), and the highest incident energy among its buses.
+   */
+  summary?: {
+    of: string;
+    buses: number;
+    hidden: string[];
+    worst?: { busId: string; incidentEnergyCalPerCm2: number; signalWord: 'DANGER' | 'WARNING' | null };
+  };
   shapes: Shape[];
 }
 
@@ -57,6 +72,8 @@ export interface OneLineDrawing {
   height: number;
   elements: DrawnElement[];
   connections: Connection[];
+  /** The buses drawn collapsed (each with one summary element). */
+  collapsed: string[];
   /** Shown under the drawing (e.g. which scenario the dashes stand for). */
   notes: string[];
 }

@@ -9,6 +9,7 @@
  */
 import { Graph, layout as dagreLayout } from '@dagrejs/dagre';
 import { BASE_SCENARIO_ID, type Model, type PlacedDevice } from '../schemas/model';
+import type { DeviceKind } from '../schemas/device';
 import { formatCalPerCm2 } from '../labelDisplay';
 import {
   textWidth,
@@ -27,6 +28,8 @@ export interface OneLineOptions {
   problems?: ReadonlySet<string>;
   /** Scenario whose out-of-service elements are dashed (default: the model as written). */
   scenarioId?: string;
+  /** Buses whose subtree is drawn as one summary box (see `busTree`, `defaultCollapsed`). */
+  collapsed?: Iterable<string>;
 }
 
 const FONT = 11;
@@ -57,6 +60,7 @@ interface Item {
   dashed?: boolean;
   problem?: boolean;
   busId?: string;
+  deviceKind?: DeviceKind;
   draw: (cx: number, top: number, tone: Shape['tone'], dashed: boolean) => Shape[];
 }
 
@@ -72,6 +76,7 @@ const deviceItem = (d: PlacedDevice, busId: string | undefined, problem: boolean
     return {
       id: d.id,
       kind: 'device',
+      deviceKind: kind,
       w: 10,
       h: 22,
       label,
@@ -88,6 +93,7 @@ const deviceItem = (d: PlacedDevice, busId: string | undefined, problem: boolean
     return {
       id: d.id,
       kind: 'device',
+      deviceKind: kind,
       w: 16,
       h: 16,
       label,
@@ -104,6 +110,7 @@ const deviceItem = (d: PlacedDevice, busId: string | undefined, problem: boolean
   return {
     id: d.id,
     kind: 'device',
+    deviceKind: kind,
     w: 16,
     h: 16,
     label,
@@ -261,6 +268,7 @@ function drawStack(
       kind: it.kind,
       box: { x: cx - it.w / 2, y, w: it.w, h: it.h },
       busId: it.busId,
+      deviceKind: it.deviceKind,
       dashed: dashed || undefined,
       problem: it.problem || undefined,
       shapes,
@@ -286,7 +294,23 @@ interface BusBlockSpec {
   problem: boolean;
   /** Columns hanging under the bar (packed). */
   columns: Column[];
+  /** A bus that feeds further: the buses of its subtree and whether it is collapsed (the app's toggle). */
+  subtree?: { buses: number; collapsed: boolean };
 }
+
+const TOGGLE_FONT = 10;
+const TOGGLE_H = 15;
+/** The app's collapse toggle beside a bus id: its text and width (its place is kept free in every drawing). */
+export const toggleText = (t: { buses: number; collapsed: boolean }) =>
+  `${t.collapsed ? '+' : '−'} ${t.buses} bus${t.buses === 1 ? '' : 'es'}`;
+const toggleWidth = (t: { buses: number }) =>
+  textWidth(toggleText({ buses: t.buses, collapsed: true }), TOGGLE_FONT) + 12;
+/** Width of a bus's label: its lines, and its id (12 px, bold) followed by the toggle where it has one. */
+const busLabelWidth = (spec: BusBlockSpec) =>
+  Math.max(
+    labelWidth(spec.label),
+    textWidth(spec.label[0] ?? '', 12) + (spec.subtree ? 8 + toggleWidth(spec.subtree) : 0),
+  );
 
 /** A packed column: a stack of items, optionally ending on a leaf bus with its own columns (motors). */
 interface Column {
@@ -342,7 +366,7 @@ function columnSize(c: Column): void {
   for (const m of c.leaf.columns) columnSize(m);
   const motorsW = c.leaf.columns.reduce((s, m) => s + m.w + 8, 0);
   const labelH = c.leaf.label.length * LINE_H + 4;
-  c.w = Math.max(stackW, LEAF_LABEL_X + labelWidth(c.leaf.label) + 8, motorsW);
+  c.w = Math.max(stackW, LEAF_LABEL_X + busLabelWidth(c.leaf) + 8, motorsW);
   const motorsH = Math.max(0, ...c.leaf.columns.map((m) => m.h));
   c.h = stackH + labelH + BAR_H + (motorsH ? GAP + motorsH : 0);
 }
@@ -378,6 +402,17 @@ function drawBusBar(
     problem: spec.problem || undefined,
     shapes,
   };
+  if (spec.subtree) {
+    el.subtree = {
+      ...spec.subtree,
+      toggle: {
+        x: labelX + textWidth(spec.label[0] ?? '', 12) + 8,
+        y: labelTop,
+        w: toggleWidth(spec.subtree),
+        h: TOGGLE_H,
+      },
+    };
+  }
   out.elements.push(el);
   return el;
 }
@@ -400,67 +435,35 @@ function drawColumns(cols: Column[], busId: string, x0: number, barY: number, ou
   }
 }
 
-export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineDrawing {
-  const problems = opts.problems ?? new Set<string>();
-  const scenario =
-    opts.scenarioId && opts.scenarioId !== BASE_SCENARIO_ID
-      ? model.scenarios?.find((s) => s.id === opts.scenarioId)
-      : undefined;
-  const scenarioCount = 1 + (model.scenarios?.length ?? 0);
+/**
+ * The buses as a tree: each bus's level (breadth-first from the buses with sources, then from any bus not reached,
+ * over every branch whatever its state) and the bus it was reached from. A bus's subtree is what it was the first to
+ * reach; collapsing a bus hides its subtree.
+ */
+export function busTree(model: Model): { level: Map<string, number>; parent: Map<string, string> } {
   const busIds = new Set(model.buses.map((b) => b.id));
-
-  const branches: Branch[] = [
-    ...model.transformers.map((t) => ({
-      id: t.id,
-      kind: 'transformer' as const,
-      from: t.fromBus,
-      to: t.toBus,
-      open: false,
-    })),
-    ...model.cables.map((c) => ({ id: c.id, kind: 'cable' as const, from: c.fromBus, to: c.toBus, open: false })),
-    ...model.ties.map((t) => ({
-      id: t.id,
-      kind: 'tie' as const,
-      from: t.fromBus,
-      to: t.toBus,
-      open: !(scenario?.ties?.[t.id]?.closed ?? t.closed),
-    })),
-  ];
-  const sourceOut = (id: string) => scenario?.sources?.[id]?.inService === false;
-  const motorOut = (id: string) => !!scenario?.allMotorsOff || scenario?.motors?.[id]?.inService === false;
-
-  // Devices by what they sit on.
-  const devicesAt = new Map<string, PlacedDevice[]>();
-  const orphanDevices: PlacedDevice[] = [];
-  const branchIds = new Set(branches.map((b) => b.id));
-  const holderIds = new Set([...model.sources.map((s) => s.id), ...model.motors.map((m) => m.id)]);
-  for (const d of model.devices) {
-    const key = d.branch ? `${d.branch}:${d.end ?? 'from'}` : (d.source ?? '');
-    const known = d.branch ? branchIds.has(d.branch) : holderIds.has(d.source ?? '');
-    if (!known) {
-      orphanDevices.push(d);
-      continue;
+  const adj = new Map<string, string[]>();
+  for (const b of [...model.transformers, ...model.cables, ...model.ties]) {
+    if (b.fromBus === b.toBus || !busIds.has(b.fromBus) || !busIds.has(b.toBus)) continue;
+    for (const [a, z] of [
+      [b.fromBus, b.toBus],
+      [b.toBus, b.fromBus],
+    ]) {
+      const list = adj.get(a);
+      if (list) list.push(z);
+      else adj.set(a, [z]);
     }
-    devicesAt.set(key, [...(devicesAt.get(key) ?? []), d]);
-  }
-  const devItems = (key: string, busId: string | undefined) =>
-    (devicesAt.get(key) ?? []).map((d) => deviceItem(d, busId, problems.has(d.id)));
-
-  // Levels: breadth-first from the buses with sources (then from any bus not reached), over every branch.
-  const adj = new Map<string, Branch[]>();
-  for (const b of branches) {
-    if (b.from === b.to) continue;
-    for (const end of [b.from, b.to]) if (busIds.has(end)) adj.set(end, [...(adj.get(end) ?? []), b]);
   }
   const level = new Map<string, number>();
+  const parent = new Map<string, string>();
   const queue: string[] = [];
   const spread = () => {
     for (let head = 0; head < queue.length; head++) {
       const bus = queue[head];
-      for (const b of adj.get(bus) ?? []) {
-        const other = b.from === bus ? b.to : b.from;
-        if (!busIds.has(other) || level.has(other)) continue;
+      for (const other of adj.get(bus) ?? []) {
+        if (level.has(other)) continue;
         level.set(other, level.get(bus)! + 1);
+        parent.set(other, bus);
         queue.push(other);
       }
     }
@@ -480,14 +483,149 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     queue.push(b.id);
     spread();
   }
+  return { level, parent };
+}
+
+/** Above this many buses a diagram opens with the subtrees below the second level collapsed. */
+export const LARGE_MODEL_BUSES = 150;
+
+/**
+ * The buses collapsed when a diagram opens: none for a model of up to LARGE_MODEL_BUSES buses; above, every bus of
+ * the second level (one branch from a source's bus) that feeds further, so the first view shows two levels of buses
+ * and one summary per subtree.
+ */
+export function defaultCollapsed(model: Model): string[] {
+  if (model.buses.length <= LARGE_MODEL_BUSES) return [];
+  const { level, parent } = busTree(model);
+  const feeds = new Set(parent.values());
+  return model.buses.filter((b) => level.get(b.id) === 1 && feeds.has(b.id)).map((b) => b.id);
+}
+
+export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineDrawing {
+  const problems = opts.problems ?? new Set<string>();
+  const scenario =
+    opts.scenarioId && opts.scenarioId !== BASE_SCENARIO_ID
+      ? model.scenarios?.find((s) => s.id === opts.scenarioId)
+      : undefined;
+  const scenarioCount = 1 + (model.scenarios?.length ?? 0);
+  const busIds = new Set(model.buses.map((b) => b.id));
+  const { level, parent } = busTree(model);
+
+  // Subtrees: each bus's descendants; a collapsed bus (not itself inside a collapsed subtree) hides its own.
+  const children = new Map<string, string[]>();
+  for (const [c, p] of parent) {
+    const list = children.get(p);
+    if (list) list.push(c);
+    else children.set(p, [c]);
+  }
+  const descendants = (bus: string): string[] => {
+    const out: string[] = [];
+    const stack = [...(children.get(bus) ?? [])];
+    while (stack.length) {
+      const b = stack.pop()!;
+      out.push(b);
+      stack.push(...(children.get(b) ?? []));
+    }
+    return out;
+  };
+  const subtreeSize = new Map<string, number>();
+  for (const b of [...model.buses].sort((x, y) => level.get(y.id)! - level.get(x.id)!)) {
+    const n = (children.get(b.id) ?? []).reduce((s, c) => s + 1 + (subtreeSize.get(c) ?? 0), 0);
+    if (n) subtreeSize.set(b.id, n);
+  }
+  const hiddenBy = new Map<string, string>();
+  const collapsedOrder = [...new Set(opts.collapsed ?? [])]
+    .filter((id) => busIds.has(id) && subtreeSize.has(id))
+    .sort((a, b) => level.get(a)! - level.get(b)!);
+  const collapsed: string[] = [];
+  for (const bus of collapsedOrder) {
+    if (hiddenBy.has(bus)) continue;
+    collapsed.push(bus);
+    for (const d of descendants(bus)) hiddenBy.set(d, bus);
+  }
+  /** What each collapsed bus's summary stands for: the hidden buses, then every other hidden element. */
+  const hiddenIn = new Map<string, { buses: string[]; others: string[] }>(
+    collapsed.map((b) => [b, { buses: [], others: [] }]),
+  );
+  for (const b of model.buses) {
+    const owner = hiddenBy.get(b.id);
+    if (owner) hiddenIn.get(owner)!.buses.push(b.id);
+  }
+  const hide = (id: string, owner: string | undefined): boolean => {
+    if (!owner) return false;
+    hiddenIn.get(owner)!.others.push(id);
+    return true;
+  };
+  const ownerOf = (...buses: string[]) => buses.map((b) => hiddenBy.get(b)).find((o) => o !== undefined);
+
+  const allBranches: Branch[] = [
+    ...model.transformers.map((t) => ({
+      id: t.id,
+      kind: 'transformer' as const,
+      from: t.fromBus,
+      to: t.toBus,
+      open: false,
+    })),
+    ...model.cables.map((c) => ({ id: c.id, kind: 'cable' as const, from: c.fromBus, to: c.toBus, open: false })),
+    ...model.ties.map((t) => ({
+      id: t.id,
+      kind: 'tie' as const,
+      from: t.fromBus,
+      to: t.toBus,
+      open: !(scenario?.ties?.[t.id]?.closed ?? t.closed),
+    })),
+  ];
+  const hiddenHolders = new Map<string, string>();
+  const branches = allBranches.filter((b) => {
+    const owner = ownerOf(b.from, b.to);
+    if (owner) hiddenHolders.set(b.id, owner);
+    return !hide(b.id, owner);
+  });
+  const sources = model.sources.filter((s) => {
+    const owner = ownerOf(s.bus);
+    if (owner) hiddenHolders.set(s.id, owner);
+    return !hide(s.id, owner);
+  });
+  const motors = model.motors.filter((m) => {
+    const owner = ownerOf(m.bus);
+    if (owner) hiddenHolders.set(m.id, owner);
+    return !hide(m.id, owner);
+  });
+  const sourceOut = (id: string) => scenario?.sources?.[id]?.inService === false;
+  const motorOut = (id: string) => !!scenario?.allMotorsOff || scenario?.motors?.[id]?.inService === false;
+
+  // Devices by what they sit on (those on a hidden branch, source or motor are hidden with it).
+  const devicesAt = new Map<string, PlacedDevice[]>();
+  const orphanDevices: PlacedDevice[] = [];
+  const branchIds = new Set(branches.map((b) => b.id));
+  const holderIds = new Set([...sources.map((s) => s.id), ...motors.map((m) => m.id)]);
+  for (const d of model.devices) {
+    if (hide(d.id, hiddenHolders.get(d.branch ?? d.source ?? ''))) continue;
+    const key = d.branch ? `${d.branch}:${d.end ?? 'from'}` : (d.source ?? '');
+    const known = d.branch ? branchIds.has(d.branch) : holderIds.has(d.source ?? '');
+    if (!known) {
+      orphanDevices.push(d);
+      continue;
+    }
+    devicesAt.set(key, [...(devicesAt.get(key) ?? []), d]);
+  }
+  const devItems = (key: string, busId: string | undefined) =>
+    (devicesAt.get(key) ?? []).map((d) => deviceItem(d, busId, problems.has(d.id)));
+
+  // Every branch between known buses, hidden or not (whether a bus has only one).
+  const adj = new Map<string, Branch[]>();
+  for (const b of allBranches) {
+    if (b.from === b.to) continue;
+    for (const end of [b.from, b.to]) if (busIds.has(end)) adj.set(end, [...(adj.get(end) ?? []), b]);
+  }
 
   // Each branch: down (upper → lower) or lateral (same level); unknown ends dropped.
   const upper = (b: Branch) => (level.get(b.to)! < level.get(b.from)! ? b.to : b.from);
   const lower = (b: Branch) => (upper(b) === b.from ? b.to : b.from);
   const endOf = (b: Branch, bus: string): 'from' | 'to' => (bus === b.from ? 'from' : 'to');
-  const sourcesAt = new Set(model.sources.filter((s) => busIds.has(s.bus)).map((s) => s.bus));
+  const sourcesAt = new Set(sources.filter((s) => busIds.has(s.bus)).map((s) => s.bus));
   const motorsAt = new Map<string, Model['motors']>();
-  for (const m of model.motors) if (busIds.has(m.bus)) motorsAt.set(m.bus, [...(motorsAt.get(m.bus) ?? []), m]);
+  for (const m of motors) if (busIds.has(m.bus)) motorsAt.set(m.bus, [...(motorsAt.get(m.bus) ?? []), m]);
 
   const motorColumn = (m: Model['motors'][number]): Column => ({
     items: [...devItems(m.id, m.bus), machineItem(m.id, 'motor', m.bus, motorOut(m.id), problems.has(m.id))],
@@ -496,7 +634,15 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
   });
   const busSpec = (busId: string, columns: Column[]): BusBlockSpec => {
     const { label, tones } = busLabel(model, busId, opts, scenarioCount);
-    return { id: busId, label, labelTones: tones, problem: problems.has(busId), columns };
+    const n = subtreeSize.get(busId);
+    return {
+      id: busId,
+      label,
+      labelTones: tones,
+      problem: problems.has(busId),
+      columns,
+      subtree: n ? { buses: n, collapsed: hiddenIn.has(busId) } : undefined,
+    };
   };
   const branchItems = (b: Branch): Item[] => {
     const up = upper(b);
@@ -552,10 +698,11 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
       incoming.set(lower(b), (incoming.get(lower(b)) ?? 0) + 1);
     }
   }
-  for (const s of model.sources) if (busIds.has(s.bus)) incoming.set(s.bus, (incoming.get(s.bus) ?? 0) + 1);
+  for (const s of sources) if (busIds.has(s.bus)) incoming.set(s.bus, (incoming.get(s.bus) ?? 0) + 1);
+  for (const bus of collapsed) outgoing.set(bus, (outgoing.get(bus) ?? 0) + 1);
 
   for (const bus of model.buses) {
-    if (packedBuses.has(bus.id)) continue;
+    if (packedBuses.has(bus.id) || hiddenBy.has(bus.id)) continue;
     const columns: Column[] = [
       ...(motorsAt.get(bus.id) ?? []).map(motorColumn),
       ...(packedUnder.get(bus.id) ?? []).map((b) => {
@@ -570,7 +717,7 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     ];
     for (const c of columns) columnSize(c);
     const spec = busSpec(bus.id, columns);
-    const labelW = labelWidth(spec.label) + 12;
+    const labelW = busLabelWidth(spec) + 12;
     const labelH = spec.label.length * LINE_H + 6;
     const packedW = columns.reduce((s, c) => s + c.w + 8, 0);
     const ports = (incoming.get(bus.id) ?? 0) + (outgoing.get(bus.id) ?? 0);
@@ -596,6 +743,24 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     nodes.set(`bus:${bus.id}`, data);
   }
 
+  // A collapsed subtree: one summary box under its bus.
+  for (const bus of collapsed) {
+    const summary = summaryBox(bus, hiddenIn.get(bus)!, opts.hazards, problems);
+    let left = 0;
+    let top = 0;
+    nodes.set(`sum:${bus}`, {
+      width: summary.w,
+      height: summary.h,
+      draw: (l, t, out) => {
+        left = l;
+        top = t;
+        out.elements.push(summary.draw(l, t));
+      },
+      topPort: (x) => ({ id: summary.id, x: clamp(x, left + 8, left + summary.w - 8), y: top }),
+    });
+    edges.push({ v: `bus:${bus}`, w: `sum:${bus}` });
+  }
+
   const stackNode = (items: Item[]): NodeData => {
     const w = itemsWidth(items) + 4;
     const h = itemsHeight(items) - GAP;
@@ -611,7 +776,7 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     };
   };
 
-  for (const s of model.sources) {
+  for (const s of sources) {
     const onBus = busIds.has(s.bus);
     const items = [
       machineItem(s.id, s.kind, onBus ? s.bus : undefined, sourceOut(s.id), problems.has(s.id)),
@@ -620,7 +785,7 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     nodes.set(`src:${s.id}`, stackNode(items));
     if (onBus) edges.push({ v: `src:${s.id}`, w: `bus:${s.bus}`, dashed: sourceOut(s.id) });
   }
-  for (const m of model.motors) {
+  for (const m of motors) {
     if (busIds.has(m.bus)) continue; // drawn under its bus
     nodes.set(`mot:${m.id}`, stackNode(motorColumn(m).items));
   }
@@ -702,6 +867,12 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     out.connections.push({ a: from.id, b: end.id, pts: route(from.x, from.y, end.x, end.y, midY), dashed: e.dashed });
   }
   const notes: string[] = [];
+  if (collapsed.length) {
+    const n = collapsed.reduce((sum, b) => sum + hiddenIn.get(b)!.buses.length, 0);
+    notes.push(
+      `Collapsed: ${collapsed.length} subtree${collapsed.length === 1 ? '' : 's'} (${n} buses) drawn as one box each, naming the highest incident energy inside.`,
+    );
+  }
   if (scenario) notes.push(`Dashed: out of service or open in scenario "${scenario.name ?? scenario.id}".`);
   else notes.push('Dashed: open ties and elements out of service.');
   return {
@@ -709,7 +880,109 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     height: Math.ceil(height),
     elements: out.elements,
     connections: out.connections,
+    collapsed,
     notes,
+  };
+}
+
+/**
+ * The box that stands for a collapsed subtree: how many buses (and other elements) it holds, the highest incident
+ * energy among its buses with its signal word and bus (a DANGER elsewhere inside is named too: a collapsed subtree
+ * never hides a hazard), and any model problem inside.
+ */
+function summaryBox(
+  bus: string,
+  hidden: { buses: string[]; others: string[] },
+  hazards: ReadonlyMap<string, BusHazard> | undefined,
+  problems: ReadonlySet<string>,
+): { id: string; w: number; h: number; draw: (l: number, t: number) => DrawnElement } {
+  const nb = hidden.buses.length;
+  const no = hidden.others.length;
+  const lines: { text: string; tone: Shape['tone']; bold?: boolean }[] = [
+    { text: `${nb} bus${nb === 1 ? '' : 'es'} collapsed under ${bus}`, tone: 'ink', bold: true },
+  ];
+  if (no) lines.push({ text: `and ${no} other element${no === 1 ? '' : 's'}`, tone: 'muted' });
+  let worst: { busId: string; h: BusHazard } | undefined;
+  const danger: string[] = [];
+  for (const id of hidden.buses) {
+    const h = hazards?.get(id);
+    if (!h) continue;
+    if (h.signalWord === 'DANGER') danger.push(id);
+    if (
+      !worst ||
+      h.incidentEnergyCalPerCm2 > worst.h.incidentEnergyCalPerCm2 ||
+      (h.incidentEnergyCalPerCm2 === worst.h.incidentEnergyCalPerCm2 &&
+        h.signalWord === 'DANGER' &&
+        worst.h.signalWord !== 'DANGER')
+    )
+      worst = { busId: id, h };
+  }
+  if (worst) {
+    lines.push({
+      text: `Highest: ${formatCalPerCm2(worst.h.incidentEnergyCalPerCm2)} cal/cm² · ${worst.h.signalWord ?? 'no signal word'} at ${worst.busId}`,
+      tone: worst.h.signalWord === 'DANGER' ? 'danger' : 'caution',
+      bold: true,
+    });
+    const otherDanger = danger.filter((id) => id !== worst!.busId);
+    if (worst.h.signalWord !== 'DANGER' && otherDanger.length) {
+      lines.push({
+        text: `DANGER at ${otherDanger[0]}${otherDanger.length > 1 ? ` and ${otherDanger.length - 1} more` : ''}`,
+        tone: 'danger',
+        bold: true,
+      });
+    }
+    const without = nb - hidden.buses.filter((id) => hazards?.has(id)).length;
+    if (without) lines.push({ text: `${without} without a result`, tone: 'muted' });
+  } else {
+    lines.push({ text: 'No results for these buses', tone: 'muted' });
+  }
+  const inside = [...hidden.buses, ...hidden.others].filter((id) => problems.has(id));
+  if (inside.length) {
+    lines.push({
+      text: `! model problem at ${inside[0]}${inside.length > 1 ? ` and ${inside.length - 1} more` : ''}`,
+      tone: 'problem',
+      bold: true,
+    });
+  }
+  const w = Math.max(...lines.map((l) => textWidth(l.text, FONT))) + 20;
+  const h = lines.length * LINE_H + 12;
+  const id = `summary:${bus}`;
+  return {
+    id,
+    w,
+    h,
+    draw: (l, t) => ({
+      id,
+      kind: 'summary',
+      box: { x: l, y: t, w, h },
+      busId: bus,
+      problem: inside.length ? true : undefined,
+      summary: {
+        of: bus,
+        buses: nb,
+        hidden: [...hidden.buses, ...hidden.others],
+        worst: worst
+          ? {
+              busId: worst.busId,
+              incidentEnergyCalPerCm2: worst.h.incidentEnergyCalPerCm2,
+              signalWord: worst.h.signalWord,
+            }
+          : undefined,
+      },
+      shapes: [
+        { t: 'rect', x: l, y: t, w, h, tone: inside.length ? 'problem' : 'accent', fill: 'surface' },
+        ...lines.map((line, i): Shape => ({
+          t: 'text',
+          x: l + 10,
+          y: t + 6 + 11 + i * LINE_H,
+          text: line.text,
+          size: FONT,
+          anchor: 'start',
+          tone: line.tone,
+          bold: line.bold,
+        })),
+      ],
+    }),
   };
 }
 

@@ -6,7 +6,12 @@
  */
 import { DOMParser } from '@xmldom/xmldom';
 import { modelSchema, parseModel, validateModel, type Model, type ModelInput } from '../../shared/schemas/model';
-import { layoutOneLine } from '../../shared/oneLine/layout';
+import { busTree, defaultCollapsed, layoutOneLine } from '../../shared/oneLine/layout';
+import { hazardsFromResults } from '../../shared/oneLine/hazards';
+import { formatCalPerCm2 } from '../../shared/labelDisplay';
+import { runStudy } from '../../server/engine/study/scenarios';
+import { generatedPlant } from '../../server/seed/generatedPlant';
+import type { StudyResults } from '../../shared/schemas/studyResults';
 import { boxesOverlap, touchesBox, type OneLineDrawing } from '../../shared/oneLine/geometry';
 import { oneLineSvg } from '../../shared/oneLine/svg';
 import { larkspurModel } from '../../server/seed/larkspurModel';
@@ -71,7 +76,7 @@ function checkDrawing(m: Model, d: OneLineDrawing): void {
   }
 }
 
-function checkSvg(m: Model, d: OneLineDrawing): void {
+function checkSvg(m: Model, d: OneLineDrawing, everyId = true): void {
   const svg = oneLineSvg(d, { title: `${m.name} <one-line> & "ids"` });
   // Strict parse: any well-formedness error (or warning) is collected and must be none.
   const errors: string[] = [];
@@ -83,6 +88,7 @@ function checkSvg(m: Model, d: OneLineDrawing): void {
   expect(errors).toEqual([]);
   expect(doc.documentElement?.nodeName).toBe('svg');
   expect(doc.getElementsByTagName('g').length).toBeGreaterThanOrEqual(d.elements.length);
+  if (!everyId) return;
   for (const id of allIds(m)) {
     expect([id, svg.includes(`data-id="${id}"`) && svg.includes(`>${id}</text>`)]).toEqual([id, true]);
   }
@@ -190,5 +196,163 @@ describe('one-line diagram geometry', () => {
       const e = d.elements.find((x) => x.id === id);
       if (e) expect([id, e.problem]).toEqual([id, true]);
     }
+  });
+});
+
+/** The incident energy a bus's label carries (else the bus's own), read straight from a run's results. */
+const labelEnergy = (results: StudyResults, busId: string): number | undefined => {
+  const b = results.buses.find((x) => x.busId === busId);
+  if (!b || b.status !== 'ok') return undefined;
+  return b.labelValues?.incidentEnergyCalPerCm2 ?? b.incidentEnergyCalPerCm2;
+};
+
+/**
+ * A collapsed drawing: every element of the model is either drawn exactly once or stands inside exactly one summary
+ * (never both); one summary per collapsed bus, hanging from that bus; no bus, device or summary boxes overlap; lines
+ * end on their elements; each summary's highest energy is the maximum over its hidden buses in the run's results.
+ */
+function checkCollapsed(m: Model, d: OneLineDrawing, results?: StudyResults): void {
+  const drawn = new Map<string, number>();
+  const inside = new Map<string, number>();
+  for (const e of d.elements) {
+    if (e.kind === 'summary') for (const id of e.summary!.hidden) inside.set(id, (inside.get(id) ?? 0) + 1);
+    else drawn.set(e.id, (drawn.get(e.id) ?? 0) + 1);
+  }
+  for (const id of allIds(m)) {
+    expect([id, (drawn.get(id) ?? 0) + (inside.get(id) ?? 0)]).toEqual([id, 1]);
+  }
+  const summaries = d.elements.filter((e) => e.kind === 'summary');
+  expect(summaries.map((e) => e.summary!.of).sort()).toEqual([...d.collapsed].sort());
+  for (const s of summaries) {
+    expect(drawn.get(s.summary!.of)).toBe(1);
+    expect(d.connections.some((c) => c.a === s.summary!.of && c.b === s.id)).toBe(true);
+    expect(s.summary!.buses).toBe(s.summary!.hidden.filter((id) => m.buses.some((b) => b.id === id)).length);
+  }
+
+  const boxes = d.elements.filter((e) => e.kind === 'bus' || e.kind === 'device' || e.kind === 'summary');
+  const overlaps: string[] = [];
+  for (let i = 0; i < boxes.length; i++)
+    for (let j = i + 1; j < boxes.length; j++)
+      if (boxesOverlap(boxes[i].box, boxes[j].box)) overlaps.push(`${boxes[i].id}/${boxes[j].id}`);
+  expect(overlaps).toEqual([]);
+  const byId = new Map(d.elements.map((e) => [e.id, e]));
+  const loose = d.connections.filter((c) => {
+    const a = byId.get(c.a);
+    const b = byId.get(c.b);
+    const n = c.pts.length;
+    return !a || !b || !touchesBox(c.pts[0], c.pts[1], a.box) || !touchesBox(c.pts[n - 2], c.pts[n - 1], b.box);
+  });
+  expect(loose.map((c) => `${c.a}-${c.b}`)).toEqual([]);
+
+  if (!results) return;
+  for (const s of summaries) {
+    const hiddenBuses = s.summary!.hidden.filter((id) => m.buses.some((b) => b.id === id));
+    const energies = hiddenBuses.map((id) => labelEnergy(results, id)).filter((e): e is number => e !== undefined);
+    expect(energies.length).toBeGreaterThan(0);
+    const max = Math.max(...energies);
+    expect(s.summary!.worst?.incidentEnergyCalPerCm2).toBe(max);
+    expect(labelEnergy(results, s.summary!.worst!.busId)).toBe(max);
+    // Written in the box, with its signal word and its bus (text, not colour alone).
+    const texts = s.shapes.flatMap((x) => (x.t === 'text' ? [x.text] : []));
+    const word = results.buses.find((b) => b.busId === s.summary!.worst!.busId)!.labelValues?.signalWord;
+    expect(texts).toContain(
+      `Highest: ${formatCalPerCm2(max)} cal/cm² · ${word ?? 'no signal word'} at ${s.summary!.worst!.busId}`,
+    );
+    // A DANGER inside is never hidden: named either as the highest or on its own line.
+    const dangerInside = hiddenBuses.filter(
+      (id) => results.buses.find((b) => b.busId === id)?.labelValues?.signalWord === 'DANGER',
+    );
+    if (dangerInside.length) expect(texts.some((t) => t.includes('DANGER'))).toBe(true);
+  }
+}
+
+describe('one-line diagram: collapsed subtrees', () => {
+  test('generated plant (184 buses): opens with each substation’s feeders collapsed; summaries hold exactly the buses downstream, with the highest energy of the run', () => {
+    const m = parsed(generatedPlant(3, 60));
+    expect(m.buses.length).toBe(184);
+    const results = runStudy(m);
+    const hazards = hazardsFromResults(results);
+    const collapsed = defaultCollapsed(m);
+    // The second level: the three substations (each feeds 60 MCC buses); the service bus HV stays open.
+    expect(collapsed.sort()).toEqual(['SUB-0', 'SUB-1', 'SUB-2']);
+    const d = layoutOneLine(m, { hazards, collapsed });
+    expect(d.collapsed.sort()).toEqual(collapsed);
+    checkCollapsed(m, d, results);
+    // Downstream of a substation, found independently: the buses no source reaches once it is removed (radial plant).
+    for (const s of d.elements.filter((e) => e.kind === 'summary')) {
+      const cut = s.summary!.of;
+      const reach = new Set(['HV']);
+      let grew = true;
+      while (grew) {
+        grew = false;
+        for (const br of [...m.transformers, ...m.cables]) {
+          for (const [a, b] of [
+            [br.fromBus, br.toBus],
+            [br.toBus, br.fromBus],
+          ]) {
+            if (reach.has(a) && !reach.has(b) && b !== cut) {
+              reach.add(b);
+              grew = true;
+            }
+          }
+        }
+      }
+      const downstream = m.buses.map((b) => b.id).filter((id) => id !== cut && !reach.has(id));
+      expect(s.summary!.hidden.filter((id) => m.buses.some((b) => b.id === id)).sort()).toEqual(downstream.sort());
+    }
+    checkSvg(m, { ...d, elements: d.elements.filter((e) => e.kind !== 'summary') } as OneLineDrawing, false);
+  });
+
+  test('the demo facility: each bus that feeds further collapsed alone, then all at once (the outermost wins)', () => {
+    const m = parsed(larkspurModel());
+    const results = runStudy(m);
+    const hazards = hazardsFromResults(results);
+    expect(defaultCollapsed(m)).toEqual([]);
+    const { parent } = busTree(m);
+    const feeding = [...new Set(parent.values())];
+    expect(feeding.length).toBeGreaterThan(2);
+    for (const bus of feeding) {
+      const d = layoutOneLine(m, { hazards, collapsed: [bus] });
+      expect(d.collapsed).toEqual([bus]);
+      checkCollapsed(m, d, results);
+      // The bus keeps its toggle, marked collapsed.
+      expect(d.elements.find((e) => e.id === bus)!.subtree?.collapsed).toBe(true);
+    }
+    const all = layoutOneLine(m, { hazards, collapsed: feeding });
+    checkCollapsed(m, all, results);
+    expect(all.collapsed.length).toBeLessThan(feeding.length);
+    // Expanded: every bus that feeds further has a toggle (not collapsed), and there is no summary.
+    const open = layoutOneLine(m, { hazards });
+    for (const bus of feeding) expect(open.elements.find((e) => e.id === bus)!.subtree?.collapsed).toBe(false);
+    expect(open.elements.some((e) => e.kind === 'summary')).toBe(false);
+  });
+
+  test('a looped mesh (300 buses, links across subtrees): collapsed by default, every element drawn or inside one summary', () => {
+    const m = parsed(loopedMesh(300));
+    const collapsed = defaultCollapsed(m);
+    expect(collapsed.length).toBeGreaterThan(0);
+    const d = layoutOneLine(m, { collapsed });
+    checkCollapsed(m, d);
+    // Collapsing a bus already inside a collapsed subtree adds nothing.
+    const { parent } = busTree(m);
+    const nested = [...parent.entries()].find(([c, p]) => collapsed.includes(p) && [...parent.values()].includes(c));
+    if (nested) {
+      const d2 = layoutOneLine(m, { collapsed: [...collapsed, nested[0]] });
+      expect(d2.collapsed.sort()).toEqual([...collapsed].sort());
+      checkCollapsed(m, d2);
+    }
+  });
+
+  test('a summary with no results says so; a problem inside is marked on it', () => {
+    const m = parsed(larkspurModel());
+    const { parent } = busTree(m);
+    const child = [...parent.keys()].find((b) => parent.get(b) === 'SWBD-1' || parent.get(b) === 'USS-1')!;
+    const owner = parent.get(child)!;
+    const d = layoutOneLine(m, { collapsed: [owner], problems: new Set([child]) });
+    const s = d.elements.find((e) => e.kind === 'summary')!;
+    const texts = s.shapes.flatMap((x) => (x.t === 'text' ? [x.text] : []));
+    expect(texts).toContain('No results for these buses');
+    expect(texts.some((t) => t.startsWith(`! model problem at ${child}`))).toBe(true);
+    expect(s.problem).toBe(true);
   });
 });

@@ -90,6 +90,38 @@ export const specs: Spec[] = [
     },
   },
   {
+    name: 'one-line: tap a device → its settings and band (desktop and phone)',
+    run: async (h) => {
+      const id = await demoStudyId(h);
+      for (const [label, viewport] of [
+        ['desktop', DESKTOP],
+        ['phone', PHONE],
+      ] as const) {
+        const page = await h.newPage(viewport);
+        await h.signIn(page, 'engineer@larkspur.example');
+        await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
+        await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^R-TX2$/ })
+          .waitFor();
+        // Centre it (on a phone it may lie outside the first view), then tap it.
+        await page.getByTestId('one-line-search').fill('R-TX2');
+        await page.getByTestId('one-line-find').click();
+        // Each device in view is a button named for it (the relay R-TX2 of the demo: a relay with its breaker).
+        const device = page.getByRole('button', { name: 'Device R-TX2, relay — open its band' });
+        await device.waitFor();
+        await device.click();
+        await pollUntil(async () => page.url().includes('device=R-TX2'), 'the band of R-TX2 to open');
+        await page.getByTestId('device-settings-title').filter({ hasText: 'Settings of R-TX2' }).waitFor();
+        await page.getByTestId('device-settings-plot').waitFor();
+        await page.getByTestId('device-settings-band').scrollIntoViewIfNeeded();
+        await h.shot(page, `one-line-${label}-device-band`);
+        await page.close();
+      }
+    },
+  },
+  {
     name: 'one-line: a study with operating scenarios — a scenario’s open tie and stopped sources dashed (phone)',
     run: async (h) => {
       const id = await demoStudyId(h, 'Larkspur Valley Solids Handling Building', 'draft');
