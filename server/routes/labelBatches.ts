@@ -8,6 +8,7 @@ import { CAUTIONS } from '../../shared/cautions';
 import { renderStudyReport } from '../pdf/studyReport';
 import { compareRevisions, defaultBaselineId } from '../services/compare';
 import { getOrganization } from '../services/organization';
+import { mitigationAppendix } from '../services/mitigationReport';
 import { getResults } from '../services/runs';
 import { findSite } from '../services/sites';
 import { findStudy, getStudyDto } from '../services/studies';
@@ -45,7 +46,7 @@ export const labelBatchRoutes: AnyRoute[] = [
 ];
 
 export const studyReportRoute = bind(contract.labelBatches.studyReportPdf, {
-  handler: async ({ ctx, user, params, res }) => {
+  handler: async ({ ctx, user, params, query, res }) => {
     const [study, results, org, site] = await Promise.all([
       getStudyDto(ctx, user, params.studyId),
       getResults(user, params.studyId),
@@ -54,6 +55,9 @@ export const studyReportRoute = bind(contract.labelBatches.studyReportPdf, {
     ]);
     const baseline = await defaultBaselineId(user, params.studyId);
     const comparison = baseline ? await compareRevisions(user, params.studyId, baseline) : undefined;
+    const above = query.mitigationAboveCalPerCm2;
+    const mitigation =
+      above === undefined ? undefined : await mitigationAppendix(user, params.studyId, results.results, above);
     const pdf = await renderStudyReport({
       organizationName: org.name,
       site: { name: site.name, address: site.address },
@@ -62,6 +66,7 @@ export const studyReportRoute = bind(contract.labelBatches.studyReportPdf, {
       model: results.model,
       cautions: CAUTIONS,
       comparison,
+      mitigation,
     });
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `attachment; filename="study-report-rev${study.revision}.pdf"`);

@@ -3,6 +3,18 @@ import { createLabelBatchSchema, labelBatchSchema } from '../schemas/labelBatche
 import { labelSizeSchema } from '../schemas/labels';
 import { endpoint } from './endpoint';
 
+/** Query of the study report. */
+export const studyReportQuerySchema = z.object({
+  mitigationAboveCalPerCm2: z.coerce
+    .number()
+    .positive('The appendix energy must be above zero')
+    .max(200, 'The appendix energy is at most 200 cal/cm²')
+    .optional()
+    .describe(
+      'Adds the mitigation appendix: the buses above this incident energy, cal/cm², each with its best options toward it (engineers only)',
+    ),
+});
+
 /** Roles of the routes below that share one access rule. */
 const PRINTERS = ['electrician', 'engineer', 'admin'] as const;
 
@@ -49,9 +61,12 @@ export const labelBatchesApi = {
     method: 'get',
     path: '/studies/:studyId/report.pdf',
     summary:
-      'The study report: scope, method and assumptions, inputs, results, each bus’s clearing trace, warnings, cautions, approval.',
+      'The study report: scope, method and assumptions, inputs, results, each bus’s clearing trace, warnings, cautions, ' +
+      'approval; with `mitigationAboveCalPerCm2` (engineers), an appendix of mitigation options for every bus above ' +
+      'that energy, toward it as the target.',
     tag: 'studies',
     access: ['engineer', 'safety', 'admin'],
+    query: studyReportQuerySchema,
     produces: 'application/pdf',
   }),
 };

@@ -14,6 +14,7 @@ import { renderCover } from './cover';
 import { isApproved, type StudyReportInput } from './input';
 import { renderInputs } from './inputs';
 import { renderMethod } from './method';
+import { renderMitigationAppendix } from './mitigation';
 import { renderOneLine } from './oneLine';
 import { renderResults } from './results';
 import { renderScenarios } from './scenarios';
@@ -27,6 +28,13 @@ export { PRELIMINARY_BANNER } from './approval';
 export { METHOD_HEADING } from './method';
 export { deviceLocation, deviceSettings } from './inputs';
 export { tracePlotData } from './traces';
+export {
+  APPENDIX_OPTIONS_PER_BUS,
+  MITIGATION_APPENDIX_HEADING,
+  selectivityText,
+  type MitigationAppendix,
+  type MitigationAppendixBus,
+} from './mitigation';
 
 /** Renders the study report (see the module comment). */
 export async function renderStudyReport(input: StudyReportInput): Promise<Uint8Array> {
@@ -50,6 +58,7 @@ export async function renderStudyReport(input: StudyReportInput): Promise<Uint8A
   renderChanges(w, input.comparison);
   renderTraces(w, results, model);
   renderCautionsAndApproval(w, study, input.cautions);
+  renderMitigationAppendix(w, input.mitigation, study);
 
   w.footers(
     `Emberline · ${input.organizationName} · ${site.name} · ${study.title}, revision ${study.revision}`,

@@ -3,6 +3,7 @@ import type { RevisionComparison } from '../../../shared/schemas/compare';
 import type { Model } from '../../../shared/schemas/model';
 import type { StudyDto } from '../../../shared/schemas/studies';
 import type { StudyResults } from '../../../shared/schemas/studyResults';
+import type { MitigationAppendix } from './mitigation';
 
 export interface StudyReportInput {
   organizationName: string;
@@ -13,6 +14,8 @@ export interface StudyReportInput {
   cautions: readonly string[];
   /** What changed from another revision of the site (by default the approved one); absent when there is none. */
   comparison?: RevisionComparison;
+  /** The mitigation appendix (buses above a chosen energy and their options); absent when not asked for. */
+  mitigation?: MitigationAppendix;
 }
 
 /** An approved (or later superseded) revision with its approval: the report carries the approval block. */
