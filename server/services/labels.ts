@@ -3,6 +3,7 @@ import { Op, type Transaction } from 'sequelize';
 import { REPORT_KINDS } from '../../shared/schemas/fieldReports';
 import type { LabelCheck, LabelContent, LabelDto, LabelStatus } from '../../shared/schemas/labels';
 import { LABEL_CODE_ALPHABET, isLabelCode, normalizeLabelCode, parseLabelCode } from '../../shared/labelCode';
+import { ONLY_AT_CAUTIONS } from '../../shared/cautions';
 import {
   busArcDurationCapS,
   LABEL_STATUS_NOTICES,
@@ -101,7 +102,8 @@ export function labelContents(
         studyDate: day(approvedAt),
         reviewByDate: day(reviewBy),
         approvedBy: `${study.approverName ?? ''}, licence ${study.licenceNumber ?? ''} (${study.jurisdiction ?? ''})`,
-        caution: LABEL_CAUTION,
+        // A condition of the energy (a maintenance switch ON, an arc-flash relay in service) first: never cut.
+        caution: [...Object.values(ONLY_AT_CAUTIONS).filter((c) => lv.cautions.includes(c)), LABEL_CAUTION].join(' '),
         otherSourcesClearedBy: governing ? otherSourcesClearedBy(governing) : [],
         arcDurationCapS: busArcDurationCapS(b, results.maxArcDurationMs),
         ppeDescription: lv.noAdequatePpe ? null : (lv.ppeLevel?.description ?? null),

@@ -55,6 +55,7 @@ import {
 import { resolveEquipment, type ResolvedEquipment } from './equipment';
 import { createTripIntegrator, type TripIntegrator } from './tripIntegration';
 import { formatSig } from '../../../shared/numberFormat';
+import { ONLY_AT_CAUTIONS } from '../../../shared/cautions';
 
 export interface StudyOptions {
   /** Cap of the arc duration, ms (IEEE 1584 2 s guidance; an organization setting). */
@@ -856,6 +857,7 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
   });
   const busById = new Map(model.buses.map((b) => [b.id, b]));
   const busIds = model.buses.filter((b) => b.equipment).map((b) => b.id);
+  const onlyAtDevices = new Map(model.devices.filter((d) => d.onlyAt).map((d) => [d.id, d]));
   let pictureVisits = 0;
 
   function runBus(busId: string): BusResult {
@@ -968,6 +970,9 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
         voltageV,
         options.labelSettings,
       );
+      // A device that acts only for arcs here (an arc-flash relay, a maintenance switch) ends the governing arc or
+      // cuts one of its sources off: the energy holds only while it is in service, said on the label and the run.
+      if (onlyAtDevices.size) onlyAtConditions(governing, onlyAtDevices, bus, labelValues.cautions, warnings);
       // The keys of `base` written out (in its order, `cases` in its place): a spread followed by more keys makes a slow
       // object.
       return {
@@ -1015,6 +1020,42 @@ export function createStudyRunner(model: Model, options: StudyOptions = {}): Stu
       warnings: solver.result.warnings,
     }),
   };
+}
+
+/**
+ * The conditions of a governing arc cleared (or cut off in part) by devices that act only for arcs at this bus: the
+ * label caution of each purpose (ONLY_AT_CAUTIONS) and one run warning (ONLY_AT_DEVICE_CLEARS) naming the devices.
+ */
+function onlyAtConditions(
+  governing: ArcCaseTrace,
+  onlyAtDevices: Map<string, PlacedDevice>,
+  bus: Bus,
+  cautions: string[],
+  warnings: EngineWarning[],
+): void {
+  const ids = new Set<string>();
+  if (governing.clearingDeviceId) ids.add(governing.clearingDeviceId);
+  for (const src of governing.sources) if (src.cutByDeviceId) ids.add(src.cutByDeviceId);
+  const acting = [...ids].flatMap((id) => {
+    const d = onlyAtDevices.get(id);
+    return d?.onlyAt ? [{ d, purpose: d.onlyAt.purpose }] : [];
+  });
+  if (!acting.length) return;
+  for (const purpose of ['maintenance-switch', 'arc-flash-relay'] as const) {
+    if (acting.some((a) => a.purpose === purpose) && !cautions.includes(ONLY_AT_CAUTIONS[purpose])) {
+      cautions.push(ONLY_AT_CAUTIONS[purpose]);
+    }
+  }
+  const words = acting.map(({ d, purpose }) => {
+    const named = d.name ? `${d.id} (${d.name})` : d.id;
+    return purpose === 'maintenance-switch'
+      ? `${named}, a maintenance switch: the energy holds only with it ON`
+      : `${named}, an arc-flash relay: the energy holds only with it in service`;
+  });
+  warnings.push({
+    code: 'ONLY_AT_DEVICE_CLEARS',
+    message: `At ${bus.id} the governing arc is cleared by a device that acts only for arcs here: ${words.join('; ')}. Without it the energy is higher: when it is off or out of service, the energy of a study without it applies.`,
+  });
 }
 
 function dedupe(ws: EngineWarning[]): EngineWarning[] {
