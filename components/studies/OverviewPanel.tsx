@@ -16,6 +16,7 @@ import {
 } from '../../hooks/studies';
 import { Cautions } from '../Cautions';
 import { ComparePanel } from './ComparePanel';
+import { ReportAppendixForm } from '../mitigation/ReportAppendixForm';
 import { colors, radius, space } from '../theme';
 import { FormCheckbox, FormTextField } from '../form';
 import { Button, Card, Notice, ProgressBar, T } from '../ui';
@@ -221,6 +222,7 @@ function Documents({ study }: { study: StudyDto }) {
           />
         ) : null}
       </View>
+      {canReport && can('mitigate') ? <ReportAppendixForm studyId={study.id} /> : null}
       {!approved ? (
         <T variant="small">The report of an unapproved revision is marked PRELIMINARY on every page.</T>
       ) : null}
