@@ -181,6 +181,45 @@ export function downstreamOnLargestLoadPath(
   return out.slice(0, MAX_DOWNSTREAM);
 }
 
+/**
+ * The devices directly below a placed device, each with the bus on its load side: the devices at the far end of its
+ * own branch when it looks down into that branch; otherwise (or when there are none) the devices at the near end of
+ * every branch leaving its load-side bus away from the sources (all the feeders, not only the largest).
+ */
+export function directlyBelow(
+  model: Model,
+  at: PlacedDevice,
+  skip: ReadonlySet<string> = new Set(),
+): { device: PlacedDevice; faultBusId: string }[] {
+  const topo = topologyOf(model);
+  const onLink = (linkId: string, end: 'from' | 'to') =>
+    model.devices.filter((d) => d.branch === linkId && d.end === end && coordinates(d) && !skip.has(d.id));
+  let start: string | null = null;
+  if (at.branch) {
+    const l = topo.links.get(at.branch);
+    if (!l) return [];
+    const near = at.end === 'from' ? l.fromBus : l.toBus;
+    const far = at.end === 'from' ? l.toBus : l.fromBus;
+    const looksDown = topo.dist(far) > topo.dist(near) || (topo.dist(far) === topo.dist(near) && at.end === 'from');
+    if (looksDown) {
+      const farDevices = onLink(l.id, at.end === 'from' ? 'to' : 'from');
+      if (farDevices.length) return farDevices.map((device) => ({ device, faultBusId: far }));
+    }
+    start = looksDown ? far : near;
+  } else if (at.source) {
+    start = model.sources.find((s) => s.id === at.source)?.bus ?? null;
+  }
+  if (start === null) return [];
+  const here = start;
+  const out: { device: PlacedDevice; faultBusId: string }[] = [];
+  for (const l of topo.byBus.get(here) ?? []) {
+    if (l.id === at.branch || !(topo.dist(other(l, here)) > topo.dist(here))) continue;
+    for (const device of onLink(l.id, l.fromBus === here ? 'from' : 'to'))
+      out.push({ device, faultBusId: other(l, here) });
+  }
+  return out;
+}
+
 /** Bolted currents of a fault at a bus by device place, and the arcing currents as ratios to the bolted one. */
 interface FaultCurrents {
   boltedAt(d: PlacedDevice): number;
