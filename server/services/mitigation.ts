@@ -16,7 +16,7 @@ import type {
 } from '../../shared/schemas/mitigation';
 import type { Model } from '../../shared/schemas/model';
 import { Study } from '../db/models';
-import { mitigationOutcome, type MitigationOutcome } from '../engine/mitigation';
+import type { MitigationOutcome } from '../engine/mitigation';
 import { recordAudit } from './audit';
 import type { AppContext, AuthUser } from './context';
 import { ApiError, modelIssuesError } from './errors';
@@ -26,13 +26,6 @@ import { runSettingsOf } from './runs';
 import { findStudy } from './scope';
 import { nextRevision, toStudyDtos } from './studies';
 import { mitigationOffThread } from './studyWorker';
-
-/**
- * Models up to this much JSON (some 50 buses) are searched in the main thread: the search evaluates the whole model
- * once per candidate, a few milliseconds each for such a model, less than handing it to the study worker. Larger
- * models go to the worker, so an engineer asking for options never holds up the other requests.
- */
-export const MITIGATION_MAIN_THREAD_MAX_CHARS = 30_000;
 
 /**
  * Answers kept by everything they depend on (the checked model's text, the run settings, the bus and the target):
@@ -61,10 +54,9 @@ async function computeOptions(
   if (hit) return hit;
   let computing = inFlight.get(key);
   if (!computing) {
-    computing =
-      snapshot.length <= MITIGATION_MAIN_THREAD_MAX_CHARS
-        ? Promise.resolve().then(() => mitigationOutcome(snapshot, busId, targetCalPerCm2, options))
-        : mitigationOffThread(snapshot, options, busId, targetCalPerCm2);
+    // Always in the study worker: the search runs the engine on the whole model once per candidate setting and
+    // option (seconds even for a plant of ten buses), which would hold up every other request in the main thread.
+    computing = mitigationOffThread(snapshot, options, busId, targetCalPerCm2);
     inFlight.set(key, computing);
     void computing.then(
       () => inFlight.delete(key),

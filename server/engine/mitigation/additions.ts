@@ -77,11 +77,25 @@ function freshId(model: Model, taken: Set<string>, base: string): string {
   return id;
 }
 
-/** The device that clears the governing case of a result, or null. */
-function governingClearing(r: BusResult): string | null {
+/**
+ * The device a change should act with: the one that ends the governing arc; when none ends it (another source, a
+ * motor or a generator, still feeds it until it decays or the cap), the device that cuts off the source feeding the
+ * most (share × time until cut). Null when no device cuts anything off.
+ */
+function actingDevice(model: Model, r: BusResult): { placed: PlacedDevice; why: string | null } | null {
   const g = r.governing;
   const c = g && r.cases.find((x) => x.arcCase === g.arcCase && x.location === g.location);
-  return c?.clearingDeviceId ?? r.clearingDeviceId ?? null;
+  const byId = (id: string | null | undefined) => (id ? model.devices.find((d) => d.id === id) : undefined);
+  const direct = byId(c?.clearingDeviceId ?? r.clearingDeviceId);
+  if (direct) return { placed: direct, why: null };
+  if (!c) return null;
+  const cut = c.sources.filter((x) => x.cutByDeviceId).sort((a, b) => b.share * b.stopsAtS - a.share * a.stopsAtS)[0];
+  const placed = byId(cut?.cutByDeviceId);
+  if (!placed) return null;
+  return {
+    placed,
+    why: `No single device ends the arc (${cut!.sourceId} is cut off by ${nameOf(placed)}; another source feeds it until it decays or the ${fmt(c.arcDurationS)} s cap).`,
+  };
 }
 
 /** The lowest current a device sees at the start of an arc at the bus, over the cases in which it carries current. */
@@ -104,11 +118,14 @@ const busNameOf = (model: Model, busId: string) => model.buses.find((b) => b.id 
  */
 export const arcFlashRelay: OptionGenerator = (ctx) => {
   const { model, busId } = ctx;
-  const first = ctx.baseHazard.clearingDeviceId;
-  if (!first)
+  const acting = actingDevice(model, ctx.base);
+  if (!acting) {
     return {
-      skipped: 'No device clears the arc before the arc-duration cap: there is no breaker for a relay to trip.',
+      skipped:
+        'No device cuts off a source of the arc before the arc-duration cap: there is no breaker for a relay to trip.',
     };
+  }
+  const first = acting.placed.id;
   const frequencyHz = model.frequencyHz ?? 60;
   const busName = busNameOf(model, busId);
   const patch: ModelPatchOp[] = [];
@@ -179,7 +196,7 @@ export const arcFlashRelay: OptionGenerator = (ctx) => {
     );
     result = ctx.evaluate(patch);
     if ((result.incidentEnergyCalPerCm2 ?? Infinity) <= ctx.targetCalPerCm2) break;
-    clearingId = governingClearing(result);
+    clearingId = actingDevice(model, result)?.placed.id ?? null;
   }
   if (!patch.length)
     return { skipped: why ?? `No arcing current through the clearing device was found at ${busName}.` };
@@ -187,6 +204,7 @@ export const arcFlashRelay: OptionGenerator = (ctx) => {
     `Relay operating time ${fmt(ARC_FLASH_RELAY_OPERATING_S * 1000, 2)} ms (from memory: a light-and-current relay acts within a few milliseconds; use the time the chosen relay states), plus the breaker's own interrupting time.`,
     `Credited only for arcs in ${busName}, where the light sensors are: every other bus keeps its energy. The label's energy holds only with the relay in service (tested, not bypassed); the energy without it is the present one.`,
   );
+  if (acting.why) notes.unshift(acting.why);
   if (why) notes.push(`Not every clearing device can take a relay: ${why}`);
   const before = ctx.base.incidentEnergyCalPerCm2 ?? Infinity;
   if (!((result.incidentEnergyCalPerCm2 ?? Infinity) < before)) {
@@ -218,11 +236,15 @@ export const arcFlashRelay: OptionGenerator = (ctx) => {
  */
 export const currentLimitingFuse: OptionGenerator = (ctx: SearchContext) => {
   const { model, busId } = ctx;
-  const clearingId = ctx.baseHazard.clearingDeviceId;
-  if (!clearingId)
-    return { skipped: 'No device clears the arc before the arc-duration cap: there is no place to add a fuse beside.' };
-  const placed = model.devices.find((d) => d.id === clearingId);
-  if (!placed) return { skipped: `The clearing device ${clearingId} is not in the model.` };
+  const acting = actingDevice(model, ctx.base);
+  if (!acting) {
+    return {
+      skipped:
+        'No device cuts off a source of the arc before the arc-duration cap: there is no place to add a fuse beside.',
+    };
+  }
+  const placed = acting.placed;
+  const clearingId = placed.id;
   if (placed.device.kind === 'fuse') return { skipped: `${nameOf(placed)} is already a fuse.` };
   let kv: number | null = null;
   for (const c of ctx.base.cases) for (const d of c.devices) if (d.deviceId === clearingId) kv = d.kv;
@@ -241,6 +263,14 @@ export const currentLimitingFuse: OptionGenerator = (ctx: SearchContext) => {
   }
   const id = freshId(model, new Set(), `${placed.id}-CLF`);
   const name = `Generic ${rating} A current-limiting fuse`;
+  const patch: ModelPatchOp[] = [
+    { op: 'add-device', placed: { id, name, ...placeOf(placed), device: { ...genericLvFuse(rating), name } } },
+  ];
+  if (!((ctx.evaluate(patch).incidentEnergyCalPerCm2 ?? Infinity) < (ctx.base.incidentEnergyCalPerCm2 ?? Infinity))) {
+    return {
+      skipped: `A ${rating} A current-limiting fuse (the smallest that carries the ${fmt(ratingA)} A of ${nameOf(placed)}) would not lower the energy: by its total-clearing time it clears no sooner (its current limitation is not credited).`,
+    };
+  }
   return [
     {
       kind: 'current-limiting-fuse',
@@ -249,10 +279,9 @@ export const currentLimitingFuse: OptionGenerator = (ctx: SearchContext) => {
       deviceId: placed.id,
       deviceName: nameOf(placed),
       changes: [{ setting: `Fuse with ${nameOf(placed)}`, before: 'None', after: name }],
-      modelPatch: [
-        { op: 'add-device', placed: { id, name, ...placeOf(placed), device: { ...genericLvFuse(rating), name } } },
-      ],
+      modelPatch: patch,
       notes: [
+        ...(acting.why ? [acting.why] : []),
         `The smallest generic rating at or above the ${fmt(ratingA)} A continuous rating of ${nameOf(placed)}, so it carries the load.`,
         'The fuse is credited only by its total-clearing time at the arcing current it sees; the lower let-through of current limitation is not credited (the higher hazard).',
         `A generic band: verify against the manufacturer's published curve, and that the fuse's interrupting rating covers the ${fmt(ctx.base.boltedFaultKa)} kA bolted fault at this bus.`,
