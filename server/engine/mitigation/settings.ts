@@ -91,9 +91,16 @@ export function governingDevice(ctx: SearchContext): Target | { skipped: string 
   const gc = g ? base.cases.find((c) => c.arcCase === g.arcCase && c.location === g.location) : undefined;
   const byId = (id: string | null | undefined) => (id ? model.devices.find((d) => d.id === id) : undefined);
   const direct = byId(ctx.baseHazard.clearingDeviceId);
+  if (direct?.onlyAt) {
+    return {
+      skipped: `The arc is already cleared by ${nameOf(direct)}, ${direct.onlyAt.purpose === 'arc-flash-relay' ? 'an arc-flash relay' : 'a maintenance-switch element'} acting only for arcs at named buses: change it in the model.`,
+    };
+  }
   if (direct) return { placed: direct, why: null };
   if (!gc) return { skipped: 'The bus has no governing arc case to change.' };
-  const cut = gc.sources.filter((s) => s.cutByDeviceId).sort((a, b) => b.share * b.stopsAtS - a.share * a.stopsAtS)[0];
+  const cut = gc.sources
+    .filter((s) => s.cutByDeviceId && !byId(s.cutByDeviceId)?.onlyAt)
+    .sort((a, b) => b.share * b.stopsAtS - a.share * a.stopsAtS)[0];
   const fromCut = byId(cut?.cutByDeviceId);
   if (fromCut) {
     return {
@@ -330,7 +337,10 @@ function instantaneousOption(
       {
         kind: 'instantaneous-setting',
         variant: `${placed.id}@${fmt(v, 6)}A`,
-        title: `${present === null ? 'Add' : 'Lower'} the instantaneous pickup of ${name}${present === null ? '' : ` from ${amps(present)}`} to ${amps(v)}`,
+        title:
+          present === null
+            ? `Turn on the instantaneous element of ${name} at ${amps(v)}`
+            : `Lower the instantaneous pickup of ${name} from ${amps(present)} to ${amps(v)}`,
         deviceId: placed.id,
         deviceName: name,
         changes: [
@@ -338,7 +348,7 @@ function instantaneousOption(
             setting: 'Instantaneous pickup (primary)',
             before,
             after: d.ctRatio
-              ? `${amps(v)} (${fmt(v / d.ctRatio, 4)} A secondary, CT ${fmt(d.ctRatio * 5)}/5)`
+              ? `${amps(v)} (${fmt(v / d.ctRatio, 4)} A secondary, CT ratio ${fmt(d.ctRatio)})`
               : amps(v),
           },
         ],
