@@ -14,9 +14,10 @@ import type {
   MitigateRequest,
   MitigationResponse,
 } from '../../shared/schemas/mitigation';
+import { deviceDefinitionSchema } from '../../shared/schemas/deviceLibrary';
 import type { Model } from '../../shared/schemas/model';
-import { Study } from '../db/models';
-import type { MitigationOutcome } from '../engine/mitigation';
+import { DeviceType, Study } from '../db/models';
+import type { MitigationOutcome, TripTypes } from '../engine/mitigation';
 import { recordAudit } from './audit';
 import type { AppContext, AuthUser } from './context';
 import { ApiError, modelIssuesError } from './errors';
@@ -39,6 +40,26 @@ export function clearMitigationAnswers(): void {
   answers.clear();
 }
 
+/**
+ * The organization's electronic trip-unit types the model's placed devices were taken from (by device-type id), so a
+ * setting is searched over the unit's own switch positions. A type that no longer reads is left out (the generic
+ * starter set is then looked up by name, or the device's settings are searched as numbers).
+ */
+async function tripTypesOf(actor: AuthUser, model: Model): Promise<TripTypes> {
+  const ids = [...new Set(model.devices.flatMap((d) => (d.library?.positions ? [d.library.deviceTypeId] : [])))];
+  if (!ids.length) return {};
+  const rows = await DeviceType.findAll({
+    where: { organizationId: actor.organizationId, id: { [Op.in]: ids } },
+    attributes: ['id', 'definition'],
+  });
+  const out: TripTypes = {};
+  for (const row of rows) {
+    const parsed = deviceDefinitionSchema.safeParse(JSON.parse(row.definition));
+    if (parsed.success && parsed.data.kind === 'electronic') out[row.id] = parsed.data.tripType;
+  }
+  return out;
+}
+
 async function computeOptions(
   actor: AuthUser,
   study: Study,
@@ -49,14 +70,15 @@ async function computeOptions(
   if (checked.snapshot === null) throw modelIssuesError([...checked.issues], 'model.');
   const snapshot = checked.snapshot;
   const options = runSettingsOf(await getSettings(actor.organizationId));
-  const key = `${JSON.stringify(options)}\n${busId}\n${targetCalPerCm2}\n${snapshot}`;
+  const tripTypes = await tripTypesOf(actor, JSON.parse(snapshot) as Model);
+  const key = `${JSON.stringify(options)}\n${JSON.stringify(tripTypes)}\n${busId}\n${targetCalPerCm2}\n${snapshot}`;
   const hit = answers.get(key);
   if (hit) return hit;
   let computing = inFlight.get(key);
   if (!computing) {
     // Always in the study worker: the search runs the engine on the whole model once per candidate setting and
     // option (seconds even for a plant of ten buses), which would hold up every other request in the main thread.
-    computing = mitigationOffThread(snapshot, options, busId, targetCalPerCm2);
+    computing = mitigationOffThread(snapshot, options, busId, targetCalPerCm2, tripTypes);
     inFlight.set(key, computing);
     void computing.then(
       () => inFlight.delete(key),

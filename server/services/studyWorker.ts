@@ -5,7 +5,7 @@ import { createScenarioRunner, type StudyOptions, type StudyRunOutcome } from '.
 import { log } from '../log';
 import { generatedPlant } from '../seed/generatedPlant';
 import { yieldToLoop } from './jobs';
-import { mitigationOutcome, type MitigationOutcome } from '../engine/mitigation';
+import { mitigationOutcome, type MitigationOutcome, type TripTypes } from '../engine/mitigation';
 import { scenarioBusResult, type ScenarioBusOutcome } from './scenarioBus';
 
 /**
@@ -43,7 +43,7 @@ parentPort.on('message', (msg) => {
     let result;
     try {
       mitigationModule = mitigationModule || require(workerData.mitigationModulePath);
-      result = mitigationModule.mitigationOutcome(msg.model, msg.busId, msg.targetCalPerCm2, msg.options);
+      result = mitigationModule.mitigationOutcome(msg.model, msg.busId, msg.targetCalPerCm2, msg.options, msg.tripTypes);
     } catch (e) {
       parentPort.postMessage({ type: 'error', id: msg.id, message: e && e.message ? e.message : String(e) });
       return;
@@ -407,6 +407,7 @@ export async function mitigationOffThread(
   options: StudyOptions,
   busId: string,
   targetCalPerCm2: number,
+  tripTypes: TripTypes = {},
 ): Promise<MitigationOutcome> {
   try {
     return await inWorker<MitigationOutcome>(
@@ -417,12 +418,13 @@ export async function mitigationOffThread(
         options: JSON.parse(JSON.stringify(options)) as unknown,
         busId,
         targetCalPerCm2,
+        tripTypes: JSON.parse(JSON.stringify(tripTypes)) as unknown,
       }),
       {},
     );
   } catch (e) {
     if (!(e instanceof WorkerUnavailable)) throw e;
     log.warn({ err: e }, 'study worker unavailable; computing the mitigation options in the main thread');
-    return mitigationOutcome(modelJson, busId, targetCalPerCm2, options);
+    return mitigationOutcome(modelJson, busId, targetCalPerCm2, options, tripTypes);
   }
 }

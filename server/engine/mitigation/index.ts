@@ -5,19 +5,36 @@
  * the thread boundary). Pure: no I/O, no clock.
  */
 import type { MitigationKind, MitigationResponse } from '../../../shared/schemas/mitigation';
+import type { ElectronicTripType } from '../../../shared/schemas/device';
 import type { Model } from '../../../shared/schemas/model';
 import { EngineError } from '../errors';
 import type { StudyOptions } from '../study';
 import { arcFlashRelay, currentLimitingFuse, lineSideIsolation } from './additions';
 import { mitigateBus, type OptionGenerator } from './search';
 import { checkSelectivity } from './selectivity';
+import { settingGenerators } from './settings';
 
-/** Every option generator, in the order their options are proposed (the search sorts them best first). */
-export const GENERATORS: { kind: MitigationKind; generate: OptionGenerator }[] = [
-  { kind: 'arc-flash-relay', generate: arcFlashRelay },
-  { kind: 'current-limiting-fuse', generate: currentLimitingFuse },
-  { kind: 'line-side-isolation', generate: lineSideIsolation },
-];
+/**
+ * The organization's electronic trip-unit types by device-type id: a placed device taken from the library
+ * (`library.deviceTypeId` with its switch positions) is searched over its own type's positions. Plain JSON (it crosses
+ * to the study worker).
+ */
+export type TripTypes = Record<string, ElectronicTripType>;
+
+/** Every option generator, in the order they are asked (the search sorts the options best first). */
+export function generators(tripTypes: TripTypes = {}): { kind: MitigationKind; generate: OptionGenerator }[] {
+  const settings = settingGenerators({
+    tripTypeOf: (placed) => (placed.library ? (tripTypes[placed.library.deviceTypeId] ?? null) : null),
+  });
+  return [
+    { kind: 'instantaneous-setting', generate: settings.instantaneousSetting },
+    { kind: 'short-time-delay', generate: settings.shortTimeDelay },
+    { kind: 'maintenance-mode', generate: settings.maintenanceMode },
+    { kind: 'arc-flash-relay', generate: arcFlashRelay },
+    { kind: 'current-limiting-fuse', generate: currentLimitingFuse },
+    { kind: 'line-side-isolation', generate: lineSideIsolation },
+  ];
+}
 
 /** The options for one bus of a model: best first, each evaluated by the study engine on the patched model. */
 export function mitigate(
@@ -25,8 +42,16 @@ export function mitigate(
   busId: string,
   targetCalPerCm2: number,
   options: StudyOptions,
+  tripTypes: TripTypes = {},
 ): Omit<MitigationResponse, 'studyId'> {
-  return mitigateBus({ model, busId, targetCalPerCm2, options, generators: GENERATORS, selectivity: checkSelectivity });
+  return mitigateBus({
+    model,
+    busId,
+    targetCalPerCm2,
+    options,
+    generators: generators(tripTypes),
+    selectivity: checkSelectivity,
+  });
 }
 
 /** What the worker answers: the options, or why the bus cannot be mitigated (the field it names). */
@@ -40,10 +65,11 @@ export function mitigationOutcome(
   busId: string,
   targetCalPerCm2: number,
   options: StudyOptions,
+  tripTypes: TripTypes = {},
 ): MitigationOutcome {
   const parsed = typeof model === 'string' ? (JSON.parse(model) as Model) : model;
   try {
-    return { kind: 'ok', response: mitigate(parsed, busId, targetCalPerCm2, options) };
+    return { kind: 'ok', response: mitigate(parsed, busId, targetCalPerCm2, options, tripTypes) };
   } catch (e) {
     if (e instanceof EngineError) return { kind: 'invalid', code: e.code, message: e.message, field: e.field ?? null };
     throw e;
