@@ -350,7 +350,7 @@ export function MitigationScreen({ studyId, busId }: { studyId: string; busId: s
             label="Target incident energy"
             unit="cal/cm²"
             testID="mitigation-target"
-            containerStyle={styles.targetField}
+            containerStyle={wide ? styles.targetField : undefined}
             onSubmitEditing={submit}
           />
           <Button title="Find options" busy={find.isPending} onPress={submit} testID="mitigation-find" />
