@@ -1,7 +1,7 @@
 import type { AppHref } from '../nav';
 import { Link, useLocalSearchParams, useRouter } from 'expo-router';
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import {
   ATTENTION_LIST_INFO,
   ATTENTION_LISTS,
@@ -39,18 +39,8 @@ export function attentionHref(list: AttentionList, siteId: string | null): AppHr
 /** The dashboard's standing caution: where the lists come from, and what governs. */
 export function AttentionCaution() {
   return (
-    <View
-      testID="attention-caution"
-      style={{
-        borderWidth: 1,
-        borderColor: colors.line,
-        borderRadius: radius.md,
-        paddingVertical: space.sm,
-        paddingHorizontal: space.md,
-        backgroundColor: colors.surface,
-      }}
-    >
-      <T variant="small" style={{ color: colors.inkSoft }}>
+    <View testID="attention-caution" style={styles.caution}>
+      <T variant="small" style={styles.cautionText}>
         Dates and lists come from the recorded studies, labels and field reports in Emberline. The facility’s electrical
         safety program governs what must be done and by when.
       </T>
@@ -92,26 +82,12 @@ function CountCard({
       <Pressable
         accessibilityRole="link"
         testID={`attention-card-${list}`}
-        style={{
-          flexGrow: 1,
-          flexBasis: wide ? 280 : 'auto',
-          minHeight: touch.min + 24,
-          backgroundColor: colors.surface,
-          borderRadius: radius.lg,
-          borderWidth: 1,
-          borderColor: colors.lineSoft,
-          borderLeftWidth: 5,
-          borderLeftColor: some ? sev.bar : colors.lineSoft,
-          padding: space.lg,
-          gap: space.xs,
-        }}
+        style={cardStyle(wide, some ? sev.bar : colors.lineSoft)}
       >
-        <View
-          style={{ flexDirection: 'row', alignItems: 'flex-start', justifyContent: 'space-between', gap: space.md }}
-        >
-          <View style={{ flexShrink: 1, gap: 2 }}>
+        <View style={styles.cardHead}>
+          <View style={styles.cardTitle}>
             <T variant="subheading">{info.title}</T>
-            <T variant="label" style={{ color: some ? colors.inkSoft : colors.muted }}>
+            <T variant="label" style={some ? styles.severity : styles.none}>
               {some ? sev.word.toUpperCase() : 'NOTHING HERE'}
             </T>
           </View>
@@ -119,7 +95,7 @@ function CountCard({
             value={String(count)}
             size={30}
             bold
-            style={{ color: some ? colors.ink : colors.muted }}
+            style={some ? styles.count : styles.none}
             testID={`attention-count-${list}`}
           />
         </View>
@@ -134,7 +110,7 @@ export function AttentionCards({ summary, siteId }: { summary: AttentionSummary;
   const { wide } = useLayout();
   return (
     <View
-      style={{ flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap', gap: space.md }}
+      style={[styles.cards, { flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap' }]}
       testID="attention-cards"
     >
       {ATTENTION_LISTS.map((l) => (
@@ -154,12 +130,9 @@ export function OpenReportAges({ summary, siteId }: { summary: AttentionSummary;
   ];
   return (
     <Card testID="open-report-ages">
-      <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
+      <View style={styles.agesHead}>
         <T variant="subheading">Open field reports by age</T>
-        <Link
-          href={attentionHref('open-reports', siteId)}
-          style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}
-        >
+        <Link href={attentionHref('open-reports', siteId)} style={styles.link}>
           {total ? 'Open the list →' : 'See the list →'}
         </Link>
       </View>
@@ -168,10 +141,10 @@ export function OpenReportAges({ summary, siteId }: { summary: AttentionSummary;
           No open field reports. Mismatches reported from the field appear here until they are resolved.
         </T>
       ) : null}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.xl }}>
+      <View style={styles.ages}>
         {parts.map((p) => (
-          <View key={p.label} style={{ gap: 2, minWidth: 90 }}>
-            <Num value={String(p.value)} size={26} bold style={{ color: p.value ? colors.ink : colors.muted }} />
+          <View key={p.label} style={styles.age}>
+            <Num value={String(p.value)} size={26} bold style={p.value ? styles.count : styles.none} />
             <T variant="small">{p.label}</T>
           </View>
         ))}
@@ -195,22 +168,13 @@ function SiteBreakdown({ summary }: { summary: AttentionSummary }) {
           key: s.siteId,
           testID: `attention-site-${s.siteId}`,
           cells: {
-            site: <T style={{ fontFamily: fonts.textMedium }}>{s.siteName}</T>,
+            site: <T style={styles.siteName}>{s.siteName}</T>,
             ...Object.fromEntries(
               ATTENTION_LISTS.map((l) => {
                 const n = s.counts[l] ?? 0;
                 return [
                   l,
-                  <Link
-                    key={l}
-                    href={attentionHref(l, s.siteId)}
-                    style={{
-                      textAlign: 'right',
-                      fontFamily: fonts.numbers,
-                      fontSize: 16,
-                      color: n ? colors.accent : colors.muted,
-                    }}
-                  >
+                  <Link key={l} href={attentionHref(l, s.siteId)} style={n ? styles.siteCount : styles.siteCountNone}>
                     {String(n)}
                   </Link>,
                 ];
@@ -222,7 +186,7 @@ function SiteBreakdown({ summary }: { summary: AttentionSummary }) {
     );
   }
   return (
-    <View style={{ gap: space.md }} testID="attention-sites">
+    <View style={styles.sites} testID="attention-sites">
       {summary.sites.map((s) => (
         <Card key={s.siteId} testID={`attention-site-${s.siteId}`}>
           <T variant="subheading">{s.siteName}</T>
@@ -231,9 +195,9 @@ function SiteBreakdown({ summary }: { summary: AttentionSummary }) {
               const n = s.counts[l] ?? 0;
               return (
                 <Link key={l} href={attentionHref(l, s.siteId)} asChild>
-                  <Pressable accessibilityRole="link" style={{ minHeight: 40, justifyContent: 'center' }}>
+                  <Pressable accessibilityRole="link" style={styles.siteListRow}>
                     <ValueRow label={ATTENTION_LIST_INFO[l].title}>
-                      <Num value={String(n)} bold={n > 0} style={{ color: n ? colors.ink : colors.muted }} />
+                      <Num value={String(n)} bold={n > 0} style={n ? styles.count : styles.none} />
                     </ValueRow>
                   </Pressable>
                 </Link>
@@ -289,3 +253,52 @@ export function AttentionScreen() {
     </Screen>
   );
 }
+
+/**
+ * A count card's box, its left bar in the list's severity colour. One plain object, not an array: the card is the child
+ * of a `Link asChild`, which merges its own props into the child's style.
+ */
+function cardStyle(wide: boolean, barColor: string) {
+  return StyleSheet.flatten([styles.card, wide && styles.cardWide, { borderLeftColor: barColor }]);
+}
+
+const styles = StyleSheet.create({
+  /** Words and numbers of a list with something in it, and of an empty one. */
+  severity: { color: colors.inkSoft },
+  count: { color: colors.ink },
+  none: { color: colors.muted },
+  caution: {
+    borderWidth: 1,
+    borderColor: colors.line,
+    borderRadius: radius.md,
+    paddingVertical: space.sm,
+    paddingHorizontal: space.md,
+    backgroundColor: colors.surface,
+  },
+  cautionText: { color: colors.inkSoft },
+  card: {
+    flexGrow: 1,
+    flexBasis: 'auto',
+    minHeight: touch.min + 24,
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+    borderLeftWidth: 5,
+    padding: space.lg,
+    gap: space.xs,
+  },
+  cardWide: { flexBasis: 280 },
+  cardHead: { flexDirection: 'row', alignItems: 'flex-start', justifyContent: 'space-between', gap: space.md },
+  cardTitle: { flexShrink: 1, gap: 2 },
+  cards: { gap: space.md },
+  agesHead: { flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm },
+  link: { color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium },
+  ages: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xl },
+  age: { gap: 2, minWidth: 90 },
+  siteName: { fontFamily: fonts.textMedium },
+  siteCount: { textAlign: 'right', fontFamily: fonts.numbers, fontSize: 16, color: colors.accent },
+  siteCountNone: { textAlign: 'right', fontFamily: fonts.numbers, fontSize: 16, color: colors.muted },
+  sites: { gap: space.md },
+  siteListRow: { minHeight: 40, justifyContent: 'center' },
+});

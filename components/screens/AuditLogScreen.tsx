@@ -1,6 +1,6 @@
 import { Link, useLocalSearchParams } from 'expo-router';
 import React, { useMemo, useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { auditQuerySchema, type AuditEventDto } from '../../shared/schemas/auditLog';
 import { AUDIT_PAGE_SIZE, auditCsvPath, useAuditEvents, type AuditFilters } from '../../hooks/attention';
 import { fmtDateTime } from '../../hooks/dates';
@@ -39,31 +39,19 @@ function EventRow({ e, wide }: { e: AuditEventDto; wide: boolean }) {
   const who = e.actor ? e.actor.name : 'The system';
   if (wide) {
     return (
-      <View
-        testID={`audit-event-${e.id}`}
-        style={{
-          flexDirection: 'row',
-          gap: space.md,
-          paddingHorizontal: space.lg,
-          paddingVertical: space.md,
-          borderBottomWidth: 1,
-          borderBottomColor: colors.lineSoft,
-        }}
-      >
-        <T style={{ width: 130, fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft }}>
-          {fmtDateTime(e.at).replace(' UTC', '')}
-        </T>
-        <View style={{ width: 170, gap: 2 }}>
-          <T style={{ fontSize: 15, fontFamily: fonts.textMedium }}>{who}</T>
+      <View testID={`audit-event-${e.id}`} style={styles.wideRow}>
+        <T style={styles.when}>{fmtDateTime(e.at).replace(' UTC', '')}</T>
+        <View style={styles.actorColumn}>
+          <T style={styles.actorName}>{who}</T>
           {e.actor ? (
             <T variant="small" numberOfLines={1}>
               {e.actor.email}
             </T>
           ) : null}
         </View>
-        <View style={{ flex: 1, gap: 2 }}>
-          <T style={{ fontSize: 15 }}>{e.description}</T>
-          <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>
+        <View style={styles.whatColumn}>
+          <T style={styles.description}>{e.description}</T>
+          <T variant="small" style={styles.action}>
             {e.action}
           </T>
         </View>
@@ -71,21 +59,12 @@ function EventRow({ e, wide }: { e: AuditEventDto; wide: boolean }) {
     );
   }
   return (
-    <View
-      testID={`audit-event-${e.id}`}
-      style={{
-        paddingHorizontal: space.lg,
-        paddingVertical: space.md,
-        gap: 2,
-        borderBottomWidth: 1,
-        borderBottomColor: colors.lineSoft,
-      }}
-    >
-      <T style={{ fontSize: 15 }}>{e.description}</T>
+    <View testID={`audit-event-${e.id}`} style={styles.narrowRow}>
+      <T style={styles.description}>{e.description}</T>
       <T variant="small">
         {who} · {fmtDateTime(e.at)}
       </T>
-      <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12 }}>
+      <T variant="small" style={styles.action}>
         {e.action}
       </T>
     </View>
@@ -135,23 +114,11 @@ export function AuditLogScreen() {
       .finally(() => setDownloading(false));
   };
 
-  const rowFrame = (i: number) => ({
-    backgroundColor: colors.surface,
-    borderLeftWidth: 1,
-    borderRightWidth: 1,
-    borderColor: colors.lineSoft,
-    ...(i === 0 && !wide
-      ? { marginTop: space.lg, borderTopWidth: 1, borderTopLeftRadius: radius.lg, borderTopRightRadius: radius.lg }
-      : {}),
-    ...(i === all.length - 1
-      ? {
-          borderBottomWidth: 1,
-          borderBottomLeftRadius: radius.lg,
-          borderBottomRightRadius: radius.lg,
-          overflow: 'hidden' as const,
-        }
-      : {}),
-  });
+  const rowFrame = (i: number) => [
+    styles.rowFrame,
+    i === 0 && !wide ? styles.rowFrameFirst : null,
+    i === all.length - 1 ? styles.rowFrameLast : null,
+  ];
 
   // The events are the rows of a virtualized list (the log grows a page at a time as "Load more" is pressed).
   return (
@@ -172,7 +139,7 @@ export function AuditLogScreen() {
       initialNumToRender={AUDIT_PAGE_SIZE}
       footer={
         events.hasNextPage ? (
-          <View style={{ flexDirection: 'row' }}>
+          <View style={styles.buttonRow}>
             <Button
               title="Load more"
               kind="secondary"
@@ -189,22 +156,13 @@ export function AuditLogScreen() {
           <T>
             Showing only the events of {params.entityType ?? 'one'} {params.entityId ?? ''}
             {params.actorId ? ` by one person` : ''}.{' '}
-            <Link href="/audit-log" style={{ color: colors.accent }}>
+            <Link href="/audit-log" style={styles.link}>
               Show every event
             </Link>
           </T>
         </Notice>
       ) : null}
-      <View
-        style={{
-          gap: space.md,
-          backgroundColor: colors.surface,
-          borderRadius: radius.lg,
-          borderWidth: 1,
-          borderColor: colors.lineSoft,
-          padding: space.lg,
-        }}
-      >
+      <View style={styles.filters}>
         <Field
           label="Search"
           testID="audit-search"
@@ -216,7 +174,7 @@ export function AuditLogScreen() {
         {wide || showFilters ? (
           <>
             <Choice label="About" value={action} onChange={setAction} options={ACTION_CHIPS} testID="audit-action" />
-            <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+            <View style={styles.dateRow}>
               <Field
                 label="From"
                 testID="audit-from"
@@ -224,7 +182,7 @@ export function AuditLogScreen() {
                 onChangeText={setFrom}
                 placeholder="YYYY-MM-DD"
                 error={fromError}
-                containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+                containerStyle={styles.dateField}
               />
               <Field
                 label="Until (including that day)"
@@ -233,13 +191,13 @@ export function AuditLogScreen() {
                 onChangeText={setTo}
                 placeholder="YYYY-MM-DD"
                 error={toError}
-                containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+                containerStyle={styles.dateField}
               />
             </View>
           </>
         ) : null}
         {!wide ? (
-          <View style={{ flexDirection: 'row' }}>
+          <View style={styles.buttonRow}>
             <Button
               title={showFilters ? 'Hide filters' : `Filters${activeFilters ? ` (${activeFilters} on)` : ''}`}
               kind="quiet"
@@ -266,29 +224,14 @@ export function AuditLogScreen() {
         </Empty>
       ) : null}
       {all.length > 0 && wide ? (
-        <View
-          style={{
-            flexDirection: 'row',
-            gap: space.md,
-            paddingHorizontal: space.lg,
-            paddingVertical: space.md,
-            backgroundColor: colors.surface,
-            borderWidth: 1,
-            borderBottomColor: colors.line,
-            borderTopColor: colors.lineSoft,
-            borderLeftColor: colors.lineSoft,
-            borderRightColor: colors.lineSoft,
-            borderTopLeftRadius: radius.lg,
-            borderTopRightRadius: radius.lg,
-          }}
-        >
-          <T variant="label" style={{ width: 130 }}>
+        <View style={styles.tableHead}>
+          <T variant="label" style={styles.whenHead}>
             WHEN (UTC)
           </T>
-          <T variant="label" style={{ width: 170 }}>
+          <T variant="label" style={styles.actorHead}>
             WHO
           </T>
-          <T variant="label" style={{ flex: 1 }}>
+          <T variant="label" style={styles.whatHead}>
             WHAT
           </T>
         </View>
@@ -296,3 +239,79 @@ export function AuditLogScreen() {
     </ListScreen>
   );
 }
+
+/** The wide table's fixed columns (header and rows). */
+const WHEN_WIDTH = 130;
+const WHO_WIDTH = 170;
+
+const styles = StyleSheet.create({
+  /** The frame around each event: the list's first and last rows close the card's rounded border. */
+  rowFrame: {
+    backgroundColor: colors.surface,
+    borderLeftWidth: 1,
+    borderRightWidth: 1,
+    borderColor: colors.lineSoft,
+  },
+  rowFrameFirst: {
+    marginTop: space.lg,
+    borderTopWidth: 1,
+    borderTopLeftRadius: radius.lg,
+    borderTopRightRadius: radius.lg,
+  },
+  rowFrameLast: {
+    borderBottomWidth: 1,
+    borderBottomLeftRadius: radius.lg,
+    borderBottomRightRadius: radius.lg,
+    overflow: 'hidden',
+  },
+  wideRow: {
+    flexDirection: 'row',
+    gap: space.md,
+    paddingHorizontal: space.lg,
+    paddingVertical: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  when: { width: WHEN_WIDTH, fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft },
+  actorColumn: { width: WHO_WIDTH, gap: 2 },
+  actorName: { fontSize: 15, fontFamily: fonts.textMedium },
+  whatColumn: { flex: 1, gap: 2 },
+  description: { fontSize: 15 },
+  action: { fontFamily: fonts.numbers, fontSize: 12 },
+  narrowRow: {
+    paddingHorizontal: space.lg,
+    paddingVertical: space.md,
+    gap: 2,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  buttonRow: { flexDirection: 'row' },
+  link: { color: colors.accent },
+  filters: {
+    gap: space.md,
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+    padding: space.lg,
+  },
+  dateRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  dateField: { flexGrow: 1, flexBasis: 160 },
+  tableHead: {
+    flexDirection: 'row',
+    gap: space.md,
+    paddingHorizontal: space.lg,
+    paddingVertical: space.md,
+    backgroundColor: colors.surface,
+    borderWidth: 1,
+    borderBottomColor: colors.line,
+    borderTopColor: colors.lineSoft,
+    borderLeftColor: colors.lineSoft,
+    borderRightColor: colors.lineSoft,
+    borderTopLeftRadius: radius.lg,
+    borderTopRightRadius: radius.lg,
+  },
+  whenHead: { width: WHEN_WIDTH },
+  actorHead: { width: WHO_WIDTH },
+  whatHead: { flex: 1 },
+});

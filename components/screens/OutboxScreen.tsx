@@ -1,5 +1,5 @@
 import React, { useState } from 'react';
-import { Pressable, ScrollView, View } from 'react-native';
+import { Pressable, ScrollView, StyleSheet, View } from 'react-native';
 import type { OutboxMessage } from '../../shared/schemas/reminders';
 import { fmtDateTime } from '../../hooks/dates';
 import { useOutbox } from '../../hooks/mail';
@@ -18,35 +18,31 @@ function MessageView({ m, onBack }: { m: OutboxMessage; onBack?: () => void }) {
   return (
     <Card testID="outbox-message">
       {onBack ? (
-        <View style={{ flexDirection: 'row' }}>
+        <View style={styles.backRow}>
           <Button title="← All messages" kind="quiet" onPress={onBack} testID="outbox-back" />
         </View>
       ) : null}
-      <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}>
-        <T variant="heading" style={{ flexShrink: 1 }} testID="outbox-subject">
+      <View style={styles.messageHead}>
+        <T variant="heading" style={styles.subject} testID="outbox-subject">
           {m.subject}
         </T>
         <Pill label={kindWord(m.kind)} tone="accent" />
       </View>
       <View>
         <ValueRow label="From">
-          <T style={{ fontSize: 15 }}>{m.from}</T>
+          <T style={styles.value}>{m.from}</T>
         </ValueRow>
         <ValueRow label="To">
-          <T style={{ fontSize: 15, textAlign: 'right' }}>{m.to.join(', ')}</T>
+          <T style={styles.recipients}>{m.to.join(', ')}</T>
         </ValueRow>
         <ValueRow label="Captured">
-          <T style={{ fontSize: 15, fontFamily: fonts.numbers }}>{fmtDateTime(m.receivedAt)}</T>
+          <T style={styles.captured}>{fmtDateTime(m.receivedAt)}</T>
         </ValueRow>
       </View>
       {/* A long message scrolls in its own region: focusable and named, so a keyboard can reach and scroll it (axe:
           scrollable-region-focusable). */}
-      <ScrollView horizontal={false} focusable aria-label="Message text" style={{ maxHeight: 640 }}>
-        <T
-          testID="outbox-text"
-          selectable
-          style={{ fontFamily: fonts.numbers, fontSize: 14, lineHeight: 21, color: colors.ink }}
-        >
+      <ScrollView horizontal={false} focusable aria-label="Message text" style={styles.messageScroll}>
+        <T testID="outbox-text" selectable style={styles.messageText}>
           {m.text}
         </T>
       </ScrollView>
@@ -61,23 +57,13 @@ function MessageRow({ m, on, onPress }: { m: OutboxMessage; on: boolean; onPress
       aria-pressed={on}
       onPress={onPress}
       testID={`outbox-row-${m.id}`}
-      style={({ pressed }) => ({
-        minHeight: touch.min + 12,
-        paddingHorizontal: space.lg,
-        paddingVertical: space.md,
-        gap: 2,
-        borderBottomWidth: 1,
-        borderBottomColor: colors.lineSoft,
-        borderLeftWidth: 4,
-        borderLeftColor: on ? colors.accent : 'transparent',
-        backgroundColor: on ? colors.accentSoft : pressed ? colors.canvas : colors.surface,
-      })}
+      style={({ pressed }) => [styles.row, on ? styles.rowOn : pressed ? styles.rowPressed : null]}
     >
-      <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm }}>
-        <T style={{ fontFamily: fonts.textMedium, fontSize: 15, flexShrink: 1 }} numberOfLines={1}>
+      <View style={styles.rowHead}>
+        <T style={styles.rowSubject} numberOfLines={1}>
           {m.subject}
         </T>
-        <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 12, flexShrink: 0 }}>
+        <T variant="small" style={styles.rowWhen}>
           {fmtDateTime(m.receivedAt).slice(0, 16)}
         </T>
       </View>
@@ -98,16 +84,7 @@ export function OutboxScreen() {
   const shown = wide ? (selected ?? messages[0] ?? null) : selected;
 
   const list = (
-    <View
-      style={{
-        backgroundColor: colors.surface,
-        borderRadius: radius.lg,
-        borderWidth: 1,
-        borderColor: colors.lineSoft,
-        overflow: 'hidden',
-      }}
-      testID="outbox-list"
-    >
+    <View style={styles.list} testID="outbox-list">
       {messages.map((m) => (
         <MessageRow key={m.id} m={m} on={shown?.id === m.id} onPress={() => setSelectedId(m.id)} />
       ))}
@@ -136,9 +113,9 @@ export function OutboxScreen() {
         </Empty>
       ) : null}
       {messages.length > 0 && wide ? (
-        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
-          <View style={{ flex: 1 }}>{list}</View>
-          <View style={{ flex: 1.4 }}>{shown ? <MessageView m={shown} /> : null}</View>
+        <View style={styles.split}>
+          <View style={styles.listColumn}>{list}</View>
+          <View style={styles.messageColumn}>{shown ? <MessageView m={shown} /> : null}</View>
         </View>
       ) : null}
       {messages.length > 0 && !wide ? (
@@ -151,3 +128,41 @@ export function OutboxScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  row: {
+    minHeight: touch.min + 12,
+    paddingHorizontal: space.lg,
+    paddingVertical: space.md,
+    gap: 2,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+    borderLeftWidth: 4,
+    borderLeftColor: 'transparent',
+    backgroundColor: colors.surface,
+  },
+  /** The message shown beside the list. */
+  rowOn: { borderLeftColor: colors.accent, backgroundColor: colors.accentSoft },
+  rowPressed: { backgroundColor: colors.canvas },
+  backRow: { flexDirection: 'row' },
+  messageHead: { flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' },
+  subject: { flexShrink: 1 },
+  value: { fontSize: 15 },
+  recipients: { fontSize: 15, textAlign: 'right' },
+  captured: { fontSize: 15, fontFamily: fonts.numbers },
+  messageScroll: { maxHeight: 640 },
+  messageText: { fontFamily: fonts.numbers, fontSize: 14, lineHeight: 21, color: colors.ink },
+  rowHead: { flexDirection: 'row', justifyContent: 'space-between', gap: space.sm },
+  rowSubject: { fontFamily: fonts.textMedium, fontSize: 15, flexShrink: 1 },
+  rowWhen: { fontFamily: fonts.numbers, fontSize: 12, flexShrink: 0 },
+  list: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+    overflow: 'hidden',
+  },
+  split: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  listColumn: { flex: 1 },
+  messageColumn: { flex: 1.4 },
+});

@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { ATTENTION_LIST_INFO, ATTENTION_LISTS, type AttentionList } from '../../shared/schemas/attention';
 import { ROLE_LABELS, ROLES, type Role } from '../../shared/schemas/common';
 import { reminderRuleInputSchema, type ReminderDelivery, type ReminderRule } from '../../shared/schemas/reminders';
@@ -133,7 +133,7 @@ function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void })
         hint="Separate several with commas. Addresses outside the organization are mailed once an administrator approves them."
         placeholder="contractor@example.org"
       />
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.lg }}>
+      <View style={styles.choiceRow}>
         <FormChoice
           control={form.control}
           name="enabled"
@@ -155,7 +155,7 @@ function RuleForm({ rule, onDone }: { rule?: ReminderRule; onDone: () => void })
           testID="rule-only-when"
         />
       </View>
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.buttonRow}>
         <Button title={rule ? 'Save rule' : 'Create rule'} testID="rule-save" busy={save.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onDone} />
       </View>
@@ -188,32 +188,32 @@ function RuleCard({
   const pending = states.filter((e) => e.state === 'pending').map((e) => e.email);
   const approvedOrMember = states.filter((e) => e.state !== 'pending').map((e) => e.email);
   return (
-    <Card testID={`rule-${rule.name}`} style={{ opacity: rule.enabled ? 1 : 0.8 }}>
-      <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
-        <T variant="subheading" style={{ flexShrink: 1 }}>
+    <Card testID={`rule-${rule.name}`} style={rule.enabled ? undefined : styles.paused}>
+      <View style={styles.ruleHead}>
+        <T variant="subheading" style={styles.ruleName}>
           {rule.name}
         </T>
         <Pill label={rule.enabled ? 'Enabled' : 'Paused'} tone={rule.enabled ? 'ok' : 'neutral'} />
       </View>
-      <View style={{ gap: 4 }}>
+      <View style={styles.ruleFact}>
         <T variant="label">LISTS</T>
-        <T style={{ fontSize: 15 }}>{rule.lists.map((l) => ATTENTION_LIST_INFO[l].title).join(' · ')}</T>
+        <T style={styles.factText}>{rule.lists.map((l) => ATTENTION_LIST_INFO[l].title).join(' · ')}</T>
       </View>
-      <View style={{ gap: 4 }}>
+      <View style={styles.ruleFact}>
         <T variant="label">TO</T>
-        <T style={{ fontSize: 15 }}>
+        <T style={styles.factText}>
           {[...rule.roles.map((r) => `every ${ROLE_LABELS[r].toLowerCase()}`), ...approvedOrMember].join(', ') || '—'}
         </T>
       </View>
       {pending.length ? (
         <Notice testID={`rule-pending-${rule.name}`} title="Awaiting an administrator's approval">
-          <View style={{ gap: space.sm }}>
+          <View style={styles.pendingBody}>
             <T>
               Addresses outside the organization get no reminder until an administrator approves them:{' '}
               {pending.join(', ')}.
             </T>
             {canApprove ? (
-              <View style={{ flexDirection: 'row' }}>
+              <View style={styles.approveRow}>
                 <Button
                   title={pending.length === 1 ? 'Approve the address' : `Approve ${pending.length} addresses`}
                   kind="secondary"
@@ -239,7 +239,7 @@ function RuleCard({
         Last sent: {rule.lastSentAt ? fmtDateTime(rule.lastSentAt) : 'never'}.
       </T>
       {error ? <Notice tone="error">{error}</Notice> : null}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'flex-start' }}>
+      <View style={styles.ruleActions}>
         <Button
           title="Send now"
           testID={`rule-send-${rule.name}`}
@@ -269,7 +269,7 @@ function Deliveries() {
   const { wide } = useLayout();
   const deliveries = useDeliveries();
   return (
-    <View style={{ gap: space.md }}>
+    <View style={styles.section}>
       <T variant="heading">Recent deliveries</T>
       <QueryError error={deliveries.error} />
       {deliveries.isLoading ? <Loading what="Loading deliveries…" /> : null}
@@ -280,43 +280,19 @@ function Deliveries() {
         </Empty>
       ) : null}
       {deliveries.data && deliveries.data.length ? (
-        <View
-          style={{
-            backgroundColor: colors.surface,
-            borderRadius: radius.lg,
-            borderWidth: 1,
-            borderColor: colors.lineSoft,
-          }}
-          testID="deliveries"
-        >
+        <View style={styles.deliveries} testID="deliveries">
           {deliveries.data.map((d) => (
             <View
               key={d.id}
               testID={`delivery-${d.id}`}
-              style={{
-                flexDirection: wide ? 'row' : 'column',
-                gap: wide ? space.md : 4,
-                paddingHorizontal: space.lg,
-                paddingVertical: space.md,
-                borderBottomWidth: 1,
-                borderBottomColor: colors.lineSoft,
-              }}
+              style={[styles.delivery, wide ? styles.deliveryWide : styles.deliveryNarrow]}
             >
-              <T
-                style={{
-                  width: wide ? 175 : undefined,
-                  fontFamily: fonts.numbers,
-                  fontSize: 13,
-                  color: colors.inkSoft,
-                }}
-              >
-                {fmtDateTime(d.createdAt)}
-              </T>
-              <View style={{ width: wide ? 90 : undefined }}>
+              <T style={[styles.deliveryWhen, wide && styles.deliveryWhenWide]}>{fmtDateTime(d.createdAt)}</T>
+              <View style={wide ? styles.deliveryStatusWide : undefined}>
                 <Pill label={DELIVERY_WORD[d.status]} tone={DELIVERY_TONE[d.status]} />
               </View>
-              <View style={{ flex: wide ? 1 : undefined, gap: 2 }}>
-                <T style={{ fontSize: 15, fontFamily: fonts.textMedium }}>
+              <View style={[styles.deliveryWhat, wide && styles.deliveryWhatWide]}>
+                <T style={styles.deliveryRule}>
                   {d.ruleName} <T variant="small">({d.trigger === 'daily' ? 'daily' : 'sent by hand'})</T>
                 </T>
                 <T variant="small">
@@ -374,9 +350,9 @@ export function RemindersScreen() {
       {hour !== undefined ? (
         <Notice testID="reminder-hour">
           <T>
-            Enabled rules run every day at <T style={{ fontFamily: fonts.numbersBold }}>{fmtHourUtc(hour)}</T>.{' '}
+            Enabled rules run every day at <T style={styles.hour}>{fmtHourUtc(hour)}</T>.{' '}
             {can('manageSettings') ? (
-              <Link href="/settings" style={{ color: colors.accent }}>
+              <Link href="/settings" style={styles.link}>
                 Change the hour in Settings
               </Link>
             ) : (
@@ -387,9 +363,9 @@ export function RemindersScreen() {
       ) : null}
       {result ? (
         <Notice tone={result.tone} title={result.tone === 'ok' ? 'Sent now' : 'Not sent'} testID="send-result">
-          <View style={{ gap: 2 }}>
+          <View style={styles.sendLines}>
             {result.lines.map((l, i) => (
-              <T key={i} style={{ color: result.tone === 'ok' ? colors.ok : colors.danger }}>
+              <T key={i} style={result.tone === 'ok' ? styles.sentOk : styles.sentError}>
                 {l}
               </T>
             ))}
@@ -405,7 +381,7 @@ export function RemindersScreen() {
           role, or to given addresses, once a day. Create one with “New rule”.
         </Empty>
       ) : null}
-      <View style={{ gap: space.md }}>
+      <View style={styles.section}>
         {rules.data?.rules.map((r) =>
           editing !== null && editing !== 'new' && editing.id === r.id ? (
             <RuleForm key={r.id} rule={r} onDone={() => setEditing(null)} />
@@ -418,3 +394,42 @@ export function RemindersScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  paused: { opacity: 0.8 },
+  sentOk: { color: colors.ok },
+  sentError: { color: colors.danger },
+  choiceRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.lg },
+  buttonRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  ruleHead: { flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm },
+  ruleName: { flexShrink: 1 },
+  ruleFact: { gap: space.xs },
+  factText: { fontSize: 15 },
+  pendingBody: { gap: space.sm },
+  approveRow: { flexDirection: 'row' },
+  ruleActions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'flex-start' },
+  section: { gap: space.md },
+  deliveries: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+  },
+  delivery: {
+    paddingHorizontal: space.lg,
+    paddingVertical: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  deliveryWide: { flexDirection: 'row', gap: space.md },
+  deliveryNarrow: { gap: space.xs },
+  deliveryWhenWide: { width: 175 },
+  deliveryStatusWide: { width: 90 },
+  deliveryWhatWide: { flex: 1 },
+  deliveryWhen: { fontFamily: fonts.numbers, fontSize: 13, color: colors.inkSoft },
+  deliveryWhat: { gap: 2 },
+  deliveryRule: { fontSize: 15, fontFamily: fonts.textMedium },
+  hour: { fontFamily: fonts.numbersBold },
+  link: { color: colors.accent },
+  sendLines: { gap: 2 },
+});

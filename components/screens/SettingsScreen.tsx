@@ -1,5 +1,5 @@
 import React, { useMemo, useState } from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { useFieldArray, type FieldErrors } from 'react-hook-form';
 import { organizationSettingsSchema, type OrganizationSettings } from '../../shared/schemas/organization';
 import { applyServerErrors, ownErrorMessage, useZodForm } from '../../hooks/forms';
@@ -123,7 +123,7 @@ export function SettingsScreen() {
       ) : null}
       <Card>
         <T variant="subheading">Reviews</T>
-        <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+        <View style={styles.fieldRow}>
           <FormNumberField
             control={form.control}
             name="reviewIntervalMonths"
@@ -131,7 +131,7 @@ export function SettingsScreen() {
             unit="months"
             testID="review"
             hint="NFPA 70E: review at least every 5 years (60 months)"
-            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+            containerStyle={styles.fieldInRow}
           />
           <FormNumberField
             control={form.control}
@@ -140,7 +140,7 @@ export function SettingsScreen() {
             unit="ms"
             testID="cap"
             hint="IEEE 1584 guidance: 2 s where the worker can move away"
-            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+            containerStyle={styles.fieldInRow}
           />
         </View>
         <FormChoice
@@ -179,7 +179,7 @@ export function SettingsScreen() {
       </Card>
       <Card testID="attention-settings">
         <T variant="subheading">Attention and reminders</T>
-        <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+        <View style={styles.fieldRow}>
           <FormNumberField
             control={form.control}
             name="notInstalledAfterDays"
@@ -187,7 +187,7 @@ export function SettingsScreen() {
             unit="days"
             testID="not-installed-days"
             hint="Counted from the label’s issue; listed on the dashboard after that"
-            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+            containerStyle={styles.fieldInRow}
           />
           <FormNumberField
             control={form.control}
@@ -200,7 +200,7 @@ export function SettingsScreen() {
                 ? `${reminderHour.trim().padStart(2, '0')}:00 UTC`
                 : 'A whole hour from 0 to 23'
             }
-            containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+            containerStyle={styles.fieldInRow}
           />
         </View>
       </Card>
@@ -236,23 +236,12 @@ export function SettingsScreen() {
         </T>
         {levelsError ? <Notice tone="error">{levelsError}</Notice> : null}
         {levels.fields.map((l, i) => (
-          <View
-            key={l.id}
-            style={{
-              flexDirection: 'row',
-              flexWrap: 'wrap',
-              gap: space.md,
-              alignItems: 'flex-start',
-              paddingBottom: space.md,
-              borderBottomWidth: 1,
-              borderBottomColor: colors.lineSoft,
-            }}
-          >
+          <View key={l.id} style={styles.level}>
             <FormTextField
               control={form.control}
               name={`ppeLevels.${i}.name`}
               label="Name"
-              containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+              containerStyle={styles.levelName}
               testID={`level-${i}-name`}
             />
             <FormNumberField
@@ -260,26 +249,26 @@ export function SettingsScreen() {
               name={`ppeLevels.${i}.maxCalPerCm2`}
               label="Up to"
               unit="cal/cm²"
-              containerStyle={{ flexGrow: 0, flexBasis: 120 }}
+              containerStyle={styles.levelMax}
               testID={`level-${i}-max`}
             />
             <FormTextField
               control={form.control}
               name={`ppeLevels.${i}.description`}
               label="What it requires"
-              containerStyle={{ flexGrow: 2, flexBasis: 240 }}
+              containerStyle={styles.levelDescription}
             />
             <Pressable
               accessibilityRole="button"
               accessibilityLabel={`Remove ${levelNames[i]?.name ?? l.name}`}
               onPress={() => levels.remove(i)}
-              style={{ minHeight: touch.min, justifyContent: 'center', marginTop: 20 }}
+              style={styles.removeLevel}
             >
-              <T style={{ color: colors.danger, fontFamily: fonts.textMedium }}>Remove</T>
+              <T style={styles.removeText}>Remove</T>
             </Pressable>
           </View>
         ))}
-        <View style={{ flexDirection: 'row' }}>
+        <View style={styles.buttonRow}>
           <Button
             title="Add a level"
             kind="secondary"
@@ -287,9 +276,29 @@ export function SettingsScreen() {
           />
         </View>
       </Card>
-      <View style={{ flexDirection: 'row' }}>
+      <View style={styles.buttonRow}>
         <Button title="Save settings" testID="save-settings" busy={save.isPending} onPress={submit} />
       </View>
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  fieldRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  fieldInRow: { flexGrow: 1, flexBasis: 220 },
+  level: {
+    flexDirection: 'row',
+    flexWrap: 'wrap',
+    gap: space.md,
+    alignItems: 'flex-start',
+    paddingBottom: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  levelName: { flexGrow: 1, flexBasis: 160 },
+  levelMax: { flexGrow: 0, flexBasis: 120 },
+  levelDescription: { flexGrow: 2, flexBasis: 240 },
+  removeLevel: { minHeight: touch.min, justifyContent: 'center', marginTop: 20 },
+  removeText: { color: colors.danger, fontFamily: fonts.textMedium },
+  buttonRow: { flexDirection: 'row' },
+});

@@ -1,5 +1,5 @@
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { ROLE_LABELS, ROLES, type Role } from '../../shared/schemas/common';
 import { createInvitationSchema, type InvitationDto } from '../../shared/schemas/invitations';
 import { createUserSchema, type UserAdmin } from '../../shared/schemas/users';
@@ -26,7 +26,6 @@ import {
   T,
 } from '../ui';
 
-const inRow = { flexGrow: 1, flexBasis: 220 } as const;
 const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
 function NewUserForm({ onDone }: { onDone: () => void }) {
@@ -46,15 +45,21 @@ function NewUserForm({ onDone }: { onDone: () => void }) {
     <Card testID="new-user-form">
       <T variant="subheading">Add a person</T>
       {message ? <Notice tone="error">{message}</Notice> : null}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <FormTextField control={form.control} name="name" label="Name" testID="user-name" containerStyle={inRow} />
+      <View style={styles.fieldRow}>
+        <FormTextField
+          control={form.control}
+          name="name"
+          label="Name"
+          testID="user-name"
+          containerStyle={styles.fieldInRow}
+        />
         <FormTextField
           control={form.control}
           name="email"
           label="E-mail"
           testID="user-email"
           autoCapitalize="none"
-          containerStyle={inRow}
+          containerStyle={styles.fieldInRow}
         />
         <FormTextField
           control={form.control}
@@ -63,11 +68,11 @@ function NewUserForm({ onDone }: { onDone: () => void }) {
           testID="user-password"
           secureTextEntry
           hint="At least 10 characters"
-          containerStyle={inRow}
+          containerStyle={styles.fieldInRow}
         />
       </View>
       <FormChoice control={form.control} name="role" label="Role" options={roleOptions} testID="user-role" />
-      <View style={{ flexDirection: 'row', gap: space.sm }}>
+      <View style={styles.buttonRow}>
         <Button title="Add person" testID="user-create" busy={create.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onDone} />
       </View>
@@ -100,8 +105,14 @@ function InviteForm({ onDone, onSent }: { onDone: () => void; onSent: (i: Invita
         They get an e-mail with a link to choose their own password. The link works for 7 days, once.
       </T>
       {message ? <Notice tone="error">{message}</Notice> : null}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
-        <FormTextField control={form.control} name="name" label="Name" testID="invite-name" containerStyle={inRow} />
+      <View style={styles.fieldRow}>
+        <FormTextField
+          control={form.control}
+          name="name"
+          label="Name"
+          testID="invite-name"
+          containerStyle={styles.fieldInRow}
+        />
         <FormTextField
           control={form.control}
           name="email"
@@ -109,11 +120,11 @@ function InviteForm({ onDone, onSent }: { onDone: () => void; onSent: (i: Invita
           testID="invite-email"
           autoCapitalize="none"
           inputMode="email"
-          containerStyle={inRow}
+          containerStyle={styles.fieldInRow}
         />
       </View>
       <FormChoice control={form.control} name="role" label="Role" options={roleOptions} testID="invite-role" />
-      <View style={{ flexDirection: 'row', gap: space.sm }}>
+      <View style={styles.buttonRow}>
         <Button title="Send invitation" testID="invite-send" busy={invite.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onDone} />
       </View>
@@ -135,16 +146,13 @@ function InvitationRow({ i }: { i: InvitationDto }) {
   const st = INVITATION_STATUS[i.status];
   const open = i.status === 'pending' || i.status === 'expired';
   return (
-    <View
-      testID={`invitation-${i.email}`}
-      style={{ gap: space.sm, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
-    >
-      <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
-        <View style={{ gap: 2, flexShrink: 1 }}>
-          <T style={{ fontFamily: fonts.textMedium }}>
+    <View testID={`invitation-${i.email}`} style={styles.invitation}>
+      <View style={styles.invitationHead}>
+        <View style={styles.invitationWho}>
+          <T style={styles.invitationName}>
             {i.name} · {ROLE_LABELS[i.role]}
           </T>
-          <T variant="small" style={{ fontFamily: fonts.numbers }}>
+          <T variant="small" style={styles.email}>
             {i.email}
           </T>
           <T variant="small">
@@ -156,7 +164,7 @@ function InvitationRow({ i }: { i: InvitationDto }) {
       </View>
       {note ? <Notice tone={note.tone}>{note.text}</Notice> : null}
       {open ? (
-        <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-start' }}>
+        <View style={styles.invitationActions}>
           <Button
             title="Send again"
             kind="secondary"
@@ -194,7 +202,7 @@ function Invitations({ inviting, setInviting }: { inviting: boolean; setInviting
   const pending = list.filter((i) => i.status === 'pending');
   const others = list.filter((i) => i.status !== 'pending' && i.status !== 'accepted');
   return (
-    <View style={{ gap: space.md }}>
+    <View style={styles.invitations}>
       {inviting ? <InviteForm onDone={() => setInviting(false)} onSent={setSent} /> : null}
       {sent ? (
         <Notice tone="ok" testID="invite-sent">
@@ -229,18 +237,18 @@ function UserRow({ u, self }: { u: UserAdmin; self: boolean }) {
       { onError: (e) => setError(serverErrors(e).message), onSuccess: () => setError(null) },
     );
   return (
-    <Card testID={`user-${u.email}`} style={{ opacity: u.active ? 1 : 0.7 }}>
-      <View style={{ flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm }}>
-        <View style={{ gap: 2 }}>
+    <Card testID={`user-${u.email}`} style={u.active ? undefined : styles.deactivated}>
+      <View style={styles.userHead}>
+        <View style={styles.userWho}>
           <T variant="subheading">
             {u.name}
             {self ? ' (you)' : ''}
           </T>
-          <T variant="small" style={{ fontFamily: fonts.numbers }}>
+          <T variant="small" style={styles.email}>
             {u.email}
           </T>
         </View>
-        <T style={{ color: u.active ? colors.ok : colors.danger, fontFamily: fonts.textBold }}>
+        <T style={[styles.userState, u.active ? styles.active : styles.inactive]}>
           {u.active ? 'Active' : 'Deactivated'}
         </T>
       </View>
@@ -253,7 +261,7 @@ function UserRow({ u, self }: { u: UserAdmin; self: boolean }) {
             onChange={(role) => change({ role })}
             testID={`role-${u.email}`}
           />
-          <View style={{ flexDirection: 'row' }}>
+          <View style={styles.actionRow}>
             <Button
               title={u.active ? 'Deactivate' : 'Reactivate'}
               kind={u.active ? 'danger' : 'secondary'}
@@ -293,9 +301,9 @@ export function TeamScreen() {
       <Invitations inviting={inviting} setInviting={setInviting} />
       <T variant="heading">People</T>
       {users.error ? <Notice tone="error">{users.error.message}</Notice> : null}
-      <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.md }}>
+      <View style={[styles.userList, { flexDirection: wide ? 'row' : 'column' }]}>
         {users.data?.map((u) => (
-          <View key={u.id} style={{ flexBasis: wide ? '48%' : 'auto', flexGrow: 1 }}>
+          <View key={u.id} style={[styles.userCell, { flexBasis: wide ? '48%' : 'auto' }]}>
             <UserRow u={u} self={u.id === me.id} />
           </View>
         ))}
@@ -303,3 +311,25 @@ export function TeamScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  fieldInRow: { flexGrow: 1, flexBasis: 220 },
+  deactivated: { opacity: 0.7 },
+  userState: { fontFamily: fonts.textBold },
+  active: { color: colors.ok },
+  inactive: { color: colors.danger },
+  fieldRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  buttonRow: { flexDirection: 'row', gap: space.sm },
+  invitation: { gap: space.sm, paddingVertical: space.md, borderBottomWidth: 1, borderBottomColor: colors.lineSoft },
+  invitationHead: { flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm },
+  invitationWho: { gap: 2, flexShrink: 1 },
+  invitationName: { fontFamily: fonts.textMedium },
+  email: { fontFamily: fonts.numbers },
+  invitationActions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-start' },
+  invitations: { gap: space.md },
+  userHead: { flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm },
+  userWho: { gap: 2 },
+  actionRow: { flexDirection: 'row' },
+  userList: { flexWrap: 'wrap', gap: space.md },
+  userCell: { flexGrow: 1 },
+});
