@@ -1,7 +1,7 @@
 import type { AppHref } from '../nav';
 import { Link } from 'expo-router';
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import type { Role } from '../../shared/schemas/common';
 import { ROLE_LABELS } from '../../shared/schemas/common';
 import { useAttentionSummary } from '../../hooks/attention';
@@ -61,20 +61,7 @@ const ROLE_HOME: Record<Role, { duty: string; steps: Step[]; attention?: boolean
 function StepCard({ step, inRow }: { step: Step; inRow: boolean }) {
   return (
     <Link href={step.href} asChild>
-      <Pressable
-        accessibilityRole="link"
-        style={{
-          minHeight: touch.min + 16,
-          flexGrow: inRow ? 1 : 0,
-          flexBasis: inRow ? 260 : 'auto',
-          backgroundColor: colors.surface,
-          borderRadius: radius.lg,
-          borderWidth: 1,
-          borderColor: colors.line,
-          padding: space.lg,
-          gap: 4,
-        }}
-      >
+      <Pressable accessibilityRole="link" style={inRow ? styles.stepInRow : styles.step}>
         <T variant="subheading">{step.title} →</T>
         <T variant="small">{step.detail}</T>
       </Pressable>
@@ -92,9 +79,9 @@ function TeamSummary() {
   return (
     <Card testID="team-summary">
       <T variant="subheading">Active people by role</T>
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.xl }}>
+      <View style={styles.roleCounts}>
         {(Object.keys(ROLE_LABELS) as Role[]).map((r) => (
-          <View key={r} style={{ gap: 2 }}>
+          <View key={r} style={styles.roleCount}>
             <Num value={String(counts[r] ?? 0)} size={28} bold />
             <T variant="small">{ROLE_LABELS[r]}</T>
           </View>
@@ -108,18 +95,10 @@ function TeamSummary() {
 function AttentionHome() {
   const summary = useAttentionSummary(null);
   return (
-    <View style={{ gap: space.md }} testID="home-attention">
-      <View
-        style={{
-          flexDirection: 'row',
-          justifyContent: 'space-between',
-          alignItems: 'flex-end',
-          flexWrap: 'wrap',
-          gap: space.sm,
-        }}
-      >
+    <View style={styles.attention} testID="home-attention">
+      <View style={styles.attentionHead}>
         <T variant="heading">Needs attention</T>
-        <Link href="/attention" style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}>
+        <Link href="/attention" style={styles.dashboardLink}>
           Open the dashboard →
         </Link>
       </View>
@@ -148,15 +127,15 @@ export function HomeScreen() {
       documentTitle="Home"
       subtitle={`${ROLE_LABELS[user.role]}${me.data ? ` · ${me.data.organization.name}` : ''}`}
     >
-      <Card testID={`home-${user.role}`} style={{ backgroundColor: colors.nav, borderColor: colors.nav }}>
-        <T variant="label" style={{ color: colors.navMuted }}>
+      <Card testID={`home-${user.role}`} style={styles.duty}>
+        <T variant="label" style={styles.dutyRole}>
           YOUR ROLE: {ROLE_LABELS[user.role].toUpperCase()}
         </T>
-        <T style={{ color: colors.navInk, fontSize: 18, fontFamily: fonts.textMedium, lineHeight: 26 }}>{home.duty}</T>
+        <T style={styles.dutyText}>{home.duty}</T>
       </Card>
       {home.attention ? <AttentionHome /> : null}
       <T variant="heading">Next</T>
-      <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap', gap: space.md }}>
+      <View style={[styles.steps, { flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap' }]}>
         {home.steps.map((s) => (
           <StepCard key={s.title} step={s} inRow={wide} />
         ))}
@@ -167,11 +146,7 @@ export function HomeScreen() {
         {sites.isLoading ? <T variant="small">Loading…</T> : null}
         {sites.data?.length === 0 ? <T variant="small">No sites yet.</T> : null}
         {sites.data?.slice(0, 5).map((s) => (
-          <Link
-            key={s.id}
-            href={`/sites/${s.id}`}
-            style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium, paddingVertical: 6 }}
-          >
+          <Link key={s.id} href={`/sites/${s.id}`} style={styles.siteLink}>
             {s.name}
           </Link>
         ))}
@@ -179,3 +154,37 @@ export function HomeScreen() {
     </Screen>
   );
 }
+
+/** A next-step card (the child of a `Link asChild`, so each style is one plain object). */
+const step = {
+  minHeight: touch.min + 16,
+  flexGrow: 0,
+  flexBasis: 'auto',
+  backgroundColor: colors.surface,
+  borderRadius: radius.lg,
+  borderWidth: 1,
+  borderColor: colors.line,
+  padding: space.lg,
+  gap: space.xs,
+} as const;
+
+const styles = StyleSheet.create({
+  step,
+  stepInRow: { ...step, flexGrow: 1, flexBasis: 260 },
+  roleCounts: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xl },
+  roleCount: { gap: 2 },
+  attention: { gap: space.md },
+  attentionHead: {
+    flexDirection: 'row',
+    justifyContent: 'space-between',
+    alignItems: 'flex-end',
+    flexWrap: 'wrap',
+    gap: space.sm,
+  },
+  dashboardLink: { color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium },
+  duty: { backgroundColor: colors.nav, borderColor: colors.nav },
+  dutyRole: { color: colors.navMuted },
+  dutyText: { color: colors.navInk, fontSize: 18, fontFamily: fonts.textMedium, lineHeight: 26 },
+  steps: { gap: space.md },
+  siteLink: { color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium, paddingVertical: 6 },
+});

@@ -1,6 +1,6 @@
 import { Link, Redirect } from 'expo-router';
 import React, { useState } from 'react';
-import { KeyboardAvoidingView, ScrollView, View } from 'react-native';
+import { KeyboardAvoidingView, ScrollView, StyleSheet, View } from 'react-native';
 import { signInRequestSchema } from '../../shared/schemas/auth';
 import { applyServerErrors, useZodForm } from '../../hooks/forms';
 import { useSession } from '../../hooks/session';
@@ -31,17 +31,17 @@ export function SignInScreen() {
   };
 
   return (
-    <KeyboardAvoidingView style={{ flex: 1, backgroundColor: colors.nav }}>
-      <ScrollView contentContainerStyle={{ flexGrow: 1, justifyContent: 'center', padding: space.lg }}>
-        <View style={{ width: '100%', maxWidth: 420, alignSelf: 'center', gap: space.xl }}>
-          <View style={{ gap: space.sm }}>
-            <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
-              <View style={{ width: 14, height: 34, borderRadius: 7, backgroundColor: colors.accent }} />
-              <T style={{ fontFamily: fonts.textBold, fontSize: 30, color: colors.navInk }}>Emberline</T>
+    <KeyboardAvoidingView style={styles.page}>
+      <ScrollView contentContainerStyle={styles.pageContent}>
+        <View style={styles.column}>
+          <View style={styles.brand}>
+            <View style={styles.wordmark}>
+              <View style={styles.mark} />
+              <T style={styles.appName}>Emberline</T>
             </View>
-            <T style={{ color: colors.navMuted }}>Arc-flash studies, clearing times and equipment labels.</T>
+            <T style={styles.tagline}>Arc-flash studies, clearing times and equipment labels.</T>
           </View>
-          <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, padding: space.xl, gap: space.lg }}>
+          <View style={styles.form}>
             <T variant="heading" accessibilityRole="header">
               Sign in
             </T>
@@ -69,21 +69,11 @@ export function SignInScreen() {
               onSubmitEditing={submit}
             />
             <Button title="Sign in" testID="sign-in-submit" busy={busy} onPress={submit} />
-            <Link
-              href="/forgot-password"
-              style={{
-                color: colors.accent,
-                fontSize: 15,
-                fontFamily: fonts.textMedium,
-                alignSelf: 'center',
-                paddingVertical: space.xs,
-              }}
-              testID="forgot-password"
-            >
+            <Link href="/forgot-password" style={styles.forgotLink} testID="forgot-password">
               Forgot your password?
             </Link>
           </View>
-          <T variant="small" style={{ color: colors.navMuted }}>
+          <T variant="small" style={styles.footer}>
             Results in Emberline come from a model and are not final until a qualified, licensed engineer approves them.
           </T>
         </View>
@@ -91,3 +81,23 @@ export function SignInScreen() {
     </KeyboardAvoidingView>
   );
 }
+
+const styles = StyleSheet.create({
+  page: { flex: 1, backgroundColor: colors.nav },
+  pageContent: { flexGrow: 1, justifyContent: 'center', padding: space.lg },
+  column: { width: '100%', maxWidth: 420, alignSelf: 'center', gap: space.xl },
+  brand: { gap: space.sm },
+  wordmark: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  mark: { width: 14, height: 34, borderRadius: 7, backgroundColor: colors.accent },
+  appName: { fontFamily: fonts.textBold, fontSize: 30, color: colors.navInk },
+  tagline: { color: colors.navMuted },
+  form: { backgroundColor: colors.surface, borderRadius: radius.lg, padding: space.xl, gap: space.lg },
+  forgotLink: {
+    color: colors.accent,
+    fontSize: 15,
+    fontFamily: fonts.textMedium,
+    alignSelf: 'center',
+    paddingVertical: space.xs,
+  },
+  footer: { color: colors.navMuted },
+});

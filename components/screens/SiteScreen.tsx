@@ -1,6 +1,6 @@
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { findEquipmentClass } from '../../shared/equipmentClasses';
 import { createStudySchema } from '../../shared/schemas/studies';
 import { serverErrors, useZodForm } from '../../hooks/forms';
@@ -34,7 +34,7 @@ function NewStudy({ siteId, onCancel }: { siteId: string; onCancel: () => void }
         editor.
       </T>
       <FormTextField control={form.control} name="title" label="Title" testID="study-title" />
-      <View style={{ flexDirection: 'row', gap: space.sm }}>
+      <View style={styles.buttonRow}>
         <Button title="Start the study" testID="create-study" busy={create.isPending} onPress={submit} />
         <Button title="Cancel" kind="secondary" onPress={onCancel} />
       </View>
@@ -59,7 +59,7 @@ export function SiteScreen({ siteId }: { siteId: string }) {
         <Notice tone="error" title="This site cannot be shown">
           {site.error.message}
         </Notice>
-        <Link href="/sites" style={{ color: colors.accent, fontSize: 16 }}>
+        <Link href="/sites" style={styles.backLink}>
           Back to sites
         </Link>
       </Screen>
@@ -95,10 +95,10 @@ export function SiteScreen({ siteId }: { siteId: string }) {
           <SiteForm site={s} onDone={() => setEditing(false)} onCancel={() => setEditing(false)} />
         </Card>
       ) : s.description ? (
-        <T style={{ color: colors.inkSoft }}>{s.description}</T>
+        <T style={styles.description}>{s.description}</T>
       ) : null}
 
-      <View style={{ gap: space.sm }}>
+      <View style={styles.section}>
         <T variant="heading">Studies</T>
         {studies.error ? <Notice tone="error">{studies.error.message}</Notice> : null}
         {studies.data && studies.data.length === 0 ? (
@@ -107,20 +107,20 @@ export function SiteScreen({ siteId }: { siteId: string }) {
         {studies.data?.length ? <StudyList studies={studies.data} /> : null}
       </View>
 
-      <View style={{ gap: space.sm }}>
+      <View style={styles.section}>
         <T variant="heading">Equipment</T>
         <T variant="small">The equipment that carries labels, from the site’s approved studies.</T>
         {equipment.data && equipment.data.length === 0 ? (
           <Notice>No equipment yet: it appears when a study is approved.</Notice>
         ) : null}
-        <View style={{ flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', gap: space.sm }}>
+        <View style={[styles.equipmentList, { flexDirection: wide ? 'row' : 'column' }]}>
           {equipment.data?.map((e) => (
             <Card
               key={e.id}
-              style={{ flexBasis: wide ? '31%' : 'auto', flexGrow: 1, gap: 2, padding: space.md }}
+              style={[styles.equipment, { flexBasis: wide ? '31%' : 'auto' }]}
               testID={`equipment-${e.tag}`}
             >
-              <T style={{ fontFamily: fonts.numbersBold }}>{e.tag}</T>
+              <T style={styles.tag}>{e.tag}</T>
               <T>{e.name}</T>
               <T variant="small">
                 {findEquipmentClass(e.equipmentClass)?.label ?? e.equipmentClass} ·{' '}
@@ -133,3 +133,13 @@ export function SiteScreen({ siteId }: { siteId: string }) {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  buttonRow: { flexDirection: 'row', gap: space.sm },
+  backLink: { color: colors.accent, fontSize: 16 },
+  description: { color: colors.inkSoft },
+  section: { gap: space.sm },
+  equipmentList: { flexWrap: 'wrap', gap: space.sm },
+  equipment: { flexGrow: 1, gap: 2, padding: space.md },
+  tag: { fontFamily: fonts.numbersBold },
+});

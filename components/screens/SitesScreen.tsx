@@ -1,6 +1,6 @@
 import { Link, useLocalSearchParams, useRouter } from 'expo-router';
 import React, { useState } from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { useSites } from '../../hooks/queries';
 import { useCan } from '../../hooks/permissions';
 import { useLayout } from '../../hooks/useLayout';
@@ -37,52 +37,26 @@ export function SitesScreen() {
         <Notice>No sites yet.{canEdit ? ' Create the first one.' : ''}</Notice>
       ) : null}
       {sites.data && wide ? (
-        <View
-          style={{
-            backgroundColor: colors.surface,
-            borderRadius: radius.lg,
-            borderWidth: 1,
-            borderColor: colors.lineSoft,
-          }}
-          testID="sites-table"
-        >
-          <View
-            style={{
-              flexDirection: 'row',
-              paddingHorizontal: space.lg,
-              paddingVertical: space.md,
-              borderBottomWidth: 1,
-              borderBottomColor: colors.line,
-            }}
-          >
-            <T variant="label" style={{ flex: 2 }}>
+        <View style={styles.table} testID="sites-table">
+          <View style={styles.tableHead}>
+            <T variant="label" style={styles.siteHead}>
               SITE
             </T>
-            <T variant="label" style={{ flex: 2 }}>
+            <T variant="label" style={styles.addressHead}>
               ADDRESS
             </T>
-            <T variant="label" style={{ flex: 1 }}>
+            <T variant="label" style={styles.updatedHead}>
               UPDATED
             </T>
           </View>
           {sites.data.map((s) => (
             <Link key={s.id} href={`/sites/${s.id}`} asChild>
-              <Pressable
-                accessibilityRole="link"
-                style={{
-                  flexDirection: 'row',
-                  minHeight: touch.min,
-                  alignItems: 'center',
-                  paddingHorizontal: space.lg,
-                  borderBottomWidth: 1,
-                  borderBottomColor: colors.lineSoft,
-                }}
-              >
-                <T style={{ flex: 2, fontFamily: fonts.textMedium }}>{s.name}</T>
-                <T variant="small" style={{ flex: 2 }}>
+              <Pressable accessibilityRole="link" style={styles.row}>
+                <T style={styles.siteName}>{s.name}</T>
+                <T variant="small" style={styles.address}>
                   {s.address || '—'}
                 </T>
-                <T variant="small" style={{ flex: 1, fontFamily: fonts.numbers }}>
+                <T variant="small" style={styles.updated}>
                   {s.updatedAt.slice(0, 10)}
                 </T>
               </Pressable>
@@ -104,3 +78,33 @@ export function SitesScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  table: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+  },
+  tableHead: {
+    flexDirection: 'row',
+    paddingHorizontal: space.lg,
+    paddingVertical: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.line,
+  },
+  siteHead: { flex: 2 },
+  addressHead: { flex: 2 },
+  updatedHead: { flex: 1 },
+  row: {
+    flexDirection: 'row',
+    minHeight: touch.min,
+    alignItems: 'center',
+    paddingHorizontal: space.lg,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  siteName: { flex: 2, fontFamily: fonts.textMedium },
+  address: { flex: 2 },
+  updated: { flex: 1, fontFamily: fonts.numbers },
+});
