@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'expo-router';
 import React from 'react';
-import { ScrollView, View } from 'react-native';
+import { ScrollView, StyleSheet, View } from 'react-native';
 import { LABEL_STATUS_LABELS } from '../../shared/schemas/labels';
 import { LABEL_STATUS_NOTICES } from '../../shared/labelDisplay';
 import { groupLabelCode, parseLabelCode } from '../../shared/labelCode';
@@ -28,18 +28,15 @@ export function LabelCheckScreen({ code }: { code: string }) {
   });
   const notFound = check.error instanceof ApiClientError && check.error.status === 404;
   return (
-    <ScrollView
-      style={{ flex: 1, backgroundColor: colors.canvas }}
-      contentContainerStyle={{ padding: space.lg, paddingBottom: 64 }}
-    >
-      <View style={{ width: '100%', maxWidth: 560, alignSelf: 'center', gap: space.lg }}>
-        <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
-          <View style={{ width: 10, height: 24, borderRadius: 5, backgroundColor: colors.accent }} />
-          <T style={{ fontFamily: fonts.textBold, fontSize: 18 }}>Emberline label check</T>
+    <ScrollView style={styles.page} contentContainerStyle={styles.pageContent}>
+      <View style={styles.column}>
+        <View style={styles.brand}>
+          <View style={styles.mark} />
+          <T style={styles.brandName}>Emberline label check</T>
         </View>
         {check.isLoading ? <T>Checking the label…</T> : null}
         {notFound ? (
-          <View testID="label-not-found" style={{ gap: space.md }}>
+          <View testID="label-not-found" style={styles.notFound}>
             <T variant="title">Label not found</T>
             <T>
               No label has the code {code}. Check the code printed under the QR code. If the label looks genuine, tell
@@ -52,26 +49,19 @@ export function LabelCheckScreen({ code }: { code: string }) {
           <>
             <View
               testID="label-status"
-              style={{
-                backgroundColor: STATUS_STYLE[check.data.status].bg,
-                borderRadius: radius.lg,
-                padding: space.lg,
-                gap: space.xs,
-              }}
+              style={[styles.status, { backgroundColor: STATUS_STYLE[check.data.status].bg }]}
             >
-              <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 34, letterSpacing: 1 }}>
-                {LABEL_STATUS_LABELS[check.data.status].toUpperCase()}
-              </T>
-              <T style={{ color: '#fff', fontSize: 17 }} testID="label-status-notice">
+              <T style={styles.statusWord}>{LABEL_STATUS_LABELS[check.data.status].toUpperCase()}</T>
+              <T style={styles.statusNotice} testID="label-status-notice">
                 {LABEL_STATUS_NOTICES[check.data.status]}
               </T>
-              <T style={{ color: '#fff', fontSize: 13, fontFamily: fonts.numbers }}>
+              <T style={styles.statusDetail}>
                 Checked {check.data.checkedAt.slice(0, 16).replace('T', ' ')} UTC · code{' '}
                 {groupLabelCode(check.data.code)}
               </T>
             </View>
             {check.data.status === 'superseded' && check.data.current ? (
-              <View style={{ gap: space.sm }} testID="label-current-values">
+              <View style={styles.labelBlock} testID="label-current-values">
                 <T variant="heading">The current label says</T>
                 <LabelView content={check.data.current} />
               </View>
@@ -81,7 +71,7 @@ export function LabelCheckScreen({ code }: { code: string }) {
                 No current label has been issued for this equipment yet: ask the engineer before working on it.
               </Notice>
             ) : null}
-            <View style={{ gap: space.sm }}>
+            <View style={styles.labelBlock}>
               <T variant="heading">
                 {check.data.status === 'superseded' ? 'This (old) label says' : 'This label says'}
               </T>
@@ -92,7 +82,7 @@ export function LabelCheckScreen({ code }: { code: string }) {
               reviewed
               incidentEnergyCalPerCm2={(check.data.current ?? check.data.content).incidentEnergyCalPerCm2}
             />
-            <Link href={`/labels/${check.data.code}`} style={{ color: colors.accent, fontSize: 16 }}>
+            <Link href={`/labels/${check.data.code}`} style={styles.signInLink}>
               Electricians: sign in to mark this label installed or report what does not match
             </Link>
           </>
@@ -101,3 +91,19 @@ export function LabelCheckScreen({ code }: { code: string }) {
     </ScrollView>
   );
 }
+
+const styles = StyleSheet.create({
+  page: { flex: 1, backgroundColor: colors.canvas },
+  pageContent: { padding: space.lg, paddingBottom: 64 },
+  column: { width: '100%', maxWidth: 560, alignSelf: 'center', gap: space.lg },
+  brand: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  mark: { width: 10, height: 24, borderRadius: 5, backgroundColor: colors.accent },
+  brandName: { fontFamily: fonts.textBold, fontSize: 18 },
+  notFound: { gap: space.md },
+  status: { borderRadius: radius.lg, padding: space.lg, gap: space.xs },
+  statusWord: { color: '#fff', fontFamily: fonts.textBold, fontSize: 34, letterSpacing: 1 },
+  statusNotice: { color: '#fff', fontSize: 17 },
+  statusDetail: { color: '#fff', fontSize: 13, fontFamily: fonts.numbers },
+  labelBlock: { gap: space.sm },
+  signInLink: { color: colors.accent, fontSize: 16 },
+});

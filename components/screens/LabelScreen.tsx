@@ -1,6 +1,6 @@
 import { REPORT_KIND_LABELS, REPORT_KINDS } from '../../shared/schemas/fieldReports';
 import React, { useState } from 'react';
-import { Platform, View } from 'react-native';
+import { Platform, StyleSheet, View } from 'react-native';
 import { LABEL_STATUS_LABELS } from '../../shared/schemas/labels';
 import { applyServerErrors, serverErrors, useZodForm } from '../../hooks/forms';
 import { useLabelCheck, useLabelDetail, useMarkInstalled, useReportMismatch } from '../../hooks/labels';
@@ -18,7 +18,7 @@ const KINDS = REPORT_KINDS.map((value) => ({ value, label: REPORT_KIND_LABELS[va
 function PhotoInput({ onFile, testID, label }: { onFile: (f: File | null) => void; testID: string; label: string }) {
   if (Platform.OS !== 'web') return null;
   return (
-    <View style={{ gap: 4 }}>
+    <View style={styles.photoInput}>
       <T variant="label">{label}</T>
       {React.createElement('input', {
         type: 'file',
@@ -80,7 +80,7 @@ function ReportPanel({ code }: { code: string }) {
         label="What you see"
         testID="report-text"
         multiline
-        style={{ minHeight: 90 }}
+        style={styles.reportText}
         hint="e.g. the breaker on the door is a 400 A frame, the label names a 600 A feeder"
       />
       <PhotoInput onFile={setPhoto} testID="report-photo" label="Photo (optional)" />
@@ -113,12 +113,10 @@ export function LabelScreen({ code }: { code: string }) {
   const tone = l.status === 'current' ? colors.ok : l.status === 'superseded' ? colors.danger : colors.caution;
   const field = can('fieldWork');
   const info = (
-    <View style={{ gap: space.lg }}>
-      <View style={{ backgroundColor: tone, borderRadius: radius.lg, padding: space.lg }} testID="label-status">
-        <T style={{ color: '#fff', fontFamily: fonts.textBold, fontSize: 28 }}>
-          {LABEL_STATUS_LABELS[l.status].toUpperCase()}
-        </T>
-        <T style={{ color: '#fff' }}>
+    <View style={styles.info}>
+      <View style={[styles.status, { backgroundColor: tone }]} testID="label-status">
+        <T style={styles.statusWord}>{LABEL_STATUS_LABELS[l.status].toUpperCase()}</T>
+        <T style={styles.statusDetail}>
           {l.installedAt
             ? `Installed ${l.installedAt.slice(0, 10)}${l.installedBy ? ` by ${l.installedBy}` : ''}`
             : 'Not marked installed'}{' '}
@@ -142,11 +140,11 @@ export function LabelScreen({ code }: { code: string }) {
       subtitle={`${l.content.siteName} · code ${l.code}`}
     >
       {wide ? (
-        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
-          <View style={{ flex: 1 }}>
+        <View style={styles.split}>
+          <View style={styles.column}>
             <LabelView content={l.content} code={l.code} width={420} />
           </View>
-          <View style={{ flex: 1 }}>{info}</View>
+          <View style={styles.column}>{info}</View>
         </View>
       ) : (
         <>
@@ -157,3 +155,14 @@ export function LabelScreen({ code }: { code: string }) {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  photoInput: { gap: space.xs },
+  reportText: { minHeight: 90 },
+  info: { gap: space.lg },
+  status: { borderRadius: radius.lg, padding: space.lg },
+  statusWord: { color: '#fff', fontFamily: fonts.textBold, fontSize: 28 },
+  statusDetail: { color: '#fff' },
+  split: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  column: { flex: 1 },
+});

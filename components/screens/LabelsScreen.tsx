@@ -1,6 +1,6 @@
 import { Link, useLocalSearchParams } from 'expo-router';
 import React, { useMemo, useState } from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { LABEL_STATUS_LABELS, type LabelDto, type LabelSize } from '../../shared/schemas/labels';
 import { downloadFile } from '../../hooks/download';
 import { serverErrors } from '../../hooks/forms';
@@ -31,48 +31,26 @@ function Row({
 }) {
   const panel = signalPanelColors(l.content.signalWord);
   return (
-    <View
-      style={{
-        flexDirection: 'row',
-        alignItems: 'center',
-        gap: space.sm,
-        minHeight: touch.min + 8,
-        paddingHorizontal: space.md,
-        borderBottomWidth: 1,
-        borderBottomColor: colors.lineSoft,
-      }}
-      testID={`label-row-${l.equipmentTag}`}
-    >
+    <View style={styles.row} testID={`label-row-${l.equipmentTag}`}>
       <Pressable
         accessibilityRole="checkbox"
         aria-checked={selected}
         accessibilityLabel={`Select ${l.equipmentTag}`}
         onPress={onToggle}
         testID={`select-${l.equipmentTag}`}
-        style={{ width: touch.min, height: touch.min, alignItems: 'center', justifyContent: 'center' }}
+        style={styles.checkboxTarget}
       >
-        <View
-          style={{
-            width: 24,
-            height: 24,
-            borderRadius: 4,
-            borderWidth: 2,
-            borderColor: colors.ink,
-            backgroundColor: selected ? colors.ink : colors.surface,
-            alignItems: 'center',
-            justifyContent: 'center',
-          }}
-        >
-          {selected ? <T style={{ color: '#fff', fontFamily: fonts.textBold }}>✓</T> : null}
+        <View style={[styles.checkbox, selected && styles.checkboxOn]}>
+          {selected ? <T style={styles.checkMark}>✓</T> : null}
         </View>
       </Pressable>
-      <Pressable onPress={onPreview} style={{ flex: 1, gap: 2, paddingVertical: 6 }} accessibilityRole="button">
-        <View style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', flexWrap: 'wrap' }}>
-          <T style={{ fontFamily: fonts.numbersBold }}>{l.equipmentTag}</T>
-          <View style={{ backgroundColor: panel.background, paddingHorizontal: 5, borderRadius: 3 }}>
-            <T style={{ color: panel.text, fontSize: 11, fontFamily: fonts.textBold }}>{l.content.signalWord}</T>
+      <Pressable onPress={onPreview} style={styles.rowSummary} accessibilityRole="button">
+        <View style={styles.rowHead}>
+          <T style={styles.tag}>{l.equipmentTag}</T>
+          <View style={[styles.signalWord, { backgroundColor: panel.background }]}>
+            <T style={[styles.signalWordText, { color: panel.text }]}>{l.content.signalWord}</T>
           </View>
-          <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{displayText(l.display.incidentEnergy)}</T>
+          <T style={styles.energy}>{displayText(l.display.incidentEnergy)}</T>
         </View>
         <T variant="small" numberOfLines={1}>
           {l.content.equipmentName} · {LABEL_STATUS_LABELS[l.status]} ·{' '}
@@ -80,7 +58,7 @@ function Row({
           {l.installedAt ? `installed ${l.installedAt.slice(0, 10)}` : 'not installed'}
         </T>
       </Pressable>
-      <Link href={`/labels/${l.code}`} style={{ color: colors.accent, fontSize: 15, padding: space.sm }}>
+      <Link href={`/labels/${l.code}`} style={styles.openLink}>
         Open
       </Link>
     </View>
@@ -138,7 +116,7 @@ export function LabelsScreen() {
 
   const b = batch.data;
   const list = (
-    <View style={{ gap: space.md }}>
+    <View style={styles.list}>
       <Choice
         value={filter}
         onChange={setFilter}
@@ -149,7 +127,7 @@ export function LabelsScreen() {
           { value: 'not-installed', label: 'Not installed' },
         ]}
       />
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.buttonRow}>
         <Button
           title="Select all shown"
           kind="secondary"
@@ -158,14 +136,7 @@ export function LabelsScreen() {
         />
         <Button title="Clear" kind="quiet" onPress={() => setSelected(new Set())} />
       </View>
-      <View
-        style={{
-          backgroundColor: colors.surface,
-          borderRadius: radius.lg,
-          borderWidth: 1,
-          borderColor: colors.lineSoft,
-        }}
-      >
+      <View style={styles.table}>
         {shown.map((l) => (
           <Row
             key={l.id}
@@ -176,7 +147,7 @@ export function LabelsScreen() {
           />
         ))}
         {labels.data && shown.length === 0 ? (
-          <T style={{ padding: space.lg }} variant="small">
+          <T style={styles.empty} variant="small">
             No labels here.
           </T>
         ) : null}
@@ -211,7 +182,7 @@ export function LabelsScreen() {
         onPress={print}
       />
       {b ? (
-        <View style={{ gap: space.xs }} testID="batch">
+        <View style={styles.batch} testID="batch">
           <T>{b.message}</T>
           {b.status !== 'done' ? <ProgressBar value={b.progress} testID="batch-progress" /> : null}
           {b.status === 'done' ? (
@@ -251,12 +222,12 @@ export function LabelsScreen() {
       />
       {labels.error ? <Notice tone="error">{labels.error.message}</Notice> : null}
       {wide ? (
-        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
-          <View style={{ flex: 1.2, gap: space.lg }}>
+        <View style={styles.split}>
+          <View style={styles.listColumn}>
             {queue}
             {list}
           </View>
-          <View style={{ flex: 1, gap: space.sm }}>
+          <View style={styles.previewColumn}>
             <T variant="label">PREVIEW</T>
             {preview ? (
               <LabelView content={preview.content} code={preview.code} width={400} />
@@ -270,7 +241,7 @@ export function LabelsScreen() {
           {queue}
           {list}
           {preview ? (
-            <View style={{ gap: space.sm }}>
+            <View style={styles.preview}>
               <T variant="label">PREVIEW · {preview.equipmentTag}</T>
               <LabelView content={preview.content} code={preview.code} />
             </View>
@@ -280,3 +251,49 @@ export function LabelsScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  row: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    minHeight: touch.min + 8,
+    paddingHorizontal: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  checkboxTarget: { width: touch.min, height: touch.min, alignItems: 'center', justifyContent: 'center' },
+  checkbox: {
+    width: 24,
+    height: 24,
+    borderRadius: 4,
+    borderWidth: 2,
+    borderColor: colors.ink,
+    backgroundColor: colors.surface,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  checkboxOn: { backgroundColor: colors.ink },
+  checkMark: { color: '#fff', fontFamily: fonts.textBold },
+  rowSummary: { flex: 1, gap: 2, paddingVertical: 6 },
+  rowHead: { flexDirection: 'row', gap: space.sm, alignItems: 'center', flexWrap: 'wrap' },
+  tag: { fontFamily: fonts.numbersBold },
+  signalWord: { paddingHorizontal: 5, borderRadius: 3 },
+  signalWordText: { fontSize: 11, fontFamily: fonts.textBold },
+  energy: { fontFamily: fonts.numbers, fontSize: 14 },
+  openLink: { color: colors.accent, fontSize: 15, padding: space.sm },
+  list: { gap: space.md },
+  buttonRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  table: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+  },
+  empty: { padding: space.lg },
+  batch: { gap: space.xs },
+  split: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  listColumn: { flex: 1.2, gap: space.lg },
+  previewColumn: { flex: 1, gap: space.sm },
+  preview: { gap: space.sm },
+});

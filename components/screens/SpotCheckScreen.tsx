@@ -1,5 +1,5 @@
 import React, { useEffect, useRef, useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import {
   EQUIPMENT_CLASSES,
   ELECTRODE_CONFIGS,
@@ -193,9 +193,8 @@ export function SpotCheckScreen() {
     )();
   };
 
-  const fieldStyle = { flexGrow: 1, flexBasis: 140 } as const;
   const inputs = (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.inputs}>
       {!canRun ? (
         <Notice>
           Spot checks are run by engineers. You can look at the typical values of each equipment class here.
@@ -215,15 +214,7 @@ export function SpotCheckScreen() {
         />
       </Card>
       <Card>
-        <View
-          style={{
-            flexDirection: 'row',
-            justifyContent: 'space-between',
-            alignItems: 'center',
-            flexWrap: 'wrap',
-            gap: space.sm,
-          }}
-        >
+        <View style={styles.inputsHead}>
           <T variant="subheading">Inputs</T>
           <Choice
             value={system}
@@ -235,7 +226,7 @@ export function SpotCheckScreen() {
             testID="unit"
           />
         </View>
-        <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+        <View style={styles.fieldRow}>
           <FormNumberField
             control={form.control}
             name="voltageV"
@@ -243,7 +234,7 @@ export function SpotCheckScreen() {
             unit="V"
             testID="voltageV"
             editable={canRun}
-            containerStyle={fieldStyle}
+            containerStyle={styles.field}
           />
           <FormNumberField
             control={form.control}
@@ -252,7 +243,7 @@ export function SpotCheckScreen() {
             unit="kA"
             testID="boltedFaultKa"
             editable={canRun}
-            containerStyle={fieldStyle}
+            containerStyle={styles.field}
           />
         </View>
         <Choice
@@ -263,7 +254,7 @@ export function SpotCheckScreen() {
           testID="config"
         />
         <T variant="small">{ELECTRODE_CONFIG_LABELS[electrodeConfig]}</T>
-        <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+        <View style={styles.fieldRow}>
           <FormNumberField
             control={form.control}
             name="gapMm"
@@ -271,7 +262,7 @@ export function SpotCheckScreen() {
             unit={unit}
             testID="gap"
             editable={canRun}
-            containerStyle={fieldStyle}
+            containerStyle={styles.field}
           />
           <FormNumberField
             control={form.control}
@@ -280,20 +271,20 @@ export function SpotCheckScreen() {
             unit={unit}
             testID="workingDistance"
             editable={canRun}
-            containerStyle={fieldStyle}
+            containerStyle={styles.field}
           />
         </View>
         {!openAir ? (
           <>
             <T variant="label">ENCLOSURE ({unit})</T>
-            <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+            <View style={styles.fieldRow}>
               <FormNumberField
                 control={form.control}
                 name="enclosureMm.height"
                 label="Height"
                 testID="height"
                 editable={canRun}
-                containerStyle={{ flexGrow: 1, flexBasis: 90 }}
+                containerStyle={styles.enclosureField}
               />
               <FormNumberField
                 control={form.control}
@@ -301,7 +292,7 @@ export function SpotCheckScreen() {
                 label="Width"
                 testID="width"
                 editable={canRun}
-                containerStyle={{ flexGrow: 1, flexBasis: 90 }}
+                containerStyle={styles.enclosureField}
               />
               <FormNumberField
                 control={form.control}
@@ -309,7 +300,7 @@ export function SpotCheckScreen() {
                 label="Depth"
                 testID="depth"
                 editable={canRun}
-                containerStyle={{ flexGrow: 1, flexBasis: 90 }}
+                containerStyle={styles.enclosureField}
               />
             </View>
           </>
@@ -337,7 +328,7 @@ export function SpotCheckScreen() {
             hint="From the upstream device’s trip band at the arcing current"
           />
         ) : (
-          <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+          <View style={styles.fieldRow}>
             <FormNumberField
               control={form.control}
               name="clearingMs.full"
@@ -345,7 +336,7 @@ export function SpotCheckScreen() {
               unit="ms"
               testID="fullMs"
               editable={canRun}
-              containerStyle={fieldStyle}
+              containerStyle={styles.field}
             />
             <FormNumberField
               control={form.control}
@@ -354,7 +345,7 @@ export function SpotCheckScreen() {
               unit="ms"
               testID="reducedMs"
               editable={canRun}
-              containerStyle={fieldStyle}
+              containerStyle={styles.field}
             />
           </View>
         )}
@@ -369,11 +360,11 @@ export function SpotCheckScreen() {
   );
 
   const results = (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.results}>
       {calc.data ? (
         <EnergyResult result={calc.data} unit={unit} />
       ) : (
-        <Card style={{ borderStyle: 'dashed', borderColor: colors.line }}>
+        <Card style={styles.resultPlaceholder}>
           <T variant="subheading">Result</T>
           <T variant="small">
             Enter the equipment and press Calculate. Both the full and the reduced arcing current are evaluated, each
@@ -391,9 +382,9 @@ export function SpotCheckScreen() {
       subtitle="One equipment, no model: IEEE 1584-2018 arcing currents, incident energy and label values."
     >
       {wide ? (
-        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
-          <View style={{ flex: 1 }}>{inputs}</View>
-          <View style={{ flex: 1 }}>{results}</View>
+        <View style={styles.split}>
+          <View style={styles.column}>{inputs}</View>
+          <View style={styles.column}>{results}</View>
         </View>
       ) : (
         <>
@@ -404,3 +395,21 @@ export function SpotCheckScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  field: { flexGrow: 1, flexBasis: 140 },
+  inputs: { gap: space.lg },
+  inputsHead: {
+    flexDirection: 'row',
+    justifyContent: 'space-between',
+    alignItems: 'center',
+    flexWrap: 'wrap',
+    gap: space.sm,
+  },
+  fieldRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  enclosureField: { flexGrow: 1, flexBasis: 90 },
+  results: { gap: space.lg },
+  resultPlaceholder: { borderStyle: 'dashed', borderColor: colors.line },
+  split: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  column: { flex: 1 },
+});
