@@ -1,5 +1,5 @@
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { ELECTRONIC_SETTING_NAMES, RELAY_CURVES, type ElectronicSettingName } from '../../shared/schemas/device';
 import type { DeviceDefinition } from '../../shared/schemas/deviceLibrary';
 import { colors, space } from '../theme';
@@ -13,8 +13,6 @@ type Props<K extends DeviceDefinition['kind']> = {
   errors: Errors;
   editable: boolean;
 };
-
-const row = { flexDirection: 'row', flexWrap: 'wrap', gap: space.md } as const;
 
 const SWITCH_LABELS: Record<ElectronicSettingName, string> = {
   ratingPlug: 'Rating plug (A)',
@@ -31,8 +29,8 @@ const SWITCH_LABELS: Record<ElectronicSettingName, string> = {
 function ThermalMagnetic({ def, onChange, errors, editable }: Props<'thermal-magnetic'>) {
   const inst = def.instantaneous ?? {};
   return (
-    <View style={{ gap: space.md }}>
-      <View style={row}>
+    <View style={styles.editor}>
+      <View style={styles.row}>
         <NumberInput
           label="Rating"
           unit="A"
@@ -53,7 +51,7 @@ function ThermalMagnetic({ def, onChange, errors, editable }: Props<'thermal-mag
         />
       </View>
       <T variant="label">THERMAL BAND (MULTIPLES OF RATING)</T>
-      <View style={row}>
+      <View style={styles.row}>
         <PointsInput
           label="Minimum curve"
           value={def.thermal.min}
@@ -70,7 +68,7 @@ function ThermalMagnetic({ def, onChange, errors, editable }: Props<'thermal-mag
         />
       </View>
       <T variant="label">INSTANTANEOUS (MULTIPLE OF RATING, ± TOLERANCE)</T>
-      <View style={row}>
+      <View style={styles.row}>
         <NumberInput
           label="Pickup"
           unit="× rating"
@@ -98,7 +96,7 @@ function ThermalMagnetic({ def, onChange, errors, editable }: Props<'thermal-mag
 
 function Fuse({ def, onChange, errors, editable }: Props<'fuse'>) {
   return (
-    <View style={{ gap: space.md }}>
+    <View style={styles.editor}>
       <NumberInput
         label="Rating"
         unit="A"
@@ -108,7 +106,7 @@ function Fuse({ def, onChange, errors, editable }: Props<'fuse'>) {
         editable={editable}
         testID="ratingA"
       />
-      <View style={row}>
+      <View style={styles.row}>
         <PointsInput
           label="Total clearing (A, s)"
           value={def.totalClearing}
@@ -133,7 +131,7 @@ function Fuse({ def, onChange, errors, editable }: Props<'fuse'>) {
 
 function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
   return (
-    <View style={{ gap: space.md }}>
+    <View style={styles.editor}>
       <Choice
         label="Curve"
         value={def.curve}
@@ -141,7 +139,7 @@ function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
         onChange={(c) => editable && onChange({ ...def, curve: c })}
         testID="curve"
       />
-      <View style={row}>
+      <View style={styles.row}>
         <NumberInput
           label="Pickup (primary)"
           unit="A"
@@ -169,7 +167,7 @@ function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
           hint="Leave empty for none"
         />
       </View>
-      <View style={row}>
+      <View style={styles.row}>
         <NumberInput
           label="CT ratio"
           value={def.ctRatio}
@@ -196,7 +194,7 @@ function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
           editable={editable}
         />
       </View>
-      <View style={row}>
+      <View style={styles.row}>
         <NumberInput
           label="Curve limit"
           unit="× pickup"
@@ -219,7 +217,7 @@ function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
         />
       </View>
       <T variant="label">DEFINITE-TIME ELEMENT (OPTIONAL)</T>
-      <View style={row}>
+      <View style={styles.row}>
         <NumberInput
           label="Pickup"
           unit="A"
@@ -259,8 +257,8 @@ function Relay({ def, onChange, errors, editable }: Props<'relay'>) {
 
 function Band({ def, onChange, errors, editable }: Props<'band'>) {
   return (
-    <View style={{ gap: space.md }}>
-      <View style={row}>
+    <View style={styles.editor}>
+      <View style={styles.row}>
         <NumberInput
           label="Rating"
           unit="A"
@@ -280,7 +278,7 @@ function Band({ def, onChange, errors, editable }: Props<'band'>) {
         ]}
         onChange={(u) => editable && onChange({ ...def, currentUnit: u })}
       />
-      <View style={row}>
+      <View style={styles.row}>
         <PointsInput
           label="Minimum curve"
           value={def.min}
@@ -346,10 +344,7 @@ function SwitchRow({
   const [text, setText] = useState(positionsToText(positions));
   const [bad, setBad] = useState(false);
   return (
-    <View
-      style={{ gap: space.xs, paddingVertical: space.sm, borderBottomWidth: 1, borderBottomColor: colors.lineSoft }}
-      testID={`switch-${name}`}
-    >
+    <View style={styles.switch} testID={`switch-${name}`}>
       <Choice
         label={SWITCH_LABELS[name]}
         value={chosen ?? ''}
@@ -360,7 +355,7 @@ function SwitchRow({
         testID={`pos-${name}`}
       />
       {error ? (
-        <T variant="small" style={{ color: colors.danger }}>
+        <T variant="small" style={styles.error}>
           {error}
         </T>
       ) : null}
@@ -378,7 +373,7 @@ function SwitchRow({
         />
       ) : null}
       {editable && onRemove ? (
-        <T accessibilityRole="button" onPress={onRemove} style={{ color: colors.danger }}>
+        <T accessibilityRole="button" onPress={onRemove} style={styles.removeSwitch}>
           Remove this switch
         </T>
       ) : null}
@@ -393,8 +388,8 @@ function Electronic({ def, onChange, errors, editable }: Props<'electronic'>) {
   const absent = ELECTRONIC_SETTING_NAMES.filter((n) => !settings[n]);
   const setTrip = (patch: Partial<typeof t>) => onChange({ ...def, tripType: { ...t, ...patch } });
   return (
-    <View style={{ gap: space.md }}>
-      <View style={row}>
+    <View style={styles.editor}>
+      <View style={styles.row}>
         <NumberInput
           label="Sensor"
           unit="A"
@@ -495,3 +490,11 @@ export function DefinitionEditor({
       return <Electronic def={def} onChange={onChange} errors={errors} editable={editable} />;
   }
 }
+
+const styles = StyleSheet.create({
+  row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  editor: { gap: space.md },
+  switch: { gap: space.xs, paddingVertical: space.sm, borderBottomWidth: 1, borderBottomColor: colors.lineSoft },
+  error: { color: colors.danger },
+  removeSwitch: { color: colors.danger },
+});

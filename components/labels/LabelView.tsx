@@ -1,5 +1,5 @@
 import React from 'react';
-import { Image, View } from 'react-native';
+import { Image, StyleSheet, View } from 'react-native';
 import type { LabelContent } from '../../shared/schemas/labels';
 import {
   NO_ADEQUATE_PPE_TEXT,
@@ -18,32 +18,27 @@ import { fonts } from '../theme';
 import { T } from '../ui';
 
 const INK = '#000000';
-const RULE = { borderColor: INK, borderWidth: 1 } as const;
 
 function Cell({ title, children, flex = 1 }: { title: string; children: React.ReactNode; flex?: number }) {
   return (
-    <View style={{ flex, padding: 6, gap: 1 }}>
-      <T style={{ fontFamily: fonts.textBold, fontSize: 9, lineHeight: 12, color: INK, letterSpacing: 0.4 }}>
-        {title.toUpperCase()}
-      </T>
+    <View style={[styles.cell, { flex }]}>
+      <T style={styles.cellTitle}>{title.toUpperCase()}</T>
       {children}
     </View>
   );
 }
 
 const Big = ({ children, size = 16, testID }: { children: React.ReactNode; size?: number; testID?: string }) => (
-  <T style={{ fontFamily: fonts.numbersBold, fontSize: size, color: INK }} testID={testID}>
+  <T style={[styles.big, { fontSize: size }]} testID={testID}>
     {children}
   </T>
 );
 const Small = ({ children, testID }: { children: React.ReactNode; testID?: string }) => (
-  <T style={{ fontFamily: fonts.numbers, fontSize: 11, lineHeight: 14, color: INK }} testID={testID}>
+  <T style={styles.small} testID={testID}>
     {children}
   </T>
 );
-const Row = ({ children }: { children: React.ReactNode }) => (
-  <View style={{ flexDirection: 'row', borderTopWidth: 1, borderColor: INK }}>{children}</View>
-);
+const Row = ({ children }: { children: React.ReactNode }) => <View style={styles.row}>{children}</View>;
 
 /**
  * What a printed label says, drawn on screen in the layout of the PDF label (server/pdf/labels.ts): the signal-word
@@ -60,55 +55,35 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
     d.ppeLevel.value === NO_ADEQUATE_PPE_TEXT ||
     d.ppeLevel.value === NO_PPE_LEVEL_TEXT;
   return (
-    <View
-      testID="label-view"
-      style={{ width: '100%', maxWidth: width, alignSelf: 'center', backgroundColor: '#fff', ...RULE, borderWidth: 2 }}
-    >
-      <View
-        style={{
-          backgroundColor: panel.background,
-          flexDirection: 'row',
-          alignItems: 'center',
-          justifyContent: 'center',
-          gap: 10,
-          paddingVertical: 8,
-        }}
-      >
+    <View testID="label-view" style={[styles.label, { maxWidth: width }]}>
+      <View style={[styles.signalPanel, { backgroundColor: panel.background }]}>
         <HazardMark size={34} />
-        <T
-          style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 36, lineHeight: 47, letterSpacing: 1 }}
-          testID="label-signal-word"
-        >
+        <T style={[styles.signalWord, { color: panel.text }]} testID="label-signal-word">
           {d.signalWord.value}
         </T>
       </View>
-      <View style={{ alignItems: 'center', paddingVertical: 4, paddingHorizontal: 6 }}>
-        <T style={{ fontFamily: fonts.textBold, fontSize: 19, lineHeight: 25, color: INK, textAlign: 'center' }}>
-          {d.hazardStatement.value}
-        </T>
-        <T style={{ fontSize: 10, lineHeight: 13, color: INK, textAlign: 'center' }} testID="label-hazard-caution">
+      <View style={styles.hazard}>
+        <T style={styles.hazardStatement}>{d.hazardStatement.value}</T>
+        <T style={styles.fineCentered} testID="label-hazard-caution">
           {d.hazardCaution.value}
         </T>
       </View>
       <Row>
         <Cell title="Incident energy" flex={1.2}>
-          <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: 4, flexWrap: 'wrap' }}>
-            <T
-              testID="label-energy"
-              style={{ fontFamily: fonts.numbersBold, fontSize: 36, lineHeight: 47, color: INK }}
-            >
+          <View style={styles.energyLine}>
+            <T testID="label-energy" style={styles.energy}>
               {d.incidentEnergy.value}
             </T>
-            <T style={{ fontSize: 15, lineHeight: 20, color: INK }} testID="label-energy-unit">
+            <T style={styles.energyUnit} testID="label-energy-unit">
               {d.incidentEnergy.unit}
             </T>
           </View>
           <Small testID="label-energy-secondary">{d.incidentEnergy.secondary}</Small>
-          <T style={{ fontSize: 10, lineHeight: 13, color: INK }} testID="label-working-distance">
+          <T style={styles.fine} testID="label-working-distance">
             {`at a working distance of ${displayText(d.workingDistance)} (${d.workingDistance.secondary})`}
           </T>
         </Cell>
-        <View style={{ width: 1, backgroundColor: INK }} />
+        <View style={styles.columnRule} />
         <Cell title="Arc-flash boundary">
           <Big size={22} testID="label-boundary">
             {displayText(d.arcFlashBoundary)}
@@ -121,26 +96,20 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
           <Big testID="label-arc-rating">{displayText(d.minimumArcRating)}</Big>
           {d.minimumArcRating.secondary ? <Small>{d.minimumArcRating.secondary}</Small> : null}
         </Cell>
-        <View style={{ flex: 1.2, padding: 6, justifyContent: 'center' }}>
-          <View style={{ ...RULE, borderWidth: 2, padding: 4, alignItems: 'center' }}>
+        <View style={styles.ppeCell}>
+          <View style={styles.ppeBox}>
             {refused ? (
-              <T
-                style={{ fontFamily: fonts.textBold, fontSize: 12, lineHeight: 16, color: INK, textAlign: 'center' }}
-                testID="label-ppe"
-              >
+              <T style={styles.ppeRefused} testID="label-ppe">
                 {d.ppeLevel.value}
               </T>
             ) : (
               <>
-                <T style={{ fontFamily: fonts.textBold, fontSize: 9, lineHeight: 12, color: INK }}>PPE LEVEL</T>
-                <T style={{ fontFamily: fonts.textBold, fontSize: 15, lineHeight: 20, color: INK }} testID="label-ppe">
+                <T style={styles.ppeCaption}>PPE LEVEL</T>
+                <T style={styles.ppeLevel} testID="label-ppe">
                   {d.ppeLevel.value}
                 </T>
                 {d.ppeLevel.secondary ? (
-                  <T
-                    style={{ fontSize: 10, lineHeight: 13, color: INK, textAlign: 'center' }}
-                    testID="label-ppe-description"
-                  >
+                  <T style={styles.fineCentered} testID="label-ppe-description">
                     {d.ppeLevel.secondary}
                   </T>
                 ) : null}
@@ -169,32 +138,26 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
         </Cell>
       </Row>
       <Row>
-        <View style={{ flex: 1 }}>
+        <View style={styles.equipmentColumn}>
           <Cell title="Equipment">
-            <T style={{ fontFamily: fonts.numbersBold, fontSize: 16, lineHeight: 21, color: INK }}>
-              {d.equipmentTag.value}
-            </T>
-            <T style={{ fontFamily: fonts.textBold, fontSize: 13, lineHeight: 17, color: INK }}>
-              {d.equipmentName.value}
-            </T>
-            <T style={{ fontSize: 11, lineHeight: 14, color: INK }}>{d.siteName.value}</T>
+            <T style={styles.equipmentTag}>{d.equipmentTag.value}</T>
+            <T style={styles.equipmentName}>{d.equipmentName.value}</T>
+            <T style={styles.detail}>{d.siteName.value}</T>
           </Cell>
           <Cell title={clearedByCaption(content)}>
-            <T style={{ fontSize: 11, lineHeight: 14, color: INK }} testID="label-cleared-by">
+            <T style={styles.detail} testID="label-cleared-by">
               {clearedByText(d.clearedBy)}
             </T>
           </Cell>
         </View>
         {code ? (
-          <View style={{ width: 128, padding: 6, alignItems: 'center', gap: 2 }}>
+          <View style={styles.qrColumn}>
             <Image
               source={{ uri: `${apiBaseUrl()}/api/labels/${code}/qr.png` }}
-              style={{ width: 96, height: 96 }}
+              style={styles.qrImage}
               accessibilityLabel="QR code of the label check address"
             />
-            <T style={{ fontFamily: fonts.numbersBold, fontSize: 10, lineHeight: 13, color: INK }}>
-              {groupLabelCode(code)}
-            </T>
+            <T style={styles.qrCode}>{groupLabelCode(code)}</T>
           </View>
         ) : null}
       </Row>
@@ -209,10 +172,10 @@ export function LabelView({ content, code, width = 380 }: { content: LabelConten
           <Small>{d.studyRevision.value}</Small>
         </Cell>
       </Row>
-      <View style={{ borderTopWidth: 1, borderColor: INK, padding: 6, gap: 2 }}>
-        <T style={{ fontSize: 10, lineHeight: 13, color: INK }}>{`Study: ${d.studyTitle.value}`}</T>
-        <T style={{ fontSize: 10, lineHeight: 13, color: INK }}>{`Approved by ${d.approvedBy.value}`}</T>
-        <T style={{ fontSize: 10, lineHeight: 13, color: INK }}>{d.caution.value}</T>
+      <View style={styles.footer}>
+        <T style={styles.fine}>{`Study: ${d.studyTitle.value}`}</T>
+        <T style={styles.fine}>{`Approved by ${d.approvedBy.value}`}</T>
+        <T style={styles.fine}>{d.caution.value}</T>
       </View>
     </View>
   );
@@ -227,3 +190,40 @@ function Distance({ d }: { d: DisplayValue }) {
     </>
   );
 }
+
+/**
+ * The printed label's own layout (the PDF's proportions, black ink on white), not the app's theme: its spacing and type
+ * sizes are the label's and stay numbers here.
+ */
+const styles = StyleSheet.create({
+  cell: { padding: 6, gap: 1 },
+  cellTitle: { fontFamily: fonts.textBold, fontSize: 9, lineHeight: 12, color: INK, letterSpacing: 0.4 },
+  big: { fontFamily: fonts.numbersBold, color: INK },
+  small: { fontFamily: fonts.numbers, fontSize: 11, lineHeight: 14, color: INK },
+  row: { flexDirection: 'row', borderTopWidth: 1, borderColor: INK },
+  /** The label's frame: a 2 px black rule around the white card. */
+  label: { width: '100%', alignSelf: 'center', backgroundColor: '#fff', borderColor: INK, borderWidth: 2 },
+  signalPanel: { flexDirection: 'row', alignItems: 'center', justifyContent: 'center', gap: 10, paddingVertical: 8 },
+  signalWord: { fontFamily: fonts.textBold, fontSize: 36, lineHeight: 47, letterSpacing: 1 },
+  hazard: { alignItems: 'center', paddingVertical: 4, paddingHorizontal: 6 },
+  hazardStatement: { fontFamily: fonts.textBold, fontSize: 19, lineHeight: 25, color: INK, textAlign: 'center' },
+  fineCentered: { fontSize: 10, lineHeight: 13, color: INK, textAlign: 'center' },
+  energyLine: { flexDirection: 'row', alignItems: 'baseline', gap: 4, flexWrap: 'wrap' },
+  energy: { fontFamily: fonts.numbersBold, fontSize: 36, lineHeight: 47, color: INK },
+  energyUnit: { fontSize: 15, lineHeight: 20, color: INK },
+  fine: { fontSize: 10, lineHeight: 13, color: INK },
+  columnRule: { width: 1, backgroundColor: INK },
+  ppeCell: { flex: 1.2, padding: 6, justifyContent: 'center' },
+  ppeBox: { borderColor: INK, borderWidth: 2, padding: 4, alignItems: 'center' },
+  ppeRefused: { fontFamily: fonts.textBold, fontSize: 12, lineHeight: 16, color: INK, textAlign: 'center' },
+  ppeCaption: { fontFamily: fonts.textBold, fontSize: 9, lineHeight: 12, color: INK },
+  ppeLevel: { fontFamily: fonts.textBold, fontSize: 15, lineHeight: 20, color: INK },
+  equipmentColumn: { flex: 1 },
+  equipmentTag: { fontFamily: fonts.numbersBold, fontSize: 16, lineHeight: 21, color: INK },
+  equipmentName: { fontFamily: fonts.textBold, fontSize: 13, lineHeight: 17, color: INK },
+  detail: { fontSize: 11, lineHeight: 14, color: INK },
+  qrColumn: { width: 128, padding: 6, alignItems: 'center', gap: 2 },
+  qrImage: { width: 96, height: 96 },
+  qrCode: { fontFamily: fonts.numbersBold, fontSize: 10, lineHeight: 13, color: INK },
+  footer: { borderTopWidth: 1, borderColor: INK, padding: 6, gap: 2 },
+});

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useRouter } from 'expo-router';
 import React, { useMemo, useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
 import {
   DEVICE_KIND_LABELS,
@@ -72,25 +72,25 @@ function BandReader({
       <T variant="small">
         Enter the current the device sees; the clearing time is read on the maximum (total clearing) curve.
       </T>
-      <View style={{ flexDirection: 'row', gap: space.md, alignItems: 'flex-end', flexWrap: 'wrap' }}>
+      <View style={styles.readRow}>
         <NumberInput label="Current" unit="A" value={currentA} onChange={setCurrentA} testID="read-current" />
         <Button title="Read" testID="read-band" busy={read.isPending} disabled={!device} onPress={go} />
       </View>
       {read.error ? <Notice tone="error">{read.error.message}</Notice> : null}
       {r ? (
-        <View style={{ gap: space.xs }} testID="band-reading">
-          <T style={{ fontSize: 18 }}>
+        <View style={styles.reading} testID="band-reading">
+          <T style={styles.readingLine}>
             {r.clearingTimeS === null ? (
-              <T style={{ fontFamily: fonts.textBold, fontSize: 18 }}>Does not clear at this current</T>
+              <T style={styles.noClear}>Does not clear at this current</T>
             ) : (
               <>
-                Clears in <T style={{ fontFamily: fonts.numbersBold, fontSize: 20 }}>{fmt(r.clearingTimeS)} s</T>
+                Clears in <T style={styles.clearingTime}>{fmt(r.clearingTimeS)} s</T>
               </>
             )}
           </T>
           <T variant="small">
-            Region: <T style={{ fontFamily: fonts.textBold }}>{REGION_LABELS[r.region]}</T> · minimum curve{' '}
-            <T style={{ fontFamily: fonts.numbers }}>{r.minimumTimeS === null ? '—' : `${fmt(r.minimumTimeS)} s`}</T>
+            Region: <T style={styles.region}>{REGION_LABELS[r.region]}</T> · minimum curve{' '}
+            <T style={styles.minimumTime}>{r.minimumTimeS === null ? '—' : `${fmt(r.minimumTimeS)} s`}</T>
           </T>
           {r.warnings.map((w) => (
             <Notice key={w.code + w.message} tone="warning" testID={`warning-${w.code}`}>
@@ -235,7 +235,7 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
 
   const genericNote = id ? existing.data?.genericNote : null;
   const form = (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.form}>
       {message ? (
         <Notice tone={message.tone} testID="device-message">
           {message.text}
@@ -256,7 +256,7 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
       <Card>
         <T variant="subheading">Settings</T>
         {def.kind === 'band' && canEdit ? (
-          <View style={{ gap: space.xs, padding: space.md, backgroundColor: colors.canvas, borderRadius: 8 }}>
+          <View style={styles.csvImport}>
             <Choice
               label="The CSV's first column holds"
               value={def.currentUnit}
@@ -277,7 +277,7 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
         <DefinitionEditor def={def} onChange={setDef} errors={fieldErrors} editable={canEdit} />
       </Card>
       {canEdit ? (
-        <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+        <View style={styles.buttonRow}>
           <Button
             title={id ? 'Save changes' : 'Add to library'}
             testID="save-device"
@@ -308,9 +308,9 @@ export function DeviceTypeScreen({ id, kind, justSaved }: { id?: string; kind?: 
         </Notice>
       ) : null}
       {wide ? (
-        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
-          <View style={{ flex: 1 }}>{form}</View>
-          <View style={{ flex: 1, gap: space.lg }}>
+        <View style={styles.split}>
+          <View style={styles.formColumn}>{form}</View>
+          <View style={styles.plotColumn}>
             {plot}
             <BandReader device={device} onRead={setReading} />
           </View>
@@ -336,3 +336,19 @@ function curveLimitVertical(def: DeviceDefinition): { currentA: number; label: s
   if (!(pickupA !== undefined && pickupA > 0 && Number.isFinite(pickupA * multiple))) return [];
   return [{ currentA: pickupA * multiple, label: `Curve limit ${multiple} × pickup`, tone: 'neutral' }];
 }
+
+const styles = StyleSheet.create({
+  readRow: { flexDirection: 'row', gap: space.md, alignItems: 'flex-end', flexWrap: 'wrap' },
+  reading: { gap: space.xs },
+  readingLine: { fontSize: 18 },
+  noClear: { fontFamily: fonts.textBold, fontSize: 18 },
+  clearingTime: { fontFamily: fonts.numbersBold, fontSize: 20 },
+  region: { fontFamily: fonts.textBold },
+  minimumTime: { fontFamily: fonts.numbers },
+  form: { gap: space.lg },
+  csvImport: { gap: space.xs, padding: space.md, backgroundColor: colors.canvas, borderRadius: 8 },
+  buttonRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  split: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  formColumn: { flex: 1 },
+  plotColumn: { flex: 1, gap: space.lg },
+});

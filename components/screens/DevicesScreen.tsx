@@ -1,6 +1,6 @@
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import type { Device, DeviceKind } from '../../shared/schemas/device';
 import { DEVICE_KIND_LABELS, genericNoteSentence } from '../../shared/schemas/deviceLibrary';
 import { useDeviceTypes } from '../../hooks/queries';
@@ -55,39 +55,24 @@ export function DevicesScreen() {
       keyExtractor={(t) => t.id}
       numColumns={wide ? 2 : 1}
       renderItem={(t) => (
-        <View style={{ flex: 1, marginTop: space.md }}>
+        <View style={styles.cell}>
           <Link href={`/devices/${t.id}`} asChild>
-            <Pressable accessibilityRole="link" style={{ flexGrow: 1 }} testID={`device-${t.name}`}>
-              <Card style={{ height: '100%' }}>
-                <View
-                  style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}
-                >
-                  <T variant="subheading" style={{ flexShrink: 1 }}>
+            <Pressable accessibilityRole="link" style={styles.cardLink} testID={`device-${t.name}`}>
+              <Card style={styles.card}>
+                <View style={styles.cardHead}>
+                  <T variant="subheading" style={styles.name}>
                     {t.name}
                   </T>
-                  <View
-                    style={{
-                      backgroundColor: colors.accentSoft,
-                      borderRadius: radius.sm,
-                      paddingHorizontal: 8,
-                      paddingVertical: 2,
-                    }}
-                  >
-                    <T style={{ fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink }}>
-                      {DEVICE_KIND_LABELS[t.kind]}
-                    </T>
+                  <View style={styles.kind}>
+                    <T style={styles.kindText}>{DEVICE_KIND_LABELS[t.kind]}</T>
                   </View>
                 </View>
-                <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
+                <T variant="small" style={styles.summary}>
                   {summary(t.device)}
                 </T>
                 {t.description ? <T variant="small">{t.description}</T> : null}
                 {t.genericNote ? (
-                  <T
-                    variant="small"
-                    style={{ color: colors.caution, fontFamily: fonts.textMedium }}
-                    testID={`device-note-${t.name}`}
-                  >
+                  <T variant="small" style={styles.genericNote} testID={`device-note-${t.name}`}>
                     {genericNoteSentence(t.genericNote)}
                   </T>
                 ) : null}
@@ -100,7 +85,7 @@ export function DevicesScreen() {
       {choosing ? (
         <Card testID="choose-kind">
           <T variant="subheading">What kind of device?</T>
-          <View style={{ flexDirection: wide ? 'row' : 'column', gap: space.sm, flexWrap: 'wrap' }}>
+          <View style={[styles.kinds, { flexDirection: wide ? 'row' : 'column' }]}>
             {KINDS.map((k) => (
               <Button
                 key={k}
@@ -125,7 +110,7 @@ export function DevicesScreen() {
         onChangeText={setSearch}
         placeholder="e.g. 400 A fuse, LSIG, very inverse"
         testID="device-search"
-        containerStyle={{ maxWidth: 480 }}
+        containerStyle={styles.filter}
       />
       {types.error ? <Notice tone="error">{types.error.message}</Notice> : null}
       {types.isLoading ? <T variant="small">Loading…</T> : null}
@@ -137,3 +122,22 @@ export function DevicesScreen() {
     </ListScreen>
   );
 }
+
+const styles = StyleSheet.create({
+  cell: { flex: 1, marginTop: space.md },
+  cardLink: { flexGrow: 1 },
+  card: { height: '100%' },
+  cardHead: { flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' },
+  name: { flexShrink: 1 },
+  kind: {
+    backgroundColor: colors.accentSoft,
+    borderRadius: radius.sm,
+    paddingHorizontal: space.sm,
+    paddingVertical: 2,
+  },
+  kindText: { fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink },
+  summary: { fontFamily: fonts.numbers, fontSize: 13 },
+  genericNote: { color: colors.caution, fontFamily: fonts.textMedium },
+  kinds: { gap: space.sm, flexWrap: 'wrap' },
+  filter: { maxWidth: 480 },
+});
