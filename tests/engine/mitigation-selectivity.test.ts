@@ -176,6 +176,43 @@ describe('verdicts', () => {
   });
 });
 
+describe('a device added beside the changed one (a fuse with the primary relay)', () => {
+  // A fuse at the relay's place whose minimum-melting curve is a straight line on log-log axes through
+  // (100 A, 10 s) and (10 000 A, 0.001 s): t = 10 · (I / 100)⁻² (the engine reads between points log-log).
+  const fuse: PlacedDevice = {
+    id: 'FU-TX',
+    name: 'Primary fuse',
+    branch: 'TX',
+    end: 'from',
+    device: {
+      kind: 'fuse',
+      ratingA: 80,
+      minimumMelt: [
+        [100, 10],
+        [10000, 0.001],
+      ],
+      totalClearing: [
+        [100, 20],
+        [10000, 0.002],
+      ],
+    },
+  };
+  const patched = applyModelPatch(model, [{ op: 'add-device', placed: fuse }]);
+  const s = checkSelectivity({ model, patched, deviceId: 'R-TX', busId: 'SEC', options: {}, mode: 'check' });
+
+  it('the first of the two to operate counts: the fuse melts before the relay would start, and overlaps the main', () => {
+    const main = s.checks.find((c) => c.downstreamDeviceId === 'CB-MAIN')!;
+    const bolted = main.points.find((p) => p.current === 'bolted')!;
+    const fuseMeltS = 10 * (relayBoltedA / 100) ** -2; // ≈ 0.102 s, below the relay's 0.694 s (IEEE C37.112 VI)
+    expect(fuseMeltS).toBeLessThan(veryInverseS(relayBoltedA));
+    expectClose(bolted.upstreamMinimumS!, fuseMeltS, 1e-9);
+    expectClose(bolted.marginS!, fuseMeltS - mainClearingS, 1e-9);
+    expect(main.selectiveBefore).toBe(true); // before: the relay alone, margin 0.344 s
+    expectClose(main.marginBeforeS!, veryInverseS(relayBoltedA) - mainClearingS, 1e-9);
+    expect(s.verdict).toBe('lost');
+  });
+});
+
 describe('the path to the largest load', () => {
   it('follows the branch with the larger load below it (transformer kVA, motors)', () => {
     const input = mitigationRadial();
