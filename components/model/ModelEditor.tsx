@@ -86,13 +86,17 @@ export function ModelEditor({
     },
     [latest],
   );
-  // A request from outside opens that device's settings once per request (the section is opened by `focus`).
+  // A request from outside opens the devices section and that device's settings, once per request.
   const [seenOpen, setSeenOpen] = useState<{ id: string } | null | undefined>(null);
   if (openDeviceRequest !== seenOpen) {
     setSeenOpen(openDeviceRequest);
     const req = openDeviceRequest;
     const index = req ? (model.devices ?? []).findIndex((d) => d.id === req.id) : -1;
-    if (req && index >= 0) setDeviceOpen((o) => ({ index, id: req.id, nonce: (o?.nonce ?? 0) + 1 }));
+    if (req && index >= 0) {
+      setSection('devices');
+      setFilter('');
+      setDeviceOpen((o) => ({ index, id: req.id, nonce: (o?.nonce ?? 0) + 1 }));
+    }
   }
   const ctx = useMemo(
     () => (section === 'devices' ? { ...sectionCtx, openDevice } : sectionCtx),

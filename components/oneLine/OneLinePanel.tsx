@@ -12,7 +12,7 @@ import {
 import Svg, { Circle, G, Polyline, Rect, Text as SvgText } from 'react-native-svg';
 import { contract } from '../../shared/api';
 import type { Box, DrawnElement, OneLineDrawing, Shape, Tone } from '../../shared/oneLine/geometry';
-import { textWidth } from '../../shared/oneLine/geometry';
+import { textWidth, toggleText } from '../../shared/oneLine/geometry';
 import type { StudyDto } from '../../shared/schemas/studies';
 import { callApi } from '../../hooks/api';
 import { queryKeys } from '../../hooks/queryKeys';
@@ -39,6 +39,12 @@ const DEVICE_WORDS: Record<NonNullable<DrawnElement['deviceKind']>, string> = {
 };
 export const deviceA11yLabel = (e: DrawnElement) =>
   `Device ${e.id}${e.deviceKind ? `, ${DEVICE_WORDS[e.deviceKind]}` : ''} — open its band`;
+
+/** A collapsed subtree's box in words: what it holds, its highest energy with its signal word, and what a tap does. */
+export const summaryA11yLabel = (e: DrawnElement) => {
+  const texts = e.shapes.flatMap((x) => (x.t === 'text' ? [x.text] : []));
+  return `${texts.join('; ')} — expand`;
+};
 
 const MIN_SCALE = 0.03;
 const MAX_SCALE = 4;
@@ -116,12 +122,22 @@ function ShapeView({ s }: { s: Shape }) {
           fill={PALETTE[s.tone]}
           fontWeight={s.bold ? '600' : '400'}
           fontFamily="Inter, Arial, sans-serif"
+          {...TEXT_HALO}
         >
           {s.text}
         </SvgText>
       );
   }
 }
+
+/**
+ * A halo in the background colour under each label (the stroke painted before the fill, as in the SVG route): a line
+ * passing behind a label never runs through its letters. Web only (paint order is a web attribute).
+ */
+const TEXT_HALO: object =
+  Platform.OS === 'web'
+    ? { stroke: colors.surface, strokeWidth: 3, strokeLinejoin: 'round', style: { paintOrder: 'stroke' } }
+    : {};
 
 const touchDistance = (e: GestureResponderEvent) => {
   const [a, b] = e.nativeEvent.touches;
@@ -136,12 +152,17 @@ const touchDistance = (e: GestureResponderEvent) => {
 export function OneLinePanel({ study }: { study: StudyDto }) {
   const router = useRouter();
   const [scenario, setScenario] = useState('base');
+  // The collapsed buses (null: the server's default for the model's size, e.g. a large plant opens collapsed).
+  const [collapsed, setCollapsed] = useState<string[] | null>(null);
   const drawing = useQuery({
-    queryKey: [...queryKeys.studies.detail(study.id), 'one-line', scenario],
+    queryKey: [...queryKeys.studies.detail(study.id), 'one-line', scenario, collapsed],
     queryFn: () =>
       callApi(contract.oneLine.drawing, {
         params: { studyId: study.id },
-        query: scenario === 'base' ? {} : { scenario },
+        query: {
+          ...(scenario === 'base' ? {} : { scenario }),
+          ...(collapsed === null ? {} : collapsed.length ? { collapsed } : { expanded: 'all' as const }),
+        },
       }),
     placeholderData: (previous) => previous,
   });
@@ -170,7 +191,29 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
       return { s, tx: px - ((px - v.tx) * s) / v.s, ty: py - ((py - v.ty) * s) / v.s };
     });
 
+  // After a collapse or an expand, the bus toggled stays where it was on the screen.
+  const [anchor, setAnchor] = useState<{ id: string; sx: number; sy: number } | null>(null);
+  const toggle = (busId: string) => {
+    if (!d || !current) return;
+    const bus = d.elements.find((x) => x.id === busId);
+    if (bus) setAnchor({ id: busId, sx: current.tx + bus.box.x * current.s, sy: current.ty + bus.box.y * current.s });
+    setFound(null);
+    const now = d.collapsed;
+    setCollapsed(now.includes(busId) ? now.filter((x) => x !== busId) : [...now, busId]);
+  };
+  // Once the drawing after a toggle has come, move it so that the bus is back where it was.
+  if (anchor && d && current && !drawing.isPlaceholderData) {
+    const bus = d.elements.find((x) => x.id === anchor.id);
+    setAnchor(null);
+    if (bus) setView({ s: current.s, tx: anchor.sx - bus.box.x * current.s, ty: anchor.sy - bus.box.y * current.s });
+  }
+
   const open = (e: DrawnElement) => {
+    // A collapsed subtree's box: expand it.
+    if (e.kind === 'summary' && e.summary) {
+      toggle(e.summary.of);
+      return;
+    }
     // A device: its settings and band (the model's device editor); anything else: the clearing trace of its bus.
     if (e.kind === 'device') {
       router.push(`/studies/${study.id}?tab=model&device=${encodeURIComponent(e.id)}`);
@@ -261,15 +304,29 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
     if (!d || !view) return;
     const q = search.trim().toLowerCase();
     if (!q) return;
+    const exact = (x: DrawnElement) =>
+      x.id.toLowerCase() === q || !!x.summary?.hidden.some((id) => id.toLowerCase() === q);
+    const partial = (x: DrawnElement) =>
+      x.id.toLowerCase().includes(q) || !!x.summary?.hidden.some((id) => id.toLowerCase().includes(q));
     const e =
-      d.elements.find((x) => x.id.toLowerCase() === q) ?? d.elements.find((x) => x.id.toLowerCase().includes(q));
+      d.elements.find((x) => x.kind !== 'summary' && exact(x)) ??
+      d.elements.find(exact) ??
+      d.elements.find((x) => x.kind !== 'summary' && partial(x)) ??
+      d.elements.find(partial);
     if (!e) {
       setFound({ id: '', message: `No element "${search.trim()}" in this model` });
       return;
     }
     const s = Math.max(view.s, 0.8);
     setView({ s, tx: size.w / 2 - (e.box.x + e.box.w / 2) * s, ty: size.h / 2 - (e.box.y + e.box.h / 2) * s });
-    setFound({ id: e.id });
+    setFound(
+      e.kind === 'summary'
+        ? {
+            id: e.id,
+            message: `${e.summary!.hidden.find((id) => id.toLowerCase() === q) ?? search.trim()} is inside the collapsed subtree under ${e.summary!.of}: expand it to see it.`,
+          }
+        : { id: e.id },
+    );
   };
 
   if (drawing.error) return <Notice tone="error">{drawing.error.message}</Notice>;
@@ -347,7 +404,14 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
         />
       ) : null}
       {found?.message ? <Notice tone="warning">{found.message}</Notice> : null}
-      {target && (target.kind === 'bus' ? target.id : target.busId) ? (
+      {target?.summary ? (
+        <Button
+          title={`Expand the ${target.summary.buses} buses under ${target.summary.of}`}
+          kind="quiet"
+          onPress={() => toggle(target.summary!.of)}
+          testID="one-line-expand-found"
+        />
+      ) : target && (target.kind === 'bus' ? target.id : target.busId) ? (
         <Button
           title={`Open the clearing trace of ${target.kind === 'bus' ? target.id : target.busId}`}
           kind="quiet"
@@ -393,6 +457,32 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
                   </G>
                 ) : null,
               )}
+              {d.elements.map((e) =>
+                e.subtree && visible(e.box) ? (
+                  <G key={`toggle-${e.id}`}>
+                    <Rect
+                      x={e.subtree.toggle.x}
+                      y={e.subtree.toggle.y}
+                      width={e.subtree.toggle.w}
+                      height={e.subtree.toggle.h}
+                      rx={3}
+                      fill={colors.surface}
+                      stroke={PALETTE.accent}
+                      strokeWidth={1}
+                    />
+                    <SvgText
+                      x={e.subtree.toggle.x + 6}
+                      y={e.subtree.toggle.y + 11}
+                      fontSize={10}
+                      fill={PALETTE.accent}
+                      fontWeight="600"
+                      fontFamily="Inter, Arial, sans-serif"
+                    >
+                      {toggleText(e.subtree)}
+                    </SvgText>
+                  </G>
+                ) : null,
+              )}
               {target ? (
                 <Rect
                   x={target.box.x - 6}
@@ -409,9 +499,30 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
         ) : null}
         {size.w > 0
           ? d.elements.map((e) => {
-              // Each device in view is a button over its symbol and id (at least 24 px square): tap → its band.
-              if (e.kind !== 'device' || !visible(e.box)) return null;
-              const hb = hitBox(e);
+              if (!visible(e.box)) return null;
+              // A bus that feeds further: its toggle is a button (collapse / expand its subtree).
+              if (e.subtree) {
+                const tb = e.subtree.toggle;
+                const w = Math.max(24, tb.w * v.s);
+                const h = Math.max(24, tb.h * v.s);
+                const left = v.tx + (tb.x + tb.w / 2) * v.s - w / 2;
+                const top = v.ty + (tb.y + tb.h / 2) * v.s - h / 2;
+                if (left + w < 0 || top + h < 0 || left > size.w || top > size.h) return null;
+                const n = e.subtree.buses;
+                return (
+                  <Pressable
+                    key={`press-${e.id}`}
+                    accessibilityRole="button"
+                    accessibilityLabel={`${e.subtree.collapsed ? 'Expand' : 'Collapse'} the ${n} bus${n === 1 ? '' : 'es'} under ${e.id}`}
+                    onPress={() => toggle(e.id)}
+                    testID={`one-line-toggle-${e.id}`}
+                    style={{ position: 'absolute', left, top, width: w, height: h, cursor: 'pointer' } as object}
+                  />
+                );
+              }
+              // A collapsed subtree's box and each device in view are buttons (at least 24 px square).
+              if (e.kind !== 'device' && e.kind !== 'summary') return null;
+              const hb = e.kind === 'summary' ? e.box : hitBox(e);
               const w = Math.max(24, hb.w * v.s);
               const h = Math.max(24, hb.h * v.s);
               const left = v.tx + (hb.x + hb.w / 2) * v.s - w / 2;
@@ -421,7 +532,7 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
                 <Pressable
                   key={`press-${e.id}`}
                   accessibilityRole="button"
-                  accessibilityLabel={deviceA11yLabel(e)}
+                  accessibilityLabel={e.summary ? summaryA11yLabel(e) : deviceA11yLabel(e)}
                   onPress={() => open(e)}
                   style={{ position: 'absolute', left, top, width: w, height: h, cursor: 'pointer' } as object}
                 />

@@ -1,4 +1,4 @@
-import React, { useDeferredValue, useEffect, useMemo, useState } from 'react';
+import React, { useDeferredValue, useMemo, useState } from 'react';
 import { useLocalSearchParams } from 'expo-router';
 import { Platform, View } from 'react-native';
 import { parseModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
@@ -131,16 +131,12 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   const draft: ModelInput | null = stored?.draft ?? envelope.data?.model ?? null;
   const baseVersion = stored?.baseVersion ?? envelope.data?.version ?? 0;
 
-  const modelReady = !!draft;
-  useEffect(() => {
-    if (!deviceParam || !modelReady) return;
-    const index = (draft?.devices ?? []).findIndex((d) => d.id === deviceParam);
-    if (index < 0) return;
-    setFocus({ collection: 'devices', index });
+  // Once per device asked for, when the model is there (edits to the draft do not reopen it).
+  const [seenDevice, setSeenDevice] = useState<string | undefined>(undefined);
+  if (draft && deviceParam && deviceParam !== seenDevice) {
+    setSeenDevice(deviceParam);
     setOpenDevice({ id: deviceParam });
-    // Once per device asked for and model loaded (edits to the draft do not reopen it).
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [deviceParam, modelReady]);
+  }
 
   const deferred = useDeferredValue(draft);
   // Plausibility warnings (never blocking) as the server gives them: on a model that parses, computed as it is typed.

@@ -91,6 +91,13 @@ export function textWidth(text: string, size: number): number {
   return Math.ceil(text.length * size * 0.62);
 }
 
+/** The box a text shape covers (from its estimated width; the glyphs' height above and below the baseline). */
+export function textBox(s: Extract<Shape, { t: 'text' }>): Box {
+  const w = textWidth(s.text, s.size);
+  const x = s.anchor === 'start' ? s.x : s.anchor === 'middle' ? s.x - w / 2 : s.x - w;
+  return { x, y: s.y - s.size * 0.8, w, h: s.size * 1.05 };
+}
+
 export function boxesOverlap(a: Box, b: Box): boolean {
   return a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
 }
@@ -99,3 +106,7 @@ export function boxesOverlap(a: Box, b: Box): boolean {
 export function touchesBox(x: number, y: number, b: Box, tol = 0.5): boolean {
   return x >= b.x - tol && x <= b.x + b.w + tol && y >= b.y - tol && y <= b.y + b.h + tol;
 }
+
+/** The app's collapse toggle beside a bus id: "− 12 buses" (open) or "+ 12 buses" (collapsed). */
+export const toggleText = (t: { buses: number; collapsed: boolean }) =>
+  `${t.collapsed ? '+' : '−'} ${t.buses} bus${t.buses === 1 ? '' : 'es'}`;

@@ -13,6 +13,7 @@ import type { DeviceKind } from '../schemas/device';
 import { formatCalPerCm2 } from '../labelDisplay';
 import {
   textWidth,
+  toggleText,
   type BusHazard,
   type Connection,
   type DrawnElement,
@@ -300,9 +301,6 @@ interface BusBlockSpec {
 
 const TOGGLE_FONT = 10;
 const TOGGLE_H = 15;
-/** The app's collapse toggle beside a bus id: its text and width (its place is kept free in every drawing). */
-export const toggleText = (t: { buses: number; collapsed: boolean }) =>
-  `${t.collapsed ? '+' : '−'} ${t.buses} bus${t.buses === 1 ? '' : 'es'}`;
 const toggleWidth = (t: { buses: number }) =>
   textWidth(toggleText({ buses: t.buses, collapsed: true }), TOGGLE_FONT) + 12;
 /** Width of a bus's label: its lines, and its id (12 px, bold) followed by the toggle where it has one. */

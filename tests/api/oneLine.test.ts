@@ -11,6 +11,7 @@ import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../../server/db/models';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { solidsBuildingModel } from '../../server/seed/solidsBuildingModel';
+import { generatedPlant } from '../../server/seed/generatedPlant';
 import { draftStudy } from '../helpers/flows';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
 
@@ -131,6 +132,63 @@ describe('GET /studies/:studyId/one-line.svg', () => {
       }
     }
   });
+
+  test('collapsed: the subtree of SWBD-1 is one box naming the highest label energy of its buses in the stored results', async () => {
+    // Runs after the run above (same study). Under SWBD-1 in the demo model: MCC-1 and PP-1 on its feeders, LP-1
+    // behind PP-1's transformer (server/seed/larkspurModel.ts).
+    const stored = await StudyRun.findOne({ where: { studyId, status: 'done' } });
+    const results = JSON.parse(stored!.results!) as StudyResults;
+    const inside = results.buses.filter((b) => ['MCC-1', 'PP-1', 'LP-1'].includes(b.busId) && b.labelValues);
+    expect(inside.length).toBeGreaterThan(0);
+    const worst = inside.reduce((w, b) =>
+      b.labelValues!.incidentEnergyCalPerCm2 > w.labelValues!.incidentEnergyCalPerCm2 ? b : w,
+    );
+    const res = await get(t.orgA.users.engineer.token, studyId, '?collapsed=SWBD-1');
+    expect(res.status).toBe(200);
+    const svg = res.body as string;
+    expect(svg).toContain('>3 buses collapsed under SWBD-1</text>');
+    expect(svg).toContain(
+      `>Highest: ${formatCalPerCm2(worst.labelValues!.incidentEnergyCalPerCm2)} cal/cm² · ${worst.labelValues!.signalWord} at ${worst.busId}</text>`,
+    );
+    for (const id of ['MCC-1', 'PP-1', 'LP-1', 'B-101', 'CB-MCC1'])
+      expect([id, svg.includes(`data-id="${id}"`)]).toEqual([id, false]);
+    for (const id of ['SWBD-1', 'USS-1', 'MCC-2']) expect([id, svg.includes(`data-id="${id}"`)]).toEqual([id, true]);
+    expect(svg.match(/data-kind="summary"/g)).toHaveLength(1);
+  });
+
+  test('a model of more than 150 buses opens with the subtrees below the second level collapsed; collapsed=… and expanded=all choose', async () => {
+    const input = generatedPlant(2, 80);
+    const id = await draftStudy(t, 'Large one-line site', 'Large plant', input);
+    const tok = t.orgA.users.engineer.token;
+    const byDefault = (await get(tok, id)).body as string;
+    expect(byDefault.match(/data-kind="summary"/g)).toHaveLength(2);
+    expect(byDefault).toContain('>80 buses collapsed under SUB-0</text>');
+    expect(byDefault).toContain('>80 buses collapsed under SUB-1</text>');
+    expect(byDefault).toContain('data-id="SUB-1"');
+    expect(byDefault).not.toContain('data-id="MCC-0-7"');
+    // One subtree collapsed by name: the other's buses are all drawn.
+    const one = (await get(tok, id, '?collapsed=SUB-0')).body as string;
+    expect(one.match(/data-kind="summary"/g)).toHaveLength(1);
+    for (let i = 0; i < 80; i++) expect(one).toContain(`data-id="MCC-1-${i}"`);
+    expect(one).not.toContain('data-id="MCC-0-0"');
+    // Repeated: both; the geometry route says which are collapsed.
+    const geo = await request(t.app)
+      .get(`/api/studies/${id}/one-line?collapsed=SUB-0&collapsed=SUB-1`)
+      .set(...bearer(tok));
+    expect(geo.status).toBe(200);
+    expect((geo.body.collapsed as string[]).sort()).toEqual(['SUB-0', 'SUB-1']);
+    // Nothing collapsed: every element present.
+    const all = (await get(tok, id, '?expanded=all')).body as string;
+    expect(all).not.toContain('data-kind="summary"');
+    const p = parseModel(input);
+    if (!p.success) throw new Error('generated plant');
+    for (const x of [...p.model.buses, ...p.model.cables, ...p.model.devices])
+      expect(all).toContain(`data-id="${x.id}"`);
+    // An unknown bus is a 400 naming the field.
+    const bad = await get(tok, id, '?collapsed=NO-SUCH-BUS');
+    expect(bad.status).toBe(400);
+    expect((JSON.parse(bad.body as string) as { error: { fields: object } }).error.fields).toHaveProperty('collapsed');
+  }, 60_000);
 
   test('an unknown scenario is a 400 naming the field', async () => {
     const res = await request(t.app)

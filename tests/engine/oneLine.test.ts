@@ -12,7 +12,7 @@ import { formatCalPerCm2 } from '../../shared/labelDisplay';
 import { runStudy } from '../../server/engine/study/scenarios';
 import { generatedPlant } from '../../server/seed/generatedPlant';
 import type { StudyResults } from '../../shared/schemas/studyResults';
-import { boxesOverlap, touchesBox, type OneLineDrawing } from '../../shared/oneLine/geometry';
+import { boxesOverlap, textBox, touchesBox, type Box, type OneLineDrawing } from '../../shared/oneLine/geometry';
 import { oneLineSvg } from '../../shared/oneLine/svg';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { solidsBuildingModel } from '../../server/seed/solidsBuildingModel';
@@ -33,6 +33,24 @@ const allIds = (m: Model) => [
   ...m.motors.map((x) => x.id),
   ...m.devices.map((x) => x.id),
 ];
+
+/**
+ * Pairs of labels whose boxes overlap: every text of the drawing (ids, names, hazards, summary lines, symbol letters)
+ * and the place kept for each bus's collapse toggle (drawn by the app). Readability rule of the product (no source).
+ */
+function labelOverlaps(d: OneLineDrawing): string[] {
+  const labels: { what: string; b: Box }[] = [];
+  for (const e of d.elements) {
+    for (const s of e.shapes) if (s.t === 'text') labels.push({ what: `${e.id}:${s.text}`, b: textBox(s) });
+    if (e.subtree) labels.push({ what: `${e.id}:toggle`, b: e.subtree.toggle });
+  }
+  labels.sort((a, b) => a.b.x - b.b.x);
+  const out: string[] = [];
+  for (let i = 0; i < labels.length; i++)
+    for (let j = i + 1; j < labels.length && labels[j].b.x < labels[i].b.x + labels[i].b.w; j++)
+      if (boxesOverlap(labels[i].b, labels[j].b)) out.push(`${labels[i].what} / ${labels[j].what}`);
+  return out;
+}
 
 function checkDrawing(m: Model, d: OneLineDrawing): void {
   // Every element drawn exactly once.
@@ -63,6 +81,7 @@ function checkDrawing(m: Model, d: OneLineDrawing): void {
       loose.push(`${c.a}-${c.b}`);
   }
   expect(loose).toEqual([]);
+  expect(labelOverlaps(d)).toEqual([]);
   for (const e of d.elements) {
     expect(e.box.x).toBeGreaterThanOrEqual(0);
     expect(e.box.y + e.box.h).toBeLessThanOrEqual(d.height);
@@ -88,6 +107,14 @@ function checkSvg(m: Model, d: OneLineDrawing, everyId = true): void {
   expect(errors).toEqual([]);
   expect(doc.documentElement?.nodeName).toBe('svg');
   expect(doc.getElementsByTagName('g').length).toBeGreaterThanOrEqual(d.elements.length);
+  // Every label has a halo in the background colour (stroke painted under the glyphs): a line passing behind a
+  // label does not run through its letters.
+  const texts = Array.from(doc.getElementsByTagName('text'));
+  expect(texts.length).toBeGreaterThan(0);
+  const bare = texts.filter(
+    (x) => x.getAttribute('paint-order') !== 'stroke' || x.getAttribute('stroke') !== '#FFFFFF',
+  );
+  expect(bare.map((x) => x.textContent)).toEqual([]);
   if (!everyId) return;
   for (const id of allIds(m)) {
     expect([id, svg.includes(`data-id="${id}"`) && svg.includes(`>${id}</text>`)]).toEqual([id, true]);
@@ -243,6 +270,7 @@ function checkCollapsed(m: Model, d: OneLineDrawing, results?: StudyResults): vo
     return !a || !b || !touchesBox(c.pts[0], c.pts[1], a.box) || !touchesBox(c.pts[n - 2], c.pts[n - 1], b.box);
   });
   expect(loose.map((c) => `${c.a}-${c.b}`)).toEqual([]);
+  expect(labelOverlaps(d)).toEqual([]);
 
   if (!results) return;
   for (const s of summaries) {
@@ -265,6 +293,24 @@ function checkCollapsed(m: Model, d: OneLineDrawing, results?: StudyResults): vo
     if (dangerInside.length) expect(texts.some((t) => t.includes('DANGER'))).toBe(true);
   }
 }
+
+test('the label check finds two labels drawn over each other (and not two apart)', () => {
+  const text = (x: number, y: number) =>
+    ({ t: 'text', x, y, text: 'SWBD-1', size: 11, anchor: 'start', tone: 'ink' }) as const;
+  const drawing = (y2: number): OneLineDrawing => ({
+    width: 200,
+    height: 200,
+    elements: [
+      { id: 'A', kind: 'bus', box: { x: 0, y: 0, w: 10, h: 5 }, shapes: [text(20, 20)] },
+      { id: 'B', kind: 'bus', box: { x: 0, y: 100, w: 10, h: 5 }, shapes: [text(30, y2)] },
+    ],
+    connections: [],
+    collapsed: [],
+    notes: [],
+  });
+  expect(labelOverlaps(drawing(24))).toHaveLength(1);
+  expect(labelOverlaps(drawing(40))).toEqual([]);
+});
 
 describe('one-line diagram: collapsed subtrees', () => {
   test('generated plant (184 buses): opens with each substation’s feeders collapsed; summaries hold exactly the buses downstream, with the highest energy of the run', () => {

@@ -5,7 +5,8 @@
  */
 import { axePage, checkA11y } from '../axe';
 import type { Harness, Spec } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, clearLocalStorage, pollUntil } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, api as harnessApi, assert, clearLocalStorage, pollUntil } from '../harness';
+import { generatedPlant } from '../../../server/seed/generatedPlant';
 
 async function api<T>(h: Harness, path: string, token?: string, body?: unknown): Promise<T> {
   const res = await fetch(`${h.baseUrl}/api${path}`, {
@@ -117,6 +118,136 @@ export const specs: Spec[] = [
         await page.getByTestId('device-settings-plot').waitFor();
         await page.getByTestId('device-settings-band').scrollIntoViewIfNeeded();
         await h.shot(page, `one-line-${label}-device-band`);
+        await page.close();
+      }
+    },
+  },
+  {
+    name: 'one-line: collapse a subtree → one box naming its highest energy; expand it again (desktop and phone)',
+    run: async (h) => {
+      const id = await demoStudyId(h);
+      for (const [label, viewport] of [
+        ['desktop', DESKTOP],
+        ['phone', PHONE],
+      ] as const) {
+        const page = await h.newPage(viewport);
+        await h.signIn(page, 'engineer@larkspur.example');
+        await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
+        await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^USS-1$/ })
+          .waitFor();
+        await page.getByTestId('one-line-search').fill('SWBD-1');
+        await page.getByTestId('one-line-find').click();
+        // SWBD-1 feeds MCC-1 and PP-1, and PP-1 feeds LP-1: three buses under it (the demo model, server/seed).
+        await page.getByRole('button', { name: 'Collapse the 3 buses under SWBD-1' }).click();
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^3 buses collapsed under SWBD-1$/ })
+          .waitFor();
+        // The box names the highest energy inside, with its signal word and its bus (the approved run's results).
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^Highest: [0-9.]+ cal\/cm² · (DANGER|WARNING) at (MCC-1|PP-1|LP-1)$/ })
+          .waitFor();
+        await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
+        await h.shot(page, `one-line-${label}-collapsed`);
+        // A bus inside is found in the box, which offers to expand.
+        await page.getByTestId('one-line-search').fill('LP-1');
+        await page.getByTestId('one-line-find').click();
+        await page.getByText('LP-1 is inside the collapsed subtree under SWBD-1: expand it to see it.').waitFor();
+        assert(
+          (await page
+            .locator('svg text')
+            .filter({ hasText: /^LP-1$/ })
+            .count()) === 0,
+          'LP-1 inside the box',
+        );
+        await page.getByTestId('one-line-expand-found').click();
+        await page.getByRole('button', { name: 'Collapse the 3 buses under SWBD-1' }).waitFor();
+        await page.getByTestId('one-line-find').click();
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^LP-1$/ })
+          .waitFor();
+        assert(
+          (await page
+            .locator('svg text')
+            .filter({ hasText: /collapsed under SWBD-1$/ })
+            .count()) === 0,
+          'the box gone once expanded',
+        );
+        await page.close();
+      }
+    },
+  },
+  {
+    name: 'one-line: a generated plant of 184 buses opens with its substations collapsed (desktop and phone)',
+    run: async (h) => {
+      const { token } = await harnessApi<{ token: string }>(h, '/auth/sign-in', {
+        method: 'POST',
+        body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+      });
+      const site = await harnessApi<{ id: string }>(h, '/sites', {
+        method: 'POST',
+        token,
+        body: { name: 'One-line generated plant (invented)' },
+      });
+      const study = await harnessApi<{ id: string }>(h, `/sites/${site.id}/studies`, {
+        method: 'POST',
+        token,
+        body: { title: 'Generated plant' },
+      });
+      const env = await harnessApi<{ version: number }>(h, `/studies/${study.id}/model`, { token });
+      await harnessApi(h, `/studies/${study.id}/model`, {
+        method: 'PUT',
+        token,
+        body: { model: generatedPlant(3, 60), version: env.version },
+      });
+      await harnessApi(h, `/studies/${study.id}/run`, { method: 'POST', token });
+      await pollUntil(
+        async () => {
+          const r = await harnessApi<{ status: string }>(h, `/studies/${study.id}/run`, { token });
+          if (r.status === 'failed') throw new Error('the run failed');
+          return r.status === 'done';
+        },
+        'the run to finish',
+        90_000,
+      );
+      for (const [label, viewport] of [
+        ['desktop', DESKTOP],
+        ['phone', PHONE],
+      ] as const) {
+        const page = await h.newPage(viewport);
+        await h.signIn(page, 'engineer@larkspur.example');
+        await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
+        await page.goto(`${h.baseUrl}/studies/${study.id}?tab=one-line`);
+        // Over 150 buses: each substation's 60 feeders are one box, with the highest energy among them.
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^60 buses collapsed under SUB-0$/ })
+          .waitFor();
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^Highest: [0-9.]+ cal\/cm² · (DANGER|WARNING) at MCC-0-[0-9]+$/ })
+          .first()
+          .waitFor();
+        await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
+        await h.shot(page, `one-line-${label}-generated`);
+        // Expanded: its feeders are drawn, the others stay collapsed.
+        await page.getByRole('button', { name: /^60 buses collapsed under SUB-0.* — expand$/ }).click();
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^MCC-0-0$/ })
+          .waitFor();
+        await h.shot(page, `one-line-${label}-generated-expanded`);
+        await page.getByTestId('one-line-search').fill('SUB-1');
+        await page.getByTestId('one-line-find').click();
+        await page
+          .locator('svg text')
+          .filter({ hasText: /^60 buses collapsed under SUB-1$/ })
+          .waitFor();
         await page.close();
       }
     },
