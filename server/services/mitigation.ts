@@ -4,7 +4,7 @@
  * revision's checked model with the organization's run settings, exactly as a run of that revision would start
  * (`runSettingsOf`), so running a revision made from an option's patch gives the energy the option promised.
  */
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import { LRUCache } from 'lru-cache';
 import { Op, type Transaction } from 'sequelize';
 import { applyModelPatch, ModelPatchError } from '../../shared/modelPatch';
@@ -41,6 +41,27 @@ export function clearMitigationAnswers(): void {
 }
 
 /**
+ * Searches computed at once in this process; more wait their turn (each takes a study worker — a thread with its own
+ * engine and up to 1.5 GB — for seconds to minutes on a large plant: a few engineers asking at once must not start a
+ * worker each). An engineering choice for a small server, no source.
+ */
+export const MITIGATION_SEARCHES_AT_ONCE = 2;
+let searching = 0;
+const waiting: (() => void)[] = [];
+
+async function inTurn<T>(search: () => Promise<T>): Promise<T> {
+  if (searching < MITIGATION_SEARCHES_AT_ONCE) searching += 1;
+  else await new Promise<void>((resolve) => waiting.push(resolve)); // the slot is handed over as it is
+  try {
+    return await search();
+  } finally {
+    const next = waiting.shift();
+    if (next) next();
+    else searching -= 1;
+  }
+}
+
+/**
  * The organization's electronic trip-unit types the model's placed devices were taken from (by device-type id), so a
  * setting is searched over the unit's own switch positions. A type that no longer reads is left out (the generic
  * starter set is then looked up by name, or the device's settings are searched as numbers).
@@ -70,15 +91,20 @@ async function computeOptions(
   if (checked.snapshot === null) throw modelIssuesError([...checked.issues], 'model.');
   const snapshot = checked.snapshot;
   const options = runSettingsOf(await getSettings(actor.organizationId));
-  const tripTypes = await tripTypesOf(actor, JSON.parse(snapshot) as Model);
-  const key = `${JSON.stringify(options)}\n${JSON.stringify(tripTypes)}\n${busId}\n${targetCalPerCm2}\n${snapshot}`;
+  // Only a model with library switch positions needs its device types (and is parsed here for them).
+  const tripTypes = snapshot.includes('"positions"') ? await tripTypesOf(actor, JSON.parse(snapshot) as Model) : {};
+  // By a digest: a large model's text is megabytes, not to be kept as a key.
+  const key = createHash('sha256')
+    .update(`${JSON.stringify(options)}\n${JSON.stringify(tripTypes)}\n${busId}\n${targetCalPerCm2}\n`)
+    .update(snapshot)
+    .digest('hex');
   const hit = answers.get(key);
   if (hit) return hit;
   let computing = inFlight.get(key);
   if (!computing) {
     // Always in the study worker: the search runs the engine on the whole model once per candidate setting and
     // option (seconds even for a plant of ten buses), which would hold up every other request in the main thread.
-    computing = mitigationOffThread(snapshot, options, busId, targetCalPerCm2, tripTypes);
+    computing = inTurn(() => mitigationOffThread(snapshot, options, busId, targetCalPerCm2, tripTypes));
     inFlight.set(key, computing);
     void computing.then(
       () => inFlight.delete(key),
