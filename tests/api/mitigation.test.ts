@@ -302,6 +302,63 @@ describe('(c) refusals', () => {
   });
 });
 
+describe('a device taken from the organization’s library', () => {
+  it('is searched over its own trip-unit type’s named positions, and the applied revision runs to the promised energy', async () => {
+    // A trip-unit type only this organization has (position names no generic type uses): the search can offer its
+    // positions only if the service passed the organization's type to the engine.
+    const tripType = {
+      name: 'Test LSI unit, 400 A sensor',
+      sensorA: 400,
+      settings: {
+        longTimePickup: { positions: { 'LT-1.0': 1 } },
+        longTimeDelay: { positions: { 'LTD-10': 10 } },
+        shortTimePickup: { positions: { 'ST-4': 4 } },
+        shortTimeDelay: { positions: { 'STD-0.5': 0.5 } },
+        shortTimeI2t: { positions: { OUT: 0 } },
+        instantaneousPickup: { positions: { OFF: 0, 'INST-3': 3, 'INST-7': 7, 'INST-11': 11 } },
+      },
+      pickupTolerancePct: 10,
+      clearingS: 0.05,
+    };
+    const positions = {
+      longTimePickup: 'LT-1.0',
+      longTimeDelay: 'LTD-10',
+      shortTimePickup: 'ST-4',
+      shortTimeDelay: 'STD-0.5',
+      shortTimeI2t: 'OUT',
+      instantaneousPickup: 'OFF',
+    };
+    const type = await request(t.app)
+      .post('/api/device-types')
+      .set(...eng())
+      .send({ name: tripType.name, definition: { kind: 'electronic', tripType, positions } });
+    expect(type.status).toBe(201);
+    const model = smallModel() as ReturnType<typeof smallModel> & { devices: Record<string, unknown>[] };
+    const at = model.devices.findIndex((d) => d.id === 'CB-MCC');
+    model.devices[at] = {
+      ...model.devices[at],
+      device: type.body.device,
+      library: { deviceTypeId: type.body.id, name: tripType.name, positions },
+    };
+    const site = (
+      await request(t.app)
+        .post('/api/sites')
+        .set(...eng())
+        .send({ name: 'Library trip unit site' })
+    ).body.id as string;
+    const studyId = await approveStudy(t, site, model);
+    const before = await energies(studyId);
+    const r = await mitigate(studyId, 'MCC', 0.5);
+    const inst = r.options.find((o) => o.kind === 'instantaneous-setting');
+    expect(inst).toBeDefined();
+    const op = inst!.modelPatch[0];
+    expect(op.op).toBe('replace-device');
+    const chosen = op.op === 'replace-device' ? op.library?.positions?.instantaneousPickup : undefined;
+    expect(['INST-3', 'INST-7', 'INST-11']).toContain(chosen);
+    await applyRunAndCompare(studyId, 'MCC', 0.5, inst!, before);
+  }, 300_000);
+});
+
 describe('(b) maintenance mode on the demo’s worst bus', () => {
   it('brings it under 8 cal/cm², with the selectivity given up while the switch is on said in words', async () => {
     const seeded = await seedDemo(t.ctx, DEMO_PASSWORD);
