@@ -235,7 +235,7 @@ export const arcFlashRelay: OptionGenerator = (ctx) => {
  * credited (the higher hazard).
  */
 export const currentLimitingFuse: OptionGenerator = (ctx: SearchContext) => {
-  const { model, busId } = ctx;
+  const { model } = ctx;
   const acting = actingDevice(model, ctx.base);
   if (!acting) {
     return {
