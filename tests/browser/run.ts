@@ -16,6 +16,7 @@ import { specs as reminderApprovalSpecs } from './specs/reminderApproval';
 import { specs as unitsSpecs } from './specs/units';
 import { specs as a11ySpecs } from './specs/a11y';
 import { specs as oneLineSpecs } from './specs/oneLine';
+import { specs as mitigationSpecs } from './specs/mitigation';
 import { closeAxe } from './axe';
 
 export type Spec = { name: string; run: (h: Harness) => Promise<void> };
@@ -35,6 +36,7 @@ async function main(): Promise<void> {
     ...reminderApprovalSpecs,
     ...a11ySpecs,
     ...oneLineSpecs,
+    ...mitigationSpecs,
   ];
   const only = process.argv[2];
   const selected = only ? all.filter((s) => s.name.includes(only)) : all;

@@ -112,6 +112,12 @@ const ROLES: { email: string | null; role: string; screens: Screen[] }[] = [
         title: 'USS-1',
         ready: 'trace-sentence',
       },
+      {
+        name: 'bring a bus down',
+        path: (i) => `/studies/${i.studyId}/mitigate/USS-1`,
+        title: 'Bring this down',
+        ready: 'mitigation-form',
+      },
       { name: 'spot check', path: () => '/spot-check', title: 'Spot check' },
       { name: 'devices', path: () => '/devices', title: 'Device library', ready: 'device-Feeder relay, very inverse' },
       { name: 'reports', path: () => '/reports', title: 'Field reports' },
