@@ -109,10 +109,7 @@ function CountCard({
 export function AttentionCards({ summary, siteId }: { summary: AttentionSummary; siteId: string | null }) {
   const { wide } = useLayout();
   return (
-    <View
-      style={[styles.cards, { flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap' }]}
-      testID="attention-cards"
-    >
+    <View style={[styles.cards, wide && styles.cardsWide]} testID="attention-cards">
       {ATTENTION_LISTS.map((l) => (
         <CountCard key={l} list={l} count={summary.counts[l] ?? 0} siteId={siteId} wide={wide} />
       ))}
@@ -292,6 +289,7 @@ const styles = StyleSheet.create({
   cardHead: { flexDirection: 'row', alignItems: 'flex-start', justifyContent: 'space-between', gap: space.md },
   cardTitle: { flexShrink: 1, gap: 2 },
   cards: { gap: space.md },
+  cardsWide: { flexDirection: 'row', flexWrap: 'wrap' },
   agesHead: { flexDirection: 'row', justifyContent: 'space-between', flexWrap: 'wrap', gap: space.sm },
   link: { color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium },
   ages: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xl },

@@ -85,7 +85,7 @@ export function DevicesScreen() {
       {choosing ? (
         <Card testID="choose-kind">
           <T variant="subheading">What kind of device?</T>
-          <View style={[styles.kinds, { flexDirection: wide ? 'row' : 'column' }]}>
+          <View style={[styles.kinds, wide && styles.kindsWide]}>
             {KINDS.map((k) => (
               <Button
                 key={k}
@@ -139,5 +139,6 @@ const styles = StyleSheet.create({
   summary: { fontFamily: fonts.numbers, fontSize: 13 },
   genericNote: { color: colors.caution, fontFamily: fonts.textMedium },
   kinds: { gap: space.sm, flexWrap: 'wrap' },
+  kindsWide: { flexDirection: 'row' },
   filter: { maxWidth: 480 },
 });

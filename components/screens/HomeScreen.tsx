@@ -135,7 +135,7 @@ export function HomeScreen() {
       </Card>
       {home.attention ? <AttentionHome /> : null}
       <T variant="heading">Next</T>
-      <View style={[styles.steps, { flexDirection: wide ? 'row' : 'column', flexWrap: wide ? 'wrap' : 'nowrap' }]}>
+      <View style={[styles.steps, wide && styles.stepsWide]}>
         {home.steps.map((s) => (
           <StepCard key={s.title} step={s} inRow={wide} />
         ))}
@@ -186,5 +186,6 @@ const styles = StyleSheet.create({
   dutyRole: { color: colors.navMuted },
   dutyText: { color: colors.navInk, fontSize: 18, fontFamily: fonts.textMedium, lineHeight: 26 },
   steps: { gap: space.md },
+  stepsWide: { flexDirection: 'row', flexWrap: 'wrap' },
   siteLink: { color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium, paddingVertical: 6 },
 });

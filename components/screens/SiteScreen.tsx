@@ -113,13 +113,9 @@ export function SiteScreen({ siteId }: { siteId: string }) {
         {equipment.data && equipment.data.length === 0 ? (
           <Notice>No equipment yet: it appears when a study is approved.</Notice>
         ) : null}
-        <View style={[styles.equipmentList, { flexDirection: wide ? 'row' : 'column' }]}>
+        <View style={[styles.equipmentList, wide && styles.equipmentListWide]}>
           {equipment.data?.map((e) => (
-            <Card
-              key={e.id}
-              style={[styles.equipment, { flexBasis: wide ? '31%' : 'auto' }]}
-              testID={`equipment-${e.tag}`}
-            >
+            <Card key={e.id} style={[styles.equipment, wide && styles.equipmentWide]} testID={`equipment-${e.tag}`}>
               <T style={styles.tag}>{e.tag}</T>
               <T>{e.name}</T>
               <T variant="small">
@@ -140,6 +136,9 @@ const styles = StyleSheet.create({
   description: { color: colors.inkSoft },
   section: { gap: space.sm },
   equipmentList: { flexWrap: 'wrap', gap: space.sm },
+  /** Three cards a row on a wide screen. */
+  equipmentListWide: { flexDirection: 'row' },
   equipment: { flexGrow: 1, gap: 2, padding: space.md },
+  equipmentWide: { flexBasis: '31%' },
   tag: { fontFamily: fonts.numbersBold },
 });

@@ -301,9 +301,9 @@ export function TeamScreen() {
       <Invitations inviting={inviting} setInviting={setInviting} />
       <T variant="heading">People</T>
       {users.error ? <Notice tone="error">{users.error.message}</Notice> : null}
-      <View style={[styles.userList, { flexDirection: wide ? 'row' : 'column' }]}>
+      <View style={[styles.userList, wide && styles.userListWide]}>
         {users.data?.map((u) => (
-          <View key={u.id} style={[styles.userCell, { flexBasis: wide ? '48%' : 'auto' }]}>
+          <View key={u.id} style={[styles.userCell, wide && styles.userCellWide]}>
             <UserRow u={u} self={u.id === me.id} />
           </View>
         ))}
@@ -331,5 +331,8 @@ const styles = StyleSheet.create({
   userWho: { gap: 2 },
   actionRow: { flexDirection: 'row' },
   userList: { flexWrap: 'wrap', gap: space.md },
+  /** Two people a row on a wide screen. */
+  userListWide: { flexDirection: 'row' },
   userCell: { flexGrow: 1 },
+  userCellWide: { flexBasis: '48%' },
 });
