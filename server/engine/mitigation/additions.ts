@@ -190,7 +190,7 @@ export const arcFlashRelay: OptionGenerator = (ctx) => {
       },
     );
     notes.push(
-      pickup > ARC_FLASH_RELAY_SUPERVISION_SHARE * lowA * (1 + 1e-9)
+      loadA > ARC_FLASH_RELAY_SUPERVISION_SHARE * lowA
         ? `Supervision at ${fmt(pickup)} A: ${ARC_FLASH_RELAY_MIN_LOAD_MULTIPLE} × the ${fmt(continuousRatingA(placed.device))} A continuous rating of ${nameOf(placed)}, so it never trips on load (common practice, no source); that is above half the lowest arcing current it sees (${fmt(lowA)} A), so check the relay still picks up for a reduced arc.`
         : `Supervision at ${fmt(pickup)} A: 50 % of the lowest arcing current ${nameOf(placed)} sees for an arc at ${busName} (${fmt(lowA)} A; common practice, no source), above ${ARC_FLASH_RELAY_MIN_LOAD_MULTIPLE} × its continuous rating (no trip on load).`,
     );
