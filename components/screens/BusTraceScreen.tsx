@@ -4,6 +4,7 @@ import React, { useState } from 'react';
 import { View } from 'react-native';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
 import { REGION_LABELS } from '../../shared/tripRegions';
+import { ONLY_AT_CAUTIONS } from '../../shared/cautions';
 import {
   busArcDurationCapS,
   clearedByCaption,
@@ -60,7 +61,8 @@ function clearingOf(b: BusResult, studyMaxArcDurationMs: number): { caption: str
   return { caption: clearedByCaption({ clearingDevice }), text: clearedByText(display) };
 }
 
-function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; studyMaxArcDurationMs: number }) {
+/** The label values of the governing case, as on the label (exported for tests/web). */
+export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; studyMaxArcDurationMs: number }) {
   const lv = b.labelValues!;
   const panel = signalPanelColors(lv.signalWord);
   const clearing = clearingOf(b, studyMaxArcDurationMs);
@@ -122,6 +124,14 @@ function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; studyMaxArcD
             {clearing.text}
           </T>
         </ValueRow>
+        {/* A condition of the energy (a maintenance switch, an arc-flash relay): the words the label prints. */}
+        {Object.values(ONLY_AT_CAUTIONS)
+          .filter((c) => lv.cautions.includes(c))
+          .map((c) => (
+            <T key={c} style={{ fontFamily: fonts.textBold, color: colors.danger }} testID="bus-energy-condition">
+              {c}
+            </T>
+          ))}
       </View>
     </View>
   );
@@ -461,7 +471,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
             title="Bring this down"
             kind="secondary"
             testID="bring-down"
-            accessibilityLabel={`Bring the incident energy of ${labelBus.busId} down: mitigation options`}
+            accessibilityLabel={`Bring this down: mitigation options for ${labelBus.busId}`}
             onPress={() => router.push(`/studies/${studyId}/mitigate/${encodeURIComponent(labelBus.busId)}`)}
           />
         ) : undefined
