@@ -96,7 +96,7 @@ function ShapeView({ s }: { s: Shape }) {
           height={s.h}
           fill={s.fill ? PALETTE[s.fill] : 'none'}
           stroke={PALETTE[s.tone]}
-          strokeWidth={1.5}
+          strokeWidth={s.halo ? 0 : 1.5}
           strokeDasharray={dash}
         />
       );
@@ -122,22 +122,12 @@ function ShapeView({ s }: { s: Shape }) {
           fill={PALETTE[s.tone]}
           fontWeight={s.bold ? '600' : '400'}
           fontFamily="Inter, Arial, sans-serif"
-          {...TEXT_HALO}
         >
           {s.text}
         </SvgText>
       );
   }
 }
-
-/**
- * A halo in the background colour under each label (the stroke painted before the fill, as in the SVG route): a line
- * passing behind a label never runs through its letters. Web only (paint order is a web attribute).
- */
-const TEXT_HALO: object =
-  Platform.OS === 'web'
-    ? { stroke: colors.surface, strokeWidth: 3, strokeLinejoin: 'round', style: { paintOrder: 'stroke' } }
-    : {};
 
 const touchDistance = (e: GestureResponderEvent) => {
   const [a, b] = e.nativeEvent.touches;

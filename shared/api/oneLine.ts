@@ -25,7 +25,13 @@ const tone = z.enum(['ink', 'muted', 'accent', 'danger', 'caution', 'problem', '
 const box = z.object({ x: z.number(), y: z.number(), w: z.number(), h: z.number() });
 const shape = z.discriminatedUnion('t', [
   z.object({ t: z.literal('line'), pts: z.array(z.number()), tone, width: z.number(), dashed: z.boolean().optional() }),
-  box.extend({ t: z.literal('rect'), tone, fill: tone.optional(), dashed: z.boolean().optional() }),
+  box.extend({
+    t: z.literal('rect'),
+    tone,
+    fill: tone.optional(),
+    dashed: z.boolean().optional(),
+    halo: z.boolean().optional(),
+  }),
   z.object({
     t: z.literal('circle'),
     cx: z.number(),

@@ -8,7 +8,18 @@ export type Tone = 'ink' | 'muted' | 'accent' | 'danger' | 'caution' | 'problem'
 
 export type Shape =
   | { t: 'line'; pts: number[]; tone: Tone; width: number; dashed?: boolean }
-  | { t: 'rect'; x: number; y: number; w: number; h: number; tone: Tone; fill?: Tone; dashed?: boolean }
+  | {
+      t: 'rect';
+      x: number;
+      y: number;
+      w: number;
+      h: number;
+      tone: Tone;
+      fill?: Tone;
+      dashed?: boolean;
+      /** The background of the text drawn next (drawn without an outline). */
+      halo?: boolean;
+    }
   | { t: 'circle'; cx: number; cy: number; r: number; tone: Tone; fill?: Tone; dashed?: boolean }
   | {
       t: 'text';

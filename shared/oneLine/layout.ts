@@ -12,6 +12,7 @@ import { BASE_SCENARIO_ID, type Model, type PlacedDevice } from '../schemas/mode
 import type { DeviceKind } from '../schemas/device';
 import { formatCalPerCm2 } from '../labelDisplay';
 import {
+  textBox,
   textWidth,
   toggleText,
   type BusHazard,
@@ -834,12 +835,60 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     width = Math.max(width, p.x + n.width / 2 + 16);
     height = Math.max(height, p.y + n.height / 2 + 16);
   }
+  // The layers as dagre placed them (the nodes of a layer share their centre's y): each layer's top and bottom, so a
+  // line's horizontal run lies in the free band above its lower node's layer and never crosses a node's labels.
+  const layers = new Map<number, { top: number; bottom: number }>();
+  for (const n of nodes.values()) {
+    const key = Math.round(n.y!);
+    const l = layers.get(key);
+    const top = n.y! - n.height / 2;
+    const bottom = n.y! + n.height / 2;
+    if (l) {
+      l.top = Math.min(l.top, top);
+      l.bottom = Math.max(l.bottom, bottom);
+    } else layers.set(key, { top, bottom });
+  }
+  const layerYs = [...layers.keys()].sort((a, b) => a - b);
+  const bandAbove = (n: NodeData): number | undefined => {
+    const k = layerYs.indexOf(Math.round(n.y!));
+    if (k <= 0) return undefined;
+    const above = layers.get(layerYs[k - 1])!;
+    const here = layers.get(layerYs[k])!;
+    return above.bottom < here.top ? (above.bottom + here.top) / 2 : undefined;
+  };
+  const inLayer = (y: number) =>
+    layerYs.some((k) => {
+      const l = layers.get(k)!;
+      return y >= l.top && y <= l.bottom;
+    });
+  /**
+   * Down from (x1, y1) to (x2, y2) through the places dagre kept for the line (its dummy nodes): across only in the
+   * free bands between layers, down through a layer only at its own place there, so it passes no node's labels.
+   */
+  const routeVia = (e: { v: string; w: string }, x1: number, y1: number, x2: number, y2: number, lastY: number) => {
+    const via = ((g.edge(e.v, e.w) as { points?: { x: number; y: number }[] } | undefined)?.points ?? []).slice(1, -1);
+    const pts = [x1, y1];
+    let x = x1;
+    const usable = via.filter((p) => p.y > y1 && p.y < lastY);
+    usable.forEach((p, i) => {
+      if (inLayer(p.y)) return;
+      const next = usable.slice(i + 1).find((q) => inLayer(q.y));
+      const tx = next ? next.x : x2;
+      if (Math.abs(tx - x) < 0.5) return;
+      pts.push(x, p.y, tx, p.y);
+      x = tx;
+    });
+    if (Math.abs(x - x2) >= 0.5) pts.push(x, lastY, x2, lastY);
+    pts.push(x2, y2);
+    return pts;
+  };
   for (const e of edges) {
     const up = nodes.get(e.v)!;
     const down = nodes.get(e.w)!;
     const downTop = down.y! - down.height / 2;
     const upBottom = up.y! + up.height / 2;
-    const midY = (upBottom + downTop) / 2;
+    const band = bandAbove(down);
+    const midY = band !== undefined && band > upBottom ? band : (upBottom + downTop) / 2;
     if (e.side) {
       // A lateral branch: each bus drops to its side of the branch's row.
       const port = lateral.get(e.w)!.port(e.side, up.x!);
@@ -848,13 +897,13 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
         out.connections.push({
           a: from.id,
           b: port.id,
-          pts: route(from.x, from.y, port.x, port.y, midY),
+          pts: routeVia(e, from.x, from.y, port.x, port.y, midY),
           dashed: e.dashed,
         });
       } else {
         const from = up.bottomPort!(port.around.rx);
         const { rx, by } = port.around;
-        const pts = [from.x, from.y, from.x, midY - 6, rx, midY - 6, rx, by, port.x, by, port.x, port.y];
+        const pts = [...routeVia(e, from.x, from.y, rx, midY - 6, midY - 6), rx, by, port.x, by, port.x, port.y];
         out.connections.push({ a: from.id, b: port.id, pts, dashed: e.dashed });
       }
       continue;
@@ -862,7 +911,12 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
     const to = down.topPort!(up.x!);
     const from = up.bottomPort!(to.x);
     const end = down.topPort!(from.x);
-    out.connections.push({ a: from.id, b: end.id, pts: route(from.x, from.y, end.x, end.y, midY), dashed: e.dashed });
+    out.connections.push({
+      a: from.id,
+      b: end.id,
+      pts: routeVia(e, from.x, from.y, end.x, end.y, midY),
+      dashed: e.dashed,
+    });
   }
   const notes: string[] = [];
   if (collapsed.length) {
@@ -873,6 +927,8 @@ export function layoutOneLine(model: Model, opts: OneLineOptions = {}): OneLineD
   }
   if (scenario) notes.push(`Dashed: out of service or open in scenario "${scenario.name ?? scenario.id}".`);
   else notes.push('Dashed: open ties and elements out of service.');
+  // Every label on a halo in the background colour, so a line passing behind it never runs through its letters.
+  for (const e of out.elements) e.shapes = e.shapes.flatMap((sh) => (sh.t === 'text' ? [haloOf(sh), sh] : [sh]));
   return {
     width: Math.ceil(width),
     height: Math.ceil(height),
@@ -984,6 +1040,12 @@ function summaryBox(
   };
 }
 
+/** The background under a text: its box, filled with the surface colour (drawn just before the text). */
+function haloOf(t: Extract<Shape, { t: 'text' }>): Shape {
+  const b = textBox(t);
+  return { t: 'rect', x: b.x, y: b.y, w: b.w, h: b.h, tone: 'surface', fill: 'surface', halo: true };
+}
+
 /** dagre `customOrder`: each layer ordered by a depth-first visit from the graph's sources (dummies included). */
 function depthFirstOrder(gg: Graph): void {
   const visit = new Map<string, number>();
@@ -1013,13 +1075,6 @@ function depthFirstOrder(gg: Graph): void {
 }
 
 const clamp = (x: number, lo: number, hi: number) => Math.min(Math.max(x, lo), Math.max(lo, hi));
-
-/** Orthogonal route: down from (x1, y1) to midY, across, down to (x2, y2). */
-function route(x1: number, y1: number, x2: number, y2: number, midY: number): number[] {
-  if (Math.abs(x1 - x2) < 0.5) return [x1, y1, x1, y2];
-  const my = Math.min(Math.max(midY, Math.min(y1, y2)), Math.max(y1, y2));
-  return [x1, y1, x1, my, x2, my, x2, y2];
-}
 
 interface LateralNode {
   width: number;

@@ -30,13 +30,13 @@ function shapeSvg(s: Shape, p: Record<Tone, string>): string {
       return `<polyline points="${pts.join(' ')}" fill="none" stroke="${p[s.tone]}" stroke-width="${s.width}"${dash}/>`;
     }
     case 'rect':
+      if (s.halo)
+        return `<rect class="halo" x="${n(s.x)}" y="${n(s.y)}" width="${n(s.w)}" height="${n(s.h)}" fill="${s.fill ? p[s.fill] : p.surface}"/>`;
       return `<rect x="${n(s.x)}" y="${n(s.y)}" width="${n(s.w)}" height="${n(s.h)}" fill="${s.fill ? p[s.fill] : 'none'}" stroke="${p[s.tone]}" stroke-width="1.5"${dash}/>`;
     case 'circle':
       return `<circle cx="${n(s.cx)}" cy="${n(s.cy)}" r="${n(s.r)}" fill="${s.fill ? p[s.fill] : 'none'}" stroke="${p[s.tone]}" stroke-width="1.5"${dash}/>`;
     case 'text':
-      // A halo in the background colour under the glyphs (stroke painted first): a line passing behind a label never
-      // runs through its letters.
-      return `<text x="${n(s.x)}" y="${n(s.y)}" font-size="${s.size}" text-anchor="${s.anchor}" fill="${p[s.tone]}"${s.bold ? ' font-weight="600"' : ''} stroke="${p.surface}" stroke-width="3" stroke-linejoin="round" paint-order="stroke">${escapeXml(s.text)}</text>`;
+      return `<text x="${n(s.x)}" y="${n(s.y)}" font-size="${s.size}" text-anchor="${s.anchor}" fill="${p[s.tone]}"${s.bold ? ' font-weight="600"' : ''}>${escapeXml(s.text)}</text>`;
   }
 }
 

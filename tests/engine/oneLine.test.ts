@@ -52,6 +52,48 @@ function labelOverlaps(d: OneLineDrawing): string[] {
   return out;
 }
 
+/** Lines between elements that pass through a label's box (each label also has its halo; this keeps them clear). */
+function edgeLabelCrossings(d: OneLineDrawing): string[] {
+  const labels: { what: string; b: Box }[] = [];
+  for (const e of d.elements)
+    for (const s of e.shapes)
+      if (s.t === 'text' && s.size >= 10) labels.push({ what: `${e.id}:${s.text}`, b: textBox(s) });
+  const out: string[] = [];
+  for (const c of d.connections)
+    for (let k = 0; k + 3 < c.pts.length; k += 2) {
+      const [x1, y1, x2, y2] = c.pts.slice(k, k + 4);
+      const seg = {
+        x: Math.min(x1, x2),
+        y: Math.min(y1, y2),
+        w: Math.abs(x2 - x1) || 0.01,
+        h: Math.abs(y2 - y1) || 0.01,
+      };
+      for (const l of labels) if (boxesOverlap(seg, l.b)) out.push(`${c.a}-${c.b} × ${l.what}`);
+    }
+  return out;
+}
+
+/** Texts not drawn on a halo: the shape before each must be a surface-filled rect covering the text's box. */
+function unhaloed(d: OneLineDrawing): string[] {
+  const out: string[] = [];
+  for (const e of d.elements)
+    e.shapes.forEach((s, i) => {
+      if (s.t !== 'text') return;
+      const h = e.shapes[i - 1];
+      const b = textBox(s);
+      const covers =
+        h?.t === 'rect' &&
+        h.halo &&
+        h.fill === 'surface' &&
+        h.x <= b.x &&
+        h.y <= b.y &&
+        h.x + h.w >= b.x + b.w &&
+        h.y + h.h >= b.y + b.h;
+      if (!covers) out.push(`${e.id}:${s.text}`);
+    });
+  return out;
+}
+
 function checkDrawing(m: Model, d: OneLineDrawing): void {
   // Every element drawn exactly once.
   const counts = new Map<string, number>();
@@ -82,6 +124,8 @@ function checkDrawing(m: Model, d: OneLineDrawing): void {
   }
   expect(loose).toEqual([]);
   expect(labelOverlaps(d)).toEqual([]);
+  expect(unhaloed(d)).toEqual([]);
+  expect(edgeLabelCrossings(d)).toEqual([]);
   for (const e of d.elements) {
     expect(e.box.x).toBeGreaterThanOrEqual(0);
     expect(e.box.y + e.box.h).toBeLessThanOrEqual(d.height);
@@ -107,13 +151,21 @@ function checkSvg(m: Model, d: OneLineDrawing, everyId = true): void {
   expect(errors).toEqual([]);
   expect(doc.documentElement?.nodeName).toBe('svg');
   expect(doc.getElementsByTagName('g').length).toBeGreaterThanOrEqual(d.elements.length);
-  // Every label has a halo in the background colour (stroke painted under the glyphs): a line passing behind a
-  // label does not run through its letters.
-  const texts = Array.from(doc.getElementsByTagName('text'));
+  // Every label sits on a halo in the background colour (a rect drawn just before it, covering its box): a line
+  // passing behind a label does not run through its letters.
+  const texts = Array.from(doc.getElementsByTagName('text')).filter((x) => x.parentNode?.nodeName === 'g');
   expect(texts.length).toBeGreaterThan(0);
-  const bare = texts.filter(
-    (x) => x.getAttribute('paint-order') !== 'stroke' || x.getAttribute('stroke') !== '#FFFFFF',
-  );
+  const bare = texts.filter((x) => {
+    let prev = x.previousSibling;
+    while (prev && prev.nodeType !== 1) prev = prev.previousSibling;
+    const r = prev as Element | null;
+    return (
+      r?.nodeName !== 'rect' ||
+      r.getAttribute('class') !== 'halo' ||
+      r.getAttribute('fill') !== '#FFFFFF' ||
+      Number(r.getAttribute('x')) > Number(x.getAttribute('x'))
+    );
+  });
   expect(bare.map((x) => x.textContent)).toEqual([]);
   if (!everyId) return;
   for (const id of allIds(m)) {
@@ -271,6 +323,8 @@ function checkCollapsed(m: Model, d: OneLineDrawing, results?: StudyResults): vo
   });
   expect(loose.map((c) => `${c.a}-${c.b}`)).toEqual([]);
   expect(labelOverlaps(d)).toEqual([]);
+  expect(edgeLabelCrossings(d)).toEqual([]);
+  expect(unhaloed(d)).toEqual([]);
 
   if (!results) return;
   for (const s of summaries) {
