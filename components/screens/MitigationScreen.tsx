@@ -286,7 +286,7 @@ function OptionCard({
         busy={apply.isPending}
         onPress={onApply}
         testID={`${id}-apply`}
-        accessibilityLabel={`Apply option ${rank}, ${option.title}, to a new draft revision`}
+        accessibilityLabel={`Apply to a new revision: option ${rank}, ${option.title}`}
       />
     </Card>
   );
