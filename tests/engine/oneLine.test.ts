@@ -58,6 +58,8 @@ function edgeLabelCrossings(d: OneLineDrawing): string[] {
   for (const e of d.elements)
     for (const s of e.shapes)
       if (s.t === 'text' && s.size >= 10) labels.push({ what: `${e.id}:${s.text}`, b: textBox(s) });
+  // The app's collapse toggles too.
+  for (const e of d.elements) if (e.subtree) labels.push({ what: `${e.id}:toggle`, b: e.subtree.toggle });
   const out: string[] = [];
   for (const c of d.connections)
     for (let k = 0; k + 3 < c.pts.length; k += 2) {
