@@ -72,6 +72,10 @@ const KEY_WORDS: Record<string, string> = {
   motorDecayModel: 'motor contribution decay',
   requireIndependentApprover: 'independent approver',
   expiresAt: 'expires',
+  busId: 'bus',
+  optionId: 'option',
+  targetCalPerCm2: 'target (cal/cm²)',
+  promisedCalPerCm2: 'promised (cal/cm²)',
 };
 const HIDDEN_KEYS = new Set(['runId', 'labelId', 'siteId', 'userId', 'from', 'by', 'dayKey', 'files']);
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
