@@ -31,7 +31,8 @@ export interface MitigationAppendix {
 export const MITIGATION_APPENDIX_HEADING = 'Appendix A. Mitigation options';
 
 const energy = (cal: number) => `${formatCalPerCm2(cal)} cal/cm²`;
-const ppe = (h: MitigationHazard) => h.ppeLevel ?? 'none adequate';
+/** The organization's PPE level name as it is (e.g. "PPE level 2"), or that none is adequate. */
+const ppe = (h: MitigationHazard) => h.ppeLevel ?? 'no PPE level adequate';
 const margin = (s: number | null) => (s === null ? 'no margin' : `${s >= 0 ? '+' : '−'}${formatSeconds(Math.abs(s))}`);
 
 function clearing(h: MitigationHazard): string {
@@ -89,7 +90,7 @@ export function renderMitigationAppendix(
     const r = b.response;
     r.cautions.forEach((c) => cautions.add(c));
     w.paragraph(
-      `Now: ${energy(r.before.incidentEnergyCalPerCm2)}, ${r.before.signalWord}, PPE ${ppe(r.before)}, cleared by ` +
+      `Now: ${energy(r.before.incidentEnergyCalPerCm2)}, ${r.before.signalWord}, ${ppe(r.before)}, cleared by ` +
         `${clearing(r.before)}.`,
       { size: 8.5 },
     );
@@ -102,11 +103,11 @@ export function renderMitigationAppendix(
       w.paragraph(`Option ${i + 1}: ${o.title}`, { font: w.fonts.textBold, size: 9, after: 1 });
       w.paragraph(
         `Energy ${formatCalPerCm2(r.before.incidentEnergyCalPerCm2)} → ${energy(o.result.incidentEnergyCalPerCm2)} ` +
-          `(${reach}); PPE ${ppe(r.before)} → ${ppe(o.result)}; signal word ${r.before.signalWord} → ` +
+          `(${reach}); ${ppe(r.before)} → ${ppe(o.result)}; signal word ${r.before.signalWord} → ` +
           `${o.result.signalWord}; cleared by ${clearing(o.result)}.`,
         { size: 8.5, indent: 10, after: 1 },
       );
-      w.paragraph(`Selectivity: ${selectivityText(o)}`, { size: 8.5, indent: 10, after: 1 });
+      w.paragraph(selectivityText(o), { size: 8.5, indent: 10, after: 1 });
       if (o.otherBuses.length)
         w.paragraph(
           `Other buses: ${o.otherBuses
