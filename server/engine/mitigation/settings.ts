@@ -187,6 +187,35 @@ function alreadyMet(ctx: SearchContext): { skipped: string } | null {
     : null;
 }
 
+/** What every setting search starts from: the device to change, its name, the choice's note and what it sees. */
+interface SearchStart {
+  placed: PlacedDevice;
+  name: string;
+  /** The note on how the device was chosen, when the arc is not ended by one device. */
+  pre: string[];
+  /** The currents it sees at the start of each arc case (amperes at its voltage). */
+  seen: number[];
+  /** The patch that gives it these settings. */
+  patchFor: (device: Device, library?: PlacedDevice['library']) => ModelPatchOp[];
+}
+
+function searchStart(ctx: SearchContext): SearchStart | { skipped: string } {
+  const met = alreadyMet(ctx);
+  if (met) return met;
+  const t = governingDevice(ctx);
+  if ('skipped' in t) return t;
+  const { placed } = t;
+  return {
+    placed,
+    name: nameOf(placed),
+    pre: t.why ? [t.why] : [],
+    seen: currentsSeen(ctx.base, placed.id),
+    patchFor: (device, library) => [
+      { op: 'replace-device', deviceId: placed.id, device, ...(library ? { library } : {}) },
+    ],
+  };
+}
+
 function outcomeNote(ctx: SearchContext, found: Found<unknown>, lowestWords: string): string {
   return found.reaches
     ? `The ${found.evaluated} setting${found.evaluated === 1 ? '' : 's'} evaluated by the study engine: this is the least change that brings ${busNameOf(ctx.model, ctx.busId)} to ${cal(found.energy)}, at or under ${cal(ctx.targetCalPerCm2)}.`
@@ -295,18 +324,10 @@ function instantaneousOption(
   ctx: SearchContext,
   opts: SettingGeneratorOptions,
 ): OptionProposal[] | { skipped: string } {
-  const met = alreadyMet(ctx);
-  if (met) return met;
-  const t = governingDevice(ctx);
-  if ('skipped' in t) return t;
-  const { placed } = t;
+  const start = searchStart(ctx);
+  if ('skipped' in start) return start;
+  const { placed, name, pre, seen, patchFor } = start;
   const d = placed.device;
-  const name = nameOf(placed);
-  const pre = t.why ? [t.why] : [];
-  const seen = currentsSeen(ctx.base, placed.id);
-  const patchFor = (device: Device, library?: PlacedDevice['library']): ModelPatchOp[] => [
-    { op: 'replace-device', deviceId: placed.id, device, ...(library ? { library } : {}) },
-  ];
 
   if (d.kind === 'fuse') return { skipped: `${name} is a fuse: no setting to change.` };
   if (d.kind === 'band') return { skipped: `${name} is a digitized band: its adjustable range is not known.` };
@@ -484,19 +505,11 @@ function instantaneousOption(
 // Short-time (definite-time) delay
 
 function shortTimeOption(ctx: SearchContext, opts: SettingGeneratorOptions): OptionProposal[] | { skipped: string } {
-  const met = alreadyMet(ctx);
-  if (met) return met;
-  const t = governingDevice(ctx);
-  if ('skipped' in t) return t;
-  const { placed } = t;
+  const start = searchStart(ctx);
+  if ('skipped' in start) return start;
+  const { placed, name, pre, seen, patchFor } = start;
   const d = placed.device;
-  const name = nameOf(placed);
-  const pre = t.why ? [t.why] : [];
-  const seen = currentsSeen(ctx.base, placed.id);
   const lowestSeen = seen.length ? Math.min(...seen) : null;
-  const patchFor = (device: Device, library?: PlacedDevice['library']): ModelPatchOp[] => [
-    { op: 'replace-device', deviceId: placed.id, device, ...(library ? { library } : {}) },
-  ];
   if (d.kind === 'fuse') return { skipped: `${name} is a fuse: no setting to change.` };
   if (d.kind === 'band') return { skipped: `${name} is a digitized band: its adjustable range is not known.` };
   if (d.kind === 'thermal-magnetic')

@@ -5,21 +5,9 @@
  */
 import { axePage, checkA11y } from '../axe';
 import type { Harness, Spec } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, api as harnessApi, assert, clearLocalStorage, pollUntil } from '../harness';
+import type { Page } from 'playwright-core';
+import { DEMO_PASSWORD, DESKTOP, PHONE, api, assert, clearLocalStorage, pollUntil } from '../harness';
 import { generatedPlant } from '../../../server/seed/generatedPlant';
-
-async function api<T>(h: Harness, path: string, token?: string, body?: unknown): Promise<T> {
-  const res = await fetch(`${h.baseUrl}/api${path}`, {
-    method: body ? 'POST' : 'GET',
-    headers: {
-      ...(token ? { Authorization: `Bearer ${token}` } : {}),
-      ...(body ? { 'Content-Type': 'application/json' } : {}),
-    },
-    body: body ? JSON.stringify(body) : undefined,
-  });
-  if (!res.ok) throw new Error(`${path}: ${res.status} ${await res.text()}`);
-  return (await res.json()) as T;
-}
 
 /** The latest study of a demo site (`status`: the approved one). */
 async function demoStudyId(
@@ -27,17 +15,40 @@ async function demoStudyId(
   siteName = 'Larkspur Valley Water Reclamation Facility',
   status = 'approved',
 ): Promise<string> {
-  const { token } = await api<{ token: string }>(h, '/auth/sign-in', undefined, {
-    email: 'engineer@larkspur.example',
-    password: DEMO_PASSWORD,
+  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
+    method: 'POST',
+    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
   });
-  const { sites } = await api<{ sites: { id: string; name: string }[] }>(h, '/sites', token);
+  const { sites } = await api<{ sites: { id: string; name: string }[] }>(h, '/sites', { token });
   const site = sites.find((s) => s.name === siteName);
   if (!site) throw new Error(`${siteName} not found`);
-  const { studies } = await api<{ studies: { id: string; status: string }[] }>(h, `/sites/${site.id}/studies`, token);
+  const { studies } = await api<{ studies: { id: string; status: string }[] }>(h, `/sites/${site.id}/studies`, {
+    token,
+  });
   const found = studies.find((s) => s.status === status);
   if (!found) throw new Error(`no ${status} study at ${siteName}`);
   return found.id;
+}
+
+/** Text on the drawing: exactly an element id, or matching a pattern. */
+function svgText(page: Page, text: string | RegExp) {
+  const hasText = typeof text === 'string' ? new RegExp(`^${text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}$`) : text;
+  return page.locator('svg text').filter({ hasText });
+}
+
+/** A new page signed in as the engineer on the One-line tab of a study, once `first` is drawn. */
+async function openOneLine(
+  h: Harness,
+  viewport: { width: number; height: number },
+  studyId: string,
+  first: string | RegExp,
+): Promise<Page> {
+  const page = await h.newPage(viewport);
+  await h.signIn(page, 'engineer@larkspur.example');
+  await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
+  await page.goto(`${h.baseUrl}/studies/${studyId}?tab=one-line`);
+  await svgText(page, first).first().waitFor();
+  return page;
 }
 
 export const specs: Spec[] = [
@@ -53,15 +64,13 @@ export const specs: Spec[] = [
         await h.signIn(page, 'engineer@larkspur.example');
         await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
         await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
-        const bus = page.locator('svg text').filter({ hasText: /^USS-1$/ });
+        const bus = svgText(page, 'USS-1');
         await bus.waitFor().catch(async (e: Error) => {
           await h.shot(page, `one-line-${label}-failed`);
           throw e;
         });
         // The hazard is written, not only coloured: energy in cal/cm² and the signal word.
-        await page
-          .locator('svg text')
-          .filter({ hasText: /cal\/cm² · (DANGER|WARNING)$/ })
+        await svgText(page, /cal\/cm² · (DANGER|WARNING)$/)
           .first()
           .waitFor();
         await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
@@ -70,10 +79,7 @@ export const specs: Spec[] = [
         // The search box centres an element and marks it.
         await page.getByTestId('one-line-search').fill('MCC-2');
         await page.getByTestId('one-line-find').click();
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^MCC-2$/ })
-          .waitFor();
+        await svgText(page, 'MCC-2').waitFor();
         // Without a pointer: the element found offers its trace as a button.
         await page.getByRole('button', { name: 'Open the clearing trace of MCC-2' }).waitFor();
         await h.shot(page, `one-line-${label}-found`);
@@ -98,14 +104,7 @@ export const specs: Spec[] = [
         ['desktop', DESKTOP],
         ['phone', PHONE],
       ] as const) {
-        const page = await h.newPage(viewport);
-        await h.signIn(page, 'engineer@larkspur.example');
-        await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
-        await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^R-TX2$/ })
-          .waitFor();
+        const page = await openOneLine(h, viewport, id, 'R-TX2');
         // Centre it (on a phone it may lie outside the first view), then tap it.
         await page.getByTestId('one-line-search').fill('R-TX2');
         await page.getByTestId('one-line-find').click();
@@ -130,54 +129,26 @@ export const specs: Spec[] = [
         ['desktop', DESKTOP],
         ['phone', PHONE],
       ] as const) {
-        const page = await h.newPage(viewport);
-        await h.signIn(page, 'engineer@larkspur.example');
-        await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
-        await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^USS-1$/ })
-          .waitFor();
+        const page = await openOneLine(h, viewport, id, 'USS-1');
         await page.getByTestId('one-line-search').fill('SWBD-1');
         await page.getByTestId('one-line-find').click();
         // SWBD-1 feeds MCC-1 and PP-1, and PP-1 feeds LP-1: three buses under it (the demo model, server/seed).
         await page.getByRole('button', { name: 'Collapse the 3 buses under SWBD-1' }).click();
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^3 buses collapsed under SWBD-1$/ })
-          .waitFor();
+        await svgText(page, /^3 buses collapsed under SWBD-1$/).waitFor();
         // The box names the highest energy inside, with its signal word and its bus (the approved run's results).
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^Highest: [0-9.]+ cal\/cm² · (DANGER|WARNING) at (MCC-1|PP-1|LP-1)$/ })
-          .waitFor();
+        await svgText(page, /^Highest: [0-9.]+ cal\/cm² · (DANGER|WARNING) at (MCC-1|PP-1|LP-1)$/).waitFor();
         await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
         await h.shot(page, `one-line-${label}-collapsed`);
         // A bus inside is found in the box, which offers to expand.
         await page.getByTestId('one-line-search').fill('LP-1');
         await page.getByTestId('one-line-find').click();
         await page.getByText('LP-1 is inside the collapsed subtree under SWBD-1: expand it to see it.').waitFor();
-        assert(
-          (await page
-            .locator('svg text')
-            .filter({ hasText: /^LP-1$/ })
-            .count()) === 0,
-          'LP-1 inside the box',
-        );
+        assert((await svgText(page, 'LP-1').count()) === 0, 'LP-1 inside the box');
         await page.getByTestId('one-line-expand-found').click();
         await page.getByRole('button', { name: 'Collapse the 3 buses under SWBD-1' }).waitFor();
         await page.getByTestId('one-line-find').click();
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^LP-1$/ })
-          .waitFor();
-        assert(
-          (await page
-            .locator('svg text')
-            .filter({ hasText: /collapsed under SWBD-1$/ })
-            .count()) === 0,
-          'the box gone once expanded',
-        );
+        await svgText(page, 'LP-1').waitFor();
+        assert((await svgText(page, /collapsed under SWBD-1$/).count()) === 0, 'the box gone once expanded');
         await page.close();
       }
     },
@@ -185,30 +156,30 @@ export const specs: Spec[] = [
   {
     name: 'one-line: a generated plant of 184 buses opens with its substations collapsed (desktop and phone)',
     run: async (h) => {
-      const { token } = await harnessApi<{ token: string }>(h, '/auth/sign-in', {
+      const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
         method: 'POST',
         body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
       });
-      const site = await harnessApi<{ id: string }>(h, '/sites', {
+      const site = await api<{ id: string }>(h, '/sites', {
         method: 'POST',
         token,
         body: { name: 'One-line generated plant (invented)' },
       });
-      const study = await harnessApi<{ id: string }>(h, `/sites/${site.id}/studies`, {
+      const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
         method: 'POST',
         token,
         body: { title: 'Generated plant' },
       });
-      const env = await harnessApi<{ version: number }>(h, `/studies/${study.id}/model`, { token });
-      await harnessApi(h, `/studies/${study.id}/model`, {
+      const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
+      await api(h, `/studies/${study.id}/model`, {
         method: 'PUT',
         token,
         body: { model: generatedPlant(3, 60), version: env.version },
       });
-      await harnessApi(h, `/studies/${study.id}/run`, { method: 'POST', token });
+      await api(h, `/studies/${study.id}/run`, { method: 'POST', token });
       await pollUntil(
         async () => {
-          const r = await harnessApi<{ status: string }>(h, `/studies/${study.id}/run`, { token });
+          const r = await api<{ status: string }>(h, `/studies/${study.id}/run`, { token });
           if (r.status === 'failed') throw new Error('the run failed');
           return r.status === 'done';
         },
@@ -219,35 +190,20 @@ export const specs: Spec[] = [
         ['desktop', DESKTOP],
         ['phone', PHONE],
       ] as const) {
-        const page = await h.newPage(viewport);
-        await h.signIn(page, 'engineer@larkspur.example');
-        await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
-        await page.goto(`${h.baseUrl}/studies/${study.id}?tab=one-line`);
         // Over 150 buses: each substation's 60 feeders are one box, with the highest energy among them.
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^60 buses collapsed under SUB-0$/ })
-          .waitFor();
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^Highest: [0-9.]+ cal\/cm² · (DANGER|WARNING) at MCC-0-[0-9]+$/ })
+        const page = await openOneLine(h, viewport, study.id, '60 buses collapsed under SUB-0');
+        await svgText(page, /^Highest: [0-9.]+ cal\/cm² · (DANGER|WARNING) at MCC-0-[0-9]+$/)
           .first()
           .waitFor();
         await page.getByTestId('one-line-canvas').scrollIntoViewIfNeeded();
         await h.shot(page, `one-line-${label}-generated`);
         // Expanded: its feeders are drawn, the others stay collapsed.
         await page.getByRole('button', { name: /^60 buses collapsed under SUB-0.* — expand$/ }).click();
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^MCC-0-0$/ })
-          .waitFor();
+        await svgText(page, 'MCC-0-0').waitFor();
         await h.shot(page, `one-line-${label}-generated-expanded`);
         await page.getByTestId('one-line-search').fill('SUB-1');
         await page.getByTestId('one-line-find').click();
-        await page
-          .locator('svg text')
-          .filter({ hasText: /^60 buses collapsed under SUB-1$/ })
-          .waitFor();
+        await svgText(page, /^60 buses collapsed under SUB-1$/).waitFor();
         await page.close();
       }
     },
@@ -256,20 +212,9 @@ export const specs: Spec[] = [
     name: 'one-line: a study with operating scenarios — a scenario’s open tie and stopped sources dashed (phone)',
     run: async (h) => {
       const id = await demoStudyId(h, 'Larkspur Valley Solids Handling Building', 'draft');
-      const page = await h.newPage(PHONE);
-      await h.signIn(page, 'engineer@larkspur.example');
-      await pollUntil(async () => !page.url().includes('/sign-in'), 'the sign-in to finish');
-      await page.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
-      await page
-        .locator('svg text')
-        .filter({ hasText: /^SH-TIE$/ })
-        .waitFor();
+      const page = await openOneLine(h, PHONE, id, 'SH-TIE');
       // As written the tie is open: its state is written beside it, not only dashed.
-      await page
-        .locator('svg text')
-        .filter({ hasText: /^open$/ })
-        .first()
-        .waitFor();
+      await svgText(page, 'open').first().waitFor();
       const choice = page.getByTestId('one-line-scenario');
       await choice.waitFor();
       // Before: the open tie is the only dashed element (its blade); on the generator alone both utilities are out.
@@ -297,10 +242,7 @@ export const specs: Spec[] = [
         await ax.getByTestId('sign-in-submit').click();
         await ax.getByTestId('side-nav').waitFor();
         await ax.goto(`${h.baseUrl}/studies/${id}?tab=one-line`);
-        await ax
-          .locator('svg text')
-          .filter({ hasText: /^USS-1$/ })
-          .waitFor();
+        await svgText(ax, 'USS-1').waitFor();
         await checkA11y(ax, 'one-line diagram');
       } finally {
         await ax.close();
