@@ -185,7 +185,8 @@ const NOTES: Record<ElementTable, Record<string, string>> = {
     'device.kind': 'relay, fuse, band, thermal-magnetic or electronic (repeats the device column)',
     device: 'The device object as JSON',
     library: 'Library device type and switch positions, as JSON',
-    onlyAt: 'Acts only for arcs at these buses, as JSON: {"busIds": [...], "purpose": "arc-flash-relay" or "maintenance-switch"}; empty: every fault',
+    onlyAt:
+      'Acts only for arcs at these buses, as JSON: {"busIds": [...], "purpose": "arc-flash-relay" or "maintenance-switch"}; empty: every fault',
   },
 };
 
