@@ -1,6 +1,7 @@
 import { compareBusResults, compareModels } from '../../shared/revisionCompare';
 import type { RevisionComparison } from '../../shared/schemas/compare';
 import type { StudyResults } from '../../shared/schemas/studyResults';
+import { parseStoredResults } from '../engine/study/storedResults';
 import { Study, StudyRun } from '../db/models';
 import type { AuthUser } from './context';
 import { ApiError } from './errors';
@@ -41,7 +42,7 @@ export async function compareRevisions(
         `Revision ${s.revision}'s results are from an earlier version of its model: run it again for results that match the model compared.`,
       );
     }
-    return (JSON.parse(r.results) as StudyResults).buses;
+    return parseStoredResults(r.results).buses;
   };
   const after = resultsOf(study, run);
   const before = resultsOf(baseline, baseRun);

@@ -3,7 +3,7 @@
  * from the results the study stands on (the approved run, else the latest finished run) and its model problems marked.
  */
 import { modelSchema, validateModel, type Model, type ModelIssue } from '../../shared/schemas/model';
-import type { StudyResults } from '../../shared/schemas/studyResults';
+import { parseStoredResults } from '../engine/study/storedResults';
 import type { BusHazard, OneLineDrawing } from '../../shared/oneLine/geometry';
 import { hazardsFromResults } from '../../shared/oneLine/hazards';
 import { defaultCollapsed, layoutOneLine } from '../../shared/oneLine/layout';
@@ -51,9 +51,7 @@ export async function studyOneLine(
   const run = study.approvedRunId
     ? await StudyRun.findByPk(study.approvedRunId)
     : await StudyRun.findOne({ where: { studyId: study.id, status: 'done' }, order: [['startedAt', 'DESC']] });
-  const hazards = run?.results
-    ? hazardsFromResults(JSON.parse(run.results) as StudyResults)
-    : new Map<string, BusHazard>();
+  const hazards = run?.results ? hazardsFromResults(parseStoredResults(run.results)) : new Map<string, BusHazard>();
   const collapsed = collapse === 'none' ? [] : (collapse ?? defaultCollapsed(model));
   const unknown = collapsed.filter((id) => !model.buses.some((b) => b.id === id));
   if (unknown.length) {

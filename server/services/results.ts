@@ -13,6 +13,7 @@ import {
 import { BASE_SCENARIO_ID, type Model } from '../../shared/schemas/model';
 import type { RunDto } from '../../shared/schemas/studies';
 import type { BusResult, StudyResults } from '../../shared/schemas/studyResults';
+import { parseStoredResults } from '../engine/study/storedResults';
 import { StudyRun } from '../db/models';
 import { ReadCache } from '../db/readCache';
 import type { AuthUser } from './context';
@@ -219,6 +220,16 @@ export function summaryOf(buses: BusResult[]): ResultsSummary {
   return s;
 }
 
+/** About the serialized size of the rows: the mean of up to 16 of them, spread over the list, times their number. */
+function rowsSizeEstimate(rows: BusResultRow[]): number {
+  if (!rows.length) return 0;
+  const step = Math.max(1, Math.floor(rows.length / 16));
+  let chars = 0;
+  let n = 0;
+  for (let i = 0; i < rows.length; i += step, n++) chars += JSON.stringify(rows[i]).length;
+  return Math.round((chars / n) * rows.length);
+}
+
 /**
  * Reads and parses the run's results: the index is cached; for a bus request (`wantBusId`) also each bus's trace, to
  * the bus cache. A page request leaves the traces (and the model) alone: a large run's first page does not pay for
@@ -239,7 +250,7 @@ async function loadRun(
     indexCache.delete(key);
     throw ApiError.notFound(NO_RESULTS);
   }
-  const results = JSON.parse(large.results) as StudyResults;
+  const results = parseStoredResults(large.results);
   const { buses, ...study } = results;
   const rows = buses.map(rowOf);
   const index: ResultsIndex = {
@@ -251,8 +262,8 @@ async function loadRun(
     rowJson: new Map(),
     bytes: 0,
   };
-  // Rows are about a third of a bus's serialized size at most; a cheap estimate keeps the budget honest.
-  index.bytes = Math.round(large.results.length / 3) + 4096;
+  // The rows' size from a few of them serialized (each row holds its own label values): keeps the budget honest.
+  index.bytes = rowsSizeEstimate(rows) + 4096;
   indexCache.set(key, index);
   if (wantBusId === undefined) return { index };
 

@@ -3,9 +3,8 @@ import { Op } from 'sequelize';
 import type { Model } from '../../shared/schemas/model';
 import type { OrganizationSettings } from '../../shared/schemas/organization';
 import type { ResultsResponse, RunDto } from '../../shared/schemas/studies';
-import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../db/models';
-import { DEFAULT_MOTOR_DECAY_CYCLES, type StudyOptions } from '../engine/study';
+import { DEFAULT_MOTOR_DECAY_CYCLES, parseStoredResults, type StudyOptions } from '../engine/study';
 import type { AppContext, AuthUser } from './context';
 import { ApiError, modelIssuesError } from './errors';
 import { checkModelText } from './modelCheck';
@@ -186,7 +185,7 @@ export async function getResults(actor: AuthUser, studyId: string): Promise<Resu
   return {
     run: toRunDto(run),
     model: JSON.parse(run.modelSnapshot) as Model, // stored parsed when the run started
-    results: JSON.parse(run.results) as StudyResults,
+    results: parseStoredResults(run.results),
   };
 }
 

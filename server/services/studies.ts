@@ -12,7 +12,7 @@ import type { ApproveInput, EquipmentDto, ModelEnvelope, RunDto, StudyDto } from
 import { Equipment, Site, Study, StudyRun, User } from '../db/models';
 import type { AppContext, AuthUser } from './context';
 import { ApiError } from './errors';
-import type { StudyResults } from '../../shared/schemas/studyResults';
+import { parseStoredResults } from '../engine/study/storedResults';
 import { recordAudit } from './audit';
 import { modelCheckOfText } from './modelCheck';
 import { addMonths } from './dates';
@@ -419,7 +419,7 @@ export async function approveStudy(
     await upsertEquipment(JSON.parse(run.modelSnapshot) as Model, s, transaction);
     const issued = await issueLabels(
       s,
-      JSON.parse(run.results ?? '{"buses":[]}') as StudyResults,
+      parseStoredResults(run.results ?? '{"buses":[]}'),
       now,
       settings.reviewIntervalMonths,
       transaction,

@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
-import { createScenarioRunner, type StudyOptions, type StudyRunOutcome } from '../engine/study';
+import { createScenarioRunner, storedResultsText, type StudyOptions, type StudyRunOutcome } from '../engine/study';
 import { log } from '../log';
 import { generatedPlant } from '../seed/generatedPlant';
 import { yieldToLoop } from './jobs';
@@ -338,7 +338,7 @@ async function runInMainThread(
     }
   }
   return {
-    resultsJson: JSON.stringify(runner.finish(buses)),
+    resultsJson: storedResultsText(runner.finish(buses)),
     buses: buses.length,
     failed: buses.filter((b) => b.status === 'error').length,
   };

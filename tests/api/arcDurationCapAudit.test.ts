@@ -7,6 +7,7 @@ import request from 'supertest';
 import { AuditEvent, StudyRun } from '../../server/db/models';
 import { smallModel } from '../fixtures/smallModel';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { parseStoredResults } from '../../server/engine/study/storedResults';
 
 let t: TestApp;
 let studyId = '';
@@ -61,9 +62,9 @@ describe('arc-duration cap per bus through the API', () => {
     await t.ctx.jobs.idle();
     // The stored results of the run (the results routes page and shape them; the bus result is stored whole).
     const stored = await StudyRun.findOne({ where: { studyId }, order: [['startedAt', 'DESC']] });
-    const body = JSON.parse(stored!.results as string);
-    const swbd = body.buses.find((b: { busId: string }) => b.busId === 'SWBD');
-    expect(swbd.arcDurationCap).toEqual({ capS: 5, source: 'bus', reason: 'Confined vault' });
+    const body = parseStoredResults(stored!.results as string);
+    const swbd = body.buses.find((b) => b.busId === 'SWBD');
+    expect(swbd?.arcDurationCap).toEqual({ capS: 5, source: 'bus', reason: 'Confined vault' });
   });
 
   it('a bus cap without its reason is a model issue naming the field', async () => {

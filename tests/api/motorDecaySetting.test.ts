@@ -10,6 +10,7 @@ import { StudyRun } from '../../server/db/models';
 import { studyResultsSchema, type StudyResults } from '../../shared/schemas/studyResults';
 import { smallModel } from '../fixtures/smallModel';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { parseStoredResults } from '../../server/engine/study/storedResults';
 
 let t: TestApp;
 let studyId = '';
@@ -57,7 +58,7 @@ async function runRow(): Promise<StudyRun> {
 
 async function run(): Promise<{ results: StudyResults; mcc: StudyResults['buses'][number] }> {
   const eng = bearer(t.orgA.users.engineer.token);
-  const results = JSON.parse((await runRow()).results!) as StudyResults;
+  const results = parseStoredResults((await runRow()).results!);
   const bus = await request(t.app)
     .get(`/api/studies/${studyId}/results/buses/MCC`)
     .set(...eng);
@@ -147,7 +148,9 @@ describe('motor contribution decay model (organization setting)', () => {
   });
 
   it('results stored before the setting existed read as the step model (they were computed with it)', async () => {
-    const stored = JSON.parse((await runRow()).results!) as Record<string, unknown> & { buses: { cases: object[] }[] };
+    const stored = parseStoredResults((await runRow()).results!) as unknown as Record<string, unknown> & {
+      buses: { cases: object[] }[];
+    };
     delete stored.motorDecayModel;
     for (const b of stored.buses) for (const c of b.cases) delete (c as { motorDecayModel?: string }).motorDecayModel;
     const parsed = studyResultsSchema.parse(stored);

@@ -7,13 +7,13 @@ import request from 'supertest';
 import { DOMParser } from '@xmldom/xmldom';
 import { parseModel } from '../../shared/schemas/model';
 import { formatCalPerCm2 } from '../../shared/labelDisplay';
-import type { StudyResults } from '../../shared/schemas/studyResults';
 import { StudyRun } from '../../server/db/models';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { solidsBuildingModel } from '../../server/seed/solidsBuildingModel';
 import { generatedPlant } from '../../server/seed/generatedPlant';
 import { draftStudy } from '../helpers/flows';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { parseStoredResults } from '../../server/engine/study/storedResults';
 
 let t: TestApp;
 let studyId: string;
@@ -66,7 +66,7 @@ describe('GET /studies/:studyId/one-line.svg', () => {
     expect(run.status).toBe(202);
     await t.ctx.jobs.idle();
     const stored = await StudyRun.findOne({ where: { studyId, status: 'done' } });
-    const results = JSON.parse(stored!.results!) as StudyResults;
+    const results = parseStoredResults(stored!.results!);
     const res = await get(t.orgA.users.safety.token);
     expect(res.status).toBe(200);
     const svg = res.body as string;
@@ -137,7 +137,7 @@ describe('GET /studies/:studyId/one-line.svg', () => {
     // Runs after the run above (same study). Under SWBD-1 in the demo model: MCC-1 and PP-1 on its feeders, LP-1
     // behind PP-1's transformer (server/seed/larkspurModel.ts).
     const stored = await StudyRun.findOne({ where: { studyId, status: 'done' } });
-    const results = JSON.parse(stored!.results!) as StudyResults;
+    const results = parseStoredResults(stored!.results!);
     const inside = results.buses.filter((b) => ['MCC-1', 'PP-1', 'LP-1'].includes(b.busId) && b.labelValues);
     expect(inside.length).toBeGreaterThan(0);
     const worst = inside.reduce((w, b) =>

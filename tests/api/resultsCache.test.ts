@@ -9,6 +9,7 @@ import { StudyRun } from '../../server/db/models';
 import { clearResultsCache } from '../../server/services/results';
 import { smallModel } from '../fixtures/smallModel';
 import { bearer, makeTestApp, type TestApp } from '../helpers/testApp';
+import { parseStoredResults } from '../../server/engine/study/storedResults';
 
 let t: TestApp;
 let studyId = '';
@@ -71,7 +72,7 @@ describe('cached study results', () => {
     const row = await StudyRun.findByPk(cold.body.run.id as string);
     expect(row?.status).toBe('done');
     expect(cold.body.run.finishedAt).toBe(row!.finishedAt!.toISOString());
-    const stored = JSON.parse(row!.results!) as { buses: { busId: string; cases: unknown }[] };
+    const stored = parseStoredResults(row!.results!);
     expect(cold.body.rows.map((r: { busId: string }) => r.busId)).toEqual(stored.buses.map((b) => b.busId).sort());
     for (const r of cold.body.rows as { busId: string }[]) {
       const { cases: _cases, ...rest } = stored.buses.find((b) => b.busId === r.busId)!;
@@ -134,13 +135,35 @@ describe('cached study results', () => {
     );
     expect(cold.map((r) => r.status)).toEqual([...ids.map(() => 200), 404]);
     cold.slice(0, -1).forEach((r, i) => expect(r.body.bus.busId).toBe(ids[i]));
-    const stored = JSON.parse((await StudyRun.findByPk(page.body.run.id as string))!.results!) as {
-      buses: { busId: string }[];
-    };
+    const stored = parseStoredResults((await StudyRun.findByPk(page.body.run.id as string))!.results!);
     for (const [i, id] of ids.entries()) {
       expect(cold[i].body.bus).toEqual(stored.buses.find((b) => b.busId === id));
       const warm = await results(t.orgA.users.engineer.token, {}, `/buses/${id}`);
       expect(warm.text).toBe(cold[i].text);
+    }
+  });
+
+  it('results stored before the stored form (plain JSON of the results) answer byte for byte the same', async () => {
+    clearResultsCache();
+    const page = await results(t.orgA.users.engineer.token, {}, '?sort=energy');
+    const bus = await results(t.orgA.users.engineer.token, {}, '/buses/PNL');
+    expect(page.status).toBe(200);
+    expect(bus.status).toBe(200);
+    const row = (await StudyRun.findByPk(page.body.run.id as string))!;
+    const storedText = row.results!;
+    // Shorter than the plain JSON (the repeated label values once), and the plain JSON reads back the same.
+    const plain = JSON.stringify(parseStoredResults(storedText));
+    expect(storedText.length).toBeLessThan(plain.length);
+    try {
+      await StudyRun.update({ results: plain }, { where: { id: row.id }, hooks: false });
+      clearResultsCache();
+      const pageBefore = await results(t.orgA.users.engineer.token, {}, '?sort=energy');
+      const busBefore = await results(t.orgA.users.engineer.token, {}, '/buses/PNL');
+      expect(pageBefore.text).toBe(page.text);
+      expect(busBefore.text).toBe(bus.text);
+    } finally {
+      await StudyRun.update({ results: storedText }, { where: { id: row.id }, hooks: false });
+      clearResultsCache();
     }
   });
 

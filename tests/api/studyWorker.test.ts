@@ -1,10 +1,10 @@
 /**
- * Study runs in a worker thread: the same results as the engine in the test's own thread (the reference), progress
- * reported, a stop request ends the worker, and the API answers while a run is in progress.
+ * Study runs in a worker thread: the same results as the engine in the test's own thread (the reference, in the stored
+ * form of server/engine/study/storedResults.ts, byte for byte), progress reported, a stop request ends the worker, and the API answers while a run is in progress.
  */
 import request from 'supertest';
 import { generatedPlant } from '../../server/bench/study';
-import { runStudy } from '../../server/engine/study';
+import { runStudy, storedResultsText } from '../../server/engine/study';
 import { JobStopped } from '../../server/services/jobs';
 import {
   closeStudyWorkers,
@@ -47,7 +47,7 @@ describe('runStudyOffThread', () => {
     const outcome = await runStudyOffThread(model, options, { onProgress: (done) => progress.push(done) });
     expect(studyRunStats.worker).toBe(before + 1);
     const reference = runStudy(model, options);
-    expect(outcome.resultsJson).toBe(JSON.stringify(reference));
+    expect(outcome.resultsJson).toBe(storedResultsText(reference));
     expect(outcome.buses).toBe(reference.buses.length);
     expect(outcome.failed).toBe(reference.buses.filter((b) => b.status === 'error').length);
     expect(progress[0]).toBe(0);
@@ -71,7 +71,7 @@ describe('the warm study worker', () => {
 
   it('two runs in a row use one worker and give the same results as runStudy', async () => {
     const model = parsed(larkspurModel());
-    const reference = JSON.stringify(runStudy(model, options));
+    const reference = storedResultsText(runStudy(model, options));
     const first = await runStudyOffThread(model, options);
     const started = studyRunStats.workersStarted;
     expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
@@ -83,7 +83,7 @@ describe('the warm study worker', () => {
     const plant = parsed(generatedPlant(8, 7));
     const third = await runStudyOffThread(plant, {});
     expect(studyRunStats.workersStarted).toBe(started);
-    expect(third.resultsJson).toBe(JSON.stringify(runStudy(plant, {})));
+    expect(third.resultsJson).toBe(storedResultsText(runStudy(plant, {})));
     expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
   }, 60_000);
 
@@ -99,7 +99,7 @@ describe('the warm study worker', () => {
     const model = parsed(larkspurModel());
     const next = await runStudyOffThread(model, options);
     expect(studyRunStats.workersStarted).toBe(started + 1);
-    expect(next.resultsJson).toBe(JSON.stringify(runStudy(model, options)));
+    expect(next.resultsJson).toBe(storedResultsText(runStudy(model, options)));
   }, 60_000);
 
   it('two concurrent runs each get a worker, both finish with the right results, one worker stays idle', async () => {
@@ -109,8 +109,8 @@ describe('the warm study worker', () => {
     const started = studyRunStats.workersStarted;
     const [ra, rb] = await Promise.all([runStudyOffThread(a, options), runStudyOffThread(b, {})]);
     expect(studyRunStats.workersStarted).toBe(started + 1);
-    expect(ra.resultsJson).toBe(JSON.stringify(runStudy(a, options)));
-    expect(rb.resultsJson).toBe(JSON.stringify(runStudy(b, {})));
+    expect(ra.resultsJson).toBe(storedResultsText(runStudy(a, options)));
+    expect(rb.resultsJson).toBe(storedResultsText(runStudy(b, {})));
     expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
     await closeStudyWorkers();
     expect(studyWorkerCounts()).toEqual({ live: 0, idle: 0 });
@@ -124,7 +124,7 @@ describe('the warm study worker', () => {
     const run = runStudyOffThread(model, options);
     const [, outcome] = await Promise.all([warming, run]);
     expect(studyRunStats.workersStarted).toBe(started + 1);
-    expect(outcome.resultsJson).toBe(JSON.stringify(runStudy(model, options)));
+    expect(outcome.resultsJson).toBe(storedResultsText(runStudy(model, options)));
     expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
     // Once per process: a second call starts nothing.
     await warmStudyWorker();

@@ -1,11 +1,17 @@
 /**
  * The run body of a study worker (`runAllBuses`) serializes each bus as soon as it is evaluated and splices the texts
- * into the results: the stored text must be exactly `JSON.stringify` of the whole results (`runStudy`), byte for
- * byte, on the demo plant, on generated radial and looped plants and with a bus that fails, and its counts must be
+ * into the results: the stored text must be exactly the stored form of the whole results (`runStudy`), and read back,
+ * `JSON.stringify` of the whole results, byte for byte, on the demo plant, on generated radial and looped plants and with a bus that fails, and its counts must be
  * those of the results. The reference is the JSON specification's serialization (ECMA-404 / JSON.stringify).
  */
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
-import { runAllBuses, runStudy, type StudyOptions } from '../../server/engine/study';
+import {
+  parseStoredResults,
+  runAllBuses,
+  runStudy,
+  storedResultsText,
+  type StudyOptions,
+} from '../../server/engine/study';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { loopedMesh, radialPlant } from '../../server/bench/scaling';
 
@@ -19,7 +25,9 @@ function expectSameText(model: Model, options: StudyOptions = {}) {
   const whole = runStudy(model, options);
   const progress: [number, number][] = [];
   const outcome = runAllBuses(model, options, (done, total) => progress.push([done, total]), 0);
-  expect(outcome.resultsJson).toBe(JSON.stringify(whole));
+  // The stored form, and read back: exactly the whole results.
+  expect(outcome.resultsJson).toBe(storedResultsText(whole));
+  expect(JSON.stringify(parseStoredResults(outcome.resultsJson))).toBe(JSON.stringify(whole));
   expect(outcome.buses).toBe(whole.buses.length);
   expect(outcome.failed).toBe(whole.buses.filter((b) => b.status === 'error').length);
   expect(progress[0]).toEqual([0, whole.buses.length]);

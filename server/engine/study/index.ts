@@ -7,6 +7,7 @@ export {
   type StudyRunner,
 } from './runStudy';
 export { runAllBuses, type StudyRunOutcome } from './runAll';
+export { parseStoredResults, storedResultsText, StoredResultsWriter, STORED_RESULTS_FORMAT } from './storedResults';
 export { resolveEquipment, type ResolvedEquipment } from './equipment';
 export { boundaryDistanceMm, BOUNDARY_ENERGY_J_PER_CM2 } from './boundary';
 export {

@@ -6,15 +6,31 @@
 import { larkspurModel } from '../../../server/seed/larkspurModel';
 import type { Page } from 'playwright-core';
 import type { Harness, Spec } from '../harness';
-import { DESKTOP, PHONE, pollUntil, api, assert, draftStudyWithModel, engineerToken } from '../harness';
+import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, api, assert } from '../harness';
 
 /** A draft of its own with the demo plant, one bus's gap set to 32 mm. */
 async function draftStudy(h: Harness): Promise<string> {
+  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
+    method: 'POST',
+    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+  });
+  const site = await api<{ id: string }>(h, '/sites', {
+    method: 'POST',
+    token,
+    body: { name: 'Units plant (invented)' },
+  });
+  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
+    method: 'POST',
+    token,
+    body: { title: 'Units' },
+  });
+  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
   const model = larkspurModel();
   model.buses = model.buses.map((b, i) =>
     i === 2 && b.equipment ? { ...b, equipment: { ...b.equipment, gapMm: 32 } } : b,
   );
-  return (await draftStudyWithModel(h, { siteName: 'Units plant (invented)', title: 'Units', model })).id;
+  await api(h, `/studies/${study.id}/model`, { method: 'PUT', token, body: { model, version: env.version } });
+  return study.id;
 }
 
 /**
@@ -63,7 +79,10 @@ export const specs: Spec[] = [
       await page.getByTestId('buses-2-gap').waitFor();
       assert((await page.getByTestId('buses-2-gap').inputValue()) === '32', 'gap back to 32 mm');
       assert(await page.getByTestId('save-model').isDisabled(), 'nothing to save after switching units');
-      const token = await engineerToken(h);
+      const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
+        method: 'POST',
+        body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+      });
       await api(h, '/auth/me/preferences', { method: 'PUT', token, body: { units: null } });
       await page.close();
     },
@@ -85,7 +104,10 @@ export const specs: Spec[] = [
       await h.shot(page, 'units-editor-us-phone');
       await page.getByTestId('save-model').click();
       await pollUntil(async () => await page.getByTestId('save-model').isDisabled(), 'saved');
-      const token = await engineerToken(h);
+      const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
+        method: 'POST',
+        body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+      });
       const env = await api<{ model: { buses: { equipment?: { gapMm?: number } }[] } }>(h, `/studies/${id}/model`, {
         token,
       });
