@@ -8,6 +8,7 @@ import { UnsafeArchiveError } from '../io/zipGuard';
 import { busResultTagged, resultsPageTagged } from '../services/results';
 import { sendTagged } from '../http/tagged';
 import { latestRun, startRun } from '../services/runs';
+import { markAcceptedModel } from '../services/modelCheck';
 import {
   approveStudy,
   createStudy,
@@ -105,6 +106,8 @@ export const studyIoRoutes: AnyRoute[] = [
           fields,
         );
       }
+      // Checked as it was read (parseModel): not parsed and checked again when it is stored.
+      markAcceptedModel(result.model);
       return saveModel(ctx, user, params.studyId, result.model, null, 'study.model-imported', {
         files: files.map((f) => f.name),
       });

@@ -1,6 +1,6 @@
 import { LRUCache } from 'lru-cache';
 import { plausibilityWarnings } from '../../shared/modelPlausibility';
-import { parseModel, type ModelIssue } from '../../shared/schemas/model';
+import { parseModel, type Model, type ModelIssue } from '../../shared/schemas/model';
 import type { ModelWarning } from '../../shared/schemas/modelWarnings';
 
 /** What the model checks say about one stored model text. */
@@ -26,10 +26,37 @@ const checked = new LRUCache<string, CheckedModel>({
   sizeCalculation: (v, text) => Math.max(1, text.length + (v.snapshot?.length ?? 0)),
 });
 
-/** The model checks (`parseModel`) of a stored model's JSON text. */
-export function checkModelText(text: string): CheckedModel {
+/**
+ * Models `parseModel` has just accepted (an import checks the file's model as it reads it), by object: their text need
+ * not be parsed and checked again when they are stored (see `checkModelText`).
+ */
+const accepted = new WeakSet<object>();
+
+/** Marks a model as `parseModel`'s accepted output (`parseModel(input).model`, unchanged since). */
+export function markAcceptedModel(model: Model): void {
+  accepted.add(model);
+}
+
+/**
+ * The model checks (`parseModel`) of a stored model's JSON text. With `source`, the model the text was made from
+ * (`JSON.stringify(source)`): when `parseModel` has just accepted it (`markAcceptedModel`), the answer is the accepted
+ * model's without parsing the text and checking it again — the same answer, since `parseModel` only adds defaults
+ * (no transforms), so its output checks to itself (tests/api/modelCheck.test.ts holds the two to each other).
+ */
+export function checkModelText(text: string, source?: object): CheckedModel {
   const hit = checked.get(text);
   if (hit) return hit;
+  if (source && accepted.has(source)) {
+    const model = source as Model;
+    const answer: CheckedModel = Object.freeze({
+      issues: Object.freeze([]),
+      warnings: Object.freeze(plausibilityWarnings(model)),
+      snapshot: text,
+      hasEquipment: model.buses.some((b) => b.equipment),
+    });
+    checked.set(text, answer);
+    return answer;
+  }
   const parsed = parseModel(JSON.parse(text));
   const answer: CheckedModel = Object.freeze(
     parsed.success
@@ -45,8 +72,8 @@ export function checkModelText(text: string): CheckedModel {
   return answer;
 }
 
-/** The issues and warnings of a stored model's JSON text, as a model route answers them (copies). */
-export function modelCheckOfText(text: string): { issues: ModelIssue[]; warnings: ModelWarning[] } {
-  const c = checkModelText(text);
+/** The issues and warnings of a stored model's JSON text, as a model route answers them (copies); `source` as above. */
+export function modelCheckOfText(text: string, source?: object): { issues: ModelIssue[]; warnings: ModelWarning[] } {
+  const c = checkModelText(text, source);
   return { issues: [...c.issues], warnings: [...c.warnings] };
 }

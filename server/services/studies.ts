@@ -303,7 +303,7 @@ export async function saveModel(
       transaction,
     );
     // Checked as stored (the text every later read parses); the answer is kept for the run's start and the next read.
-    return { model, version, ...modelCheckOfText(text) };
+    return { model, version, ...modelCheckOfText(text, model) };
   });
 }
 
