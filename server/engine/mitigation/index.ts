@@ -10,7 +10,7 @@ import type { Model } from '../../../shared/schemas/model';
 import { EngineError } from '../errors';
 import type { StudyOptions } from '../study';
 import { arcFlashRelay, currentLimitingFuse, lineSideIsolation } from './additions';
-import { mitigateBus, type OptionGenerator } from './search';
+import { BusEvaluator, mitigateBus, type OptionGenerator } from './search';
 import { checkSelectivity } from './selectivity';
 import { settingGenerators } from './settings';
 
@@ -36,13 +36,17 @@ export function generators(tripTypes: TripTypes = {}): { kind: MitigationKind; g
   ];
 }
 
-/** The options for one bus of a model: best first, each evaluated by the study engine on the patched model. */
+/**
+ * The options for one bus of a model: best first, each evaluated by the study engine on the patched model.
+ * `evaluator`: one shared by several searches on this model with these options (`mitigationOutcomes`).
+ */
 export function mitigate(
   model: Model,
   busId: string,
   targetCalPerCm2: number,
   options: StudyOptions,
   tripTypes: TripTypes = {},
+  evaluator?: BusEvaluator,
 ): Omit<MitigationResponse, 'studyId'> {
   return mitigateBus({
     model,
@@ -51,6 +55,7 @@ export function mitigate(
     options,
     generators: generators(tripTypes),
     selectivity: checkSelectivity,
+    evaluator,
   });
 }
 
@@ -67,11 +72,38 @@ export function mitigationOutcome(
   options: StudyOptions,
   tripTypes: TripTypes = {},
 ): MitigationOutcome {
+  return mitigationOutcomes(model, [busId], targetCalPerCm2, options, tripTypes)[0];
+}
+
+/**
+ * The outcomes of several buses of one model toward one target (the report's appendix), in the order asked: one
+ * evaluator for all of them, so the short-circuit solutions and every result already computed (the base buses, a
+ * change another bus's search tried too) are reused. Each bus's options equal `mitigate`'s for that bus alone.
+ */
+export function mitigationOutcomes(
+  model: Model | string,
+  busIds: readonly string[],
+  targetCalPerCm2: number,
+  options: StudyOptions,
+  tripTypes: TripTypes = {},
+): MitigationOutcome[] {
   const parsed = typeof model === 'string' ? (JSON.parse(model) as Model) : model;
-  try {
-    return { kind: 'ok', response: mitigate(parsed, busId, targetCalPerCm2, options, tripTypes) };
-  } catch (e) {
+  const invalid = (e: unknown): MitigationOutcome => {
     if (e instanceof EngineError) return { kind: 'invalid', code: e.code, message: e.message, field: e.field ?? null };
     throw e;
+  };
+  let evaluator: BusEvaluator;
+  try {
+    evaluator = new BusEvaluator(parsed, options);
+  } catch (e) {
+    const outcome = invalid(e);
+    return busIds.map(() => outcome);
   }
+  return busIds.map((busId) => {
+    try {
+      return { kind: 'ok', response: mitigate(parsed, busId, targetCalPerCm2, options, tripTypes, evaluator) };
+    } catch (e) {
+      return invalid(e);
+    }
+  });
 }

@@ -26,4 +26,5 @@ export {
   scenariosOf,
   BASE_SCENARIO_NAME,
   type AppliedScenario,
+  type SharedNetwork,
 } from './scenarios';

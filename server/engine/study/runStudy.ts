@@ -828,9 +828,18 @@ export interface StudyRunner {
   readonly work: { faults: number; nodeVisits: number; elementVisits: number; pictureVisits: number };
 }
 
-/** Builds the network once (short-circuit factorization), then evaluates bus by bus. Throws for an invalid model. */
-export function createStudyRunner(model: Model, options: StudyOptions = {}): StudyRunner {
-  const solver = createShortCircuitSolver(model);
+/**
+ * Builds the network once (short-circuit factorization), then evaluates bus by bus. Throws for an invalid model.
+ * `reuse.solver`: the short-circuit solver of a model with the same network (buses, sources, branches, ties, motors)
+ * — a copy that differs only by its protective devices or bus equipment, which change no impedance (the mitigation
+ * search); the caller has validated the model.
+ */
+export function createStudyRunner(
+  model: Model,
+  options: StudyOptions = {},
+  reuse: { solver?: ShortCircuitSolver } = {},
+): StudyRunner {
+  const solver = reuse.solver ?? createShortCircuitSolver(model);
   const maxArcDurationMs = options.maxArcDurationMs ?? 2000;
   const motorDecayCycles = options.motorDecayCycles ?? DEFAULT_MOTOR_DECAY_CYCLES;
   const motorDecayS = motorDecayCycles / (model.frequencyHz ?? 60);

@@ -1,6 +1,7 @@
 import { plausibilityWarnings } from '../../../shared/modelPlausibility';
 import { BASE_SCENARIO_ID, type Model, type Scenario, type Source } from '../../../shared/schemas/model';
 import type { BusResult, BusScenario, StudyResults } from '../../../shared/schemas/studyResults';
+import type { ShortCircuitSolver } from '../shortcircuit';
 import { createStudyRunner, type StudyOptions, type StudyRunner } from './runStudy';
 
 /**
@@ -138,12 +139,25 @@ const DE_ENERGIZED_NOTE = 'De-energized in this scenario: no source in service r
 const fmt = (x: number | undefined) => (x === undefined ? '—' : x.toPrecision(3));
 
 /**
+ * Short-circuit solvers shared by the runners of models with one network: `solvers[k]` is the solver of scenario k of
+ * `scenariosOf(model)` (base first). For copies of a model that differ only by protective devices or bus equipment
+ * (the mitigation search's patched models), already validated: the network, and so the factorization, is the same.
+ */
+export interface SharedNetwork {
+  solvers: readonly ShortCircuitSolver[];
+}
+
+/**
  * The study runner over every scenario (the same interface as one scenario's): `runBus` evaluates the bus in the base
  * and in each scenario and returns the governing one — the highest incident energy, or, when any scenario fails at the
  * bus, that failure (the worst case is then unknown, so no number is given). A model without scenarios gets the plain
  * runner, and its results are exactly as before scenarios existed.
  */
-export function createScenarioRunner(model: Model, options: StudyOptions = {}): StudyRunner & { evaluations: number } {
+export function createScenarioRunner(
+  model: Model,
+  options: StudyOptions = {},
+  network?: SharedNetwork,
+): StudyRunner & { evaluations: number } {
   // Plausibility warnings of the model (a wrong unit, a slipped decimal point) go with the run's own warnings.
   const implausible = plausibilityWarnings(model).map((w) => ({
     code: 'IMPLAUSIBLE_VALUE',
@@ -152,7 +166,7 @@ export function createScenarioRunner(model: Model, options: StudyOptions = {}): 
   const withImplausible = (r: StudyResults): StudyResults =>
     implausible.length ? { ...r, warnings: [...r.warnings, ...implausible] } : r;
   if (!model.scenarios?.length) {
-    const plain = createStudyRunner(model, options);
+    const plain = createStudyRunner(model, options, { solver: network?.solvers[0] });
     return {
       busIds: plain.busIds,
       shortCircuitWarnings: plain.shortCircuitWarnings,
@@ -165,7 +179,7 @@ export function createScenarioRunner(model: Model, options: StudyOptions = {}): 
     };
   }
   const applied = scenariosOf(model);
-  const runners = applied.map((a) => createStudyRunner(a.model, options));
+  const runners = applied.map((a, k) => createStudyRunner(a.model, options, { solver: network?.solvers[k] }));
   const base = runners[0];
 
   function runBus(busId: string): BusResult {
