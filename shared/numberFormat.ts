@@ -18,13 +18,21 @@ export function formatSig(value: number, digits = 3, trim = true): string {
   if (value === 0) return '0';
   const magnitude = Math.floor(Math.log10(Math.abs(value)));
   let decimals = Math.min(20, Math.max(0, digits - 1 - magnitude));
-  // Rounding may carry into one more integer digit (9.996 → 10.00): one decimal fewer keeps `digits` figures.
-  const rounded = Math.abs(Number(value.toFixed(decimals)));
-  if (decimals > 0 && Math.floor(Math.log10(rounded) + 1e-12) > magnitude) decimals -= 1;
   let s = value.toFixed(decimals);
-  if (trim && decimals > 0) s = s.replace(/\.?0+$/, '');
+  // Rounding may carry into one more integer digit (9.996 → 10.00): one decimal fewer keeps `digits` figures.
+  if (decimals > 0 && Math.floor(Math.log10(Math.abs(Number(s))) + 1e-12) > magnitude) {
+    decimals -= 1;
+    s = value.toFixed(decimals);
+  }
+  if (trim && decimals > 0) {
+    // Trailing zeros after the decimal point, and the point itself when nothing is left after it.
+    let end = s.length;
+    while (s.charCodeAt(end - 1) === 48) end -= 1;
+    if (s.charCodeAt(end - 1) === 46) end -= 1;
+    s = s.slice(0, end);
+  }
   // toFixed keeps the sign of a negative value that rounds to zero ("-0.00").
-  return /^-0(\.0*)?$/.test(s) ? s.slice(1) : s;
+  return value < 0 && /^-0(\.0*)?$/.test(s) ? s.slice(1) : s;
 }
 
 /**

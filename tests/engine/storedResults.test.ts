@@ -61,6 +61,27 @@ describe('stored results', () => {
     roundTrip(results);
   });
 
+  it('values that differ only in key order, in an undefined key or in a number stay apart; many distinct values too', () => {
+    const results = runStudy(parsed(radialPlant(300)), {});
+    const labelled = results.buses.filter((b) => b.labelValues && b.equipment);
+    // Key order: the same fields, reversed.
+    const eq = labelled[0].equipment!;
+    labelled[0].equipment = Object.fromEntries(Object.entries(eq).reverse()) as typeof eq;
+    // A key whose value is undefined (JSON leaves it out).
+    labelled[1].labelValues!.shockApproach = {
+      ...labelled[1].labelValues!.shockApproach!,
+      extra: undefined,
+    } as NonNullable<StudyResults['buses'][number]['labelValues']>['shockApproach'];
+    // One number apart.
+    labelled[2].labelValues!.gloveClass = { ...labelled[2].labelValues!.gloveClass!, maxUseVoltageAcV: 999 };
+    // More distinct values under one key than are compared one by one (then looked up by their text).
+    labelled.slice(3, 40).forEach((b, i) => {
+      b.labelValues!.gloveClass = { ...b.labelValues!.gloveClass!, status: `status ${i % 25}` };
+    });
+    const stored = roundTrip(results);
+    expect(JSON.parse(stored).shared.length).toBeGreaterThan(25);
+  });
+
   it('results stored before this form (plain JSON of the results) read as they are', () => {
     const results = runStudy(parsed(larkspurModel()), {});
     const plain = JSON.stringify(results);

@@ -32,6 +32,43 @@ const SHARED_LABEL_KEYS = [
   'cautions',
 ] as const;
 
+/** Distinct values under one key compared element by element before they are looked up by their JSON text. */
+const MAX_CANDIDATES = 16;
+
+/**
+ * Whether two JSON values have the same JSON text: the same primitives (numbers by value: NaN and infinities, which
+ * JSON writes as null, never match), arrays of the same length, objects with the same keys in the same order.
+ */
+function sameJson(a: unknown, b: unknown): boolean {
+  if (a === b) return typeof a !== 'number' || Number.isFinite(a);
+  if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null) return false;
+  // A value with its own JSON form (a Date): not compared here.
+  if (
+    typeof (a as { toJSON?: unknown }).toJSON === 'function' ||
+    typeof (b as { toJSON?: unknown }).toJSON === 'function'
+  )
+    return false;
+  if (Array.isArray(a)) {
+    if (!Array.isArray(b) || a.length !== b.length) return false;
+    for (let i = 0; i < a.length; i++) if (!sameJson(a[i], b[i])) return false;
+    return true;
+  }
+  if (Array.isArray(b)) return false;
+  const ka = Object.keys(a);
+  const kb = Object.keys(b);
+  if (ka.length !== kb.length) return false;
+  for (let i = 0; i < ka.length; i++) {
+    const k = ka[i];
+    if (k !== kb[i]) return false;
+    const x = (a as Record<string, unknown>)[k];
+    const y = (b as Record<string, unknown>)[k];
+    // JSON leaves out a key whose value is undefined (or a function): never equal, to be safe.
+    if (x === undefined || y === undefined || typeof x === 'function' || typeof y === 'function') return false;
+    if (!sameJson(x, y)) return false;
+  }
+  return true;
+}
+
 /** Writes the stored text of one run's results, bus by bus (a large run holds text, not object graphs). */
 export class StoredResultsWriter {
   /** The JSON text of each shared value, by index. */
@@ -46,7 +83,14 @@ export class StoredResultsWriter {
     return this.busJson.length;
   }
 
-  private index(value: unknown): number {
+  /**
+   * Values already stored, by the key they sit under: checked for equality (the same JSON text) element by element,
+   * which for the engine's values is mostly comparing the same string objects. Past `MAX_CANDIDATES` distinct values
+   * under one key, they are looked up by their JSON text instead.
+   */
+  private readonly candidates = new Map<string, { value: unknown; index: number }[]>();
+
+  private index(key: string, value: unknown): number {
     if (typeof value === 'string') {
       let i = this.stringIndex.get(value);
       if (i === undefined) {
@@ -54,6 +98,14 @@ export class StoredResultsWriter {
         this.stringIndex.set(value, i);
       }
       return i;
+    }
+    let list = this.candidates.get(key);
+    if (!list) this.candidates.set(key, (list = []));
+    if (list.length < MAX_CANDIDATES) {
+      for (const c of list) if (sameJson(c.value, value)) return c.index;
+      const index = this.sharedJson.push(JSON.stringify(value)) - 1;
+      list.push({ value: copyJson(value), index });
+      return index;
     }
     const json = JSON.stringify(value);
     let i = this.jsonIndex.get(json);
@@ -71,13 +123,13 @@ export class StoredResultsWriter {
     if (lv || bus.equipment) {
       // Spread then assigned: the keys keep their places (read back in the same order).
       const copy = { ...bus } as Record<string, unknown>;
-      if (bus.equipment) copy.equipment = this.index(bus.equipment);
+      if (bus.equipment) copy.equipment = this.index('equipment', bus.equipment);
       if (lv) {
         const l = { ...lv } as Record<string, unknown>;
         for (const k of SHARED_LABEL_KEYS) {
           const v = l[k];
           // A missing or null value stays as it is (shorter than an index, and read back as is).
-          if (v !== undefined && v !== null) l[k] = this.index(v);
+          if (v !== undefined && v !== null) l[k] = this.index(k, v);
         }
         copy.labelValues = l;
       }
