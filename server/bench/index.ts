@@ -4,6 +4,7 @@
 import { benchIncidentEnergy } from './incidentEnergy';
 import { benchShortCircuit } from './shortCircuit';
 import { benchLabels } from './labels';
+import { benchMitigation } from './mitigation';
 import { benchOneLine } from './oneLine';
 import { benchScaling, benchStudyApi10k } from './scaling';
 import { benchStudyThroughApi } from './study';
@@ -24,6 +25,7 @@ const BENCHES: [string, () => Promise<BenchResult>][] = [
   ['api-10k', benchStudyApi10k],
   ['labels', benchLabels],
   ['oneline', benchOneLine],
+  ['mitigation', benchMitigation],
 ];
 
 async function main(): Promise<void> {
@@ -32,7 +34,8 @@ async function main(): Promise<void> {
   for (const [key, run] of BENCHES) {
     if (filter && !key.includes(filter)) continue;
     const r = await run();
-    console.log(`${r.name}\n  ${r.opsPerSecond.toFixed(0)} per second\n  ${r.detail.split('\n').join('\n  ')}\n`);
+    const rate = r.opsPerSecond < 10 ? r.opsPerSecond.toFixed(2) : r.opsPerSecond.toFixed(0);
+    console.log(`${r.name}\n  ${rate} per second\n  ${r.detail.split('\n').join('\n  ')}\n`);
   }
 }
 

@@ -26,7 +26,7 @@ import { getSettings } from './organization';
 import { runSettingsOf } from './runs';
 import { findStudy } from './scope';
 import { nextRevision, toStudyDtos } from './studies';
-import { mitigationOffThread } from './studyWorker';
+import { mitigationOffThread, mitigationsOffThread } from './studyWorker';
 
 /**
  * Answers kept by everything they depend on (the checked model's text, the run settings, the bus and the target):
@@ -81,12 +81,8 @@ async function tripTypesOf(actor: AuthUser, model: Model): Promise<TripTypes> {
   return out;
 }
 
-async function computeOptions(
-  actor: AuthUser,
-  study: Study,
-  busId: string,
-  targetCalPerCm2: number,
-): Promise<Omit<MitigationResponse, 'studyId'>> {
+/** What a search of a revision starts from: its checked model, the run settings, the trip-unit types, the answer keys. */
+async function searchInputs(actor: AuthUser, study: Study) {
   const checked = checkModelText(study.model);
   if (checked.snapshot === null) throw modelIssuesError([...checked.issues], 'model.');
   const snapshot = checked.snapshot;
@@ -94,10 +90,32 @@ async function computeOptions(
   // Only a model with library switch positions needs its device types (and is parsed here for them).
   const tripTypes = snapshot.includes('"positions"') ? await tripTypesOf(actor, JSON.parse(snapshot) as Model) : {};
   // By a digest: a large model's text is megabytes, not to be kept as a key.
-  const key = createHash('sha256')
-    .update(`${JSON.stringify(options)}\n${JSON.stringify(tripTypes)}\n${busId}\n${targetCalPerCm2}\n`)
+  const digest = createHash('sha256')
+    .update(`${JSON.stringify(options)}\n${JSON.stringify(tripTypes)}\n`)
     .update(snapshot)
     .digest('hex');
+  const keyOf = (busId: string, targetCalPerCm2: number) =>
+    createHash('sha256').update(`${digest}\n${busId}\n${targetCalPerCm2}`).digest('hex');
+  return { snapshot, options, tripTypes, keyOf };
+}
+
+/** The answer of an outcome, or the 400 naming the field the search refused. */
+function answerOf(outcome: MitigationOutcome): Omit<MitigationResponse, 'studyId'> {
+  if (outcome.kind === 'invalid') {
+    const field = outcome.field ?? 'busId';
+    throw new ApiError('bad_request', outcome.message, { [field]: outcome.message });
+  }
+  return outcome.response;
+}
+
+async function computeOptions(
+  actor: AuthUser,
+  study: Study,
+  busId: string,
+  targetCalPerCm2: number,
+): Promise<Omit<MitigationResponse, 'studyId'>> {
+  const { snapshot, options, tripTypes, keyOf } = await searchInputs(actor, study);
+  const key = keyOf(busId, targetCalPerCm2);
   const hit = answers.get(key);
   if (hit) return hit;
   let computing = inFlight.get(key);
@@ -111,13 +129,52 @@ async function computeOptions(
       () => inFlight.delete(key),
     );
   }
-  const outcome = await computing;
-  if (outcome.kind === 'invalid') {
-    const field = outcome.field ?? 'busId';
-    throw new ApiError('bad_request', outcome.message, { [field]: outcome.message });
+  const response = answerOf(await computing);
+  answers.set(key, response);
+  return response;
+}
+
+/**
+ * The options of several buses of one revision toward one target (the report's appendix), in the order asked: each
+ * the answer `mitigationOptions` gives for that bus (kept answers are taken; the others are computed together in one
+ * worker call, sharing the short-circuit solutions and the results already computed), or the error it would answer.
+ */
+export async function mitigationOptionsOfBuses(
+  actor: AuthUser,
+  studyId: string,
+  busIds: readonly string[],
+  targetCalPerCm2: number,
+): Promise<({ response: MitigationResponse } | { error: ApiError })[]> {
+  const study = await findStudy(actor, studyId);
+  let inputs: Awaited<ReturnType<typeof searchInputs>>;
+  try {
+    inputs = await searchInputs(actor, study);
+  } catch (e) {
+    // A model that cannot be searched: the same answer for every bus.
+    if (e instanceof ApiError) return busIds.map(() => ({ error: e }));
+    throw e;
   }
-  answers.set(key, outcome.response);
-  return outcome.response;
+  const { snapshot, options, tripTypes, keyOf } = inputs;
+  const missing = [...new Set(busIds.filter((id) => !answers.has(keyOf(id, targetCalPerCm2))))];
+  const computed = new Map<string, MitigationOutcome>();
+  if (missing.length) {
+    const outcomes = await inTurn(() => mitigationsOffThread(snapshot, options, missing, targetCalPerCm2, tripTypes));
+    missing.forEach((id, k) => computed.set(id, outcomes[k]));
+  }
+  return busIds.map((busId) => {
+    const key = keyOf(busId, targetCalPerCm2);
+    try {
+      let response = answers.get(key);
+      if (!response) {
+        response = answerOf(computed.get(busId)!);
+        answers.set(key, response);
+      }
+      return { response: { studyId: study.id, ...response } };
+    } catch (e) {
+      if (e instanceof ApiError) return { error: e };
+      throw e;
+    }
+  });
 }
 
 /** The options for one bus of any revision the engineer sees (draft, in review, approved, superseded). */

@@ -8,7 +8,7 @@ import type { StudyResults } from '../../shared/schemas/studyResults';
 import type { MitigationAppendix } from '../pdf/studyReport';
 import type { AuthUser } from './context';
 import { ApiError } from './errors';
-import { mitigationOptions } from './mitigation';
+import { mitigationOptionsOfBuses } from './mitigation';
 
 /**
  * Buses whose options a report computes, highest energy first (each is a search over candidate changes; the others
@@ -29,19 +29,24 @@ export async function mitigationAppendix(
   const above = results.buses
     .filter((b) => b.incidentEnergyCalPerCm2 !== undefined && b.incidentEnergyCalPerCm2 > aboveCalPerCm2)
     .sort((a, b) => (b.incidentEnergyCalPerCm2 as number) - (a.incidentEnergyCalPerCm2 as number));
-  const buses: MitigationAppendix['buses'] = [];
-  // One bus after another: each search may use the study worker, and a report must not take every core.
-  for (const b of above.slice(0, REPORT_MITIGATION_MAX_BUSES)) {
+  const computed = above.slice(0, REPORT_MITIGATION_MAX_BUSES);
+  // One worker call for all of them (one core; the short-circuit solutions and the model's own results shared).
+  const outcomes = await mitigationOptionsOfBuses(
+    actor,
+    studyId,
+    computed.map((b) => b.busId),
+    aboveCalPerCm2,
+  );
+  const buses: MitigationAppendix['buses'] = computed.map((b, k) => {
     const energyCalPerCm2 = b.incidentEnergyCalPerCm2 as number;
-    try {
-      const response = await mitigationOptions(actor, studyId, { busId: b.busId, targetCalPerCm2: aboveCalPerCm2 });
-      buses.push({ busId: b.busId, busName: b.busName, energyCalPerCm2, response });
-    } catch (e) {
-      // A bus the search cannot take (e.g. a model problem) is named with the reason; anything else fails the report.
-      if (!(e instanceof ApiError) || (e.code !== 'bad_request' && e.code !== 'unprocessable')) throw e;
-      buses.push({ busId: b.busId, busName: b.busName, energyCalPerCm2, error: e.message });
-    }
-  }
+    const outcome = outcomes[k];
+    if ('response' in outcome)
+      return { busId: b.busId, busName: b.busName, energyCalPerCm2, response: outcome.response };
+    // A bus the search cannot take (e.g. a model problem) is named with the reason; anything else fails the report.
+    const e = outcome.error;
+    if (e.code !== 'bad_request' && e.code !== 'unprocessable') throw e;
+    return { busId: b.busId, busName: b.busName, energyCalPerCm2, error: e.message };
+  });
   return {
     aboveCalPerCm2,
     buses,

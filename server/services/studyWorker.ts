@@ -2,10 +2,11 @@ import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { createScenarioRunner, storedResultsText, type StudyOptions, type StudyRunOutcome } from '../engine/study';
+import { markCheckedModel } from '../engine/shortcircuit';
 import { log } from '../log';
 import { generatedPlant } from '../seed/generatedPlant';
 import { yieldToLoop } from './jobs';
-import { mitigationOutcome, type MitigationOutcome, type TripTypes } from '../engine/mitigation';
+import { mitigationOutcome, mitigationOutcomes, type MitigationOutcome, type TripTypes } from '../engine/mitigation';
 import { scenarioBusResult, type ScenarioBusOutcome } from './scenarioBus';
 
 /**
@@ -35,7 +36,7 @@ export const IDLE_WORKER_MS = 10 * 60_000;
 const BOOTSTRAP = `
 const { parentPort, workerData } = require('node:worker_threads');
 try { require('tsx/cjs/api').register(); } catch (e) { /* already JavaScript */ }
-const { runAllBuses } = require(workerData.modulePath);
+const { runAllBuses, markCheckedModel } = require(workerData.modulePath);
 let busModule = null;
 let mitigationModule = null;
 parentPort.on('message', (msg) => {
@@ -43,7 +44,9 @@ parentPort.on('message', (msg) => {
     let result;
     try {
       mitigationModule = mitigationModule || require(workerData.mitigationModulePath);
-      result = mitigationModule.mitigationOutcome(msg.model, msg.busId, msg.targetCalPerCm2, msg.options, msg.tripTypes);
+      result = msg.busIds
+        ? mitigationModule.mitigationOutcomes(msg.model, msg.busIds, msg.targetCalPerCm2, msg.options, msg.tripTypes)
+        : mitigationModule.mitigationOutcome(msg.model, msg.busId, msg.targetCalPerCm2, msg.options, msg.tripTypes);
     } catch (e) {
       parentPort.postMessage({ type: 'error', id: msg.id, message: e && e.message ? e.message : String(e) });
       return;
@@ -69,6 +72,7 @@ parentPort.on('message', (msg) => {
   let outcome;
   try {
     const model = typeof msg.model === 'string' ? JSON.parse(msg.model) : msg.model;
+    if (msg.checked) markCheckedModel(model);
     outcome = runAllBuses(model, msg.options, (done, total) =>
       parentPort.postMessage({ type: 'progress', id, done, total }),
     );
@@ -85,6 +89,11 @@ export interface StudyJobOptions {
   /** Aborted: the worker is terminated and the promise rejects with `stopError()`. */
   signal?: AbortSignal;
   stopError?: () => Error;
+  /**
+   * The model is the JSON text of a model `parseModel` accepted, as it stands (a run's snapshot, checked when the run
+   * started): the engine does not validate it again.
+   */
+  modelChecked?: boolean;
 }
 
 /**
@@ -263,6 +272,7 @@ function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJo
       id,
       model: typeof model === 'string' ? model : (JSON.parse(JSON.stringify(model)) as unknown),
       options: JSON.parse(JSON.stringify(options)) as unknown,
+      checked: opts.modelChecked === true && typeof model === 'string',
     }),
     opts,
   );
@@ -321,7 +331,9 @@ async function runInMainThread(
   options: StudyOptions,
   opts: StudyJobOptions,
 ): Promise<StudyRunOutcome> {
-  const runner = createScenarioRunner(typeof model === 'string' ? (JSON.parse(model) as Model) : model, options);
+  const parsed = typeof model === 'string' ? (JSON.parse(model) as Model) : model;
+  if (opts.modelChecked && typeof model === 'string') markCheckedModel(parsed);
+  const runner = createScenarioRunner(parsed, options);
   const count = runner.busIds.length;
   const total = count * runner.evaluations;
   const buses = [];
@@ -426,5 +438,37 @@ export async function mitigationOffThread(
     if (!(e instanceof WorkerUnavailable)) throw e;
     log.warn({ err: e }, 'study worker unavailable; computing the mitigation options in the main thread');
     return mitigationOutcome(modelJson, busId, targetCalPerCm2, options, tripTypes);
+  }
+}
+
+/**
+ * Mitigation options for several buses of one model toward one target (the report's appendix) in one warm worker
+ * call: one evaluator for all of them (server/engine/mitigation, `mitigationOutcomes`), so the short-circuit solutions
+ * and the results already computed are shared. In the order asked.
+ */
+export async function mitigationsOffThread(
+  modelJson: string,
+  options: StudyOptions,
+  busIds: readonly string[],
+  targetCalPerCm2: number,
+  tripTypes: TripTypes = {},
+): Promise<MitigationOutcome[]> {
+  try {
+    return await inWorker<MitigationOutcome[]>(
+      (id) => ({
+        type: 'mitigate',
+        id,
+        model: modelJson,
+        options: JSON.parse(JSON.stringify(options)) as unknown,
+        busIds: [...busIds],
+        targetCalPerCm2,
+        tripTypes: JSON.parse(JSON.stringify(tripTypes)) as unknown,
+      }),
+      {},
+    );
+  } catch (e) {
+    if (!(e instanceof WorkerUnavailable)) throw e;
+    log.warn({ err: e }, 'study worker unavailable; computing the mitigation options in the main thread');
+    return mitigationOutcomes(modelJson, busIds, targetCalPerCm2, options, tripTypes);
   }
 }
