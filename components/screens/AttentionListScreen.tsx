@@ -1,7 +1,7 @@
 import type { AppHref } from '../nav';
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { Pressable, View } from 'react-native';
 import {
   ATTENTION_LIST_INFO,
   type AttentionColumn,
@@ -92,19 +92,21 @@ function RowCard({
   const [first, ...rest] = columns;
   return (
     <Link href={rowHref(row)} asChild>
-      <Pressable accessibilityRole="link" testID={`attention-row-${row.id}`} style={styles.card}>
+      <Pressable accessibilityRole="link" testID={`attention-row-${row.id}`} style={{ ...cardStyle, gap: space.xs }}>
         <T variant="subheading">{first ? cellText(row.cells[first.key], first, list) : row.id}</T>
         {showSite ? <T variant="small">{row.siteName}</T> : null}
         <View>
           {rest.map((c) => (
             <ValueRow key={c.key} label={c.label}>
-              <T style={c.kind === 'text' ? styles.cellText : styles.cellFigures}>
+              <T
+                style={{ fontSize: 15, fontFamily: c.kind === 'text' ? fonts.text : fonts.numbers, textAlign: 'right' }}
+              >
                 {cellText(row.cells[c.key], c, list)}
               </T>
             </ValueRow>
           ))}
         </View>
-        <T style={styles.opens}>{OPENS[row.link.kind]} →</T>
+        <T style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}>{OPENS[row.link.kind]} →</T>
       </Pressable>
     </Link>
   );
@@ -174,7 +176,7 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
             <TableRowView row={tableRow(r)} columns={tableColumns} />
           </View>
         ) : (
-          <View style={styles.cardCell}>
+          <View style={{ marginTop: space.md }}>
             <RowCard row={r} columns={d?.columns ?? []} showSite={!siteId} list={list} />
           </View>
         )
@@ -183,7 +185,7 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
     >
       <Link
         href={siteId ? `/attention?siteId=${encodeURIComponent(siteId)}` : '/attention'}
-        style={styles.backLink}
+        style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}
         testID="back-to-dashboard"
       >
         ← All lists
@@ -210,15 +212,3 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
     </ListScreen>
   );
 }
-
-const styles = StyleSheet.create({
-  cellText: { fontSize: 15, fontFamily: fonts.text, textAlign: 'right' },
-  cellFigures: { fontSize: 15, fontFamily: fonts.numbers, textAlign: 'right' },
-  /** A row as a card: one plain entry, as the child of a `Link asChild` needs. */
-  card: { ...cardStyle, gap: space.xs },
-  /** Where the row opens, in link colour (the whole card is the link). */
-  opens: { color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium },
-  /** A card in the phone's list: the space above it. */
-  cardCell: { marginTop: space.md },
-  backLink: { color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium },
-});

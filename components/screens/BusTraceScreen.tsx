@@ -1,7 +1,7 @@
 import { useQueries } from '@tanstack/react-query';
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
-import { StyleSheet, View } from 'react-native';
+import { View } from 'react-native';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
 import { REGION_LABELS } from '../../shared/tripRegions';
 import { ONLY_AT_CAUTIONS } from '../../shared/cautions';
@@ -67,14 +67,25 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
   const panel = signalPanelColors(lv.signalWord);
   const clearing = clearingOf(b, studyMaxArcDurationMs);
   return (
-    <View style={styles.labelValues} testID="bus-label-values">
-      <View style={[styles.signalPanel, { backgroundColor: panel.background }]}>
+    <View
+      style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }}
+      testID="bus-label-values"
+    >
+      <View
+        style={{
+          backgroundColor: panel.background,
+          flexDirection: 'row',
+          alignItems: 'center',
+          gap: space.sm,
+          padding: space.md,
+        }}
+      >
         <HazardMark size={24} />
-        <T style={[styles.signalWord, { color: panel.text }]}>{lv.signalWord}</T>
+        <T style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 20, letterSpacing: 1 }}>{lv.signalWord}</T>
       </View>
-      <View style={styles.labelBody}>
+      <View style={{ backgroundColor: colors.surface, padding: space.md, gap: 2 }}>
         <T variant="label">INCIDENT ENERGY AT {fmtLength(lv.workingDistanceMm, 'in').toUpperCase()}</T>
-        <View style={styles.energyFigures}>
+        <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' }}>
           <Num
             value={formatCalPerCm2(lv.incidentEnergyCalPerCm2)}
             unit="cal/cm²"
@@ -91,7 +102,7 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
           <ArcRating calPerCm2={lv.incidentEnergyCalPerCm2} size={14} />
         </ValueRow>
         <ValueRow label="PPE level">
-          <T style={styles.strong}>{lv.ppeLevel?.name ?? 'None adequate'}</T>
+          <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel?.name ?? 'None adequate'}</T>
         </ValueRow>
         {lv.shockApproach ? (
           <>
@@ -109,7 +120,7 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
           <T>{lv.gloveClass ? `Class ${lv.gloveClass.class}` : '—'}</T>
         </ValueRow>
         <ValueRow label={clearing.caption}>
-          <T style={styles.strong} testID="bus-cleared-by">
+          <T style={{ fontFamily: fonts.textBold }} testID="bus-cleared-by">
             {clearing.text}
           </T>
         </ValueRow>
@@ -117,7 +128,7 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
         {Object.values(ONLY_AT_CAUTIONS)
           .filter((c) => lv.cautions.includes(c))
           .map((c) => (
-            <T key={c} style={styles.energyCondition} testID="bus-energy-condition">
+            <T key={c} style={{ fontFamily: fonts.textBold, color: colors.danger }} testID="bus-energy-condition">
               {c}
             </T>
           ))}
@@ -135,14 +146,14 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
   const stepped = c.intervals.some((i) => (i.steps ?? []).length > 1);
   if (c.intervals.length <= 1 && !stepped) return null;
   return (
-    <View style={styles.intervals} testID="intervals">
+    <View style={{ gap: 4, marginTop: space.sm }} testID="intervals">
       <T variant="label">ENERGY BY INTERVAL (SOURCES CUT OFF ONE BY ONE, CURRENTS FOLLOWED IN TIME)</T>
       {c.intervals.map((i, n) => {
         const steps = i.steps ?? [];
         const opened = i.openedDeviceIds ?? [];
         return (
-          <View key={i.fromS} style={styles.interval}>
-            <T variant="small" style={styles.intervalText}>
+          <View key={i.fromS} style={{ gap: 2 }}>
+            <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
               {fmt(i.fromS)}–{fmt(i.toS)} s · {i.sourceIds.join(', ')} · Ibf {fmt(i.boltedFaultKa)} kA · Iarc{' '}
               {fmt(i.arcingCurrentKa)} kA{steps.length > 1 ? ' at first' : ''} · {fmt(i.incidentEnergyJPerCm2 / 4.184)}{' '}
               cal/cm²{opened.length ? ` · ${opened.join(', ')} opens` : ''}
@@ -152,7 +163,7 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
                 variant="small"
                 accessibilityRole="button"
                 onPress={() => setOpen(open === n ? null : n)}
-                style={styles.toggle}
+                style={{ color: colors.accent }}
                 testID={`interval-steps-toggle-${n}`}
               >
                 {open === n ? 'Hide' : 'Show'} the {steps.length} time steps (the current changes within this interval)
@@ -160,7 +171,11 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
             ) : null}
             {open === n
               ? steps.map((s) => (
-                  <T key={s.fromS} variant="small" style={styles.stepText}>
+                  <T
+                    key={s.fromS}
+                    variant="small"
+                    style={{ fontFamily: fonts.numbers, fontSize: 12, paddingLeft: space.md }}
+                  >
                     {fmt(s.fromS)}–{fmt(s.toS)} s · Ibf {fmt(s.boltedFaultKa)} kA · Iarc {fmt(s.arcingCurrentKa)} kA ·{' '}
                     {fmt(s.incidentEnergyJPerCm2 / 4.184)} cal/cm²
                     {(s.openedDeviceIds ?? []).length ? ` · ${s.openedDeviceIds.join(', ')} opens` : ''}
@@ -177,17 +192,26 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
 function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
   const sorted = [...c.devices].sort((a, b) => (a.clearingTimeS ?? Infinity) - (b.clearingTimeS ?? Infinity));
   return (
-    <View style={styles.devices} testID={`devices-${caseKey(c)}`}>
+    <View style={{ gap: 4 }} testID={`devices-${caseKey(c)}`}>
       {sorted.map((d) => {
         const decides = c.sources.some((s) => s.cutByDeviceId === d.deviceId);
         return (
-          <View key={d.deviceId} style={[styles.device, d.deviceId === c.clearingDeviceId && styles.clearingDevice]}>
-            <View style={styles.deviceHead}>
-              <T style={styles.deviceId}>
+          <View
+            key={d.deviceId}
+            style={{
+              padding: space.sm,
+              borderRadius: radius.sm,
+              borderWidth: d.deviceId === c.clearingDeviceId ? 2 : 1,
+              borderColor: d.deviceId === c.clearingDeviceId ? colors.ink : colors.lineSoft,
+              gap: 2,
+            }}
+          >
+            <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}>
+              <T style={{ fontFamily: fonts.numbersBold }}>
                 {d.deviceId}
                 {d.deviceId === c.clearingDeviceId ? ' · clears the arc' : decides ? ' · cuts off a source' : ''}
               </T>
-              <T style={styles.figures}>
+              <T style={{ fontFamily: fonts.numbers }}>
                 {operatedAt(d) !== null
                   ? `operates at ${fmt(operatedAt(d) as number)} s`
                   : d.clearingTimeS === null
@@ -199,7 +223,7 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
               {d.name} · {d.location}
             </T>
             <T variant="small">
-              Sees <T style={styles.current}>{fmt(d.currentA / 1000)} kA</T>
+              Sees <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(d.currentA / 1000)} kA</T>
               {d.kv !== busKv ? ` at ${fmt(d.kv)} kV` : ''} ({fmt(d.share * 100)} % of the fault) ·{' '}
               {REGION_LABELS[d.region]}
               {d.minimumTimeS !== null ? ` · minimum ${fmt(d.minimumTimeS)} s` : ''}
@@ -303,7 +327,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   const scenarioBlock =
     scenarioList && governingId ? (
       <Card testID="trace-scenarios">
-        <T testID="scenario-basis" style={styles.scenarioBasis}>
+        <T testID="scenario-basis" style={{ fontSize: 16, lineHeight: 23 }}>
           {scenarioBasisSentence(scenarioList, governingId, shownScenario)}
         </T>
         <ScenarioSwitch
@@ -324,7 +348,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   if (!bus)
     return (
       <Screen title={`${labelBus.busId} · ${labelBus.busName}`} subtitle="Clearing trace">
-        <Link href={`/studies/${studyId}?tab=results`} style={styles.backLink}>
+        <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
           ← All results
         </Link>
         {scenarioBlock}
@@ -391,7 +415,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   ) : null;
 
   const detail = current ? (
-    <View style={styles.detail}>
+    <View style={{ gap: space.lg }}>
       <Card>
         <T variant="subheading">Cases</T>
         <Choice
@@ -403,7 +427,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
             label: `${caseTitle(c)}${bus.governing && caseKey(c) === caseKey(bus.governing) ? ' · governs' : ''}`,
           }))}
         />
-        <T testID="trace-sentence" style={styles.sentence}>
+        <T testID="trace-sentence" style={{ fontSize: 17, lineHeight: 25 }}>
           {current.sentence}
         </T>
         <ValueRow label="Arcing current at the bus">
@@ -414,7 +438,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         </ValueRow>
         {bus.arcDurationCap ? (
           <ValueRow label="Arc-duration cap">
-            <T testID="trace-cap" style={styles.cap}>
+            <T testID="trace-cap" style={{ fontSize: 14, textAlign: 'right', flexShrink: 1 }}>
               {bus.arcDurationCap.source === 'study'
                 ? `${fmt(bus.arcDurationCap.capS as number)} s (the study's)`
                 : `${bus.arcDurationCap.capS === null ? 'none: the clearing time stands' : `${fmt(bus.arcDurationCap.capS)} s at this bus`} — ${bus.arcDurationCap.reason ?? 'no reason given'}`}
@@ -453,7 +477,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         ) : undefined
       }
     >
-      <Link href={`/studies/${studyId}?tab=results`} style={styles.backLink}>
+      <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
         ← All results
       </Link>
       {!reviewed ? (
@@ -473,9 +497,14 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
           title={`${bus.warnings.length} warning${bus.warnings.length > 1 ? 's' : ''}`}
           testID="trace-warnings"
         >
-          <View style={styles.warnings}>
+          <View style={{ gap: 3 }}>
             {bus.warnings.map((w) => (
-              <T key={w.code + w.message} variant="small" testID={`warning-${w.code}`} style={styles.warning}>
+              <T
+                key={w.code + w.message}
+                variant="small"
+                testID={`warning-${w.code}`}
+                style={{ color: colors.caution }}
+              >
                 {w.message}
               </T>
             ))}
@@ -483,12 +512,12 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         </Notice>
       ) : null}
       {wide ? (
-        <View style={styles.columns}>
-          <View style={styles.mainColumn}>
+        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
+          <View style={{ flex: 1.3, gap: space.lg }}>
             {plot}
             {detail}
           </View>
-          <View style={styles.sideColumn}>
+          <View style={{ flex: 1, gap: space.lg }}>
             {labelPart}
             <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={cautionEnergy} />
           </View>
@@ -504,36 +533,3 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
     </Screen>
   );
 }
-
-const styles = StyleSheet.create({
-  labelValues: { borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' },
-  signalPanel: { flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.md },
-  signalWord: { fontFamily: fonts.textBold, fontSize: 20, letterSpacing: 1 },
-  labelBody: { backgroundColor: colors.surface, padding: space.md, gap: 2 },
-  energyFigures: { flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' },
-  strong: { fontFamily: fonts.textBold },
-  energyCondition: { fontFamily: fonts.textBold, color: colors.danger },
-  intervals: { gap: space.xs, marginTop: space.sm },
-  interval: { gap: 2 },
-  intervalText: { fontFamily: fonts.numbers, fontSize: 13 },
-  toggle: { color: colors.accent },
-  stepText: { fontFamily: fonts.numbers, fontSize: 12, paddingLeft: space.md },
-  devices: { gap: space.xs },
-  device: { padding: space.sm, borderRadius: radius.sm, borderWidth: 1, borderColor: colors.lineSoft, gap: 2 },
-  /** The device that clears the arc. */
-  clearingDevice: { borderWidth: 2, borderColor: colors.ink },
-  deviceHead: { flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' },
-  deviceId: { fontFamily: fonts.numbersBold },
-  figures: { fontFamily: fonts.numbers },
-  current: { fontFamily: fonts.numbers, fontSize: 14 },
-  scenarioBasis: { fontSize: 16, lineHeight: 23 },
-  backLink: { color: colors.accent, fontSize: 16 },
-  detail: { gap: space.lg },
-  sentence: { fontSize: 17, lineHeight: 25 },
-  cap: { fontSize: 14, textAlign: 'right', flexShrink: 1 },
-  warnings: { gap: 3 },
-  warning: { color: colors.caution },
-  columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
-  mainColumn: { flex: 1.3, gap: space.lg },
-  sideColumn: { flex: 1, gap: space.lg },
-});

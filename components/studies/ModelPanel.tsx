@@ -1,6 +1,6 @@
 import React, { useDeferredValue, useMemo, useState } from 'react';
 import { useLocalSearchParams } from 'expo-router';
-import { Platform, StyleSheet, View } from 'react-native';
+import { Platform, View } from 'react-native';
 import { parseModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
 import type { StudyDto } from '../../shared/schemas/studies';
 import type { ModelWarning } from '../../shared/schemas/modelWarnings';
@@ -51,10 +51,10 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
       <T variant="subheading">Import and export</T>
       {message ? (
         <Notice tone={message.tone} testID="import-message">
-          <View style={styles.importMessage}>
-            <T style={message.tone === 'ok' ? styles.okText : styles.errorText}>{message.text}</T>
+          <View style={{ gap: 2 }}>
+            <T style={{ color: message.tone === 'ok' ? colors.ok : colors.danger }}>{message.text}</T>
             {message.lines?.slice(0, 12).map((l) => (
-              <T key={l} variant="small" style={styles.errorText}>
+              <T key={l} variant="small" style={{ color: colors.danger }}>
                 • {l}
               </T>
             ))}
@@ -62,7 +62,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
         </Notice>
       ) : null}
       {editable && Platform.OS === 'web' ? (
-        <View style={styles.importField}>
+        <View style={{ gap: 4 }}>
           <T variant="label">IMPORT (REPLACES THE MODEL; NOTHING CHANGES UNLESS THE WHOLE FILE IS VALID)</T>
           {React.createElement('input', {
             type: 'file',
@@ -83,7 +83,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
         </View>
       ) : null}
       <T variant="label">EXPORT</T>
-      <View style={styles.buttonRow}>
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
         <Button
           title="Workbook (.xlsx)"
           kind="secondary"
@@ -97,7 +97,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
           onPress={() => void download({ format: 'json' }, 'model.json')}
         />
       </View>
-      <View style={styles.csvRow}>
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' }}>
         <Choice value={table} options={TABLES.map((t) => ({ value: t, label: t }))} onChange={setTable} />
         <Button
           title="CSV of this table"
@@ -173,7 +173,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   };
 
   return (
-    <View style={styles.panel}>
+    <View style={{ gap: space.lg }}>
       {!editable ? (
         <Notice>
           {study.status === 'draft'
@@ -182,8 +182,17 @@ export function ModelPanel({ study }: { study: StudyDto }) {
         </Notice>
       ) : null}
       {editable ? (
-        <Card style={styles.saveBar}>
-          <T testID="model-state" style={dirty ? styles.stateDirty : styles.stateSaved}>
+        <Card
+          style={{
+            flexDirection: 'row',
+            alignItems: 'center',
+            justifyContent: 'space-between',
+            flexWrap: 'wrap',
+            gap: space.sm,
+            paddingVertical: space.md,
+          }}
+        >
+          <T testID="model-state" style={{ color: dirty ? colors.caution : colors.muted }}>
             {dirty ? 'Unsaved changes' : `Saved · model version ${baseVersion}`}
             {issues.length ? ` · ${issues.length} problem${issues.length === 1 ? '' : 's'}` : ' · no problems'}
             {warnings.length ? ` · ${warnings.length} worth checking` : ''}
@@ -194,9 +203,9 @@ export function ModelPanel({ study }: { study: StudyDto }) {
       {saved ? <Notice tone="ok">{saved}</Notice> : null}
       {conflict ? (
         <Notice tone="error" title="Not saved">
-          <View style={styles.conflict}>
-            <T style={styles.errorText}>{conflict}</T>
-            <View style={styles.buttonRow}>
+          <View style={{ gap: space.sm }}>
+            <T style={{ color: colors.danger }}>{conflict}</T>
+            <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
               <Button title="Reload the saved model (drops my changes)" kind="secondary" onPress={reload} />
             </View>
           </View>
@@ -204,7 +213,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
       ) : null}
       <ImportExport study={study} editable={editable} onImported={reload} />
       <Card>
-        <View style={styles.treeHead}>
+        <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' }}>
           <T variant="subheading">System tree</T>
           <Button title={showTree ? 'Hide' : 'Show'} kind="quiet" onPress={() => setShowTree((s) => !s)} />
         </View>
@@ -227,25 +236,3 @@ export function ModelPanel({ study }: { study: StudyDto }) {
     </View>
   );
 }
-
-const styles = StyleSheet.create({
-  importMessage: { gap: 2 },
-  okText: { color: colors.ok },
-  errorText: { color: colors.danger },
-  stateDirty: { color: colors.caution },
-  stateSaved: { color: colors.muted },
-  importField: { gap: space.xs },
-  buttonRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
-  csvRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' },
-  panel: { gap: space.lg },
-  saveBar: {
-    flexDirection: 'row',
-    alignItems: 'center',
-    justifyContent: 'space-between',
-    flexWrap: 'wrap',
-    gap: space.sm,
-    paddingVertical: space.md,
-  },
-  conflict: { gap: space.sm },
-  treeHead: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' },
-});

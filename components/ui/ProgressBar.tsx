@@ -1,5 +1,5 @@
 import React from 'react';
-import { StyleSheet, View } from 'react-native';
+import { View } from 'react-native';
 import { colors, radius } from '../theme';
 
 export function ProgressBar({ value, testID }: { value: number; testID?: string }) {
@@ -9,14 +9,9 @@ export function ProgressBar({ value, testID }: { value: number; testID?: string 
       testID={testID}
       accessibilityRole="progressbar"
       accessibilityValue={{ min: 0, max: 100, now: Math.round(pct) }}
-      style={styles.track}
+      style={{ height: 12, borderRadius: radius.sm, backgroundColor: colors.lineSoft, overflow: 'hidden' }}
     >
-      <View style={[styles.fill, { width: `${pct}%` }]} />
+      <View style={{ width: `${pct}%`, height: '100%', backgroundColor: colors.accent }} />
     </View>
   );
 }
-
-const styles = StyleSheet.create({
-  track: { height: 12, borderRadius: radius.sm, backgroundColor: colors.lineSoft, overflow: 'hidden' },
-  fill: { height: '100%', backgroundColor: colors.accent },
-});

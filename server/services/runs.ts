@@ -113,6 +113,8 @@ export async function executeRun(ctx: AppContext, runId: string): Promise<void> 
     // The model's JSON text goes to the worker as stored (parsed there).
     const outcome = await runStudyOffThread(run.modelSnapshot, settings, {
       signal: ctx.jobs.signal,
+      // The snapshot is the checked model's JSON text (startRun stores only that): not validated again in the worker.
+      modelChecked: true,
       // A stopping server: the run fails now (no partial results), rather than hold up the shutdown.
       stopError: () => new JobStopped(STOPPED_BY_SHUTDOWN['study-run']),
       onProgress: (done, total) => {

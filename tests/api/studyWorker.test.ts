@@ -79,6 +79,9 @@ describe('the warm study worker', () => {
     expect(studyRunStats.workersStarted).toBe(started);
     expect(first.resultsJson).toBe(reference);
     expect(second.resultsJson).toBe(reference);
+    // A run's snapshot (checked when the run started, not validated again in the worker): the same results.
+    const checked = await runStudyOffThread(JSON.stringify(model), options, { modelChecked: true });
+    expect(checked.resultsJson).toBe(reference);
     // A different plant on the same worker: nothing of the previous run leaks into the next one.
     const plant = parsed(generatedPlant(8, 7));
     const third = await runStudyOffThread(plant, {});

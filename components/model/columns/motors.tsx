@@ -1,6 +1,5 @@
 /** Motor fields. */
-import { StyleSheet, View } from 'react-native';
-import { space } from '../../theme';
+import { View } from 'react-native';
 import { NumCell, SegCell } from '../controls';
 import { type MotorInput } from '../summaries';
 import { type Column, numberColumn, idColumn, nameColumn, busColumn } from './shared';
@@ -19,7 +18,7 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
       // The unit is the key present (a cleared value keeps its key, so the unit chosen stays).
       const unit = 'kva' in e && !('hp' in e) ? 'kva' : 'hp';
       return (
-        <View style={styles.sizeRow}>
+        <View style={{ flexDirection: 'row', gap: 4 }}>
           <NumCell
             value={unit === 'kva' ? e.kva : e.hp}
             onChange={(v) => patch((m) => ({ ...m, [unit]: v }))}
@@ -28,7 +27,7 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
             editable={editable}
             testID={testID}
             accessibilityLabel={`${label} (${unit === 'kva' ? 'kVA' : 'hp'})`}
-            style={styles.sizeValue}
+            style={{ flex: 1 }}
           />
           <SegCell
             value={unit}
@@ -46,7 +45,7 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
             editable={editable}
             testID={`${testID}-unit`}
             accessibilityLabel={`${label} unit`}
-            style={styles.sizeUnit}
+            style={{ width: 96 }}
           />
         </View>
       );
@@ -69,9 +68,3 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
         : undefined,
   }),
 ];
-
-const styles = StyleSheet.create({
-  sizeRow: { flexDirection: 'row', gap: space.xs },
-  sizeValue: { flex: 1 },
-  sizeUnit: { width: 96 },
-});

@@ -1,6 +1,6 @@
 /** Shared pieces of the element columns: the column and cell types and the building blocks every kind uses. */
 import React from 'react';
-import { StyleSheet, View } from 'react-native';
+import { View } from 'react-native';
 import type { DeviceType } from '../../../shared/schemas/deviceLibrary';
 import { colors, space } from '../../theme';
 import { T } from '../../ui';
@@ -204,13 +204,8 @@ export function busColumn<E extends object>(
 /** A text for a field that does not apply in a table row. */
 export function NotApplicable() {
   return (
-    <View style={styles.notApplicable}>
-      <T style={styles.notApplicableText}>—</T>
+    <View style={{ height: 38, justifyContent: 'center', paddingHorizontal: space.sm }}>
+      <T style={{ color: colors.line, fontSize: 15 }}>—</T>
     </View>
   );
 }
-
-const styles = StyleSheet.create({
-  notApplicable: { height: 38, justifyContent: 'center', paddingHorizontal: space.sm },
-  notApplicableText: { color: colors.line, fontSize: 15 },
-});

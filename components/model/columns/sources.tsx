@@ -1,6 +1,5 @@
 /** Source fields (utility and generator). */
-import { StyleSheet, View } from 'react-native';
-import { space } from '../../theme';
+import { View } from 'react-native';
 import { NumCell, SegCell } from '../controls';
 import { withField } from '../edit';
 import { type SourceInput, type UtilityInput } from '../summaries';
@@ -83,7 +82,7 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
       const unit = 'shortCircuitKa' in e && !('shortCircuitMva' in e) ? 'ka' : 'mva';
       const key = unit === 'ka' ? 'shortCircuitKa' : 'shortCircuitMva';
       return (
-        <View style={styles.strengthRow}>
+        <View style={{ flexDirection: 'row', gap: 4 }}>
           <NumCell
             value={e[key]}
             onChange={(v) => patch((s) => ({ ...(s as UtilityInput), [key]: v }))}
@@ -92,7 +91,7 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
             editable={editable}
             testID={testID}
             accessibilityLabel={`${label} (${unit === 'ka' ? 'kA' : 'MVA'})`}
-            style={styles.strengthValue}
+            style={{ flex: 1 }}
           />
           <SegCell
             value={unit}
@@ -112,7 +111,7 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
             editable={editable}
             testID={`${testID}-unit`}
             accessibilityLabel={`${label} unit`}
-            style={styles.strengthUnit}
+            style={{ width: 96 }}
           />
         </View>
       );
@@ -141,9 +140,3 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
   generatorNumber('subtransientTimeConstantS', 'T″d', 's', 84, 'Short-circuit subtransient time constant', true),
   generatorNumber('transientTimeConstantS', 'T′d', 's', 84, 'Short-circuit transient time constant', true),
 ];
-
-const styles = StyleSheet.create({
-  strengthRow: { flexDirection: 'row', gap: space.xs },
-  strengthValue: { flex: 1 },
-  strengthUnit: { width: 96 },
-});

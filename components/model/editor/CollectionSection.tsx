@@ -1,6 +1,6 @@
 /** One collection: toolbar, then table rows (wide) or cards (phone). */
 import { useMemo } from 'react';
-import { Pressable, StyleSheet, TextInput, View } from 'react-native';
+import { Pressable, TextInput, View } from 'react-native';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { colors, fonts, radius, space, touch } from '../../theme';
 import { Card, T } from '../../ui';
@@ -69,7 +69,7 @@ export function CollectionSection({
 
   const addButtons = editable ? (
     collection === 'sources' ? (
-      <View style={styles.addButtons}>
+      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
         <AddButton title="Add utility" onPress={() => onAdd('sources', 'utility')} testID="model-add-utility" />
         <AddButton title="Add generator" onPress={() => onAdd('sources', 'generator')} testID="model-add-generator" />
       </View>
@@ -83,11 +83,18 @@ export function CollectionSection({
   ) : null;
 
   return (
-    <View style={styles.section} testID={`model-section-body-${collection}`}>
-      <View style={[styles.header, wide ? (stackHeader ? styles.headerStacked : styles.headerRow) : null]}>
-        <View style={[styles.headerTitle, wide && !stackHeader ? styles.headerTitleRow : null]}>
+    <View style={{ gap: space.md }} testID={`model-section-body-${collection}`}>
+      <View
+        style={{
+          flexDirection: wide && !stackHeader ? 'row' : 'column',
+          alignItems: wide ? (stackHeader ? 'flex-start' : 'center') : 'stretch',
+          gap: space.md,
+        }}
+      >
+        <View style={{ flex: wide && !stackHeader ? 1 : undefined, gap: 2 }}>
           <T variant="heading">
-            {labels.plural} <T style={styles.count}>{items.length}</T>
+            {labels.plural}{' '}
+            <T style={{ fontFamily: fonts.numbers, fontSize: 18, color: colors.muted }}>{items.length}</T>
           </T>
           <T variant="small">{SECTION_NOTES[collection]}</T>
         </View>
@@ -97,20 +104,20 @@ export function CollectionSection({
         {addButtons}
       </View>
       {sectionIssues.map((li, i) => (
-        <T key={i} style={styles.problem}>
+        <T key={i} style={{ color: colors.danger, fontSize: 15 }}>
           {issueMessage(li.issue)}
         </T>
       ))}
       {items.length === 0 ? (
-        <Card style={styles.empty}>
+        <Card style={{ borderStyle: 'dashed', borderColor: colors.line, alignItems: 'flex-start' }}>
           <T variant="small">{`No ${labels.plural.toLowerCase()} yet.`}</T>
         </Card>
       ) : indexes.length === 0 ? (
         <T variant="small">{`No ${labels.plural.toLowerCase()} match “${filter}”.`}</T>
       ) : wide ? (
-        <Card style={styles.tableCard}>
+        <Card style={{ padding: 0, gap: 0, overflow: 'hidden' }}>
           <SideScroll testID={`table-${collection}`}>
-            <View style={styles.table}>
+            <View style={{ minWidth: '100%' }}>
               <TableHeader columns={columns} />
               {indexes.map((i) => {
                 const key = elementKey(collection, i);
@@ -133,7 +140,7 @@ export function CollectionSection({
           </SideScroll>
         </Card>
       ) : (
-        <View style={styles.cards}>
+        <View style={{ gap: space.sm }}>
           {indexes.map((i) => {
             const key = elementKey(collection, i);
             return (
@@ -164,10 +171,20 @@ export function AddButton({ title, onPress, testID }: { title: string; onPress: 
       accessibilityRole="button"
       onPress={onPress}
       testID={testID}
-      style={({ pressed }) => [styles.addButton, pressed ? styles.addButtonPressed : null]}
+      style={({ pressed }) => ({
+        minHeight: touch.min,
+        paddingHorizontal: space.lg,
+        borderRadius: radius.md,
+        backgroundColor: colors.accent,
+        flexDirection: 'row',
+        alignItems: 'center',
+        justifyContent: 'center',
+        gap: space.sm,
+        opacity: pressed ? 0.85 : 1,
+      })}
     >
       <Icon name="plus" size={18} color={colors.accentInk} />
-      <T style={styles.addButtonText}>{title}</T>
+      <T style={{ color: colors.accentInk, fontFamily: fonts.textBold, fontSize: 16 }}>{title}</T>
     </Pressable>
   );
 }
@@ -184,7 +201,20 @@ export function FilterBox({
   label: string;
 }) {
   return (
-    <View style={[styles.filter, wide ? styles.filterWide : null]}>
+    <View
+      style={{
+        width: wide ? 240 : undefined,
+        height: touch.min,
+        flexDirection: 'row',
+        alignItems: 'center',
+        gap: space.sm,
+        borderWidth: 1.5,
+        borderColor: colors.line,
+        borderRadius: radius.sm,
+        paddingHorizontal: space.md,
+        backgroundColor: colors.surface,
+      }}
+    >
       <Icon name="search" size={18} color={colors.muted} />
       <TextInput
         value={value}
@@ -195,52 +225,9 @@ export function FilterBox({
         autoCapitalize="none"
         autoCorrect={false}
         testID="model-filter"
-        style={styles.filterInput}
+        style={{ flex: 1, height: '100%', minWidth: 0, fontSize: 16, fontFamily: fonts.text, color: colors.ink }}
       />
       {value ? <IconButton icon="close" label="Clear" size={32} onPress={() => onChange('')} /> : null}
     </View>
   );
 }
-
-const styles = StyleSheet.create({
-  addButtons: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
-  section: { gap: space.md },
-  /** The heading, the filter and the add buttons: stacked on a phone, in a row on a wide screen unless asked. */
-  header: { flexDirection: 'column', alignItems: 'stretch', gap: space.md },
-  headerRow: { flexDirection: 'row', alignItems: 'center' },
-  headerStacked: { alignItems: 'flex-start' },
-  headerTitle: { gap: 2 },
-  headerTitleRow: { flex: 1 },
-  count: { fontFamily: fonts.numbers, fontSize: 18, color: colors.muted },
-  problem: { color: colors.danger, fontSize: 15 },
-  empty: { borderStyle: 'dashed', borderColor: colors.line, alignItems: 'flex-start' },
-  tableCard: { padding: 0, gap: 0, overflow: 'hidden' },
-  table: { minWidth: '100%' },
-  cards: { gap: space.sm },
-  addButton: {
-    minHeight: touch.min,
-    paddingHorizontal: space.lg,
-    borderRadius: radius.md,
-    backgroundColor: colors.accent,
-    flexDirection: 'row',
-    alignItems: 'center',
-    justifyContent: 'center',
-    gap: space.sm,
-    opacity: 1,
-  },
-  addButtonPressed: { opacity: 0.85 },
-  addButtonText: { color: colors.accentInk, fontFamily: fonts.textBold, fontSize: 16 },
-  filter: {
-    height: touch.min,
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.sm,
-    borderWidth: 1.5,
-    borderColor: colors.line,
-    borderRadius: radius.sm,
-    paddingHorizontal: space.md,
-    backgroundColor: colors.surface,
-  },
-  filterWide: { width: 240 },
-  filterInput: { flex: 1, height: '100%', minWidth: 0, fontSize: 16, fontFamily: fonts.text, color: colors.ink },
-});

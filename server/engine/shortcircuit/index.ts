@@ -6,7 +6,7 @@ export type { ConductorMaterial, ConduitKind, Table9Impedance } from './necTable
 export { buildNetwork, buildAdmittanceMatrix, SYSTEM_BASE_MVA } from './network';
 export type { Network, NetworkBranch, NetworkInjection, NetworkTie, BranchKind, InjectionKind } from './network';
 export { ComplexSymmetricBuilder, LdltFactor, factorComplexSymmetric } from './sparse';
-export { createShortCircuitSolver, InvalidModelError, shortCircuit } from './shortCircuit';
+export { createShortCircuitSolver, InvalidModelError, markCheckedModel, shortCircuit } from './shortCircuit';
 export type {
   BranchFaultCurrent,
   BusFault,

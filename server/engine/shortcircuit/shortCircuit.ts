@@ -127,7 +127,20 @@ export class InvalidModelError extends EngineError {
   }
 }
 
+/** Models parsed from a text `parseModel` accepted as it stands (see `markCheckedModel`). */
+const checkedModels = new WeakSet<Model>();
+
+/**
+ * Marks a model parsed from a JSON text that `parseModel` accepted as it stands (a run's model snapshot is the checked
+ * model's JSON text, stored when the run started): validating it again finds nothing, so `createShortCircuitSolver`
+ * does not. Any other model — a scenario applied to it is a new object — is validated as usual.
+ */
+export function markCheckedModel(model: Model): void {
+  checkedModels.add(model);
+}
+
 function throwIfInvalid(model: Model): void {
+  if (checkedModels.has(model)) return;
   const issues = validateModel(model);
   if (issues.length > 0) throw new InvalidModelError(issues);
 }

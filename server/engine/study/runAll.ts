@@ -3,6 +3,9 @@ import type { StudyOptions } from './runStudy';
 import { createScenarioRunner } from './scenarios';
 import { StoredResultsWriter } from './storedResults';
 
+// For the study worker: a run's model snapshot, parsed there, is marked as checked (server/services/studyWorker.ts).
+export { markCheckedModel } from '../shortcircuit';
+
 /** A whole run, serialized: the results' stored text (stored as is) and the counts for the run's message. */
 export interface StudyRunOutcome {
   /** The stored text of the results (`storedResults.ts`; read back with `parseStoredResults`). */
