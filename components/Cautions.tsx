@@ -1,5 +1,5 @@
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import Svg, { Circle, Path } from 'react-native-svg';
 import { CAUTIONS, NO_ADEQUATE_PPE_CAL_PER_CM2, NO_ADEQUATE_PPE_CAUTION, UNREVIEWED_CAUTION } from '../shared/cautions';
 import { colors, radius, space } from './theme';
@@ -20,34 +20,23 @@ export function Cautions({
 }) {
   const tooHigh = incidentEnergyCalPerCm2 !== undefined && incidentEnergyCalPerCm2 > NO_ADEQUATE_PPE_CAL_PER_CM2;
   return (
-    <View
-      testID="cautions"
-      accessibilityRole="summary"
-      style={{
-        borderWidth: 1.5,
-        borderColor: colors.ink,
-        borderRadius: radius.md,
-        padding: space.md,
-        gap: space.sm,
-        backgroundColor: colors.surface,
-      }}
-    >
-      <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
+    <View testID="cautions" accessibilityRole="summary" style={styles.cautions}>
+      <View style={styles.heading}>
         <HazardMark size={20} />
         <T variant="subheading">Cautions</T>
       </View>
       {!reviewed ? (
-        <T style={{ fontWeight: '700', color: colors.danger }} testID="caution-unreviewed">
+        <T style={styles.strongCaution} testID="caution-unreviewed">
           {UNREVIEWED_CAUTION}
         </T>
       ) : null}
       {tooHigh ? (
-        <T style={{ fontWeight: '700', color: colors.danger }} testID="caution-no-ppe">
+        <T style={styles.strongCaution} testID="caution-no-ppe">
           {NO_ADEQUATE_PPE_CAUTION}
         </T>
       ) : null}
       {(compact ? CAUTIONS.slice(0, 2) : CAUTIONS).map((c) => (
-        <T key={c} variant="small" style={{ color: colors.inkSoft }}>
+        <T key={c} variant="small" style={styles.note}>
           • {c}
         </T>
       ))}
@@ -65,3 +54,17 @@ export function HazardMark({ size = 18 }: { size?: number }) {
     </Svg>
   );
 }
+
+const styles = StyleSheet.create({
+  cautions: {
+    borderWidth: 1.5,
+    borderColor: colors.ink,
+    borderRadius: radius.md,
+    padding: space.md,
+    gap: space.sm,
+    backgroundColor: colors.surface,
+  },
+  heading: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  strongCaution: { fontWeight: '700', color: colors.danger },
+  note: { color: colors.inkSoft },
+});

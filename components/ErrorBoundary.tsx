@@ -1,6 +1,6 @@
 import { Link, type ErrorBoundaryProps } from 'expo-router';
 import React, { Component, useState, type ReactNode } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { colors, space } from './theme';
 import { Button, T } from './ui';
 
@@ -11,28 +11,18 @@ import { Button, T } from './ui';
 export function ErrorBoundary({ error, retry }: ErrorBoundaryProps) {
   const [busy, setBusy] = useState(false);
   return (
-    <View
-      testID="error-boundary"
-      style={{
-        flex: 1,
-        alignItems: 'center',
-        justifyContent: 'center',
-        gap: space.md,
-        padding: space.xl,
-        backgroundColor: colors.canvas,
-      }}
-    >
-      <View style={{ width: '100%', maxWidth: 520, gap: space.md }}>
+    <View testID="error-boundary" style={styles.page}>
+      <View style={styles.column}>
         <T variant="title">This page could not be shown</T>
         <T>
           Something went wrong while showing it. Nothing you saved is lost. Try again, or go back to your home screen.
         </T>
         {error?.message ? (
-          <T variant="small" style={{ color: colors.muted }} testID="error-boundary-message">
+          <T variant="small" style={styles.message} testID="error-boundary-message">
             {error.message}
           </T>
         ) : null}
-        <View style={{ flexDirection: 'row', gap: space.md, alignItems: 'center', flexWrap: 'wrap' }}>
+        <View style={styles.actions}>
           <Button
             title="Retry"
             testID="error-boundary-retry"
@@ -42,7 +32,7 @@ export function ErrorBoundary({ error, retry }: ErrorBoundaryProps) {
               void retry().finally(() => setBusy(false));
             }}
           />
-          <Link href="/" style={{ color: colors.accent, fontSize: 16 }}>
+          <Link href="/" style={styles.link}>
             Go to your home screen
           </Link>
         </View>
@@ -78,3 +68,18 @@ export class ScreenBoundary extends Component<
     return this.props.children;
   }
 }
+
+const styles = StyleSheet.create({
+  page: {
+    flex: 1,
+    alignItems: 'center',
+    justifyContent: 'center',
+    gap: space.md,
+    padding: space.xl,
+    backgroundColor: colors.canvas,
+  },
+  column: { width: '100%', maxWidth: 520, gap: space.md },
+  message: { color: colors.muted },
+  actions: { flexDirection: 'row', gap: space.md, alignItems: 'center', flexWrap: 'wrap' },
+  link: { color: colors.accent, fontSize: 16 },
+});

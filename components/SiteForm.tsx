@@ -1,5 +1,5 @@
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { siteInputSchema, type Site } from '../shared/schemas/sites';
 import { applyServerErrors, useZodForm } from '../hooks/forms';
 import { useSaveSite } from '../hooks/queries';
@@ -32,7 +32,7 @@ export function SiteForm({
     )();
 
   return (
-    <View style={{ gap: space.md }} testID="site-form">
+    <View style={styles.form} testID="site-form">
       {message ? <Notice tone="error">{message}</Notice> : null}
       <FormTextField control={form.control} name="name" label="Site name" testID="site-name" />
       <FormTextField control={form.control} name="address" label="Address" testID="site-address" />
@@ -42,12 +42,18 @@ export function SiteForm({
         label="Description"
         testID="site-description"
         multiline
-        style={{ minHeight: 96 }}
+        style={styles.description}
       />
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.buttons}>
         <Button title={site ? 'Save site' : 'Create site'} testID="site-save" busy={save.isPending} onPress={submit} />
         {onCancel ? <Button title="Cancel" kind="secondary" onPress={onCancel} /> : null}
       </View>
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  form: { gap: space.md },
+  description: { minHeight: 96 },
+  buttons: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+});

@@ -1,5 +1,5 @@
 import React, { useEffect, useRef, useState } from 'react';
-import { Platform, View, type ViewStyle } from 'react-native';
+import { Platform, StyleSheet, View, type ViewStyle } from 'react-native';
 import { fmt } from '../../hooks/units';
 import { space } from '../theme';
 import { Field, T } from '../ui';
@@ -58,7 +58,7 @@ export function NumberInput({
       }}
       error={error ?? (parsed !== undefined && Number.isNaN(parsed) ? 'Enter a number' : undefined)}
       hint={hint}
-      containerStyle={style ?? { flexGrow: 1, flexBasis: 150 }}
+      containerStyle={style ?? styles.numberInput}
     />
   );
 }
@@ -112,7 +112,7 @@ export function PointsInput({
   }, [value]);
   const count = text.split(/\r?\n/).filter((l) => l.trim()).length;
   return (
-    <View style={{ flexGrow: 1, flexBasis: 220, gap: 2 }}>
+    <View style={styles.points}>
       <Field
         label={label}
         testID={testID}
@@ -134,7 +134,7 @@ export function PointsInput({
         }}
         error={localError ?? error}
         hint={`${count} point${count === 1 ? '' : 's'}: current, seconds per line`}
-        style={{ minHeight: 140, textAlignVertical: 'top', paddingTop: space.sm }}
+        style={styles.pointsInput}
       />
     </View>
   );
@@ -144,7 +144,7 @@ export function PointsInput({
 export function FilePicker({ accept, onFile, label }: { accept: string; onFile: (file: File) => void; label: string }) {
   if (Platform.OS !== 'web') return <T variant="small">File upload is available in the web app.</T>;
   return (
-    <View style={{ gap: 4 }}>
+    <View style={styles.filePicker}>
       <T variant="label">{label}</T>
       {React.createElement('input', {
         type: 'file',
@@ -162,3 +162,10 @@ export function FilePicker({ accept, onFile, label }: { accept: string; onFile: 
 }
 
 export { fmt };
+
+const styles = StyleSheet.create({
+  numberInput: { flexGrow: 1, flexBasis: 150 },
+  points: { flexGrow: 1, flexBasis: 220, gap: 2 },
+  pointsInput: { minHeight: 140, textAlignVertical: 'top', paddingTop: space.sm },
+  filePicker: { gap: space.xs },
+});

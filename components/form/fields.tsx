@@ -1,5 +1,5 @@
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { useController, type Control, type FieldValues, type Path } from 'react-hook-form';
 import { errorMessage } from '../../hooks/forms';
 import { colors, fonts, space, touch } from '../theme';
@@ -67,7 +67,7 @@ export function FormChoice<F extends FieldValues, V extends string>({
   const { field, fieldState } = useController({ control, name });
   const error = errorMessage(fieldState.error);
   return (
-    <View style={{ gap: space.xs }}>
+    <View style={styles.choice}>
       <Choice
         label={label}
         value={field.value as V}
@@ -79,7 +79,7 @@ export function FormChoice<F extends FieldValues, V extends string>({
         testID={testID}
       />
       {error ? (
-        <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+        <T variant="small" style={styles.error} accessibilityRole="alert">
           {error}
         </T>
       ) : null}
@@ -125,29 +125,39 @@ export function FormCheckbox<F extends FieldValues>({
         aria-checked={on}
         testID={testID}
         onPress={() => field.onChange(!on)}
-        style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', minHeight: touch.min }}
+        style={styles.checkbox}
       >
-        <View
-          style={{
-            width: 26,
-            height: 26,
-            borderRadius: 4,
-            borderWidth: 2,
-            borderColor: error ? colors.danger : colors.ink,
-            alignItems: 'center',
-            justifyContent: 'center',
-            backgroundColor: on ? colors.ink : colors.surface,
-          }}
-        >
-          {on ? <T style={{ color: '#fff', fontFamily: fonts.textBold }}>✓</T> : null}
+        <View style={[styles.box, on && styles.boxOn, !!error && styles.boxError]}>
+          {on ? <T style={styles.tick}>✓</T> : null}
         </View>
-        <T style={{ flexShrink: 1 }}>{label}</T>
+        <T style={styles.checkboxLabel}>{label}</T>
       </Pressable>
       {error ? (
-        <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+        <T variant="small" style={styles.error} accessibilityRole="alert">
           {error}
         </T>
       ) : null}
     </>
   );
 }
+
+const styles = StyleSheet.create({
+  choice: { gap: space.xs },
+  error: { color: colors.danger },
+  checkbox: { flexDirection: 'row', gap: space.sm, alignItems: 'center', minHeight: touch.min },
+  /** The tick box: filled when ticked, its border red when the field has an error. */
+  box: {
+    width: 26,
+    height: 26,
+    borderRadius: 4,
+    borderWidth: 2,
+    borderColor: colors.ink,
+    alignItems: 'center',
+    justifyContent: 'center',
+    backgroundColor: colors.surface,
+  },
+  boxOn: { backgroundColor: colors.ink },
+  boxError: { borderColor: colors.danger },
+  tick: { color: '#fff', fontFamily: fonts.textBold },
+  checkboxLabel: { flexShrink: 1 },
+});

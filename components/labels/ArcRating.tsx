@@ -1,4 +1,5 @@
 import React from 'react';
+import { StyleSheet } from 'react-native';
 import { minimumArcRatingDisplay } from '../../shared/labelDisplay';
 import { fonts } from '../theme';
 import { Num, T } from '../ui';
@@ -10,5 +11,10 @@ import { Num, T } from '../ui';
 export function ArcRating({ calPerCm2, size = 16 }: { calPerCm2: number; size?: number }) {
   const d = minimumArcRatingDisplay(calPerCm2);
   if (d.unit) return <Num value={d.value} unit={d.unit} size={size} />;
-  return <T style={{ fontFamily: fonts.textBold, fontSize: size }}>{d.value}</T>;
+  return <T style={[styles.words, { fontSize: size }]}>{d.value}</T>;
 }
+
+const styles = StyleSheet.create({
+  /** The words the label prints instead of a number; the size comes from the caller. */
+  words: { fontFamily: fonts.textBold },
+});

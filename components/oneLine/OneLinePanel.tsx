@@ -2,12 +2,13 @@ import { useQuery } from '@tanstack/react-query';
 import { useRouter } from 'expo-router';
 import React, { useEffect, useMemo, useRef, useState } from 'react';
 import {
+  type GestureResponderEvent,
+  type LayoutChangeEvent,
   PanResponder,
   Platform,
   Pressable,
+  StyleSheet,
   View,
-  type GestureResponderEvent,
-  type LayoutChangeEvent,
 } from 'react-native';
 import Svg, { Circle, G, Polyline, Rect, Text as SvgText } from 'react-native-svg';
 import { contract } from '../../shared/api';
@@ -347,15 +348,15 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
   const target = found?.id ? d.elements.find((e) => e.id === found.id) : undefined;
 
   return (
-    <View style={{ gap: space.sm }}>
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'flex-end' }}>
+    <View style={styles.panel}>
+      <View style={styles.searchRow}>
         <Field
           label="Find an element by id"
           value={search}
           onChangeText={setSearch}
           onSubmitEditing={find}
           autoCapitalize="characters"
-          containerStyle={{ flexGrow: 1, minWidth: 180 }}
+          containerStyle={styles.searchField}
           testID="one-line-search"
         />
         <Button title="Find" kind="secondary" onPress={find} testID="one-line-find" />
@@ -413,23 +414,7 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
         Tap a bus for its clearing trace, a device for its band; a branch opens the trace of the bus it feeds. Drag to
         move; pinch, the mouse wheel or the buttons to zoom.
       </T>
-      <View
-        ref={canvas}
-        onLayout={onLayout}
-        testID="one-line-canvas"
-        style={
-          {
-            height: 560,
-            borderWidth: 1,
-            borderColor: colors.line,
-            borderRadius: 8,
-            overflow: 'hidden',
-            backgroundColor: colors.surface,
-            cursor: 'grab',
-          } as object
-        }
-        {...responder.panHandlers}
-      >
+      <View ref={canvas} onLayout={onLayout} testID="one-line-canvas" style={styles.canvas} {...responder.panHandlers}>
         {size.w > 0 ? (
           <Svg width={size.w} height={size.h} accessibilityLabel={d.title}>
             <G transform={`translate(${v.tx}, ${v.ty}) scale(${v.s})`}>
@@ -506,7 +491,7 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
                     accessibilityLabel={`${e.subtree.collapsed ? 'Expand' : 'Collapse'} the ${n} bus${n === 1 ? '' : 'es'} under ${e.id}`}
                     onPress={() => toggle(e.id)}
                     testID={`one-line-toggle-${e.id}`}
-                    style={{ position: 'absolute', left, top, width: w, height: h, cursor: 'pointer' } as object}
+                    style={[styles.hitArea, { left, top, width: w, height: h }]}
                   />
                 );
               }
@@ -524,7 +509,7 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
                   accessibilityRole="button"
                   accessibilityLabel={e.summary ? summaryA11yLabel(e) : deviceA11yLabel(e)}
                   onPress={() => open(e)}
-                  style={{ position: 'absolute', left, top, width: w, height: h, cursor: 'pointer' } as object}
+                  style={[styles.hitArea, { left, top, width: w, height: h }]}
                 />
               );
             })
@@ -538,3 +523,21 @@ export function OneLinePanel({ study }: { study: StudyDto }) {
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  /** A button over a drawn element (a device, a collapsed subtree, a collapse toggle); placed where it is drawn. */
+  hitArea: { position: 'absolute', cursor: 'pointer' },
+  panel: { gap: space.sm },
+  canvas: {
+    height: 560,
+    borderWidth: 1,
+    borderColor: colors.line,
+    borderRadius: 8,
+    overflow: 'hidden',
+    backgroundColor: colors.surface,
+    // A web cursor beyond React Native's 'auto' | 'pointer' (react-native-web hands it to CSS).
+    cursor: 'grab' as never,
+  },
+  searchRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'flex-end' },
+  searchField: { flexGrow: 1, minWidth: 180 },
+});

@@ -1,5 +1,5 @@
 /** The legend of the time-current plot. */
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import Svg, { Line, Rect } from 'react-native-svg';
 import { colors, fonts, space } from '../theme';
 import { T } from '../ui/Text';
@@ -51,23 +51,26 @@ export function Legend({ series }: { series: PreparedSeries[] }) {
   const shown = series.filter((s) => s.max.length > 0 || s.min.length > 0);
   if (shown.length === 0) return null;
   return (
-    <View style={{ gap: space.sm }}>
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', columnGap: space.lg, rowGap: space.sm }}>
+    <View style={styles.legend}>
+      <View style={styles.entries}>
         {shown.map((s, i) => (
-          <View
-            key={`${i}-${s.id}`}
-            style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm, maxWidth: '100%' }}
-          >
+          <View key={`${i}-${s.id}`} style={styles.entry}>
             <Swatch color={s.style.color} dash={s.style.maxDash} band={s.min.length > 0 && s.max.length > 0} />
-            <T style={{ fontFamily: fonts.textMedium, fontSize: 14, lineHeight: 20, color: colors.ink, flexShrink: 1 }}>
-              {s.label}
-            </T>
+            <T style={styles.entryLabel}>{s.label}</T>
           </View>
         ))}
       </View>
-      <T variant="small" style={{ fontSize: 12.5, lineHeight: 17 }}>
+      <T variant="small" style={styles.note}>
         Heavy line: maximum (total clearing) curve. Dotted line: minimum curve. Shaded: the band between them.
       </T>
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  legend: { gap: space.sm },
+  entries: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.lg, rowGap: space.sm },
+  entry: { flexDirection: 'row', alignItems: 'center', gap: space.sm, maxWidth: '100%' },
+  entryLabel: { fontFamily: fonts.textMedium, fontSize: 14, lineHeight: 20, color: colors.ink, flexShrink: 1 },
+  note: { fontSize: 12.5, lineHeight: 17 },
+});

@@ -1,5 +1,5 @@
 /** The readout of the maximum curves at the current under the pointer: its content, size, place and box. */
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui/Text';
 import { boxesOverlap, monoTextWidth, pointsInBox, type Box } from './labels';
@@ -101,45 +101,51 @@ export function ReadoutBox({
   onClear?: () => void;
 }) {
   return (
-    <View
-      style={{
-        backgroundColor: floating ? 'rgba(255,255,255,0.96)' : colors.canvas,
-        borderRadius: radius.md,
-        borderWidth: 1,
-        borderColor: colors.line,
-        paddingVertical: space.sm,
-        paddingHorizontal: space.md,
-        gap: 3,
-      }}
-    >
-      <View style={{ flexDirection: 'row', alignItems: 'center', justifyContent: 'space-between', gap: space.md }}>
-        <T style={{ fontFamily: fonts.numbersBold, fontSize: 14, lineHeight: 20, color: colors.ink }}>{readout.head}</T>
+    <View style={[styles.readout, floating && styles.readoutFloating]}>
+      <View style={styles.headRow}>
+        <T style={styles.head}>{readout.head}</T>
         {onClear ? (
           <Pressable
             accessibilityRole="button"
             accessibilityLabel="Clear the reading"
             onPress={onClear}
             hitSlop={12}
-            style={{ paddingHorizontal: space.sm, paddingVertical: 2 }}
+            style={styles.clear}
           >
-            <T style={{ color: colors.accent, fontFamily: fonts.textMedium, fontSize: 14 }}>Clear</T>
+            <T style={styles.clearText}>Clear</T>
           </Pressable>
         ) : null}
       </View>
       {readout.rows.map((r) => (
-        <View key={r.id} style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
+        <View key={r.id} style={styles.row}>
           <Swatch color={r.color} dash={r.dash} width={22} band={false} />
-          <T
-            numberOfLines={1}
-            style={{ fontFamily: fonts.text, fontSize: 13, lineHeight: 18, color: colors.inkSoft, flexShrink: 1 }}
-          >
+          <T numberOfLines={1} style={styles.rowLabel}>
             {r.label}
           </T>
-          <T style={{ fontFamily: fonts.numbers, fontSize: 13, lineHeight: 18, color: colors.ink, marginLeft: 'auto' }}>
-            {r.text}
-          </T>
+          <T style={styles.rowValue}>{r.text}</T>
         </View>
       ))}
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  readout: {
+    backgroundColor: colors.canvas,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.line,
+    paddingVertical: space.sm,
+    paddingHorizontal: space.md,
+    gap: 3,
+  },
+  /** Floating over the plot: nearly opaque white so the curves under it do not show through. */
+  readoutFloating: { backgroundColor: 'rgba(255,255,255,0.96)' },
+  headRow: { flexDirection: 'row', alignItems: 'center', justifyContent: 'space-between', gap: space.md },
+  head: { fontFamily: fonts.numbersBold, fontSize: 14, lineHeight: 20, color: colors.ink },
+  clear: { paddingHorizontal: space.sm, paddingVertical: 2 },
+  clearText: { color: colors.accent, fontFamily: fonts.textMedium, fontSize: 14 },
+  row: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  rowLabel: { fontFamily: fonts.text, fontSize: 13, lineHeight: 18, color: colors.inkSoft, flexShrink: 1 },
+  rowValue: { fontFamily: fonts.numbers, fontSize: 13, lineHeight: 18, color: colors.ink, marginLeft: 'auto' },
+});

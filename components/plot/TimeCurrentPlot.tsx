@@ -1,6 +1,7 @@
 import { useCallback, useId, useMemo, useState } from 'react';
 import {
   Pressable,
+  StyleSheet,
   View,
   type GestureResponderEvent,
   type LayoutChangeEvent,
@@ -120,13 +121,13 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
   };
 
   return (
-    <View testID={testID} style={{ gap: space.md }}>
+    <View testID={testID} style={styles.plot}>
       <View
         onLayout={onLayout}
         accessible
         accessibilityRole="image"
         accessibilityLabel={a11y}
-        style={{ width: '100%', minHeight: g ? g.height : 300 }}
+        style={[styles.drawing, { minHeight: g ? g.height : 300 }]}
       >
         {g ? (
           <>
@@ -349,32 +350,10 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
             {empty ? (
               <View
                 pointerEvents="none"
-                style={{
-                  position: 'absolute',
-                  left: g.left,
-                  top: g.top,
-                  width: g.pw,
-                  height: g.ph,
-                  alignItems: 'center',
-                  justifyContent: 'center',
-                  padding: space.lg,
-                }}
+                style={[styles.emptyArea, { left: g.left, top: g.top, width: g.pw, height: g.ph }]}
               >
-                <View
-                  style={{
-                    backgroundColor: colors.surface,
-                    borderRadius: radius.md,
-                    borderWidth: 1,
-                    borderColor: colors.line,
-                    paddingVertical: space.md,
-                    paddingHorizontal: space.lg,
-                  }}
-                >
-                  <T
-                    variant="small"
-                    style={{ color: colors.inkSoft, textAlign: 'center' }}
-                    testID={testID ? `${testID}-empty` : undefined}
-                  >
+                <View style={styles.emptyBox}>
+                  <T variant="small" style={styles.emptyText} testID={testID ? `${testID}-empty` : undefined}>
                     {props.emptyMessage ?? 'No trip band to show.'}
                   </T>
                 </View>
@@ -390,28 +369,21 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
                   if (type === 'mouse' || type === 'pen') setHover(toProbe(localPoint(e)));
                 }}
                 onPointerLeave={() => setHover(null)}
-                style={
-                  {
-                    position: 'absolute',
-                    left: g.left,
-                    top: g.top,
-                    width: g.pw,
-                    height: g.ph,
-                    cursor: 'crosshair',
-                  } as never
-                }
+                style={[styles.surface, { left: g.left, top: g.top, width: g.pw, height: g.ph }]}
               />
             )}
             {readout && probe && !narrow ? (
               <View
                 pointerEvents="none"
                 testID={testID ? `${testID}-readout` : undefined}
-                style={{
-                  position: 'absolute',
-                  left: g.left + readoutSpot(g, readout, probe).x,
-                  top: g.top + readoutSpot(g, readout, probe).y,
-                  width: readoutSize(readout, g.pw).width,
-                }}
+                style={[
+                  styles.floatingReadout,
+                  {
+                    left: g.left + readoutSpot(g, readout, probe).x,
+                    top: g.top + readoutSpot(g, readout, probe).y,
+                    width: readoutSize(readout, g.pw).width,
+                  },
+                ]}
               >
                 <ReadoutBox readout={readout} floating />
               </View>
@@ -430,10 +402,10 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
       ) : null}
       <Legend series={prepared} />
       {showMarkList && (props.marks?.length ?? 0) > 0 ? (
-        <View style={{ gap: 2 }} testID={testID ? `${testID}-marks` : undefined}>
+        <View style={styles.marks} testID={testID ? `${testID}-marks` : undefined}>
           <T variant="label">Clearing points</T>
           {props.marks!.map((m, i) => (
-            <T key={i} variant="small" style={{ color: colors.inkSoft }}>
+            <T key={i} variant="small" style={styles.mark}>
               {markSentence(m, currentUnit)}
               {inRanges(m, iDom, tDom) ? '' : ' (outside the plotted range)'}
             </T>
@@ -443,3 +415,29 @@ export function TimeCurrentPlot(props: TimeCurrentPlotProps) {
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  plot: { gap: space.md },
+  /** The drawing's box; until it is measured it holds a place 300 px tall. */
+  drawing: { width: '100%' },
+  /** Over the plot area when there is no band: the message in the middle. */
+  emptyArea: { position: 'absolute', alignItems: 'center', justifyContent: 'center', padding: space.lg },
+  emptyBox: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.line,
+    paddingVertical: space.md,
+    paddingHorizontal: space.lg,
+  },
+  emptyText: { color: colors.inkSoft, textAlign: 'center' },
+  /** The plot area that reads the pointer. */
+  surface: {
+    position: 'absolute',
+    // A web cursor beyond React Native's 'auto' | 'pointer' (react-native-web hands it to CSS).
+    cursor: 'crosshair' as never,
+  },
+  floatingReadout: { position: 'absolute' },
+  marks: { gap: 2 },
+  mark: { color: colors.inkSoft },
+});

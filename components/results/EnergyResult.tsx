@@ -1,5 +1,5 @@
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import type { IncidentEnergyResult } from '../../hooks/queries';
 import { fmt, fmtLength, type LengthUnit } from '../../hooks/units';
 import { HazardMark } from '../Cautions';
@@ -24,31 +24,18 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
   const lv = result.labelValues;
   const panel = signalPanelColors(lv.signalWord);
   return (
-    <View style={{ gap: space.md }} testID="energy-result">
-      <View style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }}>
-        <View
-          style={{
-            backgroundColor: panel.background,
-            flexDirection: 'row',
-            alignItems: 'center',
-            gap: space.sm,
-            padding: space.md,
-          }}
-        >
+    <View style={styles.result} testID="energy-result">
+      <View style={styles.panel}>
+        <View style={[styles.signalPanel, { backgroundColor: panel.background }]}>
           <HazardMark size={26} />
-          <T
-            style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 22, letterSpacing: 1 }}
-            testID="signal-word"
-          >
+          <T style={[styles.signalWord, { color: panel.text }]} testID="signal-word">
             {lv.signalWord}
           </T>
-          <T style={{ color: panel.text, fontFamily: fonts.textMedium, fontSize: 13, marginLeft: 'auto' }}>
-            PRELIMINARY
-          </T>
+          <T style={[styles.preliminary, { color: panel.text }]}>PRELIMINARY</T>
         </View>
-        <View style={{ backgroundColor: colors.surface, padding: space.md, gap: space.xs }}>
+        <View style={styles.energy}>
           <T variant="label">INCIDENT ENERGY AT {fmtLength(result.workingDistanceMm, unit).toUpperCase()}</T>
-          <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' }}>
+          <View style={styles.energyFigures}>
             <Num value={fmt(result.incidentEnergyCalPerCm2)} unit="cal/cm²" size={34} bold testID="energy-cal" />
             <Num value={fmt(result.incidentEnergyJPerCm2)} unit="J/cm²" size={18} />
           </View>
@@ -67,9 +54,9 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
           title={`${result.warnings.length} warning${result.warnings.length > 1 ? 's' : ''}`}
           testID="energy-warnings"
         >
-          <View style={{ gap: 4 }}>
+          <View style={styles.warnings}>
             {result.warnings.map((w) => (
-              <T key={w.code + w.message} testID={`warning-${w.code}`} style={{ color: colors.caution }}>
+              <T key={w.code + w.message} testID={`warning-${w.code}`} style={styles.warning}>
                 {w.message}
               </T>
             ))}
@@ -86,7 +73,7 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
           <ArcRating calPerCm2={lv.incidentEnergyCalPerCm2} />
         </ValueRow>
         <ValueRow label="PPE level (organization)">
-          <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel ? lv.ppeLevel.name : 'Above every level'}</T>
+          <T style={styles.ppeLevel}>{lv.ppeLevel ? lv.ppeLevel.name : 'Above every level'}</T>
         </ValueRow>
         <ValueRow label="Nominal voltage">
           <Num value={lv.nominalVoltageV.toLocaleString('en-US')} unit="V" />
@@ -112,36 +99,24 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
 
       <Card>
         <T variant="subheading">Both cases (IEEE 1584-2018)</T>
-        <View style={{ flexDirection: 'row', gap: space.md, flexWrap: 'wrap' }}>
+        <View style={styles.cases}>
           {(['full', 'reduced'] as const).map((c) => {
             const k = result.cases[c];
             const gov = result.governingCase === c;
             return (
-              <View
-                key={c}
-                testID={`case-${c}`}
-                style={{
-                  flexGrow: 1,
-                  flexBasis: 200,
-                  padding: space.md,
-                  borderRadius: radius.sm,
-                  borderWidth: gov ? 2 : 1,
-                  borderColor: gov ? colors.ink : colors.line,
-                  gap: 4,
-                }}
-              >
+              <View key={c} testID={`case-${c}`} style={[styles.case, gov && styles.caseGoverning]}>
                 <T variant="label">
                   {c === 'full' ? 'FULL ARCING CURRENT' : 'REDUCED ARCING CURRENT'}
                   {gov ? ' · GOVERNS' : ''}
                 </T>
                 <Num value={fmt(k.arcingCurrentKa)} unit="kA" size={20} bold />
                 <T variant="small">
-                  Arc duration <T style={{ fontFamily: fonts.numbers }}>{fmt(k.arcDurationMs)} ms</T>
+                  Arc duration <T style={styles.figures}>{fmt(k.arcDurationMs)} ms</T>
                   {k.arcDurationCapped ? ` (capped from ${fmt(k.requestedArcDurationMs)} ms)` : ''}
                 </T>
                 <T variant="small">
-                  Energy <T style={{ fontFamily: fonts.numbers }}>{fmt(k.incidentEnergyCalPerCm2)} cal/cm²</T> ·
-                  boundary <T style={{ fontFamily: fonts.numbers }}>{fmtLength(k.arcFlashBoundaryMm, unit)}</T>
+                  Energy <T style={styles.figures}>{fmt(k.incidentEnergyCalPerCm2)} cal/cm²</T> · boundary{' '}
+                  <T style={styles.figures}>{fmtLength(k.arcFlashBoundaryMm, unit)}</T>
                 </T>
               </View>
             );
@@ -163,3 +138,29 @@ export function EnergyResult({ result, unit }: { result: IncidentEnergyResult; u
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  result: { gap: space.md },
+  panel: { borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' },
+  signalPanel: { flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.md },
+  signalWord: { fontFamily: fonts.textBold, fontSize: 22, letterSpacing: 1 },
+  preliminary: { fontFamily: fonts.textMedium, fontSize: 13, marginLeft: 'auto' },
+  energy: { backgroundColor: colors.surface, padding: space.md, gap: space.xs },
+  energyFigures: { flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' },
+  warnings: { gap: space.xs },
+  warning: { color: colors.caution },
+  ppeLevel: { fontFamily: fonts.textBold },
+  cases: { flexDirection: 'row', gap: space.md, flexWrap: 'wrap' },
+  case: {
+    flexGrow: 1,
+    flexBasis: 200,
+    padding: space.md,
+    borderRadius: radius.sm,
+    borderWidth: 1,
+    borderColor: colors.line,
+    gap: space.xs,
+  },
+  /** The case that governs the result. */
+  caseGoverning: { borderWidth: 2, borderColor: colors.ink },
+  figures: { fontFamily: fonts.numbers },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import type { BusScenario } from '../../shared/schemas/studyResults';
 import { fmt } from '../../hooks/units';
 import { colors, fonts, radius, space, touch } from '../theme';
@@ -58,9 +58,9 @@ export function ScenarioSwitch({
 }) {
   const notes = scenarios.filter((s) => s.status !== 'ok' && s.note);
   return (
-    <View style={{ gap: space.sm }} testID={testID}>
+    <View style={styles.switch} testID={testID}>
       <T variant="label">Operating scenario</T>
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm }} accessibilityRole="radiogroup">
+      <View style={styles.options} accessibilityRole="radiogroup">
         {scenarios.map((s) => {
           const on = s.scenarioId === value;
           const dead = s.status === 'de-energized';
@@ -77,49 +77,17 @@ export function ScenarioSwitch({
               accessibilityLabel={`${s.name}: ${scenarioEnergyText(s)}${mark ? `, ${mark}` : ''}`}
               onPress={() => onChange(s.scenarioId)}
               testID={`${testID}-${s.scenarioId}`}
-              style={{
-                minHeight: touch.min,
-                maxWidth: '100%',
-                paddingHorizontal: space.md,
-                paddingVertical: space.xs,
-                justifyContent: 'center',
-                borderRadius: radius.sm,
-                borderWidth: on ? 2 : 1.5,
-                borderStyle: dead ? 'dashed' : 'solid',
-                borderColor: on ? colors.accent : failed ? colors.danger : colors.line,
-                backgroundColor: on ? colors.accentSoft : dead ? colors.canvas : colors.surface,
-                opacity: dead ? 0.75 : 1,
-              }}
+              style={[styles.option, dead && styles.optionDead, failed && styles.optionFailed, on && styles.optionOn]}
             >
-              <T
-                style={{
-                  fontFamily: on ? fonts.textBold : fonts.textMedium,
-                  color: dead ? colors.muted : colors.ink,
-                  fontSize: 15,
-                }}
-              >
-                {s.name}
-              </T>
-              <View style={{ flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', columnGap: space.sm }}>
-                <T
-                  style={{
-                    fontFamily: s.status === 'ok' ? fonts.numbers : fonts.text,
-                    fontSize: 13,
-                    color: failed ? colors.danger : colors.muted,
-                  }}
-                >
+              <T style={[styles.name, on && styles.nameOn, dead && styles.nameDead]}>{s.name}</T>
+              <View style={styles.line}>
+                <T style={[styles.energy, s.status === 'ok' && styles.energyFigures, failed && styles.failed]}>
                   {scenarioEnergyText(s)}
                 </T>
                 {mark ? (
                   <T
                     testID={governs ? `${testID}-label-basis` : undefined}
-                    style={{
-                      fontFamily: fonts.textBold,
-                      fontSize: 12,
-                      textTransform: 'uppercase',
-                      letterSpacing: 0.4,
-                      color: failed ? colors.danger : colors.accent,
-                    }}
+                    style={[styles.mark, failed && styles.failed]}
                   >
                     {mark}
                   </T>
@@ -137,3 +105,40 @@ export function ScenarioSwitch({
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  switch: { gap: space.sm },
+  options: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  option: {
+    minHeight: touch.min,
+    maxWidth: '100%',
+    paddingHorizontal: space.md,
+    paddingVertical: space.xs,
+    justifyContent: 'center',
+    borderRadius: radius.sm,
+    borderWidth: 1.5,
+    borderStyle: 'solid',
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+    opacity: 1,
+  },
+  /** A de-energized scenario (cannot be chosen). */
+  optionDead: { borderStyle: 'dashed', backgroundColor: colors.canvas, opacity: 0.75 },
+  optionFailed: { borderColor: colors.danger },
+  /** The chosen scenario (its colours win over the others). */
+  optionOn: { borderWidth: 2, borderColor: colors.accent, backgroundColor: colors.accentSoft },
+  name: { fontFamily: fonts.textMedium, color: colors.ink, fontSize: 15 },
+  nameOn: { fontFamily: fonts.textBold },
+  nameDead: { color: colors.muted },
+  line: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', columnGap: space.sm },
+  energy: { fontFamily: fonts.text, fontSize: 13, color: colors.muted },
+  energyFigures: { fontFamily: fonts.numbers },
+  mark: {
+    fontFamily: fonts.textBold,
+    fontSize: 12,
+    textTransform: 'uppercase',
+    letterSpacing: 0.4,
+    color: colors.accent,
+  },
+  failed: { color: colors.danger },
+});

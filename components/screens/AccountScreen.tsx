@@ -1,5 +1,5 @@
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { z } from 'zod';
 import { passwordSchema } from '../../shared/schemas/auth';
 import { changePasswordSchema } from '../../shared/schemas/invitations';
@@ -64,7 +64,7 @@ function ChangePassword() {
         secureTextEntry
         autoComplete="current-password"
       />
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+      <View style={styles.fieldRow}>
         <FormTextField
           control={form.control}
           name="newPassword"
@@ -73,7 +73,7 @@ function ChangePassword() {
           secureTextEntry
           autoComplete="new-password"
           hint="At least 10 characters"
-          containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+          containerStyle={styles.fieldInRow}
         />
         <FormTextField
           control={form.control}
@@ -83,10 +83,10 @@ function ChangePassword() {
           secureTextEntry
           autoComplete="new-password"
           onSubmitEditing={submit}
-          containerStyle={{ flexGrow: 1, flexBasis: 220 }}
+          containerStyle={styles.fieldInRow}
         />
       </View>
-      <View style={{ flexDirection: 'row' }}>
+      <View style={styles.buttonRow}>
         <Button title="Change password" testID="change-password-submit" busy={change.isPending} onPress={submit} />
       </View>
     </Card>
@@ -130,14 +130,14 @@ export function AccountScreen() {
         <T variant="subheading">{user.name}</T>
         <View>
           <ValueRow label="E-mail">
-            <T style={{ fontFamily: fonts.numbers, fontSize: 15 }}>{user.email}</T>
+            <T style={styles.email}>{user.email}</T>
           </ValueRow>
           <ValueRow label="Role">
-            <T style={{ fontSize: 15 }}>{ROLE_LABELS[user.role]}</T>
+            <T style={styles.value}>{ROLE_LABELS[user.role]}</T>
           </ValueRow>
           {me.data ? (
             <ValueRow label="Organization">
-              <T style={{ fontSize: 15 }}>{me.data.organization.name}</T>
+              <T style={styles.value}>{me.data.organization.name}</T>
             </ValueRow>
           ) : null}
         </View>
@@ -148,10 +148,18 @@ export function AccountScreen() {
       <Card>
         <T variant="subheading">Sign out</T>
         <T variant="small">Ends the session on this device. On a shared tablet, sign out when you are done.</T>
-        <View style={{ flexDirection: 'row' }}>
+        <View style={styles.buttonRow}>
           <Button title="Sign out" kind="secondary" testID="account-sign-out" onPress={() => void signOut()} />
         </View>
       </Card>
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  fieldRow: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  fieldInRow: { flexGrow: 1, flexBasis: 220 },
+  buttonRow: { flexDirection: 'row' },
+  email: { fontFamily: fonts.numbers, fontSize: 15 },
+  value: { fontSize: 15 },
+});

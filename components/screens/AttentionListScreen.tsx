@@ -1,7 +1,7 @@
 import type { AppHref } from '../nav';
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import {
   ATTENTION_LIST_INFO,
   type AttentionColumn,
@@ -92,21 +92,19 @@ function RowCard({
   const [first, ...rest] = columns;
   return (
     <Link href={rowHref(row)} asChild>
-      <Pressable accessibilityRole="link" testID={`attention-row-${row.id}`} style={{ ...cardStyle, gap: space.xs }}>
+      <Pressable accessibilityRole="link" testID={`attention-row-${row.id}`} style={styles.card}>
         <T variant="subheading">{first ? cellText(row.cells[first.key], first, list) : row.id}</T>
         {showSite ? <T variant="small">{row.siteName}</T> : null}
         <View>
           {rest.map((c) => (
             <ValueRow key={c.key} label={c.label}>
-              <T
-                style={{ fontSize: 15, fontFamily: c.kind === 'text' ? fonts.text : fonts.numbers, textAlign: 'right' }}
-              >
+              <T style={c.kind === 'text' ? styles.cellText : styles.cellFigures}>
                 {cellText(row.cells[c.key], c, list)}
               </T>
             </ValueRow>
           ))}
         </View>
-        <T style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}>{OPENS[row.link.kind]} →</T>
+        <T style={styles.opens}>{OPENS[row.link.kind]} →</T>
       </Pressable>
     </Link>
   );
@@ -176,7 +174,7 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
             <TableRowView row={tableRow(r)} columns={tableColumns} />
           </View>
         ) : (
-          <View style={{ marginTop: space.md }}>
+          <View style={styles.cardCell}>
             <RowCard row={r} columns={d?.columns ?? []} showSite={!siteId} list={list} />
           </View>
         )
@@ -185,7 +183,7 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
     >
       <Link
         href={siteId ? `/attention?siteId=${encodeURIComponent(siteId)}` : '/attention'}
-        style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}
+        style={styles.backLink}
         testID="back-to-dashboard"
       >
         ← All lists
@@ -212,3 +210,15 @@ export function AttentionListScreen({ list }: { list: AttentionList }) {
     </ListScreen>
   );
 }
+
+const styles = StyleSheet.create({
+  cellText: { fontSize: 15, fontFamily: fonts.text, textAlign: 'right' },
+  cellFigures: { fontSize: 15, fontFamily: fonts.numbers, textAlign: 'right' },
+  /** A row as a card: one plain entry, as the child of a `Link asChild` needs. */
+  card: { ...cardStyle, gap: space.xs },
+  /** Where the row opens, in link colour (the whole card is the link). */
+  opens: { color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium },
+  /** A card in the phone's list: the space above it. */
+  cardCell: { marginTop: space.md },
+  backLink: { color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium },
+});

@@ -1,7 +1,7 @@
 import { useQueries } from '@tanstack/react-query';
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import type { ArcCaseTrace, BusResult } from '../../shared/schemas/studyResults';
 import { REGION_LABELS } from '../../shared/tripRegions';
 import { ONLY_AT_CAUTIONS } from '../../shared/cautions';
@@ -67,25 +67,14 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
   const panel = signalPanelColors(lv.signalWord);
   const clearing = clearingOf(b, studyMaxArcDurationMs);
   return (
-    <View
-      style={{ borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' }}
-      testID="bus-label-values"
-    >
-      <View
-        style={{
-          backgroundColor: panel.background,
-          flexDirection: 'row',
-          alignItems: 'center',
-          gap: space.sm,
-          padding: space.md,
-        }}
-      >
+    <View style={styles.labelValues} testID="bus-label-values">
+      <View style={[styles.signalPanel, { backgroundColor: panel.background }]}>
         <HazardMark size={24} />
-        <T style={{ color: panel.text, fontFamily: fonts.textBold, fontSize: 20, letterSpacing: 1 }}>{lv.signalWord}</T>
+        <T style={[styles.signalWord, { color: panel.text }]}>{lv.signalWord}</T>
       </View>
-      <View style={{ backgroundColor: colors.surface, padding: space.md, gap: 2 }}>
+      <View style={styles.labelBody}>
         <T variant="label">INCIDENT ENERGY AT {fmtLength(lv.workingDistanceMm, 'in').toUpperCase()}</T>
-        <View style={{ flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' }}>
+        <View style={styles.energyFigures}>
           <Num
             value={formatCalPerCm2(lv.incidentEnergyCalPerCm2)}
             unit="cal/cm²"
@@ -102,7 +91,7 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
           <ArcRating calPerCm2={lv.incidentEnergyCalPerCm2} size={14} />
         </ValueRow>
         <ValueRow label="PPE level">
-          <T style={{ fontFamily: fonts.textBold }}>{lv.ppeLevel?.name ?? 'None adequate'}</T>
+          <T style={styles.strong}>{lv.ppeLevel?.name ?? 'None adequate'}</T>
         </ValueRow>
         {lv.shockApproach ? (
           <>
@@ -120,7 +109,7 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
           <T>{lv.gloveClass ? `Class ${lv.gloveClass.class}` : '—'}</T>
         </ValueRow>
         <ValueRow label={clearing.caption}>
-          <T style={{ fontFamily: fonts.textBold }} testID="bus-cleared-by">
+          <T style={styles.strong} testID="bus-cleared-by">
             {clearing.text}
           </T>
         </ValueRow>
@@ -128,7 +117,7 @@ export function LabelPreview({ b, studyMaxArcDurationMs }: { b: BusResult; study
         {Object.values(ONLY_AT_CAUTIONS)
           .filter((c) => lv.cautions.includes(c))
           .map((c) => (
-            <T key={c} style={{ fontFamily: fonts.textBold, color: colors.danger }} testID="bus-energy-condition">
+            <T key={c} style={styles.energyCondition} testID="bus-energy-condition">
               {c}
             </T>
           ))}
@@ -146,14 +135,14 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
   const stepped = c.intervals.some((i) => (i.steps ?? []).length > 1);
   if (c.intervals.length <= 1 && !stepped) return null;
   return (
-    <View style={{ gap: 4, marginTop: space.sm }} testID="intervals">
+    <View style={styles.intervals} testID="intervals">
       <T variant="label">ENERGY BY INTERVAL (SOURCES CUT OFF ONE BY ONE, CURRENTS FOLLOWED IN TIME)</T>
       {c.intervals.map((i, n) => {
         const steps = i.steps ?? [];
         const opened = i.openedDeviceIds ?? [];
         return (
-          <View key={i.fromS} style={{ gap: 2 }}>
-            <T variant="small" style={{ fontFamily: fonts.numbers, fontSize: 13 }}>
+          <View key={i.fromS} style={styles.interval}>
+            <T variant="small" style={styles.intervalText}>
               {fmt(i.fromS)}–{fmt(i.toS)} s · {i.sourceIds.join(', ')} · Ibf {fmt(i.boltedFaultKa)} kA · Iarc{' '}
               {fmt(i.arcingCurrentKa)} kA{steps.length > 1 ? ' at first' : ''} · {fmt(i.incidentEnergyJPerCm2 / 4.184)}{' '}
               cal/cm²{opened.length ? ` · ${opened.join(', ')} opens` : ''}
@@ -163,7 +152,7 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
                 variant="small"
                 accessibilityRole="button"
                 onPress={() => setOpen(open === n ? null : n)}
-                style={{ color: colors.accent }}
+                style={styles.toggle}
                 testID={`interval-steps-toggle-${n}`}
               >
                 {open === n ? 'Hide' : 'Show'} the {steps.length} time steps (the current changes within this interval)
@@ -171,11 +160,7 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
             ) : null}
             {open === n
               ? steps.map((s) => (
-                  <T
-                    key={s.fromS}
-                    variant="small"
-                    style={{ fontFamily: fonts.numbers, fontSize: 12, paddingLeft: space.md }}
-                  >
+                  <T key={s.fromS} variant="small" style={styles.stepText}>
                     {fmt(s.fromS)}–{fmt(s.toS)} s · Ibf {fmt(s.boltedFaultKa)} kA · Iarc {fmt(s.arcingCurrentKa)} kA ·{' '}
                     {fmt(s.incidentEnergyJPerCm2 / 4.184)} cal/cm²
                     {(s.openedDeviceIds ?? []).length ? ` · ${s.openedDeviceIds.join(', ')} opens` : ''}
@@ -192,26 +177,17 @@ function IntervalList({ c }: { c: ArcCaseTrace }) {
 function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
   const sorted = [...c.devices].sort((a, b) => (a.clearingTimeS ?? Infinity) - (b.clearingTimeS ?? Infinity));
   return (
-    <View style={{ gap: 4 }} testID={`devices-${caseKey(c)}`}>
+    <View style={styles.devices} testID={`devices-${caseKey(c)}`}>
       {sorted.map((d) => {
         const decides = c.sources.some((s) => s.cutByDeviceId === d.deviceId);
         return (
-          <View
-            key={d.deviceId}
-            style={{
-              padding: space.sm,
-              borderRadius: radius.sm,
-              borderWidth: d.deviceId === c.clearingDeviceId ? 2 : 1,
-              borderColor: d.deviceId === c.clearingDeviceId ? colors.ink : colors.lineSoft,
-              gap: 2,
-            }}
-          >
-            <View style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' }}>
-              <T style={{ fontFamily: fonts.numbersBold }}>
+          <View key={d.deviceId} style={[styles.device, d.deviceId === c.clearingDeviceId && styles.clearingDevice]}>
+            <View style={styles.deviceHead}>
+              <T style={styles.deviceId}>
                 {d.deviceId}
                 {d.deviceId === c.clearingDeviceId ? ' · clears the arc' : decides ? ' · cuts off a source' : ''}
               </T>
-              <T style={{ fontFamily: fonts.numbers }}>
+              <T style={styles.figures}>
                 {operatedAt(d) !== null
                   ? `operates at ${fmt(operatedAt(d) as number)} s`
                   : d.clearingTimeS === null
@@ -223,7 +199,7 @@ function DeviceTable({ c, busKv }: { c: ArcCaseTrace; busKv: number }) {
               {d.name} · {d.location}
             </T>
             <T variant="small">
-              Sees <T style={{ fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(d.currentA / 1000)} kA</T>
+              Sees <T style={styles.current}>{fmt(d.currentA / 1000)} kA</T>
               {d.kv !== busKv ? ` at ${fmt(d.kv)} kV` : ''} ({fmt(d.share * 100)} % of the fault) ·{' '}
               {REGION_LABELS[d.region]}
               {d.minimumTimeS !== null ? ` · minimum ${fmt(d.minimumTimeS)} s` : ''}
@@ -327,7 +303,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   const scenarioBlock =
     scenarioList && governingId ? (
       <Card testID="trace-scenarios">
-        <T testID="scenario-basis" style={{ fontSize: 16, lineHeight: 23 }}>
+        <T testID="scenario-basis" style={styles.scenarioBasis}>
           {scenarioBasisSentence(scenarioList, governingId, shownScenario)}
         </T>
         <ScenarioSwitch
@@ -348,7 +324,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   if (!bus)
     return (
       <Screen title={`${labelBus.busId} · ${labelBus.busName}`} subtitle="Clearing trace">
-        <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
+        <Link href={`/studies/${studyId}?tab=results`} style={styles.backLink}>
           ← All results
         </Link>
         {scenarioBlock}
@@ -415,7 +391,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
   ) : null;
 
   const detail = current ? (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.detail}>
       <Card>
         <T variant="subheading">Cases</T>
         <Choice
@@ -427,7 +403,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
             label: `${caseTitle(c)}${bus.governing && caseKey(c) === caseKey(bus.governing) ? ' · governs' : ''}`,
           }))}
         />
-        <T testID="trace-sentence" style={{ fontSize: 17, lineHeight: 25 }}>
+        <T testID="trace-sentence" style={styles.sentence}>
           {current.sentence}
         </T>
         <ValueRow label="Arcing current at the bus">
@@ -438,7 +414,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         </ValueRow>
         {bus.arcDurationCap ? (
           <ValueRow label="Arc-duration cap">
-            <T testID="trace-cap" style={{ fontSize: 14, textAlign: 'right', flexShrink: 1 }}>
+            <T testID="trace-cap" style={styles.cap}>
               {bus.arcDurationCap.source === 'study'
                 ? `${fmt(bus.arcDurationCap.capS as number)} s (the study's)`
                 : `${bus.arcDurationCap.capS === null ? 'none: the clearing time stands' : `${fmt(bus.arcDurationCap.capS)} s at this bus`} — ${bus.arcDurationCap.reason ?? 'no reason given'}`}
@@ -477,7 +453,7 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         ) : undefined
       }
     >
-      <Link href={`/studies/${studyId}?tab=results`} style={{ color: colors.accent, fontSize: 16 }}>
+      <Link href={`/studies/${studyId}?tab=results`} style={styles.backLink}>
         ← All results
       </Link>
       {!reviewed ? (
@@ -497,14 +473,9 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
           title={`${bus.warnings.length} warning${bus.warnings.length > 1 ? 's' : ''}`}
           testID="trace-warnings"
         >
-          <View style={{ gap: 3 }}>
+          <View style={styles.warnings}>
             {bus.warnings.map((w) => (
-              <T
-                key={w.code + w.message}
-                variant="small"
-                testID={`warning-${w.code}`}
-                style={{ color: colors.caution }}
-              >
+              <T key={w.code + w.message} variant="small" testID={`warning-${w.code}`} style={styles.warning}>
                 {w.message}
               </T>
             ))}
@@ -512,12 +483,12 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
         </Notice>
       ) : null}
       {wide ? (
-        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
-          <View style={{ flex: 1.3, gap: space.lg }}>
+        <View style={styles.columns}>
+          <View style={styles.mainColumn}>
             {plot}
             {detail}
           </View>
-          <View style={{ flex: 1, gap: space.lg }}>
+          <View style={styles.sideColumn}>
             {labelPart}
             <Cautions reviewed={reviewed} incidentEnergyCalPerCm2={cautionEnergy} />
           </View>
@@ -533,3 +504,36 @@ export function BusTraceScreen({ studyId, busId }: { studyId: string; busId: str
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  labelValues: { borderRadius: radius.md, overflow: 'hidden', borderWidth: 2, borderColor: '#000' },
+  signalPanel: { flexDirection: 'row', alignItems: 'center', gap: space.sm, padding: space.md },
+  signalWord: { fontFamily: fonts.textBold, fontSize: 20, letterSpacing: 1 },
+  labelBody: { backgroundColor: colors.surface, padding: space.md, gap: 2 },
+  energyFigures: { flexDirection: 'row', alignItems: 'baseline', gap: space.md, flexWrap: 'wrap' },
+  strong: { fontFamily: fonts.textBold },
+  energyCondition: { fontFamily: fonts.textBold, color: colors.danger },
+  intervals: { gap: space.xs, marginTop: space.sm },
+  interval: { gap: 2 },
+  intervalText: { fontFamily: fonts.numbers, fontSize: 13 },
+  toggle: { color: colors.accent },
+  stepText: { fontFamily: fonts.numbers, fontSize: 12, paddingLeft: space.md },
+  devices: { gap: space.xs },
+  device: { padding: space.sm, borderRadius: radius.sm, borderWidth: 1, borderColor: colors.lineSoft, gap: 2 },
+  /** The device that clears the arc. */
+  clearingDevice: { borderWidth: 2, borderColor: colors.ink },
+  deviceHead: { flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' },
+  deviceId: { fontFamily: fonts.numbersBold },
+  figures: { fontFamily: fonts.numbers },
+  current: { fontFamily: fonts.numbers, fontSize: 14 },
+  scenarioBasis: { fontSize: 16, lineHeight: 23 },
+  backLink: { color: colors.accent, fontSize: 16 },
+  detail: { gap: space.lg },
+  sentence: { fontSize: 17, lineHeight: 25 },
+  cap: { fontSize: 14, textAlign: 'right', flexShrink: 1 },
+  warnings: { gap: 3 },
+  warning: { color: colors.caution },
+  columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  mainColumn: { flex: 1.3, gap: space.lg },
+  sideColumn: { flex: 1, gap: space.lg },
+});

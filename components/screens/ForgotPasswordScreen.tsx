@@ -1,5 +1,6 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
+import { StyleSheet } from 'react-native';
 import { passwordResetRequestSchema } from '../../shared/schemas/invitations';
 import { useRequestPasswordReset } from '../../hooks/account';
 import { serverErrors, useZodForm } from '../../hooks/forms';
@@ -28,11 +29,7 @@ export function ForgotPasswordScreen() {
     <PublicPage
       title="Forgot your password?"
       footer={
-        <Link
-          href="/sign-in"
-          style={{ color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' }}
-          testID="back-to-sign-in"
-        >
+        <Link href="/sign-in" style={styles.backLink} testID="back-to-sign-in">
           Back to sign in
         </Link>
       }
@@ -65,3 +62,7 @@ export function ForgotPasswordScreen() {
     </PublicPage>
   );
 }
+
+const styles = StyleSheet.create({
+  backLink: { color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' },
+});

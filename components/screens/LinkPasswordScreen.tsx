@@ -1,5 +1,6 @@
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
+import { StyleSheet } from 'react-native';
 import { z } from 'zod';
 import { passwordSchema } from '../../shared/schemas/auth';
 import { ROLE_LABELS } from '../../shared/schemas/common';
@@ -70,7 +71,7 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
   const forward = (
     <Link
       href={purpose === 'password-reset' ? '/forgot-password' : '/sign-in'}
-      style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}
+      style={styles.forwardLink}
       testID="link-forward"
     >
       {purpose === 'password-reset' ? 'Ask for a new link →' : 'Go to sign in →'}
@@ -81,10 +82,7 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
     <PublicPage
       title={gone ? 'This link no longer works' : copy.title}
       footer={
-        <Link
-          href="/sign-in"
-          style={{ color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' }}
-        >
+        <Link href="/sign-in" style={styles.backLink}>
           Back to sign in
         </Link>
       }
@@ -138,3 +136,8 @@ export function LinkPasswordScreen({ token, purpose }: { token: string; purpose:
     </PublicPage>
   );
 }
+
+const styles = StyleSheet.create({
+  forwardLink: { color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium },
+  backLink: { color: colors.navInk, fontSize: 16, fontFamily: fonts.textMedium, textDecorationLine: 'underline' },
+});

@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { ROLE_LABELS } from '../../shared/schemas/common';
 import { useSession, useUser } from '../../hooks/session';
 import { navFor } from '../nav';
@@ -13,25 +13,12 @@ export function MoreScreen() {
   const { signOut } = useSession();
   return (
     <Screen title="Menu" subtitle={`${user.name} · ${ROLE_LABELS[user.role]}`}>
-      <View style={{ gap: space.sm }}>
+      <View style={styles.menu}>
         {navFor(user.role).map((item) => (
           <Link key={item.href} href={item.href} asChild>
-            <Pressable
-              accessibilityRole="link"
-              style={{
-                minHeight: touch.min + 8,
-                flexDirection: 'row',
-                alignItems: 'center',
-                gap: space.md,
-                paddingHorizontal: space.lg,
-                backgroundColor: colors.surface,
-                borderRadius: radius.md,
-                borderWidth: 1,
-                borderColor: colors.line,
-              }}
-            >
-              <T style={{ fontSize: 20, width: 24, textAlign: 'center', color: colors.accent }}>{item.glyph}</T>
-              <T style={{ fontFamily: fonts.textMedium, fontSize: 17 }}>{item.label}</T>
+            <Pressable accessibilityRole="link" style={styles.item}>
+              <T style={styles.glyph}>{item.glyph}</T>
+              <T style={styles.itemLabel}>{item.label}</T>
             </Pressable>
           </Link>
         ))}
@@ -40,3 +27,20 @@ export function MoreScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  menu: { gap: space.sm },
+  item: {
+    minHeight: touch.min + 8,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.md,
+    paddingHorizontal: space.lg,
+    backgroundColor: colors.surface,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.line,
+  },
+  glyph: { fontSize: 20, width: 24, textAlign: 'center', color: colors.accent },
+  itemLabel: { fontFamily: fonts.textMedium, fontSize: 17 },
+});

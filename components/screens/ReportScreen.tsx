@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
-import { Image, View } from 'react-native';
+import { Image, StyleSheet, View } from 'react-native';
 import {
   fieldReportTriageSchema,
   type FieldReportDto,
@@ -32,7 +32,7 @@ function Photo({ reportId }: { reportId: string }) {
           resizeMode="contain"
           accessibilityLabel="Photo attached to the report"
           testID="report-photo-image"
-          style={{ width: '100%', height: 320, borderRadius: radius.md, backgroundColor: colors.canvas }}
+          style={styles.photo}
         />
       ) : null}
     </Card>
@@ -44,24 +44,24 @@ function Timeline({ r }: { r: FieldReportDto }) {
     <Card testID="report-timeline">
       <T variant="subheading">Triage</T>
       <ValueRow label="Reported">
-        <T style={{ fontSize: 15 }}>
+        <T style={styles.timelineText}>
           {fmtDateTime(r.createdAt)} by {r.reporter.name}
         </T>
       </ValueRow>
       <ValueRow label="Acknowledged">
-        <T style={{ fontSize: 15 }} testID="report-acknowledged">
+        <T style={styles.timelineText} testID="report-acknowledged">
           {r.acknowledgedAt
             ? `${fmtDateTime(r.acknowledgedAt)}${r.acknowledgedBy ? ` by ${r.acknowledgedBy}` : ''}`
             : 'Not yet'}
         </T>
       </ValueRow>
       <ValueRow label="Resolved">
-        <T style={{ fontSize: 15 }} testID="report-resolved">
+        <T style={styles.timelineText} testID="report-resolved">
           {r.resolvedAt ? `${fmtDateTime(r.resolvedAt)}${r.resolvedBy ? ` by ${r.resolvedBy}` : ''}` : 'Not yet'}
         </T>
       </ValueRow>
       {r.resolutionNote ? (
-        <View style={{ gap: 2 }}>
+        <View style={styles.resolution}>
           <T variant="label">WHAT WAS DONE</T>
           <T testID="report-resolution-note">{r.resolutionNote}</T>
         </View>
@@ -120,7 +120,7 @@ function TriagePanel({ r }: { r: FieldReportDto }) {
       />
       {error ? <Notice tone="error">{error}</Notice> : null}
       {done ? <Notice tone="ok">{done}</Notice> : null}
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.buttons}>
         {r.status === 'open' ? (
           <Button
             title="Acknowledge"
@@ -151,7 +151,7 @@ export function ReportScreen({ reportId }: { reportId: string }) {
     return (
       <Screen title="Field report">
         <QueryError error={report.error} />
-        <Link href="/reports" style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}>
+        <Link href="/reports" style={styles.backLink}>
           ← All reports
         </Link>
       </Screen>
@@ -166,38 +166,25 @@ export function ReportScreen({ reportId }: { reportId: string }) {
   }
   const r = report.data;
   const main = (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.column}>
       <Card testID="report-detail">
-        <View
-          style={{
-            flexDirection: 'row',
-            justifyContent: 'space-between',
-            alignItems: 'center',
-            flexWrap: 'wrap',
-            gap: space.sm,
-          }}
-        >
+        <View style={styles.detailHead}>
           <T variant="label">{kindLabel(r.kind).toUpperCase()}</T>
           <ReportStatus status={r.status} testID="report-status" />
         </View>
-        <T style={{ fontSize: 18, lineHeight: 26 }}>{r.text}</T>
+        <T style={styles.reportText}>{r.text}</T>
         <T variant="small">
           {r.reporter.name} · {fmtDateTime(r.createdAt)} ({fmtAgeDays(r.ageDays)})
         </T>
-        <Link
-          href={`/labels/${encodeURIComponent(r.labelCode)}`}
-          style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}
-          testID="report-label-link"
-        >
-          Open the label of {r.equipmentTag} (code{' '}
-          <T style={{ fontFamily: fonts.numbers, color: colors.accent }}>{r.labelCode}</T>) →
+        <Link href={`/labels/${encodeURIComponent(r.labelCode)}`} style={styles.labelLink} testID="report-label-link">
+          Open the label of {r.equipmentTag} (code <T style={styles.labelCode}>{r.labelCode}</T>) →
         </Link>
       </Card>
       {r.hasPhoto ? <Photo reportId={r.id} /> : null}
     </View>
   );
   const side = (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.column}>
       <Timeline r={r} />
       {canTriage ? <TriagePanel r={r} /> : null}
       {!canTriage && r.status !== 'resolved' ? (
@@ -211,13 +198,13 @@ export function ReportScreen({ reportId }: { reportId: string }) {
   );
   return (
     <Screen title={`${r.equipmentTag} · field report`} subtitle={r.siteName}>
-      <Link href="/reports" style={{ color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium }}>
+      <Link href="/reports" style={styles.backLinkSmall}>
         ← All reports
       </Link>
       {wide ? (
-        <View style={{ flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' }}>
-          <View style={{ flex: 1.3 }}>{main}</View>
-          <View style={{ flex: 1 }}>{side}</View>
+        <View style={styles.columns}>
+          <View style={styles.mainColumn}>{main}</View>
+          <View style={styles.sideColumn}>{side}</View>
         </View>
       ) : (
         <>
@@ -228,3 +215,26 @@ export function ReportScreen({ reportId }: { reportId: string }) {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  photo: { width: '100%', height: 320, borderRadius: radius.md, backgroundColor: colors.canvas },
+  timelineText: { fontSize: 15 },
+  resolution: { gap: 2 },
+  buttons: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  backLink: { color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium },
+  column: { gap: space.lg },
+  detailHead: {
+    flexDirection: 'row',
+    justifyContent: 'space-between',
+    alignItems: 'center',
+    flexWrap: 'wrap',
+    gap: space.sm,
+  },
+  reportText: { fontSize: 18, lineHeight: 26 },
+  labelLink: { color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium },
+  labelCode: { fontFamily: fonts.numbers, color: colors.accent },
+  backLinkSmall: { color: colors.accent, fontSize: 15, fontFamily: fonts.textMedium },
+  columns: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
+  mainColumn: { flex: 1.3 },
+  sideColumn: { flex: 1 },
+});

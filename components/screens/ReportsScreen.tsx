@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import {
   FIELD_REPORT_STATUS_LABELS,
   FIELD_REPORT_STATUSES,
@@ -29,12 +29,10 @@ type StatusFilter = FieldReportStatus | 'all';
 function ReportCard({ r, showReporter }: { r: FieldReportDto; showReporter: boolean }) {
   return (
     <Link href={`/reports/${r.id}`} asChild>
-      <Pressable accessibilityRole="link" testID={`report-${r.id}`} style={{ ...cardStyle, gap: space.xs }}>
-        <View
-          style={{ flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, alignItems: 'flex-start' }}
-        >
-          <T variant="subheading" style={{ flexShrink: 1 }}>
-            <T style={{ fontFamily: fonts.numbersBold }}>{r.equipmentTag}</T> · {kindLabel(r.kind)}
+      <Pressable accessibilityRole="link" testID={`report-${r.id}`} style={styles.card}>
+        <View style={styles.cardHead}>
+          <T variant="subheading" style={styles.cardTitle}>
+            <T style={styles.tag}>{r.equipmentTag}</T> · {kindLabel(r.kind)}
           </T>
           <ReportStatus status={r.status} />
         </View>
@@ -121,7 +119,7 @@ export function ReportsScreen() {
               tag: r.equipmentTag,
               kind: kindLabel(r.kind),
               text: (
-                <T numberOfLines={2} style={{ fontSize: 15 }}>
+                <T numberOfLines={2} style={styles.tableText}>
                   {r.text}
                 </T>
               ),
@@ -134,7 +132,7 @@ export function ReportsScreen() {
         />
       ) : null}
       {rows.length > 0 && !wide ? (
-        <View style={{ gap: space.md }}>
+        <View style={styles.cards}>
           {rows.map((r) => (
             <ReportCard key={r.id} r={r} showReporter={!own} />
           ))}
@@ -143,3 +141,13 @@ export function ReportsScreen() {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  /** A row as a card: one plain entry, as the child of a `Link asChild` needs. */
+  card: { ...cardStyle, gap: space.xs },
+  cardHead: { flexDirection: 'row', justifyContent: 'space-between', gap: space.sm, alignItems: 'flex-start' },
+  cardTitle: { flexShrink: 1 },
+  tag: { fontFamily: fonts.numbersBold },
+  tableText: { fontSize: 15 },
+  cards: { gap: space.md },
+});

@@ -1,7 +1,7 @@
 import { useRouter } from 'expo-router';
 import jsQR from 'jsqr';
 import React, { useCallback, useEffect, useRef, useState } from 'react';
-import { Platform, View } from 'react-native';
+import { Platform, StyleSheet, View } from 'react-native';
 import { parseLabelCode } from '../../shared/labelCode';
 import { colors, radius } from '../theme';
 import { Button, Card, Field, Notice, Screen, T } from '../ui';
@@ -60,17 +60,7 @@ function Camera({ onCode }: { onCode: (code: string) => void }) {
       </Notice>
     );
   return (
-    <View
-      style={{
-        borderRadius: radius.lg,
-        overflow: 'hidden',
-        backgroundColor: '#000',
-        aspectRatio: 1,
-        maxWidth: 480,
-        width: '100%',
-        alignSelf: 'center',
-      }}
-    >
+    <View style={styles.camera}>
       {React.createElement('video', {
         ref: videoRef,
         playsInline: true,
@@ -120,9 +110,22 @@ export function ScanScreen() {
         />
         <Button title="Open the label" testID="open-label" onPress={submit} />
       </Card>
-      <T variant="small" style={{ color: colors.muted }}>
+      <T variant="small" style={styles.note}>
         The label page says whether the label is current, superseded or past review.
       </T>
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  camera: {
+    borderRadius: radius.lg,
+    overflow: 'hidden',
+    backgroundColor: '#000',
+    aspectRatio: 1,
+    maxWidth: 480,
+    width: '100%',
+    alignSelf: 'center',
+  },
+  note: { color: colors.muted },
+});

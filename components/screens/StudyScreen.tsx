@@ -1,6 +1,6 @@
 import { useLocalSearchParams, useRouter } from 'expo-router';
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { useConfirmLeavingStudy } from '../../hooks/modelDrafts';
 import { useStudy } from '../../hooks/studies';
 import { OneLinePanel } from '../oneLine/OneLinePanel';
@@ -42,7 +42,7 @@ export function StudyScreen({ studyId }: { studyId: string }) {
   return (
     <Screen title={`${s.title} · rev ${s.revision}`} subtitle={s.siteName} maxWidth={1400}>
       <StatusBadges study={s} />
-      <View style={{ gap: space.sm }}>
+      <View style={styles.tabs}>
         <Choice value={tab} options={TABS} onChange={(t) => router.setParams({ tab: t })} testID="study-tab" />
       </View>
       {tab === 'overview' ? <OverviewPanel study={s} /> : null}
@@ -52,3 +52,7 @@ export function StudyScreen({ studyId }: { studyId: string }) {
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  tabs: { gap: space.sm },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { ActivityIndicator, Pressable, type PressableProps, type ViewStyle } from 'react-native';
+import { ActivityIndicator, Pressable, type PressableProps, StyleSheet, type ViewStyle } from 'react-native';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { T } from './Text';
 
@@ -13,8 +13,6 @@ export function Button({
   style,
   ...rest
 }: Omit<PressableProps, 'style' | 'children'> & { title: string; kind?: Kind; busy?: boolean; style?: ViewStyle }) {
-  const bg = { primary: colors.accent, secondary: colors.surface, quiet: 'transparent', danger: colors.danger }[kind];
-  const fg = { primary: colors.accentInk, secondary: colors.ink, quiet: colors.accent, danger: '#FFFFFF' }[kind];
   const off = disabled || busy;
   return (
     <Pressable
@@ -23,25 +21,44 @@ export function Button({
       aria-busy={!!busy}
       disabled={off}
       {...rest}
-      style={({ pressed }) => [
-        {
-          minHeight: touch.min,
-          paddingHorizontal: space.lg,
-          borderRadius: radius.md,
-          backgroundColor: bg,
-          borderWidth: kind === 'secondary' ? 1 : 0,
-          borderColor: colors.line,
-          alignItems: 'center',
-          justifyContent: 'center',
-          flexDirection: 'row',
-          gap: space.sm,
-          opacity: off ? 0.55 : pressed ? 0.85 : 1,
-        },
-        style,
-      ]}
+      style={({ pressed }) => [styles.button, boxes[kind], off ? styles.off : pressed && styles.pressed, style]}
     >
-      {busy ? <ActivityIndicator color={fg} /> : null}
-      <T style={{ color: fg, fontFamily: fonts.textBold, fontSize: 16 }}>{title}</T>
+      {busy ? <ActivityIndicator color={titles[kind].color} /> : null}
+      <T style={[styles.title, titles[kind]]}>{title}</T>
     </Pressable>
   );
 }
+
+const styles = StyleSheet.create({
+  button: {
+    minHeight: touch.min,
+    paddingHorizontal: space.lg,
+    borderRadius: radius.md,
+    borderWidth: 0,
+    borderColor: colors.line,
+    alignItems: 'center',
+    justifyContent: 'center',
+    flexDirection: 'row',
+    gap: space.sm,
+    opacity: 1,
+  },
+  off: { opacity: 0.55 },
+  pressed: { opacity: 0.85 },
+  title: { fontFamily: fonts.textBold, fontSize: 16 },
+});
+
+/** Each kind's box. */
+const boxes = StyleSheet.create({
+  primary: { backgroundColor: colors.accent },
+  secondary: { backgroundColor: colors.surface, borderWidth: 1 },
+  quiet: { backgroundColor: 'transparent' },
+  danger: { backgroundColor: colors.danger },
+});
+
+/** Each kind's words (the spinner takes the same colour). */
+const titles = StyleSheet.create({
+  primary: { color: colors.accentInk },
+  secondary: { color: colors.ink },
+  quiet: { color: colors.accent },
+  danger: { color: '#FFFFFF' },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { T } from './Text';
 
@@ -18,9 +18,9 @@ export function Choice<V extends string>({
   testID?: string;
 }) {
   return (
-    <View style={{ gap: space.xs, maxWidth: '100%', flexShrink: 1 }} testID={testID}>
+    <View style={styles.choice} testID={testID}>
       {label ? <T variant="label">{label}</T> : null}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm }} accessibilityRole="radiogroup">
+      <View style={styles.options} accessibilityRole="radiogroup">
         {options.map((o) => {
           const on = o.value === value;
           return (
@@ -30,21 +30,9 @@ export function Choice<V extends string>({
               aria-checked={on}
               onPress={() => onChange(o.value)}
               testID={testID ? `${testID}-${o.value}` : undefined}
-              style={{
-                minHeight: touch.min,
-                // A long option wraps inside its button instead of running past the screen's edge (390 px phones).
-                maxWidth: '100%',
-                flexShrink: 1,
-                paddingHorizontal: space.md,
-                paddingVertical: space.xs,
-                justifyContent: 'center',
-                borderRadius: radius.sm,
-                borderWidth: 1.5,
-                borderColor: on ? colors.accent : colors.line,
-                backgroundColor: on ? colors.accentSoft : colors.surface,
-              }}
+              style={[styles.option, on && styles.optionOn]}
             >
-              <T style={{ fontFamily: on ? fonts.textBold : fonts.text, color: colors.ink }}>{o.label}</T>
+              <T style={on ? styles.optionTextOn : styles.optionText}>{o.label}</T>
             </Pressable>
           );
         })}
@@ -52,3 +40,25 @@ export function Choice<V extends string>({
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  choice: { gap: space.xs, maxWidth: '100%', flexShrink: 1 },
+  options: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  option: {
+    minHeight: touch.min,
+    // A long option wraps inside its button instead of running past the screen's edge (390 px phones).
+    maxWidth: '100%',
+    flexShrink: 1,
+    paddingHorizontal: space.md,
+    paddingVertical: space.xs,
+    justifyContent: 'center',
+    borderRadius: radius.sm,
+    borderWidth: 1.5,
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+  },
+  /** The chosen option. */
+  optionOn: { borderColor: colors.accent, backgroundColor: colors.accentSoft },
+  optionText: { fontFamily: fonts.text, color: colors.ink },
+  optionTextOn: { fontFamily: fonts.textBold, color: colors.ink },
+});

@@ -1,5 +1,5 @@
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { space } from '../theme';
 import { Button } from './Button';
 import { T } from './Text';
@@ -24,9 +24,9 @@ export function ConfirmButton({
   if (!asking)
     return <Button title={title} kind="secondary" busy={busy} testID={testID} onPress={() => setAsking(true)} />;
   return (
-    <View style={{ gap: space.sm, flexShrink: 1 }} testID={testID ? `${testID}-confirm` : undefined}>
+    <View style={styles.asking} testID={testID ? `${testID}-confirm` : undefined}>
       <T>{question}</T>
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.answers}>
         <Button
           title={confirmTitle ?? title}
           kind="danger"
@@ -47,3 +47,8 @@ export function ConfirmButton({
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  asking: { gap: space.sm, flexShrink: 1 },
+  answers: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { TextInput, View, type TextInputProps, type ViewStyle } from 'react-native';
+import { StyleSheet, TextInput, type TextInputProps, View, type ViewStyle } from 'react-native';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { T } from './Text';
 
@@ -23,7 +23,7 @@ export function Field({
   containerStyle?: ViewStyle;
 }) {
   return (
-    <View style={[{ gap: space.xs }, containerStyle]}>
+    <View style={[styles.field, containerStyle]}>
       <T variant="label" nativeID={testID ? `${testID}-label` : undefined}>
         {label}
         {unit ? ` (${unit})` : ''}
@@ -35,23 +35,15 @@ export function Field({
         inputMode={numeric ? 'decimal' : undefined}
         {...rest}
         style={[
-          {
-            minHeight: rest.multiline ? touch.min * 2.5 : touch.min,
-            borderWidth: 1.5,
-            borderColor: error ? colors.danger : colors.line,
-            borderRadius: radius.sm,
-            paddingHorizontal: space.md,
-            backgroundColor: colors.surface,
-            color: colors.ink,
-            fontFamily: numeric ? fonts.numbers : fonts.text,
-            fontSize: 16,
-            ...(rest.multiline ? { paddingVertical: space.sm, textAlignVertical: 'top' as const } : null),
-          },
+          styles.input,
+          rest.multiline && styles.inputMultiline,
+          !!error && styles.inputError,
+          numeric && styles.inputFigures,
           style,
         ]}
       />
       {error ? (
-        <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+        <T variant="small" style={styles.error} accessibilityRole="alert">
           {error}
         </T>
       ) : hint ? (
@@ -60,3 +52,22 @@ export function Field({
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  field: { gap: space.xs },
+  input: {
+    minHeight: touch.min,
+    borderWidth: 1.5,
+    borderColor: colors.line,
+    borderRadius: radius.sm,
+    paddingHorizontal: space.md,
+    backgroundColor: colors.surface,
+    color: colors.ink,
+    fontFamily: fonts.text,
+    fontSize: 16,
+  },
+  inputMultiline: { minHeight: touch.min * 2.5, paddingVertical: space.sm, textAlignVertical: 'top' },
+  inputError: { borderColor: colors.danger },
+  inputFigures: { fontFamily: fonts.numbers },
+  error: { color: colors.danger },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { T } from './Text';
 
@@ -21,9 +21,9 @@ export function MultiChoice<V extends string>({
 }) {
   const toggle = (v: V) => onChange(values.includes(v) ? values.filter((x) => x !== v) : [...values, v]);
   return (
-    <View style={{ gap: space.xs }} testID={testID}>
+    <View style={styles.multiChoice} testID={testID}>
       {label ? <T variant="label">{label}</T> : null}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm }}>
+      <View style={styles.chips}>
         {options.map((o) => {
           const on = values.includes(o.value);
           return (
@@ -33,44 +33,53 @@ export function MultiChoice<V extends string>({
               aria-checked={on}
               onPress={() => toggle(o.value)}
               testID={testID ? `${testID}-${o.value}` : undefined}
-              style={{
-                minHeight: touch.min,
-                paddingHorizontal: space.md,
-                flexDirection: 'row',
-                alignItems: 'center',
-                gap: space.sm,
-                borderRadius: radius.sm,
-                borderWidth: 1.5,
-                borderColor: on ? colors.accent : colors.line,
-                backgroundColor: on ? colors.accentSoft : colors.surface,
-              }}
+              style={[styles.chip, on && styles.chipOn]}
             >
-              <View
-                style={{
-                  width: 18,
-                  height: 18,
-                  borderRadius: 4,
-                  borderWidth: 2,
-                  borderColor: on ? colors.accent : colors.line,
-                  backgroundColor: on ? colors.accent : colors.surface,
-                  alignItems: 'center',
-                  justifyContent: 'center',
-                }}
-              >
-                {on ? (
-                  <T style={{ color: colors.accentInk, fontSize: 12, lineHeight: 14, fontFamily: fonts.textBold }}>✓</T>
-                ) : null}
-              </View>
-              <T style={{ fontFamily: on ? fonts.textBold : fonts.text, color: colors.ink }}>{o.label}</T>
+              <View style={[styles.box, on && styles.boxOn]}>{on ? <T style={styles.tick}>✓</T> : null}</View>
+              <T style={on ? styles.chipTextOn : styles.chipText}>{o.label}</T>
             </Pressable>
           );
         })}
       </View>
       {error ? (
-        <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+        <T variant="small" style={styles.error} accessibilityRole="alert">
           {error}
         </T>
       ) : null}
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  multiChoice: { gap: space.xs },
+  chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  chip: {
+    minHeight: touch.min,
+    paddingHorizontal: space.md,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    borderRadius: radius.sm,
+    borderWidth: 1.5,
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+  },
+  /** A chip switched on. */
+  chipOn: { borderColor: colors.accent, backgroundColor: colors.accentSoft },
+  /** The tick box inside a chip. */
+  box: {
+    width: 18,
+    height: 18,
+    borderRadius: 4,
+    borderWidth: 2,
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  boxOn: { borderColor: colors.accent, backgroundColor: colors.accent },
+  tick: { color: colors.accentInk, fontSize: 12, lineHeight: 14, fontFamily: fonts.textBold },
+  chipText: { fontFamily: fonts.text, color: colors.ink },
+  chipTextOn: { fontFamily: fonts.textBold, color: colors.ink },
+  error: { color: colors.danger },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { colors, radius, space } from '../theme';
 import { T } from './Text';
 
@@ -17,31 +17,39 @@ export function Notice({
   children?: React.ReactNode;
   testID?: string;
 }) {
-  const palette = {
-    info: { bg: colors.accentSoft, fg: colors.ink, bar: colors.accent },
-    warning: { bg: colors.cautionSoft, fg: colors.caution, bar: colors.caution },
-    error: { bg: colors.dangerSoft, fg: colors.danger, bar: colors.danger },
-    ok: { bg: colors.okSoft, fg: colors.ok, bar: colors.ok },
-  }[tone];
   return (
     <View
       testID={testID}
       accessibilityRole={tone === 'error' ? 'alert' : undefined}
-      style={{
-        backgroundColor: palette.bg,
-        borderLeftWidth: 4,
-        borderLeftColor: palette.bar,
-        borderRadius: radius.sm,
-        padding: space.md,
-        gap: 2,
-      }}
+      style={[styles.notice, boxes[tone]]}
     >
       {title ? (
-        <T variant="subheading" style={{ color: palette.fg }}>
+        <T variant="subheading" style={texts[tone]}>
           {title}
         </T>
       ) : null}
-      {typeof children === 'string' ? <T style={{ color: palette.fg }}>{children}</T> : children}
+      {typeof children === 'string' ? <T style={texts[tone]}>{children}</T> : children}
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  /** The box; its colours come from the tone. */
+  notice: { borderLeftWidth: 4, borderRadius: radius.sm, padding: space.md, gap: 2 },
+});
+
+/** Each tone's box: background and the bar at its left. */
+const boxes = StyleSheet.create({
+  info: { backgroundColor: colors.accentSoft, borderLeftColor: colors.accent },
+  warning: { backgroundColor: colors.cautionSoft, borderLeftColor: colors.caution },
+  error: { backgroundColor: colors.dangerSoft, borderLeftColor: colors.danger },
+  ok: { backgroundColor: colors.okSoft, borderLeftColor: colors.ok },
+});
+
+/** Each tone's words. */
+const texts = StyleSheet.create({
+  info: { color: colors.ink },
+  warning: { color: colors.caution },
+  error: { color: colors.danger },
+  ok: { color: colors.ok },
+});

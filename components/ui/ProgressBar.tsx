@@ -1,5 +1,5 @@
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { colors, radius } from '../theme';
 
 export function ProgressBar({ value, testID }: { value: number; testID?: string }) {
@@ -9,9 +9,14 @@ export function ProgressBar({ value, testID }: { value: number; testID?: string 
       testID={testID}
       accessibilityRole="progressbar"
       accessibilityValue={{ min: 0, max: 100, now: Math.round(pct) }}
-      style={{ height: 12, borderRadius: radius.sm, backgroundColor: colors.lineSoft, overflow: 'hidden' }}
+      style={styles.track}
     >
-      <View style={{ width: `${pct}%`, height: '100%', backgroundColor: colors.accent }} />
+      <View style={[styles.fill, { width: `${pct}%` }]} />
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  track: { height: 12, borderRadius: radius.sm, backgroundColor: colors.lineSoft, overflow: 'hidden' },
+  fill: { height: '100%', backgroundColor: colors.accent },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { KeyboardAvoidingView, ScrollView, View } from 'react-native';
+import { KeyboardAvoidingView, ScrollView, StyleSheet, View } from 'react-native';
 import { useDocumentTitle } from '../../hooks/useDocumentTitle';
 import { colors, fonts, radius, space } from '../theme';
 import { T } from './Text';
@@ -16,14 +16,14 @@ export function PublicPage({
 }) {
   useDocumentTitle(title);
   return (
-    <KeyboardAvoidingView style={{ flex: 1, backgroundColor: colors.nav }}>
-      <ScrollView role="main" contentContainerStyle={{ flexGrow: 1, justifyContent: 'center', padding: space.lg }}>
-        <View style={{ width: '100%', maxWidth: 420, alignSelf: 'center', gap: space.xl }}>
-          <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
-            <View style={{ width: 14, height: 34, borderRadius: 7, backgroundColor: colors.accent }} />
-            <T style={{ fontFamily: fonts.textBold, fontSize: 30, color: colors.navInk }}>Emberline</T>
+    <KeyboardAvoidingView style={styles.page}>
+      <ScrollView role="main" contentContainerStyle={styles.scroll}>
+        <View style={styles.column}>
+          <View style={styles.wordmark}>
+            <View style={styles.mark} />
+            <T style={styles.wordmarkText}>Emberline</T>
           </View>
-          <View style={{ backgroundColor: colors.surface, borderRadius: radius.lg, padding: space.xl, gap: space.lg }}>
+          <View style={styles.card}>
             <T variant="heading" accessibilityRole="header">
               {title}
             </T>
@@ -35,3 +35,13 @@ export function PublicPage({
     </KeyboardAvoidingView>
   );
 }
+
+const styles = StyleSheet.create({
+  page: { flex: 1, backgroundColor: colors.nav },
+  scroll: { flexGrow: 1, justifyContent: 'center', padding: space.lg },
+  column: { width: '100%', maxWidth: 420, alignSelf: 'center', gap: space.xl },
+  wordmark: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  mark: { width: 14, height: 34, borderRadius: 7, backgroundColor: colors.accent },
+  wordmarkText: { fontFamily: fonts.textBold, fontSize: 30, color: colors.navInk },
+  card: { backgroundColor: colors.surface, borderRadius: radius.lg, padding: space.xl, gap: space.lg },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { FlatList, ScrollView, View } from 'react-native';
+import { FlatList, ScrollView, StyleSheet, View } from 'react-native';
 import { useLayout } from '../../hooks/useLayout';
 import { useDocumentTitle } from '../../hooks/useDocumentTitle';
 import { colors, space } from '../theme';
@@ -22,21 +22,14 @@ function ScreenHeading({
   wide,
 }: Pick<ScreenProps, 'title' | 'subtitle' | 'actions'> & { wide: boolean }) {
   return (
-    <View
-      style={{
-        flexDirection: wide ? 'row' : 'column',
-        justifyContent: 'space-between',
-        gap: space.md,
-        alignItems: wide ? 'flex-end' : 'stretch',
-      }}
-    >
-      <View style={{ gap: space.xs, flexShrink: 1 }}>
+    <View style={[styles.heading, wide && styles.headingWide]}>
+      <View style={styles.titles}>
         <T variant="title" accessibilityRole="header">
           {title}
         </T>
         {subtitle ? <T variant="small">{subtitle}</T> : null}
       </View>
-      {actions ? <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>{actions}</View> : null}
+      {actions ? <View style={styles.actions}>{actions}</View> : null}
     </View>
   );
 }
@@ -51,10 +44,10 @@ export function Screen({ title, subtitle, actions, children, maxWidth = 1200, do
     <ScrollView
       role="main"
       focusable
-      style={{ flex: 1, backgroundColor: colors.canvas }}
-      contentContainerStyle={{ padding: wide ? space.xxl : space.lg, paddingBottom: 96 }}
+      style={styles.page}
+      contentContainerStyle={[styles.pageContent, wide && styles.pageContentWide]}
     >
-      <View style={{ width: '100%', maxWidth, alignSelf: 'center', gap: space.lg }}>
+      <View style={[styles.column, styles.columnStack, { maxWidth }]}>
         <ScreenHeading title={title} subtitle={subtitle} actions={actions} wide={wide} />
         {children}
       </View>
@@ -95,33 +88,50 @@ export function ListScreen<Item>({
 }) {
   const { wide } = useLayout();
   useDocumentTitle(documentTitle ?? title);
-  const column = { width: '100%', maxWidth, alignSelf: 'center' } as const;
+  const column = [styles.column, { maxWidth }];
   const grid = numColumns > 1;
   return (
     <FlatList
       // FlatList cannot change its column count in place: a new count is a new list.
       key={`columns-${numColumns}`}
       numColumns={numColumns}
-      columnWrapperStyle={grid ? [column, { gap: space.md }] : undefined}
+      columnWrapperStyle={grid ? [column, styles.gridRow] : undefined}
       role="main"
       focusable
-      style={{ flex: 1, backgroundColor: colors.canvas }}
-      contentContainerStyle={{ padding: wide ? space.xxl : space.lg, paddingBottom: 96 }}
+      style={styles.page}
+      contentContainerStyle={[styles.pageContent, wide && styles.pageContentWide]}
       testID={listTestID}
       data={data}
       // Rows may draw differently by width and by position (the first and last close a card): redraw on either change.
       extraData={`${wide}:${data.length}`}
       keyExtractor={keyExtractor}
-      renderItem={({ item, index }) => <View style={grid ? { flex: 1 } : column}>{renderItem(item, index)}</View>}
+      renderItem={({ item, index }) => <View style={grid ? styles.gridCell : column}>{renderItem(item, index)}</View>}
       initialNumToRender={initialNumToRender}
       maxToRenderPerBatch={initialNumToRender}
       ListHeaderComponent={
-        <View style={[column, { gap: space.lg }]}>
+        <View style={[column, styles.columnStack]}>
           <ScreenHeading title={title} subtitle={subtitle} actions={actions} wide={wide} />
           {children}
         </View>
       }
-      ListFooterComponent={footer ? <View style={[column, { paddingTop: space.lg }]}>{footer}</View> : null}
+      ListFooterComponent={footer ? <View style={[column, styles.footer]}>{footer}</View> : null}
     />
   );
 }
+
+const styles = StyleSheet.create({
+  /** The title and the actions: stacked on a phone, side by side on a wide screen. */
+  heading: { flexDirection: 'column', justifyContent: 'space-between', gap: space.md, alignItems: 'stretch' },
+  headingWide: { flexDirection: 'row', alignItems: 'flex-end' },
+  titles: { gap: space.xs, flexShrink: 1 },
+  actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  page: { flex: 1, backgroundColor: colors.canvas },
+  pageContent: { padding: space.lg, paddingBottom: 96 },
+  pageContentWide: { padding: space.xxl, paddingBottom: 96 },
+  /** The page column, centred; its maximum width comes from the caller. */
+  column: { width: '100%', alignSelf: 'center' },
+  columnStack: { gap: space.lg },
+  gridRow: { gap: space.md },
+  gridCell: { flex: 1 },
+  footer: { paddingTop: space.lg },
+});

@@ -1,5 +1,5 @@
 import React from 'react';
-import { ActivityIndicator, View } from 'react-native';
+import { ActivityIndicator, StyleSheet, View } from 'react-native';
 import { ApiClientError } from '../../hooks/api';
 import { colors, radius, space } from '../theme';
 import { Notice } from './Notice';
@@ -8,10 +8,7 @@ import { T } from './Text';
 /** A loading line: what is being loaded. */
 export function Loading({ what, testID }: { what: string; testID?: string }) {
   return (
-    <View
-      testID={testID ?? 'loading'}
-      style={{ flexDirection: 'row', gap: space.sm, alignItems: 'center', paddingVertical: space.sm }}
-    >
+    <View testID={testID ?? 'loading'} style={styles.loading}>
       <ActivityIndicator color={colors.accent} />
       <T variant="small">{what}</T>
     </View>
@@ -21,18 +18,7 @@ export function Loading({ what, testID }: { what: string; testID?: string }) {
 /** An empty list: says what would appear here, and why there is nothing. */
 export function Empty({ title, children, testID }: { title: string; children?: React.ReactNode; testID?: string }) {
   return (
-    <View
-      testID={testID ?? 'empty'}
-      style={{
-        borderWidth: 1,
-        borderStyle: 'dashed',
-        borderColor: colors.line,
-        borderRadius: radius.lg,
-        padding: space.lg,
-        gap: space.xs,
-        backgroundColor: colors.surface,
-      }}
-    >
+    <View testID={testID ?? 'empty'} style={styles.empty}>
       <T variant="subheading">{title}</T>
       {typeof children === 'string' ? <T variant="small">{children}</T> : children}
     </View>
@@ -53,3 +39,16 @@ export function QueryError({ error, title, testID }: { error: unknown; title?: s
     </Notice>
   );
 }
+
+const styles = StyleSheet.create({
+  loading: { flexDirection: 'row', gap: space.sm, alignItems: 'center', paddingVertical: space.sm },
+  empty: {
+    borderWidth: 1,
+    borderStyle: 'dashed',
+    borderColor: colors.line,
+    borderRadius: radius.lg,
+    padding: space.lg,
+    gap: space.xs,
+    backgroundColor: colors.surface,
+  },
+});

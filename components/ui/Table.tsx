@@ -1,7 +1,7 @@
 import type { AppHref } from '../nav';
 import { Link } from 'expo-router';
 import React from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { colors, fonts, radius, space, touch } from '../theme';
 import { T } from './Text';
 
@@ -25,10 +25,10 @@ export interface TableRow {
 }
 
 function Cell({ value, column }: { value: React.ReactNode; column: TableColumn }) {
-  const style = { flex: column.flex ?? 1, paddingRight: space.sm };
+  const style = [styles.cell, { flex: column.flex ?? 1 }];
   if (value === null || value === undefined || value === '') {
     return (
-      <T variant="small" style={[style, column.numeric ? { textAlign: 'right' } : null]}>
+      <T variant="small" style={[style, column.numeric && styles.right]}>
         —
       </T>
     );
@@ -38,9 +38,9 @@ function Cell({ value, column }: { value: React.ReactNode; column: TableColumn }
       <T
         style={[
           style,
-          { fontSize: 15 },
-          column.numeric || column.mono ? { fontFamily: fonts.numbers, fontSize: 14 } : null,
-          column.numeric ? { textAlign: 'right' } : null,
+          styles.cellText,
+          (column.numeric || column.mono) && styles.cellFigures,
+          column.numeric && styles.right,
         ]}
       >
         {String(value)}
@@ -53,20 +53,12 @@ function Cell({ value, column }: { value: React.ReactNode; column: TableColumn }
 /** A table's header row (column names). */
 export function TableHead({ columns }: { columns: TableColumn[] }) {
   return (
-    <View
-      style={{
-        flexDirection: 'row',
-        paddingHorizontal: space.lg,
-        paddingVertical: space.md,
-        borderBottomWidth: 1,
-        borderBottomColor: colors.line,
-      }}
-    >
+    <View style={styles.head}>
       {columns.map((c) => (
         <T
           key={c.key}
           variant="label"
-          style={{ flex: c.flex ?? 1, paddingRight: space.sm, textAlign: c.numeric ? 'right' : 'left' }}
+          style={[styles.headCell, { flex: c.flex ?? 1, textAlign: c.numeric ? 'right' : 'left' }]}
         >
           {c.label.toUpperCase()}
         </T>
@@ -78,25 +70,16 @@ export function TableHead({ columns }: { columns: TableColumn[] }) {
 /** One row of a table: a link when it has somewhere to go. */
 export function TableRowView({ row, columns }: { row: TableRow; columns: TableColumn[] }) {
   const content = columns.map((c) => <Cell key={c.key} value={row.cells[c.key]} column={c} />);
-  const rowStyle = {
-    flexDirection: 'row' as const,
-    minHeight: touch.min,
-    alignItems: 'center' as const,
-    paddingHorizontal: space.lg,
-    paddingVertical: space.sm,
-    borderBottomWidth: 1,
-    borderBottomColor: colors.lineSoft,
-  };
   if (!row.href) {
     return (
-      <View testID={row.testID} style={rowStyle}>
+      <View testID={row.testID} style={styles.row}>
         {content}
       </View>
     );
   }
   return (
     <Link href={row.href} asChild>
-      <Pressable accessibilityRole="link" testID={row.testID} style={rowStyle}>
+      <Pressable accessibilityRole="link" testID={row.testID} style={styles.row}>
         {content}
       </Pressable>
     </Link>
@@ -124,18 +107,7 @@ export function tableRowFrame(index: number, count: number) {
 /** A table head as the last thing above a virtualized list of its rows (see tableRowFrame). */
 export function TableTop({ columns, testID }: { columns: TableColumn[]; testID?: string }) {
   return (
-    <View
-      testID={testID}
-      style={{
-        backgroundColor: colors.surface,
-        borderTopLeftRadius: radius.lg,
-        borderTopRightRadius: radius.lg,
-        borderTopWidth: 1,
-        borderLeftWidth: 1,
-        borderRightWidth: 1,
-        borderColor: colors.lineSoft,
-      }}
-    >
+    <View testID={testID} style={styles.top}>
       <TableHead columns={columns} />
     </View>
   );
@@ -154,15 +126,49 @@ export function Table({
   empty?: React.ReactNode;
 }) {
   return (
-    <View
-      testID={testID}
-      style={{ backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft }}
-    >
+    <View testID={testID} style={styles.table}>
       <TableHead columns={columns} />
-      {rows.length === 0 && empty ? <View style={{ padding: space.lg }}>{empty}</View> : null}
+      {rows.length === 0 && empty ? <View style={styles.empty}>{empty}</View> : null}
       {rows.map((r) => (
         <TableRowView key={r.key} row={r} columns={columns} />
       ))}
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  cell: { paddingRight: space.sm },
+  /** A cell's words or numbers (numbers and codes in tabular figures). */
+  cellText: { fontSize: 15 },
+  cellFigures: { fontFamily: fonts.numbers, fontSize: 14 },
+  right: { textAlign: 'right' },
+  /** One row; the same plain entry whether a View or the child of a `Link asChild`. */
+  row: {
+    flexDirection: 'row',
+    minHeight: touch.min,
+    alignItems: 'center',
+    paddingHorizontal: space.lg,
+    paddingVertical: space.sm,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  head: {
+    flexDirection: 'row',
+    paddingHorizontal: space.lg,
+    paddingVertical: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.line,
+  },
+  headCell: { paddingRight: space.sm },
+  top: {
+    backgroundColor: colors.surface,
+    borderTopLeftRadius: radius.lg,
+    borderTopRightRadius: radius.lg,
+    borderTopWidth: 1,
+    borderLeftWidth: 1,
+    borderRightWidth: 1,
+    borderColor: colors.lineSoft,
+  },
+  table: { backgroundColor: colors.surface, borderRadius: radius.lg, borderWidth: 1, borderColor: colors.lineSoft },
+  empty: { padding: space.lg },
+});

@@ -1,5 +1,6 @@
 import { Link, useLocalSearchParams } from 'expo-router';
 import React from 'react';
+import { StyleSheet } from 'react-native';
 import { attentionListSchema } from '../../../shared/schemas/attention';
 import { AttentionListScreen } from '../../../components/screens/AttentionListScreen';
 import { colors } from '../../../components/theme';
@@ -12,7 +13,7 @@ export default function AttentionListRoute() {
     return (
       <Screen title="No such list">
         <Notice tone="error">There is no list called “{String(list)}”.</Notice>
-        <Link href="/attention" style={{ color: colors.accent, fontSize: 16 }}>
+        <Link href="/attention" style={styles.link}>
           ← All lists
         </Link>
       </Screen>
@@ -20,3 +21,7 @@ export default function AttentionListRoute() {
   }
   return <AttentionListScreen key={parsed.data} list={parsed.data} />;
 }
+
+const styles = StyleSheet.create({
+  link: { color: colors.accent, fontSize: 16 },
+});
