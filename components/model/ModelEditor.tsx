@@ -12,7 +12,7 @@ import type { ModelInput, ModelIssue } from '../../shared/schemas/model';
 import type { ModelWarning } from '../../shared/schemas/modelWarnings';
 import { useCallback, useMemo, useState, type ReactNode } from 'react';
 import { useLayout } from '../../hooks/useLayout';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { space } from '../theme';
 import { CollectionSection } from './editor/CollectionSection';
 import { GeneralSection } from './editor/GeneralSection';
@@ -135,7 +135,7 @@ export function ModelEditor({
   const showUndo = undo !== null && undo.after === model;
 
   return (
-    <View style={{ gap: space.lg }} testID="model-editor">
+    <View style={styles.editor} testID="model-editor">
       <IssueSummary grouped={grouped} warnings={groupedWarnings} model={model} onJump={jump} />
       <SectionTabs
         section={section}
@@ -200,16 +200,24 @@ function DeviceLayout({ wide, panel, children }: { wide: boolean; panel: ReactNo
   if (!panel) return <>{children}</>;
   if (!wide) {
     return (
-      <View style={{ gap: space.lg }}>
+      <View style={styles.stacked}>
         {panel}
         {children}
       </View>
     );
   }
   return (
-    <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.lg }}>
-      <View style={{ flex: 1, minWidth: 0 }}>{children}</View>
-      <View style={{ width: 420, flexShrink: 0 }}>{panel}</View>
+    <View style={styles.beside}>
+      <View style={styles.besideMain}>{children}</View>
+      <View style={styles.besidePanel}>{panel}</View>
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  editor: { gap: space.lg },
+  stacked: { gap: space.lg },
+  beside: { flexDirection: 'row', alignItems: 'flex-start', gap: space.lg },
+  besideMain: { flex: 1, minWidth: 0 },
+  besidePanel: { width: 420, flexShrink: 0 },
+});

@@ -3,7 +3,7 @@
  * marked where they sit. Connector lines are plain Views, so rows wrap and stay readable on a 390 px phone.
  */
 import React, { memo, useCallback, useDeferredValue, useLayoutEffect, useMemo, useRef } from 'react';
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import Svg, { Circle, Line, Path, Rect } from 'react-native-svg';
 import type { ModelInput } from '../../shared/schemas/model';
 import { colors, fonts, radius, space } from '../theme';
@@ -46,7 +46,7 @@ export function SystemTree({ model, onSelect }: SystemTreeProps) {
     );
   }
   return (
-    <View testID="system-tree" style={{ gap: 0 }}>
+    <View testID="system-tree" style={styles.tree}>
       {rows.map(({ row, sig }) => (
         <TreeRowView key={row.key} row={row} sig={sig} onSelect={select} />
       ))}
@@ -120,42 +120,13 @@ function Connectors({ row }: { row: TreeRow }) {
   return (
     <>
       {row.guides.map((continues, k) => (
-        <View key={k} style={{ width: INDENT }}>
-          {continues ? (
-            <View
-              style={{
-                position: 'absolute',
-                left: INDENT / 2 - LINE / 2,
-                top: 0,
-                bottom: 0,
-                width: LINE,
-                backgroundColor: LINE_COLOR,
-              }}
-            />
-          ) : null}
+        <View key={k} style={styles.indent}>
+          {continues ? <View style={styles.guide} /> : null}
         </View>
       ))}
-      <View style={{ width: INDENT }}>
-        <View
-          style={{
-            position: 'absolute',
-            left: INDENT / 2 - LINE / 2,
-            top: 0,
-            width: LINE,
-            backgroundColor: LINE_COLOR,
-            ...(row.last ? { height: ANCHOR + LINE / 2 } : { bottom: 0 }),
-          }}
-        />
-        <View
-          style={{
-            position: 'absolute',
-            left: INDENT / 2,
-            right: 0,
-            top: ANCHOR - LINE / 2,
-            height: LINE,
-            backgroundColor: LINE_COLOR,
-          }}
-        />
+      <View style={styles.indent}>
+        <View style={[styles.elbowDown, row.last ? styles.elbowDownLast : styles.elbowDownOn]} />
+        <View style={styles.elbowAcross} />
       </View>
     </>
   );
@@ -177,19 +148,18 @@ function Tap({
   testID?: string;
   shrink?: boolean;
 }) {
-  if (!onSelect || !target)
-    return shrink ? <View style={{ maxWidth: '100%', flexShrink: 1 }}>{children}</View> : <>{children}</>;
+  if (!onSelect || !target) return shrink ? <View style={styles.shrink}>{children}</View> : <>{children}</>;
   return (
     <Pressable
       accessibilityRole="link"
       accessibilityLabel={label}
       onPress={() => onSelect({ collection: target.collection, index: target.index })}
       testID={testID}
-      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => ({
-        borderRadius: radius.sm,
-        backgroundColor: pressed || hovered ? colors.accentSoft : 'transparent',
-        ...(shrink ? { maxWidth: '100%' as const, flexShrink: 1 } : {}),
-      })}
+      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => [
+        styles.tap,
+        pressed || hovered ? styles.tapActive : null,
+        shrink ? styles.shrink : null,
+      ]}
     >
       {children}
     </Pressable>
@@ -201,21 +171,9 @@ function DeviceChips({ devices, onSelect }: { devices: DeviceMarker[]; onSelect?
     <>
       {devices.map((d) => (
         <Tap key={`${d.index}`} target={d} onSelect={onSelect} label={`Device ${d.id}`} testID={`tree-device-${d.id}`}>
-          <View
-            style={{
-              flexDirection: 'row',
-              alignItems: 'center',
-              gap: 4,
-              height: 22,
-              paddingHorizontal: 6,
-              borderRadius: 4,
-              borderWidth: 1,
-              borderColor: colors.line,
-              backgroundColor: colors.surface,
-            }}
-          >
-            <View style={{ width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1 }} />
-            <T style={{ fontSize: 12, lineHeight: 16, fontFamily: fonts.textMedium, color: colors.inkSoft }}>{d.id}</T>
+          <View style={styles.chip}>
+            <View style={styles.deviceMark} />
+            <T style={styles.chipText}>{d.id}</T>
           </View>
         </Tap>
       ))}
@@ -225,42 +183,20 @@ function DeviceChips({ devices, onSelect }: { devices: DeviceMarker[]; onSelect?
 
 /** Second-line content of a row: indented past the connector stub that runs down to its children. */
 function Detail({ children }: { children: React.ReactNode }) {
-  return (
-    <View
-      style={{
-        marginLeft: INDENT + space.sm,
-        flexDirection: 'row',
-        flexWrap: 'wrap',
-        alignItems: 'center',
-        columnGap: 6,
-        rowGap: 4,
-      }}
-    >
-      {children}
-    </View>
-  );
+  return <View style={styles.detail}>{children}</View>;
 }
 
 const TreeRowView = memo(
   function TreeRowView({ row, onSelect }: { row: TreeRow; sig: string; onSelect?: SystemTreeProps['onSelect'] }) {
     if (row.kind === 'heading') {
       return (
-        <View
-          style={{
-            paddingTop: space.lg,
-            paddingBottom: space.xs,
-            borderTopWidth: 1,
-            borderTopColor: colors.lineSoft,
-            marginTop: space.sm,
-          }}
-        >
+        <View style={styles.heading}>
           <T
             variant="label"
-            style={{
-              textTransform: 'uppercase',
-              color:
-                row.key === 'heading:islands' || row.key === 'heading:unconnected' ? colors.danger : colors.inkSoft,
-            }}
+            style={[
+              styles.headingText,
+              row.key === 'heading:islands' || row.key === 'heading:unconnected' ? styles.headingTextProblem : null,
+            ]}
           >
             {row.text}
           </T>
@@ -269,23 +205,12 @@ const TreeRowView = memo(
     }
     return (
       <View
-        style={{ flexDirection: 'row', marginTop: row.depth === 0 && row.kind === 'source' ? space.xs : 0 }}
+        style={[styles.row, row.depth === 0 && row.kind === 'source' ? styles.rowSource : null]}
         testID={`tree-${row.key}`}
       >
         <Connectors row={row} />
-        <View style={{ flex: 1, minWidth: 0, paddingTop: 6, paddingBottom: 6, gap: 3 }}>
-          {row.hasChildren ? (
-            <View
-              style={{
-                position: 'absolute',
-                left: INDENT / 2 - LINE / 2,
-                top: ANCHOR + 10,
-                bottom: 0,
-                width: LINE,
-                backgroundColor: LINE_COLOR,
-              }}
-            />
-          ) : null}
+        <View style={styles.rowBody}>
+          {row.hasChildren ? <View style={styles.stub} /> : null}
           <RowContent row={row} onSelect={onSelect} />
         </View>
       </View>
@@ -296,18 +221,15 @@ const TreeRowView = memo(
 
 function Head({ glyph, children }: { glyph: GlyphKind; children: React.ReactNode }) {
   return (
-    <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.sm, minHeight: 20 }}>
+    <View style={styles.head}>
       {/* The glyph repeats the kind the name already says ("Motor …"): hidden from screen readers. */}
       <View aria-hidden importantForAccessibility="no-hide-descendants">
         <Glyph kind={glyph} />
       </View>
-      <T style={{ flex: 1, fontSize: 15, lineHeight: 20 }}>{children}</T>
+      <T style={styles.headText}>{children}</T>
     </View>
   );
 }
-
-const idStyle = { fontFamily: fonts.textBold, fontSize: 15, color: colors.ink } as const;
-const mutedStyle = { fontSize: 14, color: colors.muted } as const;
 
 function RowContent({
   row,
@@ -327,14 +249,14 @@ function RowContent({
             testID={`tree-select-${row.key}`}
           >
             <Head glyph={row.label === 'GEN' ? 'generator' : 'utility'}>
-              <T style={idStyle}>{row.id}</T>
-              <T style={mutedStyle}>{`  ${row.text}`}</T>
+              <T style={styles.id}>{row.id}</T>
+              <T style={styles.muted}>{`  ${row.text}`}</T>
             </Head>
           </Tap>
           {row.devices.length || row.note ? (
             <Detail>
               <DeviceChips devices={row.devices} onSelect={onSelect} />
-              {row.note ? <T style={{ fontSize: 13, color: colors.danger }}>{row.note}</T> : null}
+              {row.note ? <T style={styles.note}>{row.note}</T> : null}
             </Detail>
           ) : null}
         </>
@@ -349,9 +271,9 @@ function RowContent({
             testID={`tree-select-${row.key}`}
           >
             <Head glyph="bus">
-              <T style={idStyle}>{row.id}</T>
-              <T style={{ fontFamily: fonts.numbers, fontSize: 14, color: colors.accent }}>{`  ${row.kv}`}</T>
-              {row.name ? <T style={mutedStyle}>{`  ${row.name}`}</T> : null}
+              <T style={styles.id}>{row.id}</T>
+              <T style={styles.kv}>{`  ${row.kv}`}</T>
+              {row.name ? <T style={styles.muted}>{`  ${row.name}`}</T> : null}
             </Head>
           </Tap>
           {row.via ? (
@@ -364,9 +286,9 @@ function RowContent({
                 testID={`tree-select-${row.via.collection}[${row.via.index}]`}
                 shrink
               >
-                <T style={{ fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 }}>
-                  <T style={{ fontSize: 13, color: colors.muted }}>via </T>
-                  <T style={{ fontSize: 13, fontFamily: fonts.textBold, color: colors.inkSoft }}>{row.via.id}</T>
+                <T style={styles.via}>
+                  <T style={styles.viaWord}>via </T>
+                  <T style={styles.viaId}>{row.via.id}</T>
                   {`  ${row.via.text}`}
                 </T>
               </Tap>
@@ -375,7 +297,7 @@ function RowContent({
           ) : null}
           {row.notes.map((n, i) => (
             <Detail key={i}>
-              <T style={{ fontSize: 13, lineHeight: 18, color: colors.caution }}>{`↺ ${n}`}</T>
+              <T style={styles.loopNote}>{`↺ ${n}`}</T>
             </Detail>
           ))}
         </>
@@ -384,8 +306,8 @@ function RowContent({
       return (
         <Tap target={row.ref} onSelect={onSelect} label={`Bus ${row.id} ${row.text}`}>
           <Head glyph="bus-seen">
-            <T style={{ ...idStyle, color: colors.inkSoft }}>{row.id}</T>
-            <T style={mutedStyle}>{`  ${row.text}`}</T>
+            <T style={[styles.id, styles.idSeen]}>{row.id}</T>
+            <T style={styles.muted}>{`  ${row.text}`}</T>
           </Head>
         </Tap>
       );
@@ -400,8 +322,8 @@ function RowContent({
             testID={`tree-select-${row.key}`}
           >
             <Head glyph={row.kind === 'motor' ? 'motor' : 'tie'}>
-              <T style={{ ...idStyle, fontFamily: fonts.textMedium }}>{row.id}</T>
-              <T style={mutedStyle}>{`  ${row.text}`}</T>
+              <T style={[styles.id, styles.idMedium]}>{row.id}</T>
+              <T style={styles.muted}>{`  ${row.text}`}</T>
             </Head>
           </Tap>
           {row.devices.length ? (
@@ -415,8 +337,8 @@ function RowContent({
       return (
         <Tap target={row.ref} onSelect={onSelect} label={`${row.id} ${row.text}`} testID={`tree-select-${row.key}`}>
           <Head glyph="missing">
-            <T style={idStyle}>{row.id}</T>
-            <T style={{ fontSize: 14, color: colors.danger }}>{`  ${row.text}`}</T>
+            <T style={styles.id}>{row.id}</T>
+            <T style={styles.unconnected}>{`  ${row.text}`}</T>
           </Head>
         </Tap>
       );
@@ -425,28 +347,13 @@ function RowContent({
 
 function Legend() {
   const item = (glyph: GlyphKind | 'device', text: string) => (
-    <View key={text} style={{ flexDirection: 'row', alignItems: 'center', gap: 4 }}>
-      {glyph === 'device' ? (
-        <View style={{ width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1, marginHorizontal: 4 }} />
-      ) : (
-        <Glyph kind={glyph} />
-      )}
-      <T style={{ fontSize: 12, color: colors.muted }}>{text}</T>
+    <View key={text} style={styles.legendItem}>
+      {glyph === 'device' ? <View style={[styles.deviceMark, styles.legendDeviceMark]} /> : <Glyph kind={glyph} />}
+      <T style={styles.legendText}>{text}</T>
     </View>
   );
   return (
-    <View
-      style={{
-        flexDirection: 'row',
-        flexWrap: 'wrap',
-        columnGap: space.md,
-        rowGap: 4,
-        marginTop: space.md,
-        paddingTop: space.sm,
-        borderTopWidth: 1,
-        borderTopColor: colors.lineSoft,
-      }}
-    >
+    <View style={styles.legend}>
       {item('utility', 'Utility')}
       {item('generator', 'Generator')}
       {item('bus', 'Bus')}
@@ -456,3 +363,104 @@ function Legend() {
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  tree: { gap: 0 },
+  indent: { width: INDENT },
+  /** Connectors: a guide down past the row for each ancestor that continues, then the elbow to the row. */
+  guide: {
+    position: 'absolute',
+    left: INDENT / 2 - LINE / 2,
+    top: 0,
+    bottom: 0,
+    width: LINE,
+    backgroundColor: LINE_COLOR,
+  },
+  elbowDown: { position: 'absolute', left: INDENT / 2 - LINE / 2, top: 0, width: LINE, backgroundColor: LINE_COLOR },
+  /** The last child: the line stops at the elbow. */
+  elbowDownLast: { height: ANCHOR + LINE / 2 },
+  elbowDownOn: { bottom: 0 },
+  elbowAcross: {
+    position: 'absolute',
+    left: INDENT / 2,
+    right: 0,
+    top: ANCHOR - LINE / 2,
+    height: LINE,
+    backgroundColor: LINE_COLOR,
+  },
+  shrink: { maxWidth: '100%', flexShrink: 1 },
+  tap: { borderRadius: radius.sm, backgroundColor: 'transparent' },
+  /** Pressed or hovered. */
+  tapActive: { backgroundColor: colors.accentSoft },
+  chip: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.xs,
+    height: 22,
+    paddingHorizontal: 6,
+    borderRadius: 4,
+    borderWidth: 1,
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+  },
+  deviceMark: { width: 8, height: 8, backgroundColor: colors.inkSoft, borderRadius: 1 },
+  chipText: { fontSize: 12, lineHeight: 16, fontFamily: fonts.textMedium, color: colors.inkSoft },
+  detail: {
+    marginLeft: INDENT + space.sm,
+    flexDirection: 'row',
+    flexWrap: 'wrap',
+    alignItems: 'center',
+    columnGap: 6,
+    rowGap: space.xs,
+  },
+  heading: {
+    paddingTop: space.lg,
+    paddingBottom: space.xs,
+    borderTopWidth: 1,
+    borderTopColor: colors.lineSoft,
+    marginTop: space.sm,
+  },
+  headingText: { textTransform: 'uppercase', color: colors.inkSoft },
+  /** Islands and unconnected elements. */
+  headingTextProblem: { color: colors.danger },
+  row: { flexDirection: 'row', marginTop: 0 },
+  /** A source at the top level: a little space above it. */
+  rowSource: { marginTop: space.xs },
+  rowBody: { flex: 1, minWidth: 0, paddingTop: 6, paddingBottom: 6, gap: 3 },
+  /** The line from a row down to its children. */
+  stub: {
+    position: 'absolute',
+    left: INDENT / 2 - LINE / 2,
+    top: ANCHOR + 10,
+    bottom: 0,
+    width: LINE,
+    backgroundColor: LINE_COLOR,
+  },
+  head: { flexDirection: 'row', alignItems: 'flex-start', gap: space.sm, minHeight: 20 },
+  headText: { flex: 1, fontSize: 15, lineHeight: 20 },
+  id: { fontFamily: fonts.textBold, fontSize: 15, color: colors.ink },
+  /** A bus met again (shown in full once). */
+  idSeen: { color: colors.inkSoft },
+  idMedium: { fontFamily: fonts.textMedium },
+  muted: { fontSize: 14, color: colors.muted },
+  note: { fontSize: 13, color: colors.danger },
+  kv: { fontFamily: fonts.numbers, fontSize: 14, color: colors.accent },
+  via: { fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 },
+  viaWord: { fontSize: 13, color: colors.muted },
+  viaId: { fontSize: 13, fontFamily: fonts.textBold, color: colors.inkSoft },
+  loopNote: { fontSize: 13, lineHeight: 18, color: colors.caution },
+  unconnected: { fontSize: 14, color: colors.danger },
+  legend: {
+    flexDirection: 'row',
+    flexWrap: 'wrap',
+    columnGap: space.md,
+    rowGap: space.xs,
+    marginTop: space.md,
+    paddingTop: space.sm,
+    borderTopWidth: 1,
+    borderTopColor: colors.lineSoft,
+  },
+  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  legendDeviceMark: { marginHorizontal: space.xs },
+  legendText: { fontSize: 12, color: colors.muted },
+});

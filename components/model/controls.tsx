@@ -4,7 +4,7 @@
  * and report upward, so a keystroke re-renders one row, not the editor.
  */
 import React, { memo, useEffect, useMemo, useRef, useState } from 'react';
-import { Modal, Platform, Pressable, ScrollView, TextInput, View, type ViewStyle } from 'react-native';
+import { Modal, Platform, Pressable, ScrollView, StyleSheet, TextInput, View, type ViewStyle } from 'react-native';
 import Svg, { Circle, Path, Rect } from 'react-native-svg';
 import { useLayout } from '../../hooks/useLayout';
 import { useUnitSystem } from '../../hooks/unitSystem';
@@ -105,15 +105,12 @@ export function IconButton({
       disabled={disabled}
       testID={testID}
       {...(Platform.OS === 'web' ? ({ title: label } as object) : {})}
-      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => ({
-        width: size,
-        height: size,
-        borderRadius: radius.sm,
-        alignItems: 'center',
-        justifyContent: 'center',
-        backgroundColor: pressed || hovered ? (tone === 'danger' ? colors.dangerSoft : colors.lineSoft) : 'transparent',
-        opacity: disabled ? 0.4 : 1,
-      })}
+      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => [
+        styles.iconButton,
+        { width: size, height: size },
+        pressed || hovered ? (tone === 'danger' ? styles.iconButtonDangerActive : styles.iconButtonActive) : null,
+        disabled ? styles.iconButtonDisabled : null,
+      ]}
     >
       <Icon name={icon} color={color ?? (tone === 'danger' ? colors.danger : colors.inkSoft)} />
     </Pressable>
@@ -211,13 +208,10 @@ export const TextCell = memo(function TextCell({
       autoCorrect={false}
       style={[
         boxStyle(size, invalid, editable),
-        {
-          color: colors.ink,
-          fontFamily: mono ? fonts.textMedium : fonts.text,
-          fontSize: size === 'cell' ? 15 : 16,
-          minWidth: 0,
-          fontStyle: text === '' ? 'italic' : 'normal',
-        },
+        styles.textInput,
+        size === 'cell' ? styles.inputCell : null,
+        mono ? styles.textInputMono : null,
+        text === '' ? styles.inputEmpty : null,
         style as object,
       ]}
     />
@@ -287,14 +281,9 @@ export const NumCell = memo(function NumCell({
       }}
       style={[
         boxStyle(size, invalid || bad, editable),
-        {
-          color: colors.ink,
-          fontFamily: text === '' ? fonts.text : fonts.numbers,
-          fontStyle: text === '' ? 'italic' : 'normal',
-          fontSize: size === 'cell' ? 15 : 16,
-          textAlign: size === 'cell' ? 'right' : 'left',
-          minWidth: 0,
-        },
+        styles.numInput,
+        size === 'cell' ? [styles.inputCell, styles.numInputCell] : null,
+        text === '' ? [styles.inputEmpty, styles.numInputEmpty] : null,
         style as object,
       ]}
     />
@@ -330,18 +319,7 @@ export function SegCell<V extends string>({
       accessibilityRole="radiogroup"
       accessibilityLabel={accessibilityLabel}
       testID={testID}
-      style={[
-        {
-          flexDirection: 'row',
-          height: HEIGHT[size],
-          borderWidth: 1,
-          borderColor: invalid ? colors.danger : colors.line,
-          borderRadius: radius.sm,
-          overflow: 'hidden',
-          backgroundColor: colors.surface,
-        },
-        style,
-      ]}
+      style={[styles.segments, { height: HEIGHT[size] }, invalid ? styles.segmentsInvalid : null, style]}
     >
       {options.map((o, i) => {
         const on = o.value === value;
@@ -354,23 +332,20 @@ export function SegCell<V extends string>({
             disabled={!editable}
             testID={testID ? `${testID}-${o.value}` : undefined}
             onPress={() => !on && onChange(o.value)}
-            style={{
-              flex: 1,
-              alignItems: 'center',
-              justifyContent: 'center',
-              paddingHorizontal: size === 'cell' ? 4 : space.sm,
-              backgroundColor: on ? colors.accentSoft : 'transparent',
-              borderLeftWidth: i === 0 ? 0 : 1,
-              borderLeftColor: colors.line,
-            }}
+            style={[
+              styles.segment,
+              size === 'cell' ? styles.segmentCell : null,
+              on ? styles.segmentOn : null,
+              i === 0 ? styles.segmentFirst : null,
+            ]}
           >
             <T
               numberOfLines={1}
-              style={{
-                fontSize: size === 'cell' ? 14 : 15,
-                fontFamily: on ? fonts.textBold : fonts.text,
-                color: on ? colors.accent : editable ? colors.inkSoft : colors.muted,
-              }}
+              style={[
+                styles.segmentText,
+                size === 'cell' ? styles.segmentTextCell : null,
+                on ? styles.segmentTextOn : editable ? null : styles.segmentTextDisabled,
+              ]}
             >
               {o.label}
             </T>
@@ -406,23 +381,12 @@ export function CheckCell({
       disabled={!editable}
       testID={testID}
       onPress={() => onChange(!value)}
-      style={{ height: HEIGHT[size], flexDirection: 'row', alignItems: 'center', gap: space.sm }}
+      style={[styles.check, { height: HEIGHT[size] }]}
     >
-      <View
-        style={{
-          width: 22,
-          height: 22,
-          borderRadius: 5,
-          borderWidth: 1.5,
-          borderColor: value ? colors.accent : colors.line,
-          backgroundColor: value ? colors.accent : colors.surface,
-          alignItems: 'center',
-          justifyContent: 'center',
-        }}
-      >
+      <View style={[styles.checkBox, value ? styles.checkBoxOn : null]}>
         {value ? <Icon name="check" size={16} color={colors.accentInk} /> : null}
       </View>
-      <T style={{ fontSize: 15, color: editable ? colors.ink : colors.muted }}>{label}</T>
+      <T style={[styles.checkLabel, editable ? null : styles.checkLabelDisabled]}>{label}</T>
     </Pressable>
   );
 }
@@ -498,25 +462,19 @@ export const PickCell = memo(function PickCell({
         disabled={!editable}
         testID={testID}
         onPress={() => setOpen(true)}
-        style={[
-          boxStyle(size, invalid || unknown, editable),
-          { flexDirection: 'row', alignItems: 'center', gap: space.xs },
-          style,
-        ]}
+        style={[boxStyle(size, invalid || unknown, editable), styles.pick, style]}
       >
         <T
           numberOfLines={1}
-          style={{
-            flex: 1,
-            fontSize: size === 'cell' ? 15 : 16,
-            color: unknown ? colors.danger : dim ? PLACEHOLDER : colors.ink,
-            fontStyle: dim ? 'italic' : 'normal',
-          }}
+          style={[
+            styles.pickText,
+            size === 'cell' ? styles.pickTextCell : null,
+            dim ? styles.pickTextDim : null,
+            unknown ? styles.pickTextUnknown : null,
+          ]}
         >
           {shown}
-          {unknown && size === 'form' ? (
-            <T style={{ fontSize: 13, color: colors.danger }}>{`  ${unknownHint}`}</T>
-          ) : null}
+          {unknown && size === 'form' ? <T style={styles.pickHint}>{`  ${unknownHint}`}</T> : null}
         </T>
         {editable ? <Icon name="chevron-down" size={16} color={colors.muted} /> : null}
       </Pressable>
@@ -574,38 +532,22 @@ function PickSheet({
   }, [options, query]);
   return (
     <Modal transparent visible animationType="fade" onRequestClose={onClose}>
-      <View style={{ flex: 1, justifyContent: wide ? 'center' : 'flex-end', alignItems: 'center' }}>
-        <Pressable
-          accessibilityLabel="Close"
-          onPress={onClose}
-          style={{ position: 'absolute', top: 0, left: 0, right: 0, bottom: 0, backgroundColor: 'rgba(14,34,48,0.45)' }}
-        />
+      <View style={[styles.sheetFrame, wide ? styles.sheetFrameWide : null]}>
+        <Pressable accessibilityLabel="Close" onPress={onClose} style={styles.sheetBackdrop} />
         <View
           testID={testID}
           accessibilityViewIsModal
-          style={{
-            width: wide ? Math.min(520, width - 64) : '100%',
-            maxHeight: wide ? '75%' : '85%',
-            backgroundColor: colors.surface,
-            borderRadius: radius.lg,
-            borderBottomLeftRadius: wide ? radius.lg : 0,
-            borderBottomRightRadius: wide ? radius.lg : 0,
-            paddingTop: space.lg,
-            paddingBottom: wide ? space.md : space.xl,
-            gap: space.sm,
-          }}
+          style={[styles.sheet, wide ? [styles.sheetWide, { width: Math.min(520, width - 64) }] : null]}
         >
-          <View style={{ flexDirection: 'row', alignItems: 'center', paddingHorizontal: space.lg, gap: space.sm }}>
-            <T variant="heading" style={{ flex: 1, fontSize: 18 }}>
+          <View style={styles.sheetHead}>
+            <T variant="heading" style={styles.sheetTitle}>
               {title}
             </T>
             <IconButton icon="close" label="Close" onPress={onClose} size={touch.min} />
           </View>
           {searchable ? (
-            <View style={{ paddingHorizontal: space.lg }}>
-              <View
-                style={[boxStyle('form', false, true), { flexDirection: 'row', alignItems: 'center', gap: space.sm }]}
-              >
+            <View style={styles.sheetSearch}>
+              <View style={[boxStyle('form', false, true), styles.searchBox]}>
                 <Icon name="search" size={18} color={colors.muted} />
                 <TextInput
                   value={query}
@@ -616,21 +558,14 @@ function PickSheet({
                   autoCapitalize="none"
                   autoCorrect={false}
                   testID={testID ? `${testID}-search` : undefined}
-                  style={{
-                    flex: 1,
-                    height: '100%',
-                    fontSize: 16,
-                    fontFamily: fonts.text,
-                    color: colors.ink,
-                    minWidth: 0,
-                  }}
+                  style={styles.searchInput}
                 />
               </View>
             </View>
           ) : null}
           <ScrollView
-            style={{ flexGrow: 0 }}
-            contentContainerStyle={{ paddingHorizontal: space.sm }}
+            style={styles.sheetList}
+            contentContainerStyle={styles.sheetListContent}
             keyboardShouldPersistTaps="handled"
           >
             {emptyLabel !== undefined && !query ? (
@@ -643,17 +578,7 @@ function PickSheet({
             ) : null}
             {rows.map((r, i) =>
               r.type === 'group' ? (
-                <T
-                  key={`g${i}`}
-                  variant="label"
-                  style={{
-                    paddingHorizontal: space.md,
-                    paddingTop: space.md,
-                    paddingBottom: space.xs,
-                    textTransform: 'uppercase',
-                    color: colors.muted,
-                  }}
-                >
+                <T key={`g${i}`} variant="label" style={styles.group}>
                   {r.label}
                 </T>
               ) : (
@@ -668,7 +593,7 @@ function PickSheet({
               ),
             )}
             {rows.length === 0 ? (
-              <T variant="small" style={{ padding: space.md }}>
+              <T variant="small" style={styles.noOptions}>
                 {options.length === 0 ? 'Nothing to choose from yet.' : 'No match.'}
               </T>
             ) : null}
@@ -698,19 +623,13 @@ function OptionRow({
       aria-pressed={selected}
       onPress={onPress}
       testID={testID}
-      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => ({
-        minHeight: touch.min,
-        paddingHorizontal: space.md,
-        paddingVertical: space.xs,
-        borderRadius: radius.sm,
-        flexDirection: 'row',
-        alignItems: 'center',
-        gap: space.md,
-        backgroundColor: selected ? colors.accentSoft : pressed || hovered ? colors.canvas : 'transparent',
-      })}
+      style={({ pressed, hovered }: { pressed: boolean; hovered?: boolean }) => [
+        styles.option,
+        selected ? styles.optionSelected : pressed || hovered ? styles.optionHovered : null,
+      ]}
     >
-      <View style={{ flex: 1, gap: 1 }}>
-        <T style={{ fontFamily: selected ? fonts.textBold : fonts.textMedium, fontSize: 16 }}>{label}</T>
+      <View style={styles.optionText}>
+        <T style={[styles.optionLabel, selected ? styles.optionLabelSelected : null]}>{label}</T>
         {detail ? (
           <T variant="small" numberOfLines={2}>
             {detail}
@@ -741,14 +660,14 @@ export function FormField({
   children: React.ReactNode;
 }) {
   return (
-    <View style={{ flexGrow: 1, flexBasis: basis, minWidth: 0, gap: space.xs }}>
+    <View style={[styles.formField, { flexBasis: basis }]}>
       <T variant="label">
         {label}
-        {unit ? <T variant="label" style={{ color: colors.muted, fontFamily: fonts.text }}>{` (${unit})`}</T> : null}
+        {unit ? <T variant="label" style={styles.formUnit}>{` (${unit})`}</T> : null}
       </T>
       {children}
       {error ? (
-        <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+        <T variant="small" style={styles.formError} accessibilityRole="alert">
           {error}
         </T>
       ) : hint ? (
@@ -757,3 +676,136 @@ export function FormField({
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  iconButton: {
+    borderRadius: radius.sm,
+    alignItems: 'center',
+    justifyContent: 'center',
+    backgroundColor: 'transparent',
+    opacity: 1,
+  },
+  /** Pressed or hovered. */
+  iconButtonActive: { backgroundColor: colors.lineSoft },
+  iconButtonDangerActive: { backgroundColor: colors.dangerSoft },
+  iconButtonDisabled: { opacity: 0.4 },
+  /** The typed text of a text or number input (the box is boxStyle). */
+  textInput: { color: colors.ink, fontFamily: fonts.text, fontSize: 16, minWidth: 0, fontStyle: 'normal' },
+  textInputMono: { fontFamily: fonts.textMedium },
+  numInput: {
+    color: colors.ink,
+    fontFamily: fonts.numbers,
+    fontStyle: 'normal',
+    fontSize: 16,
+    textAlign: 'left',
+    minWidth: 0,
+  },
+  /** In a table cell: a little smaller; numbers right-aligned. */
+  inputCell: { fontSize: 15 },
+  numInputCell: { textAlign: 'right' },
+  /** Empty: the placeholder in italics (and in the text face for a number). */
+  inputEmpty: { fontStyle: 'italic' },
+  numInputEmpty: { fontFamily: fonts.text },
+  segments: {
+    flexDirection: 'row',
+    borderWidth: 1,
+    borderColor: colors.line,
+    borderRadius: radius.sm,
+    overflow: 'hidden',
+    backgroundColor: colors.surface,
+  },
+  segmentsInvalid: { borderColor: colors.danger },
+  segment: {
+    flex: 1,
+    alignItems: 'center',
+    justifyContent: 'center',
+    paddingHorizontal: space.sm,
+    backgroundColor: 'transparent',
+    borderLeftWidth: 1,
+    borderLeftColor: colors.line,
+  },
+  segmentCell: { paddingHorizontal: space.xs },
+  segmentOn: { backgroundColor: colors.accentSoft },
+  segmentFirst: { borderLeftWidth: 0 },
+  segmentText: { fontSize: 15, fontFamily: fonts.text, color: colors.inkSoft },
+  segmentTextCell: { fontSize: 14 },
+  segmentTextOn: { fontFamily: fonts.textBold, color: colors.accent },
+  segmentTextDisabled: { color: colors.muted },
+  check: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  checkBox: {
+    width: 22,
+    height: 22,
+    borderRadius: 5,
+    borderWidth: 1.5,
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  checkBoxOn: { borderColor: colors.accent, backgroundColor: colors.accent },
+  checkLabel: { fontSize: 15, color: colors.ink },
+  checkLabelDisabled: { color: colors.muted },
+  pick: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  pickText: { flex: 1, fontSize: 16, color: colors.ink, fontStyle: 'normal' },
+  pickTextCell: { fontSize: 15 },
+  /** Nothing chosen: the placeholder. */
+  pickTextDim: { color: PLACEHOLDER, fontStyle: 'italic' },
+  /** A value not among the options. */
+  pickTextUnknown: { color: colors.danger },
+  pickHint: { fontSize: 13, color: colors.danger },
+  /** The picker's sheet: from the bottom on a phone, a centred dialog on a wide screen. */
+  sheetFrame: { flex: 1, justifyContent: 'flex-end', alignItems: 'center' },
+  sheetFrameWide: { justifyContent: 'center' },
+  sheetBackdrop: { position: 'absolute', top: 0, left: 0, right: 0, bottom: 0, backgroundColor: 'rgba(14,34,48,0.45)' },
+  sheet: {
+    width: '100%',
+    maxHeight: '85%',
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderBottomLeftRadius: 0,
+    borderBottomRightRadius: 0,
+    paddingTop: space.lg,
+    paddingBottom: space.xl,
+    gap: space.sm,
+  },
+  sheetWide: {
+    maxHeight: '75%',
+    borderBottomLeftRadius: radius.lg,
+    borderBottomRightRadius: radius.lg,
+    paddingBottom: space.md,
+  },
+  sheetHead: { flexDirection: 'row', alignItems: 'center', paddingHorizontal: space.lg, gap: space.sm },
+  sheetTitle: { flex: 1, fontSize: 18 },
+  sheetSearch: { paddingHorizontal: space.lg },
+  searchBox: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  searchInput: { flex: 1, height: '100%', fontSize: 16, fontFamily: fonts.text, color: colors.ink, minWidth: 0 },
+  sheetList: { flexGrow: 0 },
+  sheetListContent: { paddingHorizontal: space.sm },
+  group: {
+    paddingHorizontal: space.md,
+    paddingTop: space.md,
+    paddingBottom: space.xs,
+    textTransform: 'uppercase',
+    color: colors.muted,
+  },
+  noOptions: { padding: space.md },
+  option: {
+    minHeight: touch.min,
+    paddingHorizontal: space.md,
+    paddingVertical: space.xs,
+    borderRadius: radius.sm,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.md,
+    backgroundColor: 'transparent',
+  },
+  optionSelected: { backgroundColor: colors.accentSoft },
+  optionHovered: { backgroundColor: colors.canvas },
+  optionText: { flex: 1, gap: 1 },
+  optionLabel: { fontFamily: fonts.textMedium, fontSize: 16 },
+  optionLabelSelected: { fontFamily: fonts.textBold },
+  /** A field of a phone card; its basis is the column's. */
+  formField: { flexGrow: 1, minWidth: 0, gap: space.xs },
+  formUnit: { color: colors.muted, fontFamily: fonts.text },
+  formError: { color: colors.danger },
+});

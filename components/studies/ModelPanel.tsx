@@ -1,6 +1,6 @@
 import React, { useDeferredValue, useMemo, useState } from 'react';
 import { useLocalSearchParams } from 'expo-router';
-import { Platform, View } from 'react-native';
+import { Platform, StyleSheet, View } from 'react-native';
 import { parseModel, type ModelInput, type ModelIssue } from '../../shared/schemas/model';
 import type { StudyDto } from '../../shared/schemas/studies';
 import type { ModelWarning } from '../../shared/schemas/modelWarnings';
@@ -51,10 +51,10 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
       <T variant="subheading">Import and export</T>
       {message ? (
         <Notice tone={message.tone} testID="import-message">
-          <View style={{ gap: 2 }}>
-            <T style={{ color: message.tone === 'ok' ? colors.ok : colors.danger }}>{message.text}</T>
+          <View style={styles.importMessage}>
+            <T style={message.tone === 'ok' ? styles.okText : styles.errorText}>{message.text}</T>
             {message.lines?.slice(0, 12).map((l) => (
-              <T key={l} variant="small" style={{ color: colors.danger }}>
+              <T key={l} variant="small" style={styles.errorText}>
                 • {l}
               </T>
             ))}
@@ -62,7 +62,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
         </Notice>
       ) : null}
       {editable && Platform.OS === 'web' ? (
-        <View style={{ gap: 4 }}>
+        <View style={styles.importField}>
           <T variant="label">IMPORT (REPLACES THE MODEL; NOTHING CHANGES UNLESS THE WHOLE FILE IS VALID)</T>
           {React.createElement('input', {
             type: 'file',
@@ -83,7 +83,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
         </View>
       ) : null}
       <T variant="label">EXPORT</T>
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.buttonRow}>
         <Button
           title="Workbook (.xlsx)"
           kind="secondary"
@@ -97,7 +97,7 @@ function ImportExport({ study, editable, onImported }: { study: StudyDto; editab
           onPress={() => void download({ format: 'json' }, 'model.json')}
         />
       </View>
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' }}>
+      <View style={styles.csvRow}>
         <Choice value={table} options={TABLES.map((t) => ({ value: t, label: t }))} onChange={setTable} />
         <Button
           title="CSV of this table"
@@ -173,7 +173,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
   };
 
   return (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.panel}>
       {!editable ? (
         <Notice>
           {study.status === 'draft'
@@ -182,17 +182,8 @@ export function ModelPanel({ study }: { study: StudyDto }) {
         </Notice>
       ) : null}
       {editable ? (
-        <Card
-          style={{
-            flexDirection: 'row',
-            alignItems: 'center',
-            justifyContent: 'space-between',
-            flexWrap: 'wrap',
-            gap: space.sm,
-            paddingVertical: space.md,
-          }}
-        >
-          <T testID="model-state" style={{ color: dirty ? colors.caution : colors.muted }}>
+        <Card style={styles.saveBar}>
+          <T testID="model-state" style={dirty ? styles.stateDirty : styles.stateSaved}>
             {dirty ? 'Unsaved changes' : `Saved · model version ${baseVersion}`}
             {issues.length ? ` · ${issues.length} problem${issues.length === 1 ? '' : 's'}` : ' · no problems'}
             {warnings.length ? ` · ${warnings.length} worth checking` : ''}
@@ -203,9 +194,9 @@ export function ModelPanel({ study }: { study: StudyDto }) {
       {saved ? <Notice tone="ok">{saved}</Notice> : null}
       {conflict ? (
         <Notice tone="error" title="Not saved">
-          <View style={{ gap: space.sm }}>
-            <T style={{ color: colors.danger }}>{conflict}</T>
-            <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+          <View style={styles.conflict}>
+            <T style={styles.errorText}>{conflict}</T>
+            <View style={styles.buttonRow}>
               <Button title="Reload the saved model (drops my changes)" kind="secondary" onPress={reload} />
             </View>
           </View>
@@ -213,7 +204,7 @@ export function ModelPanel({ study }: { study: StudyDto }) {
       ) : null}
       <ImportExport study={study} editable={editable} onImported={reload} />
       <Card>
-        <View style={{ flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' }}>
+        <View style={styles.treeHead}>
           <T variant="subheading">System tree</T>
           <Button title={showTree ? 'Hide' : 'Show'} kind="quiet" onPress={() => setShowTree((s) => !s)} />
         </View>
@@ -236,3 +227,25 @@ export function ModelPanel({ study }: { study: StudyDto }) {
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  importMessage: { gap: 2 },
+  okText: { color: colors.ok },
+  errorText: { color: colors.danger },
+  stateDirty: { color: colors.caution },
+  stateSaved: { color: colors.muted },
+  importField: { gap: space.xs },
+  buttonRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  csvRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' },
+  panel: { gap: space.lg },
+  saveBar: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    justifyContent: 'space-between',
+    flexWrap: 'wrap',
+    gap: space.sm,
+    paddingVertical: space.md,
+  },
+  conflict: { gap: space.sm },
+  treeHead: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' },
+});

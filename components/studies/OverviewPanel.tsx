@@ -1,6 +1,6 @@
 import { Link, useRouter } from 'expo-router';
 import React, { useState } from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { approveSchema, type ApproveInput, type StudyDto } from '../../shared/schemas/studies';
 import { downloadFile } from '../../hooks/download';
 import { applyServerErrors, serverErrors, useZodForm } from '../../hooks/forms';
@@ -41,7 +41,7 @@ function RunPanel({ study }: { study: StudyDto }) {
         energy and label values.
       </T>
       {r ? (
-        <View style={{ gap: space.xs }}>
+        <View style={styles.runState}>
           <T testID="run-status">
             {r.status === 'done'
               ? 'Finished'
@@ -105,27 +105,27 @@ function ApproveForm({ study }: { study: StudyDto }) {
         longer change; it supersedes the site’s previous approved revision.
       </T>
       {message ? <Notice tone="error">{message}</Notice> : null}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+      <View style={styles.approvalFields}>
         <FormTextField
           control={form.control}
           name="approverName"
           label="Approving engineer"
           testID="approver-name"
-          containerStyle={{ flexGrow: 1, flexBasis: 200 }}
+          containerStyle={styles.approverField}
         />
         <FormTextField
           control={form.control}
           name="licenceNumber"
           label="Licence number"
           testID="licence-number"
-          containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+          containerStyle={styles.approvalField}
         />
         <FormTextField
           control={form.control}
           name="jurisdiction"
           label="Jurisdiction"
           testID="jurisdiction"
-          containerStyle={{ flexGrow: 1, flexBasis: 160 }}
+          containerStyle={styles.approvalField}
         />
       </View>
       <FormCheckbox
@@ -134,7 +134,7 @@ function ApproveForm({ study }: { study: StudyDto }) {
         testID="confirm-review"
         label="I reviewed the model, the results and their warnings, and I take responsibility for this approval."
       />
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.buttonRow}>
         <Button title="Approve this revision" testID="approve" busy={approve.isPending} onPress={submit} />
         <Button title="Return to draft" kind="secondary" busy={back.isPending} onPress={() => back.mutate()} />
       </View>
@@ -194,7 +194,7 @@ function Documents({ study }: { study: StudyDto }) {
     <Card testID="documents">
       <T variant="subheading">Documents</T>
       {error ? <Notice tone="error">{error}</Notice> : null}
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.buttonRow}>
         {canReport ? (
           <Button
             title="Study report (PDF)"
@@ -232,11 +232,11 @@ function Documents({ study }: { study: StudyDto }) {
 
 export function OverviewPanel({ study }: { study: StudyDto }) {
   return (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.panel}>
       <Card>
-        <View style={{ gap: 6 }}>
+        <View style={styles.siteBlock}>
           <T variant="label">SITE</T>
-          <Link href={`/sites/${study.siteId}`} style={{ color: colors.accent, fontSize: 16 }}>
+          <Link href={`/sites/${study.siteId}`} style={styles.siteLink}>
             {study.siteName}
           </Link>
           <T variant="label">LAST EDITED</T>
@@ -244,10 +244,7 @@ export function OverviewPanel({ study }: { study: StudyDto }) {
             {study.lastEditedBy?.name ?? '—'} · {when(study.modelUpdatedAt)} · model version {study.modelVersion}
           </T>
           {study.approval ? (
-            <View
-              style={{ gap: 6, padding: space.md, borderRadius: radius.md, backgroundColor: colors.okSoft }}
-              testID="approval-block"
-            >
+            <View style={styles.approvalBlock} testID="approval-block">
               <T variant="label">APPROVED</T>
               <T>
                 {study.approval.approverName} · licence {study.approval.licenceNumber} · {study.approval.jurisdiction}
@@ -280,3 +277,15 @@ export function OverviewPanel({ study }: { study: StudyDto }) {
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  runState: { gap: space.xs },
+  approvalFields: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  approverField: { flexGrow: 1, flexBasis: 200 },
+  approvalField: { flexGrow: 1, flexBasis: 160 },
+  buttonRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  panel: { gap: space.lg },
+  siteBlock: { gap: 6 },
+  siteLink: { color: colors.accent, fontSize: 16 },
+  approvalBlock: { gap: 6, padding: space.md, borderRadius: radius.md, backgroundColor: colors.okSoft },
+});

@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
 import React, { useState } from 'react';
-import { Pressable, ScrollView, View } from 'react-native';
+import { Pressable, ScrollView, StyleSheet, View } from 'react-native';
 import {
   DEFAULT_ORDER,
   RESULTS_PAGE_SIZE_DEFAULT,
@@ -49,19 +49,11 @@ const SORTS: { value: ResultsSort; label: string }[] = [
 const PAGE_SIZES = [String(RESULTS_PAGE_SIZE_DEFAULT), '100', '200'] as const;
 
 function SignalChip({ b }: { b: BusResultRow }) {
-  if (!b.labelValues) return <T style={{ color: colors.danger, fontFamily: fonts.textBold }}>ERROR</T>;
+  if (!b.labelValues) return <T style={styles.errorWord}>ERROR</T>;
   const p = signalPanelColors(b.labelValues.signalWord);
   return (
-    <View
-      style={{
-        backgroundColor: p.background,
-        borderRadius: 4,
-        paddingHorizontal: 6,
-        paddingVertical: 2,
-        alignSelf: 'flex-start',
-      }}
-    >
-      <T style={{ color: p.text, fontFamily: fonts.textBold, fontSize: 12 }}>{b.labelValues.signalWord}</T>
+    <View style={[styles.signalChip, { backgroundColor: p.background }]}>
+      <T style={[styles.signalWord, { color: p.text }]}>{b.labelValues.signalWord}</T>
     </View>
   );
 }
@@ -107,10 +99,7 @@ function Pager({
 }) {
   if (pages <= 1) return null;
   return (
-    <View
-      style={{ flexDirection: 'row', alignItems: 'center', justifyContent: 'center', gap: space.md }}
-      testID="results-pager"
-    >
+    <View style={styles.pager} testID="results-pager">
       <Button
         title="‹ Previous"
         kind="secondary"
@@ -206,7 +195,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
   const reviewed = study.status === 'approved';
   const stale = data.run.modelVersion !== study.modelVersion && study.status === 'draft';
   return (
-    <View style={{ gap: space.lg }}>
+    <View style={styles.panel}>
       {!reviewed ? (
         <Notice tone="warning" title="Preliminary results">
           Not reviewed or approved: do not use for labels or work planning.
@@ -220,21 +209,16 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
       ) : null}
       {data.study.warnings.length ? (
         <Notice tone="warning" title="Short-circuit warnings">
-          <View style={{ gap: 2 }}>
+          <View style={styles.warnings}>
             {data.study.warnings.map((w) => (
-              <T
-                key={w.code + w.message}
-                variant="small"
-                testID={`warning-${w.code}`}
-                style={{ color: colors.caution }}
-              >
+              <T key={w.code + w.message} variant="small" testID={`warning-${w.code}`} style={styles.warningText}>
                 {w.message}
               </T>
             ))}
           </View>
         </Notice>
       ) : null}
-      <Card style={{ gap: space.sm, flexDirection: wide ? 'row' : 'column', flexWrap: 'wrap', columnGap: space.xl }}>
+      <Card style={[styles.filters, wide && styles.filtersWide]}>
         {wide ? null : (
           <Button
             title={filtersOpen ? 'Hide sort and filters' : `Sort and filter${filtered ? ' (filtered)' : ''}`}
@@ -302,7 +286,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
             />
           </>
         ) : null}
-        <T variant="small" style={wide ? { flexBasis: '100%' } : undefined} testID="results-count">
+        <T variant="small" style={wide ? styles.countWide : undefined} testID="results-count">
           {data.total} of {data.summary.buses} buses{data.total ? ` · showing ${first}–${last}` : ''} ·{' '}
           {data.summary.bySignalWord.DANGER} DANGER, {data.summary.bySignalWord.WARNING} WARNING
           {data.summary.errors ? `, ${data.summary.errors} not evaluated` : ''} · arc duration capped at{' '}
@@ -318,27 +302,9 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
       {data.total === 0 ? <Notice>No bus matches these filters.</Notice> : null}
 
       {wide ? (
-        <ScrollView horizontal contentContainerStyle={{ minWidth: '100%' }}>
-          <View
-            style={{
-              minWidth: scenarios ? 960 : 940,
-              flex: 1,
-              backgroundColor: colors.surface,
-              borderRadius: radius.lg,
-              borderWidth: 1,
-              borderColor: colors.lineSoft,
-            }}
-            testID="results-table"
-          >
-            <View
-              style={{
-                flexDirection: 'row',
-                paddingHorizontal: space.md,
-                paddingVertical: space.sm,
-                borderBottomWidth: 1,
-                borderBottomColor: colors.line,
-              }}
-            >
+        <ScrollView horizontal contentContainerStyle={styles.tableScrollContent}>
+          <View style={[styles.table, scenarios ? styles.tableScenarios : null]} testID="results-table">
+            <View style={styles.tableHead}>
               {cols.map((c) => (
                 <T key={c.key} variant="label" style={{ flex: c.flex }}>
                   {c.label}
@@ -347,59 +313,36 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
             </View>
             {rows.map((b) => (
               <Link key={b.busId} href={`/studies/${study.id}/bus/${encodeURIComponent(b.busId)}`} asChild>
-                <Pressable
-                  accessibilityRole="link"
-                  testID={`result-${b.busId}`}
-                  style={{
-                    flexDirection: 'row',
-                    alignItems: 'center',
-                    minHeight: touch.min,
-                    paddingHorizontal: space.md,
-                    borderBottomWidth: 1,
-                    borderBottomColor: colors.lineSoft,
-                  }}
-                >
-                  <T style={{ flex: 1.1, fontFamily: fonts.numbersBold, fontSize: 14 }}>{b.busId}</T>
-                  <T style={{ flex: 1.8, fontSize: 14, paddingRight: 6 }} numberOfLines={2}>
+                <Pressable accessibilityRole="link" testID={`result-${b.busId}`} style={styles.resultRow}>
+                  <T style={styles.cellBus}>{b.busId}</T>
+                  <T style={styles.cellName} numberOfLines={2}>
                     {b.busName}
                   </T>
-                  <T style={{ flex: 0.6, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(b.nominalKv)}</T>
-                  <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(b.boltedFaultKa)}</T>
-                  <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>
-                    {fmt(b.governingArcingCurrentKa)}
-                  </T>
-                  <T style={{ flex: 1.2, fontFamily: fonts.numbers, fontSize: 14 }}>
+                  <T style={styles.cellKv}>{fmt(b.nominalKv)}</T>
+                  <T style={styles.cellCurrent}>{fmt(b.boltedFaultKa)}</T>
+                  <T style={styles.cellCurrent}>{fmt(b.governingArcingCurrentKa)}</T>
+                  <T style={styles.cellClearedBy}>
                     {b.status === 'error' ? '—' : clearedByText(clearedByOf(b, data.study.maxArcDurationMs))}
                   </T>
-                  <T style={{ flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 }}>{fmt(b.arcDurationS)}</T>
-                  <T style={{ flex: 0.9, fontFamily: fonts.numbersBold, fontSize: 15 }}>
+                  <T style={styles.cellTime}>{fmt(b.arcDurationS)}</T>
+                  <T style={styles.cellEnergy}>
                     {b.incidentEnergyCalPerCm2 !== undefined ? formatCalPerCm2(b.incidentEnergyCalPerCm2) : '—'}
                   </T>
                   {scenarios ? (
-                    <T
-                      style={{ flex: 1.1, fontSize: 13, paddingRight: 6 }}
-                      numberOfLines={2}
-                      testID={`result-${b.busId}-scenario`}
-                    >
+                    <T style={styles.cellScenario} numberOfLines={2} testID={`result-${b.busId}-scenario`}>
                       {scenarioName(b.scenarioId)}
                     </T>
                   ) : null}
-                  <T style={{ flex: 1, fontFamily: fonts.numbers, fontSize: 14 }}>
+                  <T style={styles.cellBoundary}>
                     {b.arcFlashBoundaryMm !== undefined ? formatBoundary(b.arcFlashBoundaryMm, unitOrder) : '—'}
                   </T>
-                  <T style={{ flex: 1, fontSize: 13 }}>
+                  <T style={styles.cellPpe}>
                     {b.labelValues ? (b.labelValues.ppeLevel?.name ?? 'None adequate') : '—'}
                   </T>
-                  <View style={{ flex: 0.9 }}>
+                  <View style={styles.cellSignal}>
                     <SignalChip b={b} />
                   </View>
-                  <T
-                    style={{
-                      flex: 0.4,
-                      color: b.warnings.length ? colors.caution : colors.muted,
-                      fontFamily: fonts.numbersBold,
-                    }}
-                  >
+                  <T style={[styles.cellWarnings, b.warnings.length ? styles.cellWarningsSome : null]}>
                     {b.warnings.length || ''}
                   </T>
                 </Pressable>
@@ -408,20 +351,13 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
           </View>
         </ScrollView>
       ) : (
-        <View style={{ gap: space.sm }}>
+        <View style={styles.cards}>
           {rows.map((b) => (
             <Link key={b.busId} href={`/studies/${study.id}/bus/${encodeURIComponent(b.busId)}`} asChild>
               <Pressable accessibilityRole="link" testID={`result-${b.busId}`}>
-                <Card style={{ gap: 6 }}>
-                  <View
-                    style={{
-                      flexDirection: 'row',
-                      justifyContent: 'space-between',
-                      alignItems: 'center',
-                      gap: space.sm,
-                    }}
-                  >
-                    <T style={{ fontFamily: fonts.numbersBold }}>{b.busId}</T>
+                <Card style={styles.resultCard}>
+                  <View style={styles.resultCardHead}>
+                    <T style={styles.resultCardBus}>{b.busId}</T>
                     <SignalChip b={b} />
                   </View>
                   <T variant="small">{b.busName}</T>
@@ -431,17 +367,9 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                     </T>
                   ) : null}
                   {b.status === 'error' ? (
-                    <T style={{ color: colors.danger }}>{b.error?.message}</T>
+                    <T style={styles.errorText}>{b.error?.message}</T>
                   ) : (
-                    <View
-                      style={{
-                        flexDirection: 'row',
-                        justifyContent: 'space-between',
-                        alignItems: 'baseline',
-                        flexWrap: 'wrap',
-                        gap: space.sm,
-                      }}
-                    >
+                    <View style={styles.resultCardEnergy}>
                       <Num
                         value={
                           b.incidentEnergyCalPerCm2 !== undefined ? formatCalPerCm2(b.incidentEnergyCalPerCm2) : '—'
@@ -461,7 +389,7 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
                     </View>
                   )}
                   {b.warnings.length ? (
-                    <T variant="small" style={{ color: colors.caution }}>
+                    <T variant="small" style={styles.warningText}>
                       {b.warnings.length} warning{b.warnings.length > 1 ? 's' : ''}
                     </T>
                   ) : null}
@@ -476,3 +404,73 @@ export function ResultsPanel({ study }: { study: StudyDto }) {
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  errorWord: { color: colors.danger, fontFamily: fonts.textBold },
+  signalChip: { borderRadius: 4, paddingHorizontal: 6, paddingVertical: 2, alignSelf: 'flex-start' },
+  signalWord: { fontFamily: fonts.textBold, fontSize: 12 },
+  filters: { gap: space.sm, flexDirection: 'column', flexWrap: 'wrap', columnGap: space.xl },
+  filtersWide: { flexDirection: 'row' },
+  /** On a wide screen the count takes a line of its own below the filters. */
+  countWide: { flexBasis: '100%' },
+  pager: { flexDirection: 'row', alignItems: 'center', justifyContent: 'center', gap: space.md },
+  panel: { gap: space.lg },
+  warnings: { gap: 2 },
+  warningText: { color: colors.caution },
+  tableScrollContent: { minWidth: '100%' },
+  table: {
+    minWidth: 940,
+    flex: 1,
+    backgroundColor: colors.surface,
+    borderRadius: radius.lg,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+  },
+  /** The scenario column makes the table wider. */
+  tableScenarios: { minWidth: 960 },
+  tableHead: {
+    flexDirection: 'row',
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.line,
+  },
+  resultRow: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    minHeight: touch.min,
+    paddingHorizontal: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  cellBus: { flex: 1.1, fontFamily: fonts.numbersBold, fontSize: 14 },
+  cellName: { flex: 1.8, fontSize: 14, paddingRight: 6 },
+  cellKv: { flex: 0.6, fontFamily: fonts.numbers, fontSize: 14 },
+  cellCurrent: { flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 },
+  cellClearedBy: { flex: 1.2, fontFamily: fonts.numbers, fontSize: 14 },
+  cellTime: { flex: 0.8, fontFamily: fonts.numbers, fontSize: 14 },
+  cellEnergy: { flex: 0.9, fontFamily: fonts.numbersBold, fontSize: 15 },
+  cellScenario: { flex: 1.1, fontSize: 13, paddingRight: 6 },
+  cellBoundary: { flex: 1, fontFamily: fonts.numbers, fontSize: 14 },
+  cellPpe: { flex: 1, fontSize: 13 },
+  cellSignal: { flex: 0.9 },
+  cellWarnings: { flex: 0.4, color: colors.muted, fontFamily: fonts.numbersBold },
+  cellWarningsSome: { color: colors.caution },
+  cards: { gap: space.sm },
+  resultCard: { gap: 6 },
+  resultCardHead: {
+    flexDirection: 'row',
+    justifyContent: 'space-between',
+    alignItems: 'center',
+    gap: space.sm,
+  },
+  resultCardBus: { fontFamily: fonts.numbersBold },
+  errorText: { color: colors.danger },
+  resultCardEnergy: {
+    flexDirection: 'row',
+    justifyContent: 'space-between',
+    alignItems: 'baseline',
+    flexWrap: 'wrap',
+    gap: space.sm,
+  },
+});

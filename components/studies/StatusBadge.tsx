@@ -1,7 +1,7 @@
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { STUDY_STATUS_LABELS, type StudyDto } from '../../shared/schemas/studies';
-import { colors, fonts, radius } from '../theme';
+import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui';
 
 const TONES = {
@@ -13,17 +13,8 @@ const TONES = {
 
 function Pill({ label, bg, fg, testID }: { label: string; bg: string; fg: string; testID?: string }) {
   return (
-    <View
-      testID={testID}
-      style={{
-        backgroundColor: bg,
-        borderRadius: radius.sm,
-        paddingHorizontal: 8,
-        paddingVertical: 3,
-        alignSelf: 'flex-start',
-      }}
-    >
-      <T style={{ color: fg, fontFamily: fonts.textBold, fontSize: 13 }}>{label}</T>
+    <View testID={testID} style={[styles.badge, { backgroundColor: bg }]}>
+      <T style={[styles.badgeText, { color: fg }]}>{label}</T>
     </View>
   );
 }
@@ -32,10 +23,16 @@ function Pill({ label, bg, fg, testID }: { label: string; bg: string; fg: string
 export function StatusBadges({ study }: { study: StudyDto }) {
   const tone = TONES[study.status];
   return (
-    <View style={{ flexDirection: 'row', gap: 6, flexWrap: 'wrap' }}>
+    <View style={styles.badges}>
       <Pill label={STUDY_STATUS_LABELS[study.status]} bg={tone.bg} fg={tone.fg} testID="study-status" />
       {study.pastReview ? <Pill label="Past review" bg={colors.dangerSoft} fg={colors.danger} /> : null}
       {study.stale ? <Pill label="Model changed since approval" bg={colors.cautionSoft} fg={colors.caution} /> : null}
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  badge: { borderRadius: radius.sm, paddingHorizontal: space.sm, paddingVertical: 3, alignSelf: 'flex-start' },
+  badgeText: { fontFamily: fonts.textBold, fontSize: 13 },
+  badges: { flexDirection: 'row', gap: 6, flexWrap: 'wrap' },
+});

@@ -1,13 +1,13 @@
 /** Bus fields. */
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import {
   ELECTRODE_CONFIGS,
   ELECTRODE_CONFIG_LABELS,
   EQUIPMENT_CLASSES,
   findEquipmentClass,
 } from '../../../shared/equipmentClasses';
-import { colors } from '../../theme';
+import { colors, space } from '../../theme';
 import { T } from '../../ui';
 import { NumCell, PickCell, SegCell, TextCell, type PickOption } from '../controls';
 import { withField } from '../edit';
@@ -217,10 +217,10 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
       const typical = classOf(e)?.enclosureMm;
       const box = e.equipment?.enclosureMm as Partial<Record<Dim, number>> | undefined;
       return (
-        <View style={{ flexDirection: 'row', alignItems: 'center', gap: 4 }}>
+        <View style={styles.enclosure}>
           {DIMS.map((d, i) => (
             <React.Fragment key={d}>
-              {i > 0 ? <T style={{ color: colors.muted, fontSize: 13 }}>×</T> : null}
+              {i > 0 ? <T style={styles.enclosureTimes}>×</T> : null}
               <NumCell
                 value={box?.[d]}
                 onChange={(v) => patch((b) => patchEnclosure(b, d, v))}
@@ -232,7 +232,7 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
                 editable={editable}
                 testID={`${testID}-${d}`}
                 accessibilityLabel={`${label} ${d}`}
-                style={{ flex: 1 }}
+                style={styles.enclosureDim}
               />
             </React.Fragment>
           ))}
@@ -292,7 +292,7 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
     render: ({ e, size, invalid, editable, patch, testID, label }) => {
       const c = capChoiceOf(e);
       return (
-        <View style={{ flexDirection: 'row', alignItems: 'center', gap: 4 }}>
+        <View style={styles.cap}>
           <SegCell<CapChoice>
             value={c}
             options={CAP_OPTIONS}
@@ -309,7 +309,7 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
             editable={editable}
             testID={testID}
             accessibilityLabel={`${label}: arc-duration cap`}
-            style={{ width: 150 }}
+            style={styles.capChoice}
           />
           {c === 'own' ? (
             <NumCell
@@ -321,7 +321,7 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
               editable={editable}
               testID={`${testID}-seconds`}
               accessibilityLabel={`${label} arc-duration cap, seconds`}
-              style={{ width: 64 }}
+              style={styles.capSeconds}
             />
           ) : null}
           {c !== 'study' ? (
@@ -334,7 +334,7 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
               editable={editable}
               testID={`${testID}-reason`}
               accessibilityLabel={`${label} arc-duration cap reason`}
-              style={{ flex: 1 }}
+              style={styles.capReason}
             />
           ) : null}
         </View>
@@ -342,3 +342,13 @@ export const BUS_COLUMNS: Column<BusInput>[] = [
     },
   },
 ];
+
+const styles = StyleSheet.create({
+  enclosure: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  enclosureTimes: { color: colors.muted, fontSize: 13 },
+  enclosureDim: { flex: 1 },
+  cap: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  capChoice: { width: 150 },
+  capSeconds: { width: 64 },
+  capReason: { flex: 1 },
+});

@@ -1,5 +1,5 @@
 /** Protective device fields. */
-import { Pressable, View } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { genericNoteSentence, type DeviceType } from '../../../shared/schemas/deviceLibrary';
 import type { Device } from '../../../shared/schemas/device';
 import { colors, fonts } from '../../theme';
@@ -91,7 +91,7 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
       const long = size === 'form' && buses;
       const at = buses && e.end ? buses[e.end] : undefined;
       return (
-        <View style={{ gap: 2 }}>
+        <View style={styles.end}>
           <SegCell
             value={e.end}
             options={[
@@ -106,7 +106,7 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
             accessibilityLabel={label}
           />
           {size === 'cell' && at ? (
-            <T numberOfLines={1} style={{ fontSize: 12, lineHeight: 16, color: colors.muted, textAlign: 'center' }}>
+            <T numberOfLines={1} style={styles.endBus}>
               {`at ${at}`}
             </T>
           ) : null}
@@ -126,7 +126,7 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
       const t = e.library ? ctx.typesById.get(e.library.deviceTypeId) : undefined;
       const changed = libraryChanged(e, t);
       return (
-        <View style={{ gap: 3 }}>
+        <View style={styles.type}>
           <PickCell
             value={e.library?.deviceTypeId}
             options={ctx.typeOptions}
@@ -151,21 +151,13 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
             accessibilityLabel={label}
           />
           {device ? (
-            <T
-              numberOfLines={size === 'cell' ? 2 : undefined}
-              style={{ fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 }}
-              testID={`${testID}-summary`}
-            >
-              <T style={{ fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink }}>{deviceKindLabel(device)}</T>
+            <T numberOfLines={size === 'cell' ? 2 : undefined} style={styles.typeSummary} testID={`${testID}-summary`}>
+              <T style={styles.typeKind}>{deviceKindLabel(device)}</T>
               {`  ${deviceSettingsSummary(device)}`}
             </T>
           ) : null}
           {t?.genericNote ? (
-            <T
-              numberOfLines={size === 'cell' ? 1 : undefined}
-              style={{ fontSize: 13, lineHeight: 18, color: colors.caution, paddingHorizontal: 2 }}
-              testID={`${testID}-generic`}
-            >
+            <T numberOfLines={size === 'cell' ? 1 : undefined} style={styles.typeGeneric} testID={`${testID}-generic`}>
               {genericNoteSentence(t.genericNote)}
             </T>
           ) : null}
@@ -175,18 +167,9 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
               accessibilityLabel={`${editable ? 'Edit' : 'View'} the settings of ${e.id || 'this device'}`}
               onPress={() => ctx.openDevice?.(e)}
               testID={`${testID}-settings`}
-              style={{ paddingHorizontal: 2, minHeight: 28, justifyContent: 'center' }}
+              style={styles.settingsLink}
             >
-              <T
-                style={{
-                  fontSize: 14,
-                  color: colors.accent,
-                  fontFamily: fonts.textMedium,
-                  textDecorationLine: 'underline',
-                }}
-              >
-                {editable ? 'Edit settings' : 'View settings'}
-              </T>
+              <T style={styles.settingsLinkText}>{editable ? 'Edit settings' : 'View settings'}</T>
             </Pressable>
           ) : null}
           {changed ? (
@@ -195,9 +178,9 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
               disabled={!editable}
               onPress={() => t && patch((d) => fromLibrary(d, t))}
               testID={`${testID}-update`}
-              style={{ paddingHorizontal: 2 }}
+              style={styles.update}
             >
-              <T style={{ fontSize: 13, color: colors.caution, textDecorationLine: editable ? 'underline' : 'none' }}>
+              <T style={[styles.updateText, editable ? styles.updateTextLink : null]}>
                 {editable ? 'Library type changed since: use its current settings' : 'Library type changed since'}
               </T>
             </Pressable>
@@ -207,3 +190,23 @@ export const DEVICE_COLUMNS: Column<PlacedDeviceInput>[] = [
     },
   },
 ];
+
+const styles = StyleSheet.create({
+  end: { gap: 2 },
+  endBus: { fontSize: 12, lineHeight: 16, color: colors.muted, textAlign: 'center' },
+  type: { gap: 3 },
+  typeSummary: { fontSize: 13, lineHeight: 18, color: colors.inkSoft, paddingHorizontal: 2 },
+  typeKind: { fontSize: 13, fontFamily: fonts.textMedium, color: colors.ink },
+  typeGeneric: { fontSize: 13, lineHeight: 18, color: colors.caution, paddingHorizontal: 2 },
+  settingsLink: { paddingHorizontal: 2, minHeight: 28, justifyContent: 'center' },
+  settingsLinkText: {
+    fontSize: 14,
+    color: colors.accent,
+    fontFamily: fonts.textMedium,
+    textDecorationLine: 'underline',
+  },
+  update: { paddingHorizontal: 2 },
+  updateText: { fontSize: 13, color: colors.caution, textDecorationLine: 'none' },
+  /** Underlined where it can be pressed. */
+  updateTextLink: { textDecorationLine: 'underline' },
+});

@@ -1,5 +1,6 @@
 /** Motor fields. */
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { space } from '../../theme';
 import { NumCell, SegCell } from '../controls';
 import { type MotorInput } from '../summaries';
 import { type Column, numberColumn, idColumn, nameColumn, busColumn } from './shared';
@@ -18,7 +19,7 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
       // The unit is the key present (a cleared value keeps its key, so the unit chosen stays).
       const unit = 'kva' in e && !('hp' in e) ? 'kva' : 'hp';
       return (
-        <View style={{ flexDirection: 'row', gap: 4 }}>
+        <View style={styles.sizeRow}>
           <NumCell
             value={unit === 'kva' ? e.kva : e.hp}
             onChange={(v) => patch((m) => ({ ...m, [unit]: v }))}
@@ -27,7 +28,7 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
             editable={editable}
             testID={testID}
             accessibilityLabel={`${label} (${unit === 'kva' ? 'kVA' : 'hp'})`}
-            style={{ flex: 1 }}
+            style={styles.sizeValue}
           />
           <SegCell
             value={unit}
@@ -45,7 +46,7 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
             editable={editable}
             testID={`${testID}-unit`}
             accessibilityLabel={`${label} unit`}
-            style={{ width: 96 }}
+            style={styles.sizeUnit}
           />
         </View>
       );
@@ -68,3 +69,9 @@ export const MOTOR_COLUMNS: Column<MotorInput>[] = [
         : undefined,
   }),
 ];
+
+const styles = StyleSheet.create({
+  sizeRow: { flexDirection: 'row', gap: space.xs },
+  sizeValue: { flex: 1 },
+  sizeUnit: { width: 96 },
+});

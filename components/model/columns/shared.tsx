@@ -1,6 +1,6 @@
 /** Shared pieces of the element columns: the column and cell types and the building blocks every kind uses. */
 import React from 'react';
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import type { DeviceType } from '../../../shared/schemas/deviceLibrary';
 import { colors, space } from '../../theme';
 import { T } from '../../ui';
@@ -204,8 +204,13 @@ export function busColumn<E extends object>(
 /** A text for a field that does not apply in a table row. */
 export function NotApplicable() {
   return (
-    <View style={{ height: 38, justifyContent: 'center', paddingHorizontal: space.sm }}>
-      <T style={{ color: colors.line, fontSize: 15 }}>—</T>
+    <View style={styles.notApplicable}>
+      <T style={styles.notApplicableText}>—</T>
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  notApplicable: { height: 38, justifyContent: 'center', paddingHorizontal: space.sm },
+  notApplicableText: { color: colors.line, fontSize: 15 },
+});

@@ -1,5 +1,6 @@
 /** Source fields (utility and generator). */
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { space } from '../../theme';
 import { NumCell, SegCell } from '../controls';
 import { withField } from '../edit';
 import { type SourceInput, type UtilityInput } from '../summaries';
@@ -82,7 +83,7 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
       const unit = 'shortCircuitKa' in e && !('shortCircuitMva' in e) ? 'ka' : 'mva';
       const key = unit === 'ka' ? 'shortCircuitKa' : 'shortCircuitMva';
       return (
-        <View style={{ flexDirection: 'row', gap: 4 }}>
+        <View style={styles.strengthRow}>
           <NumCell
             value={e[key]}
             onChange={(v) => patch((s) => ({ ...(s as UtilityInput), [key]: v }))}
@@ -91,7 +92,7 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
             editable={editable}
             testID={testID}
             accessibilityLabel={`${label} (${unit === 'ka' ? 'kA' : 'MVA'})`}
-            style={{ flex: 1 }}
+            style={styles.strengthValue}
           />
           <SegCell
             value={unit}
@@ -111,7 +112,7 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
             editable={editable}
             testID={`${testID}-unit`}
             accessibilityLabel={`${label} unit`}
-            style={{ width: 96 }}
+            style={styles.strengthUnit}
           />
         </View>
       );
@@ -140,3 +141,9 @@ export const SOURCE_COLUMNS: Column<SourceInput>[] = [
   generatorNumber('subtransientTimeConstantS', 'T″d', 's', 84, 'Short-circuit subtransient time constant', true),
   generatorNumber('transientTimeConstantS', 'T′d', 's', 84, 'Short-circuit transient time constant', true),
 ];
+
+const styles = StyleSheet.create({
+  strengthRow: { flexDirection: 'row', gap: space.xs },
+  strengthValue: { flex: 1 },
+  strengthUnit: { width: 96 },
+});

@@ -7,7 +7,7 @@
  */
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, type ReactNode } from 'react';
-import { Platform, View } from 'react-native';
+import { Platform, StyleSheet, View } from 'react-native';
 import { contract } from '../../../shared/api';
 import {
   RELAY_CURVES,
@@ -153,9 +153,9 @@ export function DeviceSettingsPanel({
 
   return (
     <View ref={ref}>
-      <Card testID="device-settings" style={{ gap: space.md }}>
-        <View style={{ flexDirection: 'row', alignItems: 'flex-start', gap: space.sm }}>
-          <View style={{ flex: 1, gap: 2 }}>
+      <Card testID="device-settings" style={styles.panel}>
+        <View style={styles.head}>
+          <View style={styles.headText}>
             <T variant="subheading" testID="device-settings-title">{`Settings of ${title}`}</T>
             <T variant="small" testID="device-settings-provenance">
               {device ? `${DEVICE_KIND_LABELS[device.kind]} · ` : ''}
@@ -168,7 +168,7 @@ export function DeviceSettingsPanel({
                     : 'no settings yet'}
             </T>
             {libType?.genericNote ? (
-              <T variant="small" style={{ color: colors.caution }}>
+              <T variant="small" style={styles.warningText}>
                 {genericNoteSentence(libType.genericNote)}
               </T>
             ) : null}
@@ -176,7 +176,7 @@ export function DeviceSettingsPanel({
           <IconButton icon="close" label="Close the device settings" onPress={onClose} testID="device-settings-close" />
         </View>
         {generalIssues.map((li, i) => (
-          <T key={i} style={{ color: colors.danger, fontSize: 15 }} accessibilityRole="alert">
+          <T key={i} style={styles.problem} accessibilityRole="alert">
             {issueMessage(li.issue)}
           </T>
         ))}
@@ -234,7 +234,7 @@ interface FieldsCommon {
 }
 
 function Row({ children }: { children: ReactNode }) {
-  return <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>{children}</View>;
+  return <View style={styles.row}>{children}</View>;
 }
 
 function Num({
@@ -279,7 +279,7 @@ function Num({
         placeholder={placeholder}
       />
       {!error && warning ? (
-        <T variant="small" style={{ color: colors.caution }} testID={`${testID}-warning`}>
+        <T variant="small" style={styles.warningText} testID={`${testID}-warning`}>
           {warning}
         </T>
       ) : null}
@@ -289,7 +289,7 @@ function Num({
 
 function NoDevice({ editable, onStart }: { editable: boolean; onStart: (d: Device) => void }) {
   return (
-    <View style={{ gap: space.sm }}>
+    <View style={styles.noDevice}>
       <T variant="small">Choose a device type from the library in the device’s row, or set a relay here by hand.</T>
       {editable ? (
         <Button
@@ -317,7 +317,7 @@ function RelayFields({ r, editable, setDevice, fieldError, fieldWarning }: Field
   const inst = relayInstantaneousPrimaryA(r);
   const f = (k: string) => ({ error: fieldError(k), warning: fieldWarning(k) });
   return (
-    <View style={{ gap: space.md }}>
+    <View style={styles.fields}>
       <Row>
         <FormField label="Curve" error={fieldError('curve')} basis={240}>
           <PickCell
@@ -481,7 +481,7 @@ function ElectronicFields({
       );
     };
     return (
-      <View style={{ gap: space.md }}>
+      <View style={styles.fields}>
         <T variant="small">{`Switch positions of the trip-unit type ${unit.tripType.name}.`}</T>
         <Row>
           {tripUnitSwitches(unit.tripType).map((s) => (
@@ -503,7 +503,7 @@ function ElectronicFields({
         {resolve.error ? (
           <Notice tone="error">{serverErrors(resolve.error).message}</Notice>
         ) : positionsError ? (
-          <T style={{ color: colors.danger }}>{issueMessage(positionsError.issue)}</T>
+          <T style={styles.errorText}>{issueMessage(positionsError.issue)}</T>
         ) : null}
         <T variant="small" testID="trip-resolved">{`Resolved: ${deviceSettingsSummary(e)}`}</T>
       </View>
@@ -512,7 +512,7 @@ function ElectronicFields({
   const f = (k: string) => ({ error: fieldError(k), warning: fieldWarning(k) });
   const set = (next: ElectronicDevice) => setDevice(next);
   return (
-    <View style={{ gap: space.md }}>
+    <View style={styles.fields}>
       <Row>
         <Num
           label="Sensor In"
@@ -616,7 +616,7 @@ function ThermalMagneticFields({
     setDevice({ ...tm, instantaneous: setField({ ...i }, k, v as never) });
   const f = (k: string) => ({ error: fieldError(`instantaneous.${k}`), warning: fieldWarning(`instantaneous.${k}`) });
   return (
-    <View style={{ gap: space.md }}>
+    <View style={styles.fields}>
       <T variant="small">{`Rating ${num(tm.ratingA)} A; the thermal band (${tm.thermal.max.length} points) is kept as it is.`}</T>
       <Row>
         <FormField label="Instantaneous pickup" error={fieldError('instantaneous')} basis={240}>
@@ -726,7 +726,7 @@ function FuseFields({
     [typesById],
   );
   return (
-    <View style={{ gap: space.sm }}>
+    <View style={styles.fuseFields}>
       <Row>
         <FormField label="Fuse from the library" basis={240}>
           <PickCell
@@ -812,22 +812,15 @@ function BandBeside({
           ? `Lines at ${busId}’s bolted fault and arcing currents from the last run (saved model at that time); the device may carry only part of them.`
           : `No results for ${busId} yet: run the study to see its bolted fault and arcing currents here.`;
   return (
-    <View style={{ gap: space.sm }} testID="device-settings-band">
-      <View
-        style={{
-          borderTopWidth: 1,
-          borderTopColor: colors.line,
-          paddingTop: space.sm,
-          gap: 2,
-        }}
-      >
+    <View style={styles.band} testID="device-settings-band">
+      <View style={styles.bandHead}>
         <T variant="label">BAND</T>
-        <T variant="small" testID="device-settings-band-note" style={{ color: bus ? colors.inkSoft : colors.muted }}>
+        <T variant="small" testID="device-settings-band-note" style={bus ? styles.bandNote : styles.bandNoteNone}>
           {note}
         </T>
       </View>
       {!valid ? (
-        <T variant="small" style={{ color: colors.muted }}>
+        <T variant="small" style={styles.bandWaiting}>
           The band is drawn once the settings are complete.
         </T>
       ) : curves.error ? (
@@ -841,9 +834,34 @@ function BandBeside({
           emptyMessage={curves.isLoading ? 'Drawing the band…' : undefined}
         />
       )}
-      <T variant="small" style={{ fontFamily: fonts.text, color: colors.muted }}>
+      <T variant="small" style={styles.footnote}>
         Settings here change this placed device only; the library type stays as it is.
       </T>
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  panel: { gap: space.md },
+  head: { flexDirection: 'row', alignItems: 'flex-start', gap: space.sm },
+  headText: { flex: 1, gap: 2 },
+  warningText: { color: colors.caution },
+  problem: { color: colors.danger, fontSize: 15 },
+  row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  noDevice: { gap: space.sm },
+  fields: { gap: space.md },
+  errorText: { color: colors.danger },
+  fuseFields: { gap: space.sm },
+  band: { gap: space.sm },
+  bandHead: {
+    borderTopWidth: 1,
+    borderTopColor: colors.line,
+    paddingTop: space.sm,
+    gap: 2,
+  },
+  bandNote: { color: colors.inkSoft },
+  /** No results for the bus yet. */
+  bandNoteNone: { color: colors.muted },
+  bandWaiting: { color: colors.muted },
+  footnote: { fontFamily: fonts.text, color: colors.muted },
+});

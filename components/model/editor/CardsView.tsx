@@ -2,7 +2,7 @@
 import { memo, useCallback } from 'react';
 import { useUnitSystem } from '../../../hooks/unitSystem';
 import { unitLabel } from '../../../hooks/units';
-import { Pressable, View, type ViewStyle } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { colors, fonts, radius, space, touch } from '../../theme';
 import { Button, T } from '../../ui';
 import { COLUMNS, type Column } from '../columns';
@@ -37,15 +37,11 @@ export const CardRow = memo(function CardRow({
   const base = `${collection}-${index}`;
   const bad = issues.length > 0;
   const general = byColumn.get(-1) ?? [];
-  const cardStyle: ViewStyle = {
-    backgroundColor: colors.surface,
-    borderRadius: radius.md,
-    borderWidth: focused ? 2 : 1,
-    borderColor: focused ? colors.accent : bad ? '#E7B4B4' : colors.lineSoft,
-    borderLeftWidth: 4,
-    borderLeftColor: bad ? colors.danger : focused ? colors.accent : colors.lineSoft,
-    overflow: 'hidden',
-  };
+  const cardStyle = [
+    styles.card,
+    focused ? styles.cardFocused : bad ? styles.cardBad : null,
+    bad ? styles.cardBarBad : focused ? styles.cardBarFocused : null,
+  ];
   return (
     <View ref={ref} style={cardStyle} testID={`card-${base}`}>
       <Pressable
@@ -54,75 +50,37 @@ export const CardRow = memo(function CardRow({
         accessibilityLabel={`${element.id}, ${expanded ? 'collapse' : 'expand'}`}
         onPress={() => actions.toggle(key)}
         testID={`${base}-toggle`}
-        style={({ pressed }) => ({
-          minHeight: 56,
-          paddingVertical: space.sm,
-          paddingLeft: space.md,
-          paddingRight: space.sm,
-          flexDirection: 'row',
-          alignItems: 'center',
-          gap: space.sm,
-          backgroundColor: pressed ? colors.canvas : 'transparent',
-        })}
+        style={({ pressed }) => [styles.toggle, pressed ? styles.togglePressed : null]}
       >
-        <View style={{ flex: 1, gap: 2, minWidth: 0 }}>
-          <T numberOfLines={1} style={{ fontSize: 16 }}>
-            <T style={{ fontFamily: fonts.textBold, fontSize: 16 }}>{element.id || '(no id)'}</T>
-            {element.name ? <T style={{ color: colors.muted, fontSize: 15 }}>{`  ${element.name}`}</T> : null}
+        <View style={styles.summary}>
+          <T numberOfLines={1} style={styles.title}>
+            <T style={styles.titleId}>{element.id || '(no id)'}</T>
+            {element.name ? <T style={styles.titleName}>{`  ${element.name}`}</T> : null}
           </T>
-          <T numberOfLines={expanded ? undefined : 1} style={{ fontSize: 14, lineHeight: 19, color: colors.inkSoft }}>
+          <T numberOfLines={expanded ? undefined : 1} style={styles.summaryText}>
             {elementSummary(collection, element, system)}
           </T>
           {bad && !expanded ? (
-            <T numberOfLines={1} style={{ fontSize: 14, lineHeight: 19, color: colors.danger }}>
+            <T numberOfLines={1} style={styles.summaryProblem}>
               {`${problemCount(issues.length)}: ${issues[0].field ? `${fieldLabel(issues[0].field)} — ` : ''}${issueMessage(issues[0].issue)}`}
             </T>
           ) : null}
         </View>
         {bad ? (
-          <View
-            style={{
-              minWidth: 22,
-              height: 22,
-              borderRadius: 11,
-              paddingHorizontal: 6,
-              backgroundColor: colors.danger,
-              alignItems: 'center',
-              justifyContent: 'center',
-            }}
-          >
-            <T style={{ color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 }}>
-              {issues.length}
-            </T>
+          <View style={styles.problemBadge}>
+            <T style={styles.problemBadgeText}>{issues.length}</T>
           </View>
         ) : null}
         <Icon name={expanded ? 'chevron-down' : 'chevron-right'} size={20} color={colors.muted} />
       </Pressable>
       {expanded ? (
-        <View
-          style={{
-            paddingHorizontal: space.md,
-            paddingBottom: space.md,
-            paddingTop: space.xs,
-            gap: space.md,
-            borderTopWidth: 1,
-            borderTopColor: colors.lineSoft,
-          }}
-        >
+        <View style={styles.body}>
           {general.map((li, i) => (
-            <T key={i} style={{ color: colors.danger, fontSize: 15 }}>
+            <T key={i} style={styles.problem}>
               {`${li.field ? `${fieldLabel(li.field)}: ` : ''}${issueMessage(li.issue)}`}
             </T>
           ))}
-          <View
-            style={{
-              flexDirection: 'row',
-              flexWrap: 'wrap',
-              columnGap: space.md,
-              rowGap: space.md,
-              paddingTop: space.sm,
-            }}
-          >
+          <View style={styles.fields}>
             {columns.map((c, ci) => {
               if (c.applies && !c.applies(element, ctx)) return null;
               const problems = byColumn.get(ci);
@@ -148,7 +106,7 @@ export const CardRow = memo(function CardRow({
                     label: `${element.id} ${c.label}`,
                   })}
                   {cautions && !problems ? (
-                    <T variant="small" style={{ color: colors.caution }} testID={`${base}-${c.key}-warning`}>
+                    <T variant="small" style={styles.fieldWarning} testID={`${base}-${c.key}-warning`}>
                       {`Worth checking: ${cautions.map((li) => li.issue.message).join(' · ')}`}
                     </T>
                   ) : null}
@@ -157,7 +115,7 @@ export const CardRow = memo(function CardRow({
             })}
           </View>
           {editable ? (
-            <View style={{ flexDirection: 'row', gap: space.sm, justifyContent: 'flex-end', flexWrap: 'wrap' }}>
+            <View style={styles.actions}>
               <Button
                 title="Duplicate"
                 kind="secondary"
@@ -168,20 +126,10 @@ export const CardRow = memo(function CardRow({
                 accessibilityRole="button"
                 onPress={() => actions.remove(collection, index)}
                 testID={`${base}-delete`}
-                style={({ pressed }) => ({
-                  minHeight: touch.min,
-                  paddingHorizontal: space.lg,
-                  borderRadius: radius.md,
-                  borderWidth: 1,
-                  borderColor: '#E7B4B4',
-                  backgroundColor: pressed ? colors.dangerSoft : colors.surface,
-                  flexDirection: 'row',
-                  alignItems: 'center',
-                  gap: space.sm,
-                })}
+                style={({ pressed }) => [styles.delete, pressed ? styles.deletePressed : null]}
               >
                 <Icon name="trash" size={18} color={colors.danger} />
-                <T style={{ color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 }}>Delete</T>
+                <T style={styles.deleteText}>Delete</T>
               </Pressable>
             </View>
           ) : null}
@@ -189,4 +137,73 @@ export const CardRow = memo(function CardRow({
       ) : null}
     </View>
   );
+});
+
+const styles = StyleSheet.create({
+  card: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+    borderLeftWidth: 4,
+    borderLeftColor: colors.lineSoft,
+    overflow: 'hidden',
+  },
+  cardFocused: { borderWidth: 2, borderColor: colors.accent },
+  cardBad: { borderColor: '#E7B4B4' },
+  /** The bar on the left: a problem outranks the focus. */
+  cardBarBad: { borderLeftColor: colors.danger },
+  cardBarFocused: { borderLeftColor: colors.accent },
+  toggle: {
+    minHeight: 56,
+    paddingVertical: space.sm,
+    paddingLeft: space.md,
+    paddingRight: space.sm,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    backgroundColor: 'transparent',
+  },
+  togglePressed: { backgroundColor: colors.canvas },
+  summary: { flex: 1, gap: 2, minWidth: 0 },
+  title: { fontSize: 16 },
+  titleId: { fontFamily: fonts.textBold, fontSize: 16 },
+  titleName: { color: colors.muted, fontSize: 15 },
+  summaryText: { fontSize: 14, lineHeight: 19, color: colors.inkSoft },
+  summaryProblem: { fontSize: 14, lineHeight: 19, color: colors.danger },
+  problemBadge: {
+    minWidth: 22,
+    height: 22,
+    borderRadius: 11,
+    paddingHorizontal: 6,
+    backgroundColor: colors.danger,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  problemBadgeText: { color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 },
+  body: {
+    paddingHorizontal: space.md,
+    paddingBottom: space.md,
+    paddingTop: space.xs,
+    gap: space.md,
+    borderTopWidth: 1,
+    borderTopColor: colors.lineSoft,
+  },
+  problem: { color: colors.danger, fontSize: 15 },
+  fields: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.md, rowGap: space.md, paddingTop: space.sm },
+  fieldWarning: { color: colors.caution },
+  actions: { flexDirection: 'row', gap: space.sm, justifyContent: 'flex-end', flexWrap: 'wrap' },
+  delete: {
+    minHeight: touch.min,
+    paddingHorizontal: space.lg,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: '#E7B4B4',
+    backgroundColor: colors.surface,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+  },
+  deletePressed: { backgroundColor: colors.dangerSoft },
+  deleteText: { color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 },
 });

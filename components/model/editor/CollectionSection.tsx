@@ -1,6 +1,6 @@
 /** One collection: toolbar, then table rows (wide) or cards (phone). */
 import { useMemo } from 'react';
-import { Pressable, TextInput, View } from 'react-native';
+import { Pressable, StyleSheet, TextInput, View } from 'react-native';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { colors, fonts, radius, space, touch } from '../../theme';
 import { Card, T } from '../../ui';
@@ -69,7 +69,7 @@ export function CollectionSection({
 
   const addButtons = editable ? (
     collection === 'sources' ? (
-      <View style={{ flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' }}>
+      <View style={styles.addButtons}>
         <AddButton title="Add utility" onPress={() => onAdd('sources', 'utility')} testID="model-add-utility" />
         <AddButton title="Add generator" onPress={() => onAdd('sources', 'generator')} testID="model-add-generator" />
       </View>
@@ -83,18 +83,11 @@ export function CollectionSection({
   ) : null;
 
   return (
-    <View style={{ gap: space.md }} testID={`model-section-body-${collection}`}>
-      <View
-        style={{
-          flexDirection: wide && !stackHeader ? 'row' : 'column',
-          alignItems: wide ? (stackHeader ? 'flex-start' : 'center') : 'stretch',
-          gap: space.md,
-        }}
-      >
-        <View style={{ flex: wide && !stackHeader ? 1 : undefined, gap: 2 }}>
+    <View style={styles.section} testID={`model-section-body-${collection}`}>
+      <View style={[styles.header, wide ? (stackHeader ? styles.headerStacked : styles.headerRow) : null]}>
+        <View style={[styles.headerTitle, wide && !stackHeader ? styles.headerTitleRow : null]}>
           <T variant="heading">
-            {labels.plural}{' '}
-            <T style={{ fontFamily: fonts.numbers, fontSize: 18, color: colors.muted }}>{items.length}</T>
+            {labels.plural} <T style={styles.count}>{items.length}</T>
           </T>
           <T variant="small">{SECTION_NOTES[collection]}</T>
         </View>
@@ -104,20 +97,20 @@ export function CollectionSection({
         {addButtons}
       </View>
       {sectionIssues.map((li, i) => (
-        <T key={i} style={{ color: colors.danger, fontSize: 15 }}>
+        <T key={i} style={styles.problem}>
           {issueMessage(li.issue)}
         </T>
       ))}
       {items.length === 0 ? (
-        <Card style={{ borderStyle: 'dashed', borderColor: colors.line, alignItems: 'flex-start' }}>
+        <Card style={styles.empty}>
           <T variant="small">{`No ${labels.plural.toLowerCase()} yet.`}</T>
         </Card>
       ) : indexes.length === 0 ? (
         <T variant="small">{`No ${labels.plural.toLowerCase()} match “${filter}”.`}</T>
       ) : wide ? (
-        <Card style={{ padding: 0, gap: 0, overflow: 'hidden' }}>
+        <Card style={styles.tableCard}>
           <SideScroll testID={`table-${collection}`}>
-            <View style={{ minWidth: '100%' }}>
+            <View style={styles.table}>
               <TableHeader columns={columns} />
               {indexes.map((i) => {
                 const key = elementKey(collection, i);
@@ -140,7 +133,7 @@ export function CollectionSection({
           </SideScroll>
         </Card>
       ) : (
-        <View style={{ gap: space.sm }}>
+        <View style={styles.cards}>
           {indexes.map((i) => {
             const key = elementKey(collection, i);
             return (
@@ -171,20 +164,10 @@ export function AddButton({ title, onPress, testID }: { title: string; onPress: 
       accessibilityRole="button"
       onPress={onPress}
       testID={testID}
-      style={({ pressed }) => ({
-        minHeight: touch.min,
-        paddingHorizontal: space.lg,
-        borderRadius: radius.md,
-        backgroundColor: colors.accent,
-        flexDirection: 'row',
-        alignItems: 'center',
-        justifyContent: 'center',
-        gap: space.sm,
-        opacity: pressed ? 0.85 : 1,
-      })}
+      style={({ pressed }) => [styles.addButton, pressed ? styles.addButtonPressed : null]}
     >
       <Icon name="plus" size={18} color={colors.accentInk} />
-      <T style={{ color: colors.accentInk, fontFamily: fonts.textBold, fontSize: 16 }}>{title}</T>
+      <T style={styles.addButtonText}>{title}</T>
     </Pressable>
   );
 }
@@ -201,20 +184,7 @@ export function FilterBox({
   label: string;
 }) {
   return (
-    <View
-      style={{
-        width: wide ? 240 : undefined,
-        height: touch.min,
-        flexDirection: 'row',
-        alignItems: 'center',
-        gap: space.sm,
-        borderWidth: 1.5,
-        borderColor: colors.line,
-        borderRadius: radius.sm,
-        paddingHorizontal: space.md,
-        backgroundColor: colors.surface,
-      }}
-    >
+    <View style={[styles.filter, wide ? styles.filterWide : null]}>
       <Icon name="search" size={18} color={colors.muted} />
       <TextInput
         value={value}
@@ -225,9 +195,52 @@ export function FilterBox({
         autoCapitalize="none"
         autoCorrect={false}
         testID="model-filter"
-        style={{ flex: 1, height: '100%', minWidth: 0, fontSize: 16, fontFamily: fonts.text, color: colors.ink }}
+        style={styles.filterInput}
       />
       {value ? <IconButton icon="close" label="Clear" size={32} onPress={() => onChange('')} /> : null}
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  addButtons: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  section: { gap: space.md },
+  /** The heading, the filter and the add buttons: stacked on a phone, in a row on a wide screen unless asked. */
+  header: { flexDirection: 'column', alignItems: 'stretch', gap: space.md },
+  headerRow: { flexDirection: 'row', alignItems: 'center' },
+  headerStacked: { alignItems: 'flex-start' },
+  headerTitle: { gap: 2 },
+  headerTitleRow: { flex: 1 },
+  count: { fontFamily: fonts.numbers, fontSize: 18, color: colors.muted },
+  problem: { color: colors.danger, fontSize: 15 },
+  empty: { borderStyle: 'dashed', borderColor: colors.line, alignItems: 'flex-start' },
+  tableCard: { padding: 0, gap: 0, overflow: 'hidden' },
+  table: { minWidth: '100%' },
+  cards: { gap: space.sm },
+  addButton: {
+    minHeight: touch.min,
+    paddingHorizontal: space.lg,
+    borderRadius: radius.md,
+    backgroundColor: colors.accent,
+    flexDirection: 'row',
+    alignItems: 'center',
+    justifyContent: 'center',
+    gap: space.sm,
+    opacity: 1,
+  },
+  addButtonPressed: { opacity: 0.85 },
+  addButtonText: { color: colors.accentInk, fontFamily: fonts.textBold, fontSize: 16 },
+  filter: {
+    height: touch.min,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    borderWidth: 1.5,
+    borderColor: colors.line,
+    borderRadius: radius.sm,
+    paddingHorizontal: space.md,
+    backgroundColor: colors.surface,
+  },
+  filterWide: { width: 240 },
+  filterInput: { flex: 1, height: '100%', minWidth: 0, fontSize: 16, fontFamily: fonts.text, color: colors.ink },
+});

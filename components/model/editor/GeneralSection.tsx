@@ -1,5 +1,5 @@
 /** General (the study as a whole). */
-import { View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { colors, space } from '../../theme';
 import { Card, Choice, T } from '../../ui';
@@ -30,11 +30,11 @@ export function GeneralSection({
     <Card testID="model-general">
       <T variant="small">{SECTION_NOTES.general}</T>
       {others.map((li, i) => (
-        <T key={i} style={{ color: colors.danger, fontSize: 15 }}>
+        <T key={i} style={styles.problem}>
           {`${fieldLabel(li.field) || 'Model'}: ${issueMessage(li.issue)}`}
         </T>
       ))}
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>
+      <View style={styles.fields}>
         <FormField label="Study name" error={errorOf('name')} basis={260}>
           <TextCell
             value={model.name}
@@ -71,3 +71,8 @@ export function GeneralSection({
     </Card>
   );
 }
+
+const styles = StyleSheet.create({
+  problem: { color: colors.danger, fontSize: 15 },
+  fields: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+});

@@ -5,7 +5,7 @@
  * Wide screens: a table of scenarios and the chosen one's detail below it. Phone: one collapsible card per scenario.
  */
 import { memo, useCallback, useMemo, useState, type ReactNode } from 'react';
-import { Pressable, View, type ViewStyle } from 'react-native';
+import { Pressable, StyleSheet, View, type ViewStyle } from 'react-native';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { colors, fonts, radius, space, touch } from '../../theme';
 import { Button, Card, T } from '../../ui';
@@ -127,23 +127,23 @@ export function ScenariosSection({ model, grouped, editable, wide, commit, lates
   );
 
   return (
-    <View style={{ gap: space.md }} testID="model-section-body-scenarios">
-      <View style={{ flexDirection: wide ? 'row' : 'column', alignItems: wide ? 'center' : 'stretch', gap: space.md }}>
-        <View style={{ flex: wide ? 1 : undefined, gap: 2 }}>
+    <View style={styles.section} testID="model-section-body-scenarios">
+      <View style={[styles.header, wide ? styles.headerWide : null]}>
+        <View style={[styles.headerTitle, wide ? styles.headerTitleWide : null]}>
           <T variant="heading">
-            Scenarios <T style={{ fontFamily: fonts.numbers, fontSize: 18, color: colors.muted }}>{scenarios.length}</T>
+            Scenarios <T style={styles.count}>{scenarios.length}</T>
           </T>
           <T variant="small">{SECTION_NOTES.scenarios}</T>
         </View>
         {editable ? <AddButton title="Add scenario" onPress={add} testID="model-add-scenarios" /> : null}
       </View>
       {sectionIssues.map((li, i) => (
-        <T key={i} style={{ color: colors.danger, fontSize: 15 }}>
+        <T key={i} style={styles.problem}>
           {issueMessage(li.issue)}
         </T>
       ))}
       {wide ? (
-        <Card style={{ padding: 0, gap: 0, overflow: 'hidden' }}>
+        <Card style={styles.listCard}>
           <ListHeader />
           <BaseRow wide />
           {scenarios.map((s, i) => (
@@ -160,20 +160,10 @@ export function ScenariosSection({ model, grouped, editable, wide, commit, lates
           ))}
         </Card>
       ) : (
-        <View style={{ gap: space.sm }}>
+        <View style={styles.cards}>
           <BaseRow wide={false} />
           {scenarios.map((s, i) => (
-            <View
-              key={i}
-              testID={`card-scenarios-${i}`}
-              style={{
-                backgroundColor: colors.surface,
-                borderRadius: radius.md,
-                borderWidth: 1,
-                borderColor: chosen === i ? colors.accent : colors.lineSoft,
-                overflow: 'hidden',
-              }}
-            >
+            <View key={i} testID={`card-scenarios-${i}`} style={[styles.card, chosen === i ? styles.cardChosen : null]}>
               <ScenarioListRow
                 index={i}
                 scenario={s}
@@ -183,17 +173,13 @@ export function ScenariosSection({ model, grouped, editable, wide, commit, lates
                 wide={false}
                 onPress={() => setOpen(chosen === i ? null : i)}
               />
-              {chosen === i ? (
-                <View style={{ borderTopWidth: 1, borderTopColor: colors.lineSoft, padding: space.md }}>
-                  {detail(i)}
-                </View>
-              ) : null}
+              {chosen === i ? <View style={styles.cardDetail}>{detail(i)}</View> : null}
             </View>
           ))}
         </View>
       )}
       {scenarios.length === 0 ? (
-        <Card style={{ borderStyle: 'dashed', borderColor: colors.line, alignItems: 'flex-start' }}>
+        <Card style={styles.empty}>
           <T variant="small">
             No scenarios yet: only the model as written is run. Add one for each state the plant runs in — the utility
             at its minimum fault level, a tie closed, the generator alone, motors stopped.
@@ -213,24 +199,17 @@ const LIST_NAME_WIDTH = 260;
 
 function ListHeader() {
   const cell = (label: string, style: ViewStyle) => (
-    <View style={[{ paddingHorizontal: space.md, paddingVertical: space.sm }, style]}>
-      <T variant="label" style={{ color: colors.muted }}>
+    <View style={[styles.listHeadCell, style]}>
+      <T variant="label" style={styles.listHeadText}>
         {label}
       </T>
     </View>
   );
   return (
-    <View
-      style={{
-        flexDirection: 'row',
-        backgroundColor: colors.canvas,
-        borderBottomWidth: 1,
-        borderBottomColor: colors.lineSoft,
-      }}
-    >
-      {cell('Id', { width: LIST_ID_WIDTH + 4 })}
-      {cell('Name', { width: LIST_NAME_WIDTH })}
-      {cell('What it changes', { flex: 1 })}
+    <View style={styles.listHead}>
+      {cell('Id', styles.listHeadId)}
+      {cell('Name', styles.listHeadName)}
+      {cell('What it changes', styles.listHeadSummary)}
     </View>
   );
 }
@@ -239,39 +218,17 @@ function BaseRow({ wide }: { wide: boolean }) {
   const text = 'The model as written — always run';
   if (!wide) {
     return (
-      <View
-        testID="scenario-base"
-        style={{
-          paddingHorizontal: space.md,
-          paddingVertical: space.sm,
-          borderRadius: radius.md,
-          backgroundColor: colors.canvas,
-          gap: 2,
-        }}
-      >
-        <T style={{ fontFamily: fonts.textBold, fontSize: 16 }}>base</T>
+      <View testID="scenario-base" style={styles.baseCard}>
+        <T style={styles.baseId}>base</T>
         <T variant="small">{text}</T>
       </View>
     );
   }
   return (
-    <View
-      testID="scenario-base"
-      style={{
-        flexDirection: 'row',
-        alignItems: 'center',
-        minHeight: 44,
-        borderBottomWidth: 1,
-        borderBottomColor: colors.lineSoft,
-        borderLeftWidth: 4,
-        borderLeftColor: 'transparent',
-      }}
-    >
-      <T style={{ width: LIST_ID_WIDTH, paddingHorizontal: space.md, fontFamily: fonts.textBold, color: colors.muted }}>
-        base
-      </T>
-      <T style={{ width: LIST_NAME_WIDTH, paddingHorizontal: space.md, color: colors.muted }}>Model as written</T>
-      <T variant="small" style={{ flex: 1, paddingHorizontal: space.md }}>
+    <View testID="scenario-base" style={styles.baseRow}>
+      <T style={styles.baseRowId}>base</T>
+      <T style={styles.baseRowName}>Model as written</T>
+      <T variant="small" style={styles.baseRowNote}>
         Always run; the scenarios below change it
       </T>
     </View>
@@ -296,19 +253,8 @@ const ScenarioListRow = memo(function ScenarioListRow({
   onPress: () => void;
 }) {
   const badge = problems ? (
-    <View
-      accessibilityLabel={problemCount(problems)}
-      style={{
-        minWidth: 22,
-        height: 22,
-        borderRadius: 11,
-        paddingHorizontal: 6,
-        backgroundColor: colors.danger,
-        alignItems: 'center',
-        justifyContent: 'center',
-      }}
-    >
-      <T style={{ color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 }}>{problems}</T>
+    <View accessibilityLabel={problemCount(problems)} style={styles.problemBadge}>
+      <T style={styles.problemBadgeText}>{problems}</T>
     </View>
   ) : null;
   const idText = scenario.id || '(no id)';
@@ -319,34 +265,23 @@ const ScenarioListRow = memo(function ScenarioListRow({
         aria-pressed={chosen}
         onPress={onPress}
         testID={`scenario-row-${index}`}
-        style={({ hovered }: { pressed: boolean; hovered?: boolean }) => ({
-          flexDirection: 'row',
-          alignItems: 'center',
-          minHeight: 48,
-          borderBottomWidth: 1,
-          borderBottomColor: colors.lineSoft,
-          borderLeftWidth: 4,
-          borderLeftColor: chosen ? colors.accent : problems ? colors.danger : 'transparent',
-          backgroundColor: chosen ? colors.accentSoft : hovered ? colors.canvas : colors.surface,
-        })}
+        style={({ hovered }: { pressed: boolean; hovered?: boolean }) => [
+          styles.listRow,
+          chosen
+            ? styles.listRowChosen
+            : [problems ? styles.listRowProblem : null, hovered ? styles.listRowHovered : null],
+        ]}
       >
-        <T
-          numberOfLines={1}
-          style={{ width: LIST_ID_WIDTH, paddingHorizontal: space.md, fontFamily: fonts.textBold, fontSize: 15 }}
-        >
+        <T numberOfLines={1} style={styles.listRowId}>
           {idText}
         </T>
-        <T numberOfLines={1} style={{ width: LIST_NAME_WIDTH, paddingHorizontal: space.md, fontSize: 15 }}>
-          {scenario.name || <T style={{ color: colors.muted, fontStyle: 'italic' }}>no name</T>}
+        <T numberOfLines={1} style={styles.listRowName}>
+          {scenario.name || <T style={styles.noName}>no name</T>}
         </T>
-        <T
-          numberOfLines={2}
-          style={{ flex: 1, paddingHorizontal: space.md, fontSize: 14, color: colors.inkSoft }}
-          testID={`scenario-summary-${index}`}
-        >
+        <T numberOfLines={2} style={styles.listRowSummary} testID={`scenario-summary-${index}`}>
           {summary}
         </T>
-        <View style={{ width: 44, alignItems: 'center' }}>{badge}</View>
+        <View style={styles.listRowBadge}>{badge}</View>
       </Pressable>
     );
   }
@@ -356,29 +291,18 @@ const ScenarioListRow = memo(function ScenarioListRow({
       aria-expanded={chosen}
       onPress={onPress}
       testID={`scenario-row-${index}`}
-      style={({ pressed }) => ({
-        minHeight: 56,
-        paddingVertical: space.sm,
-        paddingLeft: space.md,
-        paddingRight: space.sm,
-        flexDirection: 'row',
-        alignItems: 'center',
-        gap: space.sm,
-        borderLeftWidth: 4,
-        borderLeftColor: problems ? colors.danger : chosen ? colors.accent : colors.lineSoft,
-        backgroundColor: pressed ? colors.canvas : 'transparent',
-      })}
+      style={({ pressed }) => [
+        styles.cardRow,
+        problems ? styles.cardRowProblem : chosen ? styles.cardRowChosen : null,
+        pressed ? styles.cardRowPressed : null,
+      ]}
     >
-      <View style={{ flex: 1, gap: 2, minWidth: 0 }}>
-        <T numberOfLines={1} style={{ fontSize: 16 }}>
-          <T style={{ fontFamily: fonts.textBold, fontSize: 16 }}>{idText}</T>
-          {scenario.name ? <T style={{ color: colors.muted, fontSize: 15 }}>{`  ${scenario.name}`}</T> : null}
+      <View style={styles.cardRowText}>
+        <T numberOfLines={1} style={styles.cardRowTitle}>
+          <T style={styles.cardRowId}>{idText}</T>
+          {scenario.name ? <T style={styles.cardRowName}>{`  ${scenario.name}`}</T> : null}
         </T>
-        <T
-          numberOfLines={chosen ? undefined : 2}
-          style={{ fontSize: 14, lineHeight: 19, color: colors.inkSoft }}
-          testID={`scenario-summary-${index}`}
-        >
+        <T numberOfLines={chosen ? undefined : 2} style={styles.cardRowSummary} testID={`scenario-summary-${index}`}>
           {summary}
         </T>
       </View>
@@ -465,8 +389,8 @@ function ScenarioDetail({
   const base = `scenario-${index}`;
 
   return (
-    <View ref={ref} style={{ gap: space.lg }} testID={`scenario-detail-${index}`}>
-      <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'flex-start' }}>
+    <View ref={ref} style={styles.detail} testID={`scenario-detail-${index}`}>
+      <View style={styles.detailHead}>
         <FormField
           label="Id"
           basis={140}
@@ -499,16 +423,7 @@ function ScenarioDetail({
           />
         </FormField>
         {editable ? (
-          <View
-            style={{
-              flexDirection: 'row',
-              gap: space.sm,
-              flexWrap: 'wrap',
-              alignSelf: wide ? 'flex-end' : 'stretch',
-              justifyContent: 'flex-end',
-              flexGrow: wide ? 0 : 1,
-            }}
-          >
+          <View style={[styles.detailActions, wide ? styles.detailActionsWide : null]}>
             <Button
               title="Duplicate"
               kind="secondary"
@@ -519,24 +434,16 @@ function ScenarioDetail({
           </View>
         ) : null}
       </View>
-      <View
-        style={{
-          backgroundColor: colors.canvas,
-          borderRadius: radius.sm,
-          paddingHorizontal: space.md,
-          paddingVertical: space.sm,
-          gap: 2,
-        }}
-      >
-        <T variant="label" style={{ color: colors.muted }}>
+      <View style={styles.changes}>
+        <T variant="label" style={styles.changesLabel}>
           Changes against the base
         </T>
-        <T style={{ fontSize: 15 }} testID={`${base}-changes`}>
+        <T style={styles.changesText} testID={`${base}-changes`}>
           {scenarioSummary(model, scenario)}
         </T>
       </View>
       {others.map(([f, msgs]) => (
-        <T key={f} style={{ color: colors.danger, fontSize: 15 }} accessibilityRole="alert">
+        <T key={f} style={styles.problem} accessibilityRole="alert">
           {`${f ? `${scenarioFieldLabel(f)}: ` : ''}${msgs.join(' · ')}`}
         </T>
       ))}
@@ -600,14 +507,7 @@ function ScenarioDetail({
           wide={wide}
           columns={[{ label: 'State', width: STATE_WIDTH }]}
           above={
-            <View
-              style={{
-                flexDirection: wide ? 'row' : 'column',
-                alignItems: wide ? 'center' : 'stretch',
-                justifyContent: 'space-between',
-                gap: space.sm,
-              }}
-            >
+            <View style={[styles.motorsAbove, wide ? styles.motorsAboveWide : null]}>
               <CheckCell
                 value={scenario.allMotorsOff === true}
                 onChange={(v) => patch((s) => setAllMotorsOff(s, v))}
@@ -623,7 +523,7 @@ function ScenarioDetail({
           }
         >
           {shownMotors.length === 0 ? (
-            <T variant="small" style={{ padding: space.md }}>{`No motors match “${motorFilter}”.`}</T>
+            <T variant="small" style={styles.noMotors}>{`No motors match “${motorFilter}”.`}</T>
           ) : null}
           {shownMotors.map(({ m, i }) => (
             <MotorRow
@@ -675,20 +575,10 @@ function DeleteButton({ onPress, testID }: { onPress: () => void; testID: string
       accessibilityRole="button"
       onPress={onPress}
       testID={testID}
-      style={({ pressed }) => ({
-        minHeight: touch.min,
-        paddingHorizontal: space.lg,
-        borderRadius: radius.md,
-        borderWidth: 1,
-        borderColor: '#E7B4B4',
-        backgroundColor: pressed ? colors.dangerSoft : colors.surface,
-        flexDirection: 'row',
-        alignItems: 'center',
-        gap: space.sm,
-      })}
+      style={({ pressed }) => [styles.delete, pressed ? styles.deletePressed : null]}
     >
       <Icon name="trash" size={18} color={colors.danger} />
-      <T style={{ color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 }}>Delete</T>
+      <T style={styles.deleteText}>Delete</T>
     </Pressable>
   );
 }
@@ -722,39 +612,22 @@ function Group({
   children: ReactNode;
 }) {
   return (
-    <View style={{ gap: space.sm }}>
-      <View style={{ gap: 2 }}>
+    <View style={styles.group}>
+      <View style={styles.groupHead}>
         <T variant="subheading">
-          {title} <T style={{ fontFamily: fonts.numbers, fontSize: 15, color: colors.muted }}>{count}</T>
+          {title} <T style={styles.groupCount}>{count}</T>
         </T>
         <T variant="small">{note}</T>
       </View>
       {above}
-      <View
-        style={{
-          borderWidth: 1,
-          borderColor: colors.lineSoft,
-          borderRadius: radius.sm,
-          overflow: 'hidden',
-        }}
-      >
+      <View style={styles.groupTable}>
         {wide && columns.length ? (
-          <View
-            style={{
-              flexDirection: 'row',
-              gap: space.md,
-              paddingHorizontal: space.md,
-              paddingVertical: space.xs,
-              backgroundColor: colors.canvas,
-              borderBottomWidth: 1,
-              borderBottomColor: colors.lineSoft,
-            }}
-          >
-            <T variant="label" style={{ width: TITLE_WIDTH, color: colors.muted }}>
+          <View style={styles.groupColumns}>
+            <T variant="label" style={styles.groupElementHead}>
               Element
             </T>
             {columns.map((c) => (
-              <T key={c.label} variant="label" style={{ width: c.width, color: colors.muted }}>
+              <T key={c.label} variant="label" style={[styles.groupColumnHead, { width: c.width }]}>
                 {c.label}
               </T>
             ))}
@@ -798,15 +671,13 @@ function RowFrame({
   const reset = !onReset ? null : changed && editable ? (
     <IconButton icon="undo" label={`${id}: back to the base`} onPress={onReset} testID={`${testID}-reset`} />
   ) : (
-    <View style={{ width: 40 }} />
+    <View style={styles.resetPlaceholder} />
   );
   const title = (
-    <View style={{ gap: 2, minWidth: 0, ...(wide ? { width: TITLE_WIDTH } : { flex: 1 }) }}>
-      <T numberOfLines={1} style={{ fontSize: 15 }}>
-        <T style={{ fontFamily: fonts.textBold, fontSize: 15 }}>{id || '(no id)'}</T>
-        {changed ? (
-          <T style={{ color: colors.accent, fontFamily: fonts.textMedium, fontSize: 13 }}>{'  changed'}</T>
-        ) : null}
+    <View style={[styles.rowTitle, wide ? styles.rowTitleWide : styles.rowTitlePhone]}>
+      <T numberOfLines={1} style={styles.rowTitleText}>
+        <T style={styles.rowTitleId}>{id || '(no id)'}</T>
+        {changed ? <T style={styles.rowChangedWord}>{'  changed'}</T> : null}
       </T>
       <T variant="small" numberOfLines={wide ? 2 : 3}>
         {detail}
@@ -814,28 +685,18 @@ function RowFrame({
     </View>
   );
   const errors = messages.length ? (
-    <T style={{ color: colors.danger, fontSize: 14 }} accessibilityRole="alert">
+    <T style={styles.rowErrors} accessibilityRole="alert">
       {messages.join(' · ')}
     </T>
   ) : null;
-  const rowStyle: ViewStyle = {
-    paddingHorizontal: space.md,
-    paddingVertical: space.sm,
-    borderTopWidth: 1,
-    borderTopColor: colors.lineSoft,
-    marginTop: -1,
-    borderLeftWidth: 3,
-    borderLeftColor: messages.length ? colors.danger : changed ? colors.accent : 'transparent',
-    backgroundColor: changed ? '#F3FAFA' : colors.surface,
-    gap: space.sm,
-  };
+  const rowStyle = [styles.row, changed ? styles.rowChanged : null, messages.length ? styles.rowProblem : null];
   if (wide) {
     return (
       <View ref={ref} style={rowStyle} testID={testID}>
-        <View style={{ flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.md }}>
+        <View style={styles.rowLineWide}>
           {title}
           {children}
-          {reset ? <View style={{ marginLeft: 'auto' }}>{reset}</View> : null}
+          {reset ? <View style={styles.rowReset}>{reset}</View> : null}
         </View>
         {errors}
       </View>
@@ -843,11 +704,11 @@ function RowFrame({
   }
   return (
     <View ref={ref} style={rowStyle} testID={testID}>
-      <View style={{ flexDirection: 'row', alignItems: 'center', gap: space.sm }}>
+      <View style={styles.rowLine}>
         {title}
         {inline ? children : reset}
       </View>
-      {inline ? null : <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.md }}>{children}</View>}
+      {inline ? null : <View style={styles.rowFields}>{children}</View>}
       {errors}
     </View>
   );
@@ -871,10 +732,10 @@ function Field({
 }) {
   if (wide) {
     return (
-      <View style={{ width, gap: 2 }}>
+      <View style={[styles.field, { width }]}>
         {children}
         {error ? (
-          <T variant="small" style={{ color: colors.danger }} accessibilityRole="alert">
+          <T variant="small" style={styles.fieldError} accessibilityRole="alert">
             {error}
           </T>
         ) : null}
@@ -951,7 +812,7 @@ const SourceRow = memo(function SourceRow({
       </Field>
       {showFault ? (
         <Field wide={wide} width={FAULT_WIDTH} label="Short circuit" basis={220} error={err('shortCircuitMva')}>
-          <View style={{ flexDirection: 'row', gap: 4 }}>
+          <View style={styles.faultRow}>
             <NumCell
               value={override?.[faultKey]}
               onChange={(v) => patch((s) => setSourceFault(s, id, unit, v))}
@@ -961,7 +822,7 @@ const SourceRow = memo(function SourceRow({
               placeholder={utility ? baseFaultText(source) : 'generator: none'}
               testID={`${testID}-fault`}
               accessibilityLabel={`${id} short circuit in this scenario (${unit === 'ka' ? 'kA' : 'MVA'})`}
-              style={{ flex: 1 }}
+              style={styles.faultValue}
             />
             <SegCell
               value={unit}
@@ -978,13 +839,13 @@ const SourceRow = memo(function SourceRow({
               editable={editable}
               testID={`${testID}-fault-unit`}
               accessibilityLabel={`${id} short circuit unit`}
-              style={{ width: wide ? 92 : 112 }}
+              style={wide ? styles.faultUnitWide : styles.faultUnit}
             />
           </View>
         </Field>
       ) : wide ? (
-        <View style={{ width: FAULT_WIDTH, paddingHorizontal: space.sm }}>
-          <T style={{ color: colors.muted, fontSize: 14 }}>from its rating</T>
+        <View style={styles.faultNone}>
+          <T style={styles.faultNoneText}>from its rating</T>
         </View>
       ) : null}
       <Field wide={wide} width={XR_WIDTH} label="X/R" basis={120} error={err('xr')}>
@@ -1005,7 +866,7 @@ const SourceRow = memo(function SourceRow({
 
 /** A choice of two states: a table cell (wide), or beside the element's name (phone). */
 function StateField({ wide, children }: { wide: boolean; children: ReactNode }) {
-  return <View style={{ width: wide ? STATE_WIDTH : 176, flexShrink: 0 }}>{children}</View>;
+  return <View style={[styles.state, wide ? styles.stateWide : null]}>{children}</View>;
 }
 
 const TieRow = memo(function TieRow({
@@ -1134,28 +995,13 @@ function OrphanRow({
   const ref = useScrollIntoView(focused);
   const what = { sources: 'Source', ties: 'Tie', motors: 'Motor' }[kind];
   return (
-    <View
-      ref={ref}
-      testID={testID}
-      style={{
-        flexDirection: 'row',
-        alignItems: 'center',
-        gap: space.sm,
-        paddingHorizontal: space.md,
-        paddingVertical: space.sm,
-        borderTopWidth: 1,
-        borderTopColor: colors.lineSoft,
-        marginTop: -1,
-        borderLeftWidth: 3,
-        borderLeftColor: colors.danger,
-      }}
-    >
-      <View style={{ flex: 1, minWidth: 0, gap: 2 }}>
-        <T style={{ fontSize: 15 }}>
-          <T style={{ fontFamily: fonts.textBold, fontSize: 15 }}>{id}</T>
-          <T style={{ color: colors.muted, fontSize: 14 }}>{`  ${what.toLowerCase()}`}</T>
+    <View ref={ref} testID={testID} style={styles.orphan}>
+      <View style={styles.orphanText}>
+        <T style={styles.orphanTitle}>
+          <T style={styles.orphanId}>{id}</T>
+          <T style={styles.orphanKind}>{`  ${what.toLowerCase()}`}</T>
         </T>
-        <T style={{ color: colors.danger, fontSize: 14 }}>
+        <T style={styles.orphanMessage}>
           {messages.length ? messages.join(' · ') : `No ${what.toLowerCase()} "${id}" in the model`}
         </T>
       </View>
@@ -1170,3 +1016,219 @@ function OrphanRow({
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  /** The heading and the add button: stacked on a phone, in a row on a wide screen. */
+  header: { flexDirection: 'column', alignItems: 'stretch', gap: space.md },
+  headerWide: { flexDirection: 'row', alignItems: 'center' },
+  headerTitle: { gap: 2 },
+  headerTitleWide: { flex: 1 },
+  section: { gap: space.md },
+  count: { fontFamily: fonts.numbers, fontSize: 18, color: colors.muted },
+  problem: { color: colors.danger, fontSize: 15 },
+  listCard: { padding: 0, gap: 0, overflow: 'hidden' },
+  cards: { gap: space.sm },
+  /** A scenario's card (phone). */
+  card: {
+    backgroundColor: colors.surface,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+    overflow: 'hidden',
+  },
+  cardChosen: { borderColor: colors.accent },
+  cardDetail: { borderTopWidth: 1, borderTopColor: colors.lineSoft, padding: space.md },
+  empty: { borderStyle: 'dashed', borderColor: colors.line, alignItems: 'flex-start' },
+  listHeadCell: { paddingHorizontal: space.md, paddingVertical: space.sm },
+  listHeadId: { width: LIST_ID_WIDTH + 4 },
+  listHeadName: { width: LIST_NAME_WIDTH },
+  listHeadSummary: { flex: 1 },
+  listHeadText: { color: colors.muted },
+  listHead: {
+    flexDirection: 'row',
+    backgroundColor: colors.canvas,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  baseCard: {
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    borderRadius: radius.md,
+    backgroundColor: colors.canvas,
+    gap: 2,
+  },
+  baseId: { fontFamily: fonts.textBold, fontSize: 16 },
+  baseRow: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    minHeight: 44,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+    borderLeftWidth: 4,
+    borderLeftColor: 'transparent',
+  },
+  baseRowId: { width: LIST_ID_WIDTH, paddingHorizontal: space.md, fontFamily: fonts.textBold, color: colors.muted },
+  baseRowName: { width: LIST_NAME_WIDTH, paddingHorizontal: space.md, color: colors.muted },
+  baseRowNote: { flex: 1, paddingHorizontal: space.md },
+  problemBadge: {
+    minWidth: 22,
+    height: 22,
+    borderRadius: 11,
+    paddingHorizontal: 6,
+    backgroundColor: colors.danger,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  problemBadgeText: { color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 },
+  listRow: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    minHeight: touch.min,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+    borderLeftWidth: 4,
+    borderLeftColor: 'transparent',
+    backgroundColor: colors.surface,
+  },
+  /** The scenario open below the list. */
+  listRowChosen: { borderLeftColor: colors.accent, backgroundColor: colors.accentSoft },
+  listRowProblem: { borderLeftColor: colors.danger },
+  listRowHovered: { backgroundColor: colors.canvas },
+  listRowId: { width: LIST_ID_WIDTH, paddingHorizontal: space.md, fontFamily: fonts.textBold, fontSize: 15 },
+  listRowName: { width: LIST_NAME_WIDTH, paddingHorizontal: space.md, fontSize: 15 },
+  noName: { color: colors.muted, fontStyle: 'italic' },
+  listRowSummary: { flex: 1, paddingHorizontal: space.md, fontSize: 14, color: colors.inkSoft },
+  listRowBadge: { width: 44, alignItems: 'center' },
+  cardRow: {
+    minHeight: 56,
+    paddingVertical: space.sm,
+    paddingLeft: space.md,
+    paddingRight: space.sm,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    borderLeftWidth: 4,
+    borderLeftColor: colors.lineSoft,
+    backgroundColor: 'transparent',
+  },
+  cardRowProblem: { borderLeftColor: colors.danger },
+  cardRowChosen: { borderLeftColor: colors.accent },
+  cardRowPressed: { backgroundColor: colors.canvas },
+  cardRowText: { flex: 1, gap: 2, minWidth: 0 },
+  cardRowTitle: { fontSize: 16 },
+  cardRowId: { fontFamily: fonts.textBold, fontSize: 16 },
+  cardRowName: { color: colors.muted, fontSize: 15 },
+  cardRowSummary: { fontSize: 14, lineHeight: 19, color: colors.inkSoft },
+  detail: { gap: space.lg },
+  detailHead: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md, alignItems: 'flex-start' },
+  detailActions: {
+    flexDirection: 'row',
+    gap: space.sm,
+    flexWrap: 'wrap',
+    alignSelf: 'stretch',
+    justifyContent: 'flex-end',
+    flexGrow: 1,
+  },
+  detailActionsWide: { alignSelf: 'flex-end', flexGrow: 0 },
+  changes: {
+    backgroundColor: colors.canvas,
+    borderRadius: radius.sm,
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    gap: 2,
+  },
+  changesLabel: { color: colors.muted },
+  changesText: { fontSize: 15 },
+  /** "All motors stopped" and the motor filter. */
+  motorsAbove: { flexDirection: 'column', alignItems: 'stretch', justifyContent: 'space-between', gap: space.sm },
+  motorsAboveWide: { flexDirection: 'row', alignItems: 'center' },
+  noMotors: { padding: space.md },
+  delete: {
+    minHeight: touch.min,
+    paddingHorizontal: space.lg,
+    borderRadius: radius.md,
+    borderWidth: 1,
+    borderColor: '#E7B4B4',
+    backgroundColor: colors.surface,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+  },
+  deletePressed: { backgroundColor: colors.dangerSoft },
+  deleteText: { color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 },
+  group: { gap: space.sm },
+  groupHead: { gap: 2 },
+  groupCount: { fontFamily: fonts.numbers, fontSize: 15, color: colors.muted },
+  groupTable: {
+    borderWidth: 1,
+    borderColor: colors.lineSoft,
+    borderRadius: radius.sm,
+    overflow: 'hidden',
+  },
+  groupColumns: {
+    flexDirection: 'row',
+    gap: space.md,
+    paddingHorizontal: space.md,
+    paddingVertical: space.xs,
+    backgroundColor: colors.canvas,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.lineSoft,
+  },
+  groupElementHead: { width: TITLE_WIDTH, color: colors.muted },
+  /** A column's heading; its width is the column's. */
+  groupColumnHead: { color: colors.muted },
+  resetPlaceholder: { width: 40 },
+  rowTitle: { gap: 2, minWidth: 0 },
+  rowTitleWide: { width: TITLE_WIDTH },
+  rowTitlePhone: { flex: 1 },
+  rowTitleText: { fontSize: 15 },
+  rowTitleId: { fontFamily: fonts.textBold, fontSize: 15 },
+  rowChangedWord: { color: colors.accent, fontFamily: fonts.textMedium, fontSize: 13 },
+  rowErrors: { color: colors.danger, fontSize: 14 },
+  /** An element's row: the bar on the left says changed (accent) or a problem (danger). */
+  row: {
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    borderTopWidth: 1,
+    borderTopColor: colors.lineSoft,
+    marginTop: -1,
+    borderLeftWidth: 3,
+    borderLeftColor: 'transparent',
+    backgroundColor: colors.surface,
+    gap: space.sm,
+  },
+  rowChanged: { borderLeftColor: colors.accent, backgroundColor: '#F3FAFA' },
+  rowProblem: { borderLeftColor: colors.danger },
+  rowLineWide: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.md },
+  rowReset: { marginLeft: 'auto' },
+  rowLine: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
+  rowFields: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  /** A field in a table column; its width is the column's. */
+  field: { gap: 2 },
+  fieldError: { color: colors.danger },
+  faultRow: { flexDirection: 'row', gap: space.xs },
+  faultValue: { flex: 1 },
+  faultUnit: { width: 112 },
+  faultUnitWide: { width: 92 },
+  faultNone: { width: FAULT_WIDTH, paddingHorizontal: space.sm },
+  faultNoneText: { color: colors.muted, fontSize: 14 },
+  state: { width: 176, flexShrink: 0 },
+  stateWide: { width: STATE_WIDTH },
+  orphan: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    borderTopWidth: 1,
+    borderTopColor: colors.lineSoft,
+    marginTop: -1,
+    borderLeftWidth: 3,
+    borderLeftColor: colors.danger,
+  },
+  orphanText: { flex: 1, minWidth: 0, gap: 2 },
+  orphanTitle: { fontSize: 15 },
+  orphanId: { fontFamily: fonts.textBold, fontSize: 15 },
+  orphanKind: { color: colors.muted, fontSize: 14 },
+  orphanMessage: { color: colors.danger, fontSize: 14 },
+});

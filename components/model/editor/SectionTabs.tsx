@@ -1,6 +1,6 @@
 /** Section selector. */
 import { useEffect, useRef } from 'react';
-import { Platform, Pressable, ScrollView, View } from 'react-native';
+import { Platform, Pressable, ScrollView, StyleSheet, View } from 'react-native';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { colors, fonts, radius, space, touch } from '../../theme';
 import { T } from '../../ui';
@@ -44,38 +44,18 @@ export function SectionTabs({
         aria-selected={on}
         onPress={() => onChange(s)}
         testID={`model-section-${s}`}
-        style={({ hovered }: { pressed: boolean; hovered?: boolean }) => ({
-          minHeight: touch.min,
-          paddingHorizontal: space.md,
-          flexDirection: 'row',
-          alignItems: 'center',
-          gap: space.sm,
-          borderRadius: radius.sm,
-          borderWidth: 1.5,
-          borderColor: on ? colors.accent : colors.line,
-          backgroundColor: on ? colors.accentSoft : hovered ? colors.canvas : colors.surface,
-        })}
+        style={({ hovered }: { pressed: boolean; hovered?: boolean }) => [
+          styles.tab,
+          on ? styles.tabOn : hovered ? styles.tabHovered : null,
+        ]}
       >
-        <T style={{ fontFamily: on ? fonts.textBold : fonts.textMedium, fontSize: 15, color: colors.ink }}>
+        <T style={[styles.tabLabel, on ? styles.tabLabelOn : null]}>
           {s === 'general' ? 'General' : COLLECTION_LABELS[s].plural}
         </T>
-        {count !== undefined ? (
-          <T style={{ fontFamily: fonts.numbers, fontSize: 14, color: on ? colors.accent : colors.muted }}>{count}</T>
-        ) : null}
+        {count !== undefined ? <T style={[styles.tabCount, on ? styles.tabCountOn : null]}>{count}</T> : null}
         {problems ? (
-          <View
-            accessibilityLabel={problemCount(problems)}
-            style={{
-              minWidth: 20,
-              height: 20,
-              borderRadius: 10,
-              paddingHorizontal: 5,
-              backgroundColor: colors.danger,
-              alignItems: 'center',
-              justifyContent: 'center',
-            }}
-          >
-            <T style={{ color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 }}>{problems}</T>
+          <View accessibilityLabel={problemCount(problems)} style={styles.problemBadge}>
+            <T style={styles.problemBadgeText}>{problems}</T>
           </View>
         ) : null}
       </Pressable>
@@ -83,7 +63,7 @@ export function SectionTabs({
   });
   if (wide) {
     return (
-      <View accessibilityRole="tablist" style={{ flexDirection: 'row', flexWrap: 'wrap', gap: space.sm }}>
+      <View accessibilityRole="tablist" style={styles.tabsWrap}>
         {tabs}
       </View>
     );
@@ -93,10 +73,44 @@ export function SectionTabs({
       horizontal
       showsHorizontalScrollIndicator={false}
       accessibilityRole="tablist"
-      contentContainerStyle={{ gap: space.sm, paddingRight: space.lg }}
-      style={{ marginRight: -space.lg }}
+      contentContainerStyle={styles.tabsScrollContent}
+      style={styles.tabsScroll}
     >
       {tabs}
     </ScrollView>
   );
 }
+
+const styles = StyleSheet.create({
+  tab: {
+    minHeight: touch.min,
+    paddingHorizontal: space.md,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    borderRadius: radius.sm,
+    borderWidth: 1.5,
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+  },
+  tabOn: { borderColor: colors.accent, backgroundColor: colors.accentSoft },
+  tabHovered: { backgroundColor: colors.canvas },
+  tabLabel: { fontFamily: fonts.textMedium, fontSize: 15, color: colors.ink },
+  tabLabelOn: { fontFamily: fonts.textBold },
+  tabCount: { fontFamily: fonts.numbers, fontSize: 14, color: colors.muted },
+  tabCountOn: { color: colors.accent },
+  problemBadge: {
+    minWidth: 20,
+    height: 20,
+    borderRadius: 10,
+    paddingHorizontal: 5,
+    backgroundColor: colors.danger,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  problemBadgeText: { color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 },
+  /** Wide: the tabs wrap; phone: they scroll sideways to the screen's edge. */
+  tabsWrap: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  tabsScrollContent: { gap: space.sm, paddingRight: space.lg },
+  tabsScroll: { marginRight: -space.lg },
+});

@@ -4,7 +4,14 @@
  * wide screen hid columns behind a scroll bar that shows only on hover.
  */
 import React, { useRef, useState } from 'react';
-import { Pressable, ScrollView, View, type NativeScrollEvent, type NativeSyntheticEvent } from 'react-native';
+import {
+  type NativeScrollEvent,
+  type NativeSyntheticEvent,
+  Pressable,
+  ScrollView,
+  StyleSheet,
+  View,
+} from 'react-native';
 import { colors, fonts, radius, space } from '../../theme';
 import { T } from '../../ui';
 
@@ -25,34 +32,20 @@ export function SideScroll({ children, testID }: { children: React.ReactNode; te
       disabled={!enabled}
       testID={testID ? `${testID}-${id}` : undefined}
       onPress={() => ref.current?.scrollTo({ x: Math.max(0, x + dx), animated: true })}
-      style={({ hovered }: { hovered?: boolean }) => ({
-        paddingHorizontal: space.sm,
-        paddingVertical: 2,
-        borderRadius: radius.sm,
-        backgroundColor: hovered && enabled ? colors.lineSoft : 'transparent',
-        opacity: enabled ? 1 : 0.35,
-      })}
+      style={({ hovered }: { hovered?: boolean }) => [
+        styles.arrow,
+        hovered && enabled ? styles.arrowHovered : null,
+        enabled ? null : styles.arrowDisabled,
+      ]}
     >
-      <T style={{ color: colors.accent, fontFamily: fonts.textMedium, fontSize: 14 }}>{label}</T>
+      <T style={styles.arrowText}>{label}</T>
     </Pressable>
   );
   return (
     <View>
       {overflow ? (
-        <View
-          testID={testID ? `${testID}-hint` : undefined}
-          style={{
-            flexDirection: 'row',
-            alignItems: 'center',
-            gap: space.sm,
-            paddingHorizontal: space.md,
-            paddingVertical: 4,
-            borderBottomWidth: 1,
-            borderColor: colors.lineSoft,
-            backgroundColor: colors.canvas,
-          }}
-        >
-          <T variant="small" style={{ flex: 1 }}>
+        <View testID={testID ? `${testID}-hint` : undefined} style={styles.hint}>
+          <T variant="small" style={styles.hintText}>
             {hiddenRight > 1
               ? 'More columns to the right: scroll sideways (shift + wheel) or use the arrows.'
               : 'Columns on the left are scrolled out of view.'}
@@ -65,7 +58,7 @@ export function SideScroll({ children, testID }: { children: React.ReactNode; te
         <ScrollView
           ref={ref}
           horizontal
-          contentContainerStyle={{ flexGrow: 1 }}
+          contentContainerStyle={styles.scrollContent}
           onContentSizeChange={(w) => setContent(w)}
           onScroll={onScroll}
           scrollEventThrottle={32}
@@ -92,3 +85,29 @@ export function SideScroll({ children, testID }: { children: React.ReactNode; te
     </View>
   );
 }
+
+const styles = StyleSheet.create({
+  /** "← Left" and "Right →". */
+  arrow: {
+    paddingHorizontal: space.sm,
+    paddingVertical: 2,
+    borderRadius: radius.sm,
+    backgroundColor: 'transparent',
+    opacity: 1,
+  },
+  arrowHovered: { backgroundColor: colors.lineSoft },
+  arrowDisabled: { opacity: 0.35 },
+  arrowText: { color: colors.accent, fontFamily: fonts.textMedium, fontSize: 14 },
+  hint: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    paddingHorizontal: space.md,
+    paddingVertical: space.xs,
+    borderBottomWidth: 1,
+    borderColor: colors.lineSoft,
+    backgroundColor: colors.canvas,
+  },
+  hintText: { flex: 1 },
+  scrollContent: { flexGrow: 1 },
+});

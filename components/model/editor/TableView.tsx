@@ -2,7 +2,7 @@
 import { memo, useCallback } from 'react';
 import { useUnitSystem } from '../../../hooks/unitSystem';
 import { unitLabel } from '../../../hooks/units';
-import { Platform, View, type ViewStyle } from 'react-native';
+import { Platform, StyleSheet, View, type ViewStyle } from 'react-native';
 import { colors, fonts, space } from '../../theme';
 import { T } from '../../ui';
 import { COLUMNS, NotApplicable, type Column } from '../columns';
@@ -22,35 +22,22 @@ export const TableHeader = memo(function TableHeader({ columns }: { columns: Col
   const { system } = useUnitSystem();
   const [first, ...rest] = columns;
   const cell = (c: Column<AnyElement>) => (
-    <View key={c.key} style={{ width: c.width, paddingHorizontal: CELL_PAD + 2, paddingVertical: space.sm }}>
+    <View key={c.key} style={[styles.headCell, { width: c.width }]}>
       <T variant="label" numberOfLines={1}>
         {c.label}
-        {c.unit ? (
-          <T
-            variant="label"
-            style={{ color: colors.muted, fontFamily: fonts.text }}
-          >{` ${unitLabel(c.unit, system)}`}</T>
-        ) : null}
+        {c.unit ? <T variant="label" style={styles.headUnit}>{` ${unitLabel(c.unit, system)}`}</T> : null}
       </T>
     </View>
   );
   return (
-    <View
-      style={{
-        flexDirection: 'row',
-        alignItems: 'flex-end',
-        backgroundColor: colors.canvas,
-        borderBottomWidth: 1,
-        borderBottomColor: colors.line,
-      }}
-    >
-      <View style={[{ flexDirection: 'row', alignItems: 'flex-end', backgroundColor: colors.canvas }, stickLeft]}>
-        <View style={{ width: STATUS_W }} />
+    <View style={styles.head}>
+      <View style={[styles.headStart, stickLeft]}>
+        <View style={styles.headStatus} />
         {cell(first)}
       </View>
       {rest.map(cell)}
-      <View style={{ flex: 1 }} />
-      <View style={[{ width: ACTIONS_W, alignSelf: 'stretch', backgroundColor: colors.canvas }, stickRight]} />
+      <View style={styles.filler} />
+      <View style={[styles.headActions, stickRight]} />
     </View>
   );
 });
@@ -76,9 +63,9 @@ export const TableRow = memo(function TableRow({
   const rename = useCallback((id: string) => actions.rename(collection, index, id), [actions, collection, index]);
   const bad = issues.length > 0;
   const base = `${collection}-${index}`;
-  const rowBg = focused ? colors.accentSoft : bad ? '#FFF8F8' : colors.surface;
+  const rowBackground = focused ? styles.rowFocused : bad ? styles.rowBad : styles.rowPlain;
   const cell = (c: Column<AnyElement>, ci: number) => (
-    <View key={c.key} style={{ width: c.width, paddingHorizontal: CELL_PAD }}>
+    <View key={c.key} style={[styles.cell, { width: c.width }]}>
       {!c.applies || c.applies(element, ctx) ? (
         c.render({
           e: element,
@@ -100,53 +87,18 @@ export const TableRow = memo(function TableRow({
     <View
       ref={ref}
       testID={`row-${base}`}
-      style={{
-        borderBottomWidth: 1,
-        borderBottomColor: colors.lineSoft,
-        backgroundColor: rowBg,
-        borderLeftWidth: 3,
-        borderLeftColor: focused ? colors.accent : bad ? colors.danger : 'transparent',
-      }}
+      style={[styles.row, rowBackground, focused ? styles.rowBarFocused : bad ? styles.rowBarBad : null]}
     >
-      <View style={{ flexDirection: 'row', alignItems: 'flex-start' }}>
-        <View
-          style={[
-            {
-              flexDirection: 'row',
-              alignItems: 'flex-start',
-              backgroundColor: rowBg,
-              alignSelf: 'stretch',
-              paddingVertical: 6,
-            },
-            stickLeft,
-          ]}
-        >
-          <View style={{ width: STATUS_W - 3, height: 38, alignItems: 'center', justifyContent: 'center' }}>
-            <T style={{ fontFamily: fonts.numbers, fontSize: 13, color: bad ? colors.danger : colors.muted }}>
-              {index + 1}
-            </T>
+      <View style={styles.rowLine}>
+        <View style={[styles.rowStart, rowBackground, stickLeft]}>
+          <View style={styles.rowStatus}>
+            <T style={[styles.rowNumber, bad ? styles.rowNumberBad : null]}>{index + 1}</T>
           </View>
           {cell(columns[0], 0)}
         </View>
-        <View style={{ flexDirection: 'row', alignItems: 'flex-start', paddingVertical: 6 }}>
-          {columns.slice(1).map((c, i) => cell(c, i + 1))}
-        </View>
-        <View style={{ flex: 1 }} />
-        <View
-          style={[
-            {
-              width: ACTIONS_W,
-              alignSelf: 'stretch',
-              flexDirection: 'row',
-              justifyContent: 'flex-end',
-              paddingTop: 6,
-              paddingRight: 6,
-              gap: 2,
-              backgroundColor: rowBg,
-            },
-            stickRight,
-          ]}
-        >
+        <View style={styles.rowCells}>{columns.slice(1).map((c, i) => cell(c, i + 1))}</View>
+        <View style={styles.filler} />
+        <View style={[styles.rowActions, rowBackground, stickRight]}>
           {editable ? (
             <>
               <IconButton
@@ -169,31 +121,14 @@ export const TableRow = memo(function TableRow({
         </View>
       </View>
       {bad ? (
-        <View
-          style={[
-            {
-              paddingLeft: STATUS_W - 3 + CELL_PAD,
-              paddingRight: space.md,
-              paddingBottom: space.sm,
-              gap: 2,
-              alignSelf: 'flex-start',
-              maxWidth: 900,
-            },
-            stickLeft,
-          ]}
-          testID={`${base}-issues`}
-        >
+        <View style={[styles.notes, stickLeft]} testID={`${base}-issues`}>
           {issues.map((li, i) => (
-            <View key={i} style={{ flexDirection: 'row', alignItems: 'flex-start', gap: 6 }}>
-              <View style={{ marginTop: 2 }}>
+            <View key={i} style={styles.note}>
+              <View style={styles.noteIcon}>
                 <Icon name="alert" size={15} color={colors.danger} />
               </View>
-              <T style={{ fontSize: 14, lineHeight: 19, color: colors.danger, flexShrink: 1 }}>
-                {li.field ? (
-                  <T
-                    style={{ fontFamily: fonts.textBold, fontSize: 14, color: colors.danger }}
-                  >{`${fieldLabel(li.field)}: `}</T>
-                ) : null}
+              <T style={[styles.noteText, styles.danger]}>
+                {li.field ? <T style={[styles.noteField, styles.danger]}>{`${fieldLabel(li.field)}: `}</T> : null}
                 {issueMessage(li.issue)}
               </T>
             </View>
@@ -201,27 +136,14 @@ export const TableRow = memo(function TableRow({
         </View>
       ) : null}
       {warnings.length ? (
-        <View
-          style={[
-            {
-              paddingLeft: STATUS_W - 3 + CELL_PAD,
-              paddingRight: space.md,
-              paddingBottom: space.sm,
-              gap: 2,
-              alignSelf: 'flex-start',
-              maxWidth: 900,
-            },
-            stickLeft,
-          ]}
-          testID={`${base}-warnings`}
-        >
+        <View style={[styles.notes, stickLeft]} testID={`${base}-warnings`}>
           {warnings.map((li, i) => (
-            <View key={i} style={{ flexDirection: 'row', alignItems: 'flex-start', gap: 6 }}>
-              <View style={{ marginTop: 2 }}>
+            <View key={i} style={styles.note}>
+              <View style={styles.noteIcon}>
                 <Icon name="alert" size={15} color={colors.caution} />
               </View>
-              <T style={{ fontSize: 14, lineHeight: 19, color: colors.caution, flexShrink: 1 }}>
-                <T style={{ fontFamily: fonts.textBold, fontSize: 14, color: colors.caution }}>
+              <T style={[styles.noteText, styles.caution]}>
+                <T style={[styles.noteField, styles.caution]}>
                   {`Worth checking${li.field ? ` · ${fieldLabel(li.field)}` : ''}: `}
                 </T>
                 {li.issue.message}
@@ -232,4 +154,60 @@ export const TableRow = memo(function TableRow({
       ) : null}
     </View>
   );
+});
+
+const styles = StyleSheet.create({
+  head: {
+    flexDirection: 'row',
+    alignItems: 'flex-end',
+    backgroundColor: colors.canvas,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.line,
+  },
+  headStart: { flexDirection: 'row', alignItems: 'flex-end', backgroundColor: colors.canvas },
+  headStatus: { width: STATUS_W },
+  /** A column's heading; its width is the column's. */
+  headCell: { paddingHorizontal: CELL_PAD + 2, paddingVertical: space.sm },
+  headUnit: { color: colors.muted, fontFamily: fonts.text },
+  headActions: { width: ACTIONS_W, alignSelf: 'stretch', backgroundColor: colors.canvas },
+  filler: { flex: 1 },
+  row: { borderBottomWidth: 1, borderBottomColor: colors.lineSoft, borderLeftWidth: 3, borderLeftColor: 'transparent' },
+  /** The row's background, also under its sticky id cell and actions. */
+  rowPlain: { backgroundColor: colors.surface },
+  rowFocused: { backgroundColor: colors.accentSoft },
+  rowBad: { backgroundColor: '#FFF8F8' },
+  rowBarFocused: { borderLeftColor: colors.accent },
+  rowBarBad: { borderLeftColor: colors.danger },
+  rowLine: { flexDirection: 'row', alignItems: 'flex-start' },
+  rowStart: { flexDirection: 'row', alignItems: 'flex-start', alignSelf: 'stretch', paddingVertical: 6 },
+  rowStatus: { width: STATUS_W - 3, height: 38, alignItems: 'center', justifyContent: 'center' },
+  rowNumber: { fontFamily: fonts.numbers, fontSize: 13, color: colors.muted },
+  rowNumberBad: { color: colors.danger },
+  /** A cell; its width is the column's. */
+  cell: { paddingHorizontal: CELL_PAD },
+  rowCells: { flexDirection: 'row', alignItems: 'flex-start', paddingVertical: 6 },
+  rowActions: {
+    width: ACTIONS_W,
+    alignSelf: 'stretch',
+    flexDirection: 'row',
+    justifyContent: 'flex-end',
+    paddingTop: 6,
+    paddingRight: 6,
+    gap: 2,
+  },
+  /** The row's problems or warnings, under its cells. */
+  notes: {
+    paddingLeft: STATUS_W - 3 + CELL_PAD,
+    paddingRight: space.md,
+    paddingBottom: space.sm,
+    gap: 2,
+    alignSelf: 'flex-start',
+    maxWidth: 900,
+  },
+  note: { flexDirection: 'row', alignItems: 'flex-start', gap: 6 },
+  noteIcon: { marginTop: 2 },
+  noteText: { fontSize: 14, lineHeight: 19, flexShrink: 1 },
+  noteField: { fontFamily: fonts.textBold, fontSize: 14 },
+  danger: { color: colors.danger },
+  caution: { color: colors.caution },
 });
