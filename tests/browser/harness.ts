@@ -70,6 +70,45 @@ export async function api<T = unknown>(
   return (await res.json()) as T;
 }
 
+/** The demo engineer's token, signed in from the test side. */
+export async function engineerToken(h: Harness): Promise<string> {
+  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
+    method: 'POST',
+    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+  });
+  return token;
+}
+
+/**
+ * A draft study on a site of the spec's own (no demo study gets a revision another spec would trip over) holding
+ * `model`, set up through the API as the demo engineer.
+ */
+export async function draftStudyWithModel(
+  h: Harness,
+  { siteName, title, model }: { siteName: string; title: string; model: unknown },
+): Promise<{ id: string; siteId: string; token: string }> {
+  const token = await engineerToken(h);
+  const site = await api<{ id: string }>(h, '/sites', { method: 'POST', token, body: { name: siteName } });
+  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, { method: 'POST', token, body: { title } });
+  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
+  await api(h, `/studies/${study.id}/model`, { method: 'PUT', token, body: { model, version: env.version } });
+  return { id: study.id, siteId: site.id, token };
+}
+
+/** Runs a draft and waits for the run to be done (a failed run fails the spec). */
+export async function runToDone(h: Harness, studyId: string, token: string, timeoutMs = 90_000): Promise<void> {
+  await api(h, `/studies/${studyId}/run`, { method: 'POST', token });
+  await pollUntil(
+    async () => {
+      const r = await api<{ status: string; message?: string }>(h, `/studies/${studyId}/run`, { token });
+      if (r.status === 'failed') throw new Error(`the run failed: ${r.message ?? ''}`);
+      return r.status === 'done';
+    },
+    'the run to finish',
+    timeoutMs,
+  );
+}
+
 export interface Harness {
   baseUrl: string;
   context: BrowserContext;

@@ -14,44 +14,15 @@ import type { RelayDevice } from '../../../shared/schemas/device';
 import type { DeviceType } from '../../../shared/schemas/deviceLibrary';
 import type { Page } from 'playwright-core';
 import type { Harness, Spec } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, api, assert } from '../harness';
+import { DESKTOP, PHONE, api, assert, draftStudyWithModel, runToDone } from '../harness';
 
-/** A draft study of a site of its own holding the demo plant (no demo study gets a revision another spec expects). */
+/** A draft study of a site of its own holding the demo plant. */
 async function draftStudy(h: Harness): Promise<{ id: string; token: string }> {
-  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-    method: 'POST',
-    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+  return draftStudyWithModel(h, {
+    siteName: 'Device settings test plant (invented)',
+    title: 'Relay time dial',
+    model: larkspurModel(),
   });
-  const site = await api<{ id: string }>(h, '/sites', {
-    method: 'POST',
-    token,
-    body: { name: 'Device settings test plant (invented)' },
-  });
-  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
-    method: 'POST',
-    token,
-    body: { title: 'Relay time dial' },
-  });
-  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
-  await api(h, `/studies/${study.id}/model`, {
-    method: 'PUT',
-    token,
-    body: { model: larkspurModel(), version: env.version },
-  });
-  return { id: study.id, token };
-}
-
-async function runAndWait(h: Harness, studyId: string, token: string): Promise<void> {
-  await api(h, `/studies/${studyId}/run`, { method: 'POST', token });
-  await pollUntil(
-    async () => {
-      const r = await api<{ status: string }>(h, `/studies/${studyId}/run`, { token });
-      if (r.status === 'failed') throw new Error('the run failed');
-      return r.status === 'done';
-    },
-    'the run to finish',
-    60_000,
-  );
 }
 
 /** What the trace's device table says of a device, as BusTraceScreen writes it from the engine's reading. */
@@ -98,7 +69,7 @@ export const specs: Spec[] = [
       const { settings } = await api<{ settings: RunOptions }>(h, '/organization', { token });
       const original = (await api<{ model: ModelInput }>(h, `/studies/${id}/model`, { token })).model;
       const before = engineReading(original, settings);
-      await runAndWait(h, id, token);
+      await runToDone(h, id, token);
 
       const page = await h.newPage(DESKTOP);
       await h.signIn(page, 'engineer@larkspur.example');

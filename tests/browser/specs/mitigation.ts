@@ -3,7 +3,18 @@ import type { Page } from 'playwright-core';
 import { larkspurModel } from '../../../server/seed/larkspurModel';
 import { axePage, checkA11y } from '../axe';
 import type { Harness, Spec } from '../harness';
-import { api, assert, clearLocalStorage, DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, SHOTS } from '../harness';
+import {
+  api,
+  assert,
+  clearLocalStorage,
+  DEMO_PASSWORD,
+  DESKTOP,
+  draftStudyWithModel,
+  PHONE,
+  pollUntil,
+  runToDone,
+  SHOTS,
+} from '../harness';
 
 /**
  * "Bring this down" (issue 22): from the worst bus's clearing trace an engineer asks for options under a target, reads
@@ -19,43 +30,19 @@ interface Approved {
 
 let approved: Approved | undefined;
 
-async function engineerToken(h: Harness): Promise<string> {
-  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-    method: 'POST',
-    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
-  });
-  return token;
-}
-
 /**
  * A site of its own with the demo facility's model, run and approved, and no open revision (so applying an option is
  * allowed and no demo site gets a draft another spec would trip over). Its worst bus is read from the results.
  */
 async function approvedDemoCopy(h: Harness): Promise<Approved> {
   if (approved) return approved;
-  const token = await engineerToken(h);
-  const site = await api<{ id: string }>(h, '/sites', {
-    method: 'POST',
-    token,
-    body: { name: 'Mitigation test copy of the reclamation facility (invented)' },
+  const study = await draftStudyWithModel(h, {
+    siteName: 'Mitigation test copy of the reclamation facility (invented)',
+    title: 'Demo model, approved for mitigation',
+    model: larkspurModel(),
   });
-  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
-    method: 'POST',
-    token,
-    body: { title: 'Demo model, approved for mitigation' },
-  });
-  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
-  await api(h, `/studies/${study.id}/model`, {
-    method: 'PUT',
-    token,
-    body: { model: larkspurModel(), version: env.version },
-  });
-  await api(h, `/studies/${study.id}/run`, { method: 'POST', token });
-  await pollUntil(
-    async () => (await api<{ status: string }>(h, `/studies/${study.id}/run`, { token })).status === 'done',
-    'the run of the demo model',
-    60_000,
-  );
+  const { token } = study;
+  await runToDone(h, study.id, token, 60_000);
   await api(h, `/studies/${study.id}/submit`, { method: 'POST', token });
   await api(h, `/studies/${study.id}/approve`, {
     method: 'POST',
@@ -69,7 +56,7 @@ async function approvedDemoCopy(h: Harness): Promise<Approved> {
   );
   const worst = page.rows[0];
   assert(worst?.incidentEnergyCalPerCm2 !== undefined, 'the demo model has a bus with an energy');
-  approved = { token, siteId: site.id, studyId: study.id, worstBusId: worst.busId };
+  approved = { token, siteId: study.siteId, studyId: study.id, worstBusId: worst.busId };
   return approved;
 }
 

@@ -5,32 +5,15 @@
 import { larkspurModel } from '../../../server/seed/larkspurModel';
 import type { ModelInput } from '../../../shared/schemas/model';
 import type { Harness, Spec } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, api, assert } from '../harness';
+import { DESKTOP, PHONE, api, assert, draftStudyWithModel } from '../harness';
 
-/** A draft study of its own (no demo study gets a revision another spec would trip over) holding the demo's model. */
+/** A draft study of its own holding the demo's model with a normally open tie between its two MCCs (a tie to show). */
 async function draftStudy(h: Harness): Promise<{ id: string; token: string }> {
-  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-    method: 'POST',
-    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
-  });
-  const site = await api<{ id: string }>(h, '/sites', {
-    method: 'POST',
-    token,
-    body: { name: 'Scenario test plant (invented)' },
-  });
-  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
-    method: 'POST',
-    token,
-    body: { title: 'Operating scenarios' },
-  });
-  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
-  // The demo plant with a normally open tie between its two MCCs, so the section has a tie to show.
   const model: ModelInput = {
     ...larkspurModel(),
     ties: [{ id: 'TIE-1', name: 'MCC tie', fromBus: 'MCC-1', toBus: 'MCC-2', closed: false }],
   };
-  await api(h, `/studies/${study.id}/model`, { method: 'PUT', token, body: { model, version: env.version } });
-  return { id: study.id, token };
+  return draftStudyWithModel(h, { siteName: 'Scenario test plant (invented)', title: 'Operating scenarios', model });
 }
 
 export const specs: Spec[] = [

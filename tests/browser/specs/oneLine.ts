@@ -6,7 +6,18 @@
 import { axePage, checkA11y } from '../axe';
 import type { Harness, Spec } from '../harness';
 import type { Page } from 'playwright-core';
-import { DEMO_PASSWORD, DESKTOP, PHONE, api, assert, clearLocalStorage, pollUntil } from '../harness';
+import {
+  DEMO_PASSWORD,
+  DESKTOP,
+  PHONE,
+  api,
+  assert,
+  clearLocalStorage,
+  draftStudyWithModel,
+  engineerToken,
+  pollUntil,
+  runToDone,
+} from '../harness';
 import { generatedPlant } from '../../../server/seed/generatedPlant';
 
 /** The latest study of a demo site (`status`: the approved one). */
@@ -15,10 +26,7 @@ async function demoStudyId(
   siteName = 'Larkspur Valley Water Reclamation Facility',
   status = 'approved',
 ): Promise<string> {
-  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-    method: 'POST',
-    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
-  });
+  const token = await engineerToken(h);
   const { sites } = await api<{ sites: { id: string; name: string }[] }>(h, '/sites', { token });
   const site = sites.find((s) => s.name === siteName);
   if (!site) throw new Error(`${siteName} not found`);
@@ -156,36 +164,12 @@ export const specs: Spec[] = [
   {
     name: 'one-line: a generated plant of 184 buses opens with its substations collapsed (desktop and phone)',
     run: async (h) => {
-      const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-        method: 'POST',
-        body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
+      const study = await draftStudyWithModel(h, {
+        siteName: 'One-line generated plant (invented)',
+        title: 'Generated plant',
+        model: generatedPlant(3, 60),
       });
-      const site = await api<{ id: string }>(h, '/sites', {
-        method: 'POST',
-        token,
-        body: { name: 'One-line generated plant (invented)' },
-      });
-      const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
-        method: 'POST',
-        token,
-        body: { title: 'Generated plant' },
-      });
-      const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
-      await api(h, `/studies/${study.id}/model`, {
-        method: 'PUT',
-        token,
-        body: { model: generatedPlant(3, 60), version: env.version },
-      });
-      await api(h, `/studies/${study.id}/run`, { method: 'POST', token });
-      await pollUntil(
-        async () => {
-          const r = await api<{ status: string }>(h, `/studies/${study.id}/run`, { token });
-          if (r.status === 'failed') throw new Error('the run failed');
-          return r.status === 'done';
-        },
-        'the run to finish',
-        90_000,
-      );
+      await runToDone(h, study.id, study.token, 90_000);
       for (const [label, viewport] of [
         ['desktop', DESKTOP],
         ['phone', PHONE],

@@ -7,7 +7,17 @@ import { larkspurModel } from '../../../server/seed/larkspurModel';
 import type { ModelInput } from '../../../shared/schemas/model';
 import { axePage, checkA11y } from '../axe';
 import type { Harness, Spec } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, clearLocalStorage, pollUntil, api, assert } from '../harness';
+import {
+  DEMO_PASSWORD,
+  DESKTOP,
+  PHONE,
+  clearLocalStorage,
+  pollUntil,
+  api,
+  assert,
+  draftStudyWithModel,
+  runToDone,
+} from '../harness';
 
 const SCENARIOS = [
   { id: 'util-min', name: 'Utility minimum', sources: { UTIL: { shortCircuitMva: 60 } } },
@@ -17,21 +27,6 @@ const SCENARIOS = [
 
 /** A draft study of its own with the demo plant, a spare panel fed only through a tie, and three scenarios; run. */
 async function runScenarioStudy(h: Harness): Promise<{ id: string; token: string }> {
-  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-    method: 'POST',
-    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
-  });
-  const site = await api<{ id: string }>(h, '/sites', {
-    method: 'POST',
-    token,
-    body: { name: 'Scenario results plant (invented)' },
-  });
-  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
-    method: 'POST',
-    token,
-    body: { title: 'Results in operating scenarios' },
-  });
-  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
   const m = larkspurModel();
   const model: ModelInput = {
     ...m,
@@ -42,14 +37,13 @@ async function runScenarioStudy(h: Harness): Promise<{ id: string; token: string
     ties: [...(m.ties ?? []), { id: 'TIE-9', name: 'Spare panel tie', fromBus: 'PP-1', toBus: 'PP-9', closed: true }],
     scenarios: SCENARIOS,
   };
-  await api(h, `/studies/${study.id}/model`, { method: 'PUT', token, body: { model, version: env.version } });
-  await api(h, `/studies/${study.id}/run`, { method: 'POST', token });
-  await pollUntil(
-    async () => (await api<{ status: string }>(h, `/studies/${study.id}/run`, { token })).status === 'done',
-    'the run to finish',
-    120_000,
-  );
-  return { id: study.id, token };
+  const study = await draftStudyWithModel(h, {
+    siteName: 'Scenario results plant (invented)',
+    title: 'Results in operating scenarios',
+    model,
+  });
+  await runToDone(h, study.id, study.token, 120_000);
+  return { id: study.id, token: study.token };
 }
 
 interface BusBody {

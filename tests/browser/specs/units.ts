@@ -6,31 +6,15 @@
 import { larkspurModel } from '../../../server/seed/larkspurModel';
 import type { Page } from 'playwright-core';
 import type { Harness, Spec } from '../harness';
-import { DEMO_PASSWORD, DESKTOP, PHONE, pollUntil, api, assert } from '../harness';
+import { DESKTOP, PHONE, pollUntil, api, assert, draftStudyWithModel, engineerToken } from '../harness';
 
 /** A draft of its own with the demo plant, one bus's gap set to 32 mm. */
 async function draftStudy(h: Harness): Promise<string> {
-  const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-    method: 'POST',
-    body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
-  });
-  const site = await api<{ id: string }>(h, '/sites', {
-    method: 'POST',
-    token,
-    body: { name: 'Units plant (invented)' },
-  });
-  const study = await api<{ id: string }>(h, `/sites/${site.id}/studies`, {
-    method: 'POST',
-    token,
-    body: { title: 'Units' },
-  });
-  const env = await api<{ version: number }>(h, `/studies/${study.id}/model`, { token });
   const model = larkspurModel();
   model.buses = model.buses.map((b, i) =>
     i === 2 && b.equipment ? { ...b, equipment: { ...b.equipment, gapMm: 32 } } : b,
   );
-  await api(h, `/studies/${study.id}/model`, { method: 'PUT', token, body: { model, version: env.version } });
-  return study.id;
+  return (await draftStudyWithModel(h, { siteName: 'Units plant (invented)', title: 'Units', model })).id;
 }
 
 /**
@@ -79,10 +63,7 @@ export const specs: Spec[] = [
       await page.getByTestId('buses-2-gap').waitFor();
       assert((await page.getByTestId('buses-2-gap').inputValue()) === '32', 'gap back to 32 mm');
       assert(await page.getByTestId('save-model').isDisabled(), 'nothing to save after switching units');
-      const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-        method: 'POST',
-        body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
-      });
+      const token = await engineerToken(h);
       await api(h, '/auth/me/preferences', { method: 'PUT', token, body: { units: null } });
       await page.close();
     },
@@ -104,10 +85,7 @@ export const specs: Spec[] = [
       await h.shot(page, 'units-editor-us-phone');
       await page.getByTestId('save-model').click();
       await pollUntil(async () => await page.getByTestId('save-model').isDisabled(), 'saved');
-      const { token } = await api<{ token: string }>(h, '/auth/sign-in', {
-        method: 'POST',
-        body: { email: 'engineer@larkspur.example', password: DEMO_PASSWORD },
-      });
+      const token = await engineerToken(h);
       const env = await api<{ model: { buses: { equipment?: { gapMm?: number } }[] } }>(h, `/studies/${id}/model`, {
         token,
       });
