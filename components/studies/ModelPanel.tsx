@@ -238,7 +238,9 @@ const styles = StyleSheet.create({
   buttonRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
   csvRow: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', alignItems: 'flex-end' },
   panel: { gap: space.lg },
+  /** Card's own padding is an inline style, which a sheet's paddingVertical alone would not override: restated here. */
   saveBar: {
+    padding: space.lg,
     flexDirection: 'row',
     alignItems: 'center',
     justifyContent: 'space-between',
