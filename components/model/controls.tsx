@@ -120,16 +120,15 @@ export function IconButton({
 // ---------------------------------------------------------------------------------------------
 // Shared box style
 
-function boxStyle(size: Size, invalid: boolean | undefined, editable: boolean): ViewStyle {
-  return {
-    height: HEIGHT[size],
-    borderWidth: size === 'cell' ? 1 : 1.5,
-    borderColor: invalid ? colors.danger : editable ? colors.line : colors.lineSoft,
-    borderRadius: radius.sm,
-    backgroundColor: invalid ? '#FFF8F8' : editable ? colors.surface : colors.canvas,
-    paddingHorizontal: size === 'cell' ? space.sm : space.md,
-  };
+function boxStyle(size: Size, invalid: boolean | undefined, editable: boolean) {
+  return [
+    styles.box,
+    size === 'cell' ? styles.boxCell : styles.boxForm,
+    invalid ? styles.boxInvalid : editable ? null : styles.boxReadOnly,
+  ];
 }
+
+const heightOf = (size: Size) => (size === 'cell' ? styles.cellHeight : styles.formHeight);
 
 // ---------------------------------------------------------------------------------------------
 // Text and number inputs
@@ -319,7 +318,7 @@ export function SegCell<V extends string>({
       accessibilityRole="radiogroup"
       accessibilityLabel={accessibilityLabel}
       testID={testID}
-      style={[styles.segments, { height: HEIGHT[size] }, invalid ? styles.segmentsInvalid : null, style]}
+      style={[styles.segments, heightOf(size), invalid ? styles.segmentsInvalid : null, style]}
     >
       {options.map((o, i) => {
         const on = o.value === value;
@@ -381,7 +380,7 @@ export function CheckCell({
       disabled={!editable}
       testID={testID}
       onPress={() => onChange(!value)}
-      style={[styles.check, { height: HEIGHT[size] }]}
+      style={[styles.check, heightOf(size)]}
     >
       <View style={[styles.checkBox, value ? styles.checkBoxOn : null]}>
         {value ? <Icon name="check" size={16} color={colors.accentInk} /> : null}
@@ -678,6 +677,14 @@ export function FormField({
 }
 
 const styles = StyleSheet.create({
+  /** The box of an input or a picker button: smaller in a table cell; red when invalid; grey when read-only. */
+  box: { borderRadius: radius.sm, borderColor: colors.line, backgroundColor: colors.surface },
+  boxCell: { height: HEIGHT.cell, borderWidth: 1, paddingHorizontal: space.sm },
+  boxForm: { height: HEIGHT.form, borderWidth: 1.5, paddingHorizontal: space.md },
+  boxInvalid: { borderColor: colors.danger, backgroundColor: '#FFF8F8' },
+  boxReadOnly: { borderColor: colors.lineSoft, backgroundColor: colors.canvas },
+  cellHeight: { height: HEIGHT.cell },
+  formHeight: { height: HEIGHT.form },
   iconButton: {
     borderRadius: radius.sm,
     alignItems: 'center',
