@@ -1,5 +1,6 @@
 import { Link } from 'expo-router';
 import React from 'react';
+import { StyleSheet } from 'react-native';
 import { useUser } from '../../hooks/session';
 import { can, rolesThatCan, type Capability } from '../../shared/permissions';
 import { ROLE_LABELS, type Role } from '../../shared/schemas/common';
@@ -33,13 +34,13 @@ export function RoleGuard({
       <Notice testID="role-guard-denied">
         {`${what} is for ${rolesInWords(rolesThatCan(capability))}. You are signed in as ${ROLE_LABELS[user.role].toLowerCase()}.`}
       </Notice>
-      <Link
-        href="/"
-        style={{ color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium }}
-        testID="role-guard-home"
-      >
+      <Link href="/" style={styles.homeLink} testID="role-guard-home">
         Go to your home screen
       </Link>
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  homeLink: { color: colors.accent, fontSize: 16, fontFamily: fonts.textMedium },
+});
