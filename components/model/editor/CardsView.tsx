@@ -3,11 +3,12 @@ import { memo, useCallback } from 'react';
 import { useUnitSystem } from '../../../hooks/unitSystem';
 import { unitLabel } from '../../../hooks/units';
 import { Pressable, StyleSheet, View } from 'react-native';
-import { colors, fonts, radius, space, touch } from '../../theme';
+import { colors, fonts, radius, space } from '../../theme';
 import { Button, T } from '../../ui';
 import { COLUMNS, type Column } from '../columns';
 import { FormField, Icon } from '../controls';
 import { elementKey, elementSummary, fieldLabel, issueMessage, problemCount, type AnyElement } from '../summaries';
+import { DeleteButton } from './DeleteButton';
 import { useIssueColumns, useScrollIntoView } from './rowHooks';
 import { NO_ISSUES, type RowProps } from './types';
 
@@ -122,15 +123,7 @@ export const CardRow = memo(function CardRow({
                 onPress={() => actions.duplicate(collection, index)}
                 testID={`${base}-duplicate`}
               />
-              <Pressable
-                accessibilityRole="button"
-                onPress={() => actions.remove(collection, index)}
-                testID={`${base}-delete`}
-                style={({ pressed }) => [styles.delete, pressed ? styles.deletePressed : null]}
-              >
-                <Icon name="trash" size={18} color={colors.danger} />
-                <T style={styles.deleteText}>Delete</T>
-              </Pressable>
+              <DeleteButton onPress={() => actions.remove(collection, index)} testID={`${base}-delete`} />
             </View>
           ) : null}
         </View>
@@ -193,17 +186,4 @@ const styles = StyleSheet.create({
   fields: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.md, rowGap: space.md, paddingTop: space.sm },
   fieldWarning: { color: colors.caution },
   actions: { flexDirection: 'row', gap: space.sm, justifyContent: 'flex-end', flexWrap: 'wrap' },
-  delete: {
-    minHeight: touch.min,
-    paddingHorizontal: space.lg,
-    borderRadius: radius.md,
-    borderWidth: 1,
-    borderColor: '#E7B4B4',
-    backgroundColor: colors.surface,
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.sm,
-  },
-  deletePressed: { backgroundColor: colors.dangerSoft },
-  deleteText: { color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 },
 });

@@ -11,6 +11,7 @@ import { colors, fonts, radius, space, touch } from '../../theme';
 import { Button, Card, T } from '../../ui';
 import { CheckCell, FormField, Icon, IconButton, NumCell, SegCell, TextCell } from '../controls';
 import { withField } from '../edit';
+import { DeleteButton } from './DeleteButton';
 import {
   addScenario,
   baseFaultText,
@@ -566,20 +567,6 @@ function ScenarioDetail({
         </Group>
       ) : null}
     </View>
-  );
-}
-
-function DeleteButton({ onPress, testID }: { onPress: () => void; testID: string }) {
-  return (
-    <Pressable
-      accessibilityRole="button"
-      onPress={onPress}
-      testID={testID}
-      style={({ pressed }) => [styles.delete, pressed ? styles.deletePressed : null]}
-    >
-      <Icon name="trash" size={18} color={colors.danger} />
-      <T style={styles.deleteText}>Delete</T>
-    </Pressable>
   );
 }
 
@@ -1143,19 +1130,6 @@ const styles = StyleSheet.create({
   motorsAbove: { flexDirection: 'column', alignItems: 'stretch', justifyContent: 'space-between', gap: space.sm },
   motorsAboveWide: { flexDirection: 'row', alignItems: 'center' },
   noMotors: { padding: space.md },
-  delete: {
-    minHeight: touch.min,
-    paddingHorizontal: space.lg,
-    borderRadius: radius.md,
-    borderWidth: 1,
-    borderColor: '#E7B4B4',
-    backgroundColor: colors.surface,
-    flexDirection: 'row',
-    alignItems: 'center',
-    gap: space.sm,
-  },
-  deletePressed: { backgroundColor: colors.dangerSoft },
-  deleteText: { color: colors.danger, fontFamily: fonts.textBold, fontSize: 16 },
   group: { gap: space.sm },
   groupHead: { gap: 2 },
   groupCount: { fontFamily: fonts.numbers, fontSize: 15, color: colors.muted },
