@@ -14,7 +14,7 @@ import type { RelayDevice } from '../../../shared/schemas/device';
 import type { DeviceType } from '../../../shared/schemas/deviceLibrary';
 import type { Page } from 'playwright-core';
 import type { Harness, Spec } from '../harness';
-import { DESKTOP, PHONE, api, assert, draftStudyWithModel, runToDone } from '../harness';
+import { DESKTOP, PHONE, api, assert, draftStudyWithModel, pollUntil, runToDone } from '../harness';
 
 /** A draft study of a site of its own holding the demo plant. */
 async function draftStudy(h: Harness): Promise<{ id: string; token: string }> {
@@ -122,7 +122,18 @@ export const specs: Spec[] = [
       assert(JSON.stringify({ ...relay, timeDial: 2 }) === JSON.stringify(originalRelay), 'only the time dial changed');
 
       await page.goto(`${h.baseUrl}/studies/${id}?tab=overview`);
+      // The status still reads the first run's "Finished" until the new run is answered: wait for the new run itself.
+      const firstRun = await api<{ id: string }>(h, `/studies/${id}/run`, { token });
       await page.getByTestId('run-study').click();
+      await pollUntil(
+        async () => {
+          const r = await api<{ id: string; status: string }>(h, `/studies/${id}/run`, { token });
+          if (r.status === 'failed') throw new Error('the second run failed');
+          return r.id !== firstRun.id && r.status === 'done';
+        },
+        'the second run to finish',
+        90_000,
+      );
       await page.getByTestId('run-status').getByText('Finished').waitFor({ timeout: 60_000 });
 
       const after = engineReading(saved, settings);
