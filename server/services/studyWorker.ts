@@ -1,7 +1,15 @@
+import os from 'node:os';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
-import { createScenarioRunner, storedResultsText, type StudyOptions, type StudyRunOutcome } from '../engine/study';
+import {
+  createScenarioRunner,
+  storedResultsFromPieces,
+  storedResultsText,
+  type StudyOptions,
+  type StudyRunOutcome,
+  type StudyRunPiece,
+} from '../engine/study';
 import { markCheckedModel } from '../engine/shortcircuit';
 import { log } from '../log';
 import { generatedPlant } from '../seed/generatedPlant';
@@ -19,9 +27,14 @@ import { scenarioBusResult, type ScenarioBusOutcome } from './scenarioBus';
  *
  * Workers are kept warm between runs (loading the engine takes about a second, and a warmed-up engine runs a large
  * plant several times faster): a worker takes one run at a time (`{ type: 'run', id, model, options }`, answered by
- * progress, done or error messages carrying the id) and then waits for the next. A run that starts while the warm
- * worker is busy gets a worker of its own; at most one idle worker is kept, unref'd (it never keeps the process
- * alive), and it is terminated after `IDLE_WORKER_MS` or by `closeStudyWorkers()` (server shutdown, test app close).
+ * progress, done or error messages carrying the id) and then waits for the next. A job that starts while the warm
+ * workers are busy gets a worker of its own; at most `STUDY_WORKER_PARALLELISM` idle workers are kept, unref'd (they
+ * never keep the process alive), each terminated after `IDLE_WORKER_MS` or by `closeStudyWorkers()` (server shutdown,
+ * test app close).
+ *
+ * A large run (a model text of `SPLIT_RUN_MIN_CHARS` or more) is computed in `STUDY_WORKER_PARALLELISM` parts at once,
+ * each part a contiguous range of the buses in a worker of its own (server/engine/study/runAll.ts `runBusRange`), and
+ * the parts' stored texts are joined (`storedResultsFromPieces`): the same results, read back, as one part would give.
  * A stop request (`signal`) terminates the worker running that job; a worker whose run failed, that errors or that
  * exits is dropped, and the next run starts a new one.
  */
@@ -32,11 +45,23 @@ const WORKER_HEAP_MB = 1536;
 /** An idle warm worker is terminated after this long without a run. */
 export const IDLE_WORKER_MS = 10 * 60_000;
 
+/**
+ * Workers a large run is split over, and idle workers kept warm: two where the machine has two cores or more (the
+ * server's own thread is mostly idle during a run), one otherwise.
+ */
+export const STUDY_WORKER_PARALLELISM = Math.max(1, Math.min(2, os.availableParallelism()));
+
+/**
+ * A run whose model text is at least this long (about 2 000 buses) is split over `STUDY_WORKER_PARALLELISM` workers:
+ * below it, parsing the model and building the network twice costs more than the split saves.
+ */
+export const SPLIT_RUN_MIN_CHARS = 1_000_000;
+
 // The run's model and results are locals of the message handler: nothing of a finished run stays referenced.
 const BOOTSTRAP = `
 const { parentPort, workerData } = require('node:worker_threads');
 try { require('tsx/cjs/api').register(); } catch (e) { /* already JavaScript */ }
-const { runAllBuses, markCheckedModel } = require(workerData.modulePath);
+const { runAllBuses, runBusRange, markCheckedModel } = require(workerData.modulePath);
 let busModule = null;
 let mitigationModule = null;
 parentPort.on('message', (msg) => {
@@ -73,9 +98,8 @@ parentPort.on('message', (msg) => {
   try {
     const model = typeof msg.model === 'string' ? JSON.parse(msg.model) : msg.model;
     if (msg.checked) markCheckedModel(model);
-    outcome = runAllBuses(model, msg.options, (done, total) =>
-      parentPort.postMessage({ type: 'progress', id, done, total }),
-    );
+    const progress = (done, total) => parentPort.postMessage({ type: 'progress', id, done, total });
+    outcome = msg.part ? runBusRange(model, msg.options, progress, msg.part) : runAllBuses(model, msg.options, progress);
   } catch (e) {
     parentPort.postMessage({ type: 'error', id, message: e && e.message ? e.message : String(e) });
     return;
@@ -119,14 +143,14 @@ interface Slot {
   idleTimer: NodeJS.Timeout | null;
 }
 
-/** Every live worker, and the one idle among them (at most one is kept idle). */
+/** Every live worker, and the idle ones among them (at most `STUDY_WORKER_PARALLELISM`, the latest idle last). */
 const slots = new Set<Slot>();
-let idleSlot: Slot | null = null;
+const idleSlots: Slot[] = [];
 let nextJobId = 1;
 
 /** Live and idle study workers (for tests and diagnostics). */
 export function studyWorkerCounts(): { live: number; idle: number } {
-  return { live: slots.size, idle: idleSlot ? 1 : 0 };
+  return { live: slots.size, idle: idleSlots.length };
 }
 
 type WorkerMessage = {
@@ -149,7 +173,8 @@ function workerError(e: Error & { code?: string }): Error {
 /** The worker leaves the pool (its job, if any, is settled by whoever calls this or by its exit event). */
 function forget(slot: Slot): void {
   slots.delete(slot);
-  if (idleSlot === slot) idleSlot = null;
+  const at = idleSlots.indexOf(slot);
+  if (at >= 0) idleSlots.splice(at, 1);
   if (slot.idleTimer) clearTimeout(slot.idleTimer);
   slot.idleTimer = null;
 }
@@ -204,24 +229,23 @@ function startSlot(): Slot {
   return slot;
 }
 
-/** A finished worker waits for the next run (unref'd, with an idle timeout), unless another one already waits. */
+/** A finished worker waits for the next run (unref'd, with an idle timeout), unless enough others already wait. */
 function release(slot: Slot): void {
-  if (!slots.has(slot)) return;
-  if (idleSlot && idleSlot !== slot) {
+  if (!slots.has(slot) || idleSlots.includes(slot)) return;
+  if (idleSlots.length >= STUDY_WORKER_PARALLELISM) {
     void drop(slot);
     return;
   }
-  idleSlot = slot;
+  idleSlots.push(slot);
   slot.worker.unref();
   slot.idleTimer = setTimeout(() => void drop(slot), IDLE_WORKER_MS);
   slot.idleTimer.unref();
 }
 
-/** The idle warm worker (ref'd again), or a new one. */
+/** An idle warm worker (ref'd again), or a new one. */
 function acquire(): Slot {
-  const slot = idleSlot;
+  const slot = idleSlots.pop();
   if (slot) {
-    idleSlot = null;
     if (slot.idleTimer) clearTimeout(slot.idleTimer);
     slot.idleTimer = null;
     slot.worker.ref();
@@ -235,22 +259,26 @@ let warming: Promise<void> | null = null;
 let warmedUp = false;
 
 /**
- * Starts a study worker and runs a small generated plant in it, so that the first real run after a server start
- * finds the engine loaded and compiled (a cold worker runs a large plant about a second slower). Off the request
- * thread; the worker is then kept idle like any other. Runs once per process, and not while a run is in progress.
- * Never rejects: a warm-up that fails is logged and the next run starts its own worker.
+ * Starts `STUDY_WORKER_PARALLELISM` study workers and runs a small generated plant in each, so that the first real run
+ * after a server start finds the engine loaded and compiled (a cold worker runs a large plant about a second slower).
+ * Off the request thread; the workers are then kept idle like any other. Runs once per process, and not while a run
+ * is in progress. Never rejects: a warm-up that fails is logged and the next run starts its own workers.
  */
-export function warmStudyWorker(input: ModelInput = generatedPlant(2, 49)): Promise<void> {
+export function warmStudyWorker(input: ModelInput = generatedPlant(4, 99)): Promise<void> {
   if (warming) return warming;
   // Once per process; and never beside a run in progress (that worker is warming up already).
-  if (warmedUp || slots.size > (idleSlot ? 1 : 0)) return Promise.resolve();
+  if (warmedUp || slots.size > idleSlots.length) return Promise.resolve();
   warmedUp = true;
   const parsed = parseModel(input);
   if (!parsed.success) {
     log.warn({ issues: parsed.issues.slice(0, 3) }, 'study worker warm-up: the warm-up model is invalid');
     return Promise.resolve();
   }
-  warming = runInWorker(parsed.model, {}, {})
+  // One run in each worker at once (each takes a worker of its own).
+  const runs = Array.from({ length: STUDY_WORKER_PARALLELISM }, () =>
+    inWorker<StudyRunOutcome>((id) => ({ type: 'run', id, model: JSON.stringify(parsed.model), options: {} }), {}),
+  );
+  warming = Promise.all(runs)
     .then(() => undefined)
     .catch((err: unknown) => log.warn({ err }, 'study worker warm-up failed'))
     .finally(() => {
@@ -264,7 +292,15 @@ export async function closeStudyWorkers(): Promise<void> {
   await Promise.all([...slots].map((slot) => drop(slot)));
 }
 
+/** In how many parts a run of this model text is computed. */
+function partsFor(modelJson: string): number {
+  return modelJson.length >= SPLIT_RUN_MIN_CHARS ? STUDY_WORKER_PARALLELISM : 1;
+}
+
 function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJobOptions): Promise<StudyRunOutcome> {
+  const text = typeof model === 'string' ? model : JSON.stringify(model);
+  const parts = partsFor(text);
+  if (parts > 1) return runInParts(text, opts.modelChecked === true && typeof model === 'string', options, opts, parts);
   // Plain JSON across the thread boundary; the model's JSON text as stored is passed as is (parsed in the worker).
   return inWorker<StudyRunOutcome>(
     (id) => ({
@@ -278,10 +314,71 @@ function runInWorker(model: Model | string, options: StudyOptions, opts: StudyJo
   );
 }
 
+/**
+ * A run in `count` parts at once, each in a worker of its own (`runBusRange`), joined into the stored text of the
+ * whole run. Progress is the sum over the parts (reported once every part has reported its total). A part that fails
+ * stops the others, and the run fails with that part's error; a stop request stops every part.
+ */
+async function runInParts(
+  modelJson: string,
+  /** The text is a checked model's, as stored (`StudyJobOptions.modelChecked`). */
+  checked: boolean,
+  options: StudyOptions,
+  opts: StudyJobOptions,
+  count: number,
+): Promise<StudyRunOutcome> {
+  const controller = new AbortController();
+  const stopAll = () => controller.abort();
+  if (opts.signal?.aborted) stopAll();
+  opts.signal?.addEventListener('abort', stopAll, { once: true });
+  const done = new Array<number>(count).fill(0);
+  const totals = new Array<number>(count).fill(-1);
+  const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
+  const plainOptions = JSON.parse(JSON.stringify(options)) as unknown;
+  try {
+    const pieces = await Promise.all(
+      Array.from({ length: count }, (_, index) =>
+        inWorker<StudyRunPiece>(
+          (id) => ({
+            type: 'run',
+            id,
+            model: modelJson,
+            options: plainOptions,
+            checked,
+            part: { index, count },
+          }),
+          {
+            signal: controller.signal,
+            stopError: opts.stopError,
+            onProgress: (d, total) => {
+              done[index] = d;
+              totals[index] = total;
+              if (totals.every((t) => t >= 0)) opts.onProgress?.(sum(done), sum(totals));
+            },
+          },
+        ).catch((e: unknown) => {
+          stopAll();
+          throw e;
+        }),
+      ),
+    );
+    return {
+      resultsJson: storedResultsFromPieces(
+        pieces[0].head,
+        pieces.map((p) => p.piece),
+      ),
+      buses: sum(pieces.map((p) => p.buses)),
+      failed: sum(pieces.map((p) => p.failed)),
+    };
+  } finally {
+    opts.signal?.removeEventListener('abort', stopAll);
+  }
+}
+
 /** One job in a warm worker: `message(id)` is what is posted; the promise settles with the job's outcome. */
 async function inWorker<T>(message: (id: number) => Record<string, unknown>, opts: StudyJobOptions): Promise<T> {
-  // A job that starts during the warm-up takes the warmed worker when it is done, rather than start a cold one.
-  if (warming && !idleSlot) await warming;
+  // A job that starts during the warm-up takes a warmed worker when it is done, rather than start a cold one.
+  if (warming && idleSlots.length === 0) await warming;
   return new Promise<T>((resolve, reject) => {
     const stopped = () => opts.stopError?.() ?? new Error('The study run was stopped');
     if (opts.signal?.aborted) {

@@ -4,11 +4,13 @@
  */
 import request from 'supertest';
 import { generatedPlant } from '../../server/bench/study';
-import { runStudy, storedResultsText } from '../../server/engine/study';
+import { parseStoredResults, runStudy, storedJsonText, storedResultsText } from '../../server/engine/study';
 import { JobStopped } from '../../server/services/jobs';
 import {
   closeStudyWorkers,
   runStudyOffThread,
+  SPLIT_RUN_MIN_CHARS,
+  STUDY_WORKER_PARALLELISM,
   studyRunStats,
   studyWorkerCounts,
   warmStudyWorker,
@@ -57,6 +59,27 @@ describe('runStudyOffThread', () => {
     const running = runStoppedAtFirstProgress();
     await expect(running).rejects.toThrow('stopped for the test');
   }, 60_000);
+
+  it('a large model is run in parts, one per worker at once: the same results as runStudy, progress summed', async () => {
+    const model = parsed(generatedPlant(24, 99));
+    expect(JSON.stringify(model).length).toBeGreaterThanOrEqual(SPLIT_RUN_MIN_CHARS);
+    const progress: [number, number][] = [];
+    const outcome = await runStudyOffThread(model, {}, { onProgress: (done, total) => progress.push([done, total]) });
+    const reference = runStudy(model, {});
+    // Read back: the whole results, byte for byte (ECMA-404 / JSON.stringify is the reference).
+    expect(JSON.stringify(parseStoredResults(outcome.resultsJson))).toBe(JSON.stringify(reference));
+    expect(outcome.buses).toBe(reference.buses.length);
+    // In parts where the machine has the cores for it (form 3 names each part's first bus), else in one (form 2).
+    const stored = JSON.parse(storedJsonText(outcome.resultsJson)) as { storedFormat: number; parts?: unknown[] };
+    expect(stored.storedFormat).toBe(STUDY_WORKER_PARALLELISM > 1 ? 3 : 2);
+    expect(stored.parts?.length ?? 1).toBe(STUDY_WORKER_PARALLELISM);
+    // Progress is reported over the whole run (the parts' sums), never past it.
+    expect(progress[0]).toEqual([0, reference.buses.length]);
+    for (const [done, total] of progress) {
+      expect(total).toBe(reference.buses.length);
+      expect(done).toBeLessThanOrEqual(total);
+    }
+  }, 120_000);
 });
 
 /**
@@ -65,6 +88,10 @@ describe('runStudyOffThread', () => {
  */
 describe('the warm study worker', () => {
   const options = { maxArcDurationMs: 2000, motorDecayCycles: 5 };
+  // From no worker at all (the tests above leave warm ones).
+  beforeAll(async () => {
+    await closeStudyWorkers();
+  });
   afterAll(async () => {
     await closeStudyWorkers();
   });
@@ -90,22 +117,24 @@ describe('the warm study worker', () => {
     expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
   }, 60_000);
 
-  it("a stopped run's worker is terminated and not reused: the next run starts a new one", async () => {
+  it("a stopped run's workers are terminated and not reused: the next run starts a new one", async () => {
+    await closeStudyWorkers();
     await runStudyOffThread(parsed(generatedPlant(4, 3)), {});
     expect(studyWorkerCounts().idle).toBe(1);
     const started = studyRunStats.workersStarted;
     const running = runStoppedAtFirstProgress();
     await expect(running).rejects.toThrow('stopped for the test');
-    // The stopped run took the warm worker (none started) and that worker is gone.
-    expect(studyRunStats.workersStarted).toBe(started);
+    // The stopped run (3 001 buses: in parts where the cores allow) took the warm worker, started one for each other
+    // part, and every one of them is gone.
+    expect(studyRunStats.workersStarted).toBe(started + STUDY_WORKER_PARALLELISM - 1);
     expect(studyWorkerCounts()).toEqual({ live: 0, idle: 0 });
     const model = parsed(larkspurModel());
     const next = await runStudyOffThread(model, options);
-    expect(studyRunStats.workersStarted).toBe(started + 1);
+    expect(studyRunStats.workersStarted).toBe(started + STUDY_WORKER_PARALLELISM);
     expect(next.resultsJson).toBe(storedResultsText(runStudy(model, options)));
   }, 60_000);
 
-  it('two concurrent runs each get a worker, both finish with the right results, one worker stays idle', async () => {
+  it('two concurrent runs each get a worker, both finish with the right results, and stay idle', async () => {
     const a = parsed(larkspurModel());
     const b = parsed(generatedPlant(10, 5));
     await runStudyOffThread(a, options);
@@ -114,24 +143,25 @@ describe('the warm study worker', () => {
     expect(studyRunStats.workersStarted).toBe(started + 1);
     expect(ra.resultsJson).toBe(storedResultsText(runStudy(a, options)));
     expect(rb.resultsJson).toBe(storedResultsText(runStudy(b, {})));
-    expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
+    // As many idle workers are kept as a large run is split over.
+    expect(studyWorkerCounts()).toEqual({ live: STUDY_WORKER_PARALLELISM, idle: STUDY_WORKER_PARALLELISM });
     await closeStudyWorkers();
     expect(studyWorkerCounts()).toEqual({ live: 0, idle: 0 });
   }, 60_000);
 
-  it('the warm-up at start leaves one idle worker; a run started during it waits and takes that worker', async () => {
+  it('the warm-up at start leaves a warm worker per part of a large run; a run started during it takes one', async () => {
     await closeStudyWorkers();
     const started = studyRunStats.workersStarted;
     const model = parsed(larkspurModel());
     const warming = warmStudyWorker();
     const run = runStudyOffThread(model, options);
     const [, outcome] = await Promise.all([warming, run]);
-    expect(studyRunStats.workersStarted).toBe(started + 1);
+    expect(studyRunStats.workersStarted).toBe(started + STUDY_WORKER_PARALLELISM);
     expect(outcome.resultsJson).toBe(storedResultsText(runStudy(model, options)));
-    expect(studyWorkerCounts()).toEqual({ live: 1, idle: 1 });
+    expect(studyWorkerCounts()).toEqual({ live: STUDY_WORKER_PARALLELISM, idle: STUDY_WORKER_PARALLELISM });
     // Once per process: a second call starts nothing.
     await warmStudyWorker();
-    expect(studyRunStats.workersStarted).toBe(started + 1);
+    expect(studyRunStats.workersStarted).toBe(started + STUDY_WORKER_PARALLELISM);
     await closeStudyWorkers();
   }, 60_000);
 });

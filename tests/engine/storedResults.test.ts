@@ -8,7 +8,16 @@
  */
 import { parseModel, type Model, type ModelInput } from '../../shared/schemas/model';
 import { studyResultsSchema, type StudyResults } from '../../shared/schemas/studyResults';
-import { parseStoredResults, runStudy, storedResultsText } from '../../server/engine/study';
+import { gunzipSync } from 'node:zlib';
+import {
+  COMPRESSED_PREFIX,
+  parseStoredResults,
+  runBusRange,
+  runStudy,
+  storedJsonText,
+  storedResultsFromPieces,
+  storedResultsText,
+} from '../../server/engine/study';
 import { larkspurModel } from '../../server/seed/larkspurModel';
 import { solidsBuildingModel } from '../../server/seed/solidsBuildingModel';
 import { radialPlant } from '../../server/bench/scaling';
@@ -19,10 +28,11 @@ const parsed = (input: ModelInput): Model => {
   return p.model;
 };
 
+/** Stored and read back, byte for byte; the stored JSON text (decompressed where the run is large). */
 function roundTrip(results: StudyResults): string {
   const stored = storedResultsText(results);
   expect(JSON.stringify(parseStoredResults(stored))).toBe(JSON.stringify(results));
-  return stored;
+  return storedJsonText(stored);
 }
 
 describe('stored results', () => {
@@ -105,10 +115,77 @@ describe('stored results', () => {
   it('a reader that skipped parseStoredResults finds no buses; a damaged index or an unknown form fails', () => {
     const results = runStudy(parsed(radialPlant(200)), {});
     const stored = storedResultsText(results);
+    expect(stored.startsWith('{')).toBe(true);
     expect((JSON.parse(stored) as { buses?: unknown }).buses).toBeUndefined();
     const raw = JSON.parse(stored) as { shared: unknown[]; results: StudyResults };
     raw.shared = raw.shared.slice(0, 1);
     expect(() => parseStoredResults(JSON.stringify(raw))).toThrow(/damaged/);
     expect(() => parseStoredResults(stored.replace('"storedFormat":2', '"storedFormat":99'))).toThrow(/unknown form/);
+  });
+
+  it('a large run is stored compressed (gzip members of the same text) and reads back byte for byte', () => {
+    const results = runStudy(parsed(radialPlant(300)), {});
+    const stored = storedResultsText(results);
+    expect(stored.startsWith(COMPRESSED_PREFIX)).toBe(true);
+    // The reference decompressor: node's zlib reading RFC 1952 gzip (several members decompress to their text joined).
+    const text = gunzipSync(Buffer.from(stored.slice(COMPRESSED_PREFIX.length), 'base64')).toString('utf8');
+    expect(text).toBe(storedJsonText(stored));
+    expect(JSON.parse(text).storedFormat).toBe(2);
+    expect(JSON.stringify(parseStoredResults(stored))).toBe(JSON.stringify(results));
+    // JSON text of results compresses well: a fifth of the text at most (about a tenth here).
+    expect(stored.length).toBeLessThan(text.length / 5);
+    // Damaged base64 or gzip fails loudly.
+    expect(() => parseStoredResults(`${COMPRESSED_PREFIX}AAAA${stored.slice(COMPRESSED_PREFIX.length + 4)}`)).toThrow();
+  });
+
+  it('a run in parts (each range of buses on its own) reads back as the whole run, plain or compressed', () => {
+    const options = { maxArcDurationMs: 2000 };
+    for (const [model, counts] of [
+      [parsed(larkspurModel()), [2, 3]],
+      [parsed(solidsBuildingModel()), [2]],
+      [parsed(radialPlant(300)), [2, 3]],
+    ] as const) {
+      const whole = JSON.stringify(runStudy(model, options));
+      for (const count of counts) {
+        const parts = Array.from({ length: count }, (_, index) =>
+          runBusRange(model, options, () => {}, { index, count }),
+        );
+        const stored = storedResultsFromPieces(
+          parts[0].head,
+          parts.map((p) => p.piece),
+        );
+        expect(JSON.stringify(parseStoredResults(stored))).toBe(whole);
+        const json = JSON.parse(storedJsonText(stored)) as { storedFormat: number; parts: { from: number }[] };
+        expect(json.storedFormat).toBe(3);
+        // Each part starts where the one before ended.
+        let from = 0;
+        json.parts.forEach((p, i) => {
+          expect(p.from).toBe(from);
+          from += parts[i].buses;
+        });
+      }
+    }
+  });
+
+  it('more parts than buses (empty parts) and parts out of order or not from the first bus', () => {
+    const model = parsed(larkspurModel());
+    const whole = runStudy(model, {});
+    const count = whole.buses.length + 3;
+    const parts = Array.from({ length: count }, (_, index) => runBusRange(model, {}, () => {}, { index, count }));
+    expect(parts.filter((p) => p.buses === 0).length).toBe(3);
+    const stored = storedResultsFromPieces(
+      parts[0].head,
+      parts.map((p) => p.piece),
+    );
+    expect(JSON.stringify(parseStoredResults(stored))).toBe(JSON.stringify(whole));
+    const raw = JSON.parse(stored) as { parts: { from: number }[] };
+    const damaged = (change: (r: typeof raw) => void) => {
+      const copy = JSON.parse(stored) as typeof raw;
+      change(copy);
+      return () => parseStoredResults(JSON.stringify(copy));
+    };
+    expect(damaged((r) => (r.parts[0].from = 1))).toThrow(/damaged/);
+    expect(damaged((r) => r.parts.reverse())).toThrow(/damaged/);
+    expect(damaged((r) => (r.parts = []))).toThrow(/damaged/);
   });
 });

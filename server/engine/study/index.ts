@@ -6,8 +6,18 @@ export {
   type StudyOptions,
   type StudyRunner,
 } from './runStudy';
-export { runAllBuses, type StudyRunOutcome } from './runAll';
-export { parseStoredResults, storedResultsText, StoredResultsWriter, STORED_RESULTS_FORMAT } from './storedResults';
+export { runAllBuses, runBusRange, type StudyRunOutcome, type StudyRunPiece } from './runAll';
+export {
+  COMPRESSED_PREFIX,
+  parseStoredResults,
+  storedJsonText,
+  storedResultsFromPieces,
+  storedResultsText,
+  StoredResultsWriter,
+  STORED_RESULTS_FORMAT,
+  STORED_RESULTS_PARTS_FORMAT,
+  type StoredResultsPiece,
+} from './storedResults';
 export { resolveEquipment, type ResolvedEquipment } from './equipment';
 export { boundaryDistanceMm, BOUNDARY_ENERGY_J_PER_CM2 } from './boundary';
 export {

@@ -1,3 +1,4 @@
+import { gunzipSync, gzipSync } from 'node:zlib';
 import type { BusResult, StudyResults } from '../../../shared/schemas/studyResults';
 
 /**
@@ -15,10 +16,44 @@ import type { BusResult, StudyResults } from '../../../shared/schemas/studyResul
  * this form (plain `JSON.stringify` of the results) read as they are. Every reader of stored results goes through
  * `parseStoredResults`; a reader that did not would find no `buses` at the top and fail at once, never read an index
  * as a label value.
+ *
+ * A large run is computed in parts (contiguous ranges of its buses, each in a worker of its own), and each part keeps
+ * its own list of shared values; its buses name values by their index in their part's list:
+ *
+ *   {"storedFormat":3,"parts":[{"from":0,"shared":[…]},{"from":5000,"shared":[…]}],"results":{…}}
+ *
+ * where `from` is the position of the part's first bus in `results.buses`. A run in one part is stored in form 2.
+ *
+ * A large run's text (its buses past `COMPRESS_BATCH_CHARS`) is stored compressed: `gzip-base64:` followed by the
+ * base64 of a gzip (RFC 1952) of the text above, written as several gzip members one after the other (the buses are
+ * compressed in batches as they are evaluated, so a large run never holds its whole text; the members decompress to
+ * the text joined). A 10 000-bus plant's 40 MB of text is stored in about 5 MB.
  */
 
-/** The form written now. */
+/** The form written for a run computed in one part. */
 export const STORED_RESULTS_FORMAT = 2;
+/** The form written for a run computed in several parts. */
+export const STORED_RESULTS_PARTS_FORMAT = 3;
+
+/** The start of a compressed stored text (never the start of JSON text). */
+export const COMPRESSED_PREFIX = 'gzip-base64:';
+
+/** Bus text is compressed in batches of about this many characters once a run's buses reach it. */
+export const COMPRESS_BATCH_CHARS = 1 << 20;
+
+/** gzip level of stored results: the fastest (JSON of results compresses about 10:1 even so). */
+const GZIP_LEVEL = 1;
+
+/**
+ * One part's stored text: its shared values (JSON items joined by commas) and its buses, the same way, as text or —
+ * for a large part — as gzip members whose text, joined, is that.
+ */
+export interface StoredResultsPiece {
+  shared: string;
+  buses: string | Uint8Array[];
+  /** Buses in the piece. */
+  count: number;
+}
 
 /** Label-value keys stored once per results (never numbers in a bus result, so a number there is an index). */
 const SHARED_LABEL_KEYS = [
@@ -76,11 +111,16 @@ export class StoredResultsWriter {
   /** Strings by their value (the same constant string hashes once), other values by their JSON text. */
   private readonly stringIndex = new Map<string, number>();
   private readonly jsonIndex = new Map<string, number>();
-  private readonly busJson: string[] = [];
+  /** Bus text not yet compressed (the buses' JSON and the commas between them) and its length. */
+  private pending: string[] = [];
+  private pendingChars = 0;
+  /** The bus text compressed so far (gzip members), once it passed `COMPRESS_BATCH_CHARS`. */
+  private readonly members: Uint8Array[] = [];
+  private count = 0;
 
   /** Number of buses added. */
   get buses(): number {
-    return this.busJson.length;
+    return this.count;
   }
 
   /**
@@ -135,20 +175,78 @@ export class StoredResultsWriter {
       }
       stored = copy;
     }
-    this.busJson.push(JSON.stringify(stored));
+    const json = JSON.stringify(stored);
+    if (this.count > 0) this.pending.push(',');
+    this.pending.push(json);
+    this.pendingChars += json.length + 1;
+    this.count += 1;
+    if (this.pendingChars >= COMPRESS_BATCH_CHARS) this.compressPending();
+  }
+
+  private compressPending(): void {
+    if (this.pending.length) this.members.push(gzipSync(this.pending.join(''), { level: GZIP_LEVEL }));
+    this.pending = [];
+    this.pendingChars = 0;
+  }
+
+  /** What was added, as one part of a run's stored text (`storedResultsFromPieces`). */
+  piece(): StoredResultsPiece {
+    const shared = this.sharedJson.join(',');
+    if (!this.members.length) return { shared, buses: this.pending.join(''), count: this.count };
+    this.compressPending();
+    return { shared, buses: [...this.members], count: this.count };
   }
 
   /** The stored text: `results` with the buses added (its own `buses` is ignored). */
   text(results: StudyResults): string {
-    const head = JSON.stringify({ ...results, buses: [] });
-    const key = '"buses":[]';
-    // A quote outside a string value is a delimiter in JSON text (inside one it is escaped), so the first
-    // `"buses":[]` is the results' own key: the keys before it hold a string and numbers only.
-    const at = head.indexOf(key);
-    if (at < 0) throw new Error('The study results have no buses array');
-    const body = `${head.slice(0, at)}"buses":[${this.busJson.join(',')}]${head.slice(at + key.length)}`;
-    return `{"storedFormat":${STORED_RESULTS_FORMAT},"shared":[${this.sharedJson.join(',')}],"results":${body}}`;
+    return storedResultsFromPieces(results, [this.piece()]);
   }
+}
+
+/**
+ * The stored text of a run from the pieces of its parts, in the order of their buses, and `results` for everything
+ * but the buses (its own `buses` is ignored): form 2 for one piece, form 3 for several; compressed when any piece is.
+ */
+export function storedResultsFromPieces(results: StudyResults, pieces: readonly StoredResultsPiece[]): string {
+  const head = JSON.stringify({ ...results, buses: [] });
+  const key = '"buses":[]';
+  // A quote outside a string value is a delimiter in JSON text (inside one it is escaped), so the first
+  // `"buses":[]` is the results' own key: the keys before it hold a string and numbers only.
+  const at = head.indexOf(key);
+  if (at < 0) throw new Error('The study results have no buses array');
+  let start: string;
+  if (pieces.length === 1) {
+    start = `{"storedFormat":${STORED_RESULTS_FORMAT},"shared":[${pieces[0].shared}],"results":`;
+  } else {
+    let from = 0;
+    const parts = pieces.map((p) => {
+      const part = `{"from":${from},"shared":[${p.shared}]}`;
+      from += p.count;
+      return part;
+    });
+    start = `{"storedFormat":${STORED_RESULTS_PARTS_FORMAT},"parts":[${parts.join(',')}],"results":`;
+  }
+  const before = `${start}${head.slice(0, at)}"buses":[`;
+  const after = `]${head.slice(at + key.length)}}`;
+  const filled = pieces.filter((p) => p.count > 0);
+  if (filled.every((p) => typeof p.buses === 'string'))
+    return `${before}${filled.map((p) => p.buses).join(',')}${after}`;
+  // Compressed: gzip members of the same text, one after the other.
+  const z = (text: string) => gzipSync(text, { level: GZIP_LEVEL });
+  const members: Uint8Array[] = [z(before)];
+  filled.forEach((p, i) => {
+    if (i > 0) members.push(z(','));
+    if (typeof p.buses === 'string') members.push(z(p.buses));
+    else members.push(...p.buses);
+  });
+  members.push(z(after));
+  return COMPRESSED_PREFIX + Buffer.concat(members).toString('base64');
+}
+
+/** The JSON text of a stored text: as it is, or decompressed. */
+export function storedJsonText(text: string): string {
+  if (!text.startsWith(COMPRESSED_PREFIX)) return text;
+  return gunzipSync(Buffer.from(text.slice(COMPRESSED_PREFIX.length), 'base64')).toString('utf8');
 }
 
 /** The stored text of whole results (the same text as adding their buses one by one). */
@@ -179,17 +277,40 @@ function sharedAt(shared: unknown[], i: number): unknown {
   return copyJson(shared[i]);
 }
 
-/** The results of a run from their stored text (either form); each bus with its own copy of every value. */
+/** The parts of a form-3 text, checked: the first starts at bus 0, each at or after the one before. */
+function partsOf(stored: Record<string, unknown>, busCount: number): { from: number; shared: unknown[] }[] {
+  const parts = stored.parts;
+  const damaged = () => new Error('The stored results are damaged: their parts do not cover the buses');
+  if (!Array.isArray(parts) || parts.length === 0) throw damaged();
+  let last = 0;
+  return parts.map((p: unknown, i) => {
+    const part = p as { from?: unknown; shared?: unknown };
+    const from = part.from;
+    if (typeof from !== 'number' || !Number.isInteger(from) || !Array.isArray(part.shared)) throw damaged();
+    if ((i === 0 && from !== 0) || from < last || from > busCount) throw damaged();
+    last = from;
+    return { from, shared: part.shared as unknown[] };
+  });
+}
+
+/** The results of a run from their stored text (any form); each bus with its own copy of every value. */
 export function parseStoredResults(text: string): StudyResults {
-  const stored = JSON.parse(text) as Record<string, unknown>;
+  const stored = JSON.parse(storedJsonText(text)) as Record<string, unknown>;
   if (stored.storedFormat === undefined) return stored as unknown as StudyResults;
-  if (stored.storedFormat !== STORED_RESULTS_FORMAT || !Array.isArray(stored.shared)) {
+  const results = stored.results as StudyResults;
+  let parts: { from: number; shared: unknown[] }[];
+  if (stored.storedFormat === STORED_RESULTS_FORMAT && Array.isArray(stored.shared)) {
+    parts = [{ from: 0, shared: stored.shared as unknown[] }];
+  } else if (stored.storedFormat === STORED_RESULTS_PARTS_FORMAT) {
+    parts = partsOf(stored, results.buses.length);
+  } else {
     throw new Error(`Stored results of an unknown form (${String(stored.storedFormat)})`);
   }
-  const shared = stored.shared as unknown[];
-  const results = stored.results as StudyResults;
-  for (const b of results.buses) {
-    const bus = b as unknown as Record<string, unknown>;
+  let part = 0;
+  let shared = parts[0].shared;
+  for (let i = 0; i < results.buses.length; i++) {
+    while (part + 1 < parts.length && parts[part + 1].from <= i) shared = parts[++part].shared;
+    const bus = results.buses[i] as unknown as Record<string, unknown>;
     if (typeof bus.equipment === 'number') bus.equipment = sharedAt(shared, bus.equipment);
     const lv = bus.labelValues as Record<string, unknown> | undefined;
     if (!lv) continue;
