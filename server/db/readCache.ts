@@ -2,7 +2,8 @@ import { LRUCache } from 'lru-cache';
 import type { ModelHooks } from 'sequelize/types/hooks';
 
 /**
- * Short-lived read caches for the hottest routes (the results pages and buses, the public label check), invalidated by
+ * Short-lived read caches for the hottest routes (the results pages and buses, the public label check, the settings
+ * every calculation reads), invalidated by
  * change counters that model hooks bump whenever a row of the tables they read is written.
  *
  * Invalidation: in this process, at once and whole. Any write of a watched model (instance save or destroy, bulk
@@ -13,10 +14,13 @@ import type { ModelHooks } from 'sequelize/types/hooks';
  */
 export const READ_CACHE_TTL_MS = 5_000;
 
-/** `studies`: studies and study runs (which run a study's results stand on). `labels`: labels. */
-export type WatchedTables = 'studies' | 'labels';
+/**
+ * `studies`: studies and study runs (which run a study's results stand on). `labels`: labels. `organizations`:
+ * organizations (their settings, read by every calculation).
+ */
+export type WatchedTables = 'studies' | 'labels' | 'organizations';
 
-const counters: Record<WatchedTables, number> = { studies: 0, labels: 0 };
+const counters: Record<WatchedTables, number> = { studies: 0, labels: 0, organizations: 0 };
 
 export function changeCounter(tables: WatchedTables): number {
   return counters[tables];

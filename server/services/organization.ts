@@ -5,6 +5,7 @@ import {
   type OrganizationSettingsInput,
 } from '../../shared/schemas/organization';
 import { Organization } from '../db/models';
+import { ReadCache } from '../db/readCache';
 import type { LabelSettings } from '../engine/labelValues';
 import type { AppContext, AuthUser } from './context';
 import { ApiError } from './errors';
@@ -28,9 +29,20 @@ export async function getOrganization(actor: AuthUser): Promise<OrganizationDto>
   return { id: org.id, name: org.name, settings: parseSettings(org.settings) };
 }
 
+/**
+ * Each organization's settings, read by every calculation (the spot check, runs, labels): cached a few seconds and
+ * dropped on any write of an organization (server/db/readCache.ts). Callers get their own copy.
+ */
+const settingsCache = new ReadCache<{ settings: OrganizationSettings }>('organizations', 1_000);
+
 export async function getSettings(organizationId: string): Promise<OrganizationSettings> {
-  const org = await Organization.findByPk(organizationId);
-  return parseSettings(org?.settings ?? '{}');
+  const hit = settingsCache.get(organizationId);
+  if (hit) return structuredClone(hit.settings);
+  const at = settingsCache.counter();
+  const org = await Organization.findByPk(organizationId, { attributes: ['settings'] });
+  const settings = parseSettings(org?.settings ?? '{}');
+  settingsCache.set(organizationId, { settings: structuredClone(settings) }, at);
+  return settings;
 }
 
 export function labelSettingsOf(s: OrganizationSettings): LabelSettings {

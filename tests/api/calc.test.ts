@@ -68,7 +68,13 @@ describe('POST /api/calc/incident-energy', () => {
     expect(res.body.governingCase).toBe('reduced');
   });
 
-  it('uses the organization PPE levels and signal-word rule', async () => {
+  it('uses the organization PPE levels and signal-word rule, at once after they change', async () => {
+    // Read (and kept in the settings cache) before the change: the change must drop it.
+    const before = await request(t.app)
+      .post('/api/calc/incident-energy')
+      .set(...bearer(t.orgB.users.engineer.token))
+      .send(ie480(20));
+    expect(before.body.labelValues.ppeLevel.name).toBe('PPE level 1');
     const settings = {
       reviewIntervalMonths: 36,
       signalWord: { dangerAboveCalPerCm2: 1.5 },

@@ -11,6 +11,7 @@ import type { Role } from '../../../shared/schemas/common';
 import type { UnitSystem } from '../../../shared/schemas/auth';
 import { forgetUser } from '../../auth/cache';
 import { col, timestamps } from './columns';
+import { bumpOnWrite } from '../readCache';
 
 export class Organization extends Model<InferAttributes<Organization>, InferCreationAttributes<Organization>> {
   declare id: string;
@@ -70,7 +71,8 @@ export function initOrganization(sequelize: Sequelize): void {
       settings: { type: DataTypes.TEXT, defaultValue: '{}' },
       ...timestamps(),
     },
-    { sequelize, tableName: 'organizations' },
+    // The organization's settings are read through a short-lived cache (server/db/readCache.ts).
+    { sequelize, tableName: 'organizations', hooks: bumpOnWrite('organizations') },
   );
 }
 
