@@ -153,7 +153,7 @@ describe('the warm study worker', () => {
     await closeStudyWorkers();
     const started = studyRunStats.workersStarted;
     const model = parsed(larkspurModel());
-    const warming = warmStudyWorker();
+    const warming = warmStudyWorker(generatedPlant(2, 9), 2);
     const run = runStudyOffThread(model, options);
     const [, outcome] = await Promise.all([warming, run]);
     expect(studyRunStats.workersStarted).toBe(started + STUDY_WORKER_PARALLELISM);
