@@ -131,10 +131,31 @@ function literalValues(schema: z.ZodType | undefined): unknown[] {
   return [];
 }
 
-/** Unknown keys of `input` against `schema`, in document order, at most MAX_UNKNOWN_KEYS. */
+/** A discriminated union's options by their discriminator's values (built once per union). */
+const optionsByTag = new WeakMap<Def, Map<unknown, z.ZodType>>();
+
+function optionFor(def: Def, tag: unknown): z.ZodType | undefined {
+  let byTag = optionsByTag.get(def);
+  if (!byTag) {
+    byTag = new Map();
+    // The first option that lists a value wins (as a search in order would find it).
+    for (const o of def.options ?? []) {
+      for (const v of literalValues(objectDef(o)?.shape?.[def.discriminator!])) if (!byTag.has(v)) byTag.set(v, o);
+    }
+    optionsByTag.set(def, byTag);
+  }
+  return byTag.get(tag);
+}
+
+/**
+ * Unknown keys of `input` against `schema`, in document order, at most MAX_UNKNOWN_KEYS. The path is one stack,
+ * pushed and popped as the walk goes (copied only for a key reported): a large model is walked without a path copy
+ * per field.
+ */
 export function findUnknownKeys(schema: z.ZodType, input: unknown): UnknownKey[] {
   const found: UnknownKey[] = [];
-  const report = (parts: (string | number)[], key: string, known: string[]) => {
+  const parts: (string | number)[] = [];
+  const report = (key: string, known: string[]) => {
     if (found.length >= MAX_UNKNOWN_KEYS) return;
     const suggestion = suggestKey(key, known);
     const all = [...parts, key];
@@ -148,7 +169,14 @@ export function findUnknownKeys(schema: z.ZodType, input: unknown): UnknownKey[]
     });
   };
 
-  const walk = (s: z.ZodType, value: unknown, parts: (string | number)[], depth: number): void => {
+  /** The walk one level down, at `part`. */
+  const child = (s: z.ZodType, value: unknown, part: string | number, depth: number): void => {
+    parts.push(part);
+    walk(s, value, depth + 1);
+    parts.pop();
+  };
+
+  const walk = (s: z.ZodType, value: unknown, depth: number): void => {
     if (found.length >= MAX_UNKNOWN_KEYS || depth > 64) return;
     const def = defOf(s);
     switch (def.type) {
@@ -157,37 +185,34 @@ export function findUnknownKeys(schema: z.ZodType, input: unknown): UnknownKey[]
         const shape = def.shape ?? {};
         const catchallType = def.catchall ? defOf(def.catchall).type : 'never';
         const open = catchallType !== 'never';
-        const known = Object.keys(shape);
         for (const key of Object.keys(value)) {
-          if (Object.prototype.hasOwnProperty.call(shape, key))
-            walk(shape[key], value[key], [...parts, key], depth + 1);
+          if (Object.prototype.hasOwnProperty.call(shape, key)) child(shape[key], value[key], key, depth);
           else if (open) {
             if (def.catchall && catchallType !== 'unknown' && catchallType !== 'any')
-              walk(def.catchall, value[key], [...parts, key], depth + 1);
-          } else report(parts, key, known);
+              child(def.catchall, value[key], key, depth);
+          } else report(key, Object.keys(shape));
         }
         return;
       }
       case 'array':
         if (Array.isArray(value) && def.element) {
-          const element = def.element;
-          value.forEach((item, i) => walk(element, item, [...parts, i], depth + 1));
+          for (let i = 0; i < value.length; i++) child(def.element, value[i], i, depth);
         }
         return;
       case 'tuple':
         if (Array.isArray(value)) {
-          value.forEach((item, i) => {
-            const item_ = def.items?.[i] ?? def.rest ?? undefined;
-            if (item_) walk(item_, item, [...parts, i], depth + 1);
-          });
+          for (let i = 0; i < value.length; i++) {
+            const item = def.items?.[i] ?? def.rest ?? undefined;
+            if (item) child(item, value[i], i, depth);
+          }
         }
         return;
       case 'record': {
         if (!isPlainObject(value) || !def.valueType) return;
         const keyValues = literalValues(def.keyType).filter((k): k is string => typeof k === 'string');
         for (const key of Object.keys(value)) {
-          if (keyValues.length > 0 && !keyValues.includes(key)) report(parts, key, keyValues);
-          else walk(def.valueType, value[key], [...parts, key], depth + 1);
+          if (keyValues.length > 0 && !keyValues.includes(key)) report(key, keyValues);
+          else child(def.valueType, value[key], key, depth);
         }
         return;
       }
@@ -195,15 +220,14 @@ export function findUnknownKeys(schema: z.ZodType, input: unknown): UnknownKey[]
         const options = def.options ?? [];
         if (def.discriminator !== undefined) {
           if (!isPlainObject(value)) return;
-          const tag = value[def.discriminator];
-          const chosen = options.find((o) => literalValues(objectDef(o)?.shape?.[def.discriminator!]).includes(tag));
-          if (chosen) walk(chosen, value, parts, depth + 1);
+          const chosen = optionFor(def, value[def.discriminator]);
+          if (chosen) walk(chosen, value, depth + 1);
           return; // an unknown kind is the schema's own error
         }
         // Another union: the option with the fewest unknown keys (none: the value fits one of them).
         let best: UnknownKey[] | null = null;
         for (const option of options) {
-          const sub = findUnknownKeysAt(option, value, parts, depth + 1);
+          const sub = findUnknownKeysAt(option, value, depth + 1);
           if (best === null || sub.length < best.length) best = sub;
           if (sub.length === 0) break;
         }
@@ -213,25 +237,25 @@ export function findUnknownKeys(schema: z.ZodType, input: unknown): UnknownKey[]
       case 'intersection':
         return; // keys may belong to either side: left to the schema
       case 'pipe':
-        if (def.in) walk(def.in, value, parts, depth + 1);
+        if (def.in) walk(def.in, value, depth + 1);
         return;
       case 'lazy':
-        if (def.getter) walk(def.getter(), value, parts, depth + 1);
+        if (def.getter) walk(def.getter(), value, depth + 1);
         return;
       default:
-        if (WRAPPERS.has(def.type) && def.innerType) walk(def.innerType, value, parts, depth + 1);
+        if (WRAPPERS.has(def.type) && def.innerType) walk(def.innerType, value, depth + 1);
     }
   };
 
-  /** The same walk from a place inside the input, collected apart (for trying a union's options). */
-  const findUnknownKeysAt = (s: z.ZodType, value: unknown, parts: (string | number)[], depth: number) => {
+  /** The same walk from the place the path stands at, collected apart (for trying a union's options). */
+  const findUnknownKeysAt = (s: z.ZodType, value: unknown, depth: number) => {
     const saved = found.splice(0, found.length);
-    walk(s, value, parts, depth);
+    walk(s, value, depth);
     const sub = found.splice(0, found.length);
     found.push(...saved);
     return sub;
   };
 
-  walk(schema, input, [], 0);
+  walk(schema, input, 0);
   return found;
 }
