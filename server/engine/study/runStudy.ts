@@ -378,6 +378,16 @@ interface ArcState {
 }
 
 /** One arcing case at one location: the arc followed in time, devices operating, energy and boundary. */
+/**
+ * The same ids in the same order. Compared in a loop rather than by joined text: the arrays are empty in some cases
+ * and hold strings in others, and V8 deoptimized the whole case evaluation on such a join thousands of times a run.
+ */
+function sameIds(a: readonly string[], b: readonly string[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
 function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace {
   const { picture, equipment, arcing, arcCase } = input;
   const iarcKa = arcing.arcingCurrentKa[arcCase];
@@ -569,7 +579,6 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const intervals: ArcCaseTrace['intervals'] = [];
   for (const s of steps) {
     const last = intervals[intervals.length - 1];
-    const key = s.sourceIds.join('\u0000');
     const stepOut = {
       fromS: s.fromS,
       toS: s.toS,
@@ -578,7 +587,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       incidentEnergyJPerCm2: s.incidentEnergyJPerCm2,
       openedDeviceIds: s.opened,
     };
-    if (last && last.sourceIds.join('\u0000') === key) {
+    if (last && sameIds(last.sourceIds, s.sourceIds)) {
       last.toS = s.toS;
       last.incidentEnergyJPerCm2 += s.incidentEnergyJPerCm2;
       last.openedDeviceIds = [...(last.openedDeviceIds ?? []), ...s.opened];
@@ -662,6 +671,13 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       .filter((r) => r.clearingTimeS !== null && r.operatedAtS === null)
       .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))[0];
     const dropped = readings.filter((r) => fell(r).length).slice(0, 2);
+    // A loop, not map and join: the mapped array is empty on most buses and holds strings on others, and V8 kept
+    // deoptimizing this whole function on the join (dozens of times in a large run).
+    const dropoutsText = (rs: DeviceReading[]) => {
+      let text = '';
+      for (const r of rs) text += dropoutText(r);
+      return text;
+    };
     // Which devices did cut sources off before the cap, and which sources still feed the arc there.
     const cuts = new Map<string, { t: number; ids: string[] }>();
     for (const c of picture.contributors) {
@@ -681,7 +697,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
         ? ` (at the first-cycle current ${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s${varying.length ? `; the generator current decays (${varying.map((g) => g.id).join(', ')})` : ''}).`
         : '.') +
       cutText +
-      dropped.map(dropoutText).join('');
+      dropoutsText(dropped);
   } else {
     sentence = `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, only motors feed the arc; it ends at ${fmt(arcEnd)} s as their contribution decays.`;
   }
@@ -696,7 +712,9 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   }
   // Warnings of the devices that decide the arc duration (the others are in the trace, e.g. a feeder that only
   // carries a little motor current and does not trip).
-  const deciding = new Set([...stop.values()].map((s) => s.by).filter((x): x is string => !!x));
+  // Loops, not chained array methods, in this function: see `sameIds`.
+  const deciding = new Set<string>();
+  for (const s of stop.values()) if (s.by) deciding.add(s.by);
   for (const r of readings) {
     if (!deciding.has(r.deviceId)) continue;
     for (const w of r.warnings) {
