@@ -263,13 +263,13 @@ let warmedUp = false;
 
 /**
  * Starts `STUDY_WORKER_PARALLELISM` study workers and runs a generated plant `rounds` times in each, so that the first
- * real run after a server start finds the engine loaded and compiled: a worker that has run 1 000 buses a few times
- * runs a 10 000-bus plant about a third faster than one that ran 400 buses once (the JIT compiler tiers up over the
- * first few thousand buses). Off the request thread (about a second of each core at start); the workers are then
- * kept idle like any other. Runs once per process, and not while a run is in progress. Never rejects: a warm-up that
- * fails is logged and the next run starts its own workers.
+ * real run after a server start finds the engine loaded and compiled: a worker that has run 2 000 buses three times
+ * runs a 10 000-bus plant about as fast as it ever will, one that ran 400 buses once about 1.7× slower (the JIT
+ * compiler tiers up, and the heap grows, over the first several thousand buses). Off the request thread (about two
+ * seconds of each core at start); the workers are then kept idle like any other. Runs once per process, and not while
+ * a run is in progress. Never rejects: a warm-up that fails is logged and the next run starts its own workers.
  */
-export function warmStudyWorker(input: ModelInput = generatedPlant(10, 99), rounds = 3): Promise<void> {
+export function warmStudyWorker(input: ModelInput = generatedPlant(20, 99), rounds = 3): Promise<void> {
   if (warming) return warming;
   // Once per process; and never beside a run in progress (that worker is warming up already).
   if (warmedUp || slots.size > idleSlots.length) return Promise.resolve();
