@@ -10,6 +10,7 @@ import { colors, fonts, radius, space } from '../theme';
 import { T } from '../ui';
 import { useUnitSystem } from '../../hooks/unitSystem';
 import { buildSystemTree, type DeviceMarker, type ElementRef, type TreeRow } from './tree';
+import { MoreRows, useRowWindow } from './editor/RowWindow';
 
 export interface SystemTreeProps {
   model: ModelInput;
@@ -38,6 +39,8 @@ export function SystemTree({ model, onSelect }: SystemTreeProps) {
   });
   const stableSelect = useCallback((ref: { collection: string; index: number }) => onSelectRef.current?.(ref), []);
   const select = onSelect ? stableSelect : undefined;
+  // A large plant's tree is drawn a window of rows at a time (editor/RowWindow.tsx).
+  const rowWindow = useRowWindow(rows.length, null);
   if (rows.length === 0) {
     return (
       <T variant="small" testID="system-tree">
@@ -47,9 +50,17 @@ export function SystemTree({ model, onSelect }: SystemTreeProps) {
   }
   return (
     <View testID="system-tree" style={styles.tree}>
-      {rows.map(({ row, sig }) => (
+      {(rowWindow.shown < rows.length ? rows.slice(0, rowWindow.shown) : rows).map(({ row, sig }) => (
         <TreeRowView key={row.key} row={row} sig={sig} onSelect={select} />
       ))}
+      <MoreRows
+        shown={rowWindow.shown}
+        total={rows.length}
+        noun="rows"
+        onMore={rowWindow.showMore}
+        testID="system-tree-more"
+        canFind={false}
+      />
       <Legend />
     </View>
   );

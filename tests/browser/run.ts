@@ -17,6 +17,7 @@ import { specs as unitsSpecs } from './specs/units';
 import { specs as a11ySpecs } from './specs/a11y';
 import { specs as oneLineSpecs } from './specs/oneLine';
 import { specs as mitigationSpecs } from './specs/mitigation';
+import { specs as largeModelSpecs } from './specs/largeModel';
 import { closeAxe } from './axe';
 
 export type Spec = { name: string; run: (h: Harness) => Promise<void> };
@@ -37,6 +38,7 @@ async function main(): Promise<void> {
     ...a11ySpecs,
     ...oneLineSpecs,
     ...mitigationSpecs,
+    ...largeModelSpecs,
   ];
   const only = process.argv[2];
   const selected = only ? all.filter((s) => s.name.includes(only)) : all;

@@ -18,6 +18,7 @@ import {
   type CollectionKey,
 } from '../summaries';
 import { CardRow } from './CardsView';
+import { MoreRows, useRowWindow } from './RowWindow';
 import { SideScroll } from './SideScroll';
 import { TableHeader, TableRow } from './TableView';
 import { type Focus, NO_ISSUES, type RowActions, SECTION_NOTES } from './types';
@@ -66,6 +67,25 @@ export function CollectionSection({
     return q ? all.filter((i) => searchText(collection, items[i]).includes(q)) : all;
   }, [items, q, collection]);
   const sectionIssues = grouped.general.filter((g) => g.collection === collection);
+  // A long collection is drawn a window at a time (RowWindow.tsx); the row the editor jumps to is always drawn.
+  const prefix = elementKey(collection, 0).slice(0, -2);
+  const focusedIndex =
+    focus && focus.key.startsWith(prefix) && focus.key.endsWith(']') ? Number(focus.key.slice(prefix.length, -1)) : -1;
+  const rowWindow = useRowWindow(
+    indexes.length,
+    `${collection}\n${q}`,
+    focusedIndex >= 0 ? indexes.indexOf(focusedIndex) : -1,
+  );
+  const drawn = rowWindow.shown < indexes.length ? indexes.slice(0, rowWindow.shown) : indexes;
+  const more = (
+    <MoreRows
+      shown={rowWindow.shown}
+      total={indexes.length}
+      noun={labels.plural.toLowerCase()}
+      onMore={rowWindow.showMore}
+      testID={`model-more-${collection}`}
+    />
+  );
 
   const addButtons = editable ? (
     collection === 'sources' ? (
@@ -112,7 +132,7 @@ export function CollectionSection({
           <SideScroll testID={`table-${collection}`}>
             <View style={styles.table}>
               <TableHeader columns={columns} />
-              {indexes.map((i) => {
+              {drawn.map((i) => {
                 const key = elementKey(collection, i);
                 return (
                   <TableRow
@@ -131,10 +151,11 @@ export function CollectionSection({
               })}
             </View>
           </SideScroll>
+          {more}
         </Card>
       ) : (
         <View style={styles.cards}>
-          {indexes.map((i) => {
+          {drawn.map((i) => {
             const key = elementKey(collection, i);
             return (
               <CardRow
@@ -152,6 +173,7 @@ export function CollectionSection({
               />
             );
           })}
+          {more}
         </View>
       )}
     </View>
