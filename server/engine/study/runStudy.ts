@@ -335,9 +335,9 @@ function bandReaderOf(picture: FaultPicture): BandReader {
 function readDevices(input: CaseInput, scale: number): DeviceReading[] {
   const boltedKa = input.picture.fault.boltedFaultKa;
   const bands = bandReaderOf(input.picture);
-  return input.picture.devices
-    .filter((d) => !input.excluded.has(d.placed.id))
-    .map((d) => {
+  return mapped(
+    kept(input.picture.devices, (d) => !input.excluded.has(d.placed.id)),
+    (d) => {
       const currentA = d.boltedCurrentA * scale;
       const r = bands.clearing(d.placed.device as Device, currentA);
       return {
@@ -356,7 +356,8 @@ function readDevices(input: CaseInput, scale: number): DeviceReading[] {
         operatingRegion: null,
         dropouts: [],
       };
-    });
+    },
+  );
 }
 
 type StopReason = 'device' | 'motor-decay' | 'cap';
@@ -379,6 +380,31 @@ interface ArcState {
 
 /** One arcing case at one location: the arc followed in time, devices operating, energy and boundary. */
 /**
+ * `xs.filter(keep)` and `xs.map(f)` as array literals filled in a loop. In the case evaluation, arrays made by the
+ * array builtins are empty on some buses and hold objects or strings on others, each with a map of its own, and V8
+ * deoptimized the whole function on them thousands of times in one run; an array literal is made by its allocation
+ * site already holding any element, so it keeps one map.
+ */
+function kept<T>(xs: readonly T[], keep: (x: T) => boolean): T[] {
+  const out: T[] = [];
+  for (let i = 0; i < xs.length; i++) if (keep(xs[i])) out.push(xs[i]);
+  return out;
+}
+
+/** The ids of `xs` joined by `sep` (a loop, for the same reason as `kept`). */
+function idsText(xs: readonly { id: string }[], sep = ', '): string {
+  let text = '';
+  for (let i = 0; i < xs.length; i++) text += i ? sep + xs[i].id : xs[i].id;
+  return text;
+}
+
+function mapped<T, U>(xs: readonly T[], f: (x: T) => U): U[] {
+  const out: U[] = [];
+  for (let i = 0; i < xs.length; i++) out.push(f(xs[i]));
+  return out;
+}
+
+/**
  * The same ids in the same order. Compared in a loop rather than by joined text: the arrays are empty in some cases
  * and hold strings in others, and V8 deoptimized the whole case evaluation on such a join thousands of times a run.
  */
@@ -395,7 +421,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   const readings = readDevices(input, iarcKa / ibfKa);
   const readingById = new Map(readings.map((r) => [r.deviceId, r]));
   const byId = new Map(picture.devices.map((d) => [d.placed.id, d]));
-  const active = picture.devices.filter((d) => !input.excluded.has(d.placed.id));
+  const active = kept(picture.devices, (d) => !input.excluded.has(d.placed.id));
   const bands = bandReaderOf(picture);
   const integrators = new Map(
     active.map((d) => {
@@ -408,7 +434,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   for (const e of picture.edges) (outgoing.get(e.from) ?? outgoing.set(e.from, []).get(e.from)!).push(e);
 
   const stop = new Map<string, Stop>();
-  const live = () => picture.contributors.filter((c) => !stop.has(c.id));
+  const live = () => kept(picture.contributors, (c) => !stop.has(c.id));
   const arcingCache = new Map<number, ArcingCurrents>();
   const stateAt = (t: number, feeding: Contributor[]): ArcState => {
     const ratio = new Map<string, number>();
@@ -530,7 +556,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
         steps.push({
           fromS: t,
           toS: tEnd,
-          sourceIds: feeding.map((c) => c.id),
+          sourceIds: mapped(feeding, (c) => c.id),
           boltedFaultKa: ibfKa * Math.min(1, best.s.share),
           arcingCurrentKa: best.s.arcing.arcingCurrentKa[arcCase],
           arcing: best.s.arcing,
@@ -573,7 +599,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   }
   for (const c of live()) stop.set(c.id, { t: capS, by: null, reason: 'cap' });
   for (const r of readings)
-    r.dropouts = [...(integrators.get(r.deviceId)?.dropouts ?? [])].map((x) => ({ element: x.element, atS: x.atS }));
+    r.dropouts = mapped(integrators.get(r.deviceId)?.dropouts ?? [], (x) => ({ element: x.element, atS: x.atS }));
 
   // Intervals: the steps grouped while the same sources feed the arc.
   const intervals: ArcCaseTrace['intervals'] = [];
@@ -607,7 +633,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   }
   // A stretch of one step is its own step: not repeated (keeps the stored trace small).
   for (const i of intervals) if (i.steps.length === 1) i.steps = [];
-  const parts = steps.map((s) => ({ arcing: s.arcing, durationMs: (s.toS - s.fromS) * 1000 }));
+  const parts = mapped(steps, (s) => ({ arcing: s.arcing, durationMs: (s.toS - s.fromS) * 1000 }));
   const energyAt = (dMm: number) =>
     parts.reduce(
       (sum, p) =>
@@ -629,22 +655,24 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
   // The clearing device is the one that cuts off the last utility or generator source; motors on the faulted side
   // may keep feeding the arc until their contribution decays (stated in the sentence).
   const stopOf = (c: Contributor) => stop.get(c.id) as Stop;
-  const mains = picture.contributors.filter((c) => c.kind !== 'motor');
+  const mains = kept(picture.contributors, (c) => c.kind !== 'motor');
   const lastMain = mains.reduce<Contributor | null>((m, c) => (!m || stopOf(c).t > stopOf(m).t ? c : m), null);
   const ender = lastMain && stopOf(lastMain).reason === 'device' ? stopOf(lastMain).by : null;
   const capped = [...stop.values()].some((s) => s.reason === 'cap');
   const endReading = readings.find((r) => r.deviceId === ender);
-  const motorTail = picture.contributors.filter(
+  const motorTail = kept(
+    picture.contributors,
     (c) => c.kind === 'motor' && stopOf(c).reason === 'motor-decay' && (!lastMain || stopOf(c).t > stopOf(lastMain).t),
   );
-  const varying = picture.contributors.filter((c) => c.kind === 'generator');
+  const varying = kept(picture.contributors, (c) => c.kind === 'generator');
   const busLabel = picture.bus.id;
   const caseName = arcCase === 'full' ? 'arcing current' : 'reduced arcing current';
   const side = input.location === 'line-side' ? ' (line side of the main)' : '';
   // Elements that stopped because the current fell (not because a device cut their source off: that is said apart).
-  const cutTimes = [...stop.values()].filter((x) => x.reason === 'device').map((x) => x.t);
+  const cutTimes: number[] = [];
+  for (const x of stop.values()) if (x.reason === 'device') cutTimes.push(x.t);
   const fell = (r: DeviceReading) =>
-    r.dropouts.filter((x) => !cutTimes.some((tc) => Math.abs(tc - x.atS) <= EVENT_SLACK_S * Math.max(1, tc)));
+    kept(r.dropouts, (x) => !cutTimes.some((tc) => Math.abs(tc - x.atS) <= EVENT_SLACK_S * Math.max(1, tc)));
   const dropoutText = (r: DeviceReading) =>
     fell(r).length
       ? ` ${r.deviceId}'s ${fell(r)
@@ -659,18 +687,21 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     const region = endReading.operatingRegion ?? endReading.region;
     const initial =
       endReading.clearingTimeS === null || Math.abs(endReading.clearingTimeS - at) > 1e-9 * Math.max(1, at)
-        ? ` At the first-cycle current its band gives ${endReading.clearingTimeS === null ? 'no trip' : `${fmt(endReading.clearingTimeS)} s`}; the current it sees changes during the arc${varying.length ? ` (generator decrement: ${varying.map((g) => g.id).join(', ')})` : ''} and its operation is integrated over time (IEEE C37.112).`
+        ? ` At the first-cycle current its band gives ${endReading.clearingTimeS === null ? 'no trip' : `${fmt(endReading.clearingTimeS)} s`}; the current it sees changes during the arc${varying.length ? ` (generator decrement: ${idsText(varying)})` : ''} and its operation is integrated over time (IEEE C37.112).`
         : '';
     sentence =
-      `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, ${dev.placed.id} clears in its ${REGION_LABELS[region]} ` +
+      `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, ${endReading.deviceId} clears in its ${REGION_LABELS[region]} ` +
       `at ${fmt(at)} s (it sees ${fmt(endReading.currentA / 1000)} kA at first${dev.kv !== picture.bus.nominalKv ? ` at ${fmt(dev.kv)} kV` : ''}${many}).` +
       initial +
       dropoutText(endReading);
   } else if (capped) {
-    const late = readings
-      .filter((r) => r.clearingTimeS !== null && r.operatedAtS === null)
-      .sort((a, b) => (a.clearingTimeS as number) - (b.clearingTimeS as number))[0];
-    const dropped = readings.filter((r) => fell(r).length).slice(0, 2);
+    // The earliest to clear of the devices that never operated (the first of equals, as a stable sort gives).
+    let late: DeviceReading | undefined;
+    for (const r of readings) {
+      if (r.clearingTimeS === null || r.operatedAtS !== null) continue;
+      if (!late || r.clearingTimeS < (late.clearingTimeS as number)) late = r;
+    }
+    const dropped = kept(readings, (r) => fell(r).length > 0).slice(0, 2);
     // A loop, not map and join: the mapped array is empty on most buses and holds strings on others, and V8 kept
     // deoptimizing this whole function on the join (dozens of times in a large run).
     const dropoutsText = (rs: DeviceReading[]) => {
@@ -687,14 +718,17 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
       e.ids.push(c.id);
       cuts.set(st.by, e);
     }
-    const still = picture.contributors.filter((c) => stopOf(c).reason === 'cap').map((c) => c.id);
+    const still = kept(picture.contributors, (c) => stopOf(c).reason === 'cap');
+    let cutsText = '';
+    for (const [dev, e] of cuts)
+      cutsText += `${cutsText ? '; ' : ''}${dev} cuts off ${e.ids.join(', ')} at ${fmt(e.t)} s`;
     const cutText = cuts.size
-      ? ` ${[...cuts].map(([dev, e]) => `${dev} cuts off ${e.ids.join(', ')} at ${fmt(e.t)} s`).join('; ')}; ${still.join(', ')} still ${still.length === 1 ? 'feeds' : 'feed'} the arc.`
+      ? ` ${cutsText}; ${idsText(still)} still ${still.length === 1 ? 'feeds' : 'feed'} the arc.`
       : '';
     sentence =
       `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, no protective device clears every source before the ${fmt(capS)} s cap; the arc duration is capped` +
       (late
-        ? ` (at the first-cycle current ${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s${varying.length ? `; the generator current decays (${varying.map((g) => g.id).join(', ')})` : ''}).`
+        ? ` (at the first-cycle current ${late.deviceId} would clear in its ${REGION_LABELS[late.region]} at ${fmt(late.clearingTimeS as number)} s${varying.length ? `; the generator current decays (${idsText(varying)})` : ''}).`
         : '.') +
       cutText +
       dropoutsText(dropped);
@@ -702,7 +736,7 @@ function evaluateCase(input: CaseInput, warnings: EngineWarning[]): ArcCaseTrace
     sentence = `At ${fmt(iarcKa)} kA ${caseName} at ${busLabel}${side}, only motors feed the arc; it ends at ${fmt(arcEnd)} s as their contribution decays.`;
   }
   if (motorTail.length && endReading && !capped) {
-    sentence += ` Motor contribution (${motorTail.map((m) => m.id).join(', ')}) continues until ${fmt(Math.max(...motorTail.map((m) => stopOf(m).t)))} s.`;
+    sentence += ` Motor contribution (${idsText(motorTail)}) continues until ${fmt(Math.max(...motorTail.map((m) => stopOf(m).t)))} s.`;
   }
   if (capped) {
     warnings.push({
