@@ -28,9 +28,10 @@ export function useRowWindow(total: number, resetOn: unknown, mustShow = -1): { 
   return { shown, showMore: () => setLimit(Math.max(limit, shown) + ROW_WINDOW) };
 }
 
-const count = (n: number) => n.toLocaleString('en-US').replace(/,/g, '\u202f');
+/** A count as the app writes large numbers (shared/numberFormat.ts): `2,001`. */
+const count = (n: number) => n.toLocaleString('en-US');
 
-/** "Showing 100 of 10 001 buses." and the button for the next window; nothing once every row is drawn. */
+/** "Showing 100 of 10,001 buses." and the button for the next window; nothing once every row is drawn. */
 export function MoreRows({
   shown,
   total,
