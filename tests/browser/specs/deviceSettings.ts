@@ -211,7 +211,18 @@ export const specs: Spec[] = [
       await page.waitForTimeout(800);
       await h.shot(page, 'device-settings-trip-unit-desktop');
       await page.setViewportSize(PHONE);
-      await page.getByTestId('device-settings').scrollIntoViewIfNeeded();
+      // The editor turns its table into cards at this width and the settings panel is drawn again: wait for the cards,
+      // and scroll again if the panel was replaced while scrolling (CI once caught it detached mid-scroll).
+      await page.getByTestId(`card-devices-${index}`).waitFor();
+      for (let attempt = 1; ; attempt++) {
+        try {
+          await page.getByTestId('device-settings').scrollIntoViewIfNeeded({ timeout: 5_000 });
+          break;
+        } catch (e) {
+          if (attempt >= 3) throw e;
+          await page.waitForTimeout(300);
+        }
+      }
       await page.waitForTimeout(400);
       await h.shot(page, 'device-settings-trip-unit-phone');
       await page.setViewportSize(DESKTOP);
