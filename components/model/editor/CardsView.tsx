@@ -9,6 +9,7 @@ import { COLUMNS, type Column } from '../columns';
 import { FormField, Icon } from '../controls';
 import { elementKey, elementSummary, fieldLabel, issueMessage, problemCount, type AnyElement } from '../summaries';
 import { DeleteButton } from './DeleteButton';
+import { ProblemBadge } from './ProblemBadge';
 import { useIssueColumns, useScrollIntoView } from './rowHooks';
 import { NO_ISSUES, type RowProps } from './types';
 
@@ -67,11 +68,7 @@ export const CardRow = memo(function CardRow({
             </T>
           ) : null}
         </View>
-        {bad ? (
-          <View style={styles.problemBadge}>
-            <T style={styles.problemBadgeText}>{issues.length}</T>
-          </View>
-        ) : null}
+        {bad ? <ProblemBadge count={issues.length} /> : null}
         <Icon name={expanded ? 'chevron-down' : 'chevron-right'} size={20} color={colors.muted} />
       </Pressable>
       {expanded ? (
@@ -164,16 +161,6 @@ const styles = StyleSheet.create({
   titleName: { color: colors.muted, fontSize: 15 },
   summaryText: { fontSize: 14, lineHeight: 19, color: colors.inkSoft },
   summaryProblem: { fontSize: 14, lineHeight: 19, color: colors.danger },
-  problemBadge: {
-    minWidth: 22,
-    height: 22,
-    borderRadius: 11,
-    paddingHorizontal: 6,
-    backgroundColor: colors.danger,
-    alignItems: 'center',
-    justifyContent: 'center',
-  },
-  problemBadgeText: { color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 },
   body: {
     paddingHorizontal: space.md,
     paddingBottom: space.md,

@@ -12,6 +12,7 @@ import { Button, Card, T } from '../../ui';
 import { CheckCell, FormField, Icon, IconButton, NumCell, SegCell, TextCell } from '../controls';
 import { withField } from '../edit';
 import { DeleteButton } from './DeleteButton';
+import { ProblemBadge } from './ProblemBadge';
 import {
   addScenario,
   baseFaultText,
@@ -253,11 +254,7 @@ const ScenarioListRow = memo(function ScenarioListRow({
   wide: boolean;
   onPress: () => void;
 }) {
-  const badge = problems ? (
-    <View accessibilityLabel={problemCount(problems)} style={styles.problemBadge}>
-      <T style={styles.problemBadgeText}>{problems}</T>
-    </View>
-  ) : null;
+  const badge = problems ? <ProblemBadge count={problems} label={problemCount(problems)} /> : null;
   const idText = scenario.id || '(no id)';
   if (wide) {
     return (
@@ -1057,16 +1054,6 @@ const styles = StyleSheet.create({
   baseRowId: { width: LIST_ID_WIDTH, paddingHorizontal: space.md, fontFamily: fonts.textBold, color: colors.muted },
   baseRowName: { width: LIST_NAME_WIDTH, paddingHorizontal: space.md, color: colors.muted },
   baseRowNote: { flex: 1, paddingHorizontal: space.md },
-  problemBadge: {
-    minWidth: 22,
-    height: 22,
-    borderRadius: 11,
-    paddingHorizontal: 6,
-    backgroundColor: colors.danger,
-    alignItems: 'center',
-    justifyContent: 'center',
-  },
-  problemBadgeText: { color: '#FFFFFF', fontFamily: fonts.numbersBold, fontSize: 12, lineHeight: 16 },
   listRow: {
     flexDirection: 'row',
     alignItems: 'center',
